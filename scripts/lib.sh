@@ -1,0 +1,58 @@
+# Shared steps of start.sh, test.sh and dev.sh. Each step names itself, so a failure says
+# which step broke.
+set -euo pipefail
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+
+step() { printf '\n==> %s\n' "$*"; }
+fail() { printf '\nFAILED at step: %s\n' "$*" >&2; exit 1; }
+
+as_root() { if [ "$(id -u)" -eq 0 ]; then "$@"; else sudo "$@"; fi; }
+
+APT_UPDATED=0
+apt_install() {
+	command -v apt-get >/dev/null 2>&1 || fail "install $* (apt-get not available; install it by hand)"
+	if [ "$APT_UPDATED" -eq 0 ]; then
+		as_root apt-get update -qq >/dev/null || fail "apt-get update"
+		APT_UPDATED=1
+	fi
+	DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq "$@" >/dev/null || fail "apt-get install $*"
+}
+
+# npm ci when node_modules is missing or older than the lockfile.
+ensure_node_modules() {
+	local stamp=node_modules/.slotwise-lock.sha
+	local want
+	want="$(sha1sum package-lock.json | cut -d' ' -f1)"
+	if [ ! -d node_modules ] || [ "$(cat "$stamp" 2>/dev/null)" != "$want" ]; then
+		step "Installing npm packages (npm ci)"
+		npm ci --no-audit --no-fund || fail "npm ci"
+		echo "$want" >"$stamp"
+	fi
+}
+
+ensure_mariadb_package() {
+	if ! command -v mariadbd >/dev/null 2>&1 && [ ! -x /usr/sbin/mariadbd ]; then
+		step "Installing mariadb-server from Debian's packages"
+		apt_install mariadb-server
+	fi
+}
+
+ensure_chromium() {
+	if [ ! -x /usr/bin/chromium ]; then
+		step "Installing chromium from Debian's packages (for end-to-end tests)"
+		apt_install chromium
+	fi
+}
+
+start_db() {
+	step "Starting MariaDB on 127.0.0.1:${DB_PORT:-3307}"
+	bash scripts/db.sh start || fail "start MariaDB"
+}
+
+# migrate_and_seed DB_NAME
+migrate_and_seed() {
+	step "Migrating and seeding database $1"
+	DB_NAME="$1" npx tsx scripts/migrate.ts up || fail "migrate $1"
+	DB_NAME="$1" npx tsx scripts/seed.ts up || fail "seed $1"
+}

@@ -1,0 +1,30 @@
+/*
+ * The ordered list of migrations. Listed by hand (not globbed) so the same list works
+ * under Vite, vitest and tsx alike. Names are the file names: add new ones at the end.
+ */
+import type { MigrationModule } from '../umzug.js';
+import * as m00 from './2026.12.01T10.00.00.create-users.js';
+import * as m01 from './2026.12.01T10.01.00.create-regions.js';
+import * as m02 from './2026.12.01T10.02.00.create-fx-rates.js';
+import * as m03 from './2026.12.01T10.03.00.create-parts.js';
+import * as m04 from './2026.12.01T10.04.00.create-stores.js';
+import * as m05 from './2026.12.01T10.05.00.create-quotes.js';
+import * as m06 from './2026.12.01T10.06.00.create-guides.js';
+import * as m07 from './2026.12.01T10.07.00.create-guide-revisions.js';
+import * as m08 from './2026.12.01T10.08.00.add-guides-published-revision-fk.js';
+import * as m09 from './2026.12.01T10.09.00.create-guide-slots.js';
+import * as m10 from './2026.12.01T10.10.00.create-slot-alternates.js';
+
+export const migrations: Record<string, MigrationModule> = {
+	'2026.12.01T10.00.00.create-users': m00,
+	'2026.12.01T10.01.00.create-regions': m01,
+	'2026.12.01T10.02.00.create-fx-rates': m02,
+	'2026.12.01T10.03.00.create-parts': m03,
+	'2026.12.01T10.04.00.create-stores': m04,
+	'2026.12.01T10.05.00.create-quotes': m05,
+	'2026.12.01T10.06.00.create-guides': m06,
+	'2026.12.01T10.07.00.create-guide-revisions': m07,
+	'2026.12.01T10.08.00.add-guides-published-revision-fk': m08,
+	'2026.12.01T10.09.00.create-guide-slots': m09,
+	'2026.12.01T10.10.00.create-slot-alternates': m10
+};

@@ -1,0 +1,47 @@
+import { DataTypes, Model } from 'sequelize';
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type { GuideState } from '../../../domain/types.js';
+import type { GuideRevision } from './GuideRevision.js';
+import type { Region } from './Region.js';
+import type { User } from './User.js';
+
+/**
+ * A guide: the stable identity (slug, author) over its revisions. `version` guards
+ * concurrent edits (optimistic locking on save).
+ */
+export class Guide extends Model<InferAttributes<Guide>, InferCreationAttributes<Guide>> {
+	declare id: CreationOptional<number>;
+	declare slug: string;
+	declare authorId: ForeignKey<User['id']> | null;
+	declare title: string;
+	declare summary: string;
+	/** In minor units of the base region's currency. */
+	declare targetBudgetMinor: number;
+	declare baseRegionId: ForeignKey<Region['id']>;
+	declare tags: CreationOptional<string[]>;
+	declare featured: CreationOptional<boolean>;
+	declare state: CreationOptional<GuideState>;
+	declare publishedRevisionId: ForeignKey<GuideRevision['id']> | null;
+	declare version: CreationOptional<number>;
+	declare createdAt: CreationOptional<Date>;
+	declare updatedAt: CreationOptional<Date>;
+}
+
+export function initGuide(sequelize: Sequelize) {
+	Guide.init(
+		{
+			id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
+			slug: { type: DataTypes.STRING(140), allowNull: false, unique: true },
+			title: { type: DataTypes.STRING(160), allowNull: false },
+			summary: { type: DataTypes.TEXT, allowNull: false },
+			targetBudgetMinor: { type: DataTypes.BIGINT.UNSIGNED, allowNull: false },
+			tags: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
+			featured: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+			state: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'draft' },
+			version: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 1 },
+			createdAt: DataTypes.DATE,
+			updatedAt: DataTypes.DATE
+		},
+		{ sequelize, tableName: 'guides', underscored: true, indexes: [{ fields: ['state'] }] }
+	);
+}

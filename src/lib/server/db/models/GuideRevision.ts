@@ -1,0 +1,49 @@
+import { DataTypes, Model } from 'sequelize';
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type { Guide } from './Guide.js';
+import type { User } from './User.js';
+
+/**
+ * An immutable snapshot of a guide's content once submitted. Build notes are kept as the
+ * author's Markdown plus the sanitised HTML rendered once on save.
+ */
+export class GuideRevision extends Model<
+	InferAttributes<GuideRevision>,
+	InferCreationAttributes<GuideRevision>
+> {
+	declare id: CreationOptional<number>;
+	declare guideId: ForeignKey<Guide['id']>;
+	declare number: number;
+	declare buildNotesMd: string;
+	declare buildNotesHtml: CreationOptional<string | null>;
+	declare submittedAt: Date | null;
+	declare reviewedAt: Date | null;
+	declare publishedAt: Date | null;
+	declare reviewerId: ForeignKey<User['id']> | null;
+	declare reviewNote: string | null;
+	declare createdAt: CreationOptional<Date>;
+	declare updatedAt: CreationOptional<Date>;
+}
+
+export function initGuideRevision(sequelize: Sequelize) {
+	GuideRevision.init(
+		{
+			id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
+			number: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+			buildNotesMd: { type: DataTypes.TEXT('medium'), allowNull: false },
+			buildNotesHtml: { type: DataTypes.TEXT('medium'), allowNull: true },
+			submittedAt: { type: DataTypes.DATE, allowNull: true },
+			reviewedAt: { type: DataTypes.DATE, allowNull: true },
+			publishedAt: { type: DataTypes.DATE, allowNull: true },
+			reviewNote: { type: DataTypes.TEXT, allowNull: true },
+			createdAt: DataTypes.DATE,
+			updatedAt: DataTypes.DATE
+		},
+		{
+			sequelize,
+			tableName: 'guide_revisions',
+			underscored: true,
+			indexes: [{ unique: true, fields: ['guide_id', 'number'] }]
+		}
+	);
+}

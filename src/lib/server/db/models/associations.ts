@@ -1,0 +1,46 @@
+/*
+ * Every association in one place. Foreign keys are named explicitly so the attribute
+ * (camelCase) and column (snake_case, via underscored) match the migrations.
+ */
+import { Guide } from './Guide.js';
+import { GuideRevision } from './GuideRevision.js';
+import { GuideSlot } from './GuideSlot.js';
+import { Part } from './Part.js';
+import { Quote } from './Quote.js';
+import { Region } from './Region.js';
+import { SlotAlternate } from './SlotAlternate.js';
+import { Store } from './Store.js';
+import { User } from './User.js';
+
+export function applyAssociations() {
+	Region.hasMany(Store, { foreignKey: 'regionId', as: 'stores' });
+	Store.belongsTo(Region, { foreignKey: 'regionId', as: 'region' });
+
+	Part.hasMany(Quote, { foreignKey: 'partId', as: 'quotes' });
+	Quote.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+	Quote.belongsTo(Store, { foreignKey: 'storeId', as: 'store' });
+	Quote.belongsTo(Region, { foreignKey: 'regionId', as: 'region' });
+
+	User.hasMany(Guide, { foreignKey: 'authorId', as: 'guides' });
+	Guide.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+	Guide.belongsTo(Region, { foreignKey: 'baseRegionId', as: 'baseRegion' });
+	Guide.hasMany(GuideRevision, { foreignKey: 'guideId', as: 'revisions' });
+	Guide.belongsTo(GuideRevision, {
+		foreignKey: 'publishedRevisionId',
+		as: 'publishedRevision',
+		constraints: false // circular with guide_revisions.guide_id; the migration adds the FK
+	});
+
+	GuideRevision.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
+	GuideRevision.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
+	GuideRevision.hasMany(GuideSlot, { foreignKey: 'revisionId', as: 'slots' });
+
+	GuideSlot.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	GuideSlot.belongsTo(Part, { foreignKey: 'pickPartId', as: 'pick' });
+	GuideSlot.belongsTo(Quote, { foreignKey: 'priceQuoteId', as: 'priceQuote' });
+	GuideSlot.hasMany(SlotAlternate, { foreignKey: 'slotId', as: 'alternates' });
+
+	SlotAlternate.belongsTo(GuideSlot, { foreignKey: 'slotId', as: 'slot' });
+	SlotAlternate.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+
+}

@@ -1,0 +1,35 @@
+/*
+ * One-line JSON logs on stdout. Values are JSON-encoded, so CR/LF in a path cannot
+ * forge a log line; query strings are dropped because they may carry tokens.
+ */
+import type { RequestEvent } from '@sveltejs/kit';
+
+const quiet = process.env.LOG_LEVEL === 'silent';
+
+export function logRequest(event: RequestEvent, status: number, ms: number) {
+	if (quiet) return;
+	console.log(
+		JSON.stringify({
+			t: new Date().toISOString(),
+			kind: 'request',
+			method: event.request.method,
+			path: event.url.pathname,
+			route: event.route.id,
+			status,
+			ms: Math.round(ms)
+		})
+	);
+}
+
+export function logUnexpectedError(errorId: string, event: RequestEvent, error: unknown) {
+	console.error(
+		JSON.stringify({
+			t: new Date().toISOString(),
+			kind: 'error',
+			errorId,
+			method: event.request.method,
+			path: event.url.pathname,
+			error: error instanceof Error ? { name: error.name, message: error.message, stack: error.stack } : String(error)
+		})
+	);
+}

@@ -1,0 +1,64 @@
+import { expect, test } from '@playwright/test';
+import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
+
+/* Reading the demo: home, a guide page, a missing guide. Every request must stay on the
+ * app's own host: fonts, styles and scripts are shipped with the app. */
+
+function watchHosts(page: import('@playwright/test').Page) {
+	const foreign: string[] = [];
+	page.on('request', (request) => {
+		const url = new URL(request.url());
+		if (url.protocol === 'data:') return;
+		if (url.hostname !== '127.0.0.1') foreign.push(request.url());
+	});
+	return foreign;
+}
+
+test('home lists the published guides, and a guide page shows slots, alternates and prices', async ({ page }) => {
+	const foreign = watchHosts(page);
+	const fonts: string[] = [];
+	page.on('response', (response) => {
+		if (response.request().resourceType() === 'font') fonts.push(response.url());
+	});
+
+	await page.goto('/');
+	for (const guide of demoGuides) {
+		await expect(page.getByRole('link', { name: guide.title })).toBeVisible();
+	}
+
+	const first = demoGuides[0];
+	if (!first) throw new Error('no demo guide');
+	await page.getByRole('link', { name: first.title }).click();
+	await expect(page).toHaveURL(new RegExp(`/guides/${first.slug}$`));
+	await expect(page.getByRole('heading', { level: 1 })).toHaveText(first.title);
+
+	const slotsTable = page.getByRole('table').first();
+	await expect(slotsTable).toBeVisible();
+	// Every slot's label is listed, and at least one alternate is shown beneath its slot.
+	for (const slot of first.slots) {
+		await expect(slotsTable.getByText(slot.label, { exact: true }).first()).toBeVisible();
+	}
+	const firstAlternate = first.slots[0]?.alternates[0];
+	if (firstAlternate) await expect(page.getByText(firstAlternate.note).first()).toBeVisible();
+	// Prices carry the base region's currency formatting with digits.
+	await expect(slotsTable.getByText(/\d[\d,]*(\.\d+)?/).first()).toBeVisible();
+
+	await page.waitForLoadState('networkidle');
+	expect(fonts.length, 'Inter and Merriweather are served by the app').toBeGreaterThan(0);
+	expect(foreign, 'requests that left 127.0.0.1').toEqual([]);
+});
+
+test('a missing guide answers 404 with a readable page', async ({ page }) => {
+	const response = await page.goto('/guides/no-such-guide');
+	expect(response?.status()).toBe(404);
+	await expect(page.getByText('404')).toBeVisible();
+	await expect(page.getByRole('link', { name: /home|guides/i }).first()).toBeVisible();
+});
+
+test('the help page renders its highlighted code sample', async ({ page }) => {
+	const foreign = watchHosts(page);
+	await page.goto('/help');
+	await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+	await expect(page.locator('pre.shiki').first()).toBeVisible();
+	expect(foreign).toEqual([]);
+});

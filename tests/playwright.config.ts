@@ -1,0 +1,48 @@
+import { defineConfig } from '@playwright/test';
+
+/*
+ * End-to-end tests against the production build (`node build`) on a migrated, seeded
+ * database, in Debian's Chromium: no browser is ever downloaded.
+ */
+const PORT = Number(process.env.E2E_PORT ?? 4173);
+export const BASE_URL = `http://127.0.0.1:${PORT}`;
+
+export default defineConfig({
+	testDir: './e2e',
+	testMatch: '**/*.e2e.ts',
+	fullyParallel: false,
+	workers: 1,
+	retries: 0,
+	timeout: 30_000,
+	use: {
+		baseURL: BASE_URL,
+		trace: 'off',
+		launchOptions: {
+			executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+			args: [
+				'--headless',
+				'--no-sandbox',
+				'--disable-gpu',
+				'--disable-quic',
+				'--no-first-run',
+				'--disable-background-networking',
+				'--disable-component-update',
+				'--disable-sync'
+			]
+		}
+	},
+	webServer: {
+		command: 'node build',
+		cwd: '..',
+		url: `${BASE_URL}/api/health`,
+		reuseExistingServer: false,
+		timeout: 60_000,
+		env: {
+			PORT: String(PORT),
+			HOST: '127.0.0.1',
+			ORIGIN: BASE_URL,
+			DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e',
+			LOG_LEVEL: 'silent'
+		}
+	}
+});

@@ -1,0 +1,6 @@
+import { afterAll } from 'vitest';
+import { closeDb } from '../../src/lib/server/db';
+
+afterAll(async () => {
+	await closeDb();
+});
