@@ -1,3 +1,4 @@
+import { fileURLToPath } from 'node:url';
 import { escapeSvelte } from 'mdsvex';
 import { createHighlighter } from 'shiki';
 
@@ -15,7 +16,12 @@ const highlighter = await createHighlighter({ themes: [THEME], langs: LANGS });
 /** @type {import('mdsvex').MdsvexOptions} */
 const config = {
 	extensions: ['.svx'],
-	layout: { help: './src/lib/components/help/HelpLayout.svelte' },
+	// Svelte 5: layouts receive frontmatter through $props() and render children.
+	layoutPropForwarding: 'runes',
+	// Absolute: mdsvex emits the path as an import inside each .svx page.
+	layout: {
+		help: fileURLToPath(new URL('./src/lib/components/help/HelpLayout.svelte', import.meta.url))
+	},
 	highlight: {
 		highlighter: async (code, lang = 'text') => {
 			const language = LANGS.includes(lang) ? lang : 'text';
