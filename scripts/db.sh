@@ -80,6 +80,9 @@ start() {
 		return
 	fi
 	ensure_installed
+	if (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null; then
+		die "start MariaDB: port $PORT is taken by another process (another checkout's server?); set DB_PORT"
+	fi
 	# A server that is shutting down still holds the datadir: wait for it to go.
 	if [ -f "$PIDFILE" ]; then
 		local old

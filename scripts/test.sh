@@ -5,7 +5,7 @@
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
 export LOG_LEVEL="${LOG_LEVEL:-silent}"
-REPORTS="$ROOT/test-results"
+REPORTS="$ROOT/.reports"
 rm -rf "$REPORTS"
 mkdir -p "$REPORTS"
 

@@ -10,6 +10,8 @@ export const BASE_URL = `http://127.0.0.1:${PORT}`;
 export default defineConfig({
 	testDir: './e2e',
 	testMatch: '**/*.e2e.ts',
+	// Playwright empties its output folder at start: keep it apart from the run's reports.
+	outputDir: '../.reports/playwright-artifacts',
 	fullyParallel: false,
 	workers: 1,
 	retries: 0,
