@@ -136,12 +136,21 @@ status() {
 	fi
 }
 
+# Drops and creates one database, so a test run starts from an empty schema.
+recreate() {
+	local name="${1:?usage: scripts/db.sh recreate NAME}"
+	ping_db || die "recreate $name: MariaDB is not running"
+	mariadb --no-defaults --socket="$SOCKET" -uroot -e "DROP DATABASE IF EXISTS \`$name\`;" || die "drop $name"
+	DB_NAMES="$name" create_databases
+}
+
 case "${1:-}" in
 start) start ;;
+recreate) recreate "${2:-}" ;;
 stop) stop ;;
 status) status ;;
 *)
-	echo "usage: scripts/db.sh start|stop|status" >&2
+	echo "usage: scripts/db.sh start|stop|status|recreate NAME" >&2
 	exit 2
 	;;
 esac

@@ -5,5 +5,7 @@ export DB_NAME="${DB_NAME:-slotwise}"
 ensure_node_modules
 ensure_mariadb_package
 start_db
+start_mail_fake
+ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 exec npx vite dev --host 127.0.0.1 --port "${PORT:-5173}"

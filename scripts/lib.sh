@@ -50,9 +50,35 @@ start_db() {
 	bash scripts/db.sh start || fail "start MariaDB"
 }
 
+# The local SMTP fake (scripts/smtp-fake.sh) unless the environment names a real SMTP
+# server: a deployment sets SMTP_HOST itself, so no fake runs and MAILBOX_URL stays unset
+# (which also hides the dev-only /dev/mailbox page).
+start_mail_fake() {
+	if [ -n "${SMTP_HOST:-}" ]; then
+		step "Using the SMTP server $SMTP_HOST:${SMTP_PORT:-2525} from the environment (no local mail fake)"
+		return
+	fi
+	export SMTP_HOST=127.0.0.1
+	export SMTP_PORT="${SMTP_PORT:-2525}"
+	export MAILBOX_URL="http://127.0.0.1:${MAILBOX_PORT:-2580}"
+	step "Starting the local SMTP fake on 127.0.0.1:$SMTP_PORT (mailbox $MAILBOX_URL)"
+	bash scripts/smtp-fake.sh start || fail "start the SMTP fake"
+}
+
 # migrate_and_seed DB_NAME
 migrate_and_seed() {
 	step "Migrating and seeding database $1"
 	DB_NAME="$1" npx tsx scripts/migrate.ts up || fail "migrate $1"
 	DB_NAME="$1" npx tsx scripts/seed.ts up || fail "seed $1"
+}
+
+# A stable Auth.js secret for this checkout (kept in .data/, never committed). A deployment
+# sets AUTH_SECRET itself (at least 32 random characters).
+ensure_auth_secret() {
+	if [ -z "${AUTH_SECRET:-}" ]; then
+		mkdir -p .data
+		[ -s .data/auth-secret ] || node -e "process.stdout.write(require('crypto').randomBytes(32).toString('base64url'))" >.data/auth-secret
+		AUTH_SECRET="$(cat .data/auth-secret)"
+		export AUTH_SECRET
+	fi
 }

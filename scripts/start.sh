@@ -10,6 +10,8 @@ export DB_NAME="${DB_NAME:-slotwise}"
 ensure_node_modules
 ensure_mariadb_package
 start_db
+start_mail_fake
+ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 
 step "Building the app"
@@ -27,4 +29,7 @@ Demo accounts (demo seed only; password for all: slotwise-demo-password)
 
 Stop with Ctrl+C (MariaDB keeps running: npm run db:stop).
 MSG
+if [ -n "${MAILBOX_URL:-}" ]; then
+	echo "E-mail goes to the local SMTP fake; read it at $ORIGIN/dev/mailbox (stop it: bash scripts/smtp-fake.sh stop)"
+fi
 exec node build

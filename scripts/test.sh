@@ -13,8 +13,11 @@ ensure_node_modules
 ensure_mariadb_package
 ensure_chromium
 start_db
+start_mail_fake
+ensure_auth_secret
 # Integration tests migrate slotwise_test themselves (globalSetup) and truncate between tests;
 # end-to-end tests read the seeded demo in slotwise_e2e.
+bash scripts/db.sh recreate slotwise_e2e >/dev/null || fail "recreate slotwise_e2e"
 migrate_and_seed slotwise_e2e
 
 status=0

@@ -1,13 +1,26 @@
-import type { Handle, HandleServerError } from '@sveltejs/kit';
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { authHandle } from '$lib/server/auth/config';
+import { closeAuthEndpoints, guardAreas, jsonOnlyApi, resolveUser, securityHeaders } from '$lib/server/auth/hooks';
 import { closeDb } from '$lib/server/db';
 import { logRequest, logUnexpectedError } from '$lib/server/log';
+import { closeRateLimits } from '$lib/server/rate-limit';
 
-export const handle: Handle = async ({ event, resolve }) => {
+const log: Handle = async ({ event, resolve }) => {
 	const started = performance.now();
 	const response = await resolve(event);
 	logRequest(event, response.status, performance.now() - started);
 	return response;
 };
+
+/** Refuse to start without a usable Auth.js secret rather than fail every request later. */
+export const init: ServerInit = () => {
+	if ((process.env.AUTH_SECRET ?? '').length < 32) {
+		throw new Error('AUTH_SECRET must be set to at least 32 random characters (npm start makes one for development).');
+	}
+};
+
+export const handle = sequence(log, securityHeaders, jsonOnlyApi, closeAuthEndpoints, authHandle, resolveUser, guardAreas);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };
@@ -20,4 +33,5 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 // adapter-node emits this on SIGINT/SIGTERM after in-flight requests finish.
 process.once('sveltekit:shutdown' as never, () => {
 	void closeDb();
+	void closeRateLimits();
 });

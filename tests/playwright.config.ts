@@ -7,6 +7,15 @@ import { defineConfig } from '@playwright/test';
 const PORT = Number(process.env.E2E_PORT ?? 4173);
 export const BASE_URL = `http://127.0.0.1:${PORT}`;
 
+function passThrough(...names: string[]): Record<string, string> {
+	const env: Record<string, string> = {};
+	for (const name of names) {
+		const value = process.env[name];
+		if (value) env[name] = value;
+	}
+	return env;
+}
+
 export default defineConfig({
 	testDir: './e2e',
 	testMatch: '**/*.e2e.ts',
@@ -44,7 +53,9 @@ export default defineConfig({
 			HOST: '127.0.0.1',
 			ORIGIN: BASE_URL,
 			DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e',
-			LOG_LEVEL: 'silent'
+			LOG_LEVEL: 'silent',
+			// Mail goes to the SMTP fake that npm test starts; unset values are left out.
+			...passThrough('SMTP_HOST', 'SMTP_PORT', 'MAILBOX_URL')
 		}
 	}
 });

@@ -21,12 +21,13 @@ const APP_TABLES = [
 	'slot_alternates'
 ];
 
+/** Every table but the migration and seeder logs. */
 async function tablesPresent(): Promise<string[]> {
 	const rows = await sequelize.query<{ name: string }>(
 		'SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE()',
 		{ type: QueryTypes.SELECT }
 	);
-	return rows.map((r) => r.name).filter((n) => APP_TABLES.includes(n)).sort();
+	return rows.map((r) => r.name).filter((n) => !n.startsWith('schema_')).sort();
 }
 
 describe('migrations on the real MariaDB', () => {
@@ -38,7 +39,7 @@ describe('migrations on the real MariaDB', () => {
 
 		const applied = await umzug.up();
 		expect(applied.map((m) => m.name)).toEqual(Object.keys(migrations));
-		expect(await tablesPresent()).toEqual([...APP_TABLES].sort());
+		expect(await tablesPresent()).toEqual(expect.arrayContaining(APP_TABLES));
 		expect(await umzug.pending()).toEqual([]);
 	});
 

@@ -170,3 +170,23 @@ function regionSummary(r: Region): RegionSummary {
 		taxRateBp: r.taxRateBp
 	};
 }
+
+export interface AuthoredGuide {
+	slug: string;
+	title: string;
+	state: string;
+	updatedAt: string;
+	published: boolean;
+}
+
+/** The guides an author owns, in any state, most recently changed first. */
+export async function listByAuthor(authorId: string): Promise<AuthoredGuide[]> {
+	const rows = await Guide.findAll({ where: { authorId }, order: [['updatedAt', 'DESC']] });
+	return rows.map((g) => ({
+		slug: g.slug,
+		title: g.title,
+		state: g.state,
+		updatedAt: g.updatedAt.toISOString(),
+		published: g.state === 'published' && g.publishedRevisionId !== null
+	}));
+}

@@ -1,6 +1,6 @@
 /* Column helpers shared by migrations (timestamps, foreign keys), so every table agrees. */
-import { DataTypes } from 'sequelize';
-import type { ModelAttributeColumnOptions } from 'sequelize';
+import { DataTypes, QueryTypes } from 'sequelize';
+import type { ModelAttributeColumnOptions, QueryInterface } from 'sequelize';
 
 export const idColumn: ModelAttributeColumnOptions = {
 	type: DataTypes.INTEGER.UNSIGNED,
@@ -40,4 +40,12 @@ export function referencesUser(onDelete: OnDelete, allowNull = true): ModelAttri
 		onDelete,
 		onUpdate: 'CASCADE'
 	};
+}
+
+/**
+ * Drops a column with a typed raw query: Sequelize's removeColumn issues an untyped query,
+ * which the mariadb driver ≥ 3.1 rejects ("Cannot delete property 'meta'", STACK gotcha 3).
+ */
+export async function dropColumn(qi: QueryInterface, table: string, column: string): Promise<void> {
+	await qi.sequelize.query(`ALTER TABLE \`${table}\` DROP COLUMN \`${column}\``, { type: QueryTypes.RAW });
 }

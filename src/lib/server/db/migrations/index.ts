@@ -1,6 +1,7 @@
 /*
  * The ordered list of migrations. Listed by hand (not globbed) so the same list works
- * under Vite, vitest and tsx alike. Names are the file names: add new ones at the end.
+ * under Vite, vitest and tsx alike. Names are the file names, in timestamp order: add a
+ * new one at the end (import and entry, each entry with its trailing comma).
  */
 import type { MigrationModule } from '../umzug.js';
 import * as m00 from './2026.12.01T10.00.00.create-users.js';
@@ -14,6 +15,15 @@ import * as m07 from './2026.12.01T10.07.00.create-guide-revisions.js';
 import * as m08 from './2026.12.01T10.08.00.add-guides-published-revision-fk.js';
 import * as m09 from './2026.12.01T10.09.00.create-guide-slots.js';
 import * as m10 from './2026.12.01T10.10.00.create-slot-alternates.js';
+import * as m11 from './2026.12.02T09.00.00.add-users-session-version.js';
+import * as m12 from './2026.12.02T09.01.00.add-users-disabled-at.js';
+import * as m13 from './2026.12.02T09.02.00.create-accounts.js';
+import * as m14 from './2026.12.02T09.03.00.create-sessions.js';
+import * as m15 from './2026.12.02T09.04.00.create-verification-tokens.js';
+import * as m16 from './2026.12.02T09.05.00.create-audit-events.js';
+import * as m17 from './2026.12.02T09.06.00.create-author-requests.js';
+import * as m18 from './2026.12.02T09.07.00.create-rate-limits.js';
+import * as m19 from './2026.12.02T09.08.00.create-email-tokens.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -26,5 +36,14 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.07.00.create-guide-revisions': m07,
 	'2026.12.01T10.08.00.add-guides-published-revision-fk': m08,
 	'2026.12.01T10.09.00.create-guide-slots': m09,
-	'2026.12.01T10.10.00.create-slot-alternates': m10
+	'2026.12.01T10.10.00.create-slot-alternates': m10,
+	'2026.12.02T09.00.00.add-users-session-version': m11,
+	'2026.12.02T09.01.00.add-users-disabled-at': m12,
+	'2026.12.02T09.02.00.create-accounts': m13,
+	'2026.12.02T09.03.00.create-sessions': m14,
+	'2026.12.02T09.04.00.create-verification-tokens': m15,
+	'2026.12.02T09.05.00.create-audit-events': m16,
+	'2026.12.02T09.06.00.create-author-requests': m17,
+	'2026.12.02T09.07.00.create-rate-limits': m18,
+	'2026.12.02T09.08.00.create-email-tokens': m19,
 };

@@ -15,6 +15,9 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	/** Named for the Auth.js adapter; stored as email_verified_at. */
 	declare emailVerified: CreationOptional<Date | null>;
 	declare image: CreationOptional<string | null>;
+	/** Sessions carrying an older number are refused (see the auth hook). */
+	declare sessionVersion: CreationOptional<number>;
+	declare disabledAt: CreationOptional<Date | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -29,6 +32,8 @@ export function initUser(sequelize: Sequelize) {
 			role: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'reader' },
 			emailVerified: { type: DataTypes.DATE, allowNull: true, field: 'email_verified_at' },
 			image: { type: DataTypes.STRING(500), allowNull: true },
+			sessionVersion: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 1 },
+			disabledAt: { type: DataTypes.DATE, allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

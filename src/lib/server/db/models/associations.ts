@@ -2,12 +2,16 @@
  * Every association in one place. Foreign keys are named explicitly so the attribute
  * (camelCase) and column (snake_case, via underscored) match the migrations.
  */
+import { Account } from './Account.js';
+import { AuditEvent } from './AuditEvent.js';
+import { AuthorRequest } from './AuthorRequest.js';
 import { Guide } from './Guide.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
 import { Part } from './Part.js';
 import { Quote } from './Quote.js';
 import { Region } from './Region.js';
+import { Session } from './Session.js';
 import { SlotAlternate } from './SlotAlternate.js';
 import { Store } from './Store.js';
 import { User } from './User.js';
@@ -42,5 +46,14 @@ export function applyAssociations() {
 
 	SlotAlternate.belongsTo(GuideSlot, { foreignKey: 'slotId', as: 'slot' });
 	SlotAlternate.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+
+	User.hasMany(Account, { foreignKey: 'userId', as: 'accounts' });
+	User.hasMany(Session, { foreignKey: 'userId', as: 'sessions' });
+
+	AuditEvent.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+
+	User.hasMany(AuthorRequest, { foreignKey: 'userId', as: 'authorRequests' });
+	AuthorRequest.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+	AuthorRequest.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
 
 }

@@ -1,5 +1,9 @@
 import type { Sequelize } from 'sequelize';
+import { Account, initAccount } from './Account.js';
 import { applyAssociations } from './associations.js';
+import { AuditEvent, initAuditEvent } from './AuditEvent.js';
+import { AuthorRequest, initAuthorRequest } from './AuthorRequest.js';
+import { EmailToken, initEmailToken } from './EmailToken.js';
 import { FxRate, initFxRate } from './FxRate.js';
 import { Guide, initGuide } from './Guide.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
@@ -7,11 +11,30 @@ import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
 import { Quote, initQuote } from './Quote.js';
 import { Region, initRegion } from './Region.js';
+import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
 import { Store, initStore } from './Store.js';
 import { User, initUser } from './User.js';
+import { VerificationToken, initVerificationToken } from './VerificationToken.js';
 
-export { FxRate, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, User };
+export {
+	Account,
+	AuditEvent,
+	AuthorRequest,
+	EmailToken,
+	FxRate,
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	Session,
+	SlotAlternate,
+	Store,
+	User,
+	VerificationToken
+};
 
 export function initModels(sequelize: Sequelize) {
 	initUser(sequelize);
@@ -24,5 +47,11 @@ export function initModels(sequelize: Sequelize) {
 	initGuideRevision(sequelize);
 	initGuideSlot(sequelize);
 	initSlotAlternate(sequelize);
+	initAccount(sequelize);
+	initSession(sequelize);
+	initVerificationToken(sequelize);
+	initEmailToken(sequelize);
+	initAuditEvent(sequelize);
+	initAuthorRequest(sequelize);
 	applyAssociations();
 }

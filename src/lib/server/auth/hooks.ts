@@ -1,0 +1,101 @@
+/*
+ * The request pipeline's security pieces, composed in src/hooks.server.ts.
+ */
+import { error, json, redirect } from '@sveltejs/kit';
+import type { Handle } from '@sveltejs/kit';
+
+/**
+ * Auth.js answers every /auth/* path itself. Only what a browser needs directly stays
+ * open: the session read, the sign-in link callback and Auth.js's error page. Sign-in,
+ * sign-up and sign-out go through our form actions, where validation and rate limits run.
+ */
+const OPEN_AUTH_PATHS = [/^\/auth\/session$/, /^\/auth\/callback\/nodemailer$/, /^\/auth\/error$/, /^\/auth\/verify-request$/];
+
+export const closeAuthEndpoints: Handle = ({ event, resolve }) => {
+	const { pathname } = event.url;
+	if (pathname.startsWith('/auth/')) {
+		const open = event.request.method === 'GET' && OPEN_AUTH_PATHS.some((p) => p.test(pathname));
+		if (!open) error(404, 'Not found');
+	}
+	return resolve(event);
+};
+
+/** Fills locals.user from the session; the jwt callback has re-checked it against the database. */
+export const resolveUser: Handle = async ({ event, resolve }) => {
+	event.locals.user = null;
+	const session = await event.locals.auth();
+	const user = session?.user;
+	if (user?.id) event.locals.user = { id: user.id, email: user.email, name: user.name ?? null, role: user.role };
+	return resolve(event);
+};
+
+type Area = 'account' | 'author' | 'editor' | 'admin';
+
+/** Roles allowed in each route group besides admin, who may go everywhere. */
+const AREA_ROLES: Record<Area, readonly string[]> = {
+	account: ['reader', 'author', 'editor'],
+	author: ['author', 'editor'],
+	editor: ['editor'],
+	admin: []
+};
+
+function areaOf(routeId: string): Area | null {
+	const match = /^\/\((account|author|editor|admin)\)/.exec(routeId);
+	return match ? (match[1] as Area) : null;
+}
+
+/**
+ * Whole areas by route group: (account) needs any signed-in user, (author) an author or
+ * editor, (editor) an editor, (admin) an admin. Loads and actions check again themselves.
+ */
+export const guardAreas: Handle = ({ event, resolve }) => {
+	const user = event.locals.user;
+	const area = areaOf(event.route.id ?? '');
+	if (area) {
+		if (!user) {
+			if (event.request.method !== 'GET') error(401, 'Sign in first');
+			redirect(303, `/signin?redirectTo=${encodeURIComponent(event.url.pathname + event.url.search)}`);
+		}
+		const allowed = user.role === 'admin' || AREA_ROLES[area].includes(user.role);
+		if (!allowed) error(403, 'You do not have access to this page');
+	}
+	return resolve(event);
+};
+
+const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * SvelteKit's CSRF check covers only form content types, so JSON API routes refuse
+ * everything else: a cross-site form cannot post JSON without a CORS preflight.
+ */
+export const jsonOnlyApi: Handle = ({ event, resolve }) => {
+	if (event.url.pathname.startsWith('/api/') && BODY_METHODS.has(event.request.method)) {
+		const type = event.request.headers.get('content-type') ?? '';
+		if (!/^application\/json\b/i.test(type)) {
+			return json({ message: 'Send a JSON body (Content-Type: application/json).' }, { status: 415 });
+		}
+	}
+	return resolve(event);
+};
+
+/** Response headers for every page; HSTS only when the site is served over https. */
+export const securityHeaders: Handle = async ({ event, resolve }) => {
+	let response = await resolve(event);
+	// Redirects made with Response.redirect() (Auth.js does) have immutable headers.
+	try {
+		response.headers.set('x-content-type-options', 'nosniff');
+	} catch {
+		response = new Response(response.body, response);
+	}
+	const headers = response.headers;
+	headers.set('x-content-type-options', 'nosniff');
+	headers.set('referrer-policy', 'strict-origin-when-cross-origin');
+	headers.set('x-frame-options', 'DENY');
+	headers.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), interest-cohort=()');
+	headers.set('cross-origin-opener-policy', 'same-origin');
+	if (event.url.protocol === 'https:') {
+		headers.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
+	}
+	if (event.locals.user && !headers.has('cache-control')) headers.set('cache-control', 'no-store');
+	return response;
+};

@@ -1,0 +1,104 @@
+/*
+ * The one way the app sends e-mail. Relative imports and plain process.env only (see
+ * transport.ts), so scripts can send too.
+ *
+ * Rules from SECURITY-CHECKLIST.md §8: exactly one recipient per message, passed as an
+ * address object so nodemailer never parses a user-typed string into a list; the address
+ * must pass the app-wide `emailAddress` schema; the subject loses any CR/LF; the only
+ * headers are the ones we set, and extra headers (List-Unsubscribe and the like) are
+ * refused unless they are plain single-line ASCII under a name we do not manage ourselves.
+ */
+import { emailAddress } from '../../schemas/email.js';
+import type { MailTemplate } from './templates.js';
+import { getTransport } from './transport.js';
+
+export type { MailTemplate } from './templates.js';
+export * as templates from './templates.js';
+export { closeTransport, mailConfigFromEnv } from './transport.js';
+
+/** The recipient failed the `emailAddress` schema; nothing was sent. */
+export class MailAddressError extends Error {
+	override readonly name = 'MailAddressError';
+	/** The schema's plain-language reason. The address itself is left out: it may hold CR/LF. */
+	readonly reason: string;
+	constructor(reason: string) {
+		super(`Refused to send e-mail: ${reason}`);
+		this.reason = reason;
+	}
+}
+
+/** An extra header had a name we manage ourselves or a value that is not one plain line. */
+export class MailHeaderError extends Error {
+	override readonly name = 'MailHeaderError';
+}
+
+// Set by nodemailer from our own data; a caller-supplied copy could add or redirect recipients.
+const RESERVED_HEADERS = new Set([
+	'from',
+	'sender',
+	'reply-to',
+	'to',
+	'cc',
+	'bcc',
+	'subject',
+	'date',
+	'message-id',
+	'return-path',
+	'mime-version',
+	'content-type',
+	'content-transfer-encoding'
+]);
+const HEADER_NAME = /^[A-Za-z0-9][A-Za-z0-9-]{0,75}$/;
+// Printable ASCII, space and tab; RFC 5322 caps a line at 998 characters including the name.
+const HEADER_VALUE = /^[\x20-\x7e\t]{1,900}$/;
+
+function checkedHeaders(headers: Record<string, string>): Record<string, string> {
+	const out: Record<string, string> = {};
+	for (const [name, value] of Object.entries(headers)) {
+		if (!HEADER_NAME.test(name) || RESERVED_HEADERS.has(name.toLowerCase())) {
+			throw new MailHeaderError(`Refused header name ${JSON.stringify(name)}`);
+		}
+		if (typeof value !== 'string' || !HEADER_VALUE.test(value)) {
+			throw new MailHeaderError(
+				`Refused value for header ${name}: it must be one line of plain ASCII`
+			);
+		}
+		out[name] = value;
+	}
+	return out;
+}
+
+/** One line: CR/LF (and other control characters) become spaces. */
+export function oneLineSubject(subject: string): string {
+	return subject
+		// eslint-disable-next-line no-control-regex
+		.replace(/[\u0000-\u001f\u007f\u0085\u2028\u2029]+/g, ' ')
+		.replace(/ {2,}/g, ' ')
+		.trim();
+}
+
+/**
+ * Sends one message to exactly one recipient over SMTP. Throws `MailAddressError` (before
+ * any connection) when `to` fails the `emailAddress` schema, `MailHeaderError` for a bad
+ * extra header, and nodemailer's error when the server refuses or cannot be reached.
+ */
+export async function send(
+	to: string,
+	message: MailTemplate,
+	headers?: Record<string, string>
+): Promise<void> {
+	const parsed = emailAddress.safeParse(to);
+	if (!parsed.success) {
+		throw new MailAddressError(parsed.error.issues[0]?.message ?? 'invalid e-mail address');
+	}
+	const extraHeaders = headers ? checkedHeaders(headers) : undefined;
+	const { config, transporter } = getTransport();
+	await transporter.sendMail({
+		from: config.from,
+		to: { address: parsed.data },
+		subject: oneLineSubject(message.subject),
+		text: message.text,
+		html: message.html,
+		headers: extraHeaders
+	});
+}

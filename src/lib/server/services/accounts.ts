@@ -1,0 +1,222 @@
+/**
+ * Accounts: sign-up with e-mail verification, password check, reset and change, profile,
+ * deletion. Answers never reveal whether an e-mail address has an account.
+ */
+import { createHash, randomBytes } from 'node:crypto';
+import { Op } from 'sequelize';
+import type { Transaction } from 'sequelize';
+import { EmailToken, Guide, User, sequelize } from '$lib/server/db';
+import type { EmailTokenPurpose } from '$lib/server/db/models/EmailToken';
+import { hashPassword, verifyPassword } from '$lib/server/auth/password';
+import * as mail from '$lib/server/mail';
+import * as templates from '$lib/server/mail/templates';
+import type { Role } from '$lib/domain/types';
+
+export const VERIFY_EMAIL_MINUTES = 24 * 60;
+/** Out-of-band links used to get into an account expire within 10 minutes (ASVS 6.5.5). */
+export const RESET_PASSWORD_MINUTES = 10;
+
+const MINUTE_MS = 60_000;
+
+// Checked when the e-mail is unknown, so a wrong address costs as long as a wrong password.
+let timingDecoyHash: Promise<string> | undefined;
+
+export interface AccountView {
+	id: string;
+	email: string;
+	name: string | null;
+	role: Role;
+	emailVerified: boolean;
+	hasPassword: boolean;
+	createdAt: string;
+}
+
+function hashToken(token: string): string {
+	return createHash('sha256').update(token).digest('hex');
+}
+
+async function issueToken(userId: string, purpose: EmailTokenPurpose, minutes: number, transaction?: Transaction) {
+	const token = randomBytes(32).toString('base64url');
+	await EmailToken.create(
+		{ userId, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + minutes * MINUTE_MS) },
+		{ transaction }
+	);
+	return token;
+}
+
+/** Marks a token used and returns its user id, or null when unknown, used or expired. */
+async function redeemToken(token: string, purpose: EmailTokenPurpose, transaction: Transaction): Promise<string | null> {
+	const row = await EmailToken.findOne({
+		where: { tokenHash: hashToken(token), purpose },
+		lock: transaction.LOCK.UPDATE,
+		transaction
+	});
+	if (!row || row.usedAt || row.expiresAt.getTime() < Date.now()) return null;
+	await row.update({ usedAt: new Date() }, { transaction });
+	return row.userId;
+}
+
+export type SignUpOutcome = { kind: 'ok' };
+
+/**
+ * Creates an unverified reader account and mails a verification link. When the address is
+ * taken, the owner gets a note instead and the caller sees the same outcome.
+ */
+export async function signUp(input: { name: string; email: string; password: string }, origin: string): Promise<SignUpOutcome> {
+	const existing = await User.findOne({ where: { email: input.email } });
+	if (existing) {
+		const message = templates.signUpWithExistingEmail({
+			signInUrl: `${origin}/signin`,
+			resetUrl: `${origin}/reset`
+		});
+		await mail.send(existing.email, message);
+		return { kind: 'ok' };
+	}
+	const passwordHash = await hashPassword(input.password);
+	const token = await sequelize.transaction(async (transaction) => {
+		const user = await User.create(
+			{ email: input.email, name: input.name, passwordHash, role: 'reader', emailVerified: null },
+			{ transaction }
+		);
+		return issueToken(user.id, 'verify_email', VERIFY_EMAIL_MINUTES, transaction);
+	});
+	await mail.send(input.email, templates.verifyEmail({ name: input.name, url: `${origin}/verify?token=${token}` }));
+	return { kind: 'ok' };
+}
+
+/** Confirms an address from its link. */
+export async function verifyEmail(token: string): Promise<'verified' | 'invalid'> {
+	return sequelize.transaction(async (transaction) => {
+		const userId = await redeemToken(token, 'verify_email', transaction);
+		if (!userId) return 'invalid';
+		await User.update({ emailVerified: new Date() }, { where: { id: userId, emailVerified: null }, transaction });
+		return 'verified';
+	});
+}
+
+export interface AuthenticatedUser {
+	id: string;
+	email: string;
+	name: string | null;
+	role: Role;
+	sessionVersion: number;
+}
+
+/**
+ * Checks an e-mail and password. Unknown address, wrong password, unverified address and
+ * disabled account all give null, after the same argon2 work.
+ */
+export async function authenticate(email: string, password: string): Promise<AuthenticatedUser | null> {
+	const user = await User.findOne({ where: { email } });
+	if (!user?.passwordHash) {
+		timingDecoyHash ??= hashPassword(randomBytes(16).toString('hex'));
+		await verifyPassword(await timingDecoyHash, password);
+		return null;
+	}
+	const ok = await verifyPassword(user.passwordHash, password);
+	if (!ok || user.disabledAt || !user.emailVerified) return null;
+	return { id: user.id, email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
+}
+
+/** Mails a reset link when the address has an active account; silent otherwise. */
+export async function requestPasswordReset(email: string, origin: string): Promise<void> {
+	const user = await User.findOne({ where: { email, disabledAt: null } });
+	if (!user) return;
+	const token = await issueToken(user.id, 'reset_password', RESET_PASSWORD_MINUTES);
+	await mail.send(
+		user.email,
+		templates.resetPassword({ url: `${origin}/reset/${token}`, minutes: RESET_PASSWORD_MINUTES })
+	);
+}
+
+/** Whether a reset token can still be used (for showing the form). */
+export async function isResetTokenUsable(token: string): Promise<boolean> {
+	const row = await EmailToken.findOne({ where: { tokenHash: hashToken(token), purpose: 'reset_password' } });
+	return Boolean(row && !row.usedAt && row.expiresAt.getTime() >= Date.now());
+}
+
+/**
+ * Sets a new password from a reset link. Every session of the account ends (session
+ * version bump), other reset links die, and the address counts as verified (the link
+ * proved it).
+ */
+export async function resetPassword(token: string, password: string): Promise<'reset' | 'invalid'> {
+	const passwordHash = await hashPassword(password);
+	const email = await sequelize.transaction(async (transaction) => {
+		const userId = await redeemToken(token, 'reset_password', transaction);
+		if (!userId) return null;
+		const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
+		if (!user || user.disabledAt) return null;
+		await user.update(
+			{
+				passwordHash,
+				sessionVersion: user.sessionVersion + 1,
+				emailVerified: user.emailVerified ?? new Date()
+			},
+			{ transaction }
+		);
+		await EmailToken.update(
+			{ usedAt: new Date() },
+			{ where: { userId, purpose: 'reset_password', usedAt: null }, transaction }
+		);
+		return user.email;
+	});
+	if (!email) return 'invalid';
+	await mail.send(email, templates.passwordChanged({}));
+	return 'reset';
+}
+
+export type ChangePasswordOutcome = { kind: 'ok' } | { kind: 'wrong_password' };
+
+/** Changes the password after checking the current one; ends every session. */
+export async function changePassword(userId: string, current: string, next: string): Promise<ChangePasswordOutcome> {
+	const user = await User.findByPk(userId);
+	if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, current))) return { kind: 'wrong_password' };
+	const passwordHash = await hashPassword(next);
+	await User.update(
+		{ passwordHash, sessionVersion: user.sessionVersion + 1 },
+		{ where: { id: userId, sessionVersion: user.sessionVersion } }
+	);
+	await mail.send(user.email, templates.passwordChanged({}));
+	return { kind: 'ok' };
+}
+
+export async function getAccount(userId: string): Promise<AccountView | null> {
+	const user = await User.findByPk(userId);
+	if (!user) return null;
+	return {
+		id: user.id,
+		email: user.email,
+		name: user.name,
+		role: user.role,
+		emailVerified: Boolean(user.emailVerified),
+		hasPassword: Boolean(user.passwordHash),
+		createdAt: user.createdAt.toISOString()
+	};
+}
+
+export async function updateProfile(userId: string, input: { name: string }): Promise<void> {
+	await User.update({ name: input.name }, { where: { id: userId } });
+}
+
+/**
+ * Deletes the account and its personal data. Published guides stay, shown under
+ * "former member" (guides.author_id is set to null by its foreign key).
+ */
+export async function deleteAccount(userId: string): Promise<void> {
+	await sequelize.transaction(async (transaction) => {
+		// Unpublished work is personal data; published guides are community content.
+		await Guide.destroy({
+			where: { authorId: userId, state: { [Op.ne]: 'published' } },
+			transaction
+		});
+		await User.destroy({ where: { id: userId }, transaction });
+	});
+}
+
+/** Session check on every request: the user's current role, or null to end the session. */
+export async function sessionUser(id: string, sessionVersion: number) {
+	const user = await User.findByPk(id, { attributes: ['id', 'email', 'name', 'role', 'sessionVersion', 'disabledAt'] });
+	if (!user || user.disabledAt || user.sessionVersion !== sessionVersion) return null;
+	return { id: user.id, email: user.email, name: user.name, role: user.role };
+}

@@ -1,0 +1,59 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { changePasswordInput, deleteAccountInput, formFields, profileInput } from '$lib/schemas/account';
+import { authorRequestInput } from '$lib/schemas/author-requests';
+import { fieldIssues } from '$lib/schemas/issues';
+import { requireUser } from '$lib/server/auth/guards';
+import { signOut } from '$lib/server/auth/sign-in';
+import * as accounts from '$lib/server/services/accounts';
+import * as authorRequests from '$lib/server/services/author-requests';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async () => {
+	const user = requireUser();
+	const account = await accounts.getAccount(user.id);
+	if (!account) error(404, 'Account not found');
+	return { account, authorRequest: await authorRequests.getMine(user.id) };
+};
+
+export const actions: Actions = {
+	profile: async ({ request }) => {
+		const user = requireUser();
+		const input = profileInput.safeParse(formFields(await request.formData()));
+		if (!input.success) return fail(400, { section: 'profile', issues: fieldIssues(input.error) });
+		await accounts.updateProfile(user.id, input.data);
+		return { section: 'profile', message: 'Your name is saved.' };
+	},
+
+	password: async ({ request }) => {
+		const user = requireUser();
+		const input = changePasswordInput.safeParse(formFields(await request.formData()));
+		if (!input.success) return fail(400, { section: 'password', issues: fieldIssues(input.error) });
+		const outcome = await accounts.changePassword(user.id, input.data.currentPassword, input.data.newPassword);
+		if (outcome.kind === 'wrong_password') {
+			return fail(400, { section: 'password', issues: { currentPassword: ['That is not your current password.'] } });
+		}
+		// Every session ended with the change, this one too: sign in again with the new password.
+		redirect(303, '/signin?changed');
+	},
+
+	requestAuthor: async ({ request }) => {
+		const user = requireUser();
+		const input = authorRequestInput.safeParse(formFields(await request.formData()));
+		if (!input.success) return fail(400, { section: 'author', issues: fieldIssues(input.error) });
+		const outcome = await authorRequests.submit(user.id, input.data.pitch);
+		if (outcome.kind === 'conflict') return fail(409, { section: 'author', message: outcome.message });
+		if (outcome.kind !== 'ok') error(404, 'Account not found');
+		return { section: 'author', message: 'Thanks. An editor will read your request; you will get an e-mail either way.' };
+	},
+
+	delete: async (event) => {
+		const user = requireUser();
+		const input = deleteAccountInput.safeParse(formFields(await event.request.formData()));
+		if (!input.success || input.data.confirmEmail !== user.email) {
+			return fail(400, { section: 'delete', issues: { confirmEmail: ['Type the e-mail address of this account to confirm.'] } });
+		}
+		await accounts.deleteAccount(user.id);
+		await signOut(event);
+		redirect(303, '/?deleted');
+	}
+};

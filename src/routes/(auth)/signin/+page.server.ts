@@ -1,0 +1,54 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { formFields, linkSignInInput, passwordSignInInput, redirectTarget } from '$lib/schemas/account';
+import { fieldIssues } from '$lib/schemas/issues';
+import { sendSignInLink, signInWithPassword } from '$lib/server/auth/sign-in';
+import * as limits from '$lib/server/rate-limit';
+import { emailLinkChecks, signInChecks } from '$lib/server/rate-limit-keys';
+import { tooManyRequests } from '$lib/server/rate-limit-response';
+import type { Actions, PageServerLoad } from './$types';
+
+/** One message for unknown address, wrong password, unconfirmed or disabled account. */
+const REFUSED = 'That e-mail and password do not match an account we can sign in. Check both, or use a sign-in link.';
+
+export const load: PageServerLoad = ({ locals, url }) => {
+	const redirectTo = redirectTarget.parse(url.searchParams.get('redirectTo') ?? '/');
+	if (locals.user) redirect(303, redirectTo);
+	// Auth.js sends link failures (expired or used links) back here with ?error=.
+	const linkError = url.searchParams.get('error') === 'Verification';
+	return { redirectTo, linkError, changed: url.searchParams.has('changed') };
+};
+
+export const actions: Actions = {
+	password: async (event) => {
+		const fields = formFields(await event.request.formData());
+		const input = passwordSignInInput.safeParse(fields);
+		if (!input.success) return fail(400, { form: 'password', email: fields.email ?? '', issues: fieldIssues(input.error) });
+		const { email, password, redirectTo = '/' } = input.data;
+
+		const checks = signInChecks(event.getClientAddress(), email);
+		for (const [limiter, key] of checks) {
+			const state = await limits.peek(limiter, key);
+			if (state.blocked) return tooManyRequests(state.retryAfterSeconds);
+		}
+		if (!(await signInWithPassword(event, email, password))) {
+			await limits.consumeAll(checks);
+			return fail(400, { form: 'password', email, message: REFUSED });
+		}
+		await limits.reset('signInByAccountAndAddress', checks[1]?.[1] ?? '');
+		redirect(303, redirectTo);
+	},
+
+	link: async (event) => {
+		const fields = formFields(await event.request.formData());
+		const input = linkSignInInput.safeParse(fields);
+		if (!input.success) return fail(400, { form: 'link', email: fields.email ?? '', issues: fieldIssues(input.error) });
+		const { email, redirectTo = '/' } = input.data;
+
+		const allowed = await limits.consumeAll(emailLinkChecks(event.getClientAddress(), email));
+		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);
+		if (!(await sendSignInLink(event, email, redirectTo))) {
+			return fail(503, { form: 'link', email, message: 'We could not send the e-mail just now. Please try again in a minute.' });
+		}
+		redirect(303, '/signin/check-email');
+	}
+};

@@ -1,0 +1,155 @@
+import { expect, request as playwrightRequest, test } from '@playwright/test';
+import type { APIRequestContext } from '@playwright/test';
+import { readFileSync, readdirSync, statSync } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
+import { BASE_URL } from '../playwright.config';
+import { DEMO_PASSWORD } from './support';
+
+/*
+ * The authorization matrix (ASVS 8.2.1): every page, form action and API route found under
+ * src/routes, for every role, against the table below. A route that is not in the table
+ * fails the test, so each new route must be added with its expected outcomes.
+ */
+type Role = 'visitor' | 'reader' | 'author' | 'editor' | 'admin';
+type Outcome = 'ok' | 'signin' | 'forbidden' | 'notfound';
+const ROLES: Role[] = ['visitor', 'reader', 'author', 'editor', 'admin'];
+
+const everyone = (o: Outcome): Record<Role, Outcome> => ({ visitor: o, reader: o, author: o, editor: o, admin: o });
+const signedIn: Record<Role, Outcome> = { visitor: 'signin', reader: 'ok', author: 'ok', editor: 'ok', admin: 'ok' };
+const authors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'ok', admin: 'ok' };
+const editors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'ok', admin: 'ok' };
+const admins: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'forbidden', admin: 'ok' };
+
+// "ok" means the request got past authorization (a page, a redirect elsewhere, or a 400
+// for the empty form this test posts); nothing here is meant to succeed at changing data.
+const EXPECTED: Record<string, Record<Role, Outcome>> = {
+	'GET /(public)': everyone('ok'),
+	'GET /(public)/guides/[slug=slug]': everyone('ok'),
+	'GET /help': everyone('ok'),
+	'GET /api/health': everyone('ok'),
+	'GET /(auth)/signin': everyone('ok'),
+	'POST /(auth)/signin?/password': everyone('ok'),
+	'POST /(auth)/signin?/link': everyone('ok'),
+	'GET /(auth)/signin/check-email': everyone('ok'),
+	'GET /(auth)/signup': everyone('ok'),
+	'POST /(auth)/signup?/default': everyone('ok'),
+	'GET /(auth)/verify': everyone('ok'),
+	'POST /(auth)/verify?/default': everyone('ok'),
+	'GET /(auth)/reset': everyone('ok'),
+	'POST /(auth)/reset?/default': everyone('ok'),
+	'GET /(auth)/reset/[token]': everyone('ok'),
+	'POST /(auth)/reset/[token]?/default': everyone('ok'),
+	'GET /(auth)/signout': everyone('ok'),
+	'POST /(auth)/signout?/default': everyone('ok'),
+	'GET /(account)/account': signedIn,
+	'POST /(account)/account?/profile': signedIn,
+	'POST /(account)/account?/password': signedIn,
+	'POST /(account)/account?/requestAuthor': signedIn,
+	'POST /(account)/account?/delete': signedIn,
+	'GET /(author)/my/guides': authors,
+	'GET /(editor)/editor/author-requests': editors,
+	'POST /(editor)/editor/author-requests?/decide': editors,
+	'GET /(admin)/admin/users': admins,
+	'POST /(admin)/admin/users?/changeRole': admins,
+	'POST /(admin)/admin/users?/setDisabled': admins,
+	// The development mailbox exists only while the local SMTP fake is in use (as here).
+	'GET /dev/mailbox': everyone('ok'),
+	'POST /dev/mailbox?/clear': everyone('ok'),
+	'GET /dev/mailbox/[id]': everyone('notfound'),
+	'GET /dev/mailbox/[id]/html': everyone('notfound')
+};
+
+const SAMPLE_PARAMS: Record<string, string> = {
+	slug: 'steady-1080p-starter',
+	token: 'a'.repeat(43),
+	id: '00000000-0000-0000-0000-000000000000'
+};
+
+const ROUTES_DIR = resolve(import.meta.dirname, '../../src/routes');
+
+function walk(dir: string): string[] {
+	return readdirSync(dir).flatMap((name) => {
+		const path = join(dir, name);
+		return statSync(path).isDirectory() ? walk(path) : [path];
+	});
+}
+
+/** Every page (GET), form action (POST ?/name) and endpoint method under src/routes. */
+function discoverRoutes(): string[] {
+	const found = new Set<string>();
+	for (const file of walk(ROUTES_DIR)) {
+		const routeId = '/' + relative(ROUTES_DIR, join(file, '..')).split('\\').join('/');
+		const id = routeId === '/' ? '/' : routeId.replace(/\/$/, '');
+		const name = file.split('/').pop() ?? '';
+		const source = readFileSync(file, 'utf8');
+		if (name === '+page.svelte' || name === '+page.svx') found.add(`GET ${id}`);
+		if (name === '+page.server.ts') {
+			const block = /export const actions[^=]*=\s*\{([\s\S]*?)\n\};/.exec(source)?.[1] ?? '';
+			for (const m of block.matchAll(/^\t(\w+):/gm)) found.add(`POST ${id}?/${m[1]}`);
+		}
+		if (name === '+server.ts') {
+			for (const m of source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)) found.add(`${m[1]} ${id}`);
+		}
+	}
+	return [...found].sort();
+}
+
+function urlOf(entry: string): { method: string; url: string } {
+	const [method = 'GET', target = '/'] = entry.split(' ');
+	const [routeId = '/', action] = target.split('?/');
+	const path =
+		routeId
+			.split('/')
+			.filter((segment) => segment && !/^\(.+\)$/.test(segment))
+			.map((segment) => segment.replace(/^\[(\w+)(=\w+)?\]$/, (_, p: string) => SAMPLE_PARAMS[p] ?? 'x'))
+			.join('/') || '';
+	const url = `/${path}` + (action ? (action === 'default' ? '' : `?/${action}`) : '');
+	return { method, url };
+}
+
+function classify(status: number, location: string | undefined): Outcome {
+	if (status === 401) return 'signin';
+	if ((status === 302 || status === 303) && location && /\/signin(\?|$)/.test(location)) return 'signin';
+	if (status === 403) return 'forbidden';
+	if (status === 404) return 'notfound';
+	return 'ok';
+}
+
+async function contextFor(role: Role): Promise<APIRequestContext> {
+	const context = await playwrightRequest.newContext({ baseURL: BASE_URL });
+	if (role === 'visitor') return context;
+	const response = await context.post('/signin?/password', {
+		form: { email: `${role}@slotwise.test`, password: DEMO_PASSWORD },
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		maxRedirects: 0
+	});
+	expect(response.status(), `${role} signs in`).toBe(303);
+	return context;
+}
+
+test('every route under src/routes is in the authorization table, and nothing stale is', () => {
+	expect(discoverRoutes()).toEqual(Object.keys(EXPECTED).sort());
+});
+
+for (const role of ROLES) {
+	test(`authorization matrix for the ${role}`, async () => {
+		const signedInState = await (await contextFor(role)).storageState();
+		const mismatches: string[] = [];
+		for (const entry of discoverRoutes()) {
+			const expected = EXPECTED[entry]?.[role];
+			// A fresh context per request: signing out in one entry cannot leak into the next.
+			const context = await playwrightRequest.newContext({ baseURL: BASE_URL, storageState: signedInState });
+			const { method, url } = urlOf(entry);
+			const response = await context.fetch(url, {
+				method,
+				headers: { origin: BASE_URL, accept: 'text/html' },
+				form: method === 'GET' ? undefined : { probe: '1' },
+				maxRedirects: 0
+			});
+			const got = classify(response.status(), response.headers()['location']);
+			if (got !== expected) mismatches.push(`${entry} (${method} ${url}): expected ${expected}, got ${got} (${response.status()})`);
+			await context.dispose();
+		}
+		expect(mismatches).toEqual([]);
+	});
+}

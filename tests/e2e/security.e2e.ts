@@ -1,0 +1,76 @@
+import { expect, test } from '@playwright/test';
+import { signInWithPassword } from './support';
+
+/* SECURITY-CHECKLIST.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
+
+const CROSS_SITE = 'https://evil.example';
+
+test('cross-origin form posts to sign-in, sign-up and sign-out are refused with 403', async ({ request }) => {
+	for (const path of ['/signin?/password', '/signin?/link', '/signup', '/signout', '/account?/delete']) {
+		const response = await request.post(path, {
+			form: { email: 'reader@slotwise.test', password: 'slotwise-demo-password' },
+			headers: { origin: CROSS_SITE },
+			maxRedirects: 0
+		});
+		expect(response.status(), path).toBe(403);
+	}
+});
+
+test("Auth.js's own POST endpoints are closed: sign-in only runs through our validated actions", async ({ request }) => {
+	for (const path of ['/auth/callback/credentials', '/auth/signin/nodemailer', '/auth/signout']) {
+		const response = await request.post(path, {
+			form: { email: 'reader@slotwise.test', password: 'slotwise-demo-password' },
+			headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html' },
+			maxRedirects: 0
+		});
+		expect(response.status(), path).toBe(404);
+	}
+});
+
+test('JSON API routes refuse non-JSON bodies with 415', async ({ request }) => {
+	const response = await request.post('/api/health', {
+		data: 'status=ok',
+		headers: { 'content-type': 'text/plain', origin: 'http://127.0.0.1:4173' }
+	});
+	expect(response.status()).toBe(415);
+	expect(await response.json()).toMatchObject({ message: expect.stringMatching(/JSON/) });
+});
+
+test('pages carry CSP with nonces, nosniff, referrer policy and frame-ancestors', async ({ request }) => {
+	const response = await request.get('/');
+	const headers = response.headers();
+	const csp = headers['content-security-policy'] ?? '';
+	expect(csp).toContain("object-src 'none'");
+	expect(csp).toContain("base-uri 'none'");
+	expect(csp).toContain("frame-ancestors 'none'");
+	expect(csp).toMatch(/script-src[^;]*'nonce-[A-Za-z0-9+/=]+'/);
+	expect(headers['x-content-type-options']).toBe('nosniff');
+	expect(headers['referrer-policy']).toBe('strict-origin-when-cross-origin');
+	// Served over plain http here: HSTS would be wrong, so it must be absent.
+	expect(headers['strict-transport-security']).toBeUndefined();
+});
+
+test('signed-in pages are not cached, and the session cookie is HttpOnly and SameSite', async ({ page, context }) => {
+	await signInWithPassword(page, 'reader@slotwise.test');
+	await expect(page).toHaveURL(/\/$/);
+	const response = await page.request.get('/account');
+	expect(response.headers()['cache-control']).toBe('no-store');
+	const session = (await context.cookies()).find((c) => c.name.endsWith('authjs.session-token'));
+	expect(session?.httpOnly).toBe(true);
+	expect(session?.sameSite).toBe('Lax');
+});
+
+test('a spoofed X-Forwarded-For does not change who the rate limiter counts', async ({ request }) => {
+	// adapter-node ignores the header unless ADDRESS_HEADER names it for a trusted proxy, so
+	// rotating it cannot buy fresh attempts: the limit still trips for this one client.
+	const email = 'aiko.tanabe@slotwise.test';
+	let last = 0;
+	for (let i = 0; i < 12; i++) {
+		const response = await request.post('/signin?/password', {
+			form: { email, password: `not it ${i}` },
+			headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html', 'x-forwarded-for': `203.0.113.${i}` }
+		});
+		last = response.status();
+	}
+	expect(last).toBe(429);
+});

@@ -1,0 +1,46 @@
+import { expect } from '@playwright/test';
+import type { Page } from '@playwright/test';
+
+export const DEMO_PASSWORD = 'slotwise-demo-password';
+
+/**
+ * Signs in through the real form (password panel). By default waits until the app has
+ * left the sign-in page, so the session cookie is set before the next navigation.
+ */
+export async function signInWithPassword(page: Page, email: string, password = DEMO_PASSWORD, expectSuccess = true) {
+	await page.goto('/signin');
+	const panel = page.locator('section', { has: page.getByRole('heading', { name: 'With your password' }) });
+	await panel.getByLabel('E-mail').fill(email);
+	await panel.getByLabel('Password').fill(password);
+	await panel.getByRole('button', { name: 'Sign in' }).click();
+	if (expectSuccess) await expect(page).not.toHaveURL(/\/signin/);
+	else await expect(page.getByRole('alert')).toBeVisible();
+}
+
+/** The session as Auth.js reports it at /auth/session. */
+export async function sessionOf(page: Page): Promise<{ user?: { email: string; role: string } } | null> {
+	const response = await page.request.get('/auth/session');
+	expect(response.status()).toBe(200);
+	return (await response.json()) as { user?: { email: string; role: string } } | null;
+}
+
+/** A fresh address per run, so tests never collide in the shared fake mailbox. */
+export function uniqueEmail(label: string): string {
+	return `${label}-${Date.now()}-${Math.floor(Math.random() * 1e6)}@example.test`;
+}
+
+/** Signs up through the form, confirms the address from the e-mail, and signs in. */
+export async function signUpConfirmed(page: Page, name: string, email: string, password: string) {
+	const { firstLink, waitForMessage } = await import('../support/mailbox');
+	await page.goto('/signup');
+	await page.getByLabel('Name').fill(name);
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Create account' }).click();
+	await expect(page.getByRole('heading', { name: 'Check your e-mail' })).toBeVisible();
+	await page.goto(firstLink(await waitForMessage({ to: email, subject: /confirm/i }), '/verify'));
+	await page.getByRole('button', { name: 'Confirm my address' }).click();
+	await expect(page.getByText('Your address is confirmed')).toBeVisible();
+	await signInWithPassword(page, email, password);
+	await expect(page).toHaveURL(/\/$/);
+}

@@ -1,0 +1,142 @@
+import { beforeEach, describe, expect, it } from 'vitest';
+import { EmailToken, Guide, User, sequelize } from '../../src/lib/server/db';
+import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
+import * as guides from '../../src/lib/server/services/guides';
+import * as accounts from '../../src/lib/server/services/accounts';
+import { resetDatabase } from '../support/db';
+import { firstLink, waitForMessage } from '../support/mailbox';
+
+/*
+ * Accounts on the real MariaDB, with e-mail over real SMTP to the local fake
+ * (`npm test` starts it and sets MAILBOX_URL).
+ */
+const ORIGIN = 'http://127.0.0.1:4173';
+const PASSWORD = 'lantern orchard ferry north';
+
+function tokenFrom(link: string): string {
+	const url = new URL(link);
+	return url.searchParams.get('token') ?? url.pathname.split('/').pop() ?? '';
+}
+
+async function signUpAndVerify(email: string) {
+	await accounts.signUp({ name: 'Test Person', email, password: PASSWORD }, ORIGIN);
+	const link = firstLink(await waitForMessage({ to: email, subject: /confirm/i }), '/verify');
+	expect(await accounts.verifyEmail(tokenFrom(link))).toBe('verified');
+}
+
+describe('accounts service', () => {
+	beforeEach(resetDatabase);
+
+	it('signs up an unverified reader with an argon2id hash, and only verification opens sign-in', async () => {
+		const email = `new-${Date.now()}@example.test`;
+		await accounts.signUp({ name: 'Nell', email, password: PASSWORD }, ORIGIN);
+		const user = await User.findOne({ where: { email } });
+		expect(user?.role).toBe('reader');
+		expect(user?.passwordHash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
+		expect(await accounts.authenticate(email, PASSWORD)).toBeNull();
+
+		const link = firstLink(await waitForMessage({ to: email, subject: /confirm/i }), '/verify');
+		expect(await accounts.verifyEmail(tokenFrom(link))).toBe('verified');
+		expect(await accounts.authenticate(email, PASSWORD)).toMatchObject({ email, role: 'reader' });
+		// Single use.
+		expect(await accounts.verifyEmail(tokenFrom(link))).toBe('invalid');
+	});
+
+	it('stores only token hashes, never the token sent by mail', async () => {
+		const email = `hash-${Date.now()}@example.test`;
+		await accounts.signUp({ name: 'Hal', email, password: PASSWORD }, ORIGIN);
+		const token = tokenFrom(firstLink(await waitForMessage({ to: email, subject: /confirm/i }), '/verify'));
+		const rows = await EmailToken.findAll();
+		expect(rows).toHaveLength(1);
+		expect(rows[0]?.tokenHash).toMatch(/^[0-9a-f]{64}$/);
+		expect(rows[0]?.tokenHash).not.toContain(token);
+	});
+
+	it('answers a sign-up for a taken address like any other, and mails the owner instead', async () => {
+		const email = `taken-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const before = await User.count();
+		expect(await accounts.signUp({ name: 'Imposter', email, password: 'other long passphrase here' }, ORIGIN)).toEqual({ kind: 'ok' });
+		expect(await User.count()).toBe(before);
+		await waitForMessage({ to: email, subject: /already|account/i });
+		// The owner's password is unchanged.
+		expect(await accounts.authenticate(email, PASSWORD)).not.toBeNull();
+	});
+
+	it('gives the same null for unknown address, wrong password and disabled account', async () => {
+		const email = `who-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		expect(await accounts.authenticate('nobody@example.test', PASSWORD)).toBeNull();
+		expect(await accounts.authenticate(email, 'wrong but long password')).toBeNull();
+		await User.update({ disabledAt: new Date() }, { where: { email } });
+		expect(await accounts.authenticate(email, PASSWORD)).toBeNull();
+	});
+
+	it('resets a password by link: old sessions end, the link works once and expires after 10 minutes', async () => {
+		const email = `reset-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const user = await User.findOne({ where: { email } });
+		if (!user) throw new Error('user missing');
+		expect(await accounts.sessionUser(user.id, user.sessionVersion)).not.toBeNull();
+
+		await accounts.requestPasswordReset(email, ORIGIN);
+		const token = tokenFrom(firstLink(await waitForMessage({ to: email, subject: /reset/i }), '/reset/'));
+		const newPassword = 'copper hills at first light';
+		expect(await accounts.resetPassword(token, newPassword)).toBe('reset');
+		expect(await accounts.resetPassword(token, 'yet another long password')).toBe('invalid');
+		expect(await accounts.authenticate(email, newPassword)).not.toBeNull();
+		expect(await accounts.authenticate(email, PASSWORD)).toBeNull();
+		// The session issued before the reset carries the old version: refused.
+		expect(await accounts.sessionUser(user.id, user.sessionVersion)).toBeNull();
+
+		// ASVS 6.5.5: out-of-band links expire within 10 minutes. Age a fresh one by 11.
+		await accounts.requestPasswordReset(email, ORIGIN);
+		const messages = await waitForMessage({ to: email, subject: /reset/i });
+		const fresh = tokenFrom(firstLink(messages, '/reset/'));
+		await EmailToken.update({ expiresAt: new Date(Date.now() - 60_000) }, { where: { usedAt: null } });
+		expect(await accounts.isResetTokenUsable(fresh)).toBe(false);
+		expect(await accounts.resetPassword(fresh, 'one more long password')).toBe('invalid');
+	});
+
+	it('issues reset tokens that expire 10 minutes after they are made', async () => {
+		const email = `ttl-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const before = Date.now();
+		await accounts.requestPasswordReset(email, ORIGIN);
+		const row = await EmailToken.findOne({ where: { purpose: 'reset_password' } });
+		const minutes = ((row?.expiresAt.getTime() ?? 0) - before) / 60_000;
+		expect(minutes).toBeGreaterThan(9.9);
+		expect(minutes).toBeLessThanOrEqual(10.01);
+	});
+
+	it('sends no reset mail for an unknown address and says nothing different', async () => {
+		await expect(accounts.requestPasswordReset('nobody-here@example.test', ORIGIN)).resolves.toBeUndefined();
+		await expect(waitForMessage({ to: 'nobody-here@example.test', timeoutMs: 500 })).rejects.toThrow(/No e-mail/);
+	});
+
+	it('changes a password only with the current one, and ends older sessions', async () => {
+		const email = `change-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const user = await User.findOne({ where: { email } });
+		if (!user) throw new Error('user missing');
+		expect(await accounts.changePassword(user.id, 'not my password at all', 'brand new long password')).toEqual({ kind: 'wrong_password' });
+		expect(await accounts.changePassword(user.id, PASSWORD, 'brand new long password')).toEqual({ kind: 'ok' });
+		expect(await accounts.sessionUser(user.id, user.sessionVersion)).toBeNull();
+		expect(await accounts.sessionUser(user.id, user.sessionVersion + 1)).toMatchObject({ email });
+	});
+
+	it('deletes an account but keeps its published guides, shown under "Former member"', async () => {
+		await seedDemoCommunity(sequelize);
+		const author = await User.findOne({ where: { email: 'author@slotwise.test' } });
+		if (!author) throw new Error('demo author missing');
+		const owned = await Guide.findAll({ where: { authorId: author.id } });
+		expect(owned.length).toBeGreaterThan(0);
+
+		await accounts.deleteAccount(author.id);
+		expect(await User.findByPk(author.id)).toBeNull();
+		for (const guide of owned) {
+			const detail = await guides.getPublishedBySlug(guide.slug);
+			expect(detail?.authorName).toBe('Former member');
+		}
+	});
+});
