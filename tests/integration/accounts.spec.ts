@@ -139,4 +139,36 @@ describe('accounts service', () => {
 			expect(detail?.authorName).toBe('Former member');
 		}
 	});
+
+	it('moves an account to a new address only once the new address confirms, and tells the old one', async () => {
+		const email = `mover-${Date.now()}@example.test`;
+		const next = `moved-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const user = await User.findOne({ where: { email } });
+		if (!user) throw new Error('user missing');
+
+		expect(await accounts.requestEmailChange(user.id, { newEmail: next, password: 'wrong long password here' }, ORIGIN)).toEqual({ kind: 'wrong_password' });
+		expect(await accounts.requestEmailChange(user.id, { newEmail: email, password: PASSWORD }, ORIGIN)).toEqual({ kind: 'same_address' });
+		expect(await accounts.requestEmailChange(user.id, { newEmail: next, password: PASSWORD }, ORIGIN)).toEqual({ kind: 'ok' });
+		await waitForMessage({ to: email, subject: /about to change/i });
+		const link = firstLink(await waitForMessage({ to: next, subject: /new e-mail/i }), '/verify/email');
+		// Nothing moves before the confirmation.
+		expect((await User.findByPk(user.id))?.email).toBe(email);
+
+		expect(await accounts.confirmEmailChange(tokenFrom(link))).toBe('changed');
+		expect((await User.findByPk(user.id))?.email).toBe(next);
+		expect(await accounts.authenticate(next, PASSWORD)).not.toBeNull();
+		expect(await accounts.confirmEmailChange(tokenFrom(link))).toBe('invalid');
+	});
+
+	it('answers a change to a taken address like any other and sends it no link', async () => {
+		const a = `first-${Date.now()}@example.test`;
+		const b = `second-${Date.now()}@example.test`;
+		await signUpAndVerify(a);
+		await signUpAndVerify(b);
+		const user = await User.findOne({ where: { email: a } });
+		if (!user) throw new Error('user missing');
+		expect(await accounts.requestEmailChange(user.id, { newEmail: b, password: PASSWORD }, ORIGIN)).toEqual({ kind: 'ok' });
+		await expect(waitForMessage({ to: b, subject: /new e-mail/i, timeoutMs: 500 })).rejects.toThrow(/No e-mail/);
+	});
 });

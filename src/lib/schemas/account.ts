@@ -46,6 +46,12 @@ export const changePasswordInput = z.strictObject({
 	newPassword
 });
 
+export const changeEmailInput = z.strictObject({
+	newEmail: emailAddress,
+	// Absent for accounts that sign in by link only.
+	password: existingPassword.optional()
+});
+
 export const deleteAccountInput = z.strictObject({
 	confirmEmail: emailAddress
 });

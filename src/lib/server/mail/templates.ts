@@ -282,3 +282,30 @@ export function accountDisabled({ note }: { note?: string | null } = {}): MailTe
 		why: 'You got this e-mail because it concerns the Slotwise account registered with this address.'
 	});
 }
+
+/** Sent to the new address: confirming moves the account there. */
+export function confirmEmailChange({ url, minutes }: { url: string; minutes: number }): MailTemplate {
+	return render({
+		subject: 'Confirm your new e-mail address for Slotwise',
+		greeting: 'Hello,',
+		before: [
+			`Someone asked to move a Slotwise account to this address. Confirm it within ${minutes} minutes and the account signs in with this address from then on.`
+		],
+		actions: [{ label: 'Confirm my new address', url }],
+		why: 'You got this e-mail because this address was entered as the new address of a Slotwise account. If it was not you, ignore it: nothing changes.'
+	});
+}
+
+/** Sent to the old address, so the owner notices a change they did not ask for. */
+export function emailChangeRequested({ resetUrl }: { resetUrl: string }): MailTemplate {
+	return render({
+		subject: 'Your Slotwise e-mail address is about to change',
+		greeting: 'Hello,',
+		before: [
+			'Someone asked to move your Slotwise account to another e-mail address. It moves only once the new address is confirmed.',
+			'If this was not you, reset your password now: that also cancels the move.'
+		],
+		actions: [{ label: 'Reset my password', url: resetUrl }],
+		why: 'You got this e-mail because the Slotwise account with this address asked to change it. We always tell you when that happens.'
+	});
+}

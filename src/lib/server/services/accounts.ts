@@ -13,6 +13,7 @@ import * as templates from '$lib/server/mail/templates';
 import type { Role } from '$lib/domain/types';
 
 export const VERIFY_EMAIL_MINUTES = 24 * 60;
+export const CHANGE_EMAIL_MINUTES = 60;
 /** Out-of-band links used to get into an account expire within 10 minutes (ASVS 6.5.5). */
 export const RESET_PASSWORD_MINUTES = 10;
 
@@ -35,17 +36,23 @@ function hashToken(token: string): string {
 	return createHash('sha256').update(token).digest('hex');
 }
 
-async function issueToken(userId: string, purpose: EmailTokenPurpose, minutes: number, transaction?: Transaction) {
+async function issueToken(
+	userId: string,
+	purpose: EmailTokenPurpose,
+	minutes: number,
+	transaction?: Transaction,
+	newEmail: string | null = null
+) {
 	const token = randomBytes(32).toString('base64url');
 	await EmailToken.create(
-		{ userId, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + minutes * MINUTE_MS) },
+		{ userId, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + minutes * MINUTE_MS), newEmail },
 		{ transaction }
 	);
 	return token;
 }
 
-/** Marks a token used and returns its user id, or null when unknown, used or expired. */
-async function redeemToken(token: string, purpose: EmailTokenPurpose, transaction: Transaction): Promise<string | null> {
+/** Marks a token used and returns it, or null when unknown, used or expired. */
+async function redeem(token: string, purpose: EmailTokenPurpose, transaction: Transaction): Promise<EmailToken | null> {
 	const row = await EmailToken.findOne({
 		where: { tokenHash: hashToken(token), purpose },
 		lock: transaction.LOCK.UPDATE,
@@ -53,7 +60,12 @@ async function redeemToken(token: string, purpose: EmailTokenPurpose, transactio
 	});
 	if (!row || row.usedAt || row.expiresAt.getTime() < Date.now()) return null;
 	await row.update({ usedAt: new Date() }, { transaction });
-	return row.userId;
+	return row;
+}
+
+/** The user id of a redeemed token, or null. */
+async function redeemToken(token: string, purpose: EmailTokenPurpose, transaction: Transaction): Promise<string | null> {
+	return (await redeem(token, purpose, transaction))?.userId ?? null;
 }
 
 export type SignUpOutcome = { kind: 'ok' };
@@ -157,7 +169,8 @@ export async function resetPassword(token: string, password: string): Promise<'r
 		);
 		await EmailToken.update(
 			{ usedAt: new Date() },
-			{ where: { userId, purpose: 'reset_password', usedAt: null }, transaction }
+			// Other reset links die, and so does a pending e-mail change (the owner's way to stop one).
+			{ where: { userId, purpose: ['reset_password', 'change_email'], usedAt: null }, transaction }
 		);
 		return user.email;
 	});
@@ -179,6 +192,49 @@ export async function changePassword(userId: string, current: string, next: stri
 	);
 	await mail.send(user.email, templates.passwordChanged({}));
 	return { kind: 'ok' };
+}
+
+export type EmailChangeOutcome = { kind: 'ok' } | { kind: 'wrong_password' } | { kind: 'same_address' };
+
+/**
+ * Starts moving an account to a new address: a confirmation link goes to the new address
+ * and a notice to the old one. A taken address gets the same answer and no link, so the
+ * form cannot be used to find out who has an account.
+ */
+export async function requestEmailChange(
+	userId: string,
+	input: { newEmail: string; password?: string },
+	origin: string
+): Promise<EmailChangeOutcome> {
+	const user = await User.findByPk(userId);
+	if (!user) return { kind: 'wrong_password' };
+	if (user.passwordHash && !(await verifyPassword(user.passwordHash, input.password ?? ''))) {
+		return { kind: 'wrong_password' };
+	}
+	if (input.newEmail === user.email) return { kind: 'same_address' };
+	if (await User.findOne({ where: { email: input.newEmail } })) return { kind: 'ok' };
+	const token = await issueToken(user.id, 'change_email', CHANGE_EMAIL_MINUTES, undefined, input.newEmail);
+	await mail.send(
+		input.newEmail,
+		templates.confirmEmailChange({ url: `${origin}/verify/email?token=${token}`, minutes: CHANGE_EMAIL_MINUTES })
+	);
+	await mail.send(user.email, templates.emailChangeRequested({ resetUrl: `${origin}/reset` }));
+	return { kind: 'ok' };
+}
+
+/** Moves the account to the confirmed address; 'taken' when someone claimed it meanwhile. */
+export async function confirmEmailChange(token: string): Promise<'changed' | 'invalid' | 'taken'> {
+	return sequelize.transaction(async (transaction) => {
+		const row = await redeem(token, 'change_email', transaction);
+		if (!row?.newEmail) return 'invalid';
+		const taken = await User.findOne({ where: { email: row.newEmail }, transaction });
+		if (taken) return 'taken';
+		await User.update(
+			{ email: row.newEmail, emailVerified: new Date() },
+			{ where: { id: row.userId }, transaction }
+		);
+		return 'changed';
+	});
 }
 
 export async function getAccount(userId: string): Promise<AccountView | null> {

@@ -1,5 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { changePasswordInput, deleteAccountInput, formFields, profileInput } from '$lib/schemas/account';
+import { changeEmailInput, changePasswordInput, deleteAccountInput, formFields, profileInput } from '$lib/schemas/account';
 import { authorRequestInput } from '$lib/schemas/author-requests';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireUser } from '$lib/server/auth/guards';
@@ -22,6 +22,25 @@ export const actions: Actions = {
 		if (!input.success) return fail(400, { section: 'profile', issues: fieldIssues(input.error) });
 		await accounts.updateProfile(user.id, input.data);
 		return { section: 'profile', message: 'Your name is saved.' };
+	},
+
+	email: async ({ request, url }) => {
+		const user = requireUser();
+		const fields = formFields(await request.formData());
+		if (fields.password === '') delete fields.password;
+		const input = changeEmailInput.safeParse(fields);
+		if (!input.success) return fail(400, { section: 'email', issues: fieldIssues(input.error) });
+		const outcome = await accounts.requestEmailChange(user.id, input.data, url.origin);
+		if (outcome.kind === 'wrong_password') {
+			return fail(400, { section: 'email', issues: { password: ['That is not your current password.'] } });
+		}
+		if (outcome.kind === 'same_address') {
+			return fail(400, { section: 'email', issues: { newEmail: ['That is already the address of this account.'] } });
+		}
+		return {
+			section: 'email',
+			message: 'Check the new address: the account moves once you follow the link we sent there (within 60 minutes).'
+		};
 	},
 
 	password: async ({ request }) => {

@@ -24,6 +24,7 @@ import * as m16 from './2026.12.02T09.05.00.create-audit-events.js';
 import * as m17 from './2026.12.02T09.06.00.create-author-requests.js';
 import * as m18 from './2026.12.02T09.07.00.create-rate-limits.js';
 import * as m19 from './2026.12.02T09.08.00.create-email-tokens.js';
+import * as mEmailChange from './2026.12.02T09.09.00.add-email-tokens-new-email.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -46,4 +47,5 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.02T09.06.00.create-author-requests': m17,
 	'2026.12.02T09.07.00.create-rate-limits': m18,
 	'2026.12.02T09.08.00.create-email-tokens': m19,
+	'2026.12.02T09.09.00.add-email-tokens-new-email': mEmailChange,
 };

@@ -1,7 +1,7 @@
 import { DataTypes, Model } from 'sequelize';
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
 
-export type EmailTokenPurpose = 'verify_email' | 'reset_password';
+export type EmailTokenPurpose = 'verify_email' | 'reset_password' | 'change_email';
 
 /** A single-use e-mailed token; only its sha256 is stored. */
 export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreationAttributes<EmailToken>> {
@@ -11,6 +11,8 @@ export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreation
 	declare tokenHash: string;
 	declare expiresAt: Date;
 	declare usedAt: CreationOptional<Date | null>;
+	/** For change_email: the address to move the account to once confirmed. */
+	declare newEmail: CreationOptional<string | null>;
 	declare createdAt: CreationOptional<Date>;
 }
 
@@ -23,6 +25,7 @@ export function initEmailToken(sequelize: Sequelize) {
 			tokenHash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
 			expiresAt: { type: DataTypes.DATE, allowNull: false },
 			usedAt: { type: DataTypes.DATE, allowNull: true },
+			newEmail: { type: DataTypes.STRING(254), allowNull: true },
 			createdAt: DataTypes.DATE
 		},
 		{ sequelize, tableName: 'email_tokens', underscored: true, updatedAt: false }
