@@ -18,6 +18,8 @@ const light = {
 	rule: '#E4DED4',
 	teal: '#0E6F6A',
 	copper: '#B4532A',
+	/** Text on a copper or teal fill: white on the light scheme's dark accents (5.0:1 on copper). */
+	'on-accent': '#FFFFFF',
 	'amber-ink': '#8A5A00',
 	'amber-bg': '#FFF4DA',
 	'brick-ink': '#A4262C',
@@ -35,6 +37,8 @@ const dark: Palette = {
 	rule: '#333C46',
 	teal: '#5EC2BA',
 	copper: '#E48A5F',
+	// The dark scheme's accents are light, so text on them is dark (6.8:1 on copper).
+	'on-accent': '#14181D',
 	'amber-ink': '#F0C45C',
 	'amber-bg': '#3A2D0C',
 	'brick-ink': '#F5A3A6',
@@ -63,6 +67,7 @@ export default {
 			rule: v('rule'),
 			teal: v('teal'),
 			copper: v('copper'),
+			'on-accent': v('on-accent'),
 			amber: { ink: v('amber-ink'), bg: v('amber-bg') },
 			brick: { ink: v('brick-ink'), bg: v('brick-bg') },
 			// Severity aliases, so fit-report code reads in the product's words.
