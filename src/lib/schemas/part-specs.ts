@@ -33,13 +33,13 @@ const pcieGen = z.union([z.literal(3), z.literal(4), z.literal(5)]);
 
 export const cpuSpecs = z.strictObject({
 	socket,
-	cores: positiveInt,
-	threads: positiveInt,
+	cores: positiveInt.max(256),
+	threads: positiveInt.max(512),
 	baseClockGhz: z.number().positive().max(10),
 	boostClockGhz: z.number().positive().max(10),
-	tdpW: positiveInt,
+	tdpW: positiveInt.max(1000),
 	/** Sustained package power; when absent it is derived from tdpW by the vendor's rule. */
-	packagePowerW: positiveInt.optional(),
+	packagePowerW: positiveInt.max(1500).optional(),
 	memoryTypes: z.array(memoryType).min(1),
 	integratedGraphics: z.boolean(),
 	bundledCooler: z.boolean()
@@ -48,10 +48,10 @@ export const cpuSpecs = z.strictObject({
 export const coolerSpecs = z
 	.strictObject({
 		type: z.enum(['air', 'liquid']),
-		heightMm: positiveInt.optional(),
+		heightMm: positiveInt.max(250).optional(),
 		radiatorMm: z.union([z.literal(120), z.literal(140), z.literal(240), z.literal(280), z.literal(360), z.literal(420)]).optional(),
 		sockets: z.array(socket).min(1),
-		ratedHeatW: positiveInt
+		ratedHeatW: positiveInt.max(1000)
 	})
 	.refine((c) => (c.type === 'air' ? c.heightMm !== undefined : c.radiatorMm !== undefined), {
 		message: 'An air cooler needs heightMm; a liquid cooler needs radiatorMm',
@@ -66,7 +66,7 @@ export const motherboardSpecs = z.strictObject({
 	formFactor: z.enum(BOARD_FORM_FACTORS),
 	memoryType,
 	memorySlots: positiveInt.max(8),
-	maxMemoryGb: positiveInt,
+	maxMemoryGb: positiveInt.max(8192),
 	m2Slots: z.array(m2Slot).max(8),
 	sataPorts: nonNegativeInt.max(12),
 	wifi: z.boolean()
@@ -75,9 +75,9 @@ export const motherboardSpecs = z.strictObject({
 export const memorySpecs = z.strictObject({
 	type: memoryType,
 	modules: positiveInt.max(8),
-	moduleGb: positiveInt,
-	speedMts: positiveInt,
-	casLatency: positiveInt,
+	moduleGb: positiveInt.max(512),
+	speedMts: positiveInt.max(12_000),
+	casLatency: positiveInt.max(100),
 	voltage: z.number().positive().max(2)
 });
 
@@ -85,9 +85,9 @@ export const storageSpecs = z.strictObject({
 	interface: z.enum(['nvme', 'sata']),
 	formFactor: z.enum(STORAGE_FORM_FACTORS),
 	pcieGen: pcieGen.optional(),
-	capacityGb: positiveInt,
-	readMbs: positiveInt,
-	writeMbs: positiveInt
+	capacityGb: positiveInt.max(100_000),
+	readMbs: positiveInt.max(30_000),
+	writeMbs: positiveInt.max(30_000)
 });
 
 const connectorCounts = {
@@ -98,16 +98,17 @@ const connectorCounts = {
 
 export const gpuSpecs = z.strictObject({
 	chip: z.string().min(1).max(40),
-	vramGb: positiveInt,
-	lengthMm: positiveInt,
+	vramGb: positiveInt.max(256),
+	// Bounds catch unit slips (a length in cm or inches, a 5-metre card) at the edge.
+	lengthMm: positiveInt.max(500),
 	slotWidth: z.number().positive().max(5),
-	boardPowerW: positiveInt,
+	boardPowerW: positiveInt.max(1500),
 	powerConnectors: z.strictObject(connectorCounts),
 	pcieGen
 });
 
 export const psuSpecs = z.strictObject({
-	ratedW: positiveInt,
+	ratedW: positiveInt.max(3000),
 	formFactor: z.enum(PSU_FORM_FACTORS),
 	efficiency: z.enum(EFFICIENCY_LEVELS),
 	modular: z.enum(['none', 'semi', 'full']),
@@ -117,8 +118,8 @@ export const psuSpecs = z.strictObject({
 
 export const caseSpecs = z.strictObject({
 	boardFormFactors: z.array(z.enum(BOARD_FORM_FACTORS)).min(1),
-	maxGpuLengthMm: positiveInt,
-	maxCoolerHeightMm: positiveInt,
+	maxGpuLengthMm: positiveInt.max(600),
+	maxCoolerHeightMm: positiveInt.max(300),
 	psuFormFactors: z.array(z.enum(PSU_FORM_FACTORS)).min(1),
 	/** Largest radiator the case takes, 0 when it takes none. */
 	radiatorMm: nonNegativeInt,
@@ -131,7 +132,7 @@ export const caseSpecs = z.strictObject({
 export const fanSpecs = z.strictObject({
 	sizeMm: z.union([z.literal(80), z.literal(92), z.literal(120), z.literal(140)]),
 	count: positiveInt.max(10),
-	maxRpm: positiveInt
+	maxRpm: positiveInt.max(10_000)
 });
 
 export const osSpecs = z.strictObject({

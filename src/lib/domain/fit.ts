@@ -1,0 +1,455 @@
+/**
+ * Fit report: the compatibility findings for a set of parts (DESIGN.md "Computations" §3).
+ *
+ * Every rule that can run gives a finding (`ok` included), so the report shows what was
+ * checked. A rule whose slots are missing is skipped quietly, except "no cooler" and "no
+ * graphics", which are about a missing slot. Messages name the parts (brand + model) and
+ * the numbers, so a reader can act on a line without opening the spec sheets.
+ */
+import type { MotherboardSpecs, PsuSpecs } from '../schemas/part-specs';
+import {
+	partName,
+	slotsOf,
+	worstSeverity,
+	type BuildPartOf,
+	type BuildParts,
+	type Finding,
+	type Severity
+} from './build-parts';
+import { kitCapacityGb } from './memory';
+import { formatGBs, linkBandwidthGBs, pcieLabel } from './pcie';
+import { cpuSustainedPower, estimateLoad, psuFeedsGpu, recommendedPsuW, TARGET_LOAD_SHARE_PCT } from './power';
+
+export type { BuildPart, BuildParts, Finding, Severity } from './build-parts';
+export { worstSeverity } from './build-parts';
+
+type BoardFormFactor = MotherboardSpecs['formFactor'];
+type PsuFormFactor = PsuSpecs['formFactor'];
+
+export interface BoardSize {
+	widthMm: number;
+	depthMm: number;
+	source: string;
+}
+
+/**
+ * Maximum board sizes (CHECK-VALUES 1a–1d). ATX 12 × 9.6 in and microATX 9.6 × 9.6 in:
+ * Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3. Mini-ITX
+ * 170 × 170 mm: Intel Mini-ITX Addendum v1.1, §1 Table 1. E-ATX is not standardised by
+ * Intel/ATX (the 12 × 13 in board is SSI EEB), so it has no size here and fits only a
+ * case that lists E-ATX (CHECK-VALUES note 10).
+ */
+export const BOARD_SIZES_MM: Readonly<Record<BoardFormFactor, BoardSize | null>> = {
+	ATX: { widthMm: 305, depthMm: 244, source: 'Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3 (ATX: 12 × 9.6 in)' },
+	microATX: { widthMm: 244, depthMm: 244, source: 'Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3 (9.6 × 9.6 in)' },
+	'Mini-ITX': { widthMm: 170, depthMm: 170, source: 'Intel Mini-ITX Addendum v1.1 to the microATX specification v1.2, §1 Table 1' },
+	'E-ATX': null
+};
+
+/** "ATX (305 × 244 mm)"; E-ATX says it has no standard size. */
+export function boardSizeText(formFactor: BoardFormFactor): string {
+	const size = BOARD_SIZES_MM[formFactor];
+	return size ? `${formFactor} (${size.widthMm} × ${size.depthMm} mm)` : `${formFactor} (no standard size; SSI EEB, the nearest standard, is 305 × 330 mm)`;
+}
+
+/** M.2 module length in mm from its name: 22 mm wide + length, 2280 → 80 (CHECK-VALUES 7). */
+export function m2LengthMm(formFactor: string): number | null {
+	const match = /^m2-22(\d{2,3})$/.exec(formFactor);
+	return match ? Number(match[1]) : null;
+}
+
+/** PSU sizes from small to large; a smaller unit can go in a larger bay with a bracket. */
+const PSU_SIZE_ORDER: Record<PsuFormFactor, number> = { SFX: 0, 'SFX-L': 1, ATX: 2 };
+
+function plural(n: number, word: string): string {
+	return `${n} ${word}${n === 1 ? '' : 's'}`;
+}
+
+function listText(items: readonly string[]): string {
+	return items.join(', ');
+}
+
+interface Context {
+	build: BuildParts;
+	cpu?: BuildPartOf<'cpu'>;
+	board?: BuildPartOf<'motherboard'>;
+	pcCase?: BuildPartOf<'case'>;
+	psu?: BuildPartOf<'psu'>;
+	coolers: BuildPartOf<'cooler'>[];
+	gpus: BuildPartOf<'gpu'>[];
+	memory: BuildPartOf<'memory'>[];
+	storage: BuildPartOf<'storage'>[];
+}
+
+type Rule = (ctx: Context, out: Finding[]) => void;
+
+const cpuSocketBoard: Rule = ({ cpu, board }, out) => {
+	if (!cpu || !board) return;
+	const a = cpu.part.specs.socket;
+	const b = board.part.specs.socket;
+	out.push(
+		a === b
+			? { rule: 'cpu-socket-board', severity: 'ok', slots: [cpu.key, board.key], message: `${partName(cpu)} and ${partName(board)} share the ${a} socket.` }
+			: { rule: 'cpu-socket-board', severity: 'conflict', slots: [cpu.key, board.key], message: `${partName(cpu)} is an ${a} CPU; ${partName(board)} has an ${b} socket.` }
+	);
+};
+
+const cpuSocketCooler: Rule = ({ cpu, coolers }, out) => {
+	if (!cpu) return;
+	const socket = cpu.part.specs.socket;
+	for (const cooler of coolers) {
+		const sockets = cooler.part.specs.sockets;
+		out.push(
+			sockets.includes(socket)
+				? { rule: 'cpu-socket-cooler', severity: 'ok', slots: [cooler.key, cpu.key], message: `${partName(cooler)} mounts on ${socket}, the socket of ${partName(cpu)}.` }
+				: { rule: 'cpu-socket-cooler', severity: 'conflict', slots: [cooler.key, cpu.key], message: `${partName(cooler)} mounts on ${listText(sockets)} only; ${partName(cpu)} is ${socket}.` }
+		);
+	}
+};
+
+const memoryTypeBoard: Rule = ({ memory, board }, out) => {
+	if (!board) return;
+	const boardType = board.part.specs.memoryType;
+	for (const kit of memory) {
+		const t = kit.part.specs.type;
+		out.push(
+			t === boardType
+				? { rule: 'memory-type-board', severity: 'ok', slots: [kit.key, board.key], message: `${partName(kit)} is ${t}, the memory type of ${partName(board)}.` }
+				: { rule: 'memory-type-board', severity: 'conflict', slots: [kit.key, board.key], message: `${partName(kit)} is ${t}; ${partName(board)} takes ${boardType} only.` }
+		);
+	}
+};
+
+const memoryTypeCpu: Rule = ({ memory, cpu }, out) => {
+	if (!cpu) return;
+	const supported = cpu.part.specs.memoryTypes;
+	for (const kit of memory) {
+		const t = kit.part.specs.type;
+		out.push(
+			supported.includes(t)
+				? { rule: 'memory-type-cpu', severity: 'ok', slots: [kit.key, cpu.key], message: `${partName(cpu)} supports ${t}, the type of ${partName(kit)}.` }
+				: { rule: 'memory-type-cpu', severity: 'conflict', slots: [kit.key, cpu.key], message: `${partName(kit)} is ${t}; ${partName(cpu)} supports ${listText(supported)} only.` }
+		);
+	}
+};
+
+const memorySlotsAndCapacity: Rule = ({ memory, board }, out) => {
+	if (!board || memory.length === 0) return;
+	const slots = [...memory.map((m) => m.key), board.key];
+	const names = listText(memory.map((m) => (m.quantity > 1 ? `${m.quantity} × ${partName(m)}` : partName(m))));
+	let modules = 0;
+	let totalGb = 0;
+	for (const kit of memory) {
+		modules += kit.part.specs.modules * kit.quantity;
+		totalGb += kitCapacityGb(kit.part.specs, kit.quantity);
+	}
+	const b = board.part.specs;
+	out.push(
+		modules <= b.memorySlots
+			? { rule: 'memory-slots', severity: 'ok', slots, message: `${names}: ${plural(modules, 'module')} for the ${b.memorySlots} memory slots of ${partName(board)}.` }
+			: { rule: 'memory-slots', severity: 'conflict', slots, message: `${names}: ${plural(modules, 'module')}, but ${partName(board)} has ${b.memorySlots} memory slots.` }
+	);
+	out.push(
+		totalGb <= b.maxMemoryGb
+			? { rule: 'memory-capacity', severity: 'ok', slots, message: `${names}: ${totalGb} GB in total; ${partName(board)} supports up to ${b.maxMemoryGb} GB.` }
+			: { rule: 'memory-capacity', severity: 'conflict', slots, message: `${names}: ${totalGb} GB in total, above the ${b.maxMemoryGb} GB ${partName(board)} supports.` }
+	);
+};
+
+const boardFormFactorCase: Rule = ({ board, pcCase }, out) => {
+	if (!board || !pcCase) return;
+	const ff = board.part.specs.formFactor;
+	const listed = pcCase.part.specs.boardFormFactors;
+	const slots = [board.key, pcCase.key];
+	const takes = `${partName(pcCase)} takes ${listText(listed)}`;
+	if (listed.includes(ff)) {
+		out.push({ rule: 'board-form-factor-case', severity: 'ok', slots, message: `${partName(board)} is ${boardSizeText(ff)}; ${takes}.` });
+		return;
+	}
+	// Not listed: a standard board no larger than a listed standard size usually mounts,
+	// because microATX and Mini-ITX use a subset of the ATX mounting holes (microATX
+	// specification v1.2 aims at ATX chassis compatibility; wording from memory, M).
+	const size = BOARD_SIZES_MM[ff];
+	const roomy = size !== null && listed.some((other) => {
+		const o = BOARD_SIZES_MM[other];
+		return o !== null && o.widthMm >= size.widthMm && o.depthMm >= size.depthMm;
+	});
+	out.push(
+		roomy
+			? { rule: 'board-form-factor-case', severity: 'caution', slots, message: `${partName(board)} is ${boardSizeText(ff)}; ${takes}, not ${ff} by name. Smaller boards share the ATX mounting holes, so it usually fits: check the case manual.` }
+			: { rule: 'board-form-factor-case', severity: 'conflict', slots, message: `${partName(board)} is ${boardSizeText(ff)}; ${takes} only (largest: ${boardSizeText(largestListed(listed))}).` }
+	);
+};
+
+function largestListed(listed: readonly BoardFormFactor[]): BoardFormFactor {
+	let best: BoardFormFactor = listed[0] ?? 'Mini-ITX';
+	for (const ff of listed) {
+		const s = BOARD_SIZES_MM[ff];
+		const b = BOARD_SIZES_MM[best];
+		if (s === null) return ff; // E-ATX: the largest by convention
+		if (b !== null && s.widthMm * s.depthMm > b.widthMm * b.depthMm) best = ff;
+	}
+	return best;
+}
+
+const gpuLengthCase: Rule = ({ gpus, pcCase }, out) => {
+	if (!pcCase) return;
+	const maxMm = pcCase.part.specs.maxGpuLengthMm;
+	for (const gpu of gpus) {
+		const mm = gpu.part.specs.lengthMm;
+		out.push(
+			mm <= maxMm
+				? { rule: 'gpu-length-case', severity: 'ok', slots: [gpu.key, pcCase.key], message: `${partName(gpu)} fits ${partName(pcCase)}: card is ${mm} mm, case fits ${maxMm} mm (${maxMm - mm} mm to spare).` }
+				: { rule: 'gpu-length-case', severity: 'conflict', slots: [gpu.key, pcCase.key], message: `${partName(gpu)} is too long for ${partName(pcCase)}: card is ${mm} mm, case fits ${maxMm} mm (${mm - maxMm} mm over).` }
+		);
+	}
+};
+
+const coolerClearanceCase: Rule = ({ coolers, pcCase }, out) => {
+	if (!pcCase) return;
+	const c = pcCase.part.specs;
+	for (const cooler of coolers) {
+		const s = cooler.part.specs;
+		const slots = [cooler.key, pcCase.key];
+		if (s.type === 'air' && s.heightMm !== undefined) {
+			out.push(
+				s.heightMm <= c.maxCoolerHeightMm
+					? { rule: 'cooler-height-case', severity: 'ok', slots, message: `${partName(cooler)} fits ${partName(pcCase)}: cooler is ${s.heightMm} mm tall, case fits ${c.maxCoolerHeightMm} mm.` }
+					: { rule: 'cooler-height-case', severity: 'conflict', slots, message: `${partName(cooler)} is too tall for ${partName(pcCase)}: cooler is ${s.heightMm} mm, case fits ${c.maxCoolerHeightMm} mm (${s.heightMm - c.maxCoolerHeightMm} mm over).` }
+			);
+		} else if (s.type === 'liquid' && s.radiatorMm !== undefined) {
+			let severity: Severity = 'ok';
+			let message = `${partName(cooler)} has a ${s.radiatorMm} mm radiator; ${partName(pcCase)} takes up to ${c.radiatorMm} mm.`;
+			if (c.radiatorMm === 0) {
+				severity = 'conflict';
+				message = `${partName(cooler)} has a ${s.radiatorMm} mm radiator; ${partName(pcCase)} has no radiator mount.`;
+			} else if (s.radiatorMm > c.radiatorMm) {
+				severity = 'conflict';
+				message = `${partName(cooler)} has a ${s.radiatorMm} mm radiator; ${partName(pcCase)} takes up to ${c.radiatorMm} mm.`;
+			}
+			out.push({ rule: 'radiator-case', severity, slots, message });
+		}
+	}
+};
+
+const psuFormFactorCase: Rule = ({ psu, pcCase }, out) => {
+	if (!psu || !pcCase) return;
+	const ff = psu.part.specs.formFactor;
+	const listed = pcCase.part.specs.psuFormFactors;
+	const slots = [psu.key, pcCase.key];
+	if (listed.includes(ff)) {
+		out.push({ rule: 'psu-form-factor-case', severity: 'ok', slots, message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies.` });
+		return;
+	}
+	// A smaller unit in a larger bay is common practice with an adapter bracket.
+	const larger = listed.some((other) => PSU_SIZE_ORDER[other] > PSU_SIZE_ORDER[ff]);
+	out.push(
+		larger
+			? { rule: 'psu-form-factor-case', severity: 'caution', slots, message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies. A smaller unit fits a larger bay with an adapter bracket (often sold separately).` }
+			: { rule: 'psu-form-factor-case', severity: 'conflict', slots, message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies only.` }
+	);
+};
+
+const psuRating: Rule = ({ build, psu }, out) => {
+	if (!psu) return;
+	const { loadW } = estimateLoad(build);
+	const rated = psu.part.specs.ratedW;
+	const recommended = recommendedPsuW(loadW);
+	const sharePct = Math.round((loadW * 100) / rated);
+	const basis = `so the load stays at or below ${TARGET_LOAD_SHARE_PCT} % of the rating (common practice)`;
+	let severity: Severity = 'ok';
+	let message = `${partName(psu)} is rated ${rated} W; the estimated load of ${loadW} W is ${sharePct} % of it. Recommended: at least ${recommended} W, ${basis}.`;
+	if (rated < loadW) {
+		severity = 'conflict';
+		message = `${partName(psu)} is rated ${rated} W, below the estimated load of ${loadW} W. Recommended: ${recommended} W.`;
+	} else if (loadW * 3 > rated * 2) {
+		// DESIGN.md: the load should sit near half to two-thirds of the rating. The
+		// recommendation aims at 60 %; only a load beyond two-thirds earns a caution.
+		severity = 'caution';
+		message = `${partName(psu)} is rated ${rated} W; the estimated load of ${loadW} W is ${sharePct} % of it. Recommended: ${recommended} W, ${basis}.`;
+	}
+	out.push({ rule: 'psu-rating', severity, slots: [psu.key], message });
+};
+
+const gpuPowerConnectors: Rule = ({ gpus, psu }, out) => {
+	if (!psu) return;
+	for (const gpu of gpus) out.push(...psuFeedsGpu(psu, gpu));
+};
+
+interface M2Drive {
+	slot: BuildPartOf<'storage'>;
+	lengthMm: number;
+	/** PCIe generation of an NVMe drive; 0 for an M.2 SATA drive. */
+	gen: number;
+}
+
+const m2Drives: Rule = ({ storage, board }, out) => {
+	if (!board) return;
+	const drives: M2Drive[] = [];
+	for (const slot of storage) {
+		const lengthMm = m2LengthMm(slot.part.specs.formFactor);
+		if (lengthMm === null) continue;
+		const gen = slot.part.specs.interface === 'nvme' ? (slot.part.specs.pcieGen ?? 0) : 0;
+		for (let i = 0; i < slot.quantity; i++) drives.push({ slot, lengthMm, gen });
+	}
+	if (drives.length === 0) return;
+	// Fastest drives choose first, longest first among equals, so the fast slots go to
+	// the drives that can use them.
+	drives.sort((a, b) => b.gen - a.gen || b.lengthMm - a.lengthMm);
+	const boardSlots = board.part.specs.m2Slots;
+	const free = boardSlots.map((s, index) => ({ ...s, number: index + 1 }));
+	const boardName = partName(board);
+	const unplaced: M2Drive[] = [];
+
+	for (const drive of drives) {
+		const name = partName(drive.slot);
+		const slots = [drive.slot.key, board.key];
+		const fitting = free.filter((s) => s.maxLengthMm >= drive.lengthMm);
+		if (fitting.length === 0) {
+			if (free.length === 0) unplaced.push(drive);
+			else
+				out.push({
+					rule: 'm2-length', severity: 'conflict', slots,
+					message: `${name} is ${drive.lengthMm} mm long (M.2 22${drive.lengthMm}); the free M.2 slots of ${boardName} take up to ${Math.max(...free.map((s) => s.maxLengthMm))} mm.`
+				});
+			continue;
+		}
+		// Slowest slot that still matches the drive; if none matches, the fastest there is.
+		const matching = fitting.filter((s) => s.pcieGen >= drive.gen);
+		const pool = matching.length > 0 ? matching : fitting;
+		const chosen = pool.reduce((best, s) => {
+			const better = matching.length > 0 ? s.pcieGen < best.pcieGen : s.pcieGen > best.pcieGen;
+			return better || (s.pcieGen === best.pcieGen && s.maxLengthMm < best.maxLengthMm) ? s : best;
+		});
+		free.splice(free.indexOf(chosen), 1);
+		const where = `M.2 slot ${chosen.number} of ${boardName} (${pcieLabel(chosen.pcieGen)}, up to ${chosen.maxLengthMm} mm)`;
+
+		if (drive.gen === 0) {
+			out.push({
+				rule: 'm2-slot', severity: 'caution', slots,
+				message: `${name} is an M.2 SATA drive for ${where}: many M.2 slots take NVMe only, so check in the board manual that this one accepts SATA.`
+			});
+		} else if (chosen.pcieGen < drive.gen) {
+			const slotGBs = formatGBs(linkBandwidthGBs(chosen.pcieGen, 4));
+			const driveGBs = formatGBs(linkBandwidthGBs(drive.gen, 4));
+			out.push({
+				rule: 'm2-slot', severity: 'caution', slots,
+				message: `${name} is a ${pcieLabel(drive.gen)} drive in ${where}: it works, but at up to ${slotGBs} instead of ${driveGBs} (x4 link, usable one direction).`
+			});
+		} else {
+			out.push({
+				rule: 'm2-slot', severity: 'ok', slots,
+				message: `${name} (${pcieLabel(drive.gen)}, M.2 22${drive.lengthMm}) goes in ${where}.`
+			});
+		}
+	}
+
+	if (unplaced.length > 0) {
+		const keys = [...new Set(drives.map((d) => d.slot.key))];
+		out.push({
+			rule: 'm2-count', severity: 'conflict', slots: [...keys, board.key],
+			message: `${plural(drives.length, 'M.2 drive')} (${listText([...new Set(drives.map((d) => partName(d.slot)))])}), but ${boardName} has ${plural(boardSlots.length, 'M.2 slot')}.`
+		});
+	}
+};
+
+const sataPorts: Rule = ({ storage, board }, out) => {
+	if (!board) return;
+	const sata = storage.filter((s) => s.part.specs.interface === 'sata' && m2LengthMm(s.part.specs.formFactor) === null);
+	if (sata.length === 0) return;
+	let count = 0;
+	for (const s of sata) count += s.quantity;
+	const ports = board.part.specs.sataPorts;
+	const slots = [...sata.map((s) => s.key), board.key];
+	const names = listText(sata.map((s) => partName(s)));
+	out.push(
+		count <= ports
+			? { rule: 'sata-ports', severity: 'ok', slots, message: `${names}: ${plural(count, 'SATA drive')} for the ${ports} SATA ports of ${partName(board)}.` }
+			: { rule: 'sata-ports', severity: 'conflict', slots, message: `${names}: ${plural(count, 'SATA drive')}, but ${partName(board)} has ${plural(ports, 'SATA port')}.` }
+	);
+};
+
+const cpuCooling: Rule = ({ cpu, coolers }, out) => {
+	if (!cpu || coolers.length > 0) return;
+	out.push(
+		cpu.part.specs.bundledCooler
+			? { rule: 'cpu-cooler', severity: 'ok', slots: [cpu.key], message: `${partName(cpu)} comes with a cooler, so the build needs no cooler slot.` }
+			: { rule: 'cpu-cooler', severity: 'conflict', slots: [cpu.key], message: `${partName(cpu)} comes without a cooler and the build has no CPU cooler.` }
+	);
+};
+
+const cpuGraphics: Rule = ({ cpu, gpus }, out) => {
+	if (!cpu || gpus.length > 0) return;
+	out.push(
+		cpu.part.specs.integratedGraphics
+			? { rule: 'cpu-graphics', severity: 'ok', slots: [cpu.key], message: `${partName(cpu)} has integrated graphics; the display connects to the board's video outputs.` }
+			: { rule: 'cpu-graphics', severity: 'conflict', slots: [cpu.key], message: `${partName(cpu)} has no integrated graphics and the build has no graphics card: there is no display output.` }
+	);
+};
+
+const coolerHeat: Rule = ({ cpu, coolers }, out) => {
+	if (!cpu) return;
+	const power = cpuSustainedPower(cpu.part.specs);
+	// CHECK-VALUES 15: cooler heat ratings have no common test method across vendors.
+	const caveat = 'cooler heat ratings have no common test method across vendors, so treat this as a rough guide';
+	for (const cooler of coolers) {
+		const rated = cooler.part.specs.ratedHeatW;
+		out.push(
+			rated >= power.watts
+				? { rule: 'cooler-heat', severity: 'ok', slots: [cooler.key, cpu.key], message: `${partName(cooler)} is rated for ${rated} W; ${partName(cpu)} sustains about ${power.watts} W (${power.note}). Note: ${caveat}.` }
+				: { rule: 'cooler-heat', severity: 'caution', slots: [cooler.key, cpu.key], message: `${partName(cooler)} is rated for ${rated} W, below the ${power.watts} W ${partName(cpu)} sustains (${power.note}): expect higher temperatures, fan noise or lower clocks under long loads. Note: ${caveat}.` }
+		);
+	}
+};
+
+/** Rules in report order: platform first, then physical fit, then power and cooling. */
+const RULES: readonly Rule[] = [
+	cpuSocketBoard,
+	cpuSocketCooler,
+	memoryTypeBoard,
+	memoryTypeCpu,
+	memorySlotsAndCapacity,
+	m2Drives,
+	sataPorts,
+	boardFormFactorCase,
+	gpuLengthCase,
+	coolerClearanceCase,
+	psuFormFactorCase,
+	psuRating,
+	gpuPowerConnectors,
+	cpuCooling,
+	cpuGraphics,
+	coolerHeat
+];
+
+/** All findings for a build. Pure: the same parts always give the same report. */
+export function fitReport(build: BuildParts): Finding[] {
+	const ctx: Context = {
+		build,
+		cpu: slotsOf(build, 'cpu')[0],
+		board: slotsOf(build, 'motherboard')[0],
+		pcCase: slotsOf(build, 'case')[0],
+		psu: slotsOf(build, 'psu')[0],
+		coolers: slotsOf(build, 'cooler'),
+		gpus: slotsOf(build, 'gpu'),
+		memory: slotsOf(build, 'memory'),
+		storage: slotsOf(build, 'storage')
+	};
+	const out: Finding[] = [];
+	for (const rule of RULES) rule(ctx, out);
+	return out;
+}
+
+export interface FindingCounts {
+	ok: number;
+	caution: number;
+	conflict: number;
+	worst: Severity;
+}
+
+/** Counts per severity and the worst one, for a report header. */
+export function summarize(findings: readonly Finding[]): FindingCounts {
+	const counts = { ok: 0, caution: 0, conflict: 0 };
+	for (const f of findings) counts[f.severity] += 1;
+	return { ...counts, worst: worstSeverity(findings) };
+}
