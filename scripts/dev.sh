@@ -6,6 +6,7 @@ ensure_node_modules
 ensure_mariadb_package
 start_db
 start_mail_fake
+start_ecb_fake
 ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 exec npx vite dev --host 127.0.0.1 --port "${PORT:-5173}"

@@ -65,6 +65,20 @@ start_mail_fake() {
 	bash scripts/smtp-fake.sh start || fail "start the SMTP fake"
 }
 
+# The local fake of the ECB's daily exchange-rate file (scripts/ecb-fake.sh) unless the
+# environment names a rates URL: a deployment sets ECB_RATES_URL itself (normally the ECB's
+# public https://www.ecb.europa.eu/stats/eurofxref/eurofxref-daily.xml), so no fake runs.
+start_ecb_fake() {
+	if [ -n "${ECB_RATES_URL:-}" ]; then
+		step "Using the exchange rates at $ECB_RATES_URL from the environment (no local ECB fake)"
+		return
+	fi
+	export ECB_FAKE_PORT="${ECB_FAKE_PORT:-2590}"
+	export ECB_RATES_URL="http://127.0.0.1:$ECB_FAKE_PORT/stats/eurofxref/eurofxref-daily.xml"
+	step "Starting the local ECB rates fake on $ECB_RATES_URL (rates of 2 January 2024)"
+	bash scripts/ecb-fake.sh start || fail "start the ECB rates fake"
+}
+
 # migrate_and_seed DB_NAME
 migrate_and_seed() {
 	step "Migrating and seeding database $1"

@@ -5,12 +5,15 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 export PORT="${PORT:-3000}"
 export HOST="${HOST:-127.0.0.1}"
 export ORIGIN="${ORIGIN:-http://127.0.0.1:$PORT}"
+# Room for the 1 MiB catalog CSV import; the hook holds every other route to 512 KB.
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-2M}"
 export DB_NAME="${DB_NAME:-slotwise}"
 
 ensure_node_modules
 ensure_mariadb_package
 start_db
 start_mail_fake
+start_ecb_fake
 ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 

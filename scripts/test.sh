@@ -14,6 +14,7 @@ ensure_mariadb_package
 ensure_chromium
 start_db
 start_mail_fake
+start_ecb_fake
 ensure_auth_secret
 # Integration tests migrate slotwise_test themselves (globalSetup) and truncate between tests;
 # end-to-end tests read the seeded demo in slotwise_e2e.

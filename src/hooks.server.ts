@@ -1,7 +1,7 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/auth/config';
-import { closeAuthEndpoints, guardAreas, jsonOnlyApi, resolveUser, securityHeaders } from '$lib/server/auth/hooks';
+import { capBodies, closeAuthEndpoints, guardAreas, jsonOnlyApi, resolveUser, securityHeaders } from '$lib/server/auth/hooks';
 import { closeDb } from '$lib/server/db';
 import { logRequest, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
@@ -20,7 +20,7 @@ export const init: ServerInit = () => {
 	}
 };
 
-export const handle = sequence(log, securityHeaders, jsonOnlyApi, closeAuthEndpoints, authHandle, resolveUser, guardAreas);
+export const handle = sequence(log, securityHeaders, capBodies, jsonOnlyApi, closeAuthEndpoints, authHandle, resolveUser, guardAreas);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };

@@ -23,6 +23,12 @@ export default defineConfig({
 	outputDir: '../.reports/playwright-artifacts',
 	fullyParallel: false,
 	workers: 1,
+	// The catalog import adds 200 parts to the shared e2e database: it runs after every
+	// test that reads the demo catalog.
+	projects: [
+		{ name: 'main', testIgnore: /editor-catalog\.e2e\.ts$/ },
+		{ name: 'catalog-writes', testMatch: /editor-catalog\.e2e\.ts$/, dependencies: ['main'] }
+	],
 	retries: 0,
 	timeout: 30_000,
 	use: {
@@ -52,10 +58,12 @@ export default defineConfig({
 			PORT: String(PORT),
 			HOST: '127.0.0.1',
 			ORIGIN: BASE_URL,
+			BODY_SIZE_LIMIT: '2M',
 			DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e',
 			LOG_LEVEL: 'silent',
-			// Mail goes to the SMTP fake that npm test starts; unset values are left out.
-			...passThrough('SMTP_HOST', 'SMTP_PORT', 'MAILBOX_URL')
+			// Mail goes to the SMTP fake and rates come from the ECB fake that npm test starts;
+			// unset values are left out.
+			...passThrough('SMTP_HOST', 'SMTP_PORT', 'MAILBOX_URL', 'ECB_RATES_URL')
 		}
 	}
 });

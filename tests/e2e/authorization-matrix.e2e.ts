@@ -25,10 +25,18 @@ const admins: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', 
 const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(public)': everyone('ok'),
 	'GET /(public)/guides/[slug=slug]': everyone('ok'),
+	'GET /(public)/parts': everyone('ok'),
+	'GET /(public)/parts/[slug=slug]': everyone('ok'),
+	'GET /api/v1/parts': everyone('ok'),
+	'GET /api/v1/parts/[slug=slug]': everyone('ok'),
 	'GET /help': everyone('ok'),
 	'GET /api/health': everyone('ok'),
 	// Public computation; the matrix posts a form, which the JSON-only hook refuses with 415.
 	'POST /api/v1/fit': everyone('ok'),
+	'GET /api/v1/guides/[slug=slug]/pricing': everyone('ok'),
+	'GET /api/v1/fx': everyone('ok'),
+	'GET /(editor)/editor/rates': editors,
+	'POST /(editor)/editor/rates?/refresh': editors,
 	'GET /(auth)/signin': everyone('ok'),
 	'POST /(auth)/signin?/password': everyone('ok'),
 	'POST /(auth)/signin?/link': everyone('ok'),
@@ -54,6 +62,30 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(author)/my/guides': authors,
 	'GET /(editor)/editor/author-requests': editors,
 	'POST /(editor)/editor/author-requests?/decide': editors,
+	'GET /(editor)/editor': editors,
+	'GET /(editor)/editor/parts': editors,
+	'GET /(editor)/editor/parts/new': editors,
+	'POST /(editor)/editor/parts/new?/create': editors,
+	'GET /(editor)/editor/parts/[slug=slug]': editors,
+	'POST /(editor)/editor/parts/[slug=slug]?/save': editors,
+	'GET /(editor)/editor/parts/export.csv': editors,
+	'GET /(editor)/editor/parts/import': editors,
+	'POST /(editor)/editor/parts/import?/upload': editors,
+	'POST /(editor)/editor/parts/import?/confirm': editors,
+	'POST /(editor)/editor/parts/import?/discard': editors,
+	'GET /(editor)/editor/parts/import/template.csv': editors,
+	'GET /(editor)/editor/stores': editors,
+	'POST /(editor)/editor/stores?/create': editors,
+	'POST /(editor)/editor/stores?/update': editors,
+	'POST /(editor)/editor/stores?/delete': editors,
+	'GET /(editor)/editor/quotes': editors,
+	'POST /(editor)/editor/quotes?/create': editors,
+	'GET /(editor)/editor/regions': editors,
+	'GET /(editor)/editor/regions/[code]': editors,
+	'POST /(editor)/editor/regions/[code]?/settings': editors,
+	'POST /(editor)/editor/regions/[code]?/addRate': editors,
+	'POST /(editor)/editor/regions/[code]?/removeRate': editors,
+	'GET /api/v1/regions': everyone('ok'),
 	'GET /(admin)/admin/users': admins,
 	'POST /(admin)/admin/users?/changeRole': admins,
 	'POST /(admin)/admin/users?/setDisabled': admins,
@@ -62,6 +94,18 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /dev/mailbox?/clear': everyone('ok'),
 	'GET /dev/mailbox/[id]': everyone('notfound'),
 	'GET /dev/mailbox/[id]/html': everyone('notfound')
+};
+
+/*
+ * Per-route samples where SAMPLE_PARAMS would name the wrong kind of record: its slug is a
+ * guide's, which a part route answers with 404. A demo part's slug makes "ok" mean
+ * "authorized and found" for the public part page and API (the seeded e2e database has it).
+ */
+const ROUTE_PARAMS: Record<string, Record<string, string>> = {
+	'/(public)/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
+	'/api/v1/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
+	'/(editor)/editor/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
+	'/(editor)/editor/regions/[code]': { code: 'us' }
 };
 
 const SAMPLE_PARAMS: Record<string, string> = {
@@ -106,7 +150,9 @@ function urlOf(entry: string): { method: string; url: string } {
 		routeId
 			.split('/')
 			.filter((segment) => segment && !/^\(.+\)$/.test(segment))
-			.map((segment) => segment.replace(/^\[(\w+)(=\w+)?\]$/, (_, p: string) => SAMPLE_PARAMS[p] ?? 'x'))
+			.map((segment) =>
+				segment.replace(/^\[(\w+)(=\w+)?\]$/, (_, p: string) => ROUTE_PARAMS[routeId]?.[p] ?? SAMPLE_PARAMS[p] ?? 'x')
+			)
 			.join('/') || '';
 	const url = `/${path}` + (action ? (action === 'default' ? '' : `?/${action}`) : '');
 	return { method, url };

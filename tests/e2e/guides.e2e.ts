@@ -62,3 +62,39 @@ test('the help page renders its highlighted code sample', async ({ page }) => {
 	await expect(page.locator('pre.shiki').first()).toBeVisible();
 	expect(foreign).toEqual([]);
 });
+
+test('the region switcher re-prices a guide and labels lines quoted or estimated (works without JavaScript)', async ({ browser }) => {
+	const context = await browser.newContext({ javaScriptEnabled: false });
+	const page = await context.newPage();
+	await page.goto('/guides/pocket-itx-1440p');
+	const receipt = page.getByRole('complementary');
+	await expect(receipt.getByText(/JP¥/).first()).toBeVisible();
+	await expect(page.getByText('Estimated', { exact: true })).toHaveCount(0);
+
+	await receipt.getByLabel('Show prices for').selectOption('de');
+	await receipt.getByRole('button', { name: 'Show' }).click();
+	await expect(page).toHaveURL(/\?region=de$/);
+	await expect(receipt.getByText(/€/).first()).toBeVisible();
+	await expect(receipt.getByTestId('priced-counts')).toContainText(/\d+ quoted · [1-9]\d* estimated/);
+	const table = page.getByRole('table').first();
+	await expect(table.getByText('Estimated', { exact: true }).first()).toBeVisible();
+	await expect(table.getByText('Quoted', { exact: true }).first()).toBeVisible();
+	await expect(receipt.getByText(/Exchange rates of/)).toBeVisible();
+
+	// An unknown region code falls back to the base region with a message, never a 500.
+	const response = await page.goto('/guides/pocket-itx-1440p?region=zz');
+	expect(response?.status()).toBe(200);
+	await expect(page.getByRole('alert')).toContainText('no region');
+	await context.close();
+});
+
+test('GET /api/v1/guides/[slug]/pricing re-prices without a page load', async ({ request }) => {
+	const response = await request.get('/api/v1/guides/pocket-itx-1440p/pricing?region=uk');
+	expect(response.status()).toBe(200);
+	const body = await response.json();
+	expect(body.region.code).toBe('uk');
+	expect(body.picksTotal.currency).toBe('GBP');
+	const bad = await request.get('/api/v1/guides/pocket-itx-1440p/pricing?region=zz');
+	expect(bad.status()).toBe(400);
+	expect((await request.get('/api/v1/guides/pocket-itx-1440p/pricing?region=d3')).status()).toBe(400);
+});

@@ -74,3 +74,11 @@ test('a spoofed X-Forwarded-For does not change who the rate limiter counts', as
 	}
 	expect(last).toBe(429);
 });
+
+test('a body over 512 KB is refused with 413 outside the catalog import', async ({ request }) => {
+	const response = await request.post('/signup', {
+		form: { name: 'x', email: 'big@example.test', password: 'y'.repeat(600 * 1024) },
+		headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html' }
+	});
+	expect(response.status()).toBe(413);
+});

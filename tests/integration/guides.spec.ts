@@ -1,6 +1,7 @@
 import { QueryTypes } from 'sequelize';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { Guide, sequelize } from '../../src/lib/server/db';
+import { Guide, Quote, Region, sequelize } from '../../src/lib/server/db';
+import { seeder } from '../../src/lib/server/db/seeders';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
 import * as guides from '../../src/lib/server/services/guides';
@@ -61,5 +62,62 @@ describe('guides service on the real MariaDB', () => {
 		expect(await guides.getPublishedBySlug(demo.slug)).toBeNull();
 		expect((await guides.listPublished()).some((g) => g.slug === demo.slug)).toBe(false);
 		await Guide.update({ state: 'published' }, { where: { slug: demo.slug } });
+	});
+});
+
+describe('guide pricing in another region (region adjust on the real MariaDB)', () => {
+	beforeAll(async () => {
+		await resetDatabase();
+		await seeder(sequelize).up(); // community and the ECB 2 Jan 2024 demo rates
+	});
+
+	it('prices a US guide in Germany: each line quoted by a German store or estimated from the US price', async () => {
+		const outcome = await guides.getPriced('steady-1080p-starter', 'de');
+		if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+		const g = outcome.guide;
+		expect(g.region.code).toBe('de');
+		expect(g.picksTotal?.currency).toBe('EUR');
+		expect(g.picks.quoted + g.picks.estimated + g.picks.unpriced).toBe(g.slots.length);
+		for (const slot of g.slots) {
+			expect(slot.price?.unit.currency ?? 'EUR').toBe('EUR');
+			if (slot.price?.status === 'estimated') expect(slot.price.observedAt).toBe('2024-01-02');
+		}
+		const de = await Region.findOne({ where: { code: 'de' } });
+		if (!de) throw new Error('no de region');
+		// A quoted line is the latest German quote of that part.
+		const quoted = g.slots.find((s) => s.price?.status === 'quoted');
+		expect(quoted, 'the demo has German quotes for some picks').toBeDefined();
+		if (quoted?.price) {
+			const latest = await Quote.findOne({ where: { partId: quoted.pick.id, regionId: de.id }, order: [['observedAt', 'DESC']] });
+			expect(quoted.price.unit.amountMinor).toBe(Number(latest?.amountMinor));
+		}
+	});
+
+	it('estimates a line by hand: strip 10 % consumption tax, convert yen at the ECB rate, apply the factor, add 19 % VAT (D)', async () => {
+		const outcome = await guides.getPriced('pocket-itx-1440p', 'de');
+		if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+		// The demo's compact build has a pick without a German quote, so there is an estimate to check.
+		const estimated = outcome.guide.slots.find((s) => s.price?.status === 'estimated');
+		if (!estimated?.price) throw new Error('expected an estimated line in Germany');
+		expect(estimated.price.observedAt).toBe('2024-01-02');
+		const base = await guides.getPriced('pocket-itx-1440p', null);
+		if (base.kind !== 'ok') throw new Error(base.kind);
+		const yen = base.guide.slots.find((s) => s.id === estimated.id)?.price?.unit.amountMinor ?? 0;
+		const de = await Region.findOne({ where: { code: 'de' } });
+		const factorBp = de?.categoryFactorsBp?.[estimated.category] ?? 10000;
+		// ECB 2 Jan 2024 (CHECK-VALUES 10c, V): 1 EUR = 155.68 JPY. JP consumption tax 10 %
+		// (value from memory), DE VAT 19 % (CHECK-VALUES 11a, V2). EUR cents =
+		// yen / 1.10 / 155.68 × factor × 1.19 × 100, rounded half-even once (D).
+		const exact = (yen / 1.1 / 155.68) * (factorBp / 10000) * 1.19 * 100;
+		expect(Math.abs(estimated.price.unit.amountMinor - exact)).toBeLessThanOrEqual(0.5 + 1e-6);
+		expect(estimated.price.unit.currency).toBe('EUR');
+	});
+
+	it('keeps the author’s quotes in the base region, and refuses an unknown region', async () => {
+		const outcome = await guides.getPriced('steady-1080p-starter', null);
+		if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+		expect(outcome.guide.picks.estimated).toBe(0);
+		expect(outcome.guide.regions.map((r) => r.code).sort()).toEqual(['de', 'jp', 'uk', 'us']);
+		expect(await guides.getPriced('steady-1080p-starter', 'zz')).toEqual({ kind: 'unknown_region' });
 	});
 });

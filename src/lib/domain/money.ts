@@ -16,6 +16,9 @@ const CURRENCIES = currencies as unknown as Record<string, Currency<number>>;
 export function currencyOf(code: string): Currency<number> {
 	const currency = CURRENCIES[code.toUpperCase()];
 	if (!currency) throw new RangeError(`Unknown ISO 4217 currency code: ${code}`);
+	// MGA and MRU divide into fifths; ISO lists them with 2 digits. Amounts here are
+	// decimal minor units, so those two are refused rather than priced wrongly.
+	if (currency.base !== 10) throw new RangeError(`${code} has non-decimal subunits, which Slotwise does not price`);
 	return currency;
 }
 

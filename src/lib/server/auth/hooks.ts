@@ -64,6 +64,23 @@ export const guardAreas: Handle = ({ event, resolve }) => {
 
 const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
+/** Bodies above this need a route that expects them (BODY_SIZE_LIMIT is raised for uploads). */
+export const DEFAULT_BODY_LIMIT_BYTES = 512 * 1024;
+const LARGE_BODY_ROUTES = [/^\/\(editor\)\/editor\/parts\/import$/];
+
+/**
+ * adapter-node's BODY_SIZE_LIMIT applies to every route, so it is raised for the catalog
+ * import and every other route is held to the default here. Bodies without a
+ * Content-Length are still bounded by BODY_SIZE_LIMIT.
+ */
+export const capBodies: Handle = ({ event, resolve }) => {
+	const length = Number(event.request.headers.get('content-length') ?? 0);
+	if (length > DEFAULT_BODY_LIMIT_BYTES && !LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))) {
+		return new Response('Payload too large', { status: 413 });
+	}
+	return resolve(event);
+};
+
 /**
  * SvelteKit's CSRF check covers only form content types, so JSON API routes refuse
  * everything else: a cross-site form cannot post JSON without a CORS preflight.

@@ -28,14 +28,19 @@ export interface GuideCard {
 }
 
 export interface PriceLine {
-	/** Shelf price for one unit in the base region, as quoted. */
+	/** Price for one unit in the shown region's currency. */
 	unit: Money;
-	storeName: string;
-	observedAt: string; // ISO date
+	/** quoted: a store's price in this region; estimated: worked out from the base region's price. */
+	status: 'quoted' | 'estimated';
+	/** The quoting store; null for estimates. */
+	storeName: string | null;
+	/** quoted: the day the price was seen; estimated: the exchange rates' as-of date (null when none was needed). */
+	observedAt: string | null;
 	taxIncluded: boolean;
 }
 
 export interface PartRef {
+	id: number;
 	slug: string;
 	brand: string;
 	model: string;
@@ -71,4 +76,17 @@ export interface GuideDetail extends GuideCard {
 	slots: SlotView[];
 	/** Min and max of the build total over each slot's pick and alternates. */
 	totalRange: { min: Money; max: Money } | null;
+}
+
+/** A guide priced in a chosen region (the base region unless the reader picks another). */
+export interface PricedGuide extends GuideDetail {
+	/** The region the prices are shown in. */
+	region: RegionSummary;
+	/** Every region a reader can switch to. */
+	regions: RegionSummary[];
+	/** How the picks were priced in this region. */
+	picks: { quoted: number; estimated: number; unpriced: number };
+	/** Oldest exchange-rate date behind an estimate, and whether rates are older than 7 days. */
+	ratesAsOf: string | null;
+	ratesStale: boolean;
 }

@@ -25,6 +25,8 @@ import * as m17 from './2026.12.02T09.06.00.create-author-requests.js';
 import * as m18 from './2026.12.02T09.07.00.create-rate-limits.js';
 import * as m19 from './2026.12.02T09.08.00.create-email-tokens.js';
 import * as mEmailChange from './2026.12.02T09.09.00.add-email-tokens-new-email.js';
+import * as mCatalogImports from './2026.12.03T14.00.00.create-catalog-imports.js';
+import * as mRegionTaxRates from './2026.12.03T14.01.00.create-region-tax-rates.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -48,4 +50,6 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.02T09.07.00.create-rate-limits': m18,
 	'2026.12.02T09.08.00.create-email-tokens': m19,
 	'2026.12.02T09.09.00.add-email-tokens-new-email': mEmailChange,
+	'2026.12.03T14.00.00.create-catalog-imports': mCatalogImports,
+	'2026.12.03T14.01.00.create-region-tax-rates': mRegionTaxRates,
 };

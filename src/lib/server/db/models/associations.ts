@@ -5,12 +5,14 @@
 import { Account } from './Account.js';
 import { AuditEvent } from './AuditEvent.js';
 import { AuthorRequest } from './AuthorRequest.js';
+import { CatalogImport } from './CatalogImport.js';
 import { Guide } from './Guide.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
 import { Part } from './Part.js';
 import { Quote } from './Quote.js';
 import { Region } from './Region.js';
+import { RegionTaxRate } from './RegionTaxRate.js';
 import { Session } from './Session.js';
 import { SlotAlternate } from './SlotAlternate.js';
 import { Store } from './Store.js';
@@ -56,4 +58,9 @@ export function applyAssociations() {
 	AuthorRequest.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 	AuthorRequest.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
 
+	Region.hasMany(RegionTaxRate, { foreignKey: 'regionId', as: 'taxRates' });
+	RegionTaxRate.belongsTo(Region, { foreignKey: 'regionId', as: 'region' });
+	RegionTaxRate.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
+
+	CatalogImport.belongsTo(User, { foreignKey: 'editorId', as: 'editor' });
 }

@@ -3,6 +3,7 @@ import { Account, initAccount } from './Account.js';
 import { applyAssociations } from './associations.js';
 import { AuditEvent, initAuditEvent } from './AuditEvent.js';
 import { AuthorRequest, initAuthorRequest } from './AuthorRequest.js';
+import { CatalogImport, initCatalogImport } from './CatalogImport.js';
 import { EmailToken, initEmailToken } from './EmailToken.js';
 import { FxRate, initFxRate } from './FxRate.js';
 import { Guide, initGuide } from './Guide.js';
@@ -11,6 +12,7 @@ import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
 import { Quote, initQuote } from './Quote.js';
 import { Region, initRegion } from './Region.js';
+import { RegionTaxRate, initRegionTaxRate } from './RegionTaxRate.js';
 import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
 import { Store, initStore } from './Store.js';
@@ -21,6 +23,7 @@ export {
 	Account,
 	AuditEvent,
 	AuthorRequest,
+	CatalogImport,
 	EmailToken,
 	FxRate,
 	Guide,
@@ -29,6 +32,7 @@ export {
 	Part,
 	Quote,
 	Region,
+	RegionTaxRate,
 	Session,
 	SlotAlternate,
 	Store,
@@ -53,5 +57,7 @@ export function initModels(sequelize: Sequelize) {
 	initEmailToken(sequelize);
 	initAuditEvent(sequelize);
 	initAuthorRequest(sequelize);
+	initCatalogImport(sequelize);
+	initRegionTaxRate(sequelize);
 	applyAssociations();
 }

@@ -1,0 +1,235 @@
+import { z } from 'zod';
+import { CATEGORY_LABELS, PART_CATEGORIES } from '../domain/types.js';
+import type { PartCategory } from '../domain/types.js';
+import { fieldIssues } from './issues.js';
+import {
+	BOARD_FORM_FACTORS,
+	MEMORY_TYPES,
+	PSU_FORM_FACTORS,
+	SOCKETS,
+	STORAGE_FORM_FACTORS
+} from './part-specs.js';
+
+/*
+ * The public catalog search (/parts and GET /api/v1/parts). Every value arrives as a URL
+ * string, so numbers are coerced here. Spec filters are a small allowlist per category:
+ * each names the spec field it reads and how it compares, so the service never turns a
+ * request parameter into a field name or a SQL fragment.
+ */
+
+/** Parts per catalog page (page and API alike). */
+export const PARTS_PER_PAGE = 24;
+
+export interface SelectFilter {
+	key: SpecFilterKey;
+	label: string;
+	/** The spec field it reads (DESIGN.md "Spec fields"). */
+	field: string;
+	/** eq: the field equals the value; includes: the field is a list holding the value. */
+	op: 'eq' | 'includes';
+	options: readonly string[];
+}
+
+export interface NumberFilter {
+	key: SpecFilterKey;
+	label: string;
+	field: string;
+	/** min: field ≥ value; max: field ≤ value. */
+	op: 'min' | 'max';
+	/** Shown beside the label; '' when the label already says it (cores). */
+	unit: string;
+}
+
+export type SpecFilterDef = SelectFilter | NumberFilter;
+
+function select(
+	key: SpecFilterKey,
+	label: string,
+	field: string,
+	options: readonly string[],
+	op: 'eq' | 'includes' = 'eq'
+): SelectFilter {
+	return { key, label, field, op, options };
+}
+
+function numeric(key: SpecFilterKey, label: string, field: string, op: 'min' | 'max', unit: string): NumberFilter {
+	return { key, label, field, op, unit };
+}
+
+/** The filters each category offers; categories not listed have none. */
+export const SPEC_FILTERS: Partial<Record<PartCategory, readonly SpecFilterDef[]>> = {
+	cpu: [select('socket', 'Socket', 'socket', SOCKETS), numeric('minCores', 'Cores, at least', 'cores', 'min', '')],
+	motherboard: [
+		select('socket', 'Socket', 'socket', SOCKETS),
+		select('formFactor', 'Form factor', 'formFactor', BOARD_FORM_FACTORS),
+		select('memoryType', 'Memory type', 'memoryType', MEMORY_TYPES)
+	],
+	memory: [
+		select('memoryType', 'Memory type', 'type', MEMORY_TYPES),
+		numeric('minSpeedMts', 'Speed, at least', 'speedMts', 'min', 'MT/s')
+	],
+	gpu: [
+		numeric('minVramGb', 'Video memory, at least', 'vramGb', 'min', 'GB'),
+		numeric('maxLengthMm', 'Length, at most', 'lengthMm', 'max', 'mm')
+	],
+	psu: [
+		numeric('minRatedW', 'Rated power, at least', 'ratedW', 'min', 'W'),
+		select('formFactor', 'Form factor', 'formFactor', PSU_FORM_FACTORS)
+	],
+	case: [
+		select('boardFormFactor', 'Takes boards of', 'boardFormFactors', BOARD_FORM_FACTORS, 'includes'),
+		numeric('fitsGpuLengthMm', 'Fits a card of', 'maxGpuLengthMm', 'min', 'mm')
+	],
+	storage: [
+		select('interface', 'Interface', 'interface', ['nvme', 'sata']),
+		select('formFactor', 'Form factor', 'formFactor', STORAGE_FORM_FACTORS)
+	]
+};
+
+// A GET form posts "" for every field left blank: that means "no filter", not a bad value.
+const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+
+const choice = z.preprocess(emptyAsUndefined, z.string().trim().max(40, 'That value is too long.').optional());
+
+function wholeNumber(what: string, max: number, unit: string) {
+	return z.preprocess(
+		emptyAsUndefined,
+		z.coerce
+			.number({ error: `${what} must be a whole number.` })
+			.int(`${what} must be a whole number.`)
+			.min(1, `${what} must be at least 1.`)
+			// Bounds far beyond any real part, so "a 5-metre card" is refused, not searched for.
+			.max(max, `${what} must be at most ${max.toLocaleString('en-GB')} ${unit}.`)
+			.optional()
+	);
+}
+
+/** The flat URL fields; `partSearchQuery` below adds the cross-field rules. */
+export const partSearchFields = z.strictObject({
+	q: z.preprocess(
+		(value) => (value === undefined ? '' : value),
+		z.string().trim().max(100, 'Search for at most 100 characters.')
+	),
+	category: z.preprocess(
+		emptyAsUndefined,
+		z.enum(PART_CATEGORIES, { error: `Choose one of ${PART_CATEGORIES.join(', ')}.` }).optional()
+	),
+	page: z.preprocess(
+		emptyAsUndefined,
+		z.coerce
+			.number({ error: 'The page must be a whole number.' })
+			.int('The page must be a whole number.')
+			.min(1, 'Pages start at 1.')
+			.max(100_000, 'There are not that many pages.')
+			.default(1)
+	),
+	socket: choice,
+	formFactor: choice,
+	memoryType: choice,
+	boardFormFactor: choice,
+	interface: choice,
+	minCores: wholeNumber('Cores', 256, 'cores'),
+	minSpeedMts: wholeNumber('Speed', 20_000, 'MT/s'),
+	minVramGb: wholeNumber('Video memory', 512, 'GB'),
+	maxLengthMm: wholeNumber('Length', 1_000, 'mm'),
+	minRatedW: wholeNumber('Rated power', 5_000, 'W'),
+	fitsGpuLengthMm: wholeNumber('Card length', 1_000, 'mm')
+});
+
+type SearchFields = z.output<typeof partSearchFields>;
+export type SpecFilterKey = Exclude<keyof SearchFields, 'q' | 'category' | 'page'>;
+export type SpecFilters = Partial<Pick<SearchFields, SpecFilterKey>>;
+
+export const SPEC_FILTER_KEYS = Object.keys(partSearchFields.shape).filter(
+	(key) => key !== 'q' && key !== 'category' && key !== 'page'
+) as SpecFilterKey[];
+
+/** Which categories offer a filter, for the message when it is used elsewhere. */
+function categoriesWith(key: SpecFilterKey): string {
+	const names = Object.entries(SPEC_FILTERS)
+		.filter(([, defs]) => defs?.some((d) => d.key === key))
+		.map(([category]) => CATEGORY_LABELS[category as PartCategory].toLowerCase());
+	return names.join(' and ');
+}
+
+/** GET /parts and /api/v1/parts: `{ q, category, page, specFilters }`. */
+export const partSearchQuery = partSearchFields
+	.superRefine((input, ctx) => {
+		const defs = input.category ? (SPEC_FILTERS[input.category] ?? []) : [];
+		for (const key of SPEC_FILTER_KEYS) {
+			const value = input[key];
+			if (value === undefined) continue;
+			const def = defs.find((d) => d.key === key);
+			if (!def) {
+				ctx.addIssue({
+					code: 'custom',
+					path: [key],
+					message: `The ${key} filter applies to ${categoriesWith(key)} only; choose that category first.`
+				});
+			} else if ('options' in def && !def.options.includes(String(value))) {
+				ctx.addIssue({ code: 'custom', path: [key], message: `Choose one of ${def.options.join(', ')}.` });
+			}
+		}
+	})
+	.transform(({ q, category, page, ...rest }) => {
+		const specFilters: SpecFilters = {};
+		for (const key of SPEC_FILTER_KEYS) {
+			if (rest[key] !== undefined) Object.assign(specFilters, { [key]: rest[key] });
+		}
+		return { q, category, page, specFilters };
+	});
+export type PartSearchQuery = z.output<typeof partSearchQuery>;
+
+/**
+ * URL parameters as a plain record. A parameter given twice is reported rather than
+ * silently resolved: `repeated` lists such keys (the last value is kept).
+ */
+export function queryRecord(params: URLSearchParams): { raw: Record<string, string>; repeated: string[] } {
+	const raw: Record<string, string> = {};
+	const repeated = new Set<string>();
+	for (const [key, value] of params) {
+		if (key in raw) repeated.add(key);
+		raw[key] = value;
+	}
+	return { raw, repeated: [...repeated] };
+}
+
+/**
+ * Strict parse for the API: any unknown or repeated parameter, bad value or filter outside
+ * the chosen category fails with field issues.
+ */
+export function parsePartSearchStrict(
+	params: URLSearchParams
+): { ok: true; query: PartSearchQuery } | { ok: false; issues: Record<string, string[]> } {
+	const { raw, repeated } = queryRecord(params);
+	const parsed = partSearchQuery.safeParse(raw);
+	const issues = parsed.success ? {} : fieldIssues(parsed.error);
+	for (const key of repeated) (issues[key] ??= []).unshift(`Give ${key} only once.`);
+	if (parsed.success && repeated.length === 0) return { ok: true, query: parsed.data };
+	return { ok: false, issues };
+}
+
+/**
+ * Lenient parse for the page: each bad or unknown parameter is reported and dropped, so
+ * one typo in the address does not lose the rest of the search. Dropping a parameter can
+ * make another invalid (a filter whose category was bad), hence the few rounds.
+ */
+export function parsePartSearchLenient(params: URLSearchParams): {
+	query: PartSearchQuery;
+	issues: Record<string, string[]>;
+} {
+	const { raw, repeated } = queryRecord(params);
+	const issues: Record<string, string[]> = {};
+	for (const key of repeated) (issues[key] ??= []).push(`${key} was given more than once; the last value is used.`);
+	let input: Record<string, string> = raw;
+	for (let round = 0; round < 4; round++) {
+		const parsed = partSearchQuery.safeParse(input);
+		if (parsed.success) return { query: parsed.data, issues };
+		const found = fieldIssues(parsed.error);
+		for (const [key, messages] of Object.entries(found)) (issues[key] ??= []).push(...messages);
+		input = Object.fromEntries(
+			Object.entries(input).filter(([key]) => key in partSearchFields.shape && !(key in found))
+		);
+	}
+	return { query: partSearchQuery.parse({}), issues };
+}

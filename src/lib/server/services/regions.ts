@@ -1,0 +1,315 @@
+/**
+ * Regions as editors keep them: currency, tax display mode, category factors, and tax
+ * rates with the date each takes effect (VAT rates move; CHECK-VALUES note 9).
+ *
+ * Where the rate lives: region_tax_rates holds the dated history; the rate in force on a
+ * day is the row with the latest effective_from on or before it. regions.tax_rate_bp
+ * stays as a cache of the rate in force today, rewritten in the same transaction as every
+ * change to the history and by syncCurrentTaxRates() (for rates dated in the future once
+ * their day comes), so code that only needs today's rate can keep reading the column.
+ * Days are UTC calendar days.
+ *
+ * A region with no dated rows yet has only its column rate. Before its first dated rate
+ * is recorded, that rate is written into the history from the day the region was set up,
+ * so adding a future rate never rewrites what applied before it.
+ */
+import { Op } from 'sequelize';
+import type { Transaction } from 'sequelize';
+import { minorUnitDigits } from '$lib/domain/money';
+import { PART_CATEGORIES, type PartCategory, type TaxMode } from '$lib/domain/types';
+import { fieldIssues } from '$lib/schemas/issues';
+import { regionSettingsInput, taxRateInput } from '$lib/schemas/regions';
+import { Region, RegionTaxRate, User, sequelize } from '$lib/server/db';
+import * as audit from './audit';
+import type { Issues, Outcome } from './catalog-upkeep';
+
+export interface TaxRateEntry {
+	id: number;
+	rateBp: number;
+	/** 'YYYY-MM-DD' */
+	effectiveFrom: string;
+	note: string | null;
+	recordedBy: string | null;
+	/** Whether this is the rate in force today. */
+	current: boolean;
+	/** Whether it starts after today. */
+	upcoming: boolean;
+}
+
+export interface RegionSummary {
+	code: string;
+	name: string;
+	currency: string;
+	taxMode: TaxMode;
+	/** The rate in force today, from the history (or the column when there is none). */
+	taxRateBp: number;
+	/** When that rate took effect; null when the region has no dated history. */
+	taxRateSince: string | null;
+	/** The next dated change, if one is recorded. */
+	nextTaxRate: { rateBp: number; effectiveFrom: string } | null;
+	/** One factor per category in basis points (10000 = ×1.00); missing ones read as 10000. */
+	categoryFactorsBp: Record<PartCategory, number>;
+}
+
+export interface RegionDetail extends RegionSummary {
+	taxRates: TaxRateEntry[];
+}
+
+/** Today's UTC calendar day, 'YYYY-MM-DD'. */
+export function utcDay(now = new Date()): string {
+	return now.toISOString().slice(0, 10);
+}
+
+function fullFactors(factors: Partial<Record<PartCategory, number>> | null | undefined): Record<PartCategory, number> {
+	return Object.fromEntries(PART_CATEGORIES.map((c) => [c, factors?.[c] ?? 10_000])) as Record<PartCategory, number>;
+}
+
+/** The history of one region, oldest first. */
+async function history(regionId: number, transaction?: Transaction) {
+	return RegionTaxRate.findAll({
+		where: { regionId },
+		include: [{ model: User, as: 'createdBy', attributes: ['name', 'email'] }],
+		order: [['effectiveFrom', 'ASC']],
+		transaction
+	});
+}
+
+/** The row in force on `day` from an oldest-first history, or undefined before the first. */
+function inForce<T extends { effectiveFrom: string }>(rows: T[], day: string): T | undefined {
+	let found: T | undefined;
+	for (const row of rows) if (row.effectiveFrom <= day) found = row;
+	return found;
+}
+
+function summarise(region: Region, rows: RegionTaxRate[], today: string): RegionSummary {
+	const current = inForce(rows, today);
+	const next = rows.find((r) => r.effectiveFrom > today);
+	return {
+		code: region.code,
+		name: region.name,
+		currency: region.currency,
+		taxMode: region.taxMode,
+		taxRateBp: current ? current.rateBp : rows.length ? 0 : region.taxRateBp,
+		taxRateSince: current?.effectiveFrom ?? null,
+		nextTaxRate: next ? { rateBp: next.rateBp, effectiveFrom: next.effectiveFrom } : null,
+		categoryFactorsBp: fullFactors(region.categoryFactorsBp)
+	};
+}
+
+/** Every region with its rate in force today, by name. */
+export async function listRegions(now = new Date()): Promise<RegionSummary[]> {
+	const regions = await Region.findAll({ order: [['name', 'ASC']] });
+	const rates = await RegionTaxRate.findAll({ order: [['effectiveFrom', 'ASC']] });
+	const today = utcDay(now);
+	return regions.map((r) => summarise(r, rates.filter((t) => t.regionId === r.id), today));
+}
+
+/** One region with its full rate history, or null. */
+export async function getRegion(code: string, now = new Date()): Promise<RegionDetail | null> {
+	const region = await Region.findOne({ where: { code } });
+	if (!region) return null;
+	const rows = await history(region.id);
+	const today = utcDay(now);
+	const current = inForce(rows, today);
+	return {
+		...summarise(region, rows, today),
+		taxRates: rows
+			.map((r) => {
+				const by = (r as RegionTaxRate & { createdBy?: User | null }).createdBy;
+				return {
+					id: r.id,
+					rateBp: r.rateBp,
+					effectiveFrom: r.effectiveFrom,
+					note: r.note,
+					recordedBy: by ? by.name?.trim() || by.email : null,
+					current: r === current,
+					upcoming: r.effectiveFrom > today
+				};
+			})
+			.reverse()
+	};
+}
+
+/**
+ * The rate of region `code` in force on `day` ('YYYY-MM-DD'): from the dated history, or
+ * the region's column rate when it has no history. Null for an unknown region, or a day
+ * before the first dated rate.
+ */
+export async function taxRateOn(code: string, day: string): Promise<number | null> {
+	const region = await Region.findOne({ where: { code }, attributes: ['id', 'taxRateBp'] });
+	if (!region) return null;
+	const row = await RegionTaxRate.findOne({
+		where: { regionId: region.id, effectiveFrom: { [Op.lte]: day } },
+		order: [['effectiveFrom', 'DESC']]
+	});
+	if (row) return row.rateBp;
+	const any = await RegionTaxRate.count({ where: { regionId: region.id } });
+	return any === 0 ? region.taxRateBp : null;
+}
+
+function knownCurrency(code: string): boolean {
+	try {
+		minorUnitDigits(code);
+		return true;
+	} catch {
+		return false;
+	}
+}
+
+function settingsSnapshot(region: Region) {
+	return { name: region.name, currency: region.currency, taxMode: region.taxMode, categoryFactorsBp: fullFactors(region.categoryFactorsBp) };
+}
+
+/** Changes name, currency, tax display mode and category factors of region `code`. */
+export async function updateSettings(actorId: string, code: string, raw: unknown): Promise<Outcome<{ changed: boolean }>> {
+	const input = regionSettingsInput.safeParse(raw);
+	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
+	const data = input.data;
+	if (!knownCurrency(data.currency)) {
+		return { kind: 'invalid', issues: { currency: [`Unknown currency code "${data.currency}" (ISO 4217).`] } };
+	}
+	return sequelize.transaction(async (transaction) => {
+		const region = await Region.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+		if (!region) return { kind: 'not_found' } as const;
+		const before = settingsSnapshot(region);
+		const after = { name: data.name, currency: data.currency, taxMode: data.taxMode, categoryFactorsBp: data.categoryFactorsBp };
+		if (JSON.stringify(before) === JSON.stringify(after)) return { kind: 'ok', changed: false } as const;
+		await region.update(after, { transaction });
+		await audit.record({ actorId, action: 'region.updated', subjectType: 'region', subjectId: region.code, before, after }, transaction);
+		return { kind: 'ok', changed: true } as const;
+	});
+}
+
+/** Rewrites regions.tax_rate_bp from the history for `day`; returns the new value. */
+async function refreshColumn(region: Region, day: string, transaction: Transaction): Promise<number> {
+	const row = await RegionTaxRate.findOne({
+		where: { regionId: region.id, effectiveFrom: { [Op.lte]: day } },
+		order: [['effectiveFrom', 'DESC']],
+		transaction
+	});
+	const rate = row ? row.rateBp : 0;
+	if (region.taxRateBp !== rate) await region.update({ taxRateBp: rate }, { transaction });
+	return rate;
+}
+
+/**
+ * Records that region `code` charges `rate` from `effectiveFrom` on. One rate per day:
+ * a second one for the same day is refused (remove the wrong one first).
+ */
+export async function addTaxRate(actorId: string, code: string, raw: unknown, now = new Date()): Promise<Outcome<{ rateId: number }>> {
+	const input = taxRateInput.safeParse(raw);
+	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
+	const { rate, effectiveFrom, note } = input.data;
+	const today = utcDay(now);
+	return sequelize.transaction(async (transaction) => {
+		const region = await Region.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+		if (!region) return { kind: 'not_found' } as const;
+		const rows = await RegionTaxRate.findAll({ where: { regionId: region.id }, transaction });
+		if (rows.some((r) => r.effectiveFrom === effectiveFrom)) {
+			const issues: Issues = { effectiveFrom: [`A rate already starts on ${effectiveFrom}; remove it first to replace it.`] };
+			return { kind: 'invalid', issues } as const;
+		}
+		if (rows.length === 0) {
+			// Keep what applied so far: the column rate, from the day the region was set up.
+			const since = utcDay(region.createdAt);
+			if (since !== effectiveFrom) {
+				await RegionTaxRate.create(
+					{ regionId: region.id, rateBp: region.taxRateBp, effectiveFrom: since, note: 'Rate recorded when the region was set up', createdById: actorId },
+					{ transaction }
+				);
+			}
+		}
+		const row = await RegionTaxRate.create({ regionId: region.id, rateBp: rate, effectiveFrom, note, createdById: actorId }, { transaction });
+		const before = { taxRateBp: region.taxRateBp };
+		const current = await refreshColumn(region, today, transaction);
+		await audit.record(
+			{
+				actorId,
+				action: 'region.tax_rate_added',
+				subjectType: 'region',
+				subjectId: region.code,
+				before,
+				after: { rateBp: rate, effectiveFrom, note, taxRateBp: current }
+			},
+			transaction
+		);
+		return { kind: 'ok', rateId: row.id } as const;
+	});
+}
+
+/** Removes one dated rate of region `code` (a mistake); the last remaining one cannot go. */
+export async function removeTaxRate(actorId: string, code: string, rateId: number, now = new Date()): Promise<Outcome> {
+	return sequelize.transaction(async (transaction) => {
+		const region = await Region.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+		if (!region) return { kind: 'not_found' } as const;
+		const row = await RegionTaxRate.findOne({ where: { id: rateId, regionId: region.id }, transaction });
+		if (!row) return { kind: 'not_found' } as const;
+		const rows = await RegionTaxRate.findAll({ where: { regionId: region.id }, order: [['effectiveFrom', 'ASC']], transaction });
+		if (rows.length === 1) return { kind: 'conflict', message: 'This is the only rate on record; add the right one before removing it.' } as const;
+		const today = utcDay(now);
+		const remaining = rows.filter((r) => r.id !== row.id);
+		if (inForce(rows, today) && !inForce(remaining, today)) {
+			return { kind: 'conflict', message: 'Removing it would leave no rate in force today; add the right one first.' } as const;
+		}
+		const before = { rateBp: row.rateBp, effectiveFrom: row.effectiveFrom, note: row.note, taxRateBp: region.taxRateBp };
+		await row.destroy({ transaction });
+		const current = await refreshColumn(region, today, transaction);
+		await audit.record(
+			{ actorId, action: 'region.tax_rate_removed', subjectType: 'region', subjectId: region.code, before, after: { taxRateBp: current } },
+			transaction
+		);
+		return { kind: 'ok' } as const;
+	});
+}
+
+/**
+ * Brings every regions.tax_rate_bp in line with the history for `now` (a rate dated in
+ * the future takes over on its day). Idempotent; meant for a daily job. Returns the codes
+ * of the regions whose cached rate changed.
+ */
+export async function syncCurrentTaxRates(now = new Date()): Promise<string[]> {
+	const day = utcDay(now);
+	return sequelize.transaction(async (transaction) => {
+		const changed: string[] = [];
+		const regions = await Region.findAll({ transaction, lock: transaction.LOCK.UPDATE });
+		for (const region of regions) {
+			const rows = await RegionTaxRate.count({ where: { regionId: region.id }, transaction });
+			if (rows === 0) continue;
+			const before = region.taxRateBp;
+			const after = await refreshColumn(region, day, transaction);
+			if (before !== after) {
+				changed.push(region.code);
+				await audit.record(
+					{ actorId: null, action: 'region.tax_rate_in_force', subjectType: 'region', subjectId: region.code, before: { taxRateBp: before }, after: { taxRateBp: after, day } },
+					transaction
+				);
+			}
+		}
+		return changed;
+	});
+}
+
+/** The public shape of GET /api/v1/regions. */
+export interface PublicRegion {
+	code: string;
+	name: string;
+	currency: string;
+	taxMode: TaxMode;
+	taxRateBp: number;
+	taxRateSince: string | null;
+	nextTaxRate: { rateBp: number; effectiveFrom: string } | null;
+	categoryFactorsBp: Record<PartCategory, number>;
+}
+
+export async function publicRegions(now = new Date()): Promise<PublicRegion[]> {
+	return (await listRegions(now)).map((r) => ({
+		code: r.code,
+		name: r.name,
+		currency: r.currency,
+		taxMode: r.taxMode,
+		taxRateBp: r.taxRateBp,
+		taxRateSince: r.taxRateSince,
+		nextTaxRate: r.nextTaxRate,
+		categoryFactorsBp: r.categoryFactorsBp
+	}));
+}
