@@ -3,14 +3,17 @@
  * pass over its 60 alternates (5 per slot). Goal: the whole drop-in pass under 5 ms.
  * Run: npm run bench:fit  (plain Node via tsx; relative imports, no Vite).
  *
- * Parts are invented, with realistic specs on real standards. Region adjust is not timed
- * here yet: it belongs to src/lib/domain/region.ts, benchmarked by its owner.
+ * Parts are invented, with realistic specs on real standards. Region adjust prices the same
+ * 12 slots × 6 options from a USD base into EUR with VAT: half quoted, half estimated
+ * through the ECB 2 Jan 2024 cross rates.
  */
 import { performance } from 'node:perf_hooks';
 import type { PartInfo } from '../src/lib/domain/build-parts';
 import { dropIns, type GuideSlot } from '../src/lib/domain/dropins';
 import { fitReport, summarize } from '../src/lib/domain/fit';
+import { money } from '../src/lib/domain/money';
 import { powerBudget } from '../src/lib/domain/power';
+import { adjustToRegion, type SlotInput } from '../src/lib/domain/region';
 import type { PartCategory } from '../src/lib/domain/types';
 import type { SpecsByCategory } from '../src/lib/schemas/part-specs';
 
@@ -112,6 +115,29 @@ const reportsOnly = time(() => {
 	fitReport(picks);
 	for (const b of swappedBuilds) fitReport(b);
 }, 1000, 200);
+// Region adjust: every other option has a German quote; the rest are estimated from US prices.
+const usd = (cents: number) => ({ unit: money(cents, 'USD'), taxIncluded: false, observedAt: '2026-11-30', storeName: 'Bench US' });
+const eur = (cents: number) => ({ unit: money(cents, 'EUR'), taxIncluded: true, observedAt: '2026-11-30', storeName: 'Bench DE' });
+const pricingSlots: SlotInput[] = guide.map((s, i) => ({
+	key: i,
+	category: s.category,
+	quantity: s.quantity,
+	pick: { partId: i * 10, basePrice: usd(10_000 + i * 100), targetQuote: i % 2 ? eur(11_000 + i * 100) : null },
+	alternates: s.alternates.map((_, j) => ({ partId: i * 10 + j + 1, basePrice: usd(9_000 + j * 500), targetQuote: j % 2 ? eur(10_000 + j * 400) : null }))
+}));
+const regionInput = {
+	base: { code: 'us', currency: 'USD', taxMode: 'exclusive' as const, taxRateBp: 0, categoryFactorsBp: {} },
+	target: { code: 'de', currency: 'EUR', taxMode: 'inclusive' as const, taxRateBp: 1900, categoryFactorsBp: { gpu: 10400 } },
+	slots: pricingSlots,
+	rates: { USD: { ratePerEur: '1.0956', asOf: '2024-01-02' }, EUR: { ratePerEur: '1', asOf: '2024-01-02' } }
+};
+const regionAdjust = time(() => adjustToRegion(regionInput), 2000, 400);
+const everything = time(() => {
+	fitReport(picks);
+	powerBudget(picks);
+	adjustToRegion(regionInput);
+}, 2000, 400);
+
 const result = dropIns(guide);
 const fitting = result.alternates.filter((a) => a.fits).length;
 
@@ -120,6 +146,8 @@ console.log(`Slotwise fit benchmark (Node ${process.version}), medians`);
 console.log(`guide: ${guide.length} slots, ${alternateCount} alternates; picks report ${JSON.stringify(summarize(result.picks))}`);
 console.log(`fit report + power budget (picks):   ${us(oneReport)}`);
 console.log(`fit report alone (picks):            ${us(fitOnly)}`);
+console.log(`region adjust (12 slots × 6 options): ${us(regionAdjust)}`);
+console.log(`fit + power + region adjust:         ${us(everything)}`);
 console.log(`drop-in pass (${alternateCount} alternates + picks): ${pass.toFixed(3)} ms  (${us(pass / (alternateCount + 1))} per evaluation)`);
 console.log(`the same 61 fit reports, no comparison: ${reportsOnly.toFixed(3)} ms`);
 console.log(`ratio drop-in pass / one fit report: ${(pass / fitOnly).toFixed(1)}×`);
