@@ -18,6 +18,8 @@ const everyone = (o: Outcome): Record<Role, Outcome> => ({ visitor: o, reader: o
 const signedIn: Record<Role, Outcome> = { visitor: 'signin', reader: 'ok', author: 'ok', editor: 'ok', admin: 'ok' };
 const authors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'ok', admin: 'ok' };
 const editors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'ok', admin: 'ok' };
+/** The author's own guide: other roles that may author still get 404 for someone else's. */
+const ownGuide: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'notfound', admin: 'notfound' };
 const admins: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'forbidden', admin: 'ok' };
 
 // "ok" means the request got past authorization (a page, a redirect elsewhere, or a 400
@@ -30,6 +32,15 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /api/v1/parts': everyone('ok'),
 	'GET /api/v1/parts/[slug=slug]': everyone('ok'),
 	'GET /help': everyone('ok'),
+	'GET /help/writing-guides': everyone('ok'),
+	'GET /help/alternates-and-fit': everyone('ok'),
+	'GET /help/regional-pricing': everyone('ok'),
+	'GET /help/safety': everyone('ok'),
+	'GET /help/api': everyone('ok'),
+	'GET /(public)/guides': everyone('ok'),
+	'GET /(public)/guides/feed.xml': everyone('ok'),
+	'GET /api/v1/guides': everyone('ok'),
+	'GET /api/v1/guides/[slug=slug]': everyone('ok'),
 	'GET /api/health': everyone('ok'),
 	// Public computation; the matrix posts a form, which the JSON-only hook refuses with 415.
 	'POST /api/v1/fit': everyone('ok'),
@@ -60,6 +71,20 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(account)/account?/requestAuthor': signedIn,
 	'POST /(account)/account?/delete': signedIn,
 	'GET /(author)/my/guides': authors,
+	'GET /(author)/my/guides/new': authors,
+	'POST /(author)/my/guides/new?/create': authors,
+	// The sample slug is the demo author's own guide: other editors and admins get a 404 (owner only).
+	'GET /(author)/my/guides/[slug=slug]/edit': ownGuide,
+	'POST /(author)/my/guides/[slug=slug]/edit?/edit': ownGuide,
+	'POST /(author)/my/guides/[slug=slug]/edit?/preview': ownGuide,
+	'POST /(author)/my/guides/[slug=slug]/edit?/save': ownGuide,
+	'POST /(author)/my/guides/[slug=slug]/edit?/submit': ownGuide,
+	// Author JSON API: the matrix posts a form, refused with 415 before auth; guide-editor.e2e.ts
+	// checks roles and ownership with JSON bodies.
+	'POST /api/v1/guides': everyone('ok'),
+	'GET /api/v1/guides/[slug=slug]/draft': { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'notfound', admin: 'notfound' },
+	'PUT /api/v1/guides/[slug=slug]/draft': everyone('ok'),
+	'POST /api/v1/guides/[slug=slug]/submit': everyone('ok'),
 	'GET /(editor)/editor/author-requests': editors,
 	'POST /(editor)/editor/author-requests?/decide': editors,
 	'GET /(editor)/editor': editors,

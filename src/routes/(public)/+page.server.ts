@@ -1,6 +1,6 @@
-import * as guides from '$lib/server/services/guides';
+import * as guideBrowse from '$lib/server/services/guide-browse';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
-	return { guides: await guides.listPublished() };
+	return guideBrowse.homeLists(4);
 };

@@ -1,6 +1,11 @@
 /*
  * Plain shapes the guide service returns to routes (model instances never leave services).
  */
+import type { Finding, FindingCounts, Severity } from '$lib/domain/fit';
+import type { PowerBudget } from '$lib/domain/power';
+import type { Reproducibility } from '$lib/domain/reproducibility';
+import type { RevisionDiff } from '$lib/domain/revision-diff';
+import type { ValueSummary } from '$lib/domain/value';
 import type { AlternateReason, Money, PartCategory } from '$lib/domain/types';
 
 export interface RegionSummary {
@@ -55,6 +60,19 @@ export interface AlternateView {
 	price: PriceLine | null;
 	/** Alternate unit price minus pick unit price; null when either is unpriced. */
 	deltaFromPick: Money | null;
+	/** The fit report with this alternate swapped in (absent on guide cards). */
+	dropIn?: DropInView;
+}
+
+/** fits: no new caution or conflict; caution: fits but adds or raises a caution; no-fit: a conflict. */
+export type DropInStatus = 'fits' | 'caution' | 'no-fit';
+
+export interface DropInView {
+	status: DropInStatus;
+	/** Findings that are new or whose severity moved with the alternate in place. */
+	changed: { severity: Severity; before: Severity | null; message: string }[];
+	/** Findings of the picks that no longer apply. */
+	gone: string[];
 }
 
 export interface SlotView {
@@ -89,4 +107,57 @@ export interface PricedGuide extends GuideDetail {
 	/** Oldest exchange-rate date behind an estimate, and whether rates are older than 7 days. */
 	ratesAsOf: string | null;
 	ratesStale: boolean;
+	/** Frame results against this region's picks total (null on the plain pricing of cards). */
+	value?: ValueSummary;
+	/** How copyable the guide is in this region, with its reasons and the age of each pick's newest quote. */
+	reproducibility?: ReproducibilityView;
 }
+
+export interface ReproducibilityView extends Reproducibility {
+	slots: { label: string; latestQuoteAt: string | null; hasDropInAlternate: boolean }[];
+}
+
+export interface FrameResultView {
+	workload: string;
+	resolution: string;
+	preset: string;
+	averageFps: number;
+	low1Fps: number | null;
+	notes: string;
+}
+
+export interface ThermalResultView {
+	loadName: string;
+	cpuTempC: number | null;
+	gpuTempC: number | null;
+	cpuUtilPct: number | null;
+	gpuUtilPct: number | null;
+}
+
+export interface RevisionRef {
+	number: number;
+	publishedAt: string | null;
+	submittedAt: string | null;
+}
+
+/** Everything the guide page shows besides the prices (none of it depends on the region). */
+export interface GuidePageExtras {
+	fit: { findings: Finding[]; summary: FindingCounts; slotLabels: Record<string, string> };
+	power: PowerBudget;
+	frames: FrameResultView[];
+	thermals: ThermalResultView[];
+	/** Sanitised HTML rendered once on save; null when the revision has none stored. */
+	buildNotesHtml: string | null;
+	disclosure: { kind: 'none' | 'sponsored' | 'affiliate'; note: string | null };
+	/** https link to the author's external build walkthrough, if any. */
+	walkthroughUrl: string | null;
+	/** Revisions a reader may compare: published ones, oldest first. */
+	revisions: RevisionRef[];
+}
+
+export interface GuidePage {
+	guide: PricedGuide;
+	extras: GuidePageExtras;
+}
+
+export type { RevisionDiff };

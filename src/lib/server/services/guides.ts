@@ -5,15 +5,36 @@
  * the base price (domain/region.ts).
  */
 import { Op } from 'sequelize';
+import type { BuildPart } from '$lib/domain/build-parts';
+import { dropIns } from '$lib/domain/dropins';
+import type { DropInResult, DropInReport, GuideSlot as DropInSlot } from '$lib/domain/dropins';
+import { summarize } from '$lib/domain/fit';
 import { money, subtract } from '$lib/domain/money';
+import { powerBudget } from '$lib/domain/power';
+import { reproducibility } from '$lib/domain/reproducibility';
+import { revisionDiff } from '$lib/domain/revision-diff';
+import type { RevisionSnapshot } from '$lib/domain/revision-diff';
+import { valueOf } from '$lib/domain/value';
 import { adjustToRegion } from '$lib/domain/region';
 import type { OptionInput, PricedLine, QuoteInput, RatesPerEur, RegionPricing, SlotInput } from '$lib/domain/region';
 import type { AlternateReason, PartCategory, TaxMode } from '$lib/domain/types';
-import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, User } from '$lib/server/db';
+import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User } from '$lib/server/db';
 import * as fx from './fx';
-import type { GuideCard, GuideDetail, PartRef, PriceLine, PricedGuide, RegionSummary, SlotView } from './guide-views';
+import type {
+	DropInView,
+	FrameResultView,
+	GuideCard,
+	GuideDetail,
+	GuidePage,
+	PartRef,
+	PriceLine,
+	PricedGuide,
+	RegionSummary,
+	RevisionDiff,
+	SlotView
+} from './guide-views';
 
-export type { GuideCard, GuideDetail, PricedGuide } from './guide-views';
+export type { GuideCard, GuideDetail, GuidePage, PricedGuide } from './guide-views';
 
 /** Published guides, featured first, newest first, priced in their base regions. */
 export async function listPublished(): Promise<GuideCard[]> {
@@ -27,8 +48,8 @@ export async function listPublished(): Promise<GuideCard[]> {
 	});
 	const result: GuideCard[] = [];
 	for (const guide of guides) {
-		const priced = await price(guide as LoadedGuide, null);
-		if (priced) result.push(toCard(priced));
+		const priced = await price(guide as LoadedGuide, null, null);
+		if (priced) result.push(toCard(priced.guide));
 	}
 	return result;
 }
@@ -36,7 +57,8 @@ export async function listPublished(): Promise<GuideCard[]> {
 /** The published guide in its base region, or null when there is none. */
 export async function getPublishedBySlug(slug: string): Promise<GuideDetail | null> {
 	const guide = await findPublished(slug);
-	return guide ? price(guide, null) : null;
+	if (!guide) return null;
+	return (await price(guide, null, null))?.guide ?? null;
 }
 
 export type PricedOutcome = { kind: 'ok'; guide: PricedGuide } | { kind: 'not_found' } | { kind: 'unknown_region' };
@@ -46,6 +68,18 @@ export type PricedOutcome = { kind: 'ok'; guide: PricedGuide } | { kind: 'not_fo
  * and GET /api/v1/guides/[slug]/pricing.
  */
 export async function getPriced(slug: string, regionCode: string | null): Promise<PricedOutcome> {
+	const outcome = await getGuidePage(slug, regionCode);
+	return outcome.kind === 'ok' ? { kind: 'ok', guide: outcome.page.guide } : outcome;
+}
+
+export type GuidePageOutcome = { kind: 'ok'; page: GuidePage } | { kind: 'not_found' } | { kind: 'unknown_region' };
+
+/**
+ * The guide page: the priced guide (with value and reproducibility in the region) plus fit
+ * report, power budget, results, build notes and revision list. A constant number of
+ * queries whatever the slot count (tests/integration/guide-page.spec.ts counts them).
+ */
+export async function getGuidePage(slug: string, regionCode: string | null, now = new Date()): Promise<GuidePageOutcome> {
 	const guide = await findPublished(slug);
 	if (!guide) return { kind: 'not_found' };
 	let target: Region | null = null;
@@ -53,8 +87,114 @@ export async function getPriced(slug: string, regionCode: string | null): Promis
 		target = await Region.findOne({ where: { code: regionCode } });
 		if (!target) return { kind: 'unknown_region' };
 	}
-	const priced = await price(guide, target);
-	return priced ? { kind: 'ok', guide: { ...priced, regions: await listRegions() } } : { kind: 'not_found' };
+	const revision = guide.publishedRevision;
+	if (!revision) return { kind: 'not_found' };
+	const [frames, thermals, revisions] = await Promise.all([
+		FrameResult.findAll({ where: { revisionId: revision.id }, order: [['position', 'ASC'], ['id', 'ASC']] }),
+		ThermalResult.findAll({ where: { revisionId: revision.id }, order: [['position', 'ASC'], ['id', 'ASC']] }),
+		GuideRevision.findAll({
+			where: { guideId: guide.id, publishedAt: { [Op.ne]: null } },
+			attributes: ['number', 'publishedAt', 'submittedAt'],
+			order: [['number', 'ASC']]
+		})
+	]);
+	const frameViews: FrameResultView[] = frames.map((f) => ({
+		workload: f.workload,
+		resolution: f.resolution,
+		preset: f.preset,
+		averageFps: f.avgFpsTenths / 10,
+		low1Fps: f.low1FpsTenths === null ? null : f.low1FpsTenths / 10,
+		notes: f.notes
+	}));
+	const priced = await price(guide, target, { frames: frameViews, now });
+	if (!priced) return { kind: 'not_found' };
+	const { guide: pricedGuide, build, drop } = priced;
+	const slotLabels = Object.fromEntries(build.map((b) => [b.key, b.label]));
+	return {
+		kind: 'ok',
+		page: {
+			guide: { ...pricedGuide, regions: await listRegions() },
+			extras: {
+				fit: { findings: drop.picks, summary: summarize(drop.picks), slotLabels },
+				power: powerBudget(build),
+				frames: frameViews,
+				thermals: thermals.map((t) => ({
+					loadName: t.loadName,
+					cpuTempC: t.cpuTempC,
+					gpuTempC: t.gpuTempC,
+					cpuUtilPct: t.cpuUtilPct,
+					gpuUtilPct: t.gpuUtilPct
+				})),
+				buildNotesHtml: revision.buildNotesHtml ?? null,
+				disclosure: { kind: guide.disclosure ?? 'none', note: guide.disclosureNote ?? null },
+				walkthroughUrl: safeHttpsUrl(guide.walkthroughUrl ?? null),
+				revisions: revisions.map((r) => ({
+					number: r.number,
+					publishedAt: r.publishedAt?.toISOString() ?? null,
+					submittedAt: r.submittedAt?.toISOString() ?? null
+				}))
+			}
+		}
+	};
+}
+
+/** Only https links are shown; anything else stored by mistake is left out. */
+function safeHttpsUrl(url: string | null): string | null {
+	if (!url) return null;
+	try {
+		return new URL(url).protocol === 'https:' ? url : null;
+	} catch {
+		return null;
+	}
+}
+
+export type RevisionDiffOutcome = { kind: 'ok'; diff: RevisionDiff } | { kind: 'not_found' };
+
+/** Differences between two published revisions of a published guide (three queries). */
+export async function getRevisionDiff(slug: string, from: number, to: number): Promise<RevisionDiffOutcome> {
+	const guide = await Guide.findOne({
+		where: { slug, state: 'published', publishedRevisionId: { [Op.ne]: null } },
+		attributes: ['id']
+	});
+	if (!guide) return { kind: 'not_found' };
+	const revisions = await GuideRevision.findAll({
+		where: { guideId: guide.id, number: [from, to], publishedAt: { [Op.ne]: null } }
+	});
+	const a = revisions.find((r) => r.number === from);
+	const b = revisions.find((r) => r.number === to);
+	if (!a || !b) return { kind: 'not_found' };
+	const slots = (await GuideSlot.findAll({
+		where: { revisionId: [a.id, b.id] },
+		include: [
+			{ model: Part, as: 'pick' },
+			{ model: SlotAlternate, as: 'alternates', include: [{ model: Part, as: 'part' }] }
+		],
+		order: [
+			['position', 'ASC'],
+			[{ model: SlotAlternate, as: 'alternates' }, 'rank', 'ASC']
+		]
+	})) as LoadedSlot[];
+	const snapshot = (r: GuideRevision): RevisionSnapshot => ({
+		number: r.number,
+		buildNotesMd: r.buildNotesMd,
+		slots: slots
+			.filter((s) => s.revisionId === r.id)
+			.map((s) => ({
+				label: s.label,
+				category: s.category,
+				pick: { id: s.pick.id, name: `${s.pick.brand} ${s.pick.model}` },
+				quantity: s.quantity,
+				reason: s.reason,
+				alternates: s.alternates.map((alt) => ({
+					partId: alt.part.id,
+					name: `${alt.part.brand} ${alt.part.model}`,
+					rank: alt.rank,
+					reasonTag: alt.reasonTag,
+					note: alt.note
+				}))
+			}))
+	});
+	return { kind: 'ok', diff: revisionDiff(snapshot(a), snapshot(b)) };
 }
 
 async function findPublished(slug: string): Promise<LoadedGuide | null> {
@@ -95,8 +235,23 @@ async function loadSlots(revisionId: number): Promise<LoadedSlot[]> {
 	})) as LoadedSlot[];
 }
 
-/** Prices the guide in `target` (null: its base region, using the author's chosen quotes). */
-async function price(guide: LoadedGuide, target: Region | null): Promise<PricedGuide | null> {
+interface Priced {
+	guide: PricedGuide;
+	/** The picks as the fit report and power budget take them (key: slot id). */
+	build: BuildPart[];
+	drop: DropInReport;
+}
+
+/**
+ * Prices the guide in `target` (null: its base region, using the author's chosen quotes).
+ * With `detail` (the guide page and pricing API) it also works out drop-ins, value and
+ * reproducibility in the region; cards skip them.
+ */
+async function price(
+	guide: LoadedGuide,
+	target: Region | null,
+	detail: { frames: FrameResultView[]; now: Date } | null
+): Promise<Priced | null> {
 	const base = guide.baseRegion;
 	const revision = guide.publishedRevision;
 	if (!base || !revision) return null;
@@ -123,6 +278,23 @@ async function price(guide: LoadedGuide, target: Region | null): Promise<PricedG
 	}));
 	const adjusted = adjustToRegion({ base: pricingOf(base), target: pricingOf(region), slots: inputs, rates });
 
+	const dropSlots: DropInSlot[] = slots.map(
+		(s) =>
+			({
+				key: String(s.id),
+				label: s.label,
+				category: s.category,
+				quantity: s.quantity,
+				pick: partInfo(s.pick),
+				alternates: s.alternates.map((a) => ({ id: a.id, part: partInfo(a.part) }))
+			}) as unknown as DropInSlot
+	);
+	const build = dropSlots.map(
+		(d) => ({ key: d.key, label: d.label, category: d.category, quantity: d.quantity, part: d.pick }) as unknown as BuildPart
+	);
+	const drop: DropInReport = detail ? dropIns(dropSlots) : { picks: [], alternates: [] };
+	const dropByAlternate = new Map(drop.alternates.map((r) => [r.alternateId, r]));
+
 	const slotViews: SlotView[] = slots.map((slot, i) => {
 		const line = adjusted.slots[i];
 		const pickPrice = line ? priceLine(line.pick, region) : null;
@@ -144,14 +316,15 @@ async function price(guide: LoadedGuide, target: Region | null): Promise<PricedG
 					reasonTag: alt.reasonTag as AlternateReason,
 					note: alt.note,
 					price: altPrice,
-					deltaFromPick: altPrice && pickPrice ? subtract(altPrice.unit, pickPrice.unit) : null
+					deltaFromPick: altPrice && pickPrice ? subtract(altPrice.unit, pickPrice.unit) : null,
+					...(detail ? { dropIn: dropInView(dropByAlternate.get(alt.id)) } : {})
 				};
 			})
 		};
 	});
 
 	const ratesAsOf = adjusted.oldestRateAsOf;
-	return {
+	const pricedGuide: PricedGuide = {
 		slug: guide.slug,
 		title: guide.title,
 		summary: guide.summary,
@@ -172,7 +345,34 @@ async function price(guide: LoadedGuide, target: Region | null): Promise<PricedG
 		ratesAsOf,
 		ratesStale: ratesAsOf !== null && fx.rateAgeDays(ratesAsOf, new Date()) > fx.STALE_AFTER_DAYS
 	};
+	if (detail) {
+		// Value is only meaningful against a complete total.
+		const total = adjusted.unpricedSlots === 0 ? adjusted.picksTotal : null;
+		pricedGuide.value = valueOf(detail.frames, total);
+		const reproSlots = slots.map((s) => ({
+			label: s.label,
+			latestQuoteAt: targetQuotes.get(s.pick.id)?.observedAt ?? null,
+			hasDropInAlternate: drop.alternates.some((r) => r.slotKey === String(s.id) && r.fits)
+		}));
+		pricedGuide.reproducibility = {
+			...reproducibility({ regionName: region.name, slots: reproSlots, now: detail.now }),
+			slots: reproSlots
+		};
+	}
+	return { guide: pricedGuide, build, drop };
 }
+
+function partInfo(p: Part) {
+	return { brand: p.brand, model: p.model, specs: p.specs };
+}
+
+function dropInView(result: DropInResult | undefined): DropInView | undefined {
+	if (!result) return undefined;
+	const changed = result.changed.map((f) => ({ severity: f.severity, before: f.before, message: f.message }));
+	const status = !result.fits ? 'no-fit' : changed.some((c) => c.severity === 'caution') ? 'caution' : 'fits';
+	return { status, changed, gone: result.gone.map((f) => f.message) };
+}
+
 
 function toCard(detail: GuideDetail): GuideCard {
 	const { slots: _slots, totalRange: _range, revisionNumber: _n, ...rest } = detail;

@@ -27,6 +27,11 @@ import * as m19 from './2026.12.02T09.08.00.create-email-tokens.js';
 import * as mEmailChange from './2026.12.02T09.09.00.add-email-tokens-new-email.js';
 import * as mCatalogImports from './2026.12.03T14.00.00.create-catalog-imports.js';
 import * as mRegionTaxRates from './2026.12.03T14.01.00.create-region-tax-rates.js';
+import * as mGuidesDisclosure from './2026.12.02T12.00.00.add-guides-disclosure.js';
+import * as mGuidesDisclosureNote from './2026.12.02T12.00.01.add-guides-disclosure-note.js';
+import * as mGuidesWalkthroughUrl from './2026.12.02T12.00.02.add-guides-walkthrough-url.js';
+import * as mFrameResults from './2026.12.04T10.00.00.create-frame-results.js';
+import * as mThermalResults from './2026.12.04T10.01.00.create-thermal-results.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -52,4 +57,9 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.02T09.09.00.add-email-tokens-new-email': mEmailChange,
 	'2026.12.03T14.00.00.create-catalog-imports': mCatalogImports,
 	'2026.12.03T14.01.00.create-region-tax-rates': mRegionTaxRates,
+	'2026.12.02T12.00.00.add-guides-disclosure': mGuidesDisclosure,
+	'2026.12.02T12.00.01.add-guides-disclosure-note': mGuidesDisclosureNote,
+	'2026.12.02T12.00.02.add-guides-walkthrough-url': mGuidesWalkthroughUrl,
+	'2026.12.04T10.00.00.create-frame-results': mFrameResults,
+	'2026.12.04T10.01.00.create-thermal-results': mThermalResults,
 };

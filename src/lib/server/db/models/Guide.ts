@@ -23,6 +23,11 @@ export class Guide extends Model<InferAttributes<Guide>, InferCreationAttributes
 	declare state: CreationOptional<GuideState>;
 	declare publishedRevisionId: ForeignKey<GuideRevision['id']> | null;
 	declare version: CreationOptional<number>;
+	/** Required on every guide: none, sponsored parts named, or affiliate links present. */
+	declare disclosure: CreationOptional<'none' | 'sponsored' | 'affiliate'>;
+	declare disclosureNote: CreationOptional<string | null>;
+	/** Optional https link to the author's external build walkthrough. */
+	declare walkthroughUrl: CreationOptional<string | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -39,6 +44,9 @@ export function initGuide(sequelize: Sequelize) {
 			featured: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
 			state: { type: DataTypes.STRING(20), allowNull: false, defaultValue: 'draft' },
 			version: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 1 },
+			disclosure: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'none' },
+			disclosureNote: { type: DataTypes.TEXT, allowNull: true },
+			walkthroughUrl: { type: DataTypes.STRING(500), allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

@@ -7,6 +7,7 @@ import { AuditEvent } from './AuditEvent.js';
 import { AuthorRequest } from './AuthorRequest.js';
 import { CatalogImport } from './CatalogImport.js';
 import { Guide } from './Guide.js';
+import { FrameResult } from './FrameResult.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
 import { Part } from './Part.js';
@@ -15,6 +16,7 @@ import { Region } from './Region.js';
 import { RegionTaxRate } from './RegionTaxRate.js';
 import { Session } from './Session.js';
 import { SlotAlternate } from './SlotAlternate.js';
+import { ThermalResult } from './ThermalResult.js';
 import { Store } from './Store.js';
 import { User } from './User.js';
 
@@ -40,6 +42,10 @@ export function applyAssociations() {
 	GuideRevision.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
 	GuideRevision.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
 	GuideRevision.hasMany(GuideSlot, { foreignKey: 'revisionId', as: 'slots' });
+	GuideRevision.hasMany(FrameResult, { foreignKey: 'revisionId', as: 'frameResults' });
+	GuideRevision.hasMany(ThermalResult, { foreignKey: 'revisionId', as: 'thermalResults' });
+	FrameResult.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	ThermalResult.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
 
 	GuideSlot.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
 	GuideSlot.belongsTo(Part, { foreignKey: 'pickPartId', as: 'pick' });

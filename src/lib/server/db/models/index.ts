@@ -5,6 +5,7 @@ import { AuditEvent, initAuditEvent } from './AuditEvent.js';
 import { AuthorRequest, initAuthorRequest } from './AuthorRequest.js';
 import { CatalogImport, initCatalogImport } from './CatalogImport.js';
 import { EmailToken, initEmailToken } from './EmailToken.js';
+import { FrameResult, initFrameResult } from './FrameResult.js';
 import { FxRate, initFxRate } from './FxRate.js';
 import { Guide, initGuide } from './Guide.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
@@ -16,6 +17,7 @@ import { RegionTaxRate, initRegionTaxRate } from './RegionTaxRate.js';
 import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
 import { Store, initStore } from './Store.js';
+import { ThermalResult, initThermalResult } from './ThermalResult.js';
 import { User, initUser } from './User.js';
 import { VerificationToken, initVerificationToken } from './VerificationToken.js';
 
@@ -25,6 +27,7 @@ export {
 	AuthorRequest,
 	CatalogImport,
 	EmailToken,
+	FrameResult,
 	FxRate,
 	Guide,
 	GuideRevision,
@@ -36,6 +39,7 @@ export {
 	Session,
 	SlotAlternate,
 	Store,
+	ThermalResult,
 	User,
 	VerificationToken
 };
@@ -59,5 +63,7 @@ export function initModels(sequelize: Sequelize) {
 	initAuthorRequest(sequelize);
 	initCatalogImport(sequelize);
 	initRegionTaxRate(sequelize);
+	initFrameResult(sequelize);
+	initThermalResult(sequelize);
 	applyAssociations();
 }

@@ -7,8 +7,10 @@ import { Op } from 'sequelize';
 import type { Sequelize, Transaction } from 'sequelize';
 import { SPEC_SCHEMAS } from '../../../schemas/part-specs.js';
 import { hashPassword } from '../../auth/password.js';
-import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, User } from '../models/index.js';
+import { renderMarkdown } from '../../markdown.js';
+import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User } from '../models/index.js';
 import { demoGuides, demoParts, demoQuotes, demoRegions, demoStores, demoUsers } from './demo-data/index.js';
+import { demoResults } from './demo-data/results.js';
 import type { DemoGuide } from './demo-data/types.js';
 
 /** Stated in the README; only the demo seed ever uses it. */
@@ -69,7 +71,40 @@ export async function seedDemoCommunity(sequelize: Sequelize, now = new Date()):
 			if (await Guide.findOne({ where: { slug: g.slug }, transaction })) continue;
 			await createPublishedGuide(g, { users, regions, stores, parts }, now, transaction);
 		}
+		await backfillDemoExtras(transaction);
 	});
+}
+
+/**
+ * Databases seeded before build notes were rendered or results existed: render the stored
+ * Markdown once (revisions with no HTML) and add the demo results to demo revisions that
+ * have none. Idempotent, no migration needed.
+ */
+async function backfillDemoExtras(transaction: Transaction) {
+	const unrendered = await GuideRevision.findAll({ where: { buildNotesHtml: null }, transaction });
+	for (const revision of unrendered) {
+		await revision.update({ buildNotesHtml: renderMarkdown(revision.buildNotesMd) }, { transaction });
+	}
+	const guides = await Guide.findAll({ where: { slug: demoGuides.map((g) => g.slug) }, transaction });
+	for (const guide of guides) {
+		if (!guide.publishedRevisionId) continue;
+		const has = await FrameResult.count({ where: { revisionId: guide.publishedRevisionId }, transaction });
+		const hasThermals = await ThermalResult.count({ where: { revisionId: guide.publishedRevisionId }, transaction });
+		if (has === 0 && hasThermals === 0) await createResults(guide.slug, guide.publishedRevisionId, transaction);
+	}
+}
+
+async function createResults(slug: string, revisionId: number, transaction: Transaction) {
+	const results = demoResults[slug];
+	if (!results) return;
+	await FrameResult.bulkCreate(
+		results.frames.map((f, i) => ({ ...f, revisionId, position: i + 1, notes: f.notes ?? '' })),
+		{ transaction }
+	);
+	await ThermalResult.bulkCreate(
+		results.thermals.map((t, i) => ({ ...t, revisionId, position: i + 1 })),
+		{ transaction }
+	);
 }
 
 async function seedQuotes(
@@ -142,6 +177,8 @@ async function createPublishedGuide(g: DemoGuide, l: Lookups, now: Date, transac
 			guideId: guide.id,
 			number: 1,
 			buildNotesMd: g.buildNotesMd,
+			// Rendered once on save, like the editor does; pages only show this HTML.
+			buildNotesHtml: renderMarkdown(g.buildNotesMd),
 			submittedAt: now,
 			reviewedAt: now,
 			publishedAt: now,
@@ -184,6 +221,7 @@ async function createPublishedGuide(g: DemoGuide, l: Lookups, now: Date, transac
 			);
 		}
 	}
+	await createResults(g.slug, revision.id, transaction);
 	await guide.update({ publishedRevisionId: revision.id }, { transaction });
 }
 

@@ -1,0 +1,121 @@
+/**
+ * What changed between two revisions of a guide: slot by slot (added, removed, or a
+ * changed pick, quantity, reason or alternates) and the build notes line by line.
+ * Pure: takes plain snapshots, returns plain objects.
+ */
+import { diffLines } from 'diff';
+
+export interface AlternateSnapshot {
+	partId: number;
+	name: string;
+	rank: number;
+	reasonTag: string;
+	note: string;
+}
+
+export interface SlotSnapshot {
+	/** Slots are matched across revisions by label ("Storage 2"), which is unique within a revision. */
+	label: string;
+	category: string;
+	pick: { id: number; name: string };
+	quantity: number;
+	reason: string;
+	alternates: AlternateSnapshot[];
+}
+
+export interface RevisionSnapshot {
+	number: number;
+	buildNotesMd: string;
+	slots: SlotSnapshot[];
+}
+
+export type FieldChange =
+	| { field: 'pick'; from: string; to: string }
+	| { field: 'quantity'; from: number; to: number }
+	| { field: 'reason'; from: string; to: string };
+
+export interface AlternateChange {
+	kind: 'added' | 'removed' | 'changed';
+	name: string;
+	/** For `changed`: what moved (rank, reason tag, note), as short sentences. */
+	details: string[];
+}
+
+export type SlotChange =
+	| { kind: 'added'; label: string; pick: string; quantity: number }
+	| { kind: 'removed'; label: string; pick: string; quantity: number }
+	| { kind: 'changed'; label: string; fields: FieldChange[]; alternates: AlternateChange[] };
+
+export interface TextLine {
+	kind: 'same' | 'added' | 'removed';
+	text: string;
+}
+
+export interface RevisionDiff {
+	from: number;
+	to: number;
+	slots: SlotChange[];
+	/** Line diff of the build notes Markdown; empty when unchanged. */
+	notes: TextLine[];
+	notesChanged: boolean;
+}
+
+function diffAlternates(before: AlternateSnapshot[], after: AlternateSnapshot[]): AlternateChange[] {
+	const old = new Map(before.map((a) => [a.partId, a]));
+	const now = new Map(after.map((a) => [a.partId, a]));
+	const changes: AlternateChange[] = [];
+	for (const a of after) {
+		const o = old.get(a.partId);
+		if (!o) {
+			changes.push({ kind: 'added', name: a.name, details: [] });
+			continue;
+		}
+		const details: string[] = [];
+		if (o.rank !== a.rank) details.push(`rank ${o.rank} → ${a.rank}`);
+		if (o.reasonTag !== a.reasonTag) details.push(`reason ${o.reasonTag} → ${a.reasonTag}`);
+		if (o.note !== a.note) details.push('note edited');
+		if (details.length > 0) changes.push({ kind: 'changed', name: a.name, details });
+	}
+	for (const o of before) if (!now.has(o.partId)) changes.push({ kind: 'removed', name: o.name, details: [] });
+	return changes;
+}
+
+function splitLines(value: string): string[] {
+	const lines = value.split('\n');
+	if (lines.at(-1) === '') lines.pop();
+	return lines;
+}
+
+/** Differences from revision `a` to revision `b`, in `b`'s slot order (removed slots last). */
+export function revisionDiff(a: RevisionSnapshot, b: RevisionSnapshot): RevisionDiff {
+	const before = new Map(a.slots.map((s) => [s.label, s]));
+	const afterLabels = new Set(b.slots.map((s) => s.label));
+	const slots: SlotChange[] = [];
+
+	for (const s of b.slots) {
+		const o = before.get(s.label);
+		if (!o) {
+			slots.push({ kind: 'added', label: s.label, pick: s.pick.name, quantity: s.quantity });
+			continue;
+		}
+		const fields: FieldChange[] = [];
+		if (o.pick.id !== s.pick.id) fields.push({ field: 'pick', from: o.pick.name, to: s.pick.name });
+		if (o.quantity !== s.quantity) fields.push({ field: 'quantity', from: o.quantity, to: s.quantity });
+		if (o.reason !== s.reason) fields.push({ field: 'reason', from: o.reason, to: s.reason });
+		const alternates = diffAlternates(o.alternates, s.alternates);
+		if (fields.length > 0 || alternates.length > 0) slots.push({ kind: 'changed', label: s.label, fields, alternates });
+	}
+	for (const o of a.slots) {
+		if (!afterLabels.has(o.label)) slots.push({ kind: 'removed', label: o.label, pick: o.pick.name, quantity: o.quantity });
+	}
+
+	const notesChanged = a.buildNotesMd !== b.buildNotesMd;
+	const notes: TextLine[] = [];
+	if (notesChanged) {
+		for (const part of diffLines(a.buildNotesMd, b.buildNotesMd)) {
+			const kind = part.added ? 'added' : part.removed ? 'removed' : 'same';
+			for (const text of splitLines(part.value)) notes.push({ kind, text });
+		}
+	}
+	return { from: a.number, to: b.number, slots, notes, notesChanged };
+}

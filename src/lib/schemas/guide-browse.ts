@@ -1,0 +1,145 @@
+import { z } from 'zod';
+import { fieldIssues } from './issues.js';
+
+/*
+ * Guide browse (/guides and GET /api/v1/guides). Every value arrives as a URL string. The
+ * budget is in whole units of the reader's chosen region's currency and is compared with
+ * each guide's picks total priced in that region, so a budget or a "lowest total" sort
+ * needs a region: totals in different currencies cannot be compared.
+ */
+
+/** Guides per browse page (page and API alike). */
+export const GUIDES_PER_PAGE = 12;
+
+/**
+ * Sorts on offer. "Best value" (FPS per 100 units of money) waits for frame results,
+ * which guides do not store yet.
+ */
+export const GUIDE_SORTS = ['newest', 'total'] as const;
+export type GuideSort = (typeof GUIDE_SORTS)[number];
+export const GUIDE_SORT_LABELS: Record<GuideSort, string> = { newest: 'Newest', total: 'Lowest total' };
+
+// A GET form sends "" for a field left blank: that means "no filter", not a bad value.
+const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+
+const regionCode = z.preprocess(
+	emptyAsUndefined,
+	z
+		.string()
+		.trim()
+		.toLowerCase()
+		.regex(/^[a-z]{2,8}$/, 'A region code is 2–8 letters, e.g. "de".')
+		.optional()
+);
+
+function budget(which: string) {
+	return z.preprocess(
+		emptyAsUndefined,
+		z.coerce
+			.number({ error: `The ${which} budget must be a whole number.` })
+			.int(`The ${which} budget must be a whole number.`)
+			.min(0, `The ${which} budget cannot be negative.`)
+			// Far beyond any PC build in any currency we price (JPY included).
+			.max(100_000_000, `The ${which} budget is too large.`)
+			.optional()
+	);
+}
+
+const tag = z
+	.string()
+	.trim()
+	.toLowerCase()
+	.regex(/^[a-z0-9][a-z0-9-]{0,39}$/, 'A tag is up to 40 lower-case letters, digits and dashes.');
+
+/** The URL fields; `guideBrowseQuery` adds the cross-field rules. `tag` may repeat. */
+export const guideBrowseFields = z.strictObject({
+	region: regionCode,
+	base: regionCode,
+	min: budget('lowest'),
+	max: budget('highest'),
+	tag: z.array(tag).max(10, 'Choose at most 10 tags.').default([]),
+	sort: z.preprocess(
+		emptyAsUndefined,
+		z.enum(GUIDE_SORTS, { error: `Sort by one of: ${GUIDE_SORTS.join(', ')}.` }).default('newest')
+	),
+	page: z.preprocess(
+		emptyAsUndefined,
+		z.coerce
+			.number({ error: 'The page must be a whole number.' })
+			.int('The page must be a whole number.')
+			.min(1, 'Pages start at 1.')
+			.max(100_000, 'There are not that many pages.')
+			.default(1)
+	)
+});
+
+export const guideBrowseQuery = guideBrowseFields.superRefine((input, ctx) => {
+	const needsRegion = 'Choose the region your budget is in: totals are compared in its currency.';
+	if (!input.region) {
+		if (input.min !== undefined) ctx.addIssue({ code: 'custom', path: ['min'], message: needsRegion });
+		if (input.max !== undefined) ctx.addIssue({ code: 'custom', path: ['max'], message: needsRegion });
+		if (input.sort === 'total') {
+			ctx.addIssue({ code: 'custom', path: ['sort'], message: 'Choose a region to sort by total: totals are compared in its currency.' });
+		}
+	}
+	if (input.min !== undefined && input.max !== undefined && input.min > input.max) {
+		ctx.addIssue({ code: 'custom', path: ['max'], message: 'The highest budget must be at least the lowest.' });
+	}
+});
+export type GuideBrowseQuery = z.output<typeof guideBrowseQuery>;
+
+/** URL parameters as a record; `tag` collects every value, any other repeated key is reported. */
+function queryRecord(params: URLSearchParams): { raw: Record<string, unknown>; repeated: string[] } {
+	const raw: Record<string, unknown> = {};
+	const repeated = new Set<string>();
+	for (const [key, value] of params) {
+		if (key === 'tag') {
+			((raw.tag ??= []) as string[]).push(value);
+			continue;
+		}
+		if (key in raw) repeated.add(key);
+		raw[key] = value;
+	}
+	// A blank tag field from a form means "no tag".
+	if (Array.isArray(raw.tag)) raw.tag = (raw.tag as string[]).filter((t) => t.trim() !== '');
+	return { raw, repeated: [...repeated] };
+}
+
+/** Strict parse for the API: any unknown or repeated parameter or bad value fails with field issues. */
+export function parseGuideBrowseStrict(
+	params: URLSearchParams
+): { ok: true; query: GuideBrowseQuery } | { ok: false; issues: Record<string, string[]> } {
+	const { raw, repeated } = queryRecord(params);
+	const parsed = guideBrowseQuery.safeParse(raw);
+	const issues = parsed.success ? {} : fieldIssues(parsed.error);
+	for (const key of repeated) (issues[key] ??= []).unshift(`Give ${key} only once.`);
+	if (parsed.success && repeated.length === 0) return { ok: true, query: parsed.data };
+	return { ok: false, issues };
+}
+
+/**
+ * Lenient parse for the page: each bad or unknown parameter is reported and dropped, so one
+ * typo does not lose the rest of the search. A bad tag drops the tag filter as a whole.
+ */
+export function parseGuideBrowseLenient(params: URLSearchParams): {
+	query: GuideBrowseQuery;
+	issues: Record<string, string[]>;
+} {
+	const { raw, repeated } = queryRecord(params);
+	const issues: Record<string, string[]> = {};
+	for (const key of repeated) (issues[key] ??= []).push(`${key} was given more than once; the last value is used.`);
+	let input = raw;
+	for (let round = 0; round < 4; round++) {
+		const parsed = guideBrowseQuery.safeParse(input);
+		if (parsed.success) return { query: parsed.data, issues };
+		const found = fieldIssues(parsed.error);
+		for (const [key, messages] of Object.entries(found)) {
+			// Array issues come as "tag.1": report them under the field.
+			const field = key.split('.')[0] ?? key;
+			(issues[field] ??= []).push(...messages);
+		}
+		const bad = new Set(Object.keys(found).map((k) => k.split('.')[0]));
+		input = Object.fromEntries(Object.entries(input).filter(([key]) => key in guideBrowseFields.shape && !bad.has(key)));
+	}
+	return { query: guideBrowseQuery.parse({}), issues };
+}

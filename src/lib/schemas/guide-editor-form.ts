@@ -1,0 +1,232 @@
+import type { PartCategory } from '$lib/domain/types';
+import type { BuildNotesInput } from './guide-editor';
+
+/*
+ * The guide editor's working state as the form holds it (strings as typed), and the
+ * conversions between it, the posted form, the stored draft and the zod input. Field names
+ * are dotted paths (`slots.2.alternates.0.partId`) so the same form works without
+ * JavaScript: add/remove/reorder buttons post `op` to ?/edit, which applies it here.
+ */
+
+export interface EditorAlternate {
+	key: string;
+	partId: string;
+	reasonTag: string;
+	note: string;
+}
+
+export interface EditorSlot {
+	key: string;
+	category: PartCategory;
+	label: string;
+	quantity: string;
+	pickPartId: string;
+	reason: string;
+	quoteStoreId: string;
+	quoteAmount: string;
+	quoteObservedAt: string;
+	alternates: EditorAlternate[];
+}
+
+export interface EditorDraft {
+	title: string;
+	summary: string;
+	targetBudget: string;
+	baseRegion: string;
+	tags: string[];
+	disclosure: string;
+	disclosureNote: string;
+	walkthroughUrl: string;
+	buildNotes: BuildNotesInput;
+	slots: EditorSlot[];
+}
+
+/** The subset of the stored draft (services/guide-drafts DraftView) the editor starts from. */
+export interface DraftLike {
+	title: string;
+	summary: string;
+	targetBudget: string;
+	baseRegion: string;
+	tags: string[];
+	disclosure: string;
+	disclosureNote: string | null;
+	walkthroughUrl: string | null;
+	buildNotes: BuildNotesInput;
+	slots: {
+		category: PartCategory;
+		label: string;
+		quantity: number;
+		pickPartId: number;
+		reason: string;
+		priceQuote: { storeId: number; amount: string; observedAt: string } | null;
+		alternates: { partId: number; reasonTag: string; note: string }[];
+	}[];
+}
+
+let counter = 0;
+export function newKey(): string {
+	counter += 1;
+	return `k${Date.now().toString(36)}${counter}`;
+}
+
+export function emptySlot(category: PartCategory = 'cpu', key = newKey()): EditorSlot {
+	return { key, category, label: '', quantity: '1', pickPartId: '', reason: '', quoteStoreId: '', quoteAmount: '', quoteObservedAt: '', alternates: [] };
+}
+
+export function emptyAlternate(key = newKey()): EditorAlternate {
+	return { key, partId: '', reasonTag: 'lower_price', note: '' };
+}
+
+export function fromDraft(d: DraftLike): EditorDraft {
+	return {
+		title: d.title,
+		summary: d.summary,
+		targetBudget: d.targetBudget,
+		baseRegion: d.baseRegion,
+		tags: [...d.tags],
+		disclosure: d.disclosure,
+		disclosureNote: d.disclosureNote ?? '',
+		walkthroughUrl: d.walkthroughUrl ?? '',
+		buildNotes: { ...d.buildNotes },
+		slots: d.slots.map((s, i) => ({
+			key: `s${i}`,
+			category: s.category,
+			label: s.label,
+			quantity: String(s.quantity),
+			pickPartId: String(s.pickPartId),
+			reason: s.reason,
+			quoteStoreId: s.priceQuote ? String(s.priceQuote.storeId) : '',
+			quoteAmount: s.priceQuote?.amount ?? '',
+			quoteObservedAt: s.priceQuote?.observedAt ?? '',
+			alternates: s.alternates.map((a, j) => ({ key: `s${i}a${j}`, partId: String(a.partId), reasonTag: a.reasonTag, note: a.note }))
+		}))
+	};
+}
+
+/** Reads the posted editor form; anything missing becomes empty (zod reports it later). */
+export function fromForm(data: FormData): EditorDraft {
+	const text = (name: string) => {
+		const v = data.get(name);
+		return typeof v === 'string' ? v : '';
+	};
+	const count = (prefix: string) => {
+		let max = -1;
+		for (const key of data.keys()) {
+			const m = new RegExp(`^${prefix.replace(/\./g, '\\.')}(\\d+)\\.`).exec(key);
+			if (m) max = Math.max(max, Math.min(Number(m[1]), 99));
+		}
+		return max + 1;
+	};
+	const slots: EditorSlot[] = [];
+	for (let i = 0; i < count('slots.'); i++) {
+		const p = `slots.${i}.`;
+		if (!data.has(`${p}category`)) continue;
+		const alternates: EditorAlternate[] = [];
+		for (let j = 0; j < count(`${p}alternates.`); j++) {
+			const a = `${p}alternates.${j}.`;
+			if (!data.has(`${a}partId`)) continue;
+			alternates.push({ key: text(`${a}key`) || `s${i}a${j}`, partId: text(`${a}partId`), reasonTag: text(`${a}reasonTag`), note: text(`${a}note`) });
+		}
+		slots.push({
+			key: text(`${p}key`) || `s${i}`,
+			category: text(`${p}category`) as PartCategory,
+			label: text(`${p}label`),
+			quantity: text(`${p}quantity`),
+			pickPartId: text(`${p}pickPartId`),
+			reason: text(`${p}reason`),
+			quoteStoreId: text(`${p}quoteStoreId`),
+			quoteAmount: text(`${p}quoteAmount`),
+			quoteObservedAt: text(`${p}quoteObservedAt`),
+			alternates
+		});
+	}
+	return {
+		title: text('title'),
+		summary: text('summary'),
+		targetBudget: text('targetBudget'),
+		baseRegion: text('baseRegion'),
+		tags: data.getAll('tags').filter((t): t is string => typeof t === 'string'),
+		disclosure: text('disclosure'),
+		disclosureNote: text('disclosureNote'),
+		walkthroughUrl: text('walkthroughUrl'),
+		buildNotes: { firmware: text('buildNotes.firmware'), assembly: text('buildNotes.assembly'), cabling: text('buildNotes.cabling'), display: text('buildNotes.display') },
+		slots
+	};
+}
+
+const num = (s: string) => (s.trim() === '' ? NaN : Number(s));
+
+/** The object draftInput parses: numbers where the schema wants numbers, empty quote → null. */
+export function toInput(d: EditorDraft): Record<string, unknown> {
+	return {
+		title: d.title,
+		summary: d.summary,
+		targetBudget: d.targetBudget,
+		baseRegion: d.baseRegion,
+		tags: d.tags,
+		disclosure: d.disclosure,
+		disclosureNote: d.disclosureNote,
+		walkthroughUrl: d.walkthroughUrl,
+		buildNotes: d.buildNotes,
+		slots: d.slots.map((s) => ({
+			category: s.category,
+			label: s.label,
+			quantity: num(s.quantity),
+			pickPartId: num(s.pickPartId),
+			reason: s.reason,
+			priceQuote:
+				s.quoteStoreId || s.quoteAmount || s.quoteObservedAt
+					? { storeId: num(s.quoteStoreId), amount: s.quoteAmount, observedAt: s.quoteObservedAt }
+					: null,
+			alternates: s.alternates.map((a) => ({ partId: num(a.partId), reasonTag: a.reasonTag, note: a.note }))
+		}))
+	};
+}
+
+function swap<T>(list: T[], i: number, j: number): T[] {
+	if (i < 0 || j < 0 || i >= list.length || j >= list.length) return list;
+	const copy = [...list];
+	[copy[i], copy[j]] = [copy[j] as T, copy[i] as T];
+	return copy;
+}
+
+/** Applies an editor operation (`slotUp:2`, `addAlt:0`, `altDown:1:0`…); unknown ops change nothing. */
+export function applyOp(d: EditorDraft, op: string): EditorDraft {
+	const [name, a = '-1', b = '-1'] = op.split(':');
+	const i = Number(a);
+	const j = Number(b);
+	const slots = [...d.slots];
+	const slot = slots[i];
+	switch (name) {
+		case 'addSlot':
+			return { ...d, slots: [...slots, emptySlot()] };
+		case 'removeSlot':
+			return { ...d, slots: slots.filter((_, k) => k !== i) };
+		case 'slotUp':
+			return { ...d, slots: swap(slots, i, i - 1) };
+		case 'slotDown':
+			return { ...d, slots: swap(slots, i, i + 1) };
+	}
+	if (!slot) return d;
+	const withAlternates = (alternates: EditorAlternate[]) => ({ ...d, slots: slots.map((s, k) => (k === i ? { ...slot, alternates } : s)) });
+	switch (name) {
+		case 'addAlt':
+			return withAlternates([...slot.alternates, emptyAlternate()]);
+		case 'removeAlt':
+			return withAlternates(slot.alternates.filter((_, k) => k !== j));
+		case 'altUp':
+			return withAlternates(swap(slot.alternates, j, j - 1));
+		case 'altDown':
+			return withAlternates(swap(slot.alternates, j, j + 1));
+	}
+	return d;
+}
+
+/** Moves a slot from one position to another (drag and drop). */
+export function moveSlot(d: EditorDraft, from: number, to: number): EditorDraft {
+	if (from === to || from < 0 || to < 0 || from >= d.slots.length || to >= d.slots.length) return d;
+	const slots = [...d.slots];
+	const [moved] = slots.splice(from, 1);
+	if (moved) slots.splice(to, 0, moved);
+	return { ...d, slots };
+}

@@ -1,0 +1,149 @@
+import { z } from 'zod';
+import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
+
+/*
+ * The guide editor's input (pages and the author JSON API share it). Every object is strict:
+ * fields the author may not set (authorId, state, featured, slug, version inside the draft)
+ * are rejected, never silently dropped (ASVS 8.2.3).
+ */
+
+export const GUIDE_TAG_GROUPS = {
+	'Use case': ['gaming', 'creator', 'office', 'quiet'],
+	Resolution: ['1080p', '1440p', '4k'],
+	'Form factor': ['atx', 'microatx', 'mini-itx', 'compact']
+} as const;
+export const GUIDE_TAGS = Object.values(GUIDE_TAG_GROUPS).flat();
+export type GuideTag = (typeof GUIDE_TAGS)[number];
+
+export const GUIDE_DISCLOSURES = ['none', 'sponsored', 'affiliate'] as const;
+export type GuideDisclosure = (typeof GUIDE_DISCLOSURES)[number];
+export const DISCLOSURE_LABELS: Record<GuideDisclosure, string> = {
+	none: 'No sponsorship and no affiliate links',
+	sponsored: 'Sponsored parts (named in the note)',
+	affiliate: 'Affiliate links present'
+};
+
+/** The four build-notes sections, stored as one Markdown document under these headings. */
+export const BUILD_NOTE_SECTIONS = [
+	{ key: 'firmware', heading: 'Firmware setup checklist' },
+	{ key: 'assembly', heading: 'Assembly steps' },
+	{ key: 'cabling', heading: 'Cable routing' },
+	{ key: 'display', heading: 'Display pairing' }
+] as const;
+export type BuildNoteKey = (typeof BUILD_NOTE_SECTIONS)[number]['key'];
+
+/** A positive decimal amount as typed ("700", "699.99"); converted with the currency's digits. */
+const decimalAmount = z
+	.string()
+	.trim()
+	.regex(/^\d{1,9}(\.\d{1,3})?$/, 'Enter an amount like 699.99.');
+
+const isoDate = z
+	.string()
+	.trim()
+	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
+	.refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Enter a real date.')
+	.refine((s) => Date.parse(`${s}T00:00:00Z`) <= Date.now(), 'The price cannot be observed in the future.');
+
+const optionalText = (max: number) =>
+	z
+		.string()
+		.trim()
+		.max(max)
+		.nullish()
+		.transform((s) => (s ? s : null));
+
+export const guideMetaFields = {
+	title: z.string().trim().min(3, 'Give the guide a title of at least 3 characters.').max(160),
+	summary: z.string().trim().min(1, 'Write a short summary.').max(2000),
+	targetBudget: decimalAmount,
+	baseRegion: z.string().trim().toLowerCase().regex(/^[a-z]{2,8}$/, 'Choose a region.'),
+	tags: z.array(z.enum(GUIDE_TAGS as [GuideTag, ...GuideTag[]])).max(11).default([]),
+	disclosure: z.enum(GUIDE_DISCLOSURES, { message: 'Choose a disclosure.' }),
+	disclosureNote: optionalText(1000),
+	walkthroughUrl: optionalText(500).refine(
+		(s) => s === null || /^https:\/\/[^\s/]+\.[^\s]+$/.test(s),
+		'Use an https:// link.'
+	)
+};
+
+export const createGuideInput = z.strictObject(guideMetaFields);
+export type CreateGuideInput = z.infer<typeof createGuideInput>;
+
+export const priceQuoteInput = z.strictObject({
+	storeId: z.coerce.number().int().positive('Choose a store.'),
+	amount: decimalAmount,
+	observedAt: isoDate
+});
+
+export const alternateInput = z.strictObject({
+	partId: z.number().int().positive('Choose a part.'),
+	reasonTag: z.enum(ALTERNATE_REASONS, { message: 'Choose a reason.' }),
+	note: z.string().trim().max(500).default('')
+});
+
+export const slotInput = z.strictObject({
+	category: z.enum(PART_CATEGORIES, { message: 'Choose a category.' }),
+	label: z.string().trim().min(1, 'Give the slot a label.').max(80),
+	quantity: z.number().int().min(1, 'At least 1.').max(16, 'At most 16.'),
+	pickPartId: z.number().int().positive('Choose a part.'),
+	reason: z.string().trim().min(1, 'Say why you picked it.').max(2000),
+	priceQuote: priceQuoteInput.nullish().transform((q) => q ?? null),
+	/** In rank order: the first is the author's first fallback. */
+	alternates: z.array(alternateInput).max(10, 'At most 10 alternates per slot.').default([])
+});
+export type SlotDraftInput = z.infer<typeof slotInput>;
+
+export const buildNotesInput = z.strictObject({
+	firmware: z.string().max(20000).default(''),
+	assembly: z.string().max(20000).default(''),
+	cabling: z.string().max(20000).default(''),
+	display: z.string().max(20000).default('')
+});
+export type BuildNotesInput = z.infer<typeof buildNotesInput>;
+
+export const draftInput = z.strictObject({
+	...guideMetaFields,
+	buildNotes: buildNotesInput,
+	slots: z.array(slotInput).min(1, 'Add at least one slot.').max(40, 'At most 40 slots.')
+});
+export type DraftInput = z.infer<typeof draftInput>;
+/** What the editor form and GET draft hand around before parsing (same shape). */
+export type DraftFields = z.input<typeof draftInput>;
+
+/** PUT /api/v1/guides/[slug]/draft and the editor's save: the draft plus the version it edits. */
+export const saveDraftInput = z.strictObject({
+	...draftInput.shape,
+	version: z.number().int().positive()
+});
+
+export const submitInput = z.strictObject({ version: z.number().int().positive() });
+
+/** The preview action: the four sections only. */
+export const previewInput = buildNotesInput;
+
+/** One Markdown document with a `##` heading per non-empty section. */
+export function joinBuildNotes(notes: BuildNotesInput): string {
+	return BUILD_NOTE_SECTIONS.filter((s) => notes[s.key].trim() !== '')
+		.map((s) => `## ${s.heading}\n\n${notes[s.key].trim()}\n`)
+		.join('\n');
+}
+
+/**
+ * Splits a stored document back into the four sections. Text under an unknown heading
+ * (or before the first heading) stays with the section before it, headings included, so
+ * nothing an author wrote is lost.
+ */
+export function splitBuildNotes(md: string): BuildNotesInput {
+	const notes: BuildNotesInput = { firmware: '', assembly: '', cabling: '', display: '' };
+	let current: BuildNoteKey = 'firmware';
+	const lines: Record<BuildNoteKey, string[]> = { firmware: [], assembly: [], cabling: [], display: [] };
+	for (const line of md.split('\n')) {
+		const heading = /^##\s+(.+?)\s*$/.exec(line)?.[1]?.toLowerCase();
+		const section = heading ? BUILD_NOTE_SECTIONS.find((s) => s.heading.toLowerCase() === heading) : undefined;
+		if (section) current = section.key;
+		else lines[current].push(line);
+	}
+	for (const key of Object.keys(lines) as BuildNoteKey[]) notes[key] = lines[key].join('\n').trim();
+	return notes;
+}

@@ -1,0 +1,85 @@
+/*
+ * The author JSON API for guide drafts (POST /api/v1/guides, GET/PUT …/draft, POST …/submit).
+ * Handlers live here so the route files stay thin and the browse route keeps its own file.
+ * JSON only (the hook answers 415 to other bodies), owner only: another author's guide is a 404.
+ */
+import { json } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
+import { createGuideInput, saveDraftInput, submitInput } from '$lib/schemas/guide-editor';
+import { fieldIssues } from '$lib/schemas/issues';
+import { requireRole } from '$lib/server/auth/guards';
+import * as drafts from '$lib/server/services/guide-drafts';
+
+async function body(request: Request): Promise<{ ok: true; value: unknown } | { ok: false; response: Response }> {
+	try {
+		return { ok: true, value: await request.json() };
+	} catch {
+		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
+	}
+}
+
+const notFound = () => json({ message: 'Guide not found' }, { status: 404 });
+const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
+
+/** POST /api/v1/guides → 201 { slug, version } */
+export async function createGuide({ request }: RequestEvent): Promise<Response> {
+	const user = requireRole('author', 'editor');
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = createGuideInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const outcome = await drafts.createGuide(user.id, input.data);
+	if (outcome.kind === 'invalid') return invalid(outcome.issues);
+	return json({ slug: outcome.slug, version: outcome.version }, { status: 201, headers: { location: `/api/v1/guides/${outcome.slug}/draft` } });
+}
+
+/** GET /api/v1/guides/[slug]/draft → the working copy with its version */
+export async function getDraft({ params }: RequestEvent): Promise<Response> {
+	const user = requireRole('author', 'editor');
+	const draft = await drafts.getDraft(user.id, params.slug ?? '');
+	return draft ? json(draft) : notFound();
+}
+
+/** PUT /api/v1/guides/[slug]/draft { version, …draft } → 200 draft | 409 { message, current } | 400 */
+export async function saveDraft({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireRole('author', 'editor');
+	// Ownership first, so another author's slug answers 404 whatever the body holds.
+	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = saveDraftInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const { version, ...draft } = input.data;
+	const outcome = await drafts.saveDraft(user.id, params.slug ?? '', draft, version);
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'invalid':
+			return invalid(outcome.issues);
+		case 'conflict':
+			return json({ message: 'This guide was changed elsewhere since you opened it.', current: outcome.current }, { status: 409 });
+		case 'saved':
+			return json(outcome.draft);
+	}
+}
+
+/** POST /api/v1/guides/[slug]/submit { version } → 200 draft (frozen) | 409 | 400 */
+export async function submitDraft({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireRole('author', 'editor');
+	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = submitInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version);
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'invalid':
+			return invalid(outcome.issues);
+		case 'conflict':
+			return json({ message: 'This guide was changed elsewhere since you opened it.', current: outcome.current }, { status: 409 });
+		case 'submitted':
+			return json(outcome.draft);
+	}
+}

@@ -1,0 +1,405 @@
+/**
+ * Authoring guides: create, load the working copy, save it with optimistic locking, and
+ * submit it for review. Authors reach only their own guides: another author's slug gives
+ * null / not_found, exactly like a slug that does not exist.
+ *
+ * Revisions and states (decided here, see the report to the lead):
+ * - The working copy is the guide's latest revision while its `submittedAt` is null.
+ * - Submitting stamps `submittedAt`: that revision is frozen for good. The next save copies
+ *   nothing from the client that it does not send: it creates revision N+1 from the input.
+ * - `guides.state` is the guide's public lifecycle. A guide with a published revision stays
+ *   'published' (its `publishedRevisionId` stays live) while a newer revision is drafted or
+ *   waits for review; the newest revision's own state is read from its timestamps
+ *   (`revisionState`: draft / submitted). A guide never published goes draft → in_review.
+ */
+import { Op } from 'sequelize';
+import type { Transaction } from 'sequelize';
+import { minorUnitDigits } from '$lib/domain/money';
+import { CATEGORY_LABELS } from '$lib/domain/types';
+import type { AlternateReason, PartCategory } from '$lib/domain/types';
+import {
+	GUIDE_TAGS,
+	joinBuildNotes,
+	splitBuildNotes,
+	type BuildNotesInput,
+	type CreateGuideInput,
+	type DraftInput,
+	type GuideDisclosure,
+	type GuideTag
+} from '$lib/schemas/guide-editor';
+import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, sequelize } from '$lib/server/db';
+import { renderMarkdown } from '$lib/server/markdown';
+
+export interface DraftPartRef {
+	id: number;
+	slug: string;
+	brand: string;
+	model: string;
+	category: PartCategory;
+}
+
+export interface DraftSlotView {
+	category: PartCategory;
+	label: string;
+	quantity: number;
+	pickPartId: number;
+	pick: DraftPartRef;
+	reason: string;
+	priceQuote: { storeId: number; amount: string; observedAt: string } | null;
+	alternates: { partId: number; part: DraftPartRef; reasonTag: AlternateReason; note: string }[];
+}
+
+/** The working copy as the editor and GET …/draft show it; `version` goes back with a save. */
+export interface DraftView {
+	slug: string;
+	title: string;
+	summary: string;
+	targetBudget: string;
+	currency: string;
+	baseRegion: string;
+	tags: GuideTag[];
+	disclosure: GuideDisclosure;
+	disclosureNote: string | null;
+	walkthroughUrl: string | null;
+	buildNotes: BuildNotesInput;
+	buildNotesHtml: string;
+	slots: DraftSlotView[];
+	version: number;
+	state: string;
+	revisionNumber: number;
+	/** 'draft' while editable; 'submitted' once frozen (the next save starts a new revision). */
+	revisionState: 'draft' | 'submitted';
+	submittedAt: string | null;
+	publishedRevisionNumber: number | null;
+}
+
+export type Issues = Record<string, string[]>;
+export type CreateOutcome = { kind: 'created'; slug: string; version: number } | { kind: 'invalid'; issues: Issues };
+export type SaveOutcome =
+	| { kind: 'saved'; draft: DraftView }
+	| { kind: 'conflict'; current: DraftView }
+	| { kind: 'invalid'; issues: Issues }
+	| { kind: 'not_found' };
+export type SubmitOutcome =
+	| { kind: 'submitted'; draft: DraftView }
+	| { kind: 'conflict'; current: DraftView }
+	| { kind: 'invalid'; issues: Issues }
+	| { kind: 'not_found' };
+
+/** "700.5" in a currency with 2 digits → 70050; too many digits for the currency → null. */
+export function toMinor(amount: string, currency: string): number | null {
+	const digits = minorUnitDigits(currency);
+	const [whole = '0', fraction = ''] = amount.split('.');
+	if (fraction.length > digits) return null;
+	return Number(whole) * 10 ** digits + Number(fraction.padEnd(digits, '0') || '0');
+}
+
+export function fromMinor(minor: number, currency: string): string {
+	const digits = minorUnitDigits(currency);
+	if (digits === 0) return String(minor);
+	const s = String(minor).padStart(digits + 1, '0');
+	return `${s.slice(0, -digits)}.${s.slice(-digits)}`;
+}
+
+function slugify(title: string): string {
+	const base = title
+		.toLowerCase()
+		.normalize('NFKD')
+		.replace(/[^a-z0-9]+/g, '-')
+		.replace(/^-+|-+$/g, '')
+		.slice(0, 120)
+		.replace(/-+$/, '');
+	return base || 'guide';
+}
+
+async function uniqueSlug(title: string, transaction: Transaction): Promise<string> {
+	const base = slugify(title);
+	const taken = new Set(
+		(await Guide.findAll({ where: { slug: { [Op.like]: `${base}%` } }, attributes: ['slug'], transaction })).map((g) => g.slug)
+	);
+	if (!taken.has(base)) return base;
+	for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
+}
+
+/** A new guide with an empty draft revision 1, owned by `authorId`. */
+export async function createGuide(authorId: string, input: CreateGuideInput): Promise<CreateOutcome> {
+	const region = await Region.findOne({ where: { code: input.baseRegion } });
+	if (!region) return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
+	const budget = toMinor(input.targetBudget, region.currency);
+	if (budget === null) return { kind: 'invalid', issues: { targetBudget: [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`] } };
+	return sequelize.transaction(async (transaction) => {
+		const guide = await Guide.create(
+			{
+				slug: await uniqueSlug(input.title, transaction),
+				authorId,
+				title: input.title,
+				summary: input.summary,
+				targetBudgetMinor: budget,
+				baseRegionId: region.id,
+				tags: input.tags,
+				disclosure: input.disclosure,
+				disclosureNote: input.disclosureNote,
+				walkthroughUrl: input.walkthroughUrl,
+				publishedRevisionId: null
+			},
+			{ transaction }
+		);
+		await GuideRevision.create(
+			{ guideId: guide.id, number: 1, buildNotesMd: '', buildNotesHtml: '', submittedAt: null, reviewedAt: null, publishedAt: null, reviewerId: null, reviewNote: null },
+			{ transaction }
+		);
+		return { kind: 'created', slug: guide.slug, version: guide.version };
+	});
+}
+
+async function ownGuide(authorId: string, slug: string, transaction?: Transaction) {
+	return Guide.findOne({ where: { slug, authorId }, transaction });
+}
+
+async function latestRevision(guideId: number, transaction?: Transaction) {
+	return GuideRevision.findOne({ where: { guideId }, order: [['number', 'DESC']], transaction });
+}
+
+function partRef(p: Part): DraftPartRef {
+	return { id: p.id, slug: p.slug, brand: p.brand, model: p.model, category: p.category };
+}
+
+type LoadedSlot = GuideSlot & { pick: Part; priceQuote: Quote | null; alternates: (SlotAlternate & { part: Part })[] };
+
+/** The author's working copy of their guide, or null (unknown slug or someone else's). */
+export async function getDraft(authorId: string, slug: string, transaction?: Transaction): Promise<DraftView | null> {
+	const guide = await ownGuide(authorId, slug, transaction);
+	if (!guide) return null;
+	return viewOf(guide, transaction);
+}
+
+async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftView> {
+	const region = await Region.findByPk(guide.baseRegionId, { transaction });
+	const currency = region?.currency ?? 'USD';
+	const revision = await latestRevision(guide.id, transaction);
+	const slots = revision
+		? ((await GuideSlot.findAll({
+				where: { revisionId: revision.id },
+				include: [
+					{ model: Part, as: 'pick' },
+					{ model: Quote, as: 'priceQuote' },
+					{ model: SlotAlternate, as: 'alternates', include: [{ model: Part, as: 'part' }] }
+				],
+				order: [
+					['position', 'ASC'],
+					[{ model: SlotAlternate, as: 'alternates' }, 'rank', 'ASC']
+				],
+				transaction
+			})) as LoadedSlot[])
+		: [];
+	const published = guide.publishedRevisionId ? await GuideRevision.findByPk(guide.publishedRevisionId, { transaction }) : null;
+	const known = new Set<string>(GUIDE_TAGS);
+	return {
+		slug: guide.slug,
+		title: guide.title,
+		summary: guide.summary,
+		targetBudget: fromMinor(Number(guide.targetBudgetMinor), currency),
+		currency,
+		baseRegion: region?.code ?? '',
+		// Older tags outside the fixed list (e.g. seeded 'budget') are dropped on the next save.
+		tags: (guide.tags ?? []).filter((t): t is GuideTag => known.has(t)),
+		disclosure: guide.disclosure,
+		disclosureNote: guide.disclosureNote,
+		walkthroughUrl: guide.walkthroughUrl,
+		buildNotes: splitBuildNotes(revision?.buildNotesMd ?? ''),
+		buildNotesHtml: revision?.buildNotesHtml ?? '',
+		slots: slots.map((s) => ({
+			category: s.category,
+			label: s.label,
+			quantity: s.quantity,
+			pickPartId: s.pick.id,
+			pick: partRef(s.pick),
+			reason: s.reason,
+			priceQuote: s.priceQuote
+				? {
+						storeId: s.priceQuote.storeId,
+						amount: fromMinor(Number(s.priceQuote.amountMinor), s.priceQuote.currency),
+						observedAt: s.priceQuote.observedAt.toISOString().slice(0, 10)
+					}
+				: null,
+			alternates: s.alternates.map((a) => ({ partId: a.part.id, part: partRef(a.part), reasonTag: a.reasonTag, note: a.note }))
+		})),
+		version: guide.version,
+		state: guide.state,
+		revisionNumber: revision?.number ?? 0,
+		revisionState: revision?.submittedAt ? 'submitted' : 'draft',
+		submittedAt: revision?.submittedAt?.toISOString() ?? null,
+		publishedRevisionNumber: published?.number ?? null
+	};
+}
+
+/** Catalog and store references the schema cannot check: parts exist in the slot's category, stores sit in the base region. */
+async function checkReferences(input: DraftInput, region: Region): Promise<Issues> {
+	const issues: Issues = {};
+	const partIds = input.slots.flatMap((s) => [s.pickPartId, ...s.alternates.map((a) => a.partId)]);
+	const parts = new Map((await Part.findAll({ where: { id: partIds } })).map((p) => [p.id, p]));
+	const storeIds = input.slots.flatMap((s) => (s.priceQuote ? [s.priceQuote.storeId] : []));
+	const stores = new Map((await Store.findAll({ where: { id: storeIds } })).map((s) => [s.id, s]));
+	const add = (key: string, message: string) => (issues[key] ??= []).push(message);
+	input.slots.forEach((slot, i) => {
+		const wrong = (id: number) => {
+			const part = parts.get(id);
+			if (!part) return 'No such part in the catalog.';
+			return part.category === slot.category ? null : `That part is not a ${CATEGORY_LABELS[slot.category]}.`;
+		};
+		const pickProblem = wrong(slot.pickPartId);
+		if (pickProblem) add(`slots.${i}.pickPartId`, pickProblem);
+		slot.alternates.forEach((alt, j) => {
+			const problem = wrong(alt.partId);
+			if (problem) add(`slots.${i}.alternates.${j}.partId`, problem);
+			else if (alt.partId === slot.pickPartId) add(`slots.${i}.alternates.${j}.partId`, 'An alternate must differ from the pick.');
+		});
+		if (slot.priceQuote) {
+			const store = stores.get(slot.priceQuote.storeId);
+			if (!store || store.regionId !== region.id) add(`slots.${i}.priceQuote.storeId`, `Choose a store in the guide's base region (${region.name}).`);
+			if (toMinor(slot.priceQuote.amount, region.currency) === null) add(`slots.${i}.priceQuote.amount`, `${region.currency} has ${minorUnitDigits(region.currency)} decimals.`);
+		}
+	});
+	return issues;
+}
+
+/**
+ * Replaces the working copy (metadata, build notes, slots, alternates) in one transaction.
+ * The guide row is updated first with `WHERE id AND version = expectedVersion`: no affected
+ * row means someone saved in between, and the stored copy comes back as `current`.
+ */
+export async function saveDraft(
+	authorId: string,
+	slug: string,
+	input: DraftInput,
+	expectedVersion: number
+): Promise<SaveOutcome> {
+	const guide = await ownGuide(authorId, slug);
+	if (!guide) return { kind: 'not_found' };
+	const region = await Region.findOne({ where: { code: input.baseRegion } });
+	if (!region) return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
+	const budget = toMinor(input.targetBudget, region.currency);
+	const issues = await checkReferences(input, region);
+	if (budget === null) issues.targetBudget = [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`];
+	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
+	const buildNotesMd = joinBuildNotes(input.buildNotes);
+	const buildNotesHtml = renderMarkdown(buildNotesMd);
+
+	return sequelize.transaction(async (transaction): Promise<SaveOutcome> => {
+		const [affected] = await Guide.update(
+			{
+				title: input.title,
+				summary: input.summary,
+				targetBudgetMinor: budget ?? 0,
+				baseRegionId: region.id,
+				tags: input.tags,
+				disclosure: input.disclosure,
+				disclosureNote: input.disclosureNote,
+				walkthroughUrl: input.walkthroughUrl,
+				version: expectedVersion + 1
+			},
+			{ where: { id: guide.id, version: expectedVersion }, transaction }
+		);
+		if (affected !== 1) {
+			const current = await viewOf(guide, transaction);
+			return { kind: 'conflict', current };
+		}
+
+		let revision = await latestRevision(guide.id, transaction);
+		if (!revision || revision.submittedAt) {
+			// The latest revision is frozen (submitted or published): the save starts N+1.
+			revision = await GuideRevision.create(
+				{ guideId: guide.id, number: (revision?.number ?? 0) + 1, buildNotesMd, buildNotesHtml, submittedAt: null, reviewedAt: null, publishedAt: null, reviewerId: null, reviewNote: null },
+				{ transaction }
+			);
+		} else {
+			await revision.update({ buildNotesMd, buildNotesHtml }, { transaction });
+			// Alternates go with their slots (ON DELETE CASCADE).
+			await GuideSlot.destroy({ where: { revisionId: revision.id }, transaction });
+		}
+
+		for (const [i, slot] of input.slots.entries()) {
+			const priceQuoteId = slot.priceQuote ? await quoteFor(slot.pickPartId, slot.priceQuote, region, transaction) : null;
+			const row = await GuideSlot.create(
+				{ revisionId: revision.id, category: slot.category, label: slot.label, position: i + 1, quantity: slot.quantity, pickPartId: slot.pickPartId, reason: slot.reason, priceQuoteId },
+				{ transaction }
+			);
+			if (slot.alternates.length > 0) {
+				await SlotAlternate.bulkCreate(
+					slot.alternates.map((a, j) => ({ slotId: row.id, partId: a.partId, rank: j + 1, reasonTag: a.reasonTag, note: a.note })),
+					{ transaction }
+				);
+			}
+		}
+		const fresh = await Guide.findByPk(guide.id, { transaction });
+		return { kind: 'saved', draft: await viewOf(fresh ?? guide, transaction) };
+	});
+}
+
+/** The author's quote for a pick: an identical existing quote is reused, else one is recorded (source 'author'). */
+async function quoteFor(
+	partId: number,
+	q: { storeId: number; amount: string; observedAt: string },
+	region: Region,
+	transaction: Transaction
+): Promise<number> {
+	const amountMinor = toMinor(q.amount, region.currency) ?? 0;
+	const observedAt = new Date(`${q.observedAt}T00:00:00Z`);
+	const next = new Date(observedAt.getTime() + 86_400_000);
+	const existing = await Quote.findOne({
+		where: { partId, storeId: q.storeId, regionId: region.id, amountMinor, observedAt: { [Op.gte]: observedAt, [Op.lt]: next } },
+		transaction
+	});
+	if (existing) return existing.id;
+	const created = await Quote.create(
+		{ partId, storeId: q.storeId, regionId: region.id, amountMinor, currency: region.currency, taxIncluded: region.taxMode === 'inclusive', observedAt, url: null, source: 'author' },
+		{ transaction }
+	);
+	return created.id;
+}
+
+/** Freezes the working copy for review (submittedAt); guarded by the same version check. */
+export async function submit(authorId: string, slug: string, expectedVersion: number): Promise<SubmitOutcome> {
+	const guide = await ownGuide(authorId, slug);
+	if (!guide) return { kind: 'not_found' };
+	return sequelize.transaction(async (transaction): Promise<SubmitOutcome> => {
+		const revision = await latestRevision(guide.id, transaction);
+		if (!revision || revision.submittedAt) return { kind: 'invalid', issues: { _form: ['There is no draft to submit: save a change first.'] } };
+		const slotCount = await GuideSlot.count({ where: { revisionId: revision.id }, transaction });
+		if (slotCount === 0) return { kind: 'invalid', issues: { slots: ['Add at least one slot and save before submitting.'] } };
+		const state = guide.publishedRevisionId ? 'published' : 'in_review';
+		const [affected] = await Guide.update(
+			{ state, version: expectedVersion + 1 },
+			{ where: { id: guide.id, version: expectedVersion }, transaction }
+		);
+		if (affected !== 1) return { kind: 'conflict', current: await viewOf(guide, transaction) };
+		await revision.update({ submittedAt: new Date() }, { transaction });
+		const fresh = await Guide.findByPk(guide.id, { transaction });
+		return { kind: 'submitted', draft: await viewOf(fresh ?? guide, transaction) };
+	});
+}
+
+/** Sanitised HTML for the editor's preview; nothing is stored. */
+export function previewNotes(notes: BuildNotesInput): string {
+	return renderMarkdown(joinBuildNotes(notes));
+}
+
+export interface EditorCatalog {
+	regions: { code: string; name: string; currency: string }[];
+	stores: { id: number; name: string; regionCode: string }[];
+	/** Every catalog part by category: the no-JS pick list and the live search's id lookup. */
+	parts: DraftPartRef[];
+}
+
+/** Choices for the editor's selects. */
+export async function editorCatalog(): Promise<EditorCatalog> {
+	const regions = await Region.findAll({ order: [['name', 'ASC']] });
+	const byId = new Map(regions.map((r) => [r.id, r.code]));
+	const stores = await Store.findAll({ order: [['name', 'ASC']] });
+	const parts = await Part.findAll({ attributes: ['id', 'slug', 'brand', 'model', 'category'], order: [['brand', 'ASC'], ['model', 'ASC']] });
+	return {
+		regions: regions.map((r) => ({ code: r.code, name: r.name, currency: r.currency })),
+		stores: stores.map((s) => ({ id: s.id, name: s.name, regionCode: byId.get(s.regionId) ?? '' })),
+		parts: parts.map(partRef)
+	};
+}

@@ -1,0 +1,55 @@
+import { getContext, setContext } from 'svelte';
+import { applyOp, moveSlot } from '$lib/schemas/guide-editor-form';
+import type { EditorDraft } from '$lib/schemas/guide-editor-form';
+
+/** Catalog choices the editor's selects and the live part search need. */
+export interface EditorCatalogView {
+	regions: { code: string; name: string; currency: string }[];
+	stores: { id: number; name: string; regionCode: string }[];
+	parts: { id: number; slug: string; brand: string; model: string; category: string }[];
+}
+
+/**
+ * The guide editor's working copy, shared by its section components through context.
+ * Operations are the same pure functions the no-JS ?/edit action applies.
+ */
+export class GuideDraftState {
+	draft = $state() as EditorDraft;
+	issues = $state<Record<string, string[]>>({});
+	readonly catalog: EditorCatalogView;
+
+	constructor(initial: EditorDraft, catalog: EditorCatalogView, issues: Record<string, string[]> = {}) {
+		this.draft = initial;
+		this.catalog = catalog;
+		this.issues = issues;
+	}
+
+	apply(op: string) {
+		this.draft = applyOp(this.draft, op);
+	}
+
+	move(from: number, to: number) {
+		this.draft = moveSlot(this.draft, from, to);
+	}
+
+	issuesFor(path: string): string[] {
+		return this.issues[path] ?? [];
+	}
+
+	partsOf(category: string) {
+		return this.catalog.parts.filter((p) => p.category === category);
+	}
+
+	partName(id: string | number): string {
+		const part = this.catalog.parts.find((p) => String(p.id) === String(id));
+		return part ? `${part.brand} ${part.model}` : '';
+	}
+}
+
+const KEY = Symbol('guide-draft');
+export function setGuideDraft(state: GuideDraftState): GuideDraftState {
+	return setContext(KEY, state);
+}
+export function getGuideDraft(): GuideDraftState {
+	return getContext<GuideDraftState>(KEY);
+}

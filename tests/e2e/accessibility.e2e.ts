@@ -1,0 +1,34 @@
+import AxeBuilder from '@axe-core/playwright';
+import { expect, test } from '@playwright/test';
+import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
+
+/*
+ * axe-core (WCAG 2.0–2.2 A and AA rules) on the main public pages: no violation of impact
+ * "serious" or "critical". Failures list each rule with the selectors it flagged.
+ */
+const PAGES = [
+	{ name: 'home', path: '/' },
+	{ name: 'browse', path: '/guides' },
+	{ name: 'browse with filters', path: '/guides?region=de&max=1&sort=total' },
+	{ name: 'guide page', path: `/guides/${demoGuides[0]?.slug ?? ''}` },
+	{ name: 'guide page in another region', path: `/guides/${demoGuides[0]?.slug ?? ''}?region=de` },
+	{ name: 'parts catalog', path: '/parts' },
+	{ name: 'part page', path: '/parts/solenne-cobalt-c6-8g' },
+	{ name: 'help', path: '/help' },
+	{ name: 'help: regional pricing', path: '/help/regional-pricing' },
+	{ name: 'help: API reference', path: '/help/api' }
+];
+
+for (const { name, path } of PAGES) {
+	test(`axe finds no serious or critical violation: ${name}`, async ({ page }) => {
+		const response = await page.goto(path);
+		expect(response?.status()).toBe(200);
+		const results = await new AxeBuilder({ page })
+			.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'])
+			.analyze();
+		const severe = results.violations
+			.filter((v) => v.impact === 'serious' || v.impact === 'critical')
+			.map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+		expect(severe, severe.join('\n')).toEqual([]);
+	});
+}

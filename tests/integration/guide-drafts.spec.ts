@@ -1,0 +1,237 @@
+import { QueryTypes } from 'sequelize';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { draftInput, saveDraftInput, createGuideInput } from '../../src/lib/schemas/guide-editor';
+import type { DraftInput } from '../../src/lib/schemas/guide-editor';
+import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, User, sequelize } from '../../src/lib/server/db';
+import * as drafts from '../../src/lib/server/services/guide-drafts';
+import { countRows, resetDatabase } from '../support/db';
+
+/*
+ * Guide drafts on the real MariaDB: ownership, optimistic locking, revisions frozen on
+ * submit, strict input, and one transaction per save (a failure raised by the database
+ * itself mid-save leaves nothing half-written).
+ */
+
+let author: User;
+let other: User;
+let parts: Record<string, Part>;
+let store: Store;
+
+async function fixtures() {
+	await resetDatabase();
+	author = await User.create({ email: 'ada@example.test', name: 'Ada Writer', role: 'author' });
+	other = await User.create({ email: 'ben@example.test', name: 'Ben Other', role: 'author' });
+	const us = await Region.create({ code: 'us', name: 'United States', currency: 'USD', taxMode: 'exclusive', taxRateBp: 0 });
+	await Region.create({ code: 'jp', name: 'Japan', currency: 'JPY', taxMode: 'inclusive', taxRateBp: 1000 });
+	store = await Store.create({ name: 'Harbor Parts', regionId: us.id, url: 'https://harbor.example' });
+	const make = (category: Part['category'], slug: string) =>
+		Part.create({ category, brand: 'Testa', model: slug, slug, specs: {} });
+	parts = {
+		cpu: await make('cpu', 'testa-cpu-6'),
+		cpu2: await make('cpu', 'testa-cpu-8'),
+		board: await make('motherboard', 'testa-board-b'),
+		board2: await make('motherboard', 'testa-board-x')
+	};
+}
+
+function draft(overrides: Partial<DraftInput> = {}): DraftInput {
+	return draftInput.parse({
+		title: 'Quiet 1440p box',
+		summary: 'A quiet build.',
+		targetBudget: '900.00',
+		baseRegion: 'us',
+		tags: ['quiet', '1440p'],
+		disclosure: 'none',
+		buildNotes: { firmware: '- Update firmware', assembly: '1. Seat the CPU', cabling: '', display: 'Use DisplayPort.' },
+		slots: [
+			{
+				category: 'cpu',
+				label: 'CPU',
+				quantity: 1,
+				pickPartId: parts.cpu?.id,
+				reason: 'Six cores are plenty.',
+				priceQuote: { storeId: store.id, amount: '199.99', observedAt: '2026-11-20' },
+				alternates: [{ partId: parts.cpu2?.id, reasonTag: 'upgrade_path', note: 'Two more cores.' }]
+			},
+			{ category: 'motherboard', label: 'Board', quantity: 1, pickPartId: parts.board?.id, reason: 'Cheapest with two M.2 slots.', alternates: [{ partId: parts.board2?.id, reasonTag: 'looks', note: '' }] }
+		],
+		...overrides
+	});
+}
+
+async function created(): Promise<{ slug: string; version: number }> {
+	const outcome = await drafts.createGuide(
+		author.id,
+		createGuideInput.parse({ title: 'Quiet 1440p box', summary: 'A quiet build.', targetBudget: '900', baseRegion: 'us', tags: ['quiet'], disclosure: 'none' })
+	);
+	if (outcome.kind !== 'created') throw new Error(JSON.stringify(outcome));
+	return outcome;
+}
+
+describe('guide drafts on the real MariaDB', () => {
+	beforeEach(fixtures);
+
+	it('creates a draft guide with a unique slug and an empty revision 1', async () => {
+		const first = await created();
+		const second = await created();
+		expect(first.slug).toBe('quiet-1440p-box');
+		expect(second.slug).toBe('quiet-1440p-box-2');
+		const view = await drafts.getDraft(author.id, first.slug);
+		expect(view).toMatchObject({ state: 'draft', revisionNumber: 1, revisionState: 'draft', targetBudget: '900.00', currency: 'USD', version: 1 });
+		const row = await Guide.findOne({ where: { slug: first.slug } });
+		expect(Number(row?.targetBudgetMinor)).toBe(90000);
+		expect(row?.disclosure).toBe('none');
+	});
+
+	it('saves slots, ranked alternates, an author quote and rendered build notes', async () => {
+		const { slug, version } = await created();
+		const outcome = await drafts.saveDraft(author.id, slug, draft(), version);
+		expect(outcome.kind).toBe('saved');
+		const view = await drafts.getDraft(author.id, slug);
+		expect(view?.version).toBe(version + 1);
+		expect(view?.slots.map((s) => s.pick.slug)).toEqual(['testa-cpu-6', 'testa-board-b']);
+		expect(view?.slots[0]?.alternates.map((a) => [a.part.slug, a.reasonTag])).toEqual([['testa-cpu-8', 'upgrade_path']]);
+		expect(view?.slots[0]?.priceQuote).toEqual({ storeId: store.id, amount: '199.99', observedAt: '2026-11-20' });
+		const quote = await Quote.findOne({ where: { partId: parts.cpu?.id } });
+		expect(quote).toMatchObject({ source: 'author', currency: 'USD', taxIncluded: false });
+		expect(Number(quote?.amountMinor)).toBe(19999);
+		expect(view?.buildNotes.firmware).toBe('- Update firmware');
+		expect(view?.buildNotes.display).toBe('Use DisplayPort.');
+		expect(view?.buildNotesHtml).toContain('<h2>Firmware setup checklist</h2>');
+		expect(view?.buildNotesHtml).not.toContain('Cable routing'); // empty sections are left out
+
+		// Saving again with the same quote reuses it; slots are replaced, not appended.
+		await drafts.saveDraft(author.id, slug, draft(), version + 1);
+		expect(await countRows('quotes')).toBe(1);
+		expect(await countRows('guide_slots')).toBe(2);
+		expect(await countRows('slot_alternates')).toBe(2);
+	});
+
+	it('answers a stale save with a conflict carrying the stored copy, and writes nothing', async () => {
+		const { slug, version } = await created();
+		expect((await drafts.saveDraft(author.id, slug, draft({ title: 'Saved in tab one' }), version)).kind).toBe('saved');
+		const stale = await drafts.saveDraft(author.id, slug, draft({ title: 'Saved in tab two' }), version);
+		expect(stale.kind).toBe('conflict');
+		if (stale.kind !== 'conflict') return;
+		expect(stale.current.title).toBe('Saved in tab one');
+		expect(stale.current.version).toBe(version + 1);
+		expect((await Guide.findOne({ where: { slug } }))?.title).toBe('Saved in tab one');
+	});
+
+	it('lets two saves with the same version race: exactly one wins', async () => {
+		const { slug, version } = await created();
+		const results = await Promise.all([
+			drafts.saveDraft(author.id, slug, draft({ title: 'Racer A' }), version),
+			drafts.saveDraft(author.id, slug, draft({ title: 'Racer B' }), version)
+		]);
+		expect(results.map((r) => r.kind).sort()).toEqual(['conflict', 'saved']);
+		expect(await countRows('guide_slots')).toBe(2);
+	});
+
+	it("gives another author's guide as null / not_found, and leaves it untouched", async () => {
+		const { slug, version } = await created();
+		expect(await drafts.getDraft(other.id, slug)).toBeNull();
+		expect(await drafts.saveDraft(other.id, slug, draft({ title: 'Hijacked' }), version)).toEqual({ kind: 'not_found' });
+		expect(await drafts.submit(other.id, slug, version)).toEqual({ kind: 'not_found' });
+		expect((await Guide.findOne({ where: { slug } }))?.title).toBe('Quiet 1440p box');
+	});
+
+	it('freezes the submitted revision; the next save starts revision N+1', async () => {
+		const { slug, version } = await created();
+		await drafts.saveDraft(author.id, slug, draft(), version);
+		const submitted = await drafts.submit(author.id, slug, version + 1);
+		expect(submitted.kind).toBe('submitted');
+		if (submitted.kind !== 'submitted') return;
+		expect(submitted.draft).toMatchObject({ state: 'in_review', revisionNumber: 1, revisionState: 'submitted' });
+		const frozen = await GuideRevision.findOne({ where: { number: 1 } });
+		const frozenSlots = await GuideSlot.findAll({ where: { revisionId: frozen?.id }, order: [['position', 'ASC']] });
+		expect(frozen?.submittedAt).toBeInstanceOf(Date);
+
+		const later = await drafts.saveDraft(author.id, slug, draft({ title: 'Revised', slots: draft().slots.slice(0, 1) }), submitted.draft.version);
+		expect(later.kind).toBe('saved');
+		if (later.kind !== 'saved') return;
+		expect(later.draft).toMatchObject({ revisionNumber: 2, revisionState: 'draft' });
+		expect(later.draft.slots).toHaveLength(1);
+		// Revision 1 is exactly as submitted.
+		const after = await GuideRevision.findOne({ where: { number: 1 } });
+		expect(after?.buildNotesMd).toBe(frozen?.buildNotesMd);
+		expect(after?.submittedAt?.getTime()).toBe(frozen?.submittedAt?.getTime());
+		const afterSlots = await GuideSlot.findAll({ where: { revisionId: frozen?.id }, order: [['position', 'ASC']] });
+		expect(afterSlots.map((s) => [s.id, s.pickPartId, s.reason])).toEqual(frozenSlots.map((s) => [s.id, s.pickPartId, s.reason]));
+		expect(await SlotAlternate.count({ where: { slotId: frozenSlots.map((s) => s.id) } })).toBe(2);
+		// Revision 2 can be submitted; submitting again with no new draft is refused.
+		expect((await drafts.submit(author.id, slug, later.draft.version)).kind).toBe('submitted');
+		expect((await drafts.submit(author.id, slug, later.draft.version + 1)).kind).toBe('invalid');
+	});
+
+	it('keeps a published guide live while a new revision is drafted and submitted', async () => {
+		const { slug, version } = await created();
+		await drafts.saveDraft(author.id, slug, draft(), version);
+		const rev1 = await GuideRevision.findOne({ where: { number: 1 } });
+		// Stand-in for the editor's approval (the moderation issue): revision 1 goes live.
+		await rev1?.update({ submittedAt: new Date(), reviewedAt: new Date(), publishedAt: new Date() });
+		await Guide.update({ state: 'published', publishedRevisionId: rev1?.id ?? null }, { where: { slug } });
+		const saved = await drafts.saveDraft(author.id, slug, draft({ title: 'Second pass' }), version + 1);
+		if (saved.kind !== 'saved') throw new Error(saved.kind);
+		const sent = await drafts.submit(author.id, slug, saved.draft.version);
+		expect(sent.kind === 'submitted' && sent.draft).toMatchObject({ state: 'published', revisionNumber: 2, revisionState: 'submitted', publishedRevisionNumber: 1 });
+		expect((await Guide.findOne({ where: { slug } }))?.publishedRevisionId).toBe(rev1?.id);
+	});
+
+	it('rejects mass-assigned fields and bad values with field messages', () => {
+		const base = { version: 1, ...draft() };
+		for (const extra of [{ authorId: other.id }, { state: 'published' }, { featured: true }, { slug: 'x' }]) {
+			const parsed = saveDraftInput.safeParse({ ...base, ...extra });
+			expect(parsed.success, JSON.stringify(extra)).toBe(false);
+			expect(parsed.error?.issues[0]?.code).toBe('unrecognized_keys');
+		}
+		const bad = saveDraftInput.safeParse({
+			...base,
+			tags: ['budget'],
+			walkthroughUrl: 'http://plain.example/x',
+			slots: [{ ...base.slots[0], quantity: 17, alternates: [{ partId: 1, reasonTag: 'cheaper', note: '' }] }]
+		});
+		const paths = bad.error?.issues.map((i) => i.path.join('.'));
+		expect(paths).toEqual(expect.arrayContaining(['tags.0', 'walkthroughUrl', 'slots.0.quantity', 'slots.0.alternates.0.reasonTag']));
+		expect(saveDraftInput.safeParse({ ...base, slots: [] }).success).toBe(false);
+		expect(createGuideInput.safeParse({ title: 'T1x', summary: 's', targetBudget: '9', baseRegion: 'us', tags: [] }).success).toBe(false); // disclosure required
+	});
+
+	it('refuses parts of the wrong category, unknown parts and stores outside the base region', async () => {
+		const { slug, version } = await created();
+		const jpStore = await Store.create({ name: 'Kumo Denki', regionId: (await Region.findOne({ where: { code: 'jp' } }))?.id ?? 0, url: 'https://kumo.example' });
+		const input = draft();
+		const [cpu, board] = input.slots;
+		if (!cpu || !board) throw new Error('fixture');
+		const outcome = await drafts.saveDraft(author.id, slug, { ...input, slots: [{ ...cpu, pickPartId: parts.board?.id ?? 0, priceQuote: { storeId: jpStore.id, amount: '1.999', observedAt: '2026-11-01' } }, { ...board, alternates: [{ partId: 999999, reasonTag: 'looks', note: '' }] }] }, version);
+		expect(outcome.kind).toBe('invalid');
+		if (outcome.kind !== 'invalid') return;
+		expect(Object.keys(outcome.issues).sort()).toEqual(['slots.0.pickPartId', 'slots.0.priceQuote.amount', 'slots.0.priceQuote.storeId', 'slots.1.alternates.0.partId']);
+		expect((await Guide.findOne({ where: { slug } }))?.version).toBe(version);
+	});
+
+	it('writes nothing when the database fails mid-save (one transaction)', async () => {
+		const { slug, version } = await created();
+		await drafts.saveDraft(author.id, slug, draft(), version);
+		const before = await drafts.getDraft(author.id, slug);
+		// A real failure raised by MariaDB itself after the guide row, the revision and the
+		// first slot were written: a trigger refuses the second slot's alternates.
+		await sequelize.query(
+			`CREATE TRIGGER fail_alternate BEFORE INSERT ON slot_alternates FOR EACH ROW
+			 BEGIN IF NEW.note = 'fail here' THEN SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'injected failure'; END IF; END`,
+			{ type: QueryTypes.RAW }
+		);
+		try {
+			const input = draft({ title: 'Half-written?' });
+			const [cpu, board] = input.slots;
+			if (!cpu || !board) throw new Error('fixture');
+			const failing = { ...input, slots: [cpu, { ...board, alternates: [{ partId: parts.board2?.id ?? 0, reasonTag: 'looks' as const, note: 'fail here' }] }] };
+			await expect(drafts.saveDraft(author.id, slug, failing, version + 1)).rejects.toThrow(/injected failure/);
+		} finally {
+			await sequelize.query('DROP TRIGGER IF EXISTS fail_alternate', { type: QueryTypes.RAW });
+		}
+		expect(await drafts.getDraft(author.id, slug)).toEqual(before);
+		expect(await countRows('guide_slots')).toBe(2);
+		expect(await countRows('slot_alternates')).toBe(2);
+	});
+});
