@@ -82,6 +82,15 @@ test('the region switcher re-prices a guide and labels lines quoted or estimated
 	await expect(table.getByText('Quoted', { exact: true }).first()).toBeVisible();
 	await expect(receipt.getByText(/Exchange rates of/)).toBeVisible();
 
+	// A US guide (pre-tax USD) switched to Germany without JavaScript: euro totals with VAT.
+	await page.goto('/guides/steady-1080p-starter');
+	await expect(receipt.getByText(/US\$/).first()).toBeVisible();
+	await receipt.getByLabel('Show prices for').selectOption('de');
+	await receipt.getByRole('button', { name: 'Show' }).click();
+	await expect(page).toHaveURL(/steady-1080p-starter\?region=de$/);
+	await expect(receipt.getByText(/€/).first()).toBeVisible();
+	await expect(receipt.getByText('Shelf prices include 19% tax')).toBeVisible();
+
 	// An unknown region code falls back to the base region with a message, never a 500.
 	const response = await page.goto('/guides/pocket-itx-1440p?region=zz');
 	expect(response?.status()).toBe(200);

@@ -1,6 +1,6 @@
 import { parseFeed } from '@rowanmanning/feed-parser';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { Guide, GuideRevision, GuideSlot, sequelize } from '../../src/lib/server/db';
+import { FrameResult, Guide, GuideRevision, GuideSlot, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
 import { parseGuideBrowseLenient, parseGuideBrowseStrict } from '../../src/lib/schemas/guide-browse';
@@ -73,6 +73,51 @@ describe('guide browse on the real MariaDB', () => {
 		expect((await browse({ region: 'de', max: 1 })).total).toBe(0);
 	});
 
+	it('sorts by best value: FPS per 100 EUR from the seeded frame results and totals, guides without either last', async () => {
+		// One demo guide loses its frame results so the "no value" end of the order is exercised.
+		const withoutResults = demoGuides[1]?.slug ?? '';
+		const stripped = await Guide.findOne({ where: { slug: withoutResults } });
+		await FrameResult.destroy({ where: { revisionId: stripped?.publishedRevisionId ?? 0 } });
+
+		const result = await browse({ region: 'de', sort: 'value' });
+		expect(result.total).toBe(demoGuides.length);
+
+		// Independent figure: geometric mean as the n-th root of the product of the average FPS
+		// (stored in tenths), over the total in whole euros (EUR has 2 minor digits, ISO 4217).
+		const expected = await Promise.all(
+			result.items.map(async (g) => {
+				const guide = await Guide.findOne({ where: { slug: g.slug } });
+				const frames = await FrameResult.findAll({ where: { revisionId: guide?.publishedRevisionId ?? 0 } });
+				const priced = await guides.getPriced(g.slug, 'de');
+				if (priced.kind !== 'ok') throw new Error(priced.kind);
+				const total = priced.guide.unpricedSlots === 0 ? priced.guide.picksTotal : null;
+				if (frames.length === 0 || !total) return { slug: g.slug, publishedAt: g.publishedAt, value: null };
+				expect(total.currency).toBe('EUR');
+				const product = frames.reduce((p, f) => p * (f.avgFpsTenths / 10), 1);
+				const geometricMean = product ** (1 / frames.length);
+				return { slug: g.slug, publishedAt: g.publishedAt, value: (geometricMean * 100) / (total.amountMinor / 100) };
+			})
+		);
+		const valued = expected.filter((e) => e.value !== null);
+		expect(valued.length).toBeGreaterThan(1);
+		expect(expected.find((e) => e.slug === withoutResults)?.value).toBeNull();
+
+		const order = [...expected].sort(
+			(a, b) =>
+				(b.value ?? -Infinity) - (a.value ?? -Infinity) || b.publishedAt.localeCompare(a.publishedAt) || a.slug.localeCompare(b.slug)
+		);
+		expect(result.items.map((g) => g.slug)).toEqual(order.map((e) => e.slug));
+		for (const [i, g] of result.items.entries()) {
+			const value = expected[i]?.value ?? null;
+			if (value === null) expect(g.fpsPer100).toBeNull();
+			else expect(g.fpsPer100).toBeCloseTo(value, 9);
+		}
+		// The values really differ, so the order is not an accident of ties.
+		expect(new Set(valued.map((e) => e.value?.toFixed(6))).size).toBe(valued.length);
+		// Without a region every guide is in its own currency: no value to compare.
+		expect((await browse({})).items.every((g) => g.fpsPer100 === null)).toBe(true);
+	});
+
 	it('answers unknown regions as such, not with an empty list', async () => {
 		expect((await guideBrowse.browse(query({ region: 'zz' }))).kind).toBe('unknown_region');
 		expect(await guideBrowse.browse(query({ base: 'zz' }))).toEqual({ kind: 'unknown_region', field: 'base' });
@@ -119,6 +164,18 @@ describe('guide browse query', () => {
 		expect(Object.keys(bad.issues).sort()).toEqual(['_form', 'base', 'min', 'page', 'sort'].sort());
 		const noRegion = parseGuideBrowseStrict(new URLSearchParams('max=900'));
 		expect(noRegion.ok ? {} : noRegion.issues).toHaveProperty('max');
+		const valueNoRegion = parseGuideBrowseStrict(new URLSearchParams('sort=value'));
+		expect(valueNoRegion.ok ? {} : valueNoRegion.issues).toEqual({
+			sort: ['Choose a region to sort by value: totals are compared in its currency.']
+		});
+		const totalNoRegion = parseGuideBrowseStrict(new URLSearchParams('sort=total'));
+		expect(totalNoRegion.ok ? {} : totalNoRegion.issues).toEqual({
+			sort: ['Choose a region to sort by total: totals are compared in its currency.']
+		});
+		expect(parseGuideBrowseStrict(new URLSearchParams('region=de&sort=value'))).toEqual({
+			ok: true,
+			query: { region: 'de', tag: [], sort: 'value', page: 1 }
+		});
 		const ok = parseGuideBrowseStrict(new URLSearchParams('region=DE&min=500&max=900&tag=1440p&tag=gaming&sort=total'));
 		expect(ok).toEqual({ ok: true, query: { region: 'de', min: 500, max: 900, tag: ['1440p', 'gaming'], sort: 'total', page: 1 } });
 	});

@@ -1,8 +1,8 @@
 import { QueryTypes } from 'sequelize';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { draftInput, saveDraftInput, createGuideInput } from '../../src/lib/schemas/guide-editor';
-import type { DraftInput } from '../../src/lib/schemas/guide-editor';
-import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, User, sequelize } from '../../src/lib/server/db';
+import type { DraftFields, DraftInput } from '../../src/lib/schemas/guide-editor';
+import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User, sequelize } from '../../src/lib/server/db';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import { countRows, resetDatabase } from '../support/db';
 
@@ -34,7 +34,7 @@ async function fixtures() {
 	};
 }
 
-function draft(overrides: Partial<DraftInput> = {}): DraftInput {
+function draft(overrides: Partial<DraftFields> = {}): DraftInput {
 	return draftInput.parse({
 		title: 'Quiet 1440p box',
 		summary: 'A quiet build.',
@@ -187,7 +187,7 @@ describe('guide drafts on the real MariaDB', () => {
 		}
 		const bad = saveDraftInput.safeParse({
 			...base,
-			tags: ['budget'],
+			tags: ['no-such-tag'],
 			walkthroughUrl: 'http://plain.example/x',
 			slots: [{ ...base.slots[0], quantity: 17, alternates: [{ partId: 1, reasonTag: 'cheaper', note: '' }] }]
 		});
@@ -233,5 +233,95 @@ describe('guide drafts on the real MariaDB', () => {
 		expect(await drafts.getDraft(author.id, slug)).toEqual(before);
 		expect(await countRows('guide_slots')).toBe(2);
 		expect(await countRows('slot_alternates')).toBe(2);
+	});
+
+	const results = {
+		frames: [
+			{ workload: 'Skyreach', resolution: '2560x1440', preset: 'High', avgFps: '143.5', low1Fps: '98.2' },
+			{ workload: 'Tidewalk', resolution: '1920x1080', avgFps: '60' }
+		],
+		thermals: [{ loadName: 'Stress 30 min', cpuTempC: 78, gpuTempC: null, cpuUtilPct: 100, gpuUtilPct: 4 }]
+	};
+
+	it('saves frame and thermal results as exact tenths, and replaces them on the next save', async () => {
+		const { slug, version } = await created();
+		const saved = await drafts.saveDraft(author.id, slug, draft(results), version);
+		expect(saved.kind).toBe('saved');
+		const view = await drafts.getDraft(author.id, slug);
+		expect(view?.frames).toEqual([
+			{ workload: 'Skyreach', resolution: '2560x1440', preset: 'High', avgFps: '143.5', low1Fps: '98.2', notes: '' },
+			{ workload: 'Tidewalk', resolution: '1920x1080', preset: '', avgFps: '60', low1Fps: null, notes: '' }
+		]);
+		expect(view?.thermals).toEqual([{ loadName: 'Stress 30 min', cpuTempC: 78, gpuTempC: null, cpuUtilPct: 100, gpuUtilPct: 4 }]);
+		const rows = await FrameResult.findAll({ order: [['position', 'ASC']] });
+		expect(rows.map((r) => [r.position, r.avgFpsTenths, r.low1FpsTenths])).toEqual([[1, 1435, 982], [2, 600, null]]);
+
+		// The editor sends its full list: one row left means one row stored; none means none.
+		await drafts.saveDraft(author.id, slug, draft({ frames: results.frames.slice(1), thermals: [] }), version + 1);
+		expect(await countRows('frame_results')).toBe(1);
+		expect(await countRows('thermal_results')).toBe(0);
+		// An API client that leaves results out keeps the stored ones.
+		await drafts.saveDraft(author.id, slug, draft(), version + 2);
+		expect((await drafts.getDraft(author.id, slug))?.frames.map((f) => f.workload)).toEqual(['Tidewalk']);
+	});
+
+	it('refuses a 1 % low above the average with a field message, and writes nothing', async () => {
+		const { slug, version } = await created();
+		await drafts.saveDraft(author.id, slug, draft(results), version);
+		const before = await drafts.getDraft(author.id, slug);
+		const body = { version: version + 1, ...draft(), frames: [{ workload: 'Skyreach', resolution: '2560x1440', avgFps: '90', low1Fps: '90.1' }], thermals: [] };
+		const parsed = saveDraftInput.safeParse(body);
+		expect(parsed.success).toBe(false);
+		expect(parsed.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['frames.0.low1Fps', 'The 1 % low cannot be above the average FPS.']]);
+		// The routes save only what parsed; nothing reached the database.
+		expect(await drafts.getDraft(author.id, slug)).toEqual(before);
+		expect(await countRows('frame_results')).toBe(2);
+		expect(await countRows('thermal_results')).toBe(1);
+	});
+
+	it('copies results into revision N+1 and leaves the submitted revision as it was', async () => {
+		const { slug, version } = await created();
+		await drafts.saveDraft(author.id, slug, draft(results), version);
+		const submitted = await drafts.submit(author.id, slug, version + 1);
+		if (submitted.kind !== 'submitted') throw new Error(submitted.kind);
+		const rev1 = await GuideRevision.findOne({ where: { number: 1 } });
+		const frozenFrames = (await FrameResult.findAll({ where: { revisionId: rev1?.id }, order: [['position', 'ASC']] })).map((r) => r.toJSON());
+		const frozenThermals = (await ThermalResult.findAll({ where: { revisionId: rev1?.id } })).map((r) => r.toJSON());
+
+		// A save that leaves results out (an older API client) starts N+1 with copies.
+		const later = await drafts.saveDraft(author.id, slug, draft({ title: 'Revised' }), submitted.draft.version);
+		if (later.kind !== 'saved') throw new Error(later.kind);
+		expect(later.draft.revisionNumber).toBe(2);
+		expect(later.draft.frames.map((f) => [f.workload, f.avgFps, f.low1Fps])).toEqual([['Skyreach', '143.5', '98.2'], ['Tidewalk', '60', null]]);
+		expect(later.draft.thermals).toEqual([{ loadName: 'Stress 30 min', cpuTempC: 78, gpuTempC: null, cpuUtilPct: 100, gpuUtilPct: 4 }]);
+		const rev2 = await GuideRevision.findOne({ where: { number: 2 } });
+		const copied = await FrameResult.findAll({ where: { revisionId: rev2?.id } });
+		expect(copied).toHaveLength(2);
+		expect(copied.some((r) => frozenFrames.some((f) => f.id === r.id))).toBe(false); // new rows, not moved ones
+
+		// Editing the copy in N+1 (as the editor does) never touches revision 1.
+		await drafts.saveDraft(author.id, slug, draft({ frames: [{ workload: 'Skyreach', resolution: '2560x1440', preset: 'High', avgFps: '150', low1Fps: '98.2' }], thermals: [] }), later.draft.version);
+		expect((await FrameResult.findAll({ where: { revisionId: rev1?.id }, order: [['position', 'ASC']] })).map((r) => r.toJSON())).toEqual(frozenFrames);
+		expect((await ThermalResult.findAll({ where: { revisionId: rev1?.id } })).map((r) => r.toJSON())).toEqual(frozenThermals);
+		expect((await drafts.getDraft(author.id, slug))?.frames.map((f) => f.avgFps)).toEqual(['150']);
+	});
+
+	it('rolls results back with the rest of a save that fails in the database', async () => {
+		const { slug, version } = await created();
+		await drafts.saveDraft(author.id, slug, draft(results), version);
+		const before = await drafts.getDraft(author.id, slug);
+		await sequelize.query(
+			`CREATE TRIGGER fail_thermal BEFORE INSERT ON thermal_results FOR EACH ROW
+			 BEGIN IF NEW.load_name = 'fail here' THEN SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'injected failure'; END IF; END`,
+			{ type: QueryTypes.RAW }
+		);
+		try {
+			const failing = draft({ title: 'Half-written?', frames: results.frames.slice(0, 1), thermals: [{ loadName: 'fail here', cpuTempC: 1, gpuTempC: 1, cpuUtilPct: 1, gpuUtilPct: 1 }] });
+			await expect(drafts.saveDraft(author.id, slug, failing, version + 1)).rejects.toThrow(/injected failure/);
+		} finally {
+			await sequelize.query('DROP TRIGGER IF EXISTS fail_thermal', { type: QueryTypes.RAW });
+		}
+		expect(await drafts.getDraft(author.id, slug)).toEqual(before);
+		expect(await countRows('frame_results')).toBe(2);
 	});
 });

@@ -4,20 +4,23 @@ import { fieldIssues } from './issues.js';
 /*
  * Guide browse (/guides and GET /api/v1/guides). Every value arrives as a URL string. The
  * budget is in whole units of the reader's chosen region's currency and is compared with
- * each guide's picks total priced in that region, so a budget or a "lowest total" sort
- * needs a region: totals in different currencies cannot be compared.
+ * each guide's picks total priced in that region, so a budget, a "lowest total" or a "best
+ * value" sort needs a region: totals in different currencies cannot be compared.
  */
 
 /** Guides per browse page (page and API alike). */
 export const GUIDES_PER_PAGE = 12;
 
 /**
- * Sorts on offer. "Best value" (FPS per 100 units of money) waits for frame results,
- * which guides do not store yet.
+ * Sorts on offer. "Best value" is the guide page's FPS per 100 units of the chosen region's
+ * currency (domain/value.ts): highest first, guides without frame results or without a
+ * complete total last.
  */
-export const GUIDE_SORTS = ['newest', 'total'] as const;
+export const GUIDE_SORTS = ['newest', 'total', 'value'] as const;
 export type GuideSort = (typeof GUIDE_SORTS)[number];
-export const GUIDE_SORT_LABELS: Record<GuideSort, string> = { newest: 'Newest', total: 'Lowest total' };
+export const GUIDE_SORT_LABELS: Record<GuideSort, string> = { newest: 'Newest', total: 'Lowest total', value: 'Best value' };
+/** Sorts that compare totals, so need the reader's region. */
+const SORTS_NEEDING_REGION: Record<GuideSort, string | null> = { newest: null, total: 'total', value: 'value' };
 
 // A GET form sends "" for a field left blank: that means "no filter", not a bad value.
 const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
@@ -78,8 +81,9 @@ export const guideBrowseQuery = guideBrowseFields.superRefine((input, ctx) => {
 	if (!input.region) {
 		if (input.min !== undefined) ctx.addIssue({ code: 'custom', path: ['min'], message: needsRegion });
 		if (input.max !== undefined) ctx.addIssue({ code: 'custom', path: ['max'], message: needsRegion });
-		if (input.sort === 'total') {
-			ctx.addIssue({ code: 'custom', path: ['sort'], message: 'Choose a region to sort by total: totals are compared in its currency.' });
+		const sortBy = SORTS_NEEDING_REGION[input.sort];
+		if (sortBy) {
+			ctx.addIssue({ code: 'custom', path: ['sort'], message: `Choose a region to sort by ${sortBy}: totals are compared in its currency.` });
 		}
 	}
 	if (input.min !== undefined && input.max !== undefined && input.min > input.max) {

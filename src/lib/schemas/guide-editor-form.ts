@@ -28,6 +28,27 @@ export interface EditorSlot {
 	alternates: EditorAlternate[];
 }
 
+/** One frame-result row as typed; FPS as decimal text ("143.5"). */
+export interface EditorFrame {
+	key: string;
+	workload: string;
+	resolution: string;
+	preset: string;
+	avgFps: string;
+	low1Fps: string;
+	notes: string;
+}
+
+/** One thermal row as typed; empty readings mean "not measured". */
+export interface EditorThermal {
+	key: string;
+	loadName: string;
+	cpuTempC: string;
+	gpuTempC: string;
+	cpuUtilPct: string;
+	gpuUtilPct: string;
+}
+
 export interface EditorDraft {
 	title: string;
 	summary: string;
@@ -39,6 +60,8 @@ export interface EditorDraft {
 	walkthroughUrl: string;
 	buildNotes: BuildNotesInput;
 	slots: EditorSlot[];
+	frames: EditorFrame[];
+	thermals: EditorThermal[];
 }
 
 /** The subset of the stored draft (services/guide-drafts DraftView) the editor starts from. */
@@ -61,6 +84,8 @@ export interface DraftLike {
 		priceQuote: { storeId: number; amount: string; observedAt: string } | null;
 		alternates: { partId: number; reasonTag: string; note: string }[];
 	}[];
+	frames: { workload: string; resolution: string; preset: string; avgFps: string; low1Fps: string | null; notes: string }[];
+	thermals: { loadName: string; cpuTempC: number | null; gpuTempC: number | null; cpuUtilPct: number | null; gpuUtilPct: number | null }[];
 }
 
 let counter = 0;
@@ -76,6 +101,16 @@ export function emptySlot(category: PartCategory = 'cpu', key = newKey()): Edito
 export function emptyAlternate(key = newKey()): EditorAlternate {
 	return { key, partId: '', reasonTag: 'lower_price', note: '' };
 }
+
+export function emptyFrame(key = newKey()): EditorFrame {
+	return { key, workload: '', resolution: '', preset: '', avgFps: '', low1Fps: '', notes: '' };
+}
+
+export function emptyThermal(key = newKey()): EditorThermal {
+	return { key, loadName: '', cpuTempC: '', gpuTempC: '', cpuUtilPct: '', gpuUtilPct: '' };
+}
+
+const reading = (n: number | null) => (n === null ? '' : String(n));
 
 export function fromDraft(d: DraftLike): EditorDraft {
 	return {
@@ -99,6 +134,15 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			quoteAmount: s.priceQuote?.amount ?? '',
 			quoteObservedAt: s.priceQuote?.observedAt ?? '',
 			alternates: s.alternates.map((a, j) => ({ key: `s${i}a${j}`, partId: String(a.partId), reasonTag: a.reasonTag, note: a.note }))
+		})),
+		frames: d.frames.map((f, i) => ({ key: `f${i}`, workload: f.workload, resolution: f.resolution, preset: f.preset, avgFps: f.avgFps, low1Fps: f.low1Fps ?? '', notes: f.notes })),
+		thermals: d.thermals.map((t, i) => ({
+			key: `t${i}`,
+			loadName: t.loadName,
+			cpuTempC: reading(t.cpuTempC),
+			gpuTempC: reading(t.gpuTempC),
+			cpuUtilPct: reading(t.cpuUtilPct),
+			gpuUtilPct: reading(t.gpuUtilPct)
 		}))
 	};
 }
@@ -140,6 +184,19 @@ export function fromForm(data: FormData): EditorDraft {
 			alternates
 		});
 	}
+	// Rows are kept by their required field's presence, like slots: gaps from removed rows close up.
+	const frames: EditorFrame[] = [];
+	for (let i = 0; i < count('frames.'); i++) {
+		const p = `frames.${i}.`;
+		if (!data.has(`${p}workload`)) continue;
+		frames.push({ key: text(`${p}key`) || `f${i}`, workload: text(`${p}workload`), resolution: text(`${p}resolution`), preset: text(`${p}preset`), avgFps: text(`${p}avgFps`), low1Fps: text(`${p}low1Fps`), notes: text(`${p}notes`) });
+	}
+	const thermals: EditorThermal[] = [];
+	for (let i = 0; i < count('thermals.'); i++) {
+		const p = `thermals.${i}.`;
+		if (!data.has(`${p}loadName`)) continue;
+		thermals.push({ key: text(`${p}key`) || `t${i}`, loadName: text(`${p}loadName`), cpuTempC: text(`${p}cpuTempC`), gpuTempC: text(`${p}gpuTempC`), cpuUtilPct: text(`${p}cpuUtilPct`), gpuUtilPct: text(`${p}gpuUtilPct`) });
+	}
 	return {
 		title: text('title'),
 		summary: text('summary'),
@@ -150,11 +207,15 @@ export function fromForm(data: FormData): EditorDraft {
 		disclosureNote: text('disclosureNote'),
 		walkthroughUrl: text('walkthroughUrl'),
 		buildNotes: { firmware: text('buildNotes.firmware'), assembly: text('buildNotes.assembly'), cabling: text('buildNotes.cabling'), display: text('buildNotes.display') },
-		slots
+		slots,
+		frames,
+		thermals
 	};
 }
 
 const num = (s: string) => (s.trim() === '' ? NaN : Number(s));
+/** Empty → null (not measured); anything else a number, NaN when not one (zod says so). */
+const optNum = (s: string) => (s.trim() === '' ? null : Number(s));
 
 /** The object draftInput parses: numbers where the schema wants numbers, empty quote → null. */
 export function toInput(d: EditorDraft): Record<string, unknown> {
@@ -179,6 +240,14 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 					? { storeId: num(s.quoteStoreId), amount: s.quoteAmount, observedAt: s.quoteObservedAt }
 					: null,
 			alternates: s.alternates.map((a) => ({ partId: num(a.partId), reasonTag: a.reasonTag, note: a.note }))
+		})),
+		frames: d.frames.map((f) => ({ workload: f.workload, resolution: f.resolution, preset: f.preset, avgFps: f.avgFps, low1Fps: f.low1Fps, notes: f.notes })),
+		thermals: d.thermals.map((t) => ({
+			loadName: t.loadName,
+			cpuTempC: optNum(t.cpuTempC),
+			gpuTempC: optNum(t.gpuTempC),
+			cpuUtilPct: optNum(t.cpuUtilPct),
+			gpuUtilPct: optNum(t.gpuUtilPct)
 		}))
 	};
 }
@@ -206,6 +275,14 @@ export function applyOp(d: EditorDraft, op: string): EditorDraft {
 			return { ...d, slots: swap(slots, i, i - 1) };
 		case 'slotDown':
 			return { ...d, slots: swap(slots, i, i + 1) };
+		case 'addFrame':
+			return { ...d, frames: [...d.frames, emptyFrame()] };
+		case 'removeFrame':
+			return { ...d, frames: d.frames.filter((_, k) => k !== i) };
+		case 'addThermal':
+			return { ...d, thermals: [...d.thermals, emptyThermal()] };
+		case 'removeThermal':
+			return { ...d, thermals: d.thermals.filter((_, k) => k !== i) };
 	}
 	if (!slot) return d;
 	const withAlternates = (alternates: EditorAlternate[]) => ({ ...d, slots: slots.map((s, k) => (k === i ? { ...slot, alternates } : s)) });

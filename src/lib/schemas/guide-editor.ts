@@ -8,7 +8,7 @@ import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
  */
 
 export const GUIDE_TAG_GROUPS = {
-	'Use case': ['gaming', 'creator', 'office', 'quiet'],
+	'Use case': ['gaming', 'creator', 'office', 'quiet', 'budget'],
 	Resolution: ['1080p', '1440p', '4k'],
 	'Form factor': ['atx', 'microatx', 'mini-itx', 'compact']
 } as const;
@@ -58,7 +58,7 @@ export const guideMetaFields = {
 	summary: z.string().trim().min(1, 'Write a short summary.').max(2000),
 	targetBudget: decimalAmount,
 	baseRegion: z.string().trim().toLowerCase().regex(/^[a-z]{2,8}$/, 'Choose a region.'),
-	tags: z.array(z.enum(GUIDE_TAGS as [GuideTag, ...GuideTag[]])).max(11).default([]),
+	tags: z.array(z.enum(GUIDE_TAGS as [GuideTag, ...GuideTag[]])).max(GUIDE_TAGS.length).default([]),
 	disclosure: z.enum(GUIDE_DISCLOSURES, { message: 'Choose a disclosure.' }),
 	disclosureNote: optionalText(1000),
 	walkthroughUrl: optionalText(500).refine(
@@ -102,10 +102,77 @@ export const buildNotesInput = z.strictObject({
 });
 export type BuildNotesInput = z.infer<typeof buildNotesInput>;
 
+/** Highest FPS the editor accepts: anything above is a typo, not a measurement. */
+export const MAX_FPS = 2000;
+
+/** FPS as typed with at most one decimal ("143.5"); stored as tenths, so one place is exact. */
+const fpsText = (what: string) =>
+	z
+		.string()
+		.trim()
+		.regex(/^\d{1,4}(\.\d)?$/, `Enter the ${what} like 143.5 (one decimal at most).`)
+		.refine((s) => Number(s) > 0, `The ${what} must be above 0.`)
+		.refine((s) => Number(s) <= MAX_FPS, `The ${what} must be at most ${MAX_FPS}.`);
+
+/** "143.5" → 1435 (the regex above guarantees at most one decimal). */
+export function fpsToTenths(fps: string): number {
+	const [whole = '0', tenth = '0'] = fps.split('.');
+	return Number(whole) * 10 + Number(tenth || '0');
+}
+
+export function tenthsToFps(tenths: number): string {
+	return tenths % 10 === 0 ? String(tenths / 10) : `${Math.floor(tenths / 10)}.${tenths % 10}`;
+}
+
+export const frameResultInput = z
+	.strictObject({
+		workload: z.string().trim().min(1, 'Name the game or application.').max(120, 'At most 120 characters.'),
+		resolution: z.string().trim().regex(/^\d{3,5}x\d{3,5}$/, 'Enter a resolution like 2560x1440.'),
+		preset: z.string().trim().max(60, 'At most 60 characters.').default(''),
+		avgFps: fpsText('average FPS'),
+		/** Empty when the author did not measure it. */
+		low1Fps: z
+			.union([fpsText('1 % low FPS'), z.literal(''), z.null()])
+			.optional()
+			.transform((s) => (s ? s : null)),
+		notes: z.string().trim().max(500, 'At most 500 characters.').default('')
+	})
+	.superRefine((r, ctx) => {
+		if (r.low1Fps !== null && fpsToTenths(r.low1Fps) > fpsToTenths(r.avgFps)) {
+			ctx.addIssue({ code: 'custom', path: ['low1Fps'], message: 'The 1 % low cannot be above the average FPS.' });
+		}
+	});
+export type FrameResultInput = z.infer<typeof frameResultInput>;
+
+/** A whole number in [min, max] or null (not measured). */
+const reading = (what: string, max: number, unit: string) =>
+	z
+		.number({ message: `Enter the ${what} as a whole number.` })
+		.int(`Enter the ${what} as a whole number.`)
+		.min(0, `The ${what} cannot be below 0 ${unit}.`)
+		.max(max, `The ${what} must be at most ${max} ${unit}.`)
+		.nullable()
+		.default(null);
+
+export const thermalResultInput = z.strictObject({
+	loadName: z.string().trim().min(1, 'Name the load (e.g. a stress test or a game).').max(120, 'At most 120 characters.'),
+	cpuTempC: reading('CPU temperature', 120, '°C'),
+	gpuTempC: reading('GPU temperature', 120, '°C'),
+	cpuUtilPct: reading('CPU utilisation', 100, '%'),
+	gpuUtilPct: reading('GPU utilisation', 100, '%')
+});
+export type ThermalResultInput = z.infer<typeof thermalResultInput>;
+
 export const draftInput = z.strictObject({
 	...guideMetaFields,
 	buildNotes: buildNotesInput,
-	slots: z.array(slotInput).min(1, 'Add at least one slot.').max(40, 'At most 40 slots.')
+	slots: z.array(slotInput).min(1, 'Add at least one slot.').max(40, 'At most 40 slots.'),
+	/*
+	 * Left out (API clients that predate results) = keep the stored ones; a new revision then
+	 * copies them from the frozen one. Sent (the editor always sends them) = replace.
+	 */
+	frames: z.array(frameResultInput).max(30, 'At most 30 frame results.').optional(),
+	thermals: z.array(thermalResultInput).max(20, 'At most 20 thermal results.').optional()
 });
 export type DraftInput = z.infer<typeof draftInput>;
 /** What the editor form and GET draft hand around before parsing (same shape). */

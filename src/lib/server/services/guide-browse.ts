@@ -4,7 +4,8 @@
  * so a browse total is the very figure the guide page shows for the same region.
  *
  * Cost: with a region chosen every guide left after the tag and base-region filters is
- * priced (a budget or a total sort needs all of them). Fine for a community's few hundred
+ * priced (a budget, a total or a value sort needs all of them); a guide's frame results
+ * come with its pricing (getPriced goes through the guide page). Fine for a community's few hundred
  * guides; a batch pricing call in guides.ts is the next step when that grows.
  */
 import { minorUnitDigits } from '$lib/domain/money';
@@ -17,6 +18,11 @@ import type { GuideCard, RegionSummary } from './guide-views';
 export interface BrowseItem extends GuideCard {
 	/** The region `picksTotal` is priced in (the base region when none was chosen). */
 	pricedIn: RegionSummary;
+	/**
+	 * FPS per 100 units of `pricedIn`'s currency, the guide page's own figure (domain/value.ts):
+	 * null without frame results, without a complete total, or when no region was chosen.
+	 */
+	fpsPer100: number | null;
 }
 
 export interface BrowseResult {
@@ -53,8 +59,9 @@ export async function browse(query: GuideBrowseQuery, perPage = GUIDES_PER_PAGE)
 		const priced = await Promise.all(wanted.map((g) => inRegion(g, region.code)));
 		items = priced.filter((g): g is BrowseItem => g !== null).filter((g) => withinBudget(g, query.min, query.max));
 		if (query.sort === 'total') items.sort(byTotal);
+		if (query.sort === 'value') items.sort(byValue);
 	} else {
-		items = wanted.map((g) => ({ ...g, pricedIn: g.baseRegion }));
+		items = wanted.map((g) => ({ ...g, pricedIn: g.baseRegion, fpsPer100: null }));
 	}
 
 	const total = items.length;
@@ -68,7 +75,7 @@ export async function browse(query: GuideBrowseQuery, perPage = GUIDES_PER_PAGE)
 
 /** Home: the newest guides and the featured ones, in their base regions. */
 export async function homeLists(latestCount = 4): Promise<{ latest: BrowseItem[]; featured: BrowseItem[] }> {
-	const published = (await guides.listPublished()).sort(byNewest).map((g) => ({ ...g, pricedIn: g.baseRegion }));
+	const published = (await guides.listPublished()).sort(byNewest).map((g) => ({ ...g, pricedIn: g.baseRegion, fpsPer100: null }));
 	return { latest: published.slice(0, latestCount), featured: published.filter((g) => g.featured) };
 }
 
@@ -76,7 +83,9 @@ async function inRegion(card: GuideCard, regionCode: string): Promise<BrowseItem
 	const outcome = await guides.getPriced(card.slug, regionCode);
 	if (outcome.kind !== 'ok') return null;
 	const g = outcome.guide;
-	return { ...card, picksTotal: g.picksTotal, unpricedSlots: g.unpricedSlots, pricedIn: g.region };
+	// getPriced prices through the guide page, so the value is the one that page shows.
+	const fpsPer100 = g.value?.fpsPer100 ?? null;
+	return { ...card, picksTotal: g.picksTotal, unpricedSlots: g.unpricedSlots, pricedIn: g.region, fpsPer100 };
 }
 
 /**
@@ -102,5 +111,13 @@ function byTotal(a: BrowseItem, b: BrowseItem): number {
 	const x = a.picksTotal?.amountMinor ?? Number.POSITIVE_INFINITY;
 	const y = b.picksTotal?.amountMinor ?? Number.POSITIVE_INFINITY;
 	if (x !== y) return x < y ? -1 : 1;
+	return byNewest(a, b);
+}
+
+/** Highest FPS per 100 first; guides without a value (no frame results or no complete total) last, newest first among equals. */
+function byValue(a: BrowseItem, b: BrowseItem): number {
+	const x = a.fpsPer100 ?? Number.NEGATIVE_INFINITY;
+	const y = b.fpsPer100 ?? Number.NEGATIVE_INFINITY;
+	if (x !== y) return x > y ? -1 : 1;
 	return byNewest(a, b);
 }

@@ -5,8 +5,9 @@
  *
  * Revisions and states (decided here, see the report to the lead):
  * - The working copy is the guide's latest revision while its `submittedAt` is null.
- * - Submitting stamps `submittedAt`: that revision is frozen for good. The next save copies
- *   nothing from the client that it does not send: it creates revision N+1 from the input.
+ * - Submitting stamps `submittedAt`: that revision is frozen for good. The next save creates
+ *   revision N+1 from the input; only frame/thermal results the input leaves out (older API
+ *   clients) are copied from the frozen revision, as new rows.
  * - `guides.state` is the guide's public lifecycle. A guide with a published revision stays
  *   'published' (its `publishedRevisionId` stays live) while a newer revision is drafted or
  *   waits for review; the newest revision's own state is read from its timestamps
@@ -19,15 +20,19 @@ import { CATEGORY_LABELS } from '$lib/domain/types';
 import type { AlternateReason, PartCategory } from '$lib/domain/types';
 import {
 	GUIDE_TAGS,
+	fpsToTenths,
 	joinBuildNotes,
+	tenthsToFps,
 	splitBuildNotes,
 	type BuildNotesInput,
 	type CreateGuideInput,
 	type DraftInput,
+	type FrameResultInput,
 	type GuideDisclosure,
-	type GuideTag
+	type GuideTag,
+	type ThermalResultInput
 } from '$lib/schemas/guide-editor';
-import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, sequelize } from '$lib/server/db';
+import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, sequelize } from '$lib/server/db';
 import { renderMarkdown } from '$lib/server/markdown';
 
 export interface DraftPartRef {
@@ -49,6 +54,24 @@ export interface DraftSlotView {
 	alternates: { partId: number; part: DraftPartRef; reasonTag: AlternateReason; note: string }[];
 }
 
+/** A benchmark row as the editor shows it: FPS as decimal text ("143.5"), stored as tenths. */
+export interface DraftFrameView {
+	workload: string;
+	resolution: string;
+	preset: string;
+	avgFps: string;
+	low1Fps: string | null;
+	notes: string;
+}
+
+export interface DraftThermalView {
+	loadName: string;
+	cpuTempC: number | null;
+	gpuTempC: number | null;
+	cpuUtilPct: number | null;
+	gpuUtilPct: number | null;
+}
+
 /** The working copy as the editor and GET …/draft show it; `version` goes back with a save. */
 export interface DraftView {
 	slug: string;
@@ -64,6 +87,8 @@ export interface DraftView {
 	buildNotes: BuildNotesInput;
 	buildNotesHtml: string;
 	slots: DraftSlotView[];
+	frames: DraftFrameView[];
+	thermals: DraftThermalView[];
 	version: number;
 	state: string;
 	revisionNumber: number;
@@ -192,6 +217,9 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 				transaction
 			})) as LoadedSlot[])
 		: [];
+	const order: [string, string][] = [['position', 'ASC'], ['id', 'ASC']];
+	const frames = revision ? await FrameResult.findAll({ where: { revisionId: revision.id }, order, transaction }) : [];
+	const thermals = revision ? await ThermalResult.findAll({ where: { revisionId: revision.id }, order, transaction }) : [];
 	const published = guide.publishedRevisionId ? await GuideRevision.findByPk(guide.publishedRevisionId, { transaction }) : null;
 	const known = new Set<string>(GUIDE_TAGS);
 	return {
@@ -201,7 +229,7 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 		targetBudget: fromMinor(Number(guide.targetBudgetMinor), currency),
 		currency,
 		baseRegion: region?.code ?? '',
-		// Older tags outside the fixed list (e.g. seeded 'budget') are dropped on the next save.
+		// Tags outside the fixed list (older data) are dropped on the next save.
 		tags: (guide.tags ?? []).filter((t): t is GuideTag => known.has(t)),
 		disclosure: guide.disclosure,
 		disclosureNote: guide.disclosureNote,
@@ -224,6 +252,15 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 				: null,
 			alternates: s.alternates.map((a) => ({ partId: a.part.id, part: partRef(a.part), reasonTag: a.reasonTag, note: a.note }))
 		})),
+		frames: frames.map((f) => ({
+			workload: f.workload,
+			resolution: f.resolution,
+			preset: f.preset,
+			avgFps: tenthsToFps(f.avgFpsTenths),
+			low1Fps: f.low1FpsTenths === null ? null : tenthsToFps(f.low1FpsTenths),
+			notes: f.notes
+		})),
+		thermals: thermals.map((t) => ({ loadName: t.loadName, cpuTempC: t.cpuTempC, gpuTempC: t.gpuTempC, cpuUtilPct: t.cpuUtilPct, gpuUtilPct: t.gpuUtilPct })),
 		version: guide.version,
 		state: guide.state,
 		revisionNumber: revision?.number ?? 0,
@@ -308,10 +345,14 @@ export async function saveDraft(
 		let revision = await latestRevision(guide.id, transaction);
 		if (!revision || revision.submittedAt) {
 			// The latest revision is frozen (submitted or published): the save starts N+1.
+			const frozen = revision;
 			revision = await GuideRevision.create(
-				{ guideId: guide.id, number: (revision?.number ?? 0) + 1, buildNotesMd, buildNotesHtml, submittedAt: null, reviewedAt: null, publishedAt: null, reviewerId: null, reviewNote: null },
+				{ guideId: guide.id, number: (frozen?.number ?? 0) + 1, buildNotesMd, buildNotesHtml, submittedAt: null, reviewedAt: null, publishedAt: null, reviewerId: null, reviewNote: null },
 				{ transaction }
 			);
+			// Results the input leaves out are measurements of the same build: N+1 starts with
+			// copies of the frozen revision's rows (new rows; the frozen ones stay untouched).
+			if (frozen) await copyResults(frozen.id, revision.id, { frames: input.frames === undefined, thermals: input.thermals === undefined }, transaction);
 		} else {
 			await revision.update({ buildNotesMd, buildNotesHtml }, { transaction });
 			// Alternates go with their slots (ON DELETE CASCADE).
@@ -331,9 +372,62 @@ export async function saveDraft(
 				);
 			}
 		}
+		if (input.frames) await replaceFrames(revision.id, input.frames, transaction);
+		if (input.thermals) await replaceThermals(revision.id, input.thermals, transaction);
 		const fresh = await Guide.findByPk(guide.id, { transaction });
 		return { kind: 'saved', draft: await viewOf(fresh ?? guide, transaction) };
 	});
+}
+
+/** Replaces the revision's frame results with the input's rows, in input order. */
+async function replaceFrames(revisionId: number, frames: FrameResultInput[], transaction: Transaction): Promise<void> {
+	await FrameResult.destroy({ where: { revisionId }, transaction });
+	if (frames.length === 0) return;
+	await FrameResult.bulkCreate(
+		frames.map((f, i) => ({
+			revisionId,
+			position: i + 1,
+			workload: f.workload,
+			resolution: f.resolution,
+			preset: f.preset,
+			avgFpsTenths: fpsToTenths(f.avgFps),
+			low1FpsTenths: f.low1Fps === null ? null : fpsToTenths(f.low1Fps),
+			notes: f.notes
+		})),
+		{ transaction }
+	);
+}
+
+async function replaceThermals(revisionId: number, thermals: ThermalResultInput[], transaction: Transaction): Promise<void> {
+	await ThermalResult.destroy({ where: { revisionId }, transaction });
+	if (thermals.length === 0) return;
+	await ThermalResult.bulkCreate(
+		thermals.map((t, i) => ({ revisionId, position: i + 1, loadName: t.loadName, cpuTempC: t.cpuTempC, gpuTempC: t.gpuTempC, cpuUtilPct: t.cpuUtilPct, gpuUtilPct: t.gpuUtilPct })),
+		{ transaction }
+	);
+}
+
+/** Copies a frozen revision's results into a new revision (fresh rows, same order). */
+async function copyResults(fromId: number, toId: number, which: { frames: boolean; thermals: boolean }, transaction: Transaction): Promise<void> {
+	const order: [string, string][] = [['position', 'ASC'], ['id', 'ASC']];
+	if (which.frames) {
+		const rows = await FrameResult.findAll({ where: { revisionId: fromId }, order, transaction });
+		if (rows.length > 0) {
+			await FrameResult.bulkCreate(
+				rows.map((f) => ({ revisionId: toId, position: f.position, workload: f.workload, resolution: f.resolution, preset: f.preset, avgFpsTenths: f.avgFpsTenths, low1FpsTenths: f.low1FpsTenths, notes: f.notes })),
+				{ transaction }
+			);
+		}
+	}
+	if (which.thermals) {
+		const rows = await ThermalResult.findAll({ where: { revisionId: fromId }, order, transaction });
+		if (rows.length > 0) {
+			await ThermalResult.bulkCreate(
+				rows.map((t) => ({ revisionId: toId, position: t.position, loadName: t.loadName, cpuTempC: t.cpuTempC, gpuTempC: t.gpuTempC, cpuUtilPct: t.cpuUtilPct, gpuUtilPct: t.gpuUtilPct })),
+				{ transaction }
+			);
+		}
+	}
 }
 
 /** The author's quote for a pick: an identical existing quote is reused, else one is recorded (source 'author'). */

@@ -5,8 +5,10 @@ import { createGuide as createGuideDraft } from '$lib/server/api/guide-drafts';
 import type { RequestHandler } from './$types';
 
 /**
- * GET /api/v1/guides?region=&base=&min=&max=&tag=&tag=&sort=newest|total&page=
- * → { items, total, page, pageCount, region }. Budgets are whole units of `region`'s currency.
+ * GET /api/v1/guides?region=&base=&min=&max=&tag=&tag=&sort=newest|total|value&page=
+ * → { items, total, page, pageCount, region }. Budgets are whole units of `region`'s currency;
+ * sort=total and sort=value need `region` (400 otherwise). Each item's `fpsPer100` is the
+ * guide page's value in that region (null without frame results or a complete total; those sort last).
  */
 export const GET: RequestHandler = async ({ url }) => {
 	const parsed = parseGuideBrowseStrict(url.searchParams);
