@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { fieldIssues } from './issues.js';
+import { parseLenient, parseStrict, queryRecord, type Issues } from './query-params.js';
 
 /*
  * Guide browse (/guides and GET /api/v1/guides). Every value arrives as a URL string. The
@@ -92,58 +92,17 @@ export const guideBrowseQuery = guideBrowseFields.superRefine((input, ctx) => {
 });
 export type GuideBrowseQuery = z.output<typeof guideBrowseQuery>;
 
-/** URL parameters as a record; `tag` collects every value, any other repeated key is reported. */
-function queryRecord(params: URLSearchParams): { raw: Record<string, unknown>; repeated: string[] } {
-	const raw: Record<string, unknown> = {};
-	const repeated = new Set<string>();
-	for (const [key, value] of params) {
-		if (key === 'tag') {
-			((raw.tag ??= []) as string[]).push(value);
-			continue;
-		}
-		if (key in raw) repeated.add(key);
-		raw[key] = value;
-	}
-	// A blank tag field from a form means "no tag".
-	if (Array.isArray(raw.tag)) raw.tag = (raw.tag as string[]).filter((t) => t.trim() !== '');
-	return { raw, repeated: [...repeated] };
-}
-
 /** Strict parse for the API: any unknown or repeated parameter or bad value fails with field issues. */
-export function parseGuideBrowseStrict(
-	params: URLSearchParams
-): { ok: true; query: GuideBrowseQuery } | { ok: false; issues: Record<string, string[]> } {
-	const { raw, repeated } = queryRecord(params);
-	const parsed = guideBrowseQuery.safeParse(raw);
-	const issues = parsed.success ? {} : fieldIssues(parsed.error);
-	for (const key of repeated) (issues[key] ??= []).unshift(`Give ${key} only once.`);
-	if (parsed.success && repeated.length === 0) return { ok: true, query: parsed.data };
-	return { ok: false, issues };
+export function parseGuideBrowseStrict(params: URLSearchParams): { ok: true; query: GuideBrowseQuery } | { ok: false; issues: Issues } {
+	const { raw, repeated } = queryRecord(params, ['tag']);
+	return parseStrict(guideBrowseQuery, raw, repeated);
 }
 
 /**
  * Lenient parse for the page: each bad or unknown parameter is reported and dropped, so one
  * typo does not lose the rest of the search. A bad tag drops the tag filter as a whole.
  */
-export function parseGuideBrowseLenient(params: URLSearchParams): {
-	query: GuideBrowseQuery;
-	issues: Record<string, string[]>;
-} {
-	const { raw, repeated } = queryRecord(params);
-	const issues: Record<string, string[]> = {};
-	for (const key of repeated) (issues[key] ??= []).push(`${key} was given more than once; the last value is used.`);
-	let input = raw;
-	for (let round = 0; round < 4; round++) {
-		const parsed = guideBrowseQuery.safeParse(input);
-		if (parsed.success) return { query: parsed.data, issues };
-		const found = fieldIssues(parsed.error);
-		for (const [key, messages] of Object.entries(found)) {
-			// Array issues come as "tag.1": report them under the field.
-			const field = key.split('.')[0] ?? key;
-			(issues[field] ??= []).push(...messages);
-		}
-		const bad = new Set(Object.keys(found).map((k) => k.split('.')[0]));
-		input = Object.fromEntries(Object.entries(input).filter(([key]) => key in guideBrowseFields.shape && !bad.has(key)));
-	}
-	return { query: guideBrowseQuery.parse({}), issues };
+export function parseGuideBrowseLenient(params: URLSearchParams): { query: GuideBrowseQuery; issues: Issues } {
+	const { raw, repeated } = queryRecord(params, ['tag']);
+	return parseLenient(guideBrowseQuery, Object.keys(guideBrowseFields.shape), raw, repeated);
 }

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { CATEGORY_LABELS, PART_CATEGORIES } from '../domain/types.js';
 import type { PartCategory } from '../domain/types.js';
-import { fieldIssues } from './issues.js';
+import { parseLenient, parseStrict, queryRecord, type Issues } from './query-params.js';
 import {
 	BOARD_FORM_FACTORS,
 	MEMORY_TYPES,
@@ -181,55 +181,19 @@ export const partSearchQuery = partSearchFields
 export type PartSearchQuery = z.output<typeof partSearchQuery>;
 
 /**
- * URL parameters as a plain record. A parameter given twice is reported rather than
- * silently resolved: `repeated` lists such keys (the last value is kept).
- */
-export function queryRecord(params: URLSearchParams): { raw: Record<string, string>; repeated: string[] } {
-	const raw: Record<string, string> = {};
-	const repeated = new Set<string>();
-	for (const [key, value] of params) {
-		if (key in raw) repeated.add(key);
-		raw[key] = value;
-	}
-	return { raw, repeated: [...repeated] };
-}
-
-/**
  * Strict parse for the API: any unknown or repeated parameter, bad value or filter outside
  * the chosen category fails with field issues.
  */
-export function parsePartSearchStrict(
-	params: URLSearchParams
-): { ok: true; query: PartSearchQuery } | { ok: false; issues: Record<string, string[]> } {
+export function parsePartSearchStrict(params: URLSearchParams): { ok: true; query: PartSearchQuery } | { ok: false; issues: Issues } {
 	const { raw, repeated } = queryRecord(params);
-	const parsed = partSearchQuery.safeParse(raw);
-	const issues = parsed.success ? {} : fieldIssues(parsed.error);
-	for (const key of repeated) (issues[key] ??= []).unshift(`Give ${key} only once.`);
-	if (parsed.success && repeated.length === 0) return { ok: true, query: parsed.data };
-	return { ok: false, issues };
+	return parseStrict(partSearchQuery, raw, repeated);
 }
 
 /**
  * Lenient parse for the page: each bad or unknown parameter is reported and dropped, so
- * one typo in the address does not lose the rest of the search. Dropping a parameter can
- * make another invalid (a filter whose category was bad), hence the few rounds.
+ * one typo in the address does not lose the rest of the search.
  */
-export function parsePartSearchLenient(params: URLSearchParams): {
-	query: PartSearchQuery;
-	issues: Record<string, string[]>;
-} {
+export function parsePartSearchLenient(params: URLSearchParams): { query: PartSearchQuery; issues: Issues } {
 	const { raw, repeated } = queryRecord(params);
-	const issues: Record<string, string[]> = {};
-	for (const key of repeated) (issues[key] ??= []).push(`${key} was given more than once; the last value is used.`);
-	let input: Record<string, string> = raw;
-	for (let round = 0; round < 4; round++) {
-		const parsed = partSearchQuery.safeParse(input);
-		if (parsed.success) return { query: parsed.data, issues };
-		const found = fieldIssues(parsed.error);
-		for (const [key, messages] of Object.entries(found)) (issues[key] ??= []).push(...messages);
-		input = Object.fromEntries(
-			Object.entries(input).filter(([key]) => key in partSearchFields.shape && !(key in found))
-		);
-	}
-	return { query: partSearchQuery.parse({}), issues };
+	return parseLenient(partSearchQuery, Object.keys(partSearchFields.shape), raw, repeated);
 }
