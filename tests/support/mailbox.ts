@@ -5,26 +5,10 @@
  *   bash scripts/smtp-fake.sh start
  */
 
-export interface MailboxMessage {
-	id: string;
-	receivedAt: string;
-	date: string;
-	envelopeFrom: string | null;
-	/** SMTP envelope recipients: who the message was actually delivered to. */
-	to: string[];
-	from: string;
-	/** Addresses in the To header. */
-	headerTo: string[];
-	cc: string[];
-	bcc: string[];
-	subject: string;
-	text: string;
-	html: string;
-	/** Lower-case header name → unfolded value. */
-	headers: Record<string, string>;
-	attachments: { filename: string | null; contentType: string; sizeBytes: number }[];
-	sizeBytes: number;
-}
+/** A message as the fake stores and serves it (one definition, in the fake itself). */
+import type { StoredMessage } from '../../scripts/smtp-fake';
+
+export type MailboxMessage = StoredMessage;
 
 export function mailboxUrl(): string {
 	const url = process.env.MAILBOX_URL;

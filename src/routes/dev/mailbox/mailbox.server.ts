@@ -5,18 +5,10 @@
  */
 import { error } from '@sveltejs/kit';
 import { env } from '$env/dynamic/private';
+import type { StoredMessage } from '../../../../scripts/smtp-fake';
 
-export interface MailboxMessage {
-	id: string;
-	date: string;
-	/** SMTP envelope recipients. */
-	to: string[];
-	from: string;
-	subject: string;
-	text: string;
-	html: string;
-	headers: Record<string, string>;
-}
+/** The fields these pages show of a message the fake stores (type only: nothing of the script runs). */
+export type MailboxMessage = Pick<StoredMessage, 'id' | 'date' | 'to' | 'from' | 'subject' | 'text' | 'html' | 'headers'>;
 
 export type Fetched<T> = { ok: true; data: T } | { ok: false; status: number | null };
 

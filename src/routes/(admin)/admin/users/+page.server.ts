@@ -30,6 +30,13 @@ export const load: PageServerLoad = async ({ url }) => {
 	return { meId: me.id, query, issues, result };
 };
 
+/** The answer for a refused change; null when the change went through. */
+function refusal(outcome: users.Outcome, userId: string) {
+	if (outcome.kind === 'not_found') return fail(404, { problem: true, message: 'That account no longer exists.' });
+	if (outcome.kind === 'conflict') return fail(409, { problem: true, userId, message: outcome.message });
+	return null;
+}
+
 export const actions: Actions = {
 	changeRole: async ({ request }) => {
 		const me = requireRole('admin');
@@ -39,12 +46,7 @@ export const actions: Actions = {
 			return fail(400, { userId: fields.userId, issues: fieldIssues(input.error) });
 		}
 		const outcome = await users.changeRole(me.id, input.data.userId, input.data.role);
-		if (outcome.kind === 'not_found') {
-			return fail(404, { problem: true, message: 'That account no longer exists.' });
-		}
-		if (outcome.kind === 'conflict') {
-			return fail(409, { problem: true, userId: input.data.userId, message: outcome.message });
-		}
+		if (outcome.kind !== 'ok') return refusal(outcome, input.data.userId);
 		const name = outcome.user.name ?? outcome.user.email;
 		return {
 			userId: outcome.user.id,
@@ -60,12 +62,7 @@ export const actions: Actions = {
 			return fail(400, { userId: fields.userId, issues: fieldIssues(input.error) });
 		}
 		const outcome = await users.setDisabled(me.id, input.data.userId, input.data.disabled);
-		if (outcome.kind === 'not_found') {
-			return fail(404, { problem: true, message: 'That account no longer exists.' });
-		}
-		if (outcome.kind === 'conflict') {
-			return fail(409, { problem: true, userId: input.data.userId, message: outcome.message });
-		}
+		if (outcome.kind !== 'ok') return refusal(outcome, input.data.userId);
 		const name = outcome.user.name ?? outcome.user.email;
 		return {
 			userId: outcome.user.id,
