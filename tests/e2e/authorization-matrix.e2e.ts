@@ -29,6 +29,11 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(public)/guides/[slug=slug]': everyone('ok'),
 	'GET /(public)/parts': everyone('ok'),
 	'GET /(public)/parts/[slug=slug]': everyone('ok'),
+	// Signed in to report a price; the empty form the matrix posts is refused with 400 ("ok").
+	'POST /(public)/parts/[slug=slug]?/reportPrice': signedIn,
+	'GET /(editor)/editor/sightings': editors,
+	'POST /(editor)/editor/sightings?/verify': editors,
+	'POST /(editor)/editor/sightings?/reject': editors,
 	'GET /api/v1/parts': everyone('ok'),
 	'GET /api/v1/parts/[slug=slug]': everyone('ok'),
 	'GET /help': everyone('ok'),
@@ -36,6 +41,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /help/alternates-and-fit': everyone('ok'),
 	'GET /help/regional-pricing': everyone('ok'),
 	'GET /help/safety': everyone('ok'),
+	'GET /help/review': everyone('ok'),
 	'GET /help/api': everyone('ok'),
 	'GET /(public)/guides': everyone('ok'),
 	'GET /(public)/guides/feed.xml': everyone('ok'),
@@ -114,11 +120,35 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(admin)/admin/users': admins,
 	'POST /(admin)/admin/users?/changeRole': admins,
 	'POST /(admin)/admin/users?/setDisabled': admins,
+	// Content reports: the matrix posts an empty form (400 for signed-in people, nothing filed).
+	'POST /(public)/guides/[slug=slug]?/report': signedIn,
+	'GET /(editor)/editor/reports': editors,
+	'POST /(editor)/editor/reports?/dismiss': editors,
+	'POST /(editor)/editor/reports?/hide': editors,
+	'POST /(editor)/editor/reports?/restore': editors,
+	'GET /(admin)/admin/audit': admins,
+	// Review: the sample revision is a demo guide's published revision 1 (its page shows the
+	// decision already taken); the matrix's empty decision form is a 400 for editors.
+	'GET /(editor)/review': editors,
+	'GET /(editor)/review/[id=id]': editors,
+	'POST /(editor)/review/[id=id]?/decide': editors,
+	'GET /(editor)/review/guides': editors,
+	'GET /(editor)/review/guides/[slug=slug]': editors,
+	'POST /(editor)/review/guides/[slug=slug]?/moderate': editors,
 	// The development mailbox exists only while the local SMTP fake is in use (as here).
 	'GET /dev/mailbox': everyone('ok'),
 	'POST /dev/mailbox?/clear': everyone('ok'),
 	'GET /dev/mailbox/[id]': everyone('notfound'),
-	'GET /dev/mailbox/[id]/html': everyone('notfound')
+	'GET /dev/mailbox/[id]/html': everyone('notfound'),
+	'GET /(editor)/editor/cautions': editors,
+	'POST /(editor)/editor/cautions?/deactivate': editors,
+	'POST /(editor)/editor/cautions?/activate': editors,
+	'POST /(editor)/editor/cautions?/delete': editors,
+	'GET /(editor)/editor/cautions/new': editors,
+	'POST /(editor)/editor/cautions/new?/create': editors,
+	// The sample id is the first demo caution rule (seeder 2026.12.05T12.00.00.demo-caution-rules).
+	'GET /(editor)/editor/cautions/[id=id]': editors,
+	'POST /(editor)/editor/cautions/[id=id]?/save': editors
 };
 
 /*
@@ -130,7 +160,9 @@ const ROUTE_PARAMS: Record<string, Record<string, string>> = {
 	'/(public)/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
 	'/api/v1/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
 	'/(editor)/editor/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
-	'/(editor)/editor/regions/[code]': { code: 'us' }
+	'/(editor)/editor/regions/[code]': { code: 'us' },
+	'/(editor)/editor/cautions/[id=id]': { id: '1' },
+	'/(editor)/review/[id=id]': { id: '1' }
 };
 
 const SAMPLE_PARAMS: Record<string, string> = {

@@ -114,7 +114,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await page.getByRole('button', { name: 'Save and submit for review' }).click();
 	await expect(page).toHaveURL(/\/my\/guides\?submitted=/);
 	await expect(page.getByText('Submitted for review.')).toBeVisible();
-	await expect(page.getByRole('row', { name: new RegExp(title) })).toContainText('In review');
+	await expect(page.getByRole('article', { name: title }).getByTestId('guide-state')).toHaveText('In review');
 });
 
 async function authorPage(browser: Browser): Promise<Page> {

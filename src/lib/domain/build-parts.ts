@@ -35,6 +35,10 @@ export interface Finding {
 	message: string;
 	/** Keys of the slots involved (BuildPart.key). */
 	slots: string[];
+	/** Set on an editor's pairing caution (domain/pairing-cautions.ts): the rule's id. */
+	cautionRuleId?: number;
+	/** Set on an editor's pairing caution: the name of the editor who wrote the rule. */
+	authorName?: string;
 }
 
 const SEVERITY_RANK: Record<Severity, number> = { ok: 0, caution: 1, conflict: 2 };

@@ -13,7 +13,8 @@ import {
 	type PartInfo,
 	type Severity
 } from './build-parts';
-import { fitReport } from './fit';
+import { fitReport as fitReportOf } from './fit';
+import { pairingCautions, type CautionRule } from './pairing-cautions';
 
 export interface AlternateInput<C extends PartCategory = PartCategory> {
 	/** The caller's id for the alternate (e.g. the SlotAlternate row id). */
@@ -82,7 +83,9 @@ function pickPart(slot: GuideSlot): BuildPart {
  * One full report per alternate keeps it simple and exact (cross-slot effects such as the
  * PSU rating are included); bench/fit.ts times 60 alternates at under 1 ms.
  */
-export function dropIns(slots: readonly GuideSlot[]): DropInReport {
+export function dropIns(slots: readonly GuideSlot[], cautionRules: readonly CautionRule[] = []): DropInReport {
+	// Editors' pairing cautions join every report, so a swap can add or clear one too.
+	const fitReport = (build: BuildPart[]): Finding[] => [...fitReportOf(build), ...pairingCautions(build, cautionRules)];
 	const base: BuildPart[] = slots.map(pickPart);
 	const picks = fitReport(base);
 	const before = byIdentity(picks);

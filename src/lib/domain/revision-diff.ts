@@ -20,6 +20,8 @@ export interface SlotSnapshot {
 	pick: { id: number; name: string };
 	quantity: number;
 	reason: string;
+	/** The author's quoted price as shown ("USD 329.99 at Shop, 2026-11-20"); absent when not compared. */
+	price?: string | null;
 	alternates: AlternateSnapshot[];
 }
 
@@ -32,7 +34,8 @@ export interface RevisionSnapshot {
 export type FieldChange =
 	| { field: 'pick'; from: string; to: string }
 	| { field: 'quantity'; from: number; to: number }
-	| { field: 'reason'; from: string; to: string };
+	| { field: 'reason'; from: string; to: string }
+	| { field: 'price'; from: string; to: string };
 
 export interface AlternateChange {
 	kind: 'added' | 'removed' | 'changed';
@@ -102,6 +105,9 @@ export function revisionDiff(a: RevisionSnapshot, b: RevisionSnapshot): Revision
 		if (o.pick.id !== s.pick.id) fields.push({ field: 'pick', from: o.pick.name, to: s.pick.name });
 		if (o.quantity !== s.quantity) fields.push({ field: 'quantity', from: o.quantity, to: s.quantity });
 		if (o.reason !== s.reason) fields.push({ field: 'reason', from: o.reason, to: s.reason });
+		if (o.price !== undefined && s.price !== undefined && o.price !== s.price) {
+			fields.push({ field: 'price', from: o.price ?? 'no quote', to: s.price ?? 'no quote' });
+		}
 		const alternates = diffAlternates(o.alternates, s.alternates);
 		if (fields.length > 0 || alternates.length > 0) slots.push({ kind: 'changed', label: s.label, fields, alternates });
 	}

@@ -26,3 +26,8 @@ export function passwordResetChecks(ip: string, email: string): [LimiterName, st
 		['passwordResetByEmail', email]
 	];
 }
+
+/** Price sightings count per account: signed-in only, so the account is the key. */
+export function priceSightingChecks(userId: string): [LimiterName, string][] {
+	return [['priceSightingByUser', userId]];
+}

@@ -94,6 +94,13 @@ const POLICIES = {
 		points: 20,
 		durationSeconds: 60 * 60,
 		blockSeconds: 0
+	},
+	/** Price sightings reported by one account: 30 per hour (a shop visit's worth, not a script's). */
+	priceSightingByUser: {
+		keyPrefix: 'sighting_user',
+		points: 30,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
 	}
 } as const satisfies Record<string, LimitPolicy>;
 

@@ -64,14 +64,14 @@ export async function saveDraft({ params, request }: RequestEvent): Promise<Resp
 }
 
 /** POST /api/v1/guides/[slug]/submit { version } → 200 draft (frozen) | 409 | 400 */
-export async function submitDraft({ params, request }: RequestEvent): Promise<Response> {
+export async function submitDraft({ params, request, url }: RequestEvent): Promise<Response> {
 	const user = requireRole('author', 'editor');
 	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
 	const read = await body(request);
 	if (!read.ok) return read.response;
 	const input = submitInput.safeParse(read.value);
 	if (!input.success) return invalid(fieldIssues(input.error));
-	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version);
+	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version, { guidesUrl: new URL('/my/guides', url.origin).href });
 	switch (outcome.kind) {
 		case 'not_found':
 			return notFound();

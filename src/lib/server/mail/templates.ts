@@ -309,3 +309,65 @@ export function emailChangeRequested({ resetUrl }: { resetUrl: string }): MailTe
 		why: 'You got this e-mail because the Slotwise account with this address asked to change it. We always tell you when that happens.'
 	});
 }
+
+/** After an author submits a revision: it is in the review queue. */
+export function revisionSubmitted({ name, title, revision, url }: { name: string; title: string; revision: number; url: string }): MailTemplate {
+	return render({
+		subject: 'Your guide is in the review queue',
+		greeting: greetingFor(name),
+		before: [
+			`Revision ${revision} of "${title}" is waiting for an editor. Nothing is public or mailed to subscribers until an editor approves it; a revision that is already live stays up meanwhile.`,
+			'You will get an e-mail when an editor decides.'
+		],
+		actions: [{ label: 'See your guides', url }],
+		why: 'You got this e-mail because you submitted a guide revision on Slotwise.'
+	});
+}
+
+const DECISION_SUBJECTS = {
+	approve: 'Your guide revision was approved',
+	request_changes: 'An editor asked for changes to your guide',
+	decline: 'About your guide revision',
+	unpublish: 'Your guide was unpublished',
+	archive: 'Your guide was archived'
+} as const;
+
+/** An editor's decision on a revision (approve, request changes, decline) or on the guide (unpublish, archive). */
+export function reviewDecision({
+	name,
+	title,
+	revision,
+	decision,
+	note,
+	slotNotes = [],
+	url
+}: {
+	name: string;
+	title: string;
+	revision: number | null;
+	decision: keyof typeof DECISION_SUBJECTS;
+	note: string | null;
+	slotNotes?: { label: string; note: string }[];
+	url: string;
+}): MailTemplate {
+	const which = revision === null ? `"${title}"` : `revision ${revision} of "${title}"`;
+	const lead = {
+		approve: `An editor approved ${which}. It is now the live version of your guide.`,
+		request_changes: `An editor reviewed ${which} and asked for changes before it can go live. Edit the guide and submit it again.`,
+		decline: `An editor reviewed ${which} and declined it. The reason is below.`,
+		unpublish: `An editor unpublished ${which}: it is no longer public. Edit it and submit it again for review.`,
+		archive: `An editor archived ${which}: it is no longer public or editable.`
+	}[decision];
+	const trimmed = note?.trim();
+	return render({
+		subject: DECISION_SUBJECTS[decision],
+		greeting: greetingFor(name),
+		before: [
+			lead,
+			...(trimmed ? [`Note from the editor:\n${trimmed}`] : []),
+			...slotNotes.filter((s) => s.note.trim() !== '').map((s) => `${s.label}:\n${s.note.trim()}`)
+		],
+		actions: [{ label: decision === 'approve' ? 'See your guides' : 'Open your guides', url }],
+		why: 'You got this e-mail because you write guides on Slotwise and an editor decided on one of them.'
+	});
+}

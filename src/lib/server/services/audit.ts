@@ -3,8 +3,9 @@
  * Events are written inside the transaction of the change they describe, so a change
  * and its record commit or roll back together; nothing ever edits or deletes one.
  */
+import { Op, QueryTypes } from 'sequelize';
 import type { Transaction, WhereOptions } from 'sequelize';
-import { AuditEvent, User } from '$lib/server/db';
+import { AuditEvent, User, sequelize } from '$lib/server/db';
 import type { AuditSnapshot } from '$lib/server/db/models/AuditEvent';
 
 export type { AuditSnapshot } from '$lib/server/db/models/AuditEvent';
@@ -15,7 +16,23 @@ export const AUDIT_ACTIONS = [
 	'user.disabled',
 	'user.enabled',
 	'author_request.approved',
-	'author_request.declined'
+	'author_request.declined',
+	'price_sighting.verified',
+	'price_sighting.rejected',
+	'caution_rule.created',
+	'caution_rule.updated',
+	'caution_rule.deactivated',
+	'caution_rule.activated',
+	'caution_rule.deleted',
+	'content_report.dismissed',
+	'guide.hidden',
+	'guide.restored',
+	'guide_revision.approved',
+	'guide_revision.changes_requested',
+	'guide_revision.declined',
+	'guide.unpublished',
+	'guide.archived',
+	'review.self_review_override'
 ] as const;
 export type KnownAuditAction = (typeof AUDIT_ACTIONS)[number];
 
@@ -84,23 +101,47 @@ export async function record(event: AuditEventInput, transaction: Transaction): 
 	return toEntry(row, null);
 }
 
-/** Events newest first, optionally only one action or one actor's. `perPage` is capped at 100. */
+/**
+ * Events newest first, optionally filtered: one action, one actor (by id, or by a part of
+ * their e-mail, case-insensitive, wildcards literal), one subject type, and a time window
+ * `from` ≤ createdAt < `to`. `perPage` is capped at 100.
+ */
 export async function list(options: {
 	page: number;
 	perPage: number;
 	action?: string;
 	actorId?: string;
+	actorEmail?: string;
+	subjectType?: string;
+	from?: Date;
+	to?: Date;
 }): Promise<Paged<AuditEntry>> {
 	const perPage = Math.min(Math.max(1, Math.trunc(options.perPage)), 100);
 	const where: WhereOptions<AuditEvent> = {};
 	if (options.action) where.action = options.action;
 	if (options.actorId) where.actorId = options.actorId;
+	if (options.subjectType) where.subjectType = options.subjectType;
+	if (options.from || options.to) {
+		where.createdAt = {
+			...(options.from ? { [Op.gte]: options.from } : {}),
+			...(options.to ? { [Op.lt]: options.to } : {})
+		};
+	}
+	const email = options.actorEmail?.trim().toLowerCase();
+	// With an e-mail filter the actor join is required (events by the system or by a
+	// deleted account have no actor and cannot match).
+	const actorInclude = {
+		model: User,
+		as: 'actor',
+		attributes: ['id', 'name', 'email'],
+		...(email ? { required: true, where: { email: { [Op.like]: `%${escapeLike(email)}%` } } } : {})
+	};
 
-	const total = await AuditEvent.count({ where });
+	const total = await AuditEvent.count({ where, include: email ? [actorInclude] : [] });
 	const window = pageWindow(total, options.page, perPage);
 	const rows = await AuditEvent.findAll({
 		where,
-		include: [{ model: User, as: 'actor', attributes: ['id', 'name', 'email'] }],
+		include: [actorInclude],
 		order: [
 			['createdAt', 'DESC'],
 			['id', 'DESC']
@@ -129,4 +170,19 @@ function toEntry(row: AuditEvent, actor: User | null): AuditEntry {
 		after: row.after ?? null,
 		createdAt: row.createdAt.toISOString()
 	};
+}
+
+/** `%`, `_` and the escape character match literally in LIKE (MariaDB's default escape is `\`). */
+function escapeLike(text: string): string {
+	return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
+}
+
+/** The actions and subject types that occur in the trail (plus the known actions), for filter lists. */
+export async function filterChoices(): Promise<{ actions: string[]; subjectTypes: string[] }> {
+	const rows = await sequelize.query<{ action: string; subjectType: string }>(
+		'SELECT DISTINCT action, subject_type AS subjectType FROM audit_events',
+		{ type: QueryTypes.SELECT }
+	);
+	const actions = new Set<string>([...AUDIT_ACTIONS, ...rows.map((r) => r.action)]);
+	return { actions: [...actions].sort(), subjectTypes: [...new Set(rows.map((r) => r.subjectType))].sort() };
 }

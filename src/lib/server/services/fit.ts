@@ -3,6 +3,7 @@
  * parts are looked up, typed-in specs validated against their category's schema.
  */
 import { fitReport, summarize } from '$lib/domain/fit';
+import { pairingCautions } from '$lib/domain/pairing-cautions';
 import type { BuildPart, Finding, FindingCounts } from '$lib/domain/fit';
 import { powerBudget } from '$lib/domain/power';
 import type { PowerBudget } from '$lib/domain/power';
@@ -10,6 +11,7 @@ import { CATEGORY_LABELS } from '$lib/domain/types';
 import { SPEC_SCHEMAS } from '$lib/schemas/part-specs';
 import type { FitInput } from '$lib/schemas/fit';
 import { Part } from '$lib/server/db';
+import { activeRules } from './caution-rules';
 
 export interface FitResult {
 	findings: Finding[];
@@ -49,6 +51,7 @@ export async function check(input: FitInput): Promise<FitOutcome> {
 	});
 
 	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
-	const findings = fitReport(build);
+	// Editors' pairing cautions follow the built-in checks (one query for all rules).
+	const findings = [...fitReport(build), ...pairingCautions(build, await activeRules())];
 	return { kind: 'ok', result: { findings, summary: summarize(findings), power: powerBudget(build) } };
 }

@@ -32,8 +32,9 @@ import {
 	type GuideTag,
 	type ThermalResultInput
 } from '$lib/schemas/guide-editor';
-import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, sequelize } from '$lib/server/db';
+import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User, sequelize } from '$lib/server/db';
 import { renderMarkdown } from '$lib/server/markdown';
+import { sendToAuthor, submittedMail } from './review-mail';
 
 export interface DraftPartRef {
 	id: number;
@@ -313,6 +314,8 @@ export async function saveDraft(
 ): Promise<SaveOutcome> {
 	const guide = await ownGuide(authorId, slug);
 	if (!guide) return { kind: 'not_found' };
+	const closed = closedReason(guide);
+	if (closed) return { kind: 'invalid', issues: { _form: [closed] } };
 	const region = await Region.findOne({ where: { code: input.baseRegion } });
 	if (!region) return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
 	const budget = toMinor(input.targetBudget, region.currency);
@@ -453,15 +456,19 @@ async function quoteFor(
 }
 
 /** Freezes the working copy for review (submittedAt); guarded by the same version check. */
-export async function submit(authorId: string, slug: string, expectedVersion: number): Promise<SubmitOutcome> {
+export async function submit(authorId: string, slug: string, expectedVersion: number, links?: { guidesUrl: string }): Promise<SubmitOutcome> {
 	const guide = await ownGuide(authorId, slug);
 	if (!guide) return { kind: 'not_found' };
-	return sequelize.transaction(async (transaction): Promise<SubmitOutcome> => {
+	const closed = closedReason(guide);
+	if (closed) return { kind: 'invalid', issues: { _form: [closed] } };
+	const outcome = await sequelize.transaction(async (transaction): Promise<SubmitOutcome> => {
 		const revision = await latestRevision(guide.id, transaction);
 		if (!revision || revision.submittedAt) return { kind: 'invalid', issues: { _form: ['There is no draft to submit: save a change first.'] } };
 		const slotCount = await GuideSlot.count({ where: { revisionId: revision.id }, transaction });
 		if (slotCount === 0) return { kind: 'invalid', issues: { slots: ['Add at least one slot and save before submitting.'] } };
-		const state = guide.publishedRevisionId ? 'published' : 'in_review';
+		// A live guide stays live while the new revision waits; anything else waits in review.
+		// Only an editor's decision publishes (services/guide-reviews).
+		const state = guide.state === 'published' ? 'published' : 'in_review';
 		const [affected] = await Guide.update(
 			{ state, version: expectedVersion + 1 },
 			{ where: { id: guide.id, version: expectedVersion }, transaction }
@@ -471,6 +478,18 @@ export async function submit(authorId: string, slug: string, expectedVersion: nu
 		const fresh = await Guide.findByPk(guide.id, { transaction });
 		return { kind: 'submitted', draft: await viewOf(fresh ?? guide, transaction) };
 	});
+	if (outcome.kind === 'submitted' && links) {
+		const author = await User.findByPk(authorId, { attributes: ['email', 'name'] });
+		if (author) await sendToAuthor(author, submittedMail(author, outcome.draft.title, outcome.draft.revisionNumber, links.guidesUrl), 'revision_submitted');
+	}
+	return outcome;
+}
+
+/** Declined and archived guides are closed: the author can read them but not edit or resubmit. */
+function closedReason(guide: Guide): string | null {
+	if (guide.state === 'archived') return 'This guide was archived by an editor and can no longer be edited.';
+	if (guide.state === 'declined') return 'This guide was declined by an editor and can no longer be edited. Start a new guide instead.';
+	return null;
 }
 
 /** Sanitised HTML for the editor's preview; nothing is stored. */

@@ -156,6 +156,8 @@ export interface GuidePageExtras {
 }
 
 export interface GuidePage {
+	/** Set when an editor has hid the guide; only its author and editors get the page then. */
+	hidden?: { reason: string; hiddenAt: string } | null;
 	guide: PricedGuide;
 	extras: GuidePageExtras;
 }

@@ -9,17 +9,20 @@ import type { BuildPart } from '$lib/domain/build-parts';
 import { dropIns } from '$lib/domain/dropins';
 import type { DropInResult, DropInReport, GuideSlot as DropInSlot } from '$lib/domain/dropins';
 import { summarize } from '$lib/domain/fit';
+import type { CautionRule } from '$lib/domain/pairing-cautions';
 import { money, subtract } from '$lib/domain/money';
 import { powerBudget } from '$lib/domain/power';
 import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
-import type { RevisionSnapshot } from '$lib/domain/revision-diff';
 import { valueOf } from '$lib/domain/value';
 import { adjustToRegion } from '$lib/domain/region';
 import type { OptionInput, PricedLine, QuoteInput, RatesPerEur, RegionPricing, SlotInput } from '$lib/domain/region';
 import type { AlternateReason, PartCategory, TaxMode } from '$lib/domain/types';
 import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User } from '$lib/server/db';
 import * as fx from './fx';
+import { activeRules } from './caution-rules';
+import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
+import type { LoadedRevisionSlot, QuoteWithStore } from './revision-snapshots';
 import type {
 	DropInView,
 	FrameResultView,
@@ -39,7 +42,8 @@ export type { GuideCard, GuideDetail, GuidePage, PricedGuide } from './guide-vie
 /** Published guides, featured first, newest first, priced in their base regions. */
 export async function listPublished(): Promise<GuideCard[]> {
 	const guides = await Guide.findAll({
-		where: { state: 'published', publishedRevisionId: { [Op.ne]: null } },
+		// Hidden guides (services/content-reports) are left out of every public list.
+		where: { state: 'published', publishedRevisionId: { [Op.ne]: null }, hiddenAt: null },
 		include: guideIncludes(),
 		order: [
 			['featured', 'DESC'],
@@ -79,8 +83,13 @@ export type GuidePageOutcome = { kind: 'ok'; page: GuidePage } | { kind: 'not_fo
  * report, power budget, results, build notes and revision list. A constant number of
  * queries whatever the slot count (tests/integration/guide-page.spec.ts counts them).
  */
-export async function getGuidePage(slug: string, regionCode: string | null, now = new Date()): Promise<GuidePageOutcome> {
-	const guide = await findPublished(slug);
+export async function getGuidePage(
+	slug: string,
+	regionCode: string | null,
+	now = new Date(),
+	viewer: GuideViewer | null = null
+): Promise<GuidePageOutcome> {
+	const guide = await findPublished(slug, viewer);
 	if (!guide) return { kind: 'not_found' };
 	let target: Region | null = null;
 	if (regionCode) {
@@ -89,14 +98,15 @@ export async function getGuidePage(slug: string, regionCode: string | null, now 
 	}
 	const revision = guide.publishedRevision;
 	if (!revision) return { kind: 'not_found' };
-	const [frames, thermals, revisions] = await Promise.all([
+	const [frames, thermals, revisions, cautionRules] = await Promise.all([
 		FrameResult.findAll({ where: { revisionId: revision.id }, order: [['position', 'ASC'], ['id', 'ASC']] }),
 		ThermalResult.findAll({ where: { revisionId: revision.id }, order: [['position', 'ASC'], ['id', 'ASC']] }),
 		GuideRevision.findAll({
 			where: { guideId: guide.id, publishedAt: { [Op.ne]: null } },
 			attributes: ['number', 'publishedAt', 'submittedAt'],
 			order: [['number', 'ASC']]
-		})
+		}),
+		activeRules()
 	]);
 	const frameViews: FrameResultView[] = frames.map((f) => ({
 		workload: f.workload,
@@ -106,13 +116,14 @@ export async function getGuidePage(slug: string, regionCode: string | null, now 
 		low1Fps: f.low1FpsTenths === null ? null : f.low1FpsTenths / 10,
 		notes: f.notes
 	}));
-	const priced = await price(guide, target, { frames: frameViews, now });
+	const priced = await price(guide, target, { frames: frameViews, now, cautionRules });
 	if (!priced) return { kind: 'not_found' };
 	const { guide: pricedGuide, build, drop } = priced;
 	const slotLabels = Object.fromEntries(build.map((b) => [b.key, b.label]));
 	return {
 		kind: 'ok',
 		page: {
+			hidden: guide.hiddenAt ? { reason: guide.hiddenReason ?? '', hiddenAt: guide.hiddenAt.toISOString() } : null,
 			guide: { ...pricedGuide, regions: await listRegions() },
 			extras: {
 				fit: { findings: drop.picks, summary: summarize(drop.picks), slotLabels },
@@ -151,57 +162,46 @@ function safeHttpsUrl(url: string | null): string | null {
 export type RevisionDiffOutcome = { kind: 'ok'; diff: RevisionDiff } | { kind: 'not_found' };
 
 /** Differences between two published revisions of a published guide (three queries). */
-export async function getRevisionDiff(slug: string, from: number, to: number): Promise<RevisionDiffOutcome> {
+export async function getRevisionDiff(
+	slug: string,
+	from: number,
+	to: number,
+	viewer: GuideViewer | null = null
+): Promise<RevisionDiffOutcome> {
 	const guide = await Guide.findOne({
 		where: { slug, state: 'published', publishedRevisionId: { [Op.ne]: null } },
-		attributes: ['id']
+		attributes: ['id', 'authorId', 'hiddenAt']
 	});
-	if (!guide) return { kind: 'not_found' };
+	if (!guide || !mayView(guide, viewer)) return { kind: 'not_found' };
 	const revisions = await GuideRevision.findAll({
 		where: { guideId: guide.id, number: [from, to], publishedAt: { [Op.ne]: null } }
 	});
 	const a = revisions.find((r) => r.number === from);
 	const b = revisions.find((r) => r.number === to);
 	if (!a || !b) return { kind: 'not_found' };
-	const slots = (await GuideSlot.findAll({
-		where: { revisionId: [a.id, b.id] },
-		include: [
-			{ model: Part, as: 'pick' },
-			{ model: SlotAlternate, as: 'alternates', include: [{ model: Part, as: 'part' }] }
-		],
-		order: [
-			['position', 'ASC'],
-			[{ model: SlotAlternate, as: 'alternates' }, 'rank', 'ASC']
-		]
-	})) as LoadedSlot[];
-	const snapshot = (r: GuideRevision): RevisionSnapshot => ({
-		number: r.number,
-		buildNotesMd: r.buildNotesMd,
-		slots: slots
-			.filter((s) => s.revisionId === r.id)
-			.map((s) => ({
-				label: s.label,
-				category: s.category,
-				pick: { id: s.pick.id, name: `${s.pick.brand} ${s.pick.model}` },
-				quantity: s.quantity,
-				reason: s.reason,
-				alternates: s.alternates.map((alt) => ({
-					partId: alt.part.id,
-					name: `${alt.part.brand} ${alt.part.model}`,
-					rank: alt.rank,
-					reasonTag: alt.reasonTag,
-					note: alt.note
-				}))
-			}))
-	});
-	return { kind: 'ok', diff: revisionDiff(snapshot(a), snapshot(b)) };
+	const slots = await loadRevisionSlots([a.id, b.id]);
+	return { kind: 'ok', diff: revisionDiff(snapshotOf(a, slots), snapshotOf(b, slots)) };
 }
 
-async function findPublished(slug: string): Promise<LoadedGuide | null> {
-	return (await Guide.findOne({
+async function findPublished(slug: string, viewer: GuideViewer | null = null): Promise<LoadedGuide | null> {
+	const guide = (await Guide.findOne({
 		where: { slug, state: 'published', publishedRevisionId: { [Op.ne]: null } },
 		include: guideIncludes()
 	})) as LoadedGuide | null;
+	return guide && mayView(guide, viewer) ? guide : null;
+}
+
+/** Who is looking at a guide page: hidden guides are shown only to their author and editors. */
+export interface GuideViewer {
+	id: string;
+	role: string;
+}
+
+/** A hidden guide (services/content-reports) is a 404 for everyone but its author, editors and admins. */
+function mayView(guide: Pick<Guide, 'hiddenAt' | 'authorId'>, viewer: GuideViewer | null): boolean {
+	if (!guide.hiddenAt) return true;
+	if (!viewer) return false;
+	return viewer.role === 'editor' || viewer.role === 'admin' || viewer.id === guide.authorId;
 }
 
 function guideIncludes() {
@@ -213,27 +213,6 @@ function guideIncludes() {
 }
 
 type LoadedGuide = Guide & { author?: User | null; baseRegion?: Region; publishedRevision?: GuideRevision | null };
-type QuoteWithStore = Quote & { store: Store };
-type LoadedSlot = GuideSlot & {
-	pick: Part;
-	priceQuote: QuoteWithStore | null;
-	alternates: (SlotAlternate & { part: Part })[];
-};
-
-async function loadSlots(revisionId: number): Promise<LoadedSlot[]> {
-	return (await GuideSlot.findAll({
-		where: { revisionId },
-		include: [
-			{ model: Part, as: 'pick' },
-			{ model: Quote, as: 'priceQuote', include: [{ model: Store, as: 'store' }] },
-			{ model: SlotAlternate, as: 'alternates', include: [{ model: Part, as: 'part' }] }
-		],
-		order: [
-			['position', 'ASC'],
-			[{ model: SlotAlternate, as: 'alternates' }, 'rank', 'ASC']
-		]
-	})) as LoadedSlot[];
-}
 
 interface Priced {
 	guide: PricedGuide;
@@ -250,7 +229,7 @@ interface Priced {
 async function price(
 	guide: LoadedGuide,
 	target: Region | null,
-	detail: { frames: FrameResultView[]; now: Date } | null
+	detail: { frames: FrameResultView[]; now: Date; cautionRules?: CautionRule[] } | null
 ): Promise<Priced | null> {
 	const base = guide.baseRegion;
 	const revision = guide.publishedRevision;
@@ -258,7 +237,7 @@ async function price(
 	const region = target ?? base;
 	const inBase = region.id === base.id;
 
-	const slots = await loadSlots(revision.id);
+	const slots = await loadRevisionSlots([revision.id]);
 	const allPartIds = slots.flatMap((s) => [s.pick.id, ...s.alternates.map((a) => a.part.id)]);
 	const baseQuotes = await latestQuotes(allPartIds, base.id);
 	const targetQuotes = inBase ? baseQuotes : await latestQuotes(allPartIds, region.id);
@@ -292,7 +271,7 @@ async function price(
 	const build = dropSlots.map(
 		(d) => ({ key: d.key, label: d.label, category: d.category, quantity: d.quantity, part: d.pick }) as unknown as BuildPart
 	);
-	const drop: DropInReport = detail ? dropIns(dropSlots) : { picks: [], alternates: [] };
+	const drop: DropInReport = detail ? dropIns(dropSlots, detail.cautionRules) : { picks: [], alternates: [] };
 	const dropByAlternate = new Map(drop.alternates.map((r) => [r.alternateId, r]));
 
 	const slotViews: SlotView[] = slots.map((slot, i) => {
@@ -450,6 +429,8 @@ export interface AuthoredGuide {
 	state: string;
 	updatedAt: string;
 	published: boolean;
+	/** Set while an editor has hidden the guide: the reason its author is shown. */
+	hiddenReason: string | null;
 }
 
 /** The guides an author owns, in any state, most recently changed first. */
@@ -460,6 +441,7 @@ export async function listByAuthor(authorId: string): Promise<AuthoredGuide[]> {
 		title: g.title,
 		state: g.state,
 		updatedAt: g.updatedAt.toISOString(),
-		published: g.state === 'published' && g.publishedRevisionId !== null
+		published: g.state === 'published' && g.publishedRevisionId !== null,
+		hiddenReason: g.hiddenAt ? (g.hiddenReason ?? '') : null
 	}));
 }

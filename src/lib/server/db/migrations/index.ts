@@ -32,6 +32,15 @@ import * as mGuidesDisclosureNote from './2026.12.02T12.00.01.add-guides-disclos
 import * as mGuidesWalkthroughUrl from './2026.12.02T12.00.02.add-guides-walkthrough-url.js';
 import * as mFrameResults from './2026.12.04T10.00.00.create-frame-results.js';
 import * as mThermalResults from './2026.12.04T10.01.00.create-thermal-results.js';
+import * as mContentReports from './2026.12.05T11.00.00.create-content-reports.js';
+import * as mGuidesHiddenAt from './2026.12.05T11.01.00.add-guides-hidden-at.js';
+import * as mGuidesHiddenReason from './2026.12.05T11.02.00.add-guides-hidden-reason.js';
+import * as mGuidesHiddenBy from './2026.12.05T11.03.00.add-guides-hidden-by.js';
+import * as mReviews from './2026.12.05T09.00.00.create-reviews.js';
+import * as mPriceSightings from './2026.12.05T10.00.00.create-price-sightings.js';
+import * as mPriceSightingReports from './2026.12.05T10.01.00.create-price-sighting-reports.js';
+import * as mCautionRules from './2026.12.05T12.00.00.create-caution-rules.js';
+import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -62,4 +71,13 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.02T12.00.02.add-guides-walkthrough-url': mGuidesWalkthroughUrl,
 	'2026.12.04T10.00.00.create-frame-results': mFrameResults,
 	'2026.12.04T10.01.00.create-thermal-results': mThermalResults,
+	'2026.12.05T09.00.00.create-reviews': mReviews,
+	'2026.12.05T11.00.00.create-content-reports': mContentReports,
+	'2026.12.05T11.01.00.add-guides-hidden-at': mGuidesHiddenAt,
+	'2026.12.05T11.02.00.add-guides-hidden-reason': mGuidesHiddenReason,
+	'2026.12.05T11.03.00.add-guides-hidden-by': mGuidesHiddenBy,
+	'2026.12.05T10.00.00.create-price-sightings': mPriceSightings,
+	'2026.12.05T10.01.00.create-price-sighting-reports': mPriceSightingReports,
+	'2026.12.05T12.00.00.create-caution-rules': mCautionRules,
+	'2026.12.06T09.00.00.create-builds': mBuilds,
 };

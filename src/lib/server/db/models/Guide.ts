@@ -28,6 +28,10 @@ export class Guide extends Model<InferAttributes<Guide>, InferCreationAttributes
 	declare disclosureNote: CreationOptional<string | null>;
 	/** Optional https link to the author's external build walkthrough. */
 	declare walkthroughUrl: CreationOptional<string | null>;
+	/** Set while an editor has hidden the guide after a content report (services/content-reports). */
+	declare hiddenAt: CreationOptional<Date | null>;
+	declare hiddenReason: CreationOptional<string | null>;
+	declare hiddenById: CreationOptional<string | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -47,6 +51,9 @@ export function initGuide(sequelize: Sequelize) {
 			disclosure: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'none' },
 			disclosureNote: { type: DataTypes.TEXT, allowNull: true },
 			walkthroughUrl: { type: DataTypes.STRING(500), allowNull: true },
+			hiddenAt: { type: DataTypes.DATE, allowNull: true },
+			hiddenReason: { type: DataTypes.TEXT, allowNull: true },
+			hiddenById: { type: DataTypes.UUID, allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

@@ -21,6 +21,8 @@ export class GuideRevision extends Model<
 	declare publishedAt: Date | null;
 	declare reviewerId: ForeignKey<User['id']> | null;
 	declare reviewNote: string | null;
+	/** The editor's decision on this revision once reviewed (a copy of its Review row's). */
+	declare decision: CreationOptional<'approve' | 'request_changes' | 'decline' | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -36,6 +38,7 @@ export function initGuideRevision(sequelize: Sequelize) {
 			reviewedAt: { type: DataTypes.DATE, allowNull: true },
 			publishedAt: { type: DataTypes.DATE, allowNull: true },
 			reviewNote: { type: DataTypes.TEXT, allowNull: true },
+			decision: { type: DataTypes.STRING(20), allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

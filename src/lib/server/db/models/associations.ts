@@ -5,15 +5,23 @@
 import { Account } from './Account.js';
 import { AuditEvent } from './AuditEvent.js';
 import { AuthorRequest } from './AuthorRequest.js';
+import { Build } from './Build.js';
+import { BuildSlot } from './BuildSlot.js';
+import { BuildSync } from './BuildSync.js';
 import { CatalogImport } from './CatalogImport.js';
+import { CautionRule } from './CautionRule.js';
+import { ContentReport } from './ContentReport.js';
 import { Guide } from './Guide.js';
 import { FrameResult } from './FrameResult.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
 import { Part } from './Part.js';
+import { PriceSighting } from './PriceSighting.js';
+import { PriceSightingReport } from './PriceSightingReport.js';
 import { Quote } from './Quote.js';
 import { Region } from './Region.js';
 import { RegionTaxRate } from './RegionTaxRate.js';
+import { Review } from './Review.js';
 import { Session } from './Session.js';
 import { SlotAlternate } from './SlotAlternate.js';
 import { ThermalResult } from './ThermalResult.js';
@@ -41,6 +49,10 @@ export function applyAssociations() {
 
 	GuideRevision.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
 	GuideRevision.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
+	Guide.hasMany(Review, { foreignKey: 'guideId', as: 'reviews' });
+	Review.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
+	Review.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	Review.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
 	GuideRevision.hasMany(GuideSlot, { foreignKey: 'revisionId', as: 'slots' });
 	GuideRevision.hasMany(FrameResult, { foreignKey: 'revisionId', as: 'frameResults' });
 	GuideRevision.hasMany(ThermalResult, { foreignKey: 'revisionId', as: 'thermalResults' });
@@ -69,4 +81,31 @@ export function applyAssociations() {
 	RegionTaxRate.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
 
 	CatalogImport.belongsTo(User, { foreignKey: 'editorId', as: 'editor' });
+
+	ContentReport.belongsTo(User, { foreignKey: 'reporterId', as: 'reporter' });
+	ContentReport.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
+
+	PriceSighting.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+	PriceSighting.belongsTo(Store, { foreignKey: 'storeId', as: 'store' });
+	PriceSighting.belongsTo(Region, { foreignKey: 'regionId', as: 'region' });
+	PriceSighting.belongsTo(User, { foreignKey: 'submittedById', as: 'submittedBy' });
+	PriceSighting.belongsTo(User, { foreignKey: 'decidedById', as: 'decidedBy' });
+	PriceSighting.belongsTo(Quote, { foreignKey: 'quoteId', as: 'quote' });
+	PriceSighting.hasMany(PriceSightingReport, { foreignKey: 'sightingId', as: 'reports' });
+	PriceSightingReport.belongsTo(PriceSighting, { foreignKey: 'sightingId', as: 'sighting' });
+	PriceSightingReport.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+
+	CautionRule.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+
+	User.hasMany(Build, { foreignKey: 'ownerId', as: 'builds' });
+	Build.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
+	Build.belongsTo(Guide, { foreignKey: 'sourceGuideId', as: 'sourceGuide' });
+	Guide.hasMany(Build, { foreignKey: 'sourceGuideId', as: 'forks' });
+	Build.belongsTo(GuideRevision, { foreignKey: 'baseRevisionId', as: 'baseRevision' });
+	Build.belongsTo(Region, { foreignKey: 'regionId', as: 'region' });
+	Build.hasMany(BuildSlot, { foreignKey: 'buildId', as: 'slots' });
+	BuildSlot.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
+	BuildSlot.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+	Build.hasMany(BuildSync, { foreignKey: 'buildId', as: 'syncs' });
+	BuildSync.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
 }

@@ -3,7 +3,12 @@ import { Account, initAccount } from './Account.js';
 import { applyAssociations } from './associations.js';
 import { AuditEvent, initAuditEvent } from './AuditEvent.js';
 import { AuthorRequest, initAuthorRequest } from './AuthorRequest.js';
+import { Build, initBuild } from './Build.js';
+import { BuildSlot, initBuildSlot } from './BuildSlot.js';
+import { BuildSync, initBuildSync } from './BuildSync.js';
 import { CatalogImport, initCatalogImport } from './CatalogImport.js';
+import { CautionRule, initCautionRule } from './CautionRule.js';
+import { ContentReport, initContentReport } from './ContentReport.js';
 import { EmailToken, initEmailToken } from './EmailToken.js';
 import { FrameResult, initFrameResult } from './FrameResult.js';
 import { FxRate, initFxRate } from './FxRate.js';
@@ -11,8 +16,11 @@ import { Guide, initGuide } from './Guide.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
 import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
+import { PriceSighting, initPriceSighting } from './PriceSighting.js';
+import { PriceSightingReport, initPriceSightingReport } from './PriceSightingReport.js';
 import { Quote, initQuote } from './Quote.js';
 import { Region, initRegion } from './Region.js';
+import { Review, initReview } from './Review.js';
 import { RegionTaxRate, initRegionTaxRate } from './RegionTaxRate.js';
 import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
@@ -25,7 +33,12 @@ export {
 	Account,
 	AuditEvent,
 	AuthorRequest,
+	Build,
+	BuildSlot,
+	BuildSync,
 	CatalogImport,
+	CautionRule,
+	ContentReport,
 	EmailToken,
 	FrameResult,
 	FxRate,
@@ -33,9 +46,12 @@ export {
 	GuideRevision,
 	GuideSlot,
 	Part,
+	PriceSighting,
+	PriceSightingReport,
 	Quote,
 	Region,
 	RegionTaxRate,
+	Review,
 	Session,
 	SlotAlternate,
 	Store,
@@ -65,5 +81,13 @@ export function initModels(sequelize: Sequelize) {
 	initRegionTaxRate(sequelize);
 	initFrameResult(sequelize);
 	initThermalResult(sequelize);
+	initReview(sequelize);
+	initContentReport(sequelize);
+	initPriceSighting(sequelize);
+	initPriceSightingReport(sequelize);
+	initCautionRule(sequelize);
+	initBuild(sequelize);
+	initBuildSlot(sequelize);
+	initBuildSync(sequelize);
 	applyAssociations();
 }

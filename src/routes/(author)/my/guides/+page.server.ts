@@ -1,8 +1,8 @@
 import { requireRole } from '$lib/server/auth/guards';
-import * as guides from '$lib/server/services/guides';
+import * as reviews from '$lib/server/services/guide-reviews';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const user = requireRole('author', 'editor');
-	return { guides: await guides.listByAuthor(user.id) };
+	return { guides: await reviews.authorDashboard(user.id) };
 };

@@ -68,11 +68,11 @@ export const actions: Actions = {
 		return { saved: true, version: result.version, revisionNumber: result.revisionNumber };
 	},
 	/** Saves what is in the form, then freezes it as a revision for review. */
-	submit: async ({ params, request }) => {
+	submit: async ({ params, request, url }) => {
 		const user = await owned(params.slug);
 		const result = await save(user.id, params.slug, await request.formData());
 		if (!result.ok) return result.failure;
-		const outcome = await drafts.submit(user.id, params.slug, result.version);
+		const outcome = await drafts.submit(user.id, params.slug, result.version, { guidesUrl: new URL('/my/guides', url.origin).href });
 		if (outcome.kind === 'not_found') error(404, 'Guide not found');
 		if (outcome.kind === 'invalid' || outcome.kind === 'conflict') {
 			return fail(outcome.kind === 'conflict' ? 409 : 400, { version: result.version, issues: outcome.kind === 'invalid' ? outcome.issues : { _form: ['Changed elsewhere; reload and submit again.'] } });

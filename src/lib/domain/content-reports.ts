@@ -1,0 +1,29 @@
+/*
+ * Content reports: what can be reported and why. Plain data shared by the zod schema, the
+ * service and the pages (no framework imports).
+ */
+
+/** Every kind of content a report may name. Only guides exist today (see SUBJECT_READY). */
+export const REPORT_SUBJECT_TYPES = ['guide', 'build', 'photo'] as const;
+export type ReportSubjectType = (typeof REPORT_SUBJECT_TYPES)[number];
+
+/** The fixed list of reasons a reader picks from, with the words the form shows. */
+export const REPORT_CATEGORIES = {
+	unsafe: 'Unsafe advice (electrical, thermal or handling risk)',
+	misleading: 'Wrong or misleading information',
+	undisclosed: 'Undisclosed sponsorship or affiliate links',
+	spam: 'Spam or advertising',
+	offensive: 'Offensive or abusive content',
+	other: 'Something else'
+} as const;
+export type ReportCategory = keyof typeof REPORT_CATEGORIES;
+export const REPORT_CATEGORY_KEYS = Object.keys(REPORT_CATEGORIES) as [ReportCategory, ...ReportCategory[]];
+
+/** Open until an editor decides; `dismissed` (no action) or `actioned` (content hidden). */
+export const REPORT_STATES = ['open', 'dismissed', 'actioned'] as const;
+export type ReportState = (typeof REPORT_STATES)[number];
+
+export const REPORT_DETAIL_MIN_CHARS = 10;
+export const REPORT_DETAIL_MAX_CHARS = 1000;
+export const HIDE_REASON_MIN_CHARS = 10;
+export const HIDE_REASON_MAX_CHARS = 500;

@@ -1,0 +1,41 @@
+import { error, fail } from '@sveltejs/kit';
+import { fieldIssues } from '$lib/schemas/issues';
+import { decisionInput } from '$lib/schemas/review';
+import { requireRole } from '$lib/server/auth/guards';
+import * as reviews from '$lib/server/services/guide-reviews';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params, url }) => {
+	const me = requireRole('editor');
+	const review = await reviews.getReview(me, Number(params.id), url.host);
+	if (!review) error(404, 'No submitted revision with that number');
+	return { review };
+};
+
+/** The form's slot notes come as parallel slotLabel / slotNote fields, one pair per slot. */
+function decisionFields(data: FormData) {
+	const labels = data.getAll('slotLabel').map(String);
+	const notes = data.getAll('slotNote').map(String);
+	return {
+		decision: data.get('decision') ?? undefined,
+		note: data.get('note') ?? undefined,
+		slotNotes: labels.map((label, i) => ({ label, note: notes[i] ?? '' }))
+	};
+}
+
+export const actions: Actions = {
+	decide: async ({ params, request, url }) => {
+		const me = requireRole('editor');
+		const fields = decisionFields(await request.formData());
+		const input = decisionInput.safeParse(fields);
+		const echo = { note: String(fields.note ?? ''), slotNotes: fields.slotNotes };
+		if (!input.success) return fail(400, { ...echo, issues: fieldIssues(input.error) });
+		const outcome = await reviews.decide(me, Number(params.id), input.data, { guidesUrl: new URL('/my/guides', url.origin).href });
+		if (outcome.kind === 'not_found') error(404, 'No submitted revision with that number');
+		if (outcome.kind === 'forbidden') return fail(403, { ...echo, problem: true, message: outcome.message });
+		if (outcome.kind === 'conflict') return fail(409, { ...echo, problem: true, message: outcome.message });
+		const done = { approve: 'Approved: this revision is now live.', request_changes: 'Sent back to the author with your notes.', decline: 'Declined.' }[input.data.decision];
+		const mailed = outcome.mailed ? 'The author has been told by e-mail.' : 'The e-mail to the author could not be sent; the decision is saved.';
+		return { problem: !outcome.mailed, message: `${done} ${mailed}` };
+	}
+};

@@ -1,0 +1,14 @@
+import { parseLenient, queryRecord } from '$lib/schemas/query-params';
+import { guideStateQuery } from '$lib/schemas/review';
+import { requireRole } from '$lib/server/auth/guards';
+import * as reviews from '$lib/server/services/guide-reviews';
+import type { PageServerLoad } from './$types';
+
+const KEYS = ['page', 'state', 'q'] as const;
+
+export const load: PageServerLoad = async ({ url }) => {
+	requireRole('editor');
+	const { raw, repeated } = queryRecord(url.searchParams);
+	const { query, issues } = parseLenient(guideStateQuery, KEYS, raw, repeated);
+	return { guides: await reviews.listGuides(query), query, issues };
+};
