@@ -1,4 +1,5 @@
 import { expect, test } from '@playwright/test';
+import { BASE_URL } from '../playwright.config';
 import { firstLink, waitForMessage } from '../support/mailbox';
 import { DEMO_PASSWORD, sessionOf, signInWithPassword, uniqueEmail } from './support';
 
@@ -117,7 +118,7 @@ test('20 bad passwords from one address get 429, and the owner can still sign in
 	for (let i = 0; i < 20; i++) {
 		const response = await page.request.post('/signin?/password', {
 			form: { email, password: `wrong guess number ${i}` },
-			headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html' }
+			headers: { origin: BASE_URL, accept: 'text/html' }
 		});
 		statuses.push(response.status());
 		if (response.status() === 429) retryAfter = response.headers()['retry-after'] ?? null;
@@ -129,7 +130,7 @@ test('20 bad passwords from one address get 429, and the owner can still sign in
 	// Even the right password is refused while the block lasts…
 	const blocked = await page.request.post('/signin?/password', {
 		form: { email, password: DEMO_PASSWORD },
-		headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html' }
+		headers: { origin: BASE_URL, accept: 'text/html' }
 	});
 	expect(blocked.status()).toBe(429);
 

@@ -135,6 +135,25 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(editor)/review/guides': editors,
 	'GET /(editor)/review/guides/[slug=slug]': editors,
 	'POST /(editor)/review/guides/[slug=slug]?/moderate': editors,
+	// Builds: the sample id names no build, so the page answers 404 to everyone (private builds
+	// of others answer exactly the same); edits need a signed-in owner (the empty form is a 400).
+	'GET /(public)/builds/[id=id]': everyone('notfound'),
+	'GET /(public)/builds/[id=id]/print': everyone('notfound'),
+	'GET /(public)/builds/[id=id]/export.csv': everyone('notfound'),
+	'POST /(public)/builds/[id=id]?/swap': signedIn,
+	'POST /(public)/builds/[id=id]?/quantity': signedIn,
+	'POST /(public)/builds/[id=id]?/override': signedIn,
+	'POST /(public)/builds/[id=id]?/purchase': signedIn,
+	'POST /(public)/builds/[id=id]?/removeSlot': signedIn,
+	'POST /(public)/builds/[id=id]?/addSlot': signedIn,
+	'POST /(public)/builds/[id=id]?/settings': signedIn,
+	'POST /(public)/builds/[id=id]?/sync': signedIn,
+	'POST /(public)/builds/[id=id]?/undoSync': signedIn,
+	'POST /(public)/builds/[id=id]?/proposeBudget': signedIn,
+	'POST /(public)/builds/[id=id]?/applyBudget': signedIn,
+	'GET /(account)/builds': signedIn,
+	'GET /(account)/builds/new': signedIn,
+	'POST /(account)/builds/new?/default': signedIn,
 	// The development mailbox exists only while the local SMTP fake is in use (as here).
 	'GET /dev/mailbox': everyone('ok'),
 	'POST /dev/mailbox?/clear': everyone('ok'),
@@ -148,7 +167,25 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(editor)/editor/cautions/new?/create': editors,
 	// The sample id is the first demo caution rule (seeder 2026.12.05T12.00.00.demo-caution-rules).
 	'GET /(editor)/editor/cautions/[id=id]': editors,
-	'POST /(editor)/editor/cautions/[id=id]?/save': editors
+	'POST /(editor)/editor/cautions/[id=id]?/save': editors,
+	// Build sync and within budget (owner only): the sample build id does not exist, so signed-in
+	// people get 404 and visitors 401 from requireUser; the form POSTs are refused with 415 before auth.
+	'GET /api/v1/builds/[id=id]/sync': { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' },
+	'POST /api/v1/builds/[id=id]/sync': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/sync/undo': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/within-budget': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/within-budget/apply': everyone('ok'),
+	// Builds JSON API (services/builds.ts): the sample build id does not exist, so GET answers 401
+	// to visitors (requireUser) and 404 to everyone signed in; the CSV export follows the build's
+	// own visibility (visitors may export a public or linked build), so a missing build is 404 for
+	// all. The form bodies the matrix sends to PATCH/POST/DELETE are refused with 415 before auth.
+	'POST /api/v1/guides/[slug=slug]/fork': everyone('ok'),
+	'GET /api/v1/builds/[id=id]': { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' },
+	'PATCH /api/v1/builds/[id=id]': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/slots': everyone('ok'),
+	'PATCH /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
+	'DELETE /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
+	'GET /api/v1/builds/[id=id]/export.csv': everyone('notfound')
 };
 
 /*
@@ -162,7 +199,16 @@ const ROUTE_PARAMS: Record<string, Record<string, string>> = {
 	'/(editor)/editor/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
 	'/(editor)/editor/regions/[code]': { code: 'us' },
 	'/(editor)/editor/cautions/[id=id]': { id: '1' },
-	'/(editor)/review/[id=id]': { id: '1' }
+	'/(editor)/review/[id=id]': { id: '1' },
+	'/(public)/builds/[id=id]': { id: '999999' },
+	'/(public)/builds/[id=id]/print': { id: '999999' },
+	'/(public)/builds/[id=id]/export.csv': { id: '999999' },
+	// No build has this id in the seeded database (the id matcher refuses the UUID sample).
+	'/api/v1/builds/[id=id]/sync': { id: '999999' },
+	'/api/v1/builds/[id=id]': { id: '999999' },
+	'/api/v1/builds/[id=id]/slots': { id: '999999' },
+	'/api/v1/builds/[id=id]/slots/[slotId=id]': { id: '999999', slotId: '999999' },
+	'/api/v1/builds/[id=id]/export.csv': { id: '999999' }
 };
 
 const SAMPLE_PARAMS: Record<string, string> = {

@@ -1,4 +1,5 @@
 import { expect, test } from '@playwright/test';
+import { BASE_URL } from '../playwright.config';
 import { signInWithPassword } from './support';
 
 /* SECURITY-CHECKLIST.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
@@ -20,7 +21,7 @@ test("Auth.js's own POST endpoints are closed: sign-in only runs through our val
 	for (const path of ['/auth/callback/credentials', '/auth/signin/nodemailer', '/auth/signout']) {
 		const response = await request.post(path, {
 			form: { email: 'reader@slotwise.test', password: 'slotwise-demo-password' },
-			headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html' },
+			headers: { origin: BASE_URL, accept: 'text/html' },
 			maxRedirects: 0
 		});
 		expect(response.status(), path).toBe(404);
@@ -30,7 +31,7 @@ test("Auth.js's own POST endpoints are closed: sign-in only runs through our val
 test('JSON API routes refuse non-JSON bodies with 415', async ({ request }) => {
 	const response = await request.post('/api/health', {
 		data: 'status=ok',
-		headers: { 'content-type': 'text/plain', origin: 'http://127.0.0.1:4173' }
+		headers: { 'content-type': 'text/plain', origin: BASE_URL }
 	});
 	expect(response.status()).toBe(415);
 	expect(await response.json()).toMatchObject({ message: expect.stringMatching(/JSON/) });
@@ -68,7 +69,7 @@ test('a spoofed X-Forwarded-For does not change who the rate limiter counts', as
 	for (let i = 0; i < 12; i++) {
 		const response = await request.post('/signin?/password', {
 			form: { email, password: `not it ${i}` },
-			headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html', 'x-forwarded-for': `203.0.113.${i}` }
+			headers: { origin: BASE_URL, accept: 'text/html', 'x-forwarded-for': `203.0.113.${i}` }
 		});
 		last = response.status();
 	}
@@ -78,7 +79,7 @@ test('a spoofed X-Forwarded-For does not change who the rate limiter counts', as
 test('a body over 512 KB is refused with 413 outside the catalog import', async ({ request }) => {
 	const response = await request.post('/signup', {
 		form: { name: 'x', email: 'big@example.test', password: 'y'.repeat(600 * 1024) },
-		headers: { origin: 'http://127.0.0.1:4173', accept: 'text/html' }
+		headers: { origin: BASE_URL, accept: 'text/html' }
 	});
 	expect(response.status()).toBe(413);
 });

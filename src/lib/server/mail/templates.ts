@@ -371,3 +371,31 @@ export function reviewDecision({
 		why: 'You got this e-mail because you write guides on Slotwise and an editor decided on one of them.'
 	});
 }
+
+/** To a build's owner: the guide the build was forked from has a newer published revision. */
+export function guideRevisionForBuilds({
+	name,
+	guideTitle,
+	revision,
+	builds
+}: {
+	name: string;
+	guideTitle: string;
+	revision: number;
+	builds: { title: string; url: string }[];
+}): MailTemplate {
+	const one = builds.length === 1;
+	return render({
+		subject: 'A guide you built from has a new revision',
+		greeting: greetingFor(name),
+		before: [
+			`Revision ${revision} of "${guideTitle}" is now published.`,
+			one
+				? `Your build "${builds[0]?.title ?? ''}" is still on the revision you started from. Open it to see what changed and take the changes you want, slot by slot. Nothing changes in your build until you do.`
+				: `${builds.length} of your builds started from this guide. Open each one to see what changed and take the changes you want, slot by slot. Nothing changes in your builds until you do.`
+		],
+		actions: builds.map((b) => ({ label: one ? 'Open your build' : `Open "${b.title}"`, url: b.url })),
+		after: ['To stop these e-mails for a build, open it and turn off the new-revision e-mail in its settings.'],
+		why: 'You got this e-mail because you have a build on Slotwise that started from this guide.'
+	});
+}

@@ -26,6 +26,7 @@ import * as audit from './audit';
 import { activeRules } from './caution-rules';
 import type { Paged } from './audit';
 import { sendToAuthor, templates } from './review-mail';
+import { notifyForksOfRevision } from './build-notify';
 import { buildPartsOf, emptySnapshot, loadRevisionSlots, quoteText, snapshotOf } from './revision-snapshots';
 
 export type { SlotNote } from '$lib/server/db/models/Review';
@@ -334,6 +335,7 @@ export async function decide(actor: Actor, revisionId: number, input: DecisionIn
 		url: links.guidesUrl
 	});
 	const mailed = await sendToAuthor(result.author, message, 'review_decision');
+	if (input.decision === 'approve') await notifyForksOfRevision(revisionId, new URL(links.guidesUrl).origin);
 	return { kind: 'ok', guideState: result.guideState, mailed };
 }
 

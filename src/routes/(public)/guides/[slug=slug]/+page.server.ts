@@ -1,6 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { revisionCompareQuery } from '$lib/schemas/guide-page';
 import { regionQuery } from '$lib/schemas/guides';
+import * as builds from '$lib/server/services/builds';
 import * as guides from '$lib/server/services/guides';
 import { formFields } from '$lib/schemas/account';
 import { reportInput } from '$lib/schemas/content-reports';
@@ -41,7 +42,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 			else compareProblem = 'This guide has no such published revision.';
 		}
 	}
-	return { guide, extras, hidden: hidden ?? null, regionProblem, compare, diff, compareProblem };
+	return { guide, extras, hidden: hidden ?? null, regionProblem, compare, diff, compareProblem, lineage: await builds.lineage(params.slug) };
 };
 
 export const actions: Actions = {

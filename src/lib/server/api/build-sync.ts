@@ -1,0 +1,138 @@
+/*
+ * The build sync and within-budget JSON API (issue 7):
+ *   GET  /api/v1/builds/[id]/sync                 → 200 { kind: 'plan', plan } | { kind: 'up_to_date', version, lastSync }
+ *   POST /api/v1/builds/[id]/sync                 { version, choices, takeAllNonConflicting, upstreamRevisionId? }
+ *   POST /api/v1/builds/[id]/sync/undo            { version }
+ *   POST /api/v1/builds/[id]/within-budget        { budget } → 200 proposal | 422 { message }
+ *   POST /api/v1/builds/[id]/within-budget/apply  { budget, version } → 200 applied | 422 | 409
+ * Owner only (anyone else's build is a 404 with no data), visitors 401, JSON only (the hook
+ * answers 415 to other bodies), stale version 409 { message, current }, bad input 400
+ * { message, issues } with field paths.
+ */
+import { json } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
+import { syncApplyInput, syncUndoInput, withinBudgetApplyInput, withinBudgetInput } from '$lib/schemas/build-sync';
+import { fieldIssues } from '$lib/schemas/issues';
+import { requireUser } from '$lib/server/auth/guards';
+import * as budget from '$lib/server/services/build-budget';
+import type { BudgetNoFit } from '$lib/server/services/build-budget';
+import * as sync from '$lib/server/services/build-sync';
+
+async function body(request: Request): Promise<{ ok: true; value: unknown } | { ok: false; response: Response }> {
+	try {
+		return { ok: true, value: await request.json() };
+	} catch {
+		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
+	}
+}
+
+const notFound = () => json({ message: 'Build not found' }, { status: 404 });
+const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
+const stale = (current: unknown) => json({ message: 'This build was changed elsewhere since you opened it.', current }, { status: 409 });
+const noFit = (n: BudgetNoFit) =>
+	json({ message: n.reason, code: n.code, budget: n.budget, ...(n.cheapestTotal ? { cheapestTotal: n.cheapestTotal } : {}) }, { status: 422 });
+
+function buildId(event: RequestEvent): number {
+	return Number(event.params.id);
+}
+
+/** GET …/sync: the three-way table, or up to date. */
+export async function getSyncPlan(event: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const outcome = await sync.syncPlan(user.id, buildId(event));
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'invalid':
+			return json({ message: outcome.issues._form?.[0] ?? 'This build cannot be synced.', issues: outcome.issues }, { status: 422 });
+		default:
+			return json(outcome);
+	}
+}
+
+/** POST …/sync: apply the reader's choices. */
+export async function postSync(event: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const read = await body(event.request);
+	if (!read.ok) return read.response;
+	const input = syncApplyInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const { version, ...choices } = input.data;
+	const outcome = await sync.applySync(user.id, buildId(event), choices, version);
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'invalid':
+			return invalid(outcome.issues);
+		case 'conflict':
+			return stale(outcome.current);
+		case 'ok': {
+			const { kind: _kind, ...applied } = outcome;
+			return json(applied);
+		}
+	}
+}
+
+/** POST …/sync/undo: put back the slots and base revision of the last sync. */
+export async function postUndoSync(event: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const read = await body(event.request);
+	if (!read.ok) return read.response;
+	const input = syncUndoInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const outcome = await sync.undoLastSync(user.id, buildId(event), input.data.version);
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'invalid':
+			return invalid(outcome.issues);
+		case 'conflict':
+			return stale(outcome.current);
+		case 'ok': {
+			const { kind: _kind, ...undone } = outcome;
+			return json(undone);
+		}
+	}
+}
+
+/** POST …/within-budget: the proposed swaps (nothing is changed). */
+export async function postWithinBudget(event: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const read = await body(event.request);
+	if (!read.ok) return read.response;
+	const input = withinBudgetInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const outcome = await budget.proposeWithinBudget(user.id, buildId(event), input.data.budget);
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'no_fit':
+			return noFit(outcome);
+		case 'proposal': {
+			const { kind: _kind, ...proposal } = outcome;
+			return json(proposal);
+		}
+	}
+}
+
+/** POST …/within-budget/apply: solve again and apply the swaps as one change; sets the budget. */
+export async function postApplyWithinBudget(event: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const read = await body(event.request);
+	if (!read.ok) return read.response;
+	const input = withinBudgetApplyInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const outcome = await budget.applyWithinBudget(user.id, buildId(event), input.data.budget, input.data.version);
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'no_fit':
+			return noFit(outcome);
+		case 'conflict':
+			return stale(outcome.current);
+		case 'ok': {
+			const { kind: _kind, ...applied } = outcome;
+			return json(applied);
+		}
+	}
+}

@@ -1,0 +1,153 @@
+/*
+ * The builds JSON API (POST /api/v1/guides/[slug]/fork, GET/PATCH /api/v1/builds/[id],
+ * POST …/slots, PATCH/DELETE …/slots/[slotId], GET …/export.csv). Handlers live here so the
+ * route files stay thin. JSON only (the hook answers 415 to other bodies); visitors get 401;
+ * changes are the owner's only and carry the `version` last seen: a stale one is a 409 with
+ * the build as it is now. Another reader's private build is a 404 with no data.
+ */
+import { json } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
+import { addSlotInput, buildQuery, removeSlotInput, updateBuildInput, updateSlotInput } from '$lib/schemas/build';
+import { fieldIssues } from '$lib/schemas/issues';
+import { currentUser, requireUser } from '$lib/server/auth/guards';
+import * as builds from '$lib/server/services/builds';
+import type { MutationOutcome } from '$lib/server/services/builds';
+
+async function body(request: Request): Promise<{ ok: true; value: unknown } | { ok: false; response: Response }> {
+	try {
+		return { ok: true, value: await request.json() };
+	} catch {
+		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
+	}
+}
+
+const notFound = () => json({ message: 'Build not found' }, { status: 404 });
+const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
+
+function idOf(value: string | undefined): number {
+	// The [id=id] matcher has already checked the shape.
+	return Number(value ?? 0);
+}
+
+function answer(outcome: MutationOutcome): Response {
+	switch (outcome.kind) {
+		case 'not_found':
+			return notFound();
+		case 'invalid':
+			return invalid(outcome.issues);
+		case 'conflict':
+			return json({ message: 'This build was changed elsewhere since you opened it.', current: outcome.current }, { status: 409 });
+		case 'ok':
+			return json(outcome.build);
+	}
+}
+
+/** Parses ?key= and ?region=; an unknown region is a 400, not a silent fallback. */
+function queryOf(url: URL): { ok: true; value: { shareToken?: string; regionCode?: string } } | { ok: false; response: Response } {
+	const query = buildQuery.safeParse(Object.fromEntries(url.searchParams));
+	if (!query.success) return { ok: false, response: invalid(fieldIssues(query.error)) };
+	return { ok: true, value: { shareToken: query.data.key, regionCode: query.data.region } };
+}
+
+/** POST /api/v1/guides/[slug]/fork (body `{}` or none) → 201 { id } */
+export async function forkGuide({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	// A fork takes no fields: an empty body or `{}`.
+	const text = await request.text();
+	if (text.trim() !== '') {
+		let value: unknown;
+		try {
+			value = JSON.parse(text);
+		} catch {
+			return json({ message: 'The body is not valid JSON.' }, { status: 400 });
+		}
+		if (typeof value !== 'object' || value === null || Array.isArray(value) || Object.keys(value).length > 0) {
+			return invalid({ _form: ['Send an empty JSON object: a fork takes no fields.'] });
+		}
+	}
+	const outcome = await builds.fork(user.id, params.slug ?? '');
+	if (outcome.kind === 'not_found') return json({ message: 'Guide not found' }, { status: 404 });
+	return json({ id: outcome.id }, { status: 201, headers: { location: `/api/v1/builds/${outcome.id}` } });
+}
+
+/** GET /api/v1/builds/[id]?region=&key= → the build (priced in ?region= when given) */
+export async function getBuild({ params, url }: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const query = queryOf(url);
+	if (!query.ok) return query.response;
+	const view = await builds.getBuild({ id: user.id }, idOf(params.id), query.value);
+	if (!view) return notFound();
+	if (query.value.regionCode && view.region.code !== query.value.regionCode) return invalid({ region: ['Choose a region from the list.'] });
+	return json(view);
+}
+
+/** PATCH /api/v1/builds/[id] { version, title?, notes?, regionCode?, visibility?, budget?, notifyOnNewRevision? } */
+export async function patchBuild({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const id = idOf(params.id);
+	// Ownership first, so another reader's build answers 404 whatever the body holds.
+	if (!(await builds.ownsBuild(user.id, id))) return notFound();
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = updateBuildInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const { version, ...patch } = input.data;
+	return answer(await builds.updateBuild(user.id, id, patch, version));
+}
+
+/** PATCH /api/v1/builds/[id]/slots/[slotId] { version, partId?, quantity?, priceOverride?, purchase? } */
+export async function patchSlot({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = updateSlotInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const { version, ...patch } = input.data;
+	return answer(await builds.updateSlot(user.id, idOf(params.id), idOf(params.slotId), patch, version));
+}
+
+/** POST /api/v1/builds/[id]/slots { version, category, label, partId, quantity } → 201 build */
+export async function postSlot({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = addSlotInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	const { version, ...slot } = input.data;
+	const outcome = await builds.addSlot(user.id, idOf(params.id), slot, version);
+	return outcome.kind === 'ok' ? json(outcome.build, { status: 201 }) : answer(outcome);
+}
+
+/** DELETE /api/v1/builds/[id]/slots/[slotId] { version } */
+export async function deleteSlot({ params, request }: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
+	const read = await body(request);
+	if (!read.ok) return read.response;
+	const input = removeSlotInput.safeParse(read.value);
+	if (!input.success) return invalid(fieldIssues(input.error));
+	return answer(await builds.removeSlot(user.id, idOf(params.id), idOf(params.slotId), input.data.version));
+}
+
+/**
+ * GET /api/v1/builds/[id]/export.csv?region=&key= → text/csv. Same visibility as the
+ * build itself (the owner; anyone for a public build; anyone with the link for an unlisted
+ * one), so a shared link can be exported too; visitors included.
+ */
+export async function exportCsv({ params, url }: RequestEvent): Promise<Response> {
+	const user = currentUser();
+	const query = queryOf(url);
+	if (!query.ok) return query.response;
+	const id = idOf(params.id);
+	const csv = await builds.exportCsv(user ? { id: user.id } : null, id, query.value);
+	if (csv === null) return notFound();
+	return new Response(csv, {
+		headers: {
+			'content-type': 'text/csv; charset=utf-8',
+			'content-disposition': `attachment; filename="${builds.csvFilename(id)}"`,
+			'cache-control': 'no-store'
+		}
+	});
+}

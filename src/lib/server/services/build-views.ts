@@ -1,0 +1,167 @@
+/*
+ * Plain shapes the build service returns to routes and to the other build services
+ * (build-sync, build-budget). Model instances never leave services.
+ */
+import type { PartInfo } from '$lib/domain/build-parts';
+import type { Finding, FindingCounts } from '$lib/domain/fit';
+import type { PowerBudget } from '$lib/domain/power';
+import type { ValueSummary } from '$lib/domain/value';
+import type { Money, PartCategory } from '$lib/domain/types';
+import type { PartRef, PriceLine, RegionSummary } from './guide-views';
+
+export type { PartRef, PriceLine, RegionSummary } from './guide-views';
+
+export type BuildVisibility = 'private' | 'unlisted' | 'public';
+export type BuildSlotOrigin = 'source' | 'alternate' | 'custom';
+
+/**
+ * A unit price in the build's region. Same shape as PriceLine, plus `override`: the
+ * reader's own price (store, date) in the region's currency, which replaces the quote or
+ * estimate for the slot's current part.
+ */
+export interface BuildPriceLine extends Omit<PriceLine, 'status'> {
+	status: PriceLine['status'] | 'override';
+}
+
+export interface BuildOptionView {
+	part: PartRef;
+	/** source_pick: the base revision's pick for this slot; alternate: one of its ranked alternates. */
+	kind: 'source_pick' | 'alternate';
+	/** 0 for the source pick; the alternate's rank otherwise. */
+	rank: number;
+	reasonTag: string | null;
+	note: string;
+	price: PriceLine | null;
+	/** No conflict in the build's fit report with this option swapped into the slot. */
+	fits: boolean;
+}
+
+export interface BuildSlotView {
+	id: number;
+	sourceSlotKey: string | null;
+	category: PartCategory;
+	label: string;
+	position: number;
+	quantity: number;
+	origin: BuildSlotOrigin;
+	part: PartRef;
+	/** Unit price in the build region; an override in the region's currency wins (status 'override'). */
+	price: BuildPriceLine | null;
+	lineTotal: Money | null;
+	/** The reader's price. `applied` is false when it is in another currency than the region's (the region changed since). */
+	override: { amount: Money; store: string; date: string; applied: boolean } | null;
+	/** Owner only; others see `{ purchased: false, paid: null, purchasedAt: null, store: null }`. */
+	purchase: { purchased: boolean; paid: Money | null; purchasedAt: string | null; store: string | null };
+	options: BuildOptionView[];
+}
+
+export interface BuildSourceView {
+	slug: string;
+	title: string;
+	authorName: string;
+	baseRevisionNumber: number | null;
+	/** The guide's published revision now; null when the guide is no longer published. */
+	latestRevisionNumber: number | null;
+	newerRevisionAvailable: boolean;
+}
+
+export interface BuildTotals {
+	/** Sum of the priced line totals (unpriced slots are counted in `unpricedSlots`, not as zero). */
+	planned: Money;
+	/** Paid amounts of bought slots (the line total where no amount was entered). Owner only: 0 for others. */
+	spent: Money;
+	/** Planned line totals of the slots not bought yet. */
+	remainingToBuy: Money;
+	/** budget − (spent + remainingToBuy); negative when over budget; null without a budget (or for non-owners). */
+	leftOfBudget: Money | null;
+	unpricedSlots: number;
+	boughtCount: number;
+}
+
+export interface ValueView extends ValueSummary {
+	/** The total the value is worked out against; null when a line is unpriced. */
+	total: Money | null;
+}
+
+export interface DriftView {
+	label: string;
+	kind: 'same' | 'swapped' | 'quantity' | 'added' | 'removed';
+	/** swapped/removed: the source's part ("Brand Model", "× n" when n > 1); quantity: the source's quantity. */
+	from?: string;
+	/** swapped/added: the build's part; quantity: the build's quantity. */
+	to?: string;
+}
+
+export interface BuildView {
+	id: number;
+	title: string;
+	ownerName: string;
+	isOwner: boolean;
+	visibility: BuildVisibility;
+	/** Owner only. */
+	shareToken: string | null;
+	/** The owner's notes; empty for others (a build's notes are the owner's own). */
+	notes: string;
+	version: number;
+	notifyOnNewRevision: boolean;
+	region: RegionSummary;
+	/** Owner only. */
+	budget: Money | null;
+	source: BuildSourceView | null;
+	slots: BuildSlotView[];
+	totals: BuildTotals;
+	/** Keys of findings and slotLabels: String(slot.id). */
+	fit: { findings: Finding[]; summary: FindingCounts; slotLabels: Record<string, string> };
+	power: PowerBudget;
+	drift: DriftView[];
+	value: { build: ValueView | null; source: ValueView | null; sourceResultsDiffer: boolean };
+	/** Oldest exchange-rate date behind an estimate; null when none was needed. */
+	ratesAsOf: string | null;
+	updatedAt: string;
+}
+
+export interface BuildCard {
+	id: number;
+	title: string;
+	visibility: BuildVisibility;
+	region: RegionSummary;
+	source: { slug: string; title: string } | null;
+	slotCount: number;
+	boughtCount: number;
+	newerRevisionAvailable: boolean;
+	updatedAt: string;
+}
+
+export interface LineageView {
+	/** Every fork of the guide (any visibility: a count reveals nothing about one reader). */
+	forkCount: number;
+	/** Public forks only, most recently changed first. */
+	publicBuilds: { id: number; title: string; ownerName: string; updatedAt: string }[];
+}
+
+/** One option of a slot priced in a region, with what the fit report needs about its part. */
+export interface PricedOption {
+	part: PartRef;
+	info: PartInfo;
+	kind: 'current' | 'source_pick' | 'alternate';
+	/** 0 for the current part and the source pick; the alternate's rank otherwise. */
+	rank: number;
+	/** Unit price; the current part's carries the reader's override when it applies. */
+	price: BuildPriceLine | null;
+	/** price × the slot's quantity. */
+	lineTotal: Money | null;
+}
+
+/** A build slot with its current part and every option the base revision offers for it. */
+export interface PricedSlotOptions {
+	slotId: number;
+	/** String(slotId): the key the build's fit report uses for this slot. */
+	key: string;
+	sourceSlotKey: string | null;
+	label: string;
+	category: PartCategory;
+	quantity: number;
+	current: PricedOption;
+	/** The base revision's pick (unless it is the current part) and its alternates (except the current part), by rank. */
+	options: PricedOption[];
+}

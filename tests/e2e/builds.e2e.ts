@@ -1,0 +1,162 @@
+import { expect, test } from '@playwright/test';
+import type { Browser, Page } from '@playwright/test';
+import { parse } from 'csv-parse/sync';
+import { signInWithPassword } from './support';
+
+/*
+ * Builds in Chromium against the production build: a reader forks a seeded guide, swaps the
+ * graphics card to an alternate, changes region, marks two parts bought and sees the progress
+ * bar; the guide's author publishes a newer revision (approved by an editor); the reader syncs
+ * with one conflict, chooses, and the build is right; the CSV export carries the right totals.
+ * The guide is the demo's balanced 1440p build, which no other end-to-end test reads.
+ */
+
+const READER = 'reader@slotwise.test';
+const AUTHOR = 'mira.falkenberg@slotwise.test';
+const EDITOR = 'editor@slotwise.test';
+const GUIDE = 'balanced-1440p-am5';
+
+async function signedIn(browser: Browser, email: string): Promise<Page> {
+	const page = await (await browser.newContext()).newPage();
+	await signInWithPassword(page, email);
+	return page;
+}
+
+const slot = (page: Page, label: string) => page.getByRole('listitem', { name: label, exact: true });
+
+interface DraftSlot {
+	category: string;
+	label: string;
+	quantity: number;
+	pickPartId: number;
+	pick: { slug: string };
+	reason: string;
+	priceQuote: unknown;
+	alternates: { partId: number; part: { slug: string }; reasonTag: string; note: string }[];
+}
+
+/** The author moves the graphics card pick to the faster alternate and the power supply to the bigger one, and submits. */
+async function authorPublishesRevision(author: Page) {
+	const draft = await (await author.request.get(`/api/v1/guides/${GUIDE}/draft`)).json();
+	const promote = (s: DraftSlot, slug: string) => {
+		const chosen = s.alternates.find((a) => a.part.slug === slug);
+		if (!chosen) throw new Error(`${slug} is not an alternate of ${s.label}`);
+		return {
+			...s,
+			pickPartId: chosen.partId,
+			priceQuote: null,
+			alternates: [{ partId: s.pickPartId, reasonTag: 'lower_price', note: 'The previous pick.' }, ...s.alternates.filter((a) => a.partId !== chosen.partId)]
+		};
+	};
+	const slots = (draft.slots as DraftSlot[]).map((s) =>
+		s.label === 'Graphics card' ? promote(s, 'ironvale-auric-a78-16g') : s.label === 'Power supply' ? promote(s, 'voltren-vp850-gold') : s
+	);
+	const body = {
+		version: draft.version,
+		title: draft.title,
+		summary: draft.summary,
+		targetBudget: draft.targetBudget,
+		baseRegion: draft.baseRegion,
+		tags: draft.tags,
+		disclosure: draft.disclosure,
+		disclosureNote: draft.disclosureNote,
+		walkthroughUrl: draft.walkthroughUrl,
+		buildNotes: draft.buildNotes,
+		slots: slots.map((s) => ({
+			category: s.category,
+			label: s.label,
+			quantity: s.quantity,
+			pickPartId: s.pickPartId,
+			reason: s.reason,
+			priceQuote: s.priceQuote,
+			alternates: s.alternates.map((a) => ({ partId: a.partId, reasonTag: a.reasonTag, note: a.note }))
+		}))
+	};
+	const saved = await author.request.put(`/api/v1/guides/${GUIDE}/draft`, { data: body });
+	expect(saved.status(), await saved.text()).toBe(200);
+	const submitted = await author.request.post(`/api/v1/guides/${GUIDE}/submit`, { data: { version: (await saved.json()).version } });
+	expect(submitted.status()).toBe(200);
+}
+
+test('fork, swap, re-price, track purchases, then sync a newer revision with one conflict and export', async ({ browser }) => {
+	test.setTimeout(180_000);
+	const reader = await signedIn(browser, READER);
+	await reader.goto(`/guides/${GUIDE}`);
+	await reader.getByRole('button', { name: 'Fork into my build' }).click();
+	await expect(reader).toHaveURL(/\/builds\/\d+$/);
+	const buildUrl = new URL(reader.url()).pathname;
+	await expect(reader.getByRole('heading', { level: 1 })).toContainText('(my build)');
+	await expect(slot(reader, 'Graphics card').getByTestId('slot-part')).toHaveText(/Cobalt C7/);
+
+	// Swap the graphics card to the cheaper alternate in one click.
+	const gpu = slot(reader, 'Graphics card');
+	await gpu.locator('summary', { hasText: /^Swap \(/ }).click();
+	await gpu.getByRole('button', { name: /Use this for Graphics card: .*Auric A64/ }).click();
+	await expect(reader.getByText('Swapped.')).toBeVisible();
+	await expect(slot(reader, 'Graphics card').getByTestId('slot-part')).toHaveText(/Auric A64/);
+	await expect(reader.getByTestId('drift')).toContainText('Graphics card');
+
+	// The reader's region: US dollars, before tax.
+	await reader.getByLabel('Your region').selectOption('us');
+	await reader.getByRole('button', { name: 'Save settings' }).click();
+	await expect(reader.getByText('Saved.')).toBeVisible();
+	await expect(reader.getByText(/prices in United States \(USD\)/)).toBeVisible();
+	await expect(reader.getByTestId('build-total')).toContainText('US$');
+
+	// Two parts bought: the CPU at the planned price, the case at a price paid.
+	for (const [label, paid] of [['CPU', ''], ['Case', '99.00']] as const) {
+		const item = slot(reader, label);
+		await item.locator('summary', { hasText: 'Mark bought' }).click();
+		if (paid) await item.getByLabel(/^Paid/).fill(paid);
+		await item.getByRole('button', { name: `Save purchase (${label})` }).click();
+		await expect(reader.getByText('Marked bought.')).toBeVisible();
+		await expect(slot(reader, label).getByTestId('bought')).toBeVisible();
+	}
+	const progress = reader.getByTestId('purchase-progress');
+	await expect(progress).toContainText('2 parts bought');
+	const value = Number(await progress.locator('progress').getAttribute('value'));
+	const max = Number(await progress.locator('progress').getAttribute('max'));
+	expect(value).toBeGreaterThan(0);
+	expect(value).toBeLessThan(max);
+
+	// The author publishes a newer revision; an editor approves it.
+	const author = await signedIn(browser, AUTHOR);
+	await authorPublishesRevision(author);
+	const editor = await signedIn(browser, EDITOR);
+	await editor.goto('/review');
+	await editor.getByTestId('review-queue').getByRole('link', { name: /A balanced 1440p build/ }).click();
+	await editor.getByRole('button', { name: 'Approve and publish' }).click();
+	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
+
+	// The reader sees the new revision and syncs: the graphics card is a conflict, the PSU is offered.
+	await reader.goto(buildUrl);
+	await expect(reader.getByTestId('newer-revision')).toBeVisible();
+	const sync = reader.getByTestId('sync');
+	const conflict = sync.locator('[data-testid="sync-row"][data-status="conflict"]');
+	await expect(conflict).toHaveCount(1);
+	await expect(conflict).toContainText('Graphics card');
+	await expect(sync.locator('[data-testid="sync-row"][data-status="upstream_only"]')).toContainText('Power supply');
+	// Without a choice for the conflict the browser refuses to submit; choose to keep ours.
+	await conflict.getByLabel('Keep yours').check();
+	await sync.getByRole('button', { name: 'Sync with my choices' }).click();
+	await expect(reader.getByText(/^Synced:/)).toBeVisible();
+	await expect(slot(reader, 'Graphics card').getByTestId('slot-part')).toHaveText(/Auric A64/);
+	await expect(slot(reader, 'Power supply').getByTestId('slot-part')).toHaveText(/VP850/);
+	await expect(reader.getByTestId('newer-revision')).toHaveCount(0);
+	await expect(slot(reader, 'CPU').getByTestId('bought')).toBeVisible();
+
+	// The CSV shopping list: one row per slot, and totals that add up to what the page shows.
+	const csv = await reader.request.get(`${buildUrl}/export.csv`);
+	expect(csv.status()).toBe(200);
+	expect(csv.headers()['content-type']).toContain('text/csv');
+	const rows = parse(await csv.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[];
+	const slotRows = rows.filter((r) => r.slot && r.part);
+	const sumMinor = slotRows.reduce((sum, r) => sum + Math.round(Number(r['line total']) * 100), 0);
+	const planned = rows.find((r) => r.slot === 'Planned total');
+	expect(planned?.currency).toBe('USD');
+	expect(Math.round(Number(planned?.['line total']) * 100)).toBe(sumMinor);
+	const pageTotal = (await reader.getByTestId('build-total').innerText()).replace(/[^0-9.]/g, '');
+	expect(Number(planned?.['line total'])).toBeCloseTo(Number(pageTotal), 2);
+	expect(slotRows.find((r) => r.slot === 'Case')?.paid).toBe('99.00');
+	for (const page of [reader, author, editor]) await page.context().close();
+});
