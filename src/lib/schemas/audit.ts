@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 
 /*
  * GET /admin/audit filters. Every value arrives as a string from a GET form; an empty
@@ -31,15 +32,7 @@ export const auditQuery = z
 		),
 		from: z.preprocess(emptyAsUndefined, isoDay.optional()),
 		to: z.preprocess(emptyAsUndefined, isoDay.optional()),
-		page: z.preprocess(
-			emptyAsUndefined,
-			z.coerce
-				.number({ error: 'The page must be a whole number.' })
-				.int('The page must be a whole number.')
-				.min(1, 'Pages start at 1.')
-				.max(100_000, 'There are not that many pages.')
-				.default(1)
-		)
+		page: pageNumber
 	})
 	.superRefine((q, ctx) => {
 		if (q.from && q.to && q.from > q.to) {

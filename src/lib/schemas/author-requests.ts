@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 import { DECISION_NOTE_MAX_CHARS, PITCH_MAX_CHARS, PITCH_MIN_CHARS } from './author-request-limits.js';
 
 export { DECISION_NOTE_MAX_CHARS, PITCH_MAX_CHARS, PITCH_MIN_CHARS };
@@ -69,14 +70,6 @@ export type DecideAuthorRequestInput = z.output<typeof decideAuthorRequestInput>
 
 /** GET /editor/author-requests?page= */
 export const pendingRequestsQuery = z.strictObject({
-	page: z.preprocess(
-		(value) => (value === '' ? undefined : value),
-		z.coerce
-			.number({ error: 'The page must be a whole number.' })
-			.int('The page must be a whole number.')
-			.min(1, 'Pages start at 1.')
-			.max(100_000, 'There are not that many pages.')
-			.default(1)
-	)
+	page: pageNumber
 });
 export type PendingRequestsQuery = z.infer<typeof pendingRequestsQuery>;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 import { PART_CATEGORIES, type PartCategory } from '$lib/domain/types';
 import { SPEC_SCHEMAS } from './part-specs';
 
@@ -285,15 +286,7 @@ export type QuoteInput = z.infer<typeof quoteInput>;
 export const partListQuery = z.strictObject({
 	q: z.string().trim().max(100, 'Search for at most 100 characters.').default(''),
 	category: z.preprocess(emptyAsUndefined, partCategory.optional()),
-	page: z.preprocess(
-		emptyAsUndefined,
-		z.coerce
-			.number({ error: 'The page must be a whole number.' })
-			.int('The page must be a whole number.')
-			.min(1, 'Pages start at 1.')
-			.max(100_000, 'There are not that many pages.')
-			.default(1)
-	)
+	page: pageNumber
 });
 export type PartListQuery = z.infer<typeof partListQuery>;
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 import { parseLenient, parseStrict, queryRecord, type Issues } from './query-params.js';
 
 /*
@@ -65,15 +66,7 @@ export const guideBrowseFields = z.strictObject({
 		emptyAsUndefined,
 		z.enum(GUIDE_SORTS, { error: `Sort by one of: ${GUIDE_SORTS.join(', ')}.` }).default('newest')
 	),
-	page: z.preprocess(
-		emptyAsUndefined,
-		z.coerce
-			.number({ error: 'The page must be a whole number.' })
-			.int('The page must be a whole number.')
-			.min(1, 'Pages start at 1.')
-			.max(100_000, 'There are not that many pages.')
-			.default(1)
-	)
+	page: pageNumber
 });
 
 export const guideBrowseQuery = guideBrowseFields.superRefine((input, ctx) => {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 import { CATEGORY_LABELS, PART_CATEGORIES } from '../domain/types.js';
 import type { PartCategory } from '../domain/types.js';
 import { parseLenient, parseStrict, queryRecord, type Issues } from './query-params.js';
@@ -114,15 +115,7 @@ export const partSearchFields = z.strictObject({
 		emptyAsUndefined,
 		z.enum(PART_CATEGORIES, { error: `Choose one of ${PART_CATEGORIES.join(', ')}.` }).optional()
 	),
-	page: z.preprocess(
-		emptyAsUndefined,
-		z.coerce
-			.number({ error: 'The page must be a whole number.' })
-			.int('The page must be a whole number.')
-			.min(1, 'Pages start at 1.')
-			.max(100_000, 'There are not that many pages.')
-			.default(1)
-	),
+	page: pageNumber,
 	socket: choice,
 	formFactor: choice,
 	memoryType: choice,

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 
 /*
  * Price sightings: what a signed-in user reports from a part page, and what editors post
@@ -95,15 +96,7 @@ export const rejectSightingInput = z.strictObject({
 
 /** GET /editor/sightings?page=&region=&q= */
 export const pendingSightingsQuery = z.strictObject({
-	page: z.preprocess(
-		emptyAsUndefined,
-		z.coerce
-			.number({ error: 'The page must be a whole number.' })
-			.int('The page must be a whole number.')
-			.min(1, 'Pages start at 1.')
-			.max(100_000, 'There are not that many pages.')
-			.default(1)
-	),
+	page: pageNumber,
 	region: z.preprocess(emptyAsUndefined, regionCode.optional()),
 	q: z.string().trim().max(100, 'Search for at most 100 characters.').default('')
 });

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 
 /*
  * Editors' review input: the queue's URL query, a decision on a revision, and the
@@ -17,7 +18,7 @@ const note = (max: number) =>
 		.pipe(z.string().max(max, `Keep the note to at most ${max} characters.`));
 
 export const reviewQueueQuery = z.strictObject({
-	page: z.coerce.number({ error: 'The page must be a whole number.' }).int('The page must be a whole number.').min(1, 'Pages start at 1.').max(100_000, 'There are not that many pages.').default(1),
+	page: pageNumber,
 	kind: z.enum(['all', 'new', 'revision'], { error: 'Show all, new guides or revisions.' }).default('all'),
 	sort: z.enum(['oldest', 'newest'], { error: 'Sort by oldest or newest.' }).default('oldest'),
 	author: z.string().trim().max(100, 'Keep the author search to 100 characters.').default('')

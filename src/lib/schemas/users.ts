@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { pageNumber } from './query-params';
 import { ROLES } from '../domain/types.js';
 
 /*
@@ -23,15 +24,7 @@ export const userSearchQuery = z.strictObject({
 		.max(100, 'Search for at most 100 characters.')
 		.default(''),
 	role: z.preprocess(emptyAsUndefined, role.optional()),
-	page: z.preprocess(
-		emptyAsUndefined,
-		z.coerce
-			.number({ error: 'The page must be a whole number.' })
-			.int('The page must be a whole number.')
-			.min(1, 'Pages start at 1.')
-			.max(100_000, 'There are not that many pages.')
-			.default(1)
-	)
+	page: pageNumber
 });
 export type UserSearchQuery = z.infer<typeof userSearchQuery>;
 

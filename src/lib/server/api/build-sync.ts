@@ -12,23 +12,15 @@
 import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
 import { syncApplyInput, syncUndoInput, withinBudgetApplyInput, withinBudgetInput } from '$lib/schemas/build-sync';
-import { fieldIssues } from '$lib/schemas/issues';
 import { requireUser } from '$lib/server/auth/guards';
 import * as budget from '$lib/server/services/build-budget';
 import type { BudgetNoFit } from '$lib/server/services/build-budget';
 import * as sync from '$lib/server/services/build-sync';
+import { CHANGED_ELSEWHERE } from './builds';
+import { invalid, notFound as notFoundAnswer, readJson, stale as staleAnswer } from './json';
 
-async function body(request: Request): Promise<{ ok: true; value: unknown } | { ok: false; response: Response }> {
-	try {
-		return { ok: true, value: await request.json() };
-	} catch {
-		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
-	}
-}
-
-const notFound = () => json({ message: 'Build not found' }, { status: 404 });
-const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
-const stale = (current: unknown) => json({ message: 'This build was changed elsewhere since you opened it.', current }, { status: 409 });
+const notFound = () => notFoundAnswer('Build not found');
+const stale = (current: unknown) => staleAnswer(CHANGED_ELSEWHERE, current);
 const noFit = (n: BudgetNoFit) =>
 	json({ message: n.reason, code: n.code, budget: n.budget, ...(n.cheapestTotal ? { cheapestTotal: n.cheapestTotal } : {}) }, { status: 422 });
 
@@ -53,10 +45,8 @@ export async function getSyncPlan(event: RequestEvent): Promise<Response> {
 /** POST …/sync: apply the reader's choices. */
 export async function postSync(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	const read = await body(event.request);
-	if (!read.ok) return read.response;
-	const input = syncApplyInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(event.request, syncApplyInput);
+	if (!input.ok) return input.response;
 	const { version, ...choices } = input.data;
 	const outcome = await sync.applySync(user.id, buildId(event), choices, version);
 	switch (outcome.kind) {
@@ -76,10 +66,8 @@ export async function postSync(event: RequestEvent): Promise<Response> {
 /** POST …/sync/undo: put back the slots and base revision of the last sync. */
 export async function postUndoSync(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	const read = await body(event.request);
-	if (!read.ok) return read.response;
-	const input = syncUndoInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(event.request, syncUndoInput);
+	if (!input.ok) return input.response;
 	const outcome = await sync.undoLastSync(user.id, buildId(event), input.data.version);
 	switch (outcome.kind) {
 		case 'not_found':
@@ -98,10 +86,8 @@ export async function postUndoSync(event: RequestEvent): Promise<Response> {
 /** POST …/within-budget: the proposed swaps (nothing is changed). */
 export async function postWithinBudget(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	const read = await body(event.request);
-	if (!read.ok) return read.response;
-	const input = withinBudgetInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(event.request, withinBudgetInput);
+	if (!input.ok) return input.response;
 	const outcome = await budget.proposeWithinBudget(user.id, buildId(event), input.data.budget);
 	switch (outcome.kind) {
 		case 'not_found':
@@ -118,10 +104,8 @@ export async function postWithinBudget(event: RequestEvent): Promise<Response> {
 /** POST …/within-budget/apply: solve again and apply the swaps as one change; sets the budget. */
 export async function postApplyWithinBudget(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	const read = await body(event.request);
-	if (!read.ok) return read.response;
-	const input = withinBudgetApplyInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(event.request, withinBudgetApplyInput);
+	if (!input.ok) return input.response;
 	const outcome = await budget.applyWithinBudget(user.id, buildId(event), input.data.budget, input.data.version);
 	switch (outcome.kind) {
 		case 'not_found':

@@ -12,17 +12,10 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as builds from '$lib/server/services/builds';
 import type { MutationOutcome } from '$lib/server/services/builds';
+import { invalid, notFound as notFoundAnswer, readJson, stale } from './json';
 
-async function body(request: Request): Promise<{ ok: true; value: unknown } | { ok: false; response: Response }> {
-	try {
-		return { ok: true, value: await request.json() };
-	} catch {
-		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
-	}
-}
-
-const notFound = () => json({ message: 'Build not found' }, { status: 404 });
-const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
+const notFound = () => notFoundAnswer('Build not found');
+export const CHANGED_ELSEWHERE = 'This build was changed elsewhere since you opened it.';
 
 function idOf(value: string | undefined): number {
 	// The [id=id] matcher has already checked the shape.
@@ -36,7 +29,7 @@ function answer(outcome: MutationOutcome): Response {
 		case 'invalid':
 			return invalid(outcome.issues);
 		case 'conflict':
-			return json({ message: 'This build was changed elsewhere since you opened it.', current: outcome.current }, { status: 409 });
+			return stale(CHANGED_ELSEWHERE, outcome.current);
 		case 'ok':
 			return json(outcome.build);
 	}
@@ -87,10 +80,8 @@ export async function patchBuild({ params, request }: RequestEvent): Promise<Res
 	const id = idOf(params.id);
 	// Ownership first, so another reader's build answers 404 whatever the body holds.
 	if (!(await builds.ownsBuild(user.id, id))) return notFound();
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = updateBuildInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, updateBuildInput);
+	if (!input.ok) return input.response;
 	const { version, ...patch } = input.data;
 	return answer(await builds.updateBuild(user.id, id, patch, version));
 }
@@ -99,10 +90,8 @@ export async function patchBuild({ params, request }: RequestEvent): Promise<Res
 export async function patchSlot({ params, request }: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = updateSlotInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, updateSlotInput);
+	if (!input.ok) return input.response;
 	const { version, ...patch } = input.data;
 	return answer(await builds.updateSlot(user.id, idOf(params.id), idOf(params.slotId), patch, version));
 }
@@ -111,10 +100,8 @@ export async function patchSlot({ params, request }: RequestEvent): Promise<Resp
 export async function postSlot({ params, request }: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = addSlotInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, addSlotInput);
+	if (!input.ok) return input.response;
 	const { version, ...slot } = input.data;
 	const outcome = await builds.addSlot(user.id, idOf(params.id), slot, version);
 	return outcome.kind === 'ok' ? json(outcome.build, { status: 201 }) : answer(outcome);
@@ -124,10 +111,8 @@ export async function postSlot({ params, request }: RequestEvent): Promise<Respo
 export async function deleteSlot({ params, request }: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = removeSlotInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, removeSlotInput);
+	if (!input.ok) return input.response;
 	return answer(await builds.removeSlot(user.id, idOf(params.id), idOf(params.slotId), input.data.version));
 }
 

@@ -6,28 +6,17 @@
 import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
 import { createGuideInput, saveDraftInput, submitInput } from '$lib/schemas/guide-editor';
-import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import * as drafts from '$lib/server/services/guide-drafts';
+import { invalid, notFound as notFoundAnswer, readJson } from './json';
 
-async function body(request: Request): Promise<{ ok: true; value: unknown } | { ok: false; response: Response }> {
-	try {
-		return { ok: true, value: await request.json() };
-	} catch {
-		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
-	}
-}
-
-const notFound = () => json({ message: 'Guide not found' }, { status: 404 });
-const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
+const notFound = () => notFoundAnswer('Guide not found');
 
 /** POST /api/v1/guides → 201 { slug, version } */
 export async function createGuide({ request }: RequestEvent): Promise<Response> {
 	const user = requireRole('author', 'editor');
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = createGuideInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, createGuideInput);
+	if (!input.ok) return input.response;
 	const outcome = await drafts.createGuide(user.id, input.data);
 	if (outcome.kind === 'invalid') return invalid(outcome.issues);
 	return json({ slug: outcome.slug, version: outcome.version }, { status: 201, headers: { location: `/api/v1/guides/${outcome.slug}/draft` } });
@@ -45,10 +34,8 @@ export async function saveDraft({ params, request }: RequestEvent): Promise<Resp
 	const user = requireRole('author', 'editor');
 	// Ownership first, so another author's slug answers 404 whatever the body holds.
 	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = saveDraftInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, saveDraftInput);
+	if (!input.ok) return input.response;
 	const { version, ...draft } = input.data;
 	const outcome = await drafts.saveDraft(user.id, params.slug ?? '', draft, version);
 	switch (outcome.kind) {
@@ -67,10 +54,8 @@ export async function saveDraft({ params, request }: RequestEvent): Promise<Resp
 export async function submitDraft({ params, request, url }: RequestEvent): Promise<Response> {
 	const user = requireRole('author', 'editor');
 	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
-	const read = await body(request);
-	if (!read.ok) return read.response;
-	const input = submitInput.safeParse(read.value);
-	if (!input.success) return invalid(fieldIssues(input.error));
+	const input = await readJson(request, submitInput);
+	if (!input.ok) return input.response;
 	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version, { guidesUrl: new URL('/my/guides', url.origin).href });
 	switch (outcome.kind) {
 		case 'not_found':
