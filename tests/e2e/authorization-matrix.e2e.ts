@@ -20,6 +20,8 @@ const authors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden',
 const editors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'ok', admin: 'ok' };
 /** The author's own guide: other roles that may author still get 404 for someone else's. */
 const ownGuide: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'notfound', admin: 'notfound' };
+/** Someone else's (here: a missing) build: visitors are sent to sign in, everyone else gets 404. */
+const ownBuild: Record<Role, Outcome> = { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' };
 const admins: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'forbidden', admin: 'ok' };
 
 // "ok" means the request got past authorization (a page, a redirect elsewhere, or a 400
@@ -42,6 +44,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /help/regional-pricing': everyone('ok'),
 	'GET /help/safety': everyone('ok'),
 	'GET /help/review': everyone('ok'),
+	'GET /help/builds': everyone('ok'),
 	'GET /help/api': everyone('ok'),
 	'GET /(public)/guides': everyone('ok'),
 	'GET /(public)/guides/feed.xml': everyone('ok'),
@@ -135,24 +138,27 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(editor)/review/guides': editors,
 	'GET /(editor)/review/guides/[slug=slug]': editors,
 	'POST /(editor)/review/guides/[slug=slug]?/moderate': editors,
-	// Builds: the sample id names no build, so the page answers 404 to everyone (private builds
-	// of others answer exactly the same); edits need a signed-in owner (the empty form is a 400).
+	// Builds: the sample id names no build, so the page answers 404 to everyone (another
+	// reader's private build answers exactly the same); an edit needs a signed-in user, and then
+	// the page behind the action answers 404 for a build that is not theirs or does not exist.
 	'GET /(public)/builds/[id=id]': everyone('notfound'),
 	'GET /(public)/builds/[id=id]/print': everyone('notfound'),
 	'GET /(public)/builds/[id=id]/export.csv': everyone('notfound'),
-	'POST /(public)/builds/[id=id]?/swap': signedIn,
-	'POST /(public)/builds/[id=id]?/quantity': signedIn,
-	'POST /(public)/builds/[id=id]?/override': signedIn,
-	'POST /(public)/builds/[id=id]?/purchase': signedIn,
-	'POST /(public)/builds/[id=id]?/removeSlot': signedIn,
-	'POST /(public)/builds/[id=id]?/addSlot': signedIn,
-	'POST /(public)/builds/[id=id]?/settings': signedIn,
-	'POST /(public)/builds/[id=id]?/sync': signedIn,
-	'POST /(public)/builds/[id=id]?/undoSync': signedIn,
-	'POST /(public)/builds/[id=id]?/proposeBudget': signedIn,
-	'POST /(public)/builds/[id=id]?/applyBudget': signedIn,
+	'POST /(public)/builds/[id=id]?/swap': ownBuild,
+	'POST /(public)/builds/[id=id]?/quantity': ownBuild,
+	'POST /(public)/builds/[id=id]?/override': ownBuild,
+	'POST /(public)/builds/[id=id]?/purchase': ownBuild,
+	'POST /(public)/builds/[id=id]?/removeSlot': ownBuild,
+	'POST /(public)/builds/[id=id]?/addSlot': ownBuild,
+	'POST /(public)/builds/[id=id]?/settings': ownBuild,
+	'POST /(public)/builds/[id=id]?/sync': ownBuild,
+	'POST /(public)/builds/[id=id]?/undoSync': ownBuild,
+	'POST /(public)/builds/[id=id]?/proposeBudget': ownBuild,
+	'POST /(public)/builds/[id=id]?/applyBudget': ownBuild,
+	// Report a build: visitors are sent to sign in. Signed in, the empty probe form is refused
+	// (400), then the page's load answers 404 for the sample id, which names no build.
+	'POST /(public)/builds/[id=id]?/report': { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' },
 	'GET /(account)/builds': signedIn,
-	'GET /(account)/builds/new': signedIn,
 	'POST /(account)/builds/new?/default': signedIn,
 	// The development mailbox exists only while the local SMTP fake is in use (as here).
 	'GET /dev/mailbox': everyone('ok'),

@@ -91,8 +91,8 @@ describe('content reports on the real MariaDB', () => {
 	it('refuses own content, unknown guides, and subject types that do not exist yet', async () => {
 		expect(await contentReports.report(author.id, 'guide', SLUG, input)).toMatchObject({ kind: 'conflict' });
 		expect(await contentReports.report(reader.id, 'guide', 'no-such-guide', input)).toEqual({ kind: 'not_found' });
-		const build = await contentReports.report(reader.id, 'build', '1', input);
-		expect(build).toMatchObject({ kind: 'conflict', message: expect.stringContaining('builds are not open yet') });
+		const photo = await contentReports.report(reader.id, 'photo', '1', input);
+		expect(photo).toMatchObject({ kind: 'conflict', message: expect.stringContaining('photos are not open yet') });
 		expect(await contentReports.hide(editor.id, { type: 'photo', id: '1' }, REASON)).toMatchObject({ kind: 'conflict' });
 		expect(await countRows('content_reports')).toBe(0);
 	});

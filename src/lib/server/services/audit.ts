@@ -27,6 +27,8 @@ export const AUDIT_ACTIONS = [
 	'content_report.dismissed',
 	'guide.hidden',
 	'guide.restored',
+	'build.hidden',
+	'build.restored',
 	'guide_revision.approved',
 	'guide_revision.changes_requested',
 	'guide_revision.declined',

@@ -118,6 +118,8 @@ export interface BuildView {
 	/** Oldest exchange-rate date behind an estimate; null when none was needed. */
 	ratesAsOf: string | null;
 	updatedAt: string;
+	/** Set while the editors hide the build (only its owner and editors get such a build). */
+	hidden?: { reason: string; hiddenAt: string } | null;
 }
 
 export interface BuildCard {

@@ -34,6 +34,7 @@ import { valueOf } from '$lib/domain/value';
 import { Build, BuildSlot, FrameResult, Guide, GuideRevision, Part, Quote, Region, Store, User, sequelize } from '$lib/server/db';
 import { neutraliseCell } from '$lib/server/csv-cells';
 import { activeRules } from './caution-rules';
+import { hasOpenReport } from './content-reports';
 import * as fx from './fx';
 import { toMinor } from './guide-drafts';
 import { loadRevisionSlots } from './revision-snapshots';
@@ -72,7 +73,8 @@ export type {
 	ValueView
 } from './build-views';
 
-export type Viewer = { id: string } | null;
+/** `role` (the session's) lets editors and admins open a hidden or reported build (see `editorAccess`). */
+export type Viewer = { id: string; role?: string } | null;
 type Issues = Record<string, string[]>;
 
 export type MutationOutcome =
@@ -217,9 +219,22 @@ function tokenMatches(stored: string, given: string | undefined): boolean {
 /** 'owner', 'other' (may read, sees no private data) or null (may not know the build exists). */
 function access(build: Build, viewer: Viewer, shareToken: string | undefined): 'owner' | 'other' | null {
 	if (viewer && viewer.id === build.ownerId) return 'owner';
+	// Hidden by the editors (services/content-reports): a 404 for everyone but the owner and editors.
+	if (build.hiddenAt) return null;
 	if (build.visibility === 'public') return 'other';
 	if (build.visibility === 'unlisted' && tokenMatches(build.shareToken, shareToken)) return 'other';
 	return null;
+}
+
+/**
+ * Editors and admins open a build that is hidden or has an open content report, whatever its
+ * visibility (it may have been made private after the report), to decide on it. They read it
+ * as anyone else does: no share token, notes, budget or purchases.
+ */
+async function editorAccess(build: Build, viewer: Viewer): Promise<'other' | null> {
+	if (!viewer || (viewer.role !== 'editor' && viewer.role !== 'admin')) return null;
+	if (build.hiddenAt) return 'other';
+	return (await hasOpenReport('build', String(build.id))) ? 'other' : null;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -368,7 +383,7 @@ export async function pricedOptions(build: Build, region: Region): Promise<Price
 export async function getBuild(viewer: Viewer, id: number, opts: { shareToken?: string; regionCode?: string } = {}): Promise<BuildView | null> {
 	const build = await loadBuild(id);
 	if (!build) return null;
-	const who = access(build, viewer, opts.shareToken);
+	const who = access(build, viewer, opts.shareToken) ?? (await editorAccess(build, viewer));
 	if (!who) return null;
 	let region = build.region;
 	if (opts.regionCode && opts.regionCode !== region.code) {
@@ -535,7 +550,9 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 		drift: driftView,
 		value,
 		ratesAsOf,
-		updatedAt: build.updatedAt.toISOString()
+		updatedAt: build.updatedAt.toISOString(),
+		// Only the owner and editors get a hidden build at all (see `access`).
+		hidden: build.hiddenAt ? { reason: build.hiddenReason ?? '', hiddenAt: build.hiddenAt.toISOString() } : null
 	};
 }
 
@@ -602,14 +619,14 @@ export async function listMine(ownerId: string): Promise<BuildCard[]> {
 	});
 }
 
-/** How many builds were forked from a guide, and its public forks (most recent first, at most 50). */
+/** How many builds were forked from a guide, and its public forks (most recent first, at most 50; hidden ones left out). */
 export async function lineage(guideSlug: string): Promise<LineageView> {
 	const guide = await Guide.findOne({ where: { slug: guideSlug }, attributes: ['id'] });
 	if (!guide) return { forkCount: 0, publicBuilds: [] };
 	const [forkCount, publicBuilds] = await Promise.all([
 		Build.count({ where: { sourceGuideId: guide.id } }),
 		Build.findAll({
-			where: { sourceGuideId: guide.id, visibility: 'public' },
+			where: { sourceGuideId: guide.id, visibility: 'public', hiddenAt: null },
 			include: [{ model: User, as: 'owner', attributes: ['name'] }],
 			order: [
 				['updatedAt', 'DESC'],

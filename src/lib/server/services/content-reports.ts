@@ -1,13 +1,13 @@
 /**
  * Content reports: signed-in people report a guide, build or photo with a reason; editors
  * dismiss the reports, hide the content (its owner still sees it, with the reason) or
- * restore it. The only module that reads or writes content reports or a guide's hidden
- * columns. Every decision writes its audit event in the same transaction.
+ * restore it. The only module that reads or writes content reports or the hidden columns
+ * of guides and builds. Every decision writes its audit event in the same transaction.
  *
  * Subjects: a small registry maps each subject type to a handler that finds, describes,
- * hides and restores that kind of content. Only 'guide' has a handler today; 'build' and
- * 'photo' are valid subject types (schema, table, audit) but are refused with a clear
- * message until those areas exist. Adding one means writing its SubjectHandler and
+ * hides and restores that kind of content. 'guide' and 'build' have handlers (a build's
+ * hidden columns are written here too); 'photo' is a valid subject type (schema, table,
+ * audit) but is refused with a clear message until that area exists. Adding one means writing its SubjectHandler and
  * putting it into SUBJECTS; nothing else here changes.
  *
  * Concurrency: one open report per reporter and subject is guaranteed by a unique index
@@ -15,10 +15,11 @@
  * `WHERE hidden_at IS NULL`), so of two editors deciding at once one wins and the other is
  * told the reports were already decided.
  */
+import { timingSafeEqual } from 'node:crypto';
 import { Op, QueryTypes, UniqueConstraintError } from 'sequelize';
 import type { Transaction } from 'sequelize';
 import type { ReportCategory, ReportState, ReportSubjectType } from '$lib/domain/content-reports';
-import { ContentReport, Guide, User, sequelize } from '$lib/server/db';
+import { Build, ContentReport, Guide, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Paged } from './audit';
 import { wholeSecondNow } from './users';
@@ -67,8 +68,16 @@ interface SubjectHandler {
 	 * editors deciding the same item queue instead of deadlocking on the reports' index gaps.
 	 */
 	lock(id: string, transaction: Transaction): Promise<boolean>;
-	/** The item a reader may report, looked up by the key in its public URL (a guide's slug). */
-	findReportable(key: string, transaction: Transaction): Promise<{ id: string; ownerId: string | null } | null>;
+	/**
+	 * The item a reader may report, looked up by the key in its public URL (a guide's slug, a
+	 * build's id). `reader` is who reports and what else their URL carried (an unlisted build's
+	 * link token): what they may not see is not found.
+	 */
+	findReportable(
+		key: string,
+		transaction: Transaction,
+		reader: { id: string; shareToken?: string }
+	): Promise<{ id: string; ownerId: string | null } | null>;
 	summaries(ids: string[]): Promise<Map<string, SubjectSummary>>;
 	/** Hides the item if it is visible: 'ok', 'already' (hidden by someone else) or 'not_found'. */
 	hide(id: string, reason: string, actorId: string, transaction: Transaction): Promise<'ok' | 'already' | 'not_found'>;
@@ -140,12 +149,99 @@ const guideSubject: SubjectHandler = {
 	}
 };
 
+function sameToken(stored: string, given: string | undefined): boolean {
+	if (!given) return false;
+	const a = Buffer.from(stored);
+	const b = Buffer.from(given);
+	return a.length === b.length && timingSafeEqual(a, b);
+}
+
+/**
+ * Builds (services/builds.ts): reportable by whoever may read them — a public build, an
+ * unlisted one with its link token — and never hidden. A private build of someone else is
+ * not found (its existence is not revealed). The owner is found, so `report` refuses their
+ * own build like an own guide. Editors open a reported or hidden build whatever its
+ * visibility (builds.ts getBuild, editor access), so the queue links unlisted ones with
+ * their token only for convenience.
+ */
+const buildSubject: SubjectHandler = {
+	async lock(id, transaction) {
+		const build = await Build.findByPk(Number(id), { attributes: ['id'], transaction, lock: transaction.LOCK.UPDATE });
+		return build !== null;
+	},
+
+	async findReportable(key, transaction, reader) {
+		if (!/^[1-9][0-9]{0,9}$/.test(key)) return null;
+		const build = await Build.findOne({
+			where: { id: Number(key), hiddenAt: null },
+			attributes: ['id', 'ownerId', 'visibility', 'shareToken'],
+			transaction
+		});
+		if (!build) return null;
+		const mayRead =
+			build.ownerId === reader.id ||
+			build.visibility === 'public' ||
+			(build.visibility === 'unlisted' && sameToken(build.shareToken, reader.shareToken));
+		return mayRead ? { id: String(build.id), ownerId: build.ownerId } : null;
+	},
+
+	async summaries(ids) {
+		const rows = (await Build.findAll({
+			where: { id: ids.map(Number) },
+			attributes: ['id', 'title', 'visibility', 'shareToken', 'hiddenAt', 'hiddenReason'],
+			include: [{ model: User, as: 'owner', attributes: ['name'] }]
+		})) as (Build & { owner?: User | null })[];
+		return new Map(
+			rows.map((b) => [
+				String(b.id),
+				{
+					type: 'build' as const,
+					id: String(b.id),
+					title: b.title,
+					url: b.visibility === 'unlisted' ? `/builds/${b.id}?key=${encodeURIComponent(b.shareToken)}` : `/builds/${b.id}`,
+					ownerName: b.owner?.name ?? null,
+					hidden: b.hiddenAt ? { reason: b.hiddenReason ?? '', at: b.hiddenAt.toISOString() } : null
+				}
+			])
+		);
+	},
+
+	async hide(id, reason, actorId, transaction) {
+		// silent: hiding is not the owner's change (updatedAt and version stay as they were).
+		const [changed] = await Build.update(
+			{ hiddenAt: wholeSecondNow(), hiddenReason: reason, hiddenById: actorId },
+			{ where: { id: Number(id), hiddenAt: null }, transaction, silent: true }
+		);
+		if (changed === 1) return 'ok';
+		return (await Build.count({ where: { id: Number(id) }, transaction })) > 0 ? 'already' : 'not_found';
+	},
+
+	async restore(id, transaction) {
+		const build = await Build.findByPk(Number(id), {
+			attributes: ['id', 'hiddenAt', 'hiddenReason'],
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
+		if (!build) return { kind: 'not_found' };
+		const [changed] = await Build.update(
+			{ hiddenAt: null, hiddenReason: null, hiddenById: null },
+			{ where: { id: build.id, hiddenAt: { [Op.ne]: null } }, transaction, silent: true }
+		);
+		return changed === 1 ? { kind: 'ok', reason: build.hiddenReason ?? null } : { kind: 'not_hidden' };
+	}
+};
+
 /** The registry: null marks a subject type the schema knows but the product does not have yet. */
 const SUBJECTS: Record<ReportSubjectType, SubjectHandler | null> = {
 	guide: guideSubject,
-	build: null,
+	build: buildSubject,
 	photo: null
 };
+
+/** Whether an item has a report no editor has decided yet (editors may open it to decide). */
+export async function hasOpenReport(subjectType: ReportSubjectType, subjectId: string): Promise<boolean> {
+	return (await ContentReport.count({ where: { subjectType, subjectId, state: 'open' } })) > 0;
+}
 
 function handlerFor(type: ReportSubjectType): SubjectHandler | { kind: 'conflict'; message: string } {
 	return (
@@ -158,21 +254,23 @@ function handlerFor(type: ReportSubjectType): SubjectHandler | { kind: 'conflict
 
 /**
  * Files a report by `reporterId` on the item of `subjectType` with public key `key` (a
- * guide's slug). A second report while the reporter's first is still open is answered
- * with `created: false` and changes nothing.
+ * guide's slug, a build's id; `access.shareToken` is an unlisted build's link token). A
+ * second report while the reporter's first is still open is answered with `created: false`
+ * and changes nothing.
  */
 export async function report(
 	reporterId: string,
 	subjectType: ReportSubjectType,
 	key: string,
-	input: { category: ReportCategory; detail: string }
+	input: { category: ReportCategory; detail: string },
+	access: { shareToken?: string } = {}
 ): Promise<Outcome<{ created: boolean; reportId: number }>> {
 	const handler = handlerFor(subjectType);
 	if ('kind' in handler) return handler;
 	let subjectId: string | null = null;
 	try {
 		return await sequelize.transaction(async (transaction) => {
-			const subject = await handler.findReportable(key, transaction);
+			const subject = await handler.findReportable(key, transaction, { id: reporterId, shareToken: access.shareToken });
 			if (!subject) return { kind: 'not_found' } as const;
 			subjectId = subject.id;
 			if (subject.ownerId === reporterId) {

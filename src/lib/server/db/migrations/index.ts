@@ -41,6 +41,9 @@ import * as mPriceSightings from './2026.12.05T10.00.00.create-price-sightings.j
 import * as mPriceSightingReports from './2026.12.05T10.01.00.create-price-sighting-reports.js';
 import * as mCautionRules from './2026.12.05T12.00.00.create-caution-rules.js';
 import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
+import * as mBuildsHiddenAt from './2026.12.06T10.00.00.add-builds-hidden-at.js';
+import * as mBuildsHiddenReason from './2026.12.06T10.01.00.add-builds-hidden-reason.js';
+import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -80,4 +83,7 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.05T10.01.00.create-price-sighting-reports': mPriceSightingReports,
 	'2026.12.05T12.00.00.create-caution-rules': mCautionRules,
 	'2026.12.06T09.00.00.create-builds': mBuilds,
+	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
+	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
+	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
 };

@@ -30,6 +30,10 @@ export class Build extends Model<InferAttributes<Build>, InferCreationAttributes
 	/** The newest source revision the owner was e-mailed about (no repeat mails). */
 	declare lastNotifiedRevisionId: CreationOptional<number | null>;
 	declare version: CreationOptional<number>;
+	/** Set while an editor has hidden the build after a content report (services/content-reports). */
+	declare hiddenAt: CreationOptional<Date | null>;
+	declare hiddenReason: CreationOptional<string | null>;
+	declare hiddenById: CreationOptional<string | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -46,6 +50,9 @@ export function initBuild(sequelize: Sequelize) {
 			notifyOnNewRevision: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
 			lastNotifiedRevisionId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
 			version: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 1 },
+			hiddenAt: { type: DataTypes.DATE, allowNull: true },
+			hiddenReason: { type: DataTypes.TEXT, allowNull: true },
+			hiddenById: { type: DataTypes.UUID, allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

@@ -1,12 +1,14 @@
 import { error, fail } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { formFields } from '$lib/schemas/account';
+import { reportInput } from '$lib/schemas/content-reports';
 import { addSlotForm, applyBudgetForm, overrideForm, proposeBudgetForm, purchaseForm, quantityForm, settingsForm, slotForm, swapForm, syncForm, versionForm } from '$lib/schemas/build-forms';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as builds from '$lib/server/services/builds';
 import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
+import * as contentReports from '$lib/server/services/content-reports';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -16,14 +18,19 @@ import type { Actions, PageServerLoad } from './$types';
  */
 export const load: PageServerLoad = async ({ params, url }) => {
 	const viewer = currentUser();
-	const build = await builds.getBuild(viewer ? { id: viewer.id } : null, Number(params.id), { shareToken: url.searchParams.get('key') ?? undefined });
+	// The role lets editors open a hidden or reported build (services/builds.ts editorAccess).
+	const shareKey = url.searchParams.get('key') ?? undefined;
+	const build = await builds.getBuild(viewer ? { id: viewer.id, role: viewer.role } : null, Number(params.id), { shareToken: shareKey });
 	if (!build) error(404, 'Build not found');
 	const sync = build.isOwner ? await buildSync.syncPlan(viewer?.id ?? '', build.id) : null;
 	// The owner's choices for adding or swapping to any catalog part, and for the region select.
 	return {
 		build,
 		sync: sync && (sync.kind === 'plan' || sync.kind === 'up_to_date') ? sync : null,
-		catalog: build.isOwner ? await drafts.editorCatalog() : null
+		catalog: build.isOwner ? await drafts.editorCatalog() : null,
+		// "Report this build": the form posts back with the link token the reader came with.
+		signedIn: viewer !== null,
+		shareKey: !build.isOwner && build.visibility === 'unlisted' ? (shareKey ?? null) : null
 	};
 };
 
@@ -44,6 +51,26 @@ async function parse<S extends z.ZodType>(request: Request, schema: S) {
 }
 
 export const actions: Actions = {
+	/** "Report this build": signed-in people who may read it (an unlisted one with ?key=); a repeat while the first is open changes nothing. */
+	report: async ({ params, request, url }) => {
+		const me = requireUser();
+		const fields = formFields(await request.formData());
+		const input = reportInput.safeParse(fields);
+		if (!input.success) {
+			return fail(400, { report: { issues: fieldIssues(input.error), category: fields.category ?? '', detail: fields.detail ?? '' } });
+		}
+		const outcome = await contentReports.report(me.id, 'build', params.id, input.data, { shareToken: url.searchParams.get('key') ?? undefined });
+		if (outcome.kind === 'not_found') return fail(404, { report: { problem: true, message: 'This build is not available.' } });
+		if (outcome.kind === 'conflict') return fail(409, { report: { problem: true, message: outcome.message } });
+		return {
+			report: {
+				problem: false,
+				message: outcome.created
+					? 'Thank you: your report is with the editors.'
+					: 'You have already reported this build and the editors have not decided yet; nothing new was filed.'
+			}
+		};
+	},
 	swap: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, swapForm);
