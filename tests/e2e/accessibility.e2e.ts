@@ -1,6 +1,6 @@
-import AxeBuilder from '@axe-core/playwright';
 import { expect, test } from '@playwright/test';
 import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
+import { severeViolations } from './support';
 
 /*
  * axe-core (WCAG 2.0–2.2 A and AA rules) on the main public pages: no violation of impact
@@ -23,12 +23,7 @@ for (const { name, path } of PAGES) {
 	test(`axe finds no serious or critical violation: ${name}`, async ({ page }) => {
 		const response = await page.goto(path);
 		expect(response?.status()).toBe(200);
-		const results = await new AxeBuilder({ page })
-			.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'])
-			.analyze();
-		const severe = results.violations
-			.filter((v) => v.impact === 'serious' || v.impact === 'critical')
-			.map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+		const severe = await severeViolations(page);
 		expect(severe, severe.join('\n')).toEqual([]);
 	});
 }

@@ -1,7 +1,7 @@
 import { expect, test } from '@playwright/test';
 import type { Browser, Page } from '@playwright/test';
 import { parse } from 'csv-parse/sync';
-import { signInWithPassword } from './support';
+import { severeViolations, signInWithPassword } from './support';
 
 /*
  * Builds in Chromium against the production build: a reader forks a seeded guide, swaps the
@@ -87,6 +87,8 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	const buildUrl = new URL(reader.url()).pathname;
 	await expect(reader.getByRole('heading', { level: 1 })).toContainText('(my build)');
 	await expect(slot(reader, 'Graphics card').getByTestId('slot-part')).toHaveText(/Cobalt C7/);
+	const buildViolations = await severeViolations(reader);
+	expect(buildViolations, buildViolations.join('\n')).toEqual([]);
 
 	// Swap the graphics card to the cheaper alternate in one click.
 	const gpu = slot(reader, 'Graphics card');
@@ -95,6 +97,26 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await expect(reader.getByText('Swapped.')).toBeVisible();
 	await expect(slot(reader, 'Graphics card').getByTestId('slot-part')).toHaveText(/Auric A64/);
 	await expect(reader.getByTestId('drift')).toContainText('Graphics card');
+
+	// A second tab still holds the old version: its edit is refused, nothing is overwritten.
+	const secondTab = await reader.context().newPage();
+	await secondTab.goto(buildUrl);
+	await reader.reload();
+	await slot(reader, 'Memory').locator('summary', { hasText: 'Other part' }).click();
+	await slot(reader, 'Memory').getByLabel('Quantity').fill('2');
+	await slot(reader, 'Memory').getByRole('button', { name: 'Set quantity' }).click();
+	await expect(reader.getByText('Quantity saved.')).toBeVisible();
+	await slot(secondTab, 'Memory').locator('summary', { hasText: 'Other part' }).click();
+	await slot(secondTab, 'Memory').getByLabel('Quantity').fill('3');
+	await slot(secondTab, 'Memory').getByRole('button', { name: 'Set quantity' }).click();
+	await expect(secondTab.getByText(/changed in another tab or window/)).toBeVisible();
+	await secondTab.close();
+	await reader.reload();
+	await expect(slot(reader, 'Memory')).toContainText('× 2');
+	await slot(reader, 'Memory').locator('summary', { hasText: 'Other part' }).click();
+	await slot(reader, 'Memory').getByLabel('Quantity').fill('1');
+	await slot(reader, 'Memory').getByRole('button', { name: 'Set quantity' }).click();
+	await expect(reader.getByText('Quantity saved.')).toBeVisible();
 
 	// The reader's region: US dollars, before tax.
 	await reader.getByLabel('Your region').selectOption('us');
@@ -135,6 +157,8 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	const conflict = sync.locator('[data-testid="sync-row"][data-status="conflict"]');
 	await expect(conflict).toHaveCount(1);
 	await expect(conflict).toContainText('Graphics card');
+	const syncViolations = await severeViolations(reader);
+	expect(syncViolations, syncViolations.join('\n')).toEqual([]);
 	await expect(sync.locator('[data-testid="sync-row"][data-status="upstream_only"]')).toContainText('Power supply');
 	// Without a choice for the conflict the browser refuses to submit; choose to keep ours.
 	await conflict.getByLabel('Keep yours').check();

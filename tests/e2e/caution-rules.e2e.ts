@@ -1,7 +1,6 @@
-import AxeBuilder from '@axe-core/playwright';
 import { expect, test } from '@playwright/test';
 import type { APIRequestContext, Page } from '@playwright/test';
-import { signInWithPassword } from './support';
+import { severeViolations, signInWithPassword } from './support';
 
 /*
  * Pairing cautions end to end: the demo editor writes a rule through the form (one refused
@@ -113,10 +112,7 @@ for (const path of ['/editor/cautions', '/editor/cautions/new', '/editor/caution
 		await signInWithPassword(page, 'editor@slotwise.test');
 		const response = await page.goto(path);
 		expect(response?.status()).toBe(200);
-		const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
-		const severe = results.violations
-			.filter((v) => v.impact === 'serious' || v.impact === 'critical')
-			.map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+		const severe = await severeViolations(page);
 		expect(severe, severe.join('\n')).toEqual([]);
 	});
 }

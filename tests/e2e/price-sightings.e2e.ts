@@ -1,7 +1,6 @@
-import AxeBuilder from '@axe-core/playwright';
 import { expect, test } from '@playwright/test';
 import type { Page } from '@playwright/test';
-import { signInWithPassword } from './support';
+import { severeViolations, signInWithPassword } from './support';
 
 /*
  * A price sighting end to end in Chromium: the demo reader reports a price on a part page,
@@ -12,14 +11,6 @@ import { signInWithPassword } from './support';
  */
 const PART = '/parts/arkwell-m790-atx';
 const STORE = 'Bayline PC Supply';
-
-/** axe-core's serious and critical WCAG 2.x A/AA violations, as accessibility.e2e.ts checks them. */
-async function severeViolations(page: Page): Promise<string[]> {
-	const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
-	return results.violations
-		.filter((v) => v.impact === 'serious' || v.impact === 'critical')
-		.map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
-}
 
 test('a reader reports a price, an editor verifies it, and it joins the price history', async ({ browser }) => {
 	// Three browser sessions and two axe runs (10–15 s each on the test machine).

@@ -2,7 +2,7 @@ import { expect, test } from '@playwright/test';
 import type { APIRequestContext, Browser, Page } from '@playwright/test';
 import { BASE_URL } from '../playwright.config';
 import { waitForMessage } from '../support/mailbox';
-import { signInWithPassword } from './support';
+import { severeViolations, signInWithPassword } from './support';
 
 /*
  * Moderation in Chromium against the production build, with e-mails read from the SMTP fake:
@@ -84,6 +84,8 @@ test('submit → request changes → resubmit → approve: public, in the feed, 
 	await expect(editor.getByTestId('fit-report')).toBeVisible();
 	await expect(editor.getByTestId('power-budget')).toBeVisible();
 	await expect(editor.getByRole('heading', { name: 'New guide: everything is new' })).toBeVisible();
+	const reviewViolations = await severeViolations(editor);
+	expect(reviewViolations, reviewViolations.join('\n')).toEqual([]);
 	// Request changes without a note: a field message, nothing decided.
 	await editor.getByRole('button', { name: 'Request changes' }).click();
 	await expect(editor.getByText('Say what should change, in the note or on a slot.')).toBeVisible();
@@ -97,6 +99,8 @@ test('submit → request changes → resubmit → approve: public, in the feed, 
 	await author.goto('/my/guides');
 	const card = author.getByRole('article', { name: title });
 	await expect(card.getByTestId('guide-state')).toHaveText('Changes requested');
+	const dashboardViolations = await severeViolations(author);
+	expect(dashboardViolations, dashboardViolations.join('\n')).toEqual([]);
 	await expect(card).toContainText('Please explain the cooler choice in the CPU slot.');
 	await card.getByRole('link', { name: `Edit ${title}` }).click();
 	await author.getByLabel('Why this part').first().fill('Six cores with the bundled cooler: quiet enough at 65 W.');

@@ -1,3 +1,4 @@
+import AxeBuilder from '@axe-core/playwright';
 import { expect } from '@playwright/test';
 import type { Page } from '@playwright/test';
 
@@ -43,4 +44,12 @@ export async function signUpConfirmed(page: Page, name: string, email: string, p
 	await expect(page.getByText('Your address is confirmed')).toBeVisible();
 	await signInWithPassword(page, email, password);
 	await expect(page).toHaveURL(/\/$/);
+}
+
+/** axe-core's serious and critical WCAG 2.0–2.2 A/AA violations on the page, one line each with the selectors flagged. */
+export async function severeViolations(page: Page): Promise<string[]> {
+	const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
+	return results.violations
+		.filter((v) => v.impact === 'serious' || v.impact === 'critical')
+		.map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
 }
