@@ -17,6 +17,21 @@
  * Pure: plain inputs, plain outputs, no framework or database imports.
  */
 
+/**
+ * Keys for a revision's slots, in order: the label, numbered from the second time a label
+ * repeats ("Storage", "Storage (2)"), kept within the 80 characters a key column holds.
+ */
+export function slotKeys(labels: readonly string[]): string[] {
+	const seen = new Map<string, number>();
+	return labels.map((label) => {
+		const n = (seen.get(label) ?? 0) + 1;
+		seen.set(label, n);
+		if (n === 1) return label;
+		const suffix = ` (${n})`;
+		return `${label.slice(0, 80 - suffix.length)}${suffix}`;
+	});
+}
+
 /** What is compared per slot. */
 export interface SlotContent {
 	partId: number;

@@ -131,6 +131,8 @@ export interface BuildCard {
 	slotCount: number;
 	boughtCount: number;
 	newerRevisionAvailable: boolean;
+	/** Set while an editor has hidden the build after a report: the reason its owner is shown. */
+	hiddenReason: string | null;
 	updatedAt: string;
 }
 

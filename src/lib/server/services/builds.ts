@@ -27,7 +27,7 @@ import { minorUnitDigits, money, multiply, sum } from '$lib/domain/money';
 import { powerBudget } from '$lib/domain/power';
 import { convertThroughEur, MissingRateError, priceOption } from '$lib/domain/region';
 import type { OptionInput, PricedLine, QuoteInput, RatesPerEur, RegionPricing } from '$lib/domain/region';
-import { drift as driftOf } from '$lib/domain/sync';
+import { drift as driftOf, slotKeys } from '$lib/domain/sync';
 import type { BuildSlot as SyncBuildSlot, SourceSlot } from '$lib/domain/sync';
 import type { Money, PartCategory, TaxMode } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
@@ -100,14 +100,8 @@ export type KeyedRevisionSlot = { key: string; slot: LoadedRevisionSlot };
  * Fork, drift, sync and within-budget all key revision slots with this function.
  */
 export function keyedRevisionSlots(slots: readonly LoadedRevisionSlot[]): KeyedRevisionSlot[] {
-	const seen = new Map<string, number>();
-	return slots.map((slot) => {
-		const n = (seen.get(slot.label) ?? 0) + 1;
-		seen.set(slot.label, n);
-		if (n === 1) return { key: slot.label, slot };
-		const suffix = ` (${n})`;
-		return { key: `${slot.label.slice(0, 80 - suffix.length)}${suffix}`, slot };
-	});
+	const keys = slotKeys(slots.map((s) => s.label));
+	return slots.map((slot, i) => ({ key: keys[i] ?? slot.label, slot }));
 }
 
 /** A revision's slots as domain/sync.ts takes them. */
@@ -614,6 +608,7 @@ export async function listMine(ownerId: string): Promise<BuildCard[]> {
 			slotCount: mine.length,
 			boughtCount: mine.filter((s) => s.purchased).length,
 			newerRevisionAvailable: source?.newerRevisionAvailable ?? false,
+			hiddenReason: b.hiddenAt ? (b.hiddenReason ?? '') : null,
 			updatedAt: b.updatedAt.toISOString()
 		};
 	});
