@@ -143,6 +143,8 @@ export interface ReviewPage {
 	revisionId: number;
 	revisionNumber: number;
 	guide: { slug: string; title: string; summary: string; state: string; authorName: string; live: boolean; disclosure: string; disclosureNote: string | null };
+	/** This revision is the one the public sees. */
+	isLiveRevision: boolean;
 	submittedAt: string | null;
 	/** 'pending' while waiting; otherwise what was decided. */
 	status: 'pending' | 'draft' | 'approve' | 'request_changes' | 'decline';
@@ -195,6 +197,7 @@ export async function getReview(actor: Actor, revisionId: number, siteHost: stri
 			disclosure: guide.disclosure,
 			disclosureNote: guide.disclosureNote
 		},
+		isLiveRevision: guide.publishedRevisionId === revision.id && guide.state === 'published',
 		submittedAt: revision.submittedAt.toISOString(),
 		status: revision.reviewedAt ? (revision.decision ?? 'approve') : 'pending',
 		slots: own.map((s) => ({
