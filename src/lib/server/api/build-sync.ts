@@ -42,6 +42,15 @@ export async function getSyncPlan(event: RequestEvent): Promise<Response> {
 	}
 }
 
+/** A sync or its undo: 404, 400 with issues, 409 with the current table, or what changed. */
+function changeAnswer(outcome: sync.ApplySyncOutcome | sync.UndoSyncOutcome): Response {
+	if (outcome.kind === 'not_found') return notFound();
+	if (outcome.kind === 'invalid') return invalid(outcome.issues);
+	if (outcome.kind === 'conflict') return stale(outcome.current);
+	const { kind: _kind, ...changed } = outcome;
+	return json(changed);
+}
+
 /** POST …/sync: apply the reader's choices. */
 export async function postSync(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
@@ -49,18 +58,7 @@ export async function postSync(event: RequestEvent): Promise<Response> {
 	if (!input.ok) return input.response;
 	const { version, ...choices } = input.data;
 	const outcome = await sync.applySync(user.id, buildId(event), choices, version);
-	switch (outcome.kind) {
-		case 'not_found':
-			return notFound();
-		case 'invalid':
-			return invalid(outcome.issues);
-		case 'conflict':
-			return stale(outcome.current);
-		case 'ok': {
-			const { kind: _kind, ...applied } = outcome;
-			return json(applied);
-		}
-	}
+	return changeAnswer(outcome);
 }
 
 /** POST …/sync/undo: put back the slots and base revision of the last sync. */
@@ -69,18 +67,7 @@ export async function postUndoSync(event: RequestEvent): Promise<Response> {
 	const input = await readJson(event.request, syncUndoInput);
 	if (!input.ok) return input.response;
 	const outcome = await sync.undoLastSync(user.id, buildId(event), input.data.version);
-	switch (outcome.kind) {
-		case 'not_found':
-			return notFound();
-		case 'invalid':
-			return invalid(outcome.issues);
-		case 'conflict':
-			return stale(outcome.current);
-		case 'ok': {
-			const { kind: _kind, ...undone } = outcome;
-			return json(undone);
-		}
-	}
+	return changeAnswer(outcome);
 }
 
 /** POST …/within-budget: the proposed swaps (nothing is changed). */

@@ -23,16 +23,10 @@ import { Part, Quote, Region, Store, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Paged } from './audit';
 import { escapeLike } from './users';
+import type { Issues, Outcome } from './outcome';
 
-/** Field name → messages, as forms show them. Spec fields are keyed `spec.<path>`. */
-export type Issues = Record<string, string[]>;
+export type { Issues, Outcome } from './outcome';
 
-/** What a change returns: routes map invalid to 400, not_found to 404, conflict to 409. */
-export type Outcome<T extends object = object> =
-	| ({ kind: 'ok' } & T)
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' }
-	| { kind: 'conflict'; message: string };
 
 export interface PartRow {
 	id: number;

@@ -11,14 +11,10 @@ import { cautionRuleInput } from '$lib/schemas/caution-rules';
 import { fieldIssues } from '$lib/schemas/issues';
 import { CautionRule, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
+import type { Issues, Outcome } from './outcome';
 
-export type Issues = Record<string, string[]>;
+export type { Issues, Outcome } from './outcome';
 
-export type Outcome<T extends object = object> =
-	| ({ kind: 'ok' } & T)
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' }
-	| { kind: 'conflict'; message: string };
 
 export interface CautionRuleRow {
 	id: number;
