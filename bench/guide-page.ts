@@ -115,7 +115,9 @@ function writeDocs(app: CannonResult, bare: CannonResult, htmlBytes: number): st
 	].join('\n');
 	const file = resolve(ROOT, 'docs/benchmarks.md');
 	mkdirSync(dirname(file), { recursive: true });
-	const current = existsSync(file) ? readFileSync(file, 'utf8') : '# Benchmarks\n\nFigures from the scripts under `bench/`.\n';
+	const current = existsSync(file)
+		? readFileSync(file, 'utf8')
+		: '# Benchmarks\n\nFigures from the scripts under `bench/`.\n';
 	const start = current.indexOf(MARK_START);
 	const end = current.indexOf(MARK_END);
 	const next =
@@ -127,7 +129,8 @@ function writeDocs(app: CannonResult, bare: CannonResult, htmlBytes: number): st
 }
 
 async function main(): Promise<void> {
-	if (!existsSync(resolve(ROOT, 'build/index.js'))) throw new Error('No build/: run `npx vite build` first.');
+	if (!existsSync(resolve(ROOT, 'build/index.js')))
+		throw new Error('No build/: run `npx vite build` first.');
 	const origin = `http://${HOST}:${APP_PORT}`;
 	const app = spawn(process.execPath, ['build'], {
 		cwd: ROOT,
@@ -155,7 +158,8 @@ async function main(): Promise<void> {
 		await waitForHealth(`${origin}/api/health`, 60_000);
 		const pageUrl = `${origin}/guides/${SLUG}`;
 		const first = await fetch(pageUrl);
-		if (first.status !== 200) throw new Error(`${pageUrl} answered ${first.status}; is the DB seeded?`);
+		if (first.status !== 200)
+			throw new Error(`${pageUrl} answered ${first.status}; is the DB seeded?`);
 		const html = Buffer.from(await first.arrayBuffer());
 		const contentType = first.headers.get('content-type') ?? 'text/html';
 
@@ -177,8 +181,11 @@ async function main(): Promise<void> {
 		console.log('| server | req/s | p50 ms | p99 ms | requests | errors | non-2xx |');
 		console.log(row('app', appResult));
 		console.log(row('bare', bareResult));
-		console.log(`ratio app/bare: ${(appResult.requests.average / bareResult.requests.average).toFixed(3)}`);
-		if (process.env.BENCH_WRITE !== '0') console.log(`written: ${writeDocs(appResult, bareResult, html.length)}`);
+		console.log(
+			`ratio app/bare: ${(appResult.requests.average / bareResult.requests.average).toFixed(3)}`
+		);
+		if (process.env.BENCH_WRITE !== '0')
+			console.log(`written: ${writeDocs(appResult, bareResult, html.length)}`);
 		ok = true;
 	} finally {
 		if (!ok && appErrors) console.error(appErrors);

@@ -13,7 +13,13 @@
  * as a caller with precomputed fit answers would; its calls are inside the timed solve.
  */
 import { performance } from 'node:perf_hooks';
-import { bruteForce, withinBudget, type BudgetSlot, type WithinBudgetInput, type WithinBudgetResult } from '../src/lib/domain/within-budget';
+import {
+	bruteForce,
+	withinBudget,
+	type BudgetSlot,
+	type WithinBudgetInput,
+	type WithinBudgetResult
+} from '../src/lib/domain/within-budget';
 
 function mulberry32(seed: number): () => number {
 	let a = seed >>> 0;
@@ -26,10 +32,32 @@ function mulberry32(seed: number): () => number {
 	};
 }
 
-const SLOT_KEYS = ['cpu', 'cooler', 'board', 'memory', 'drive-1', 'drive-2', 'gpu', 'psu', 'case', 'fans', 'os', 'extra'];
+const SLOT_KEYS = [
+	'cpu',
+	'cooler',
+	'board',
+	'memory',
+	'drive-1',
+	'drive-2',
+	'gpu',
+	'psu',
+	'case',
+	'fans',
+	'os',
+	'extra'
+];
 const RELATED: [string, string][] = [
-	['cpu', 'board'], ['cpu', 'cooler'], ['board', 'memory'], ['board', 'case'], ['board', 'drive-1'], ['board', 'drive-2'],
-	['gpu', 'case'], ['gpu', 'psu'], ['cooler', 'case'], ['psu', 'case'], ['cpu', 'memory']
+	['cpu', 'board'],
+	['cpu', 'cooler'],
+	['board', 'memory'],
+	['board', 'case'],
+	['board', 'drive-1'],
+	['board', 'drive-2'],
+	['gpu', 'case'],
+	['gpu', 'psu'],
+	['cooler', 'case'],
+	['psu', 'case'],
+	['cpu', 'memory']
 ];
 
 interface Spec {
@@ -46,19 +74,28 @@ interface Spec {
 
 function instance(seed: number, spec: Spec): WithinBudgetInput {
 	const rand = mulberry32(seed);
-	const price = () => (spec.coarse ? 10_000 * (1 + Math.floor(rand() * 4)) : 3_000 + Math.floor(rand() * 57_000));
+	const price = () =>
+		spec.coarse ? 10_000 * (1 + Math.floor(rand() * 4)) : 3_000 + Math.floor(rand() * 57_000);
 	const keys = SLOT_KEYS.slice(0, spec.slots);
 	const slots: BudgetSlot[] = keys.map((key) => ({
 		key,
 		current: { id: `${key}#0`, price: price() },
-		alternates: Array.from({ length: spec.options - 1 }, (_, j) => ({ id: `${key}#${j + 1}`, price: price() }))
+		alternates: Array.from({ length: spec.options - 1 }, (_, j) => ({
+			id: `${key}#${j + 1}`,
+			price: price()
+		}))
 	}));
 	const related = new Set(RELATED.map(([a, b]) => `${a}|${b}`));
 	const conflicting = new Set<string>();
 	for (let i = 0; i < keys.length; i++) {
 		for (let j = i + 1; j < keys.length; j++) {
-			const rate = related.has(`${keys[i]}|${keys[j]}`) || related.has(`${keys[j]}|${keys[i]}`) ? spec.related : spec.background;
-			for (let a = 0; a < spec.options; a++) for (let b = 0; b < spec.options; b++) if (rand() < rate) conflicting.add(`${i}.${a}|${j}.${b}`);
+			const rate =
+				related.has(`${keys[i]}|${keys[j]}`) || related.has(`${keys[j]}|${keys[i]}`)
+					? spec.related
+					: spec.background;
+			for (let a = 0; a < spec.options; a++)
+				for (let b = 0; b < spec.options; b++)
+					if (rand() < rate) conflicting.add(`${i}.${a}|${j}.${b}`);
 		}
 	}
 	const input: WithinBudgetInput = {
@@ -97,7 +134,11 @@ function time(fn: () => unknown, runs: number, warmup: number): number {
 const ms = (x: number) => `${x.toFixed(3)} ms`;
 
 function outcome(r: WithinBudgetResult): string {
-	return r.ok ? `${r.changes} changes` : r.reason === 'over_budget' ? 'over budget' : 'no conflict-free';
+	return r.ok
+		? `${r.changes} changes`
+		: r.reason === 'over_budget'
+			? 'over budget'
+			: 'no conflict-free';
 }
 
 const INSTANCES = 25;
@@ -121,29 +162,85 @@ function scenario(label: string, spec: Spec): Row {
 		nodes.push(r.nodes);
 		times.push(time(() => withinBudget(input), 15, 5));
 	}
-	return { label, median: median(times), worst: Math.max(...times), outcomes, nodes: median(nodes) };
+	return {
+		label,
+		median: median(times),
+		worst: Math.max(...times),
+		outcomes,
+		nodes: median(nodes)
+	};
 }
 
 // The very first solve in this process, before the JIT has seen the code.
-const coldInput = instance(999, { slots: 12, options: 6, related: 0.2, background: 0, budget: 0.85 });
+const coldInput = instance(999, {
+	slots: 12,
+	options: 6,
+	related: 0.2,
+	background: 0,
+	budget: 0.85
+});
 const coldStart = performance.now();
 withinBudget(coldInput);
 const cold = performance.now() - coldStart;
 
-console.log(`Slotwise within-budget benchmark (Node ${process.version}), ${INSTANCES} seeded instances per line`);
+console.log(
+	`Slotwise within-budget benchmark (Node ${process.version}), ${INSTANCES} seeded instances per line`
+);
 console.log(`first solve in the process (cold, 12 × 6): ${ms(cold)}`);
-console.log('instance                                          | median of per-instance medians | slowest instance | median nodes | outcomes');
+console.log(
+	'instance                                          | median of per-instance medians | slowest instance | median nodes | outcomes'
+);
 const rows = [
-	scenario('12 × 6, related conflicts, budget 85 %', { slots: 12, options: 6, related: 0.2, background: 0, budget: 0.85 }),
-	scenario('12 × 6, related conflicts, budget 70 %', { slots: 12, options: 6, related: 0.2, background: 0, budget: 0.7 }),
-	scenario('12 × 6, + 3 % conflicts anywhere, budget 85 %', { slots: 12, options: 6, related: 0.2, background: 0.03, budget: 0.85 }),
-	scenario('12 × 6, related conflicts, budget 1 below cheapest', { slots: 12, options: 6, related: 0.2, background: 0, budget: 'below-cheapest' }),
-	scenario('12 × 6, 4 price steps (many ties), budget 85 %', { slots: 12, options: 6, related: 0.2, background: 0, budget: 0.85, coarse: true }),
-	scenario('12 × 6, 4 price steps, budget 1 below cheapest', { slots: 12, options: 6, related: 0.2, background: 0, budget: 'below-cheapest', coarse: true })
+	scenario('12 × 6, related conflicts, budget 85 %', {
+		slots: 12,
+		options: 6,
+		related: 0.2,
+		background: 0,
+		budget: 0.85
+	}),
+	scenario('12 × 6, related conflicts, budget 70 %', {
+		slots: 12,
+		options: 6,
+		related: 0.2,
+		background: 0,
+		budget: 0.7
+	}),
+	scenario('12 × 6, + 3 % conflicts anywhere, budget 85 %', {
+		slots: 12,
+		options: 6,
+		related: 0.2,
+		background: 0.03,
+		budget: 0.85
+	}),
+	scenario('12 × 6, related conflicts, budget 1 below cheapest', {
+		slots: 12,
+		options: 6,
+		related: 0.2,
+		background: 0,
+		budget: 'below-cheapest'
+	}),
+	scenario('12 × 6, 4 price steps (many ties), budget 85 %', {
+		slots: 12,
+		options: 6,
+		related: 0.2,
+		background: 0,
+		budget: 0.85,
+		coarse: true
+	}),
+	scenario('12 × 6, 4 price steps, budget 1 below cheapest', {
+		slots: 12,
+		options: 6,
+		related: 0.2,
+		background: 0,
+		budget: 'below-cheapest',
+		coarse: true
+	})
 ];
 for (const r of rows) {
 	const o = [...r.outcomes].map(([k, v]) => `${v}× ${k}`).join(', ');
-	console.log(`${r.label.padEnd(50)}| ${ms(r.median).padStart(30)} | ${ms(r.worst).padStart(16)} | ${String(r.nodes).padStart(12)} | ${o}`);
+	console.log(
+		`${r.label.padEnd(50)}| ${ms(r.median).padStart(30)} | ${ms(r.worst).padStart(16)} | ${String(r.nodes).padStart(12)} | ${o}`
+	);
 }
 
 // Brute force against branch and bound on 7 × 6 (6^7 = 279,936 combinations).
@@ -165,12 +262,18 @@ for (let s = 0; s < SMALL; s++) {
 	ratios.push(tf / tb);
 }
 console.log('');
-console.log(`7 × 6 (brute force: 279,936 combinations), ${SMALL} seeded instances, related conflicts, budget 85 %:`);
+console.log(
+	`7 × 6 (brute force: 279,936 combinations), ${SMALL} seeded instances, related conflicts, budget 85 %:`
+);
 console.log(`  branch and bound, median: ${ms(median(bbTimes))}`);
 console.log(`  brute force, median:      ${ms(median(bfTimes))}`);
-console.log(`  ratio brute force / branch and bound, median of per-instance ratios: ${median(ratios).toFixed(0)}× (min ${Math.min(...ratios).toFixed(0)}×, max ${Math.max(...ratios).toFixed(0)}×)`);
+console.log(
+	`  ratio brute force / branch and bound, median of per-instance ratios: ${median(ratios).toFixed(0)}× (min ${Math.min(...ratios).toFixed(0)}×, max ${Math.max(...ratios).toFixed(0)}×)`
+);
 console.log(`  same answer (changes, total, choice or explanation): ${agree} of ${SMALL}`);
 const main = rows[0]!;
 const slowest = Math.max(...rows.map((r) => r.worst));
 console.log('');
-console.log(`goal (12 × 6 under 50 ms): median ${ms(main.median)} — ${main.median < 50 ? 'met' : 'NOT met'}; slowest instance of any line ${ms(slowest)} — ${slowest < 50 ? 'met' : 'NOT met'}`);
+console.log(
+	`goal (12 × 6 under 50 ms): median ${ms(main.median)} — ${main.median < 50 ? 'met' : 'NOT met'}; slowest instance of any line ${ms(slowest)} — ${slowest < 50 ? 'met' : 'NOT met'}`
+);

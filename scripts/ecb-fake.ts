@@ -8,7 +8,7 @@
  *
  * The file is tests/fixtures/ecb/eurofxref-2024-01-02.xml: the real reference rates the ECB
  * published for 2 January 2024 (source: ECB, "Euro foreign exchange reference rates",
- * eurofxref-hist.csv, row 2024-01-02; CHECK-VALUES.md 10c), in the ECB's XML layout. A past
+ * eurofxref-hist.csv, row 2024-01-02; docs/sources.md 10c), in the ECB's XML layout. A past
  * day on purpose: the app must show these rates as stale, which is the honest label.
  */
 import { readFileSync } from 'node:fs';

@@ -45,8 +45,59 @@ ensure_chromium() {
 	fi
 }
 
+DATA_DIR="${SLOTWISE_DATA_DIR:-$ROOT/.data}"
+
+# Ports: two checkouts (or a developer's own instance) on one machine must not collide, so
+# every port this script starts something on is chosen, not assumed. An explicit variable
+# always wins; otherwise the port this checkout used last, while its own service still holds
+# it or it is free; otherwise the usual default when free; otherwise any free port. The
+# choice is remembered in .data/<name>.port.
+port_free() { ! (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+free_port() {
+	node -e "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"
+}
+# pid_alive STEM: the process group recorded in .data/STEM.pid still runs.
+pid_alive() {
+	local pid
+	pid="$(cat "$DATA_DIR/$1.pid" 2>/dev/null || true)"
+	[ -n "$pid" ] && kill -0 -- "-$pid" 2>/dev/null
+}
+# choose_port VAR STEM DEFAULT [OURS_RUNNING_COMMAND...]
+choose_port() {
+	local var="$1" stem="$2" default="$3" saved port
+	shift 3
+	[ -n "${!var:-}" ] && return 0
+	mkdir -p "$DATA_DIR"
+	saved="$(cat "$DATA_DIR/$stem.port" 2>/dev/null || true)"
+	if [ $# -gt 0 ] && "$@"; then
+		port="${saved:-$default}"
+	elif [ -n "$saved" ] && port_free "$saved"; then
+		port="$saved"
+	elif port_free "$default"; then
+		port="$default"
+	else
+		port="$(free_port)"
+	fi
+	echo "$port" >"$DATA_DIR/$stem.port"
+	export "$var=$port"
+}
+# The port our own MariaDB listens on, asked over its socket (empty when it is not running).
+our_db_port() {
+	mariadb --no-defaults --socket="$DATA_DIR/mariadb.sock" -uroot -N -e 'SELECT @@port' 2>/dev/null || true
+}
+
 start_db() {
-	step "Starting MariaDB on 127.0.0.1:${DB_PORT:-3307}"
+	if [ -z "${DB_PORT:-}" ]; then
+		local running
+		running="$(our_db_port)"
+		if [ -n "$running" ]; then
+			export DB_PORT="$running"
+			echo "$running" >"$DATA_DIR/db.port"
+		else
+			choose_port DB_PORT db 3307
+		fi
+	fi
+	step "Starting MariaDB on 127.0.0.1:$DB_PORT"
 	bash scripts/db.sh start || fail "start MariaDB"
 }
 
@@ -59,8 +110,9 @@ start_mail_fake() {
 		return
 	fi
 	export SMTP_HOST=127.0.0.1
-	export SMTP_PORT="${SMTP_PORT:-2525}"
-	export MAILBOX_URL="http://127.0.0.1:${MAILBOX_PORT:-2580}"
+	choose_port SMTP_PORT smtp 2525 pid_alive smtp-fake
+	choose_port MAILBOX_PORT mailbox 2580 pid_alive smtp-fake
+	export MAILBOX_URL="http://127.0.0.1:$MAILBOX_PORT"
 	step "Starting the local SMTP fake on 127.0.0.1:$SMTP_PORT (mailbox $MAILBOX_URL)"
 	bash scripts/smtp-fake.sh start || fail "start the SMTP fake"
 }
@@ -73,7 +125,7 @@ start_ecb_fake() {
 		step "Using the exchange rates at $ECB_RATES_URL from the environment (no local ECB fake)"
 		return
 	fi
-	export ECB_FAKE_PORT="${ECB_FAKE_PORT:-2590}"
+	choose_port ECB_FAKE_PORT ecb 2590 pid_alive ecb-fake
 	export ECB_RATES_URL="http://127.0.0.1:$ECB_FAKE_PORT/stats/eurofxref/eurofxref-daily.xml"
 	step "Starting the local ECB rates fake on $ECB_RATES_URL (rates of 2 January 2024)"
 	bash scripts/ecb-fake.sh start || fail "start the ECB rates fake"

@@ -81,9 +81,14 @@ function headerMap(parsed: ParsedMail): Record<string, string> {
 	return out;
 }
 
-function toStored(parsed: ParsedMail, session: SMTPServerSession, sizeBytes: number): StoredMessage {
+function toStored(
+	parsed: ParsedMail,
+	session: SMTPServerSession,
+	sizeBytes: number
+): StoredMessage {
 	const receivedAt = new Date().toISOString();
-	const date = parsed.date && !Number.isNaN(parsed.date.getTime()) ? parsed.date.toISOString() : receivedAt;
+	const date =
+		parsed.date && !Number.isNaN(parsed.date.getTime()) ? parsed.date.toISOString() : receivedAt;
 	const { mailFrom, rcptTo } = session.envelope;
 	return {
 		id: randomUUID(),
@@ -162,7 +167,10 @@ const smtp = new SMTPServer({
 smtp.on('error', (error) => log('smtp-error', { error: String(error) }));
 
 function sendJson(res: ServerResponse, status: number, body: unknown) {
-	res.writeHead(status, { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store' });
+	res.writeHead(status, {
+		'content-type': 'application/json; charset=utf-8',
+		'cache-control': 'no-store'
+	});
 	res.end(body === undefined ? undefined : JSON.stringify(body));
 }
 
@@ -189,7 +197,9 @@ function handle(req: IncomingMessage, res: ServerResponse) {
 	const one = /^\/messages\/([A-Za-z0-9-]{1,64})$/.exec(path);
 	if (one && req.method === 'GET') {
 		const message = messages.find((m) => m.id === one[1]);
-		return message ? sendJson(res, 200, message) : sendJson(res, 404, { message: 'No such message' });
+		return message
+			? sendJson(res, 200, message)
+			: sendJson(res, 404, { message: 'No such message' });
 	}
 	return sendJson(res, 404, { message: 'Not found' });
 }
@@ -210,7 +220,9 @@ interface Listener {
 
 function listen(server: Listener, port: number, name: string) {
 	return new Promise<void>((resolve, reject) => {
-		server.once('error', (e) => reject(new Error(`${name} could not listen on ${HOST}:${port}: ${e.message}`)));
+		server.once('error', (e) =>
+			reject(new Error(`${name} could not listen on ${HOST}:${port}: ${e.message}`))
+		);
 		server.listen(port, HOST, resolve);
 	});
 }

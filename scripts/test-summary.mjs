@@ -18,7 +18,9 @@ if (existsSync(vitestFile)) {
 	failed += 1;
 }
 
-const buildFailed = existsSync(join(dir, 'extra-failed')) && readFileSync(join(dir, 'extra-failed'), 'utf8').includes('build');
+const buildFailed =
+	existsSync(join(dir, 'extra-failed')) &&
+	readFileSync(join(dir, 'extra-failed'), 'utf8').includes('build');
 const playwrightFile = join(dir, 'playwright.json');
 if (existsSync(playwrightFile)) {
 	const stats = JSON.parse(readFileSync(playwrightFile, 'utf8')).stats ?? {};

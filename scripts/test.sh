@@ -16,6 +16,8 @@ start_db
 start_mail_fake
 start_ecb_fake
 ensure_auth_secret
+# The app under end-to-end test gets a port of its own for this run.
+export E2E_PORT="${E2E_PORT:-$(free_port)}"
 # Integration tests migrate slotwise_test themselves (globalSetup) and truncate between tests;
 # end-to-end tests read the seeded demo in slotwise_e2e.
 bash scripts/db.sh recreate slotwise_e2e >/dev/null || fail "recreate slotwise_e2e"
@@ -25,6 +27,21 @@ status=0
 record() { # record NAME PASSED(0|1)
 	if [ "$2" -eq 0 ]; then echo "$1 0" >>"$REPORTS/extra-failed"; else echo "$1 1" >>"$REPORTS/extra-passed"; fi
 }
+
+step "Formatting and lint (Prettier, ESLint)"
+if npx prettier --check . >"$REPORTS/prettier.log" 2>&1; then
+	record prettier 1
+else
+	grep -v '^Checking' "$REPORTS/prettier.log" | tail -20
+	record prettier 0
+	status=1
+fi
+if npx eslint . --max-warnings 0; then
+	record eslint 1
+else
+	record eslint 0
+	status=1
+fi
 
 step "Type check (svelte-check)"
 if npx svelte-kit sync && npx svelte-check --tsconfig ./tsconfig.json --threshold error --output human; then

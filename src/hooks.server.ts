@@ -1,7 +1,14 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/auth/config';
-import { capBodies, closeAuthEndpoints, guardAreas, jsonOnlyApi, resolveUser, securityHeaders } from '$lib/server/auth/hooks';
+import {
+	capBodies,
+	closeAuthEndpoints,
+	guardAreas,
+	jsonOnlyApi,
+	resolveUser,
+	securityHeaders
+} from '$lib/server/auth/hooks';
 import { closeDb } from '$lib/server/db';
 import { logRequest, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
@@ -16,11 +23,22 @@ const log: Handle = async ({ event, resolve }) => {
 /** Refuse to start without a usable Auth.js secret rather than fail every request later. */
 export const init: ServerInit = () => {
 	if ((process.env.AUTH_SECRET ?? '').length < 32) {
-		throw new Error('AUTH_SECRET must be set to at least 32 random characters (npm start makes one for development).');
+		throw new Error(
+			'AUTH_SECRET must be set to at least 32 random characters (npm start makes one for development).'
+		);
 	}
 };
 
-export const handle = sequence(log, securityHeaders, capBodies, jsonOnlyApi, closeAuthEndpoints, authHandle, resolveUser, guardAreas);
+export const handle = sequence(
+	log,
+	securityHeaders,
+	capBodies,
+	jsonOnlyApi,
+	closeAuthEndpoints,
+	authHandle,
+	resolveUser,
+	guardAreas
+);
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };

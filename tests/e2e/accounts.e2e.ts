@@ -11,7 +11,9 @@ for (const [email, role] of [
 	['author@slotwise.test', 'author'],
 	['reader@slotwise.test', 'reader']
 ] as const) {
-	test(`the demo ${role} signs in through the form and the session shows the role`, async ({ page }) => {
+	test(`the demo ${role} signs in through the form and the session shows the role`, async ({
+		page
+	}) => {
 		await signInWithPassword(page, email);
 		await expect(page).toHaveURL(/\/$/);
 		await expect(page.getByRole('button', { name: 'Sign out' })).toBeVisible();
@@ -44,7 +46,9 @@ test('sign up → verification e-mail → confirm → sign in', async ({ page })
 	expect((await sessionOf(page))?.user).toMatchObject({ email, role: 'reader' });
 });
 
-test('sign-up with an address that has an account reveals nothing and mails the owner', async ({ page }) => {
+test('sign-up with an address that has an account reveals nothing and mails the owner', async ({
+	page
+}) => {
 	await page.goto('/signup');
 	await page.getByLabel('Name').fill('Someone Else');
 	await page.getByLabel('E-mail').fill('reader@slotwise.test');
@@ -57,7 +61,9 @@ test('sign-up with an address that has an account reveals nothing and mails the 
 
 test('a sign-in link signs in once and cannot be used again', async ({ page, browser }) => {
 	await page.goto('/signin');
-	const panel = page.locator('section', { has: page.getByRole('heading', { name: 'With a link by e-mail' }) });
+	const panel = page.locator('section', {
+		has: page.getByRole('heading', { name: 'With a link by e-mail' })
+	});
 	await panel.getByLabel('E-mail').fill('editor@slotwise.test');
 	await panel.getByRole('button', { name: 'Send me a link' }).click();
 	await expect(page.getByRole('heading', { name: 'Check your e-mail' })).toBeVisible();
@@ -65,7 +71,10 @@ test('a sign-in link signs in once and cannot be used again', async ({ page, bro
 	const message = await waitForMessage({ to: 'editor@slotwise.test', subject: /sign-in link/i });
 	const link = firstLink(message, '/auth/callback/nodemailer');
 	await page.goto(link);
-	expect((await sessionOf(page))?.user).toMatchObject({ email: 'editor@slotwise.test', role: 'editor' });
+	expect((await sessionOf(page))?.user).toMatchObject({
+		email: 'editor@slotwise.test',
+		role: 'editor'
+	});
 
 	const other = await browser.newContext();
 	const second = await other.newPage();
@@ -75,7 +84,9 @@ test('a sign-in link signs in once and cannot be used again', async ({ page, bro
 	await other.close();
 });
 
-test('password reset by e-mail: the new password works, the old one and the link do not', async ({ page }) => {
+test('password reset by e-mail: the new password works, the old one and the link do not', async ({
+	page
+}) => {
 	const email = uniqueEmail('forgetful');
 	const oldPassword = 'amber kettle drifting north';
 	const newPassword = 'seven lanterns over copper hills';
@@ -110,7 +121,9 @@ test('password reset by e-mail: the new password works, the old one and the link
 	await expect(page.getByText('expired or was already used')).toBeVisible();
 });
 
-test('20 bad passwords from one address get 429, and the owner can still sign in by link', async ({ page }) => {
+test('20 bad passwords from one address get 429, and the owner can still sign in by link', async ({
+	page
+}) => {
 	// A seeded community author nobody else signs in as in these tests.
 	const email = 'tobias.wren@slotwise.test';
 	const statuses: number[] = [];
@@ -136,7 +149,9 @@ test('20 bad passwords from one address get 429, and the owner can still sign in
 
 	// …but a sign-in link still gets the owner in.
 	await page.goto('/signin');
-	const panel = page.locator('section', { has: page.getByRole('heading', { name: 'With a link by e-mail' }) });
+	const panel = page.locator('section', {
+		has: page.getByRole('heading', { name: 'With a link by e-mail' })
+	});
 	await panel.getByLabel('E-mail').fill(email);
 	await panel.getByRole('button', { name: 'Send me a link' }).click();
 	const message = await waitForMessage({ to: email, subject: /sign-in link/i });

@@ -1,7 +1,9 @@
 import { expect, test } from '@playwright/test';
 import { signInWithPassword, signUpConfirmed, uniqueEmail } from './support';
 
-test('an admin promotes a reader to author: author pages open on the next request; disabling refuses the next one', async ({ browser }) => {
+test('an admin promotes a reader to author: author pages open on the next request; disabling refuses the next one', async ({
+	browser
+}) => {
 	const readerContext = await browser.newContext();
 	const reader = await readerContext.newPage();
 	const email = uniqueEmail('promoted');
@@ -39,14 +41,18 @@ test('an admin promotes a reader to author: author pages open on the next reques
 	await adminContext.close();
 });
 
-test('an editor approves a reader’s request to become an author, and the reader is told by e-mail', async ({ browser }) => {
+test('an editor approves a reader’s request to become an author, and the reader is told by e-mail', async ({
+	browser
+}) => {
 	const { waitForMessage } = await import('../support/mailbox');
 	const readerContext = await browser.newContext();
 	const reader = await readerContext.newPage();
 	const email = uniqueEmail('hopeful');
 	await signUpConfirmed(reader, 'Hana Hopeful', email, 'pine needles under snowfall');
 	await reader.goto('/account');
-	await reader.getByLabel(/would you like to write about/i).fill('I build quiet small-form-factor machines and write up every step with photos.');
+	await reader
+		.getByLabel(/would you like to write about/i)
+		.fill('I build quiet small-form-factor machines and write up every step with photos.');
 	await reader.getByRole('button', { name: 'Ask to become an author' }).click();
 	await expect(reader.getByText(/editor will read|waiting/i).first()).toBeVisible();
 

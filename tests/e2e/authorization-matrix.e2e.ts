@@ -14,15 +14,57 @@ type Role = 'visitor' | 'reader' | 'author' | 'editor' | 'admin';
 type Outcome = 'ok' | 'signin' | 'forbidden' | 'notfound';
 const ROLES: Role[] = ['visitor', 'reader', 'author', 'editor', 'admin'];
 
-const everyone = (o: Outcome): Record<Role, Outcome> => ({ visitor: o, reader: o, author: o, editor: o, admin: o });
-const signedIn: Record<Role, Outcome> = { visitor: 'signin', reader: 'ok', author: 'ok', editor: 'ok', admin: 'ok' };
-const authors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'ok', admin: 'ok' };
-const editors: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'ok', admin: 'ok' };
+const everyone = (o: Outcome): Record<Role, Outcome> => ({
+	visitor: o,
+	reader: o,
+	author: o,
+	editor: o,
+	admin: o
+});
+const signedIn: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'ok',
+	author: 'ok',
+	editor: 'ok',
+	admin: 'ok'
+};
+const authors: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'forbidden',
+	author: 'ok',
+	editor: 'ok',
+	admin: 'ok'
+};
+const editors: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'forbidden',
+	author: 'forbidden',
+	editor: 'ok',
+	admin: 'ok'
+};
 /** The author's own guide: other roles that may author still get 404 for someone else's. */
-const ownGuide: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'notfound', admin: 'notfound' };
+const ownGuide: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'forbidden',
+	author: 'ok',
+	editor: 'notfound',
+	admin: 'notfound'
+};
 /** Someone else's (here: a missing) build: visitors are sent to sign in, everyone else gets 404. */
-const ownBuild: Record<Role, Outcome> = { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' };
-const admins: Record<Role, Outcome> = { visitor: 'signin', reader: 'forbidden', author: 'forbidden', editor: 'forbidden', admin: 'ok' };
+const ownBuild: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'notfound',
+	author: 'notfound',
+	editor: 'notfound',
+	admin: 'notfound'
+};
+const admins: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'forbidden',
+	author: 'forbidden',
+	editor: 'forbidden',
+	admin: 'ok'
+};
 
 // "ok" means the request got past authorization (a page, a redirect elsewhere, or a 400
 // for the empty form this test posts); nothing here is meant to succeed at changing data.
@@ -91,7 +133,13 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	// Author JSON API: the matrix posts a form, refused with 415 before auth; guide-editor.e2e.ts
 	// checks roles and ownership with JSON bodies.
 	'POST /api/v1/guides': everyone('ok'),
-	'GET /api/v1/guides/[slug=slug]/draft': { visitor: 'signin', reader: 'forbidden', author: 'ok', editor: 'notfound', admin: 'notfound' },
+	'GET /api/v1/guides/[slug=slug]/draft': {
+		visitor: 'signin',
+		reader: 'forbidden',
+		author: 'ok',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	'PUT /api/v1/guides/[slug=slug]/draft': everyone('ok'),
 	'POST /api/v1/guides/[slug=slug]/submit': everyone('ok'),
 	'GET /(editor)/editor/author-requests': editors,
@@ -157,7 +205,13 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(public)/builds/[id=id]?/applyBudget': ownBuild,
 	// Report a build: visitors are sent to sign in. Signed in, the empty probe form is refused
 	// (400), then the page's load answers 404 for the sample id, which names no build.
-	'POST /(public)/builds/[id=id]?/report': { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' },
+	'POST /(public)/builds/[id=id]?/report': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	'GET /(account)/builds': signedIn,
 	'POST /(account)/builds/new?/default': signedIn,
 	// The development mailbox exists only while the local SMTP fake is in use (as here).
@@ -176,7 +230,13 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(editor)/editor/cautions/[id=id]?/save': editors,
 	// Build sync and within budget (owner only): the sample build id does not exist, so signed-in
 	// people get 404 and visitors 401 from requireUser; the form POSTs are refused with 415 before auth.
-	'GET /api/v1/builds/[id=id]/sync': { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' },
+	'GET /api/v1/builds/[id=id]/sync': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	'POST /api/v1/builds/[id=id]/sync': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/sync/undo': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/within-budget': everyone('ok'),
@@ -186,7 +246,13 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	// own visibility (visitors may export a public or linked build), so a missing build is 404 for
 	// all. The form bodies the matrix sends to PATCH/POST/DELETE are refused with 415 before auth.
 	'POST /api/v1/guides/[slug=slug]/fork': everyone('ok'),
-	'GET /api/v1/builds/[id=id]': { visitor: 'signin', reader: 'notfound', author: 'notfound', editor: 'notfound', admin: 'notfound' },
+	'GET /api/v1/builds/[id=id]': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	'PATCH /api/v1/builds/[id=id]': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/slots': everyone('ok'),
 	'PATCH /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
@@ -246,7 +312,8 @@ function discoverRoutes(): string[] {
 			for (const m of block.matchAll(/^\t(\w+):/gm)) found.add(`POST ${id}?/${m[1]}`);
 		}
 		if (name === '+server.ts') {
-			for (const m of source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)) found.add(`${m[1]} ${id}`);
+			for (const m of source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g))
+				found.add(`${m[1]} ${id}`);
 		}
 	}
 	return [...found].sort();
@@ -260,7 +327,10 @@ function urlOf(entry: string): { method: string; url: string } {
 			.split('/')
 			.filter((segment) => segment && !/^\(.+\)$/.test(segment))
 			.map((segment) =>
-				segment.replace(/^\[(\w+)(=\w+)?\]$/, (_, p: string) => ROUTE_PARAMS[routeId]?.[p] ?? SAMPLE_PARAMS[p] ?? 'x')
+				segment.replace(
+					/^\[(\w+)(=\w+)?\]$/,
+					(_, p: string) => ROUTE_PARAMS[routeId]?.[p] ?? SAMPLE_PARAMS[p] ?? 'x'
+				)
 			)
 			.join('/') || '';
 	const url = `/${path}` + (action ? (action === 'default' ? '' : `?/${action}`) : '');
@@ -269,7 +339,8 @@ function urlOf(entry: string): { method: string; url: string } {
 
 function classify(status: number, location: string | undefined): Outcome {
 	if (status === 401) return 'signin';
-	if ((status === 302 || status === 303) && location && /\/signin(\?|$)/.test(location)) return 'signin';
+	if ((status === 302 || status === 303) && location && /\/signin(\?|$)/.test(location))
+		return 'signin';
 	if (status === 403) return 'forbidden';
 	if (status === 404) return 'notfound';
 	return 'ok';
@@ -298,7 +369,10 @@ for (const role of ROLES) {
 		for (const entry of discoverRoutes()) {
 			const expected = EXPECTED[entry]?.[role];
 			// A fresh context per request: signing out in one entry cannot leak into the next.
-			const context = await playwrightRequest.newContext({ baseURL: BASE_URL, storageState: signedInState });
+			const context = await playwrightRequest.newContext({
+				baseURL: BASE_URL,
+				storageState: signedInState
+			});
 			const { method, url } = urlOf(entry);
 			const response = await context.fetch(url, {
 				method,
@@ -307,7 +381,10 @@ for (const role of ROLES) {
 				maxRedirects: 0
 			});
 			const got = classify(response.status(), response.headers()['location']);
-			if (got !== expected) mismatches.push(`${entry} (${method} ${url}): expected ${expected}, got ${got} (${response.status()})`);
+			if (got !== expected)
+				mismatches.push(
+					`${entry} (${method} ${url}): expected ${expected}, got ${got} (${response.status()})`
+				);
 			await context.dispose();
 		}
 		expect(mismatches).toEqual([]);

@@ -44,7 +44,9 @@ test('filters by region, budget and tags with JavaScript off', async ({ browser 
 	await context.close();
 });
 
-test('a bad parameter is reported beside its field and dropped; the rest still applies', async ({ page }) => {
+test('a bad parameter is reported beside its field and dropped; the rest still applies', async ({
+	page
+}) => {
 	await page.goto('/guides?base=uk&max=abc&page=zero');
 	await expect(page.getByText('The highest budget must be a whole number.')).toBeVisible();
 	await expect(page.getByRole('alert')).toContainText('The page must be a whole number.');
@@ -55,19 +57,34 @@ test('a bad parameter is reported beside its field and dropped; the rest still a
 	await expect(page.getByText('No region "zz"; showing guides from every region.')).toBeVisible();
 });
 
-test('the header links to browse, and page two past the end shows the empty state', async ({ page }) => {
+test('the header links to browse, and page two past the end shows the empty state', async ({
+	page
+}) => {
 	await page.goto('/');
-	await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Guides' }).click();
+	await page
+		.getByRole('navigation', { name: 'Main' })
+		.getByRole('link', { name: 'Guides' })
+		.click();
 	await expect(page).toHaveURL(/\/guides$/);
-	await expect(page.getByRole('link', { name: 'Guides', exact: true })).toHaveAttribute('aria-current', 'page');
+	await expect(page.getByRole('link', { name: 'Guides', exact: true })).toHaveAttribute(
+		'aria-current',
+		'page'
+	);
 	await page.goto('/guides?page=2');
 	await expect(page.getByText('No guide matches these filters.')).toBeVisible();
 });
 
-test('GET /api/v1/guides pages and filters; bad input is a 400 with issues', async ({ request }) => {
+test('GET /api/v1/guides pages and filters; bad input is a 400 with issues', async ({
+	request
+}) => {
 	const all = await request.get('/api/v1/guides');
 	expect(all.status()).toBe(200);
-	const body = (await all.json()) as { items: { slug: string }[]; total: number; page: number; pageCount: number };
+	const body = (await all.json()) as {
+		items: { slug: string }[];
+		total: number;
+		page: number;
+		pageCount: number;
+	};
 	expect([body.total, body.page, body.pageCount]).toEqual([demoGuides.length, 1, 1]);
 
 	const bad = await request.get('/api/v1/guides?max=abc&sort=cheap');
@@ -88,9 +105,14 @@ test('GET /api/v1/guides pages and filters; bad input is a 400 with issues', asy
 	expect((await request.get('/api/v1/guides/no-such-guide')).status()).toBe(404);
 });
 
-test('the Atom feed is linked from every page and lists the published guides', async ({ page, request }) => {
+test('the Atom feed is linked from every page and lists the published guides', async ({
+	page,
+	request
+}) => {
 	await page.goto('/');
-	const href = await page.locator('link[rel="alternate"][type="application/atom+xml"]').getAttribute('href');
+	const href = await page
+		.locator('link[rel="alternate"][type="application/atom+xml"]')
+		.getAttribute('href');
 	expect(href).toBe('/guides/feed.xml');
 	const feed = await request.get('/guides/feed.xml');
 	expect(feed.headers()['content-type']).toBe('application/atom+xml; charset=utf-8');

@@ -23,10 +23,14 @@ async function signedIn(browser: Browser, email: string): Promise<Page> {
 /** The editor's queue entry for the build (found by its link) in the open or decided list. */
 async function queueEntry(editor: Page, state: 'open' | 'closed', buildPath: string) {
 	await editor.goto(state === 'open' ? '/editor/reports' : '/editor/reports?state=closed');
-	return editor.getByTestId('report-group').filter({ has: editor.locator(`h2 a[href="${buildPath}"]`) });
+	return editor
+		.getByTestId('report-group')
+		.filter({ has: editor.locator(`h2 a[href="${buildPath}"]`) });
 }
 
-test('a build is reported, hidden by an editor (owner sees why, others get 404) and restored', async ({ browser }) => {
+test('a build is reported, hidden by an editor (owner sees why, others get 404) and restored', async ({
+	browser
+}) => {
 	// Four people sign in (argon2id each) and build pages are priced: more than the default 30 s.
 	test.setTimeout(150_000);
 
@@ -83,7 +87,9 @@ test('a build is reported, hidden by an editor (owner sees why, others get 404) 
 	// The owner still has the page, with the notice and the editor's reason.
 	expect((await reader.goto(buildPath))?.status()).toBe(200);
 	await expect(reader.getByTestId('hidden-notice')).toContainText('Hidden by the editors');
-	await expect(reader.getByTestId('hidden-notice')).toContainText('this build is not shown to the public');
+	await expect(reader.getByTestId('hidden-notice')).toContainText(
+		'this build is not shown to the public'
+	);
 	await expect(reader.getByTestId('hidden-notice')).toContainText(REASON);
 
 	// The editor still opens it (with the notice), then restores it from the decided reports.

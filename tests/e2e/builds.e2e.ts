@@ -22,7 +22,8 @@ async function signedIn(browser: Browser, email: string): Promise<Page> {
 	return page;
 }
 
-const slot = (page: Page, label: string) => page.getByRole('listitem', { name: label, exact: true });
+const slot = (page: Page, label: string) =>
+	page.getByRole('listitem', { name: label, exact: true });
 
 interface DraftSlot {
 	category: string;
@@ -45,11 +46,18 @@ async function authorPublishesRevision(author: Page) {
 			...s,
 			pickPartId: chosen.partId,
 			priceQuote: null,
-			alternates: [{ partId: s.pickPartId, reasonTag: 'lower_price', note: 'The previous pick.' }, ...s.alternates.filter((a) => a.partId !== chosen.partId)]
+			alternates: [
+				{ partId: s.pickPartId, reasonTag: 'lower_price', note: 'The previous pick.' },
+				...s.alternates.filter((a) => a.partId !== chosen.partId)
+			]
 		};
 	};
 	const slots = (draft.slots as DraftSlot[]).map((s) =>
-		s.label === 'Graphics card' ? promote(s, 'ironvale-auric-a78-16g') : s.label === 'Power supply' ? promote(s, 'voltren-vp850-gold') : s
+		s.label === 'Graphics card'
+			? promote(s, 'ironvale-auric-a78-16g')
+			: s.label === 'Power supply'
+				? promote(s, 'voltren-vp850-gold')
+				: s
 	);
 	const body = {
 		version: draft.version,
@@ -69,16 +77,24 @@ async function authorPublishesRevision(author: Page) {
 			pickPartId: s.pickPartId,
 			reason: s.reason,
 			priceQuote: s.priceQuote,
-			alternates: s.alternates.map((a) => ({ partId: a.partId, reasonTag: a.reasonTag, note: a.note }))
+			alternates: s.alternates.map((a) => ({
+				partId: a.partId,
+				reasonTag: a.reasonTag,
+				note: a.note
+			}))
 		}))
 	};
 	const saved = await author.request.put(`/api/v1/guides/${GUIDE}/draft`, { data: body });
 	expect(saved.status(), await saved.text()).toBe(200);
-	const submitted = await author.request.post(`/api/v1/guides/${GUIDE}/submit`, { data: { version: (await saved.json()).version } });
+	const submitted = await author.request.post(`/api/v1/guides/${GUIDE}/submit`, {
+		data: { version: (await saved.json()).version }
+	});
 	expect(submitted.status()).toBe(200);
 }
 
-test('fork, swap, re-price, track purchases, then sync a newer revision with one conflict and export', async ({ browser }) => {
+test('fork, swap, re-price, track purchases, then sync a newer revision with one conflict and export', async ({
+	browser
+}) => {
 	test.setTimeout(180_000);
 	const reader = await signedIn(browser, READER);
 	await reader.goto(`/guides/${GUIDE}`);
@@ -126,7 +142,10 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await expect(reader.getByTestId('build-total')).toContainText('US$');
 
 	// Two parts bought: the CPU at the planned price, the case at a price paid.
-	for (const [label, paid] of [['CPU', ''], ['Case', '99.00']] as const) {
+	for (const [label, paid] of [
+		['CPU', ''],
+		['Case', '99.00']
+	] as const) {
 		const item = slot(reader, label);
 		await item.locator('summary', { hasText: 'Mark bought' }).click();
 		if (paid) await item.getByLabel(/^Paid/).fill(paid);
@@ -146,7 +165,10 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await authorPublishesRevision(author);
 	const editor = await signedIn(browser, EDITOR);
 	await editor.goto('/review');
-	await editor.getByTestId('review-queue').getByRole('link', { name: /A balanced 1440p build/ }).click();
+	await editor
+		.getByTestId('review-queue')
+		.getByRole('link', { name: /A balanced 1440p build/ })
+		.click();
 	await editor.getByRole('button', { name: 'Approve and publish' }).click();
 	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
 
@@ -159,7 +181,9 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await expect(conflict).toContainText('Graphics card');
 	const syncViolations = await severeViolations(reader);
 	expect(syncViolations, syncViolations.join('\n')).toEqual([]);
-	await expect(sync.locator('[data-testid="sync-row"][data-status="upstream_only"]')).toContainText('Power supply');
+	await expect(sync.locator('[data-testid="sync-row"][data-status="upstream_only"]')).toContainText(
+		'Power supply'
+	);
 	// Without a choice for the conflict the browser refuses to submit; choose to keep ours.
 	await conflict.getByLabel('Keep yours').check();
 	await sync.getByRole('button', { name: 'Sync with my choices' }).click();
@@ -173,7 +197,10 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	const csv = await reader.request.get(`${buildUrl}/export.csv`);
 	expect(csv.status()).toBe(200);
 	expect(csv.headers()['content-type']).toContain('text/csv');
-	const rows = parse(await csv.text(), { columns: true, skip_empty_lines: true }) as Record<string, string>[];
+	const rows = parse(await csv.text(), { columns: true, skip_empty_lines: true }) as Record<
+		string,
+		string
+	>[];
 	const slotRows = rows.filter((r) => r.slot && r.part);
 	const sumMinor = slotRows.reduce((sum, r) => sum + Math.round(Number(r['line total']) * 100), 0);
 	const planned = rows.find((r) => r.slot === 'Planned total');

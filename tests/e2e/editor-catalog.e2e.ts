@@ -18,24 +18,39 @@ function file(name: string, text: string) {
 /** How many parts of this run the editor's parts list finds ("200 parts, page 1 of 4" → 200). */
 async function partCount(page: import('@playwright/test').Page): Promise<number> {
 	await page.goto(`/editor/parts?q=${PREFIX}`);
-	const text = (await page.getByText(/^\d+ parts?\b/).first().textContent()) ?? '';
+	const text =
+		(await page
+			.getByText(/^\d+ parts?\b/)
+			.first()
+			.textContent()) ?? '';
 	return Number(/^(\d+)/.exec(text.trim())?.[1] ?? NaN);
 }
 
-test('an editor imports 200 parts: 3 bad rows block the import, the fixed file goes in at once', async ({ page }) => {
+test('an editor imports 200 parts: 3 bad rows block the import, the fixed file goes in at once', async ({
+	page
+}) => {
 	await signInWithPassword(page, 'editor@slotwise.test');
 
 	await page.goto('/editor');
-	await page.getByRole('navigation', { name: 'Editor' }).getByRole('link', { name: 'Parts' }).click();
+	await page
+		.getByRole('navigation', { name: 'Editor' })
+		.getByRole('link', { name: 'Parts' })
+		.click();
 	await page.getByRole('link', { name: 'Import CSV' }).click();
 	await expect(page.getByRole('heading', { name: 'Import parts from CSV' })).toBeVisible();
 
-	await page.getByLabel('CSV file').setInputFiles(file('parts-with-mistakes.csv', generatedCsv(200, PREFIX, THREE_BAD_ROWS)));
+	await page
+		.getByLabel('CSV file')
+		.setInputFiles(file('parts-with-mistakes.csv', generatedCsv(200, PREFIX, THREE_BAD_ROWS)));
 	await page.getByRole('button', { name: 'Upload and preview' }).click();
 
-	await expect(page.getByRole('heading', { name: 'Preview of parts-with-mistakes.csv: nothing was imported' })).toBeVisible();
+	await expect(
+		page.getByRole('heading', { name: 'Preview of parts-with-mistakes.csv: nothing was imported' })
+	).toBeVisible();
 	await expect(page.getByText('3 rows need fixing')).toBeVisible();
-	await expect(page.getByRole('status').filter({ hasText: 'rows are good' })).toContainText('197 of 200 rows are good');
+	await expect(page.getByRole('status').filter({ hasText: 'rows are good' })).toContainText(
+		'197 of 200 rows are good'
+	);
 	const problems = page.getByRole('table', { name: 'Problems by row' }).locator('tbody tr');
 	await expect(problems).toHaveCount(3);
 	await expect(problems.nth(0)).toContainText('20');
@@ -52,12 +67,16 @@ test('an editor imports 200 parts: 3 bad rows block the import, the fixed file g
 	expect(await partCount(page)).toBe(0);
 
 	await page.goto('/editor/parts/import');
-	await page.getByLabel('CSV file').setInputFiles(file('parts-fixed.csv', generatedCsv(200, PREFIX)));
+	await page
+		.getByLabel('CSV file')
+		.setInputFiles(file('parts-fixed.csv', generatedCsv(200, PREFIX)));
 	await page.getByRole('button', { name: 'Upload and preview' }).click();
 	await expect(page).toHaveURL(/\/editor\/parts\/import\?id=[0-9a-f-]{36}$/);
 	const previewUrl = page.url();
 	await expect(page.getByText('✓ All 200 rows are good')).toBeVisible();
-	await expect(page.getByRole('table', { name: 'Rows to import' }).locator('tbody tr')).toHaveCount(200);
+	await expect(page.getByRole('table', { name: 'Rows to import' }).locator('tbody tr')).toHaveCount(
+		200
+	);
 	// Still nothing written before the confirmation.
 	expect(await partCount(page)).toBe(0);
 

@@ -19,7 +19,14 @@ async function choosePart(combobox: Locator, query: string, option: string) {
 	await listbox.getByRole('option', { name: option, exact: true }).click();
 }
 
-async function addSlot(page: Page, index: number, category: string, label: string, query: string, option: string) {
+async function addSlot(
+	page: Page,
+	index: number,
+	category: string,
+	label: string,
+	query: string,
+	option: string
+) {
 	await page.getByRole('button', { name: 'Add a slot' }).click();
 	const slot = page.getByTestId('slot').nth(index);
 	await slot.getByLabel('Category').selectOption({ label: category });
@@ -32,7 +39,9 @@ async function newGuide(page: Page, title: string): Promise<string> {
 	await page.goto('/my/guides');
 	await page.getByRole('link', { name: 'New guide' }).click();
 	await page.getByLabel('Title').fill(title);
-	await page.getByLabel('Summary').fill('An AM5 build for 1440p games, priced in US dollars before tax.');
+	await page
+		.getByLabel('Summary')
+		.fill('An AM5 build for 1440p games, priced in US dollars before tax.');
 	await page.getByLabel('Base region').selectOption('us');
 	await page.getByLabel(/Target budget/).fill('1200');
 	await page.getByLabel('gaming').check();
@@ -43,7 +52,9 @@ async function newGuide(page: Page, title: string): Promise<string> {
 	return new URL(page.url()).pathname.split('/')[3] ?? '';
 }
 
-test('an author writes a guide with 8 slots and alternates, checks fit, previews, saves and submits', async ({ page }) => {
+test('an author writes a guide with 8 slots and alternates, checks fit, previews, saves and submits', async ({
+	page
+}) => {
 	test.setTimeout(90_000);
 	await signInWithPassword(page, AUTHOR);
 	const title = `Editor run ${Date.now()}`;
@@ -60,8 +71,10 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await expect(page.getByTestId('slot')).toHaveCount(8);
 
 	const fit = page.getByTestId('fit-panel');
-	// Source of the rule: DESIGN.md Computations 3 (CPU socket vs motherboard).
-	await expect(fit.locator('[data-severity="ok"]', { hasText: 'share the AM5 socket' })).toBeVisible();
+	// Source of the rule: docs/architecture.md Computations 3 (CPU socket vs motherboard).
+	await expect(
+		fit.locator('[data-severity="ok"]', { hasText: 'share the AM5 socket' })
+	).toBeVisible();
 	await expect(fit.getByTestId('fit-summary')).toContainText('0 conflicts');
 
 	// An AM4 board under an AM5 CPU: the report turns to a conflict, with glyph and word.
@@ -77,11 +90,19 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	// Alternates: two on the CPU (ranked), one on the graphics card, each with its drop-in status.
 	const cpu = page.getByTestId('slot').nth(0);
 	await cpu.getByRole('button', { name: 'Add an alternate to slot 1' }).click();
-	await choosePart(cpu.getByRole('combobox', { name: 'Alternate part' }).nth(0), 'strata 606x', 'Halvard Strata 606X');
+	await choosePart(
+		cpu.getByRole('combobox', { name: 'Alternate part' }).nth(0),
+		'strata 606x',
+		'Halvard Strata 606X'
+	);
 	await cpu.getByLabel('Reason').nth(0).selectOption('upgrade_path');
 	await cpu.getByLabel('Note').nth(0).fill('Faster clocks for the same board.');
 	await cpu.getByRole('button', { name: 'Add an alternate to slot 1' }).click();
-	await choosePart(cpu.getByRole('combobox', { name: 'Alternate part' }).nth(1), 'strata 406', 'Halvard Strata 406');
+	await choosePart(
+		cpu.getByRole('combobox', { name: 'Alternate part' }).nth(1),
+		'strata 406',
+		'Halvard Strata 406'
+	);
 	await cpu.getByLabel('Reason').nth(1).selectOption('lower_price');
 	await expect(cpu.getByTestId('drop-in').nth(0)).toContainText('Drops in');
 	await expect(cpu.getByTestId('drop-in').nth(1)).toContainText('Does not fit'); // AM4 CPU on an AM5 board
@@ -89,18 +110,26 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await expect(cpu.getByTestId('alternate').nth(0)).toContainText('Halvard Strata 406');
 	const gpu = page.getByTestId('slot').nth(5);
 	await gpu.getByRole('button', { name: 'Add an alternate to slot 6' }).click();
-	await choosePart(gpu.getByRole('combobox', { name: 'Alternate part' }), 'a52', 'Ironvale Auric A52 Twin 8 GB');
+	await choosePart(
+		gpu.getByRole('combobox', { name: 'Alternate part' }),
+		'a52',
+		'Ironvale Auric A52 Twin 8 GB'
+	);
 	await gpu.getByLabel('Reason').selectOption('easier_to_find');
 
 	// Build notes preview: rendered on the server, raw HTML dropped.
-	await page.getByLabel('Firmware setup checklist').fill('- Enable the **memory profile**\n- <script>window.__xss = 1</script>Update firmware');
+	await page
+		.getByLabel('Firmware setup checklist')
+		.fill('- Enable the **memory profile**\n- <script>window.__xss = 1</script>Update firmware');
 	await page.getByLabel('Cable routing').fill('Route the 24-pin behind the tray.');
 	await page.getByRole('button', { name: 'Preview build notes' }).click();
 	const preview = page.getByTestId('notes-preview');
 	await expect(preview.locator('strong', { hasText: 'memory profile' })).toBeVisible();
 	await expect(preview.getByRole('heading', { name: 'Cable routing' })).toBeVisible();
 	await expect(preview.locator('script')).toHaveCount(0);
-	expect(await page.evaluate(() => (window as unknown as { __xss?: number }).__xss)).toBeUndefined();
+	expect(
+		await page.evaluate(() => (window as unknown as { __xss?: number }).__xss)
+	).toBeUndefined();
 
 	await page.getByRole('button', { name: 'Save draft' }).click();
 	await expect(page.getByText('Saved (revision 1).')).toBeVisible();
@@ -108,13 +137,17 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	// After a reload everything is stored: 8 slots in order, alternates in their new rank.
 	await page.reload();
 	await expect(page.getByTestId('slot')).toHaveCount(8);
-	await expect(page.getByTestId('slot').nth(0).getByTestId('alternate').nth(0)).toContainText('Halvard Strata 406');
+	await expect(page.getByTestId('slot').nth(0).getByTestId('alternate').nth(0)).toContainText(
+		'Halvard Strata 406'
+	);
 	await expect(page.getByLabel('Cable routing')).toHaveValue('Route the 24-pin behind the tray.');
 
 	await page.getByRole('button', { name: 'Save and submit for review' }).click();
 	await expect(page).toHaveURL(/\/my\/guides\?submitted=/);
 	await expect(page.getByText('Submitted for review.')).toBeVisible();
-	await expect(page.getByRole('article', { name: title }).getByTestId('guide-state')).toHaveText('In review');
+	await expect(page.getByRole('article', { name: title }).getByTestId('guide-state')).toHaveText(
+		'In review'
+	);
 });
 
 async function authorPage(browser: Browser): Promise<Page> {
@@ -123,7 +156,9 @@ async function authorPage(browser: Browser): Promise<Page> {
 	return page;
 }
 
-test('two windows on one guide: the second save gets "changed elsewhere" with both versions', async ({ browser }) => {
+test('two windows on one guide: the second save gets "changed elsewhere" with both versions', async ({
+	browser
+}) => {
 	const first = await authorPage(browser);
 	const slug = await newGuide(first, `Conflict run ${Date.now()}`);
 	await addSlot(first, 0, 'CPU', 'CPU', 'strata 606', 'Halvard Strata 606');
@@ -142,8 +177,12 @@ test('two windows on one guide: the second save gets "changed elsewhere" with bo
 	await second.getByRole('button', { name: 'Save draft' }).click();
 	const panel = second.getByTestId('conflict');
 	await expect(panel).toContainText('Changed elsewhere');
-	await expect(panel.getByTestId('conflict-mine')).toContainText('Summary written in the second window.');
-	await expect(panel.getByTestId('conflict-stored')).toContainText('Summary written in the first window.');
+	await expect(panel.getByTestId('conflict-mine')).toContainText(
+		'Summary written in the second window.'
+	);
+	await expect(panel.getByTestId('conflict-stored')).toContainText(
+		'Summary written in the first window.'
+	);
 	// Nothing lost: the second window's text is still in its form.
 	await expect(second.getByLabel('Summary')).toHaveValue('Summary written in the second window.');
 	await first.context().close();
@@ -153,7 +192,15 @@ test('two windows on one guide: the second save gets "changed elsewhere" with bo
 test('the author JSON API: JSON only, owner only, versioned, strict', async ({ browser }) => {
 	const author = await authorPage(browser);
 	const created = await author.request.post('/api/v1/guides', {
-		data: { title: `API run ${Date.now()}`, summary: 'Through the API.', targetBudget: '800', baseRegion: 'us', tags: ['office'], disclosure: 'affiliate', disclosureNote: 'Store links pay a commission.' }
+		data: {
+			title: `API run ${Date.now()}`,
+			summary: 'Through the API.',
+			targetBudget: '800',
+			baseRegion: 'us',
+			tags: ['office'],
+			disclosure: 'affiliate',
+			disclosureNote: 'Store links pay a commission.'
+		}
 	});
 	expect(created.status()).toBe(201);
 	const { slug, version } = (await created.json()) as { slug: string; version: number };
@@ -161,43 +208,80 @@ test('the author JSON API: JSON only, owner only, versioned, strict', async ({ b
 	expect(draft).toMatchObject({ slug, version, disclosure: 'affiliate', revisionNumber: 1 });
 
 	const body = {
-		title: draft.title, summary: draft.summary, targetBudget: '800', baseRegion: 'us', tags: ['office'], disclosure: 'affiliate',
+		title: draft.title,
+		summary: draft.summary,
+		targetBudget: '800',
+		baseRegion: 'us',
+		tags: ['office'],
+		disclosure: 'affiliate',
 		buildNotes: { firmware: '', assembly: 'Seat the CPU.', cabling: '', display: '' },
 		slots: [{ category: 'cpu', label: 'CPU', quantity: 1, pickPartId: 0, reason: 'Efficient.' }]
 	};
 	// pickPartId 0 fails validation with a field message, never a 500.
-	const bad = await author.request.put(`/api/v1/guides/${slug}/draft`, { data: { ...body, version } });
+	const bad = await author.request.put(`/api/v1/guides/${slug}/draft`, {
+		data: { ...body, version }
+	});
 	expect(bad.status()).toBe(400);
 	expect((await bad.json()).issues['slots.0.pickPartId']).toBeTruthy();
-	const massAssigned = await author.request.put(`/api/v1/guides/${slug}/draft`, { data: { ...body, version, authorId: 'x', featured: true } });
+	const massAssigned = await author.request.put(`/api/v1/guides/${slug}/draft`, {
+		data: { ...body, version, authorId: 'x', featured: true }
+	});
 	expect(massAssigned.status()).toBe(400);
 
 	// Same-origin form body (so SvelteKit's CSRF check passes): the JSON-only hook refuses it.
-	const notJson = await author.request.put(`/api/v1/guides/${slug}/draft`, { form: { version: String(version) }, headers: { origin: BASE_URL } });
+	const notJson = await author.request.put(`/api/v1/guides/${slug}/draft`, {
+		form: { version: String(version) },
+		headers: { origin: BASE_URL }
+	});
 	expect(notJson.status()).toBe(415);
 
 	// The editor and a reader: another author's draft is a 404 (editor), no author role is a 403 (reader).
 	const editor = await (await browser.newContext()).newPage();
 	await signInWithPassword(editor, 'editor@slotwise.test');
 	expect((await editor.request.get(`/api/v1/guides/${slug}/draft`)).status()).toBe(404);
-	expect((await editor.request.put(`/api/v1/guides/${slug}/draft`, { data: { ...body, version } })).status()).toBe(404);
-	expect((await editor.request.post(`/api/v1/guides/${slug}/submit`, { data: { version } })).status()).toBe(404);
+	expect(
+		(
+			await editor.request.put(`/api/v1/guides/${slug}/draft`, { data: { ...body, version } })
+		).status()
+	).toBe(404);
+	expect(
+		(await editor.request.post(`/api/v1/guides/${slug}/submit`, { data: { version } })).status()
+	).toBe(404);
 	expect((await editor.request.get(`/my/guides/${slug}/edit`)).status()).toBe(404);
 	const reader = await (await browser.newContext()).newPage();
 	await signInWithPassword(reader, 'reader@slotwise.test');
-	expect((await reader.request.post('/api/v1/guides', { data: { title: 'Nope', summary: 's', targetBudget: '1', baseRegion: 'us', tags: [], disclosure: 'none' } })).status()).toBe(403);
+	expect(
+		(
+			await reader.request.post('/api/v1/guides', {
+				data: {
+					title: 'Nope',
+					summary: 's',
+					targetBudget: '1',
+					baseRegion: 'us',
+					tags: [],
+					disclosure: 'none'
+				}
+			})
+		).status()
+	).toBe(403);
 	expect((await reader.request.get(`/api/v1/guides/${slug}/draft`)).status()).toBe(403);
 
 	// A stale version: 409 with the stored copy.
 	const slots = [{ ...body.slots[0], pickPartId: await cpuId(author) }];
-	const ok = await author.request.put(`/api/v1/guides/${slug}/draft`, { data: { ...body, version, slots } });
+	const ok = await author.request.put(`/api/v1/guides/${slug}/draft`, {
+		data: { ...body, version, slots }
+	});
 	expect(ok.status()).toBe(200);
-	const stale = await author.request.put(`/api/v1/guides/${slug}/draft`, { data: { ...body, version, slots, title: 'Stale' } });
+	const stale = await author.request.put(`/api/v1/guides/${slug}/draft`, {
+		data: { ...body, version, slots, title: 'Stale' }
+	});
 	expect(stale.status()).toBe(409);
 	const staleBody = await stale.json();
 	expect(staleBody.message).toMatch(/changed elsewhere/);
 	expect(staleBody.current.version).toBe(version + 1);
-	const submitted = await author.request.post(`/api/v1/guides/${slug}/submit`, { data: { version: version + 1 } });
+	const submitted = await author.request.post(`/api/v1/guides/${slug}/submit`, {
+		data: { version: version + 1 }
+	});
 	expect(submitted.status()).toBe(200);
 	expect(await submitted.json()).toMatchObject({ state: 'in_review', revisionState: 'submitted' });
 });
@@ -212,7 +296,9 @@ async function cpuId(page: Page): Promise<number> {
 	return cpu?.pickPartId ?? 0;
 }
 
-test('without JavaScript: slots are added and reordered by posting the form, and a save validates', async ({ browser }) => {
+test('without JavaScript: slots are added and reordered by posting the form, and a save validates', async ({
+	browser
+}) => {
 	const context = await browser.newContext({ javaScriptEnabled: false });
 	const page = await context.newPage();
 	await signInWithPassword(page, AUTHOR);
@@ -234,13 +320,17 @@ test('without JavaScript: slots are added and reordered by posting the form, and
 	// The plain select lists the category's parts when the live search cannot run.
 	await second.getByLabel('Pick').selectOption({ label: 'Cairnhouse M Mesh' });
 	await page.getByRole('button', { name: 'Move slot 2 up' }).click();
-	await expect(page.getByTestId('slot').nth(0).getByLabel('Label', { exact: true })).toHaveValue('Second');
+	await expect(page.getByTestId('slot').nth(0).getByLabel('Label', { exact: true })).toHaveValue(
+		'Second'
+	);
 	await expect(page.getByTestId('slot').nth(0).getByLabel('Pick')).toHaveValue(/\d+/);
 
 	// The first slot (now second) has no pick: the save answers with a field message, text kept.
 	await page.getByRole('button', { name: 'Save draft' }).click();
 	await expect(page.getByText('Check the highlighted fields.')).toBeVisible();
-	await expect(page.getByTestId('slot').nth(1).getByLabel('Label', { exact: true })).toHaveValue('First');
+	await expect(page.getByTestId('slot').nth(1).getByLabel('Label', { exact: true })).toHaveValue(
+		'First'
+	);
 	await page.getByRole('button', { name: 'Remove slot 2' }).click();
 	await expect(page.getByTestId('slot')).toHaveCount(1);
 	await page.getByTestId('slot').nth(0).getByLabel('Why this part').fill('Small and cheap.');

@@ -9,7 +9,9 @@ import { demoResults } from '../../src/lib/server/db/seeders/demo-data/results';
 
 const SLUG = 'steady-1080p-starter'; // base region US (demo-data/guides.ts)
 
-test('the guide page shows fit report counts, power budget, safety cautions, frame results and value', async ({ page }) => {
+test('the guide page shows fit report counts, power budget, safety cautions, frame results and value', async ({
+	page
+}) => {
 	await page.goto(`/guides/${SLUG}`);
 	const fit = page.getByTestId('fit-report');
 	await expect(fit.getByRole('heading', { name: 'Fit report' })).toBeVisible();
@@ -40,17 +42,24 @@ test('the guide page shows fit report counts, power budget, safety cautions, fra
 	await expect(chart.locator('line')).toHaveCount(seeded.length + 1);
 	await frames.getByText('Frame results as a table').click();
 	const table = frames.getByTestId('frame-table');
-	for (const r of seeded) await expect(table.getByRole('row', { name: new RegExp(r.workload) })).toContainText((r.avgFpsTenths / 10).toFixed(1));
+	for (const r of seeded)
+		await expect(table.getByRole('row', { name: new RegExp(r.workload) })).toContainText(
+			(r.avgFpsTenths / 10).toFixed(1)
+		);
 
 	const value = page.getByTestId('value');
 	await expect(value.getByText('FPS per 100 USD')).toBeVisible();
 	await expect(value.getByTestId('cost-per-frame')).toHaveText(/\$\d+\.\d{2}/);
 	await expect(page.getByTestId('reproducibility').getByRole('listitem').first()).toBeVisible();
-	await expect(page.getByTestId('drop-in').first()).toContainText(/fits as a drop-in|fits with a caution|does not fit/);
+	await expect(page.getByTestId('drop-in').first()).toContainText(
+		/fits as a drop-in|fits with a caution|does not fit/
+	);
 	await expect(page.getByTestId('thermals').getByRole('table')).toBeVisible();
 });
 
-test('with JavaScript, switching USD → EUR re-prices totals and line labels without a reload', async ({ page }) => {
+test('with JavaScript, switching USD → EUR re-prices totals and line labels without a reload', async ({
+	page
+}) => {
 	await page.goto(`/guides/${SLUG}`);
 	await page.waitForLoadState('networkidle');
 	const receipt = page.getByRole('complementary');
@@ -68,7 +77,9 @@ test('with JavaScript, switching USD → EUR re-prices totals and line labels wi
 	page.on('request', (r) => {
 		if (r.resourceType() === 'document') documents.push(r.url());
 	});
-	const pricing = page.waitForResponse((r) => r.url().includes(`/api/v1/guides/${SLUG}/pricing?region=de`));
+	const pricing = page.waitForResponse((r) =>
+		r.url().includes(`/api/v1/guides/${SLUG}/pricing?region=de`)
+	);
 	await receipt.getByLabel('Show prices for').selectOption('de');
 	expect((await pricing).status()).toBe(200);
 
@@ -80,7 +91,9 @@ test('with JavaScript, switching USD → EUR re-prices totals and line labels wi
 	await expect(firstLabel).toContainText('Quoted');
 	await expect(page.getByTestId('value').getByText('FPS per 100 EUR')).toBeVisible();
 	await expect(page.getByTestId('reproducibility')).toContainText('Germany');
-	expect(await page.evaluate(() => (window as unknown as { __noReload?: boolean }).__noReload)).toBe(true);
+	expect(
+		await page.evaluate(() => (window as unknown as { __noReload?: boolean }).__noReload)
+	).toBe(true);
 	expect(documents, 'document requests after the switch').toEqual([]);
 	await expect(page).toHaveURL(/\?region=de$/);
 });
@@ -89,10 +102,14 @@ test('build notes render the stored, sanitised HTML only', async ({ page }) => {
 	await page.goto(`/guides/${SLUG}`);
 	const notes = page.getByTestId('build-notes');
 	await expect(notes.locator('script, iframe, [onerror], [onclick]')).toHaveCount(0);
-	expect(await page.evaluate(() => (window as unknown as { __xss?: unknown }).__xss)).toBeUndefined();
+	expect(
+		await page.evaluate(() => (window as unknown as { __xss?: unknown }).__xss)
+	).toBeUndefined();
 });
 
-test('the revision history compares revisions with a GET form and rejects bad numbers', async ({ page }) => {
+test('the revision history compares revisions with a GET form and rejects bad numbers', async ({
+	page
+}) => {
 	await page.goto(`/guides/${SLUG}?from=1&to=abc`);
 	const history = page.getByTestId('revision-history');
 	await expect(history).toContainText('Revision 1');

@@ -14,7 +14,9 @@ function watchHosts(page: import('@playwright/test').Page) {
 	return foreign;
 }
 
-test('home lists the published guides, and a guide page shows slots, alternates and prices', async ({ page }) => {
+test('home lists the published guides, and a guide page shows slots, alternates and prices', async ({
+	page
+}) => {
 	const foreign = watchHosts(page);
 	const fonts: string[] = [];
 	page.on('response', (response) => {
@@ -64,7 +66,9 @@ test('the help page renders its highlighted code sample', async ({ page }) => {
 	expect(foreign).toEqual([]);
 });
 
-test('the region switcher re-prices a guide and labels lines quoted or estimated (works without JavaScript)', async ({ browser }) => {
+test('the region switcher re-prices a guide and labels lines quoted or estimated (works without JavaScript)', async ({
+	browser
+}) => {
 	const context = await browser.newContext({ javaScriptEnabled: false });
 	const page = await context.newPage();
 	await page.goto('/guides/pocket-itx-1440p');
@@ -76,7 +80,9 @@ test('the region switcher re-prices a guide and labels lines quoted or estimated
 	await receipt.getByRole('button', { name: 'Show' }).click();
 	await expect(page).toHaveURL(/\?region=de$/);
 	await expect(receipt.getByText(/€/).first()).toBeVisible();
-	await expect(receipt.getByTestId('priced-counts')).toContainText(/\d+ quoted · [1-9]\d* estimated/);
+	await expect(receipt.getByTestId('priced-counts')).toContainText(
+		/\d+ quoted · [1-9]\d* estimated/
+	);
 	const table = page.getByRole('table').first();
 	await expect(table.getByText('Estimated', { exact: true }).first()).toBeVisible();
 	await expect(table.getByText('Quoted', { exact: true }).first()).toBeVisible();
@@ -106,5 +112,7 @@ test('GET /api/v1/guides/[slug]/pricing re-prices without a page load', async ({
 	expect(body.picksTotal.currency).toBe('GBP');
 	const bad = await request.get('/api/v1/guides/pocket-itx-1440p/pricing?region=zz');
 	expect(bad.status()).toBe(400);
-	expect((await request.get('/api/v1/guides/pocket-itx-1440p/pricing?region=d3')).status()).toBe(400);
+	expect((await request.get('/api/v1/guides/pocket-itx-1440p/pricing?region=d3')).status()).toBe(
+		400
+	);
 });

@@ -4,21 +4,28 @@ import type { ChildProcess } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import { freePort } from './support';
 
 /*
  * A real outage: this test runs its own MariaDB (separate datadir and port) and its own
  * production server against it, stops the database, and watches /api/health.
  */
 const ROOT = resolve(import.meta.dirname, '../..');
-const DB_PORT = '3317';
-const APP_PORT = 4181;
-const URL = `http://127.0.0.1:${APP_PORT}/api/health`;
+// Ports picked free at start, so a second checkout or a developer's own instance never clashes.
+let DB_PORT = '';
+let APP_PORT = 0;
+let URL = '';
 
 test.describe.configure({ timeout: 120_000 });
 
 let dataDir: string;
 let server: ChildProcess | undefined;
-const dbEnv = () => ({ ...process.env, SLOTWISE_DATA_DIR: dataDir, DB_PORT, DB_NAMES: 'slotwise_health' });
+const dbEnv = () => ({
+	...process.env,
+	SLOTWISE_DATA_DIR: dataDir,
+	DB_PORT,
+	DB_NAMES: 'slotwise_health'
+});
 const db = (command: 'start' | 'stop') =>
 	execFileSync('bash', [join(ROOT, 'scripts/db.sh'), command], { env: dbEnv(), stdio: 'pipe' });
 
@@ -30,6 +37,9 @@ async function getHealth(): Promise<{ status: number; body: unknown; ms: number 
 
 test.beforeAll(async () => {
 	dataDir = mkdtempSync(join(tmpdir(), 'slotwise-health-'));
+	DB_PORT = String(await freePort());
+	APP_PORT = await freePort();
+	URL = `http://127.0.0.1:${APP_PORT}/api/health`;
 	db('start');
 	server = spawn('node', ['build'], {
 		cwd: ROOT,
@@ -44,7 +54,15 @@ test.beforeAll(async () => {
 		},
 		stdio: 'ignore'
 	});
-	await expect.poll(() => getHealth().then((h) => h.status).catch(() => 0), { timeout: 20_000 }).toBe(200);
+	await expect
+		.poll(
+			() =>
+				getHealth()
+					.then((h) => h.status)
+					.catch(() => 0),
+			{ timeout: 20_000 }
+		)
+		.toBe(200);
 });
 
 test.afterAll(async () => {
@@ -69,6 +87,8 @@ test('health answers 503 quickly while MariaDB is down and 200 again once it is 
 
 	db('start');
 	const backAt = Date.now();
-	await expect.poll(() => getHealth().then((h) => h.status), { timeout: 10_000, intervals: [250] }).toBe(200);
+	await expect
+		.poll(() => getHealth().then((h) => h.status), { timeout: 10_000, intervals: [250] })
+		.toBe(200);
 	expect(Date.now() - backAt).toBeLessThan(10_000);
 });

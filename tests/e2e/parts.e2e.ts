@@ -1,5 +1,11 @@
 import { expect, test } from '@playwright/test';
-import { demoGuides, demoParts, demoQuotes, demoRegions, demoStores } from '../../src/lib/server/db/seeders/demo-data';
+import {
+	demoGuides,
+	demoParts,
+	demoQuotes,
+	demoRegions,
+	demoStores
+} from '../../src/lib/server/db/seeders/demo-data';
 
 /*
  * The public catalog in a real browser on the seeded demo: filter by category, open a
@@ -14,38 +20,57 @@ function currencyOfStore(storeName: string): string {
 	return demoRegions.find((r) => r.code === store?.regionCode)?.currency ?? '?';
 }
 
-test('the catalog filters by category, and a part page shows specs, prices and history', async ({ page }) => {
+test('the catalog filters by category, and a part page shows specs, prices and history', async ({
+	page
+}) => {
 	if (!cobalt) throw new Error('demo part missing');
 	// Client-side navigation must render too, not only the server's HTML.
 	const pageErrors: string[] = [];
 	page.on('pageerror', (e) => pageErrors.push(e.message));
 	await page.goto('/parts');
 	await expect(page.getByRole('heading', { level: 1, name: 'Parts catalog' })).toBeVisible();
-	await expect(page.getByRole('link', { name: 'Parts', exact: true })).toHaveAttribute('aria-current', 'page');
+	await expect(page.getByRole('link', { name: 'Parts', exact: true })).toHaveAttribute(
+		'aria-current',
+		'page'
+	);
 
-	await page.getByRole('navigation', { name: 'Part categories' }).getByRole('link', { name: 'Graphics card' }).click();
+	await page
+		.getByRole('navigation', { name: 'Part categories' })
+		.getByRole('link', { name: 'Graphics card' })
+		.click();
 	await expect(page).toHaveURL(/category=gpu/);
 	await expect(page.getByText(`${gpus.length} parts`)).toBeVisible();
 	const rows = page.getByRole('table').getByRole('row');
 	await expect(rows).toHaveCount(gpus.length + 1); // + header row
-	for (const gpu of gpus) await expect(page.getByRole('link', { name: `${gpu.brand} ${gpu.model}` })).toBeVisible();
+	for (const gpu of gpus)
+		await expect(page.getByRole('link', { name: `${gpu.brand} ${gpu.model}` })).toBeVisible();
 
 	// A spec filter through the form: at most 210 mm keeps only the short cards.
 	await page.getByLabel('Length, at most (mm)').fill('210');
 	await page.getByRole('button', { name: 'Search' }).click();
 	const short = gpus.filter((g) => Number(g.specs.lengthMm) <= 210);
-	await expect(page.getByText(short.length === 1 ? '1 part' : `${short.length} parts`)).toBeVisible();
+	await expect(
+		page.getByText(short.length === 1 ? '1 part' : `${short.length} parts`)
+	).toBeVisible();
 	await expect(rows).toHaveCount(short.length + 1);
 
 	await page.getByRole('link', { name: `${cobalt.brand} ${cobalt.model}` }).click();
 	await expect(page).toHaveURL(/\/parts\/solenne-cobalt-c6-8g$/);
-	await expect(page.getByRole('heading', { level: 1 })).toHaveText(`${cobalt.brand} ${cobalt.model}`);
+	await expect(page.getByRole('heading', { level: 1 })).toHaveText(
+		`${cobalt.brand} ${cobalt.model}`
+	);
 
 	// Units come from the field names: lengthMm → mm, boardPowerW → W, vramGb → GB.
 	const specs = page.getByRole('table', { name: 'Specifications with units' });
-	await expect(specs.getByRole('row', { name: /Length/ })).toContainText(`${cobalt.specs.lengthMm} mm`);
-	await expect(specs.getByRole('row', { name: /Board power/ })).toContainText(`${cobalt.specs.boardPowerW} W`);
-	await expect(specs.getByRole('row', { name: /Video memory/ })).toContainText(`${cobalt.specs.vramGb} GB`);
+	await expect(specs.getByRole('row', { name: /Length/ })).toContainText(
+		`${cobalt.specs.lengthMm} mm`
+	);
+	await expect(specs.getByRole('row', { name: /Board power/ })).toContainText(
+		`${cobalt.specs.boardPowerW} W`
+	);
+	await expect(specs.getByRole('row', { name: /Video memory/ })).toContainText(
+		`${cobalt.specs.vramGb} GB`
+	);
 
 	// One chart (svg role=img) per currency the part is quoted in: USD, EUR, GBP and JPY here.
 	const quotes = demoQuotes.filter((q) => q.partSlug === cobalt.slug);
@@ -54,7 +79,10 @@ test('the catalog filters by category, and a part page shows specs, prices and h
 	await expect(charts).toHaveCount(currencies.size);
 	const usd = page.getByRole('img', { name: /Prices in USD/ });
 	await expect(usd).toBeVisible();
-	await expect(usd).toHaveAttribute('aria-label', /Prices in USD at 1 store, 5 observations from .+ Lowest US\$229\.99/);
+	await expect(usd).toHaveAttribute(
+		'aria-label',
+		/Prices in USD at 1 store, 5 observations from .+ Lowest US\$229\.99/
+	);
 	// Each observation has a marker: a path with its own tooltip title.
 	await expect(usd.locator('path title')).toHaveCount(5);
 
@@ -68,17 +96,24 @@ test('the catalog filters by category, and a part page shows specs, prices and h
 
 	// The guides using it (as a pick or an alternate) link to their pages.
 	const using = demoGuides.filter((g) =>
-		g.slots.some((s) => s.pickSlug === cobalt.slug || s.alternates.some((a) => a.partSlug === cobalt.slug))
+		g.slots.some(
+			(s) => s.pickSlug === cobalt.slug || s.alternates.some((a) => a.partSlug === cobalt.slug)
+		)
 	);
 	expect(using.length).toBeGreaterThan(0);
 	const guidesSection = page.getByRole('region', { name: 'Guides using this part' });
 	for (const guide of using) {
-		await expect(guidesSection.getByRole('link', { name: guide.title })).toHaveAttribute('href', `/guides/${guide.slug}`);
+		await expect(guidesSection.getByRole('link', { name: guide.title })).toHaveAttribute(
+			'href',
+			`/guides/${guide.slug}`
+		);
 	}
 	expect(pageErrors).toEqual([]);
 });
 
-test('the catalog works without JavaScript, and an unknown part answers 404', async ({ browser }) => {
+test('the catalog works without JavaScript, and an unknown part answers 404', async ({
+	browser
+}) => {
 	const context = await browser.newContext({ javaScriptEnabled: false });
 	const page = await context.newPage();
 	await page.goto('/parts?category=cpu');
@@ -86,7 +121,9 @@ test('the catalog works without JavaScript, and an unknown part answers 404', as
 	await page.getByLabel('Socket').selectOption('AM5');
 	await page.getByRole('button', { name: 'Search' }).click();
 	await expect(page).toHaveURL(/socket=AM5/);
-	const expected = demoParts.filter((p) => p.category === 'cpu' && p.brand === 'Halvard' && p.specs.socket === 'AM5');
+	const expected = demoParts.filter(
+		(p) => p.category === 'cpu' && p.brand === 'Halvard' && p.specs.socket === 'AM5'
+	);
 	await expect(page.getByRole('table').getByRole('row')).toHaveCount(expected.length + 1);
 
 	// A bad filter is reported and ignored; the rest of the search still applies.
@@ -99,7 +136,9 @@ test('the catalog works without JavaScript, and an unknown part answers 404', as
 	await context.close();
 });
 
-test('the JSON API answers searches, refuses bad parameters and 404s unknown parts', async ({ request }) => {
+test('the JSON API answers searches, refuses bad parameters and 404s unknown parts', async ({
+	request
+}) => {
 	const ok = await request.get('/api/v1/parts?category=gpu&minVramGb=16');
 	expect(ok.status()).toBe(200);
 	const body = await ok.json();

@@ -1,5 +1,4 @@
 import { expect, test } from '@playwright/test';
-import type { Page } from '@playwright/test';
 import { severeViolations, signInWithPassword } from './support';
 
 /*
@@ -12,12 +11,16 @@ import { severeViolations, signInWithPassword } from './support';
 const PART = '/parts/arkwell-m790-atx';
 const STORE = 'Bayline PC Supply';
 
-test('a reader reports a price, an editor verifies it, and it joins the price history', async ({ browser }) => {
+test('a reader reports a price, an editor verifies it, and it joins the price history', async ({
+	browser
+}) => {
 	// Three browser sessions and two axe runs (10–15 s each on the test machine).
 	test.setTimeout(120_000);
 	const cents = 15_000 + (Date.now() % 4_000) * 7 + 3; // between 150.03 and 439.96 USD
 	const price = `${Math.floor(cents / 100)}.${String(cents % 100).padStart(2, '0')}`;
-	const label = new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'USD' }).format(cents / 100);
+	const label = new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'USD' }).format(
+		cents / 100
+	);
 	const today = new Date().toISOString().slice(0, 10);
 
 	// A visitor is asked to sign in instead of seeing the form.
@@ -38,16 +41,22 @@ test('a reader reports a price, an editor verifies it, and it joins the price hi
 	await reader.locator('#sighting-store').selectOption({ label: STORE });
 	await reader.locator('#sighting-price').fill(`${price}5`);
 	await reader.locator('#sighting-day').fill(today);
-	await reader.locator('#sighting-url').fill('https://bayline-pc-supply.example/boards/arkwell-m790-atx');
+	await reader
+		.locator('#sighting-url')
+		.fill('https://bayline-pc-supply.example/boards/arkwell-m790-atx');
 	await reader.getByRole('button', { name: 'Report this price' }).click();
-	await expect(reader.locator('#sighting-price-issues')).toContainText('USD allows at most 2 decimals');
+	await expect(reader.locator('#sighting-price-issues')).toContainText(
+		'USD allows at most 2 decimals'
+	);
 	await expect(reader.locator('#sighting-price')).toHaveAttribute('aria-invalid', 'true');
 	const formViolations = await severeViolations(reader);
 	expect(formViolations, formViolations.join('\n')).toEqual([]);
 
 	await reader.locator('#sighting-price').fill(price);
 	await reader.getByRole('button', { name: 'Report this price' }).click();
-	await expect(reader.getByRole('status').filter({ hasText: 'waiting for an editor' })).toBeVisible();
+	await expect(
+		reader.getByRole('status').filter({ hasText: 'waiting for an editor' })
+	).toBeVisible();
 	const mine = reader.getByTestId('my-sightings');
 	await expect(mine.locator('li', { hasText: label })).toContainText('Waiting for an editor');
 
@@ -55,11 +64,17 @@ test('a reader reports a price, an editor verifies it, and it joins the price hi
 	const editor = await editorContext.newPage();
 	await signInWithPassword(editor, 'editor@slotwise.test');
 	await editor.goto('/editor');
-	await editor.getByRole('navigation', { name: 'Editor' }).getByRole('link', { name: 'Price sightings' }).click();
+	await editor
+		.getByRole('navigation', { name: 'Editor' })
+		.getByRole('link', { name: 'Price sightings' })
+		.click();
 	await expect(editor).toHaveURL(/\/editor\/sightings$/);
 	await editor.getByLabel('Part', { exact: true }).fill('Arkwell M790');
 	await editor.getByRole('button', { name: 'Filter' }).click();
-	const item = editor.getByTestId('sighting-item').filter({ hasText: label }).filter({ hasText: STORE });
+	const item = editor
+		.getByTestId('sighting-item')
+		.filter({ hasText: label })
+		.filter({ hasText: STORE });
 	await expect(item).toHaveCount(1);
 	const queueViolations = await severeViolations(editor);
 	expect(queueViolations, queueViolations.join('\n')).toEqual([]);
@@ -69,10 +84,14 @@ test('a reader reports a price, an editor verifies it, and it joins the price hi
 
 	// The price history's data table lists the new quote under its store.
 	await editor.goto(PART);
-	const history = editor.locator('section', { has: editor.getByRole('heading', { name: 'Price history' }) });
+	const history = editor.locator('section', {
+		has: editor.getByRole('heading', { name: 'Price history' })
+	});
 	await history.locator('summary', { hasText: 'in USD' }).click();
 	// Filtered by amount too: an earlier run on the same database left its own price here.
-	const row = history.locator('tr', { hasText: `United States · ${STORE}` }).filter({ hasText: label });
+	const row = history
+		.locator('tr', { hasText: `United States · ${STORE}` })
+		.filter({ hasText: label });
 	await expect(row).toHaveCount(1);
 	await expect(row.locator('time')).toHaveAttribute('datetime', `${today}T12:00:00.000Z`);
 
@@ -84,11 +103,15 @@ test('a reader reports a price, an editor verifies it, and it joins the price hi
 	await editorContext.close();
 });
 
-test('without JavaScript: a reader reports a price and sees the editor’s reason for rejecting it', async ({ browser }) => {
+test('without JavaScript: a reader reports a price and sees the editor’s reason for rejecting it', async ({
+	browser
+}) => {
 	test.setTimeout(90_000);
 	const cents = 45_001 + (Date.now() % 4_000) * 3; // 450.01 … 570.00 USD: apart from the test above
 	const price = `${Math.floor(cents / 100)}.${String(cents % 100).padStart(2, '0')}`;
-	const label = new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'USD' }).format(cents / 100);
+	const label = new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'USD' }).format(
+		cents / 100
+	);
 	const reason = `The linked page shows a different board (run ${Date.now()}).`;
 
 	const readerContext = await browser.newContext({ javaScriptEnabled: false });
@@ -98,9 +121,13 @@ test('without JavaScript: a reader reports a price and sees the editor’s reaso
 	await reader.locator('#sighting-region').selectOption('us');
 	await reader.locator('#sighting-store').selectOption({ label: STORE });
 	await reader.locator('#sighting-price').fill(price);
-	await reader.locator('#sighting-url').fill('https://bayline-pc-supply.example/boards/arkwell-m790-atx?ref=shelf');
+	await reader
+		.locator('#sighting-url')
+		.fill('https://bayline-pc-supply.example/boards/arkwell-m790-atx?ref=shelf');
 	await reader.getByRole('button', { name: 'Report this price' }).click();
-	await expect(reader.getByRole('status').filter({ hasText: 'waiting for an editor' })).toBeVisible();
+	await expect(
+		reader.getByRole('status').filter({ hasText: 'waiting for an editor' })
+	).toBeVisible();
 
 	const editorContext = await browser.newContext({ javaScriptEnabled: false });
 	const editor = await editorContext.newPage();
@@ -119,7 +146,9 @@ test('without JavaScript: a reader reports a price and sees the editor’s reaso
 	await expect(mine).toContainText(reason);
 
 	// The rejected price never reaches the price history.
-	await expect(reader.locator('section', { has: reader.getByRole('heading', { name: 'Price history' }) })).not.toContainText(label);
+	await expect(
+		reader.locator('section', { has: reader.getByRole('heading', { name: 'Price history' }) })
+	).not.toContainText(label);
 
 	await readerContext.close();
 	await editorContext.close();

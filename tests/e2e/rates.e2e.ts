@@ -3,12 +3,17 @@ import { signInWithPassword } from './support';
 
 /*
  * Exchange rates: the app fetches the ECB's daily XML over HTTP from the local fake, which
- * serves the real published rates of 2 January 2024 (CHECK-VALUES 10c).
+ * serves the real published rates of 2 January 2024 (docs/sources.md 10c).
  */
-test('GET /api/v1/fx lists the stored euro rates with their date and flags them stale', async ({ request }) => {
+test('GET /api/v1/fx lists the stored euro rates with their date and flags them stale', async ({
+	request
+}) => {
 	const response = await request.get('/api/v1/fx');
 	expect(response.status()).toBe(200);
-	const body = (await response.json()) as { base: string; rates: { currency: string; ratePerEur: string; asOf: string; stale: boolean }[] };
+	const body = (await response.json()) as {
+		base: string;
+		rates: { currency: string; ratePerEur: string; asOf: string; stale: boolean }[];
+	};
 	expect(body.base).toBe('EUR');
 	const usd = body.rates.find((r) => r.currency === 'USD');
 	// ECB, Euro foreign exchange reference rates, 2 January 2024: USD 1.0956 (V).

@@ -23,13 +23,17 @@ async function signedIn(browser: Browser, email: string): Promise<Page> {
 /** The editor's queue entry for the guide in the open or decided list. */
 async function queueEntry(editor: Page, state: 'open' | 'closed') {
 	await editor.goto(state === 'open' ? '/editor/reports' : '/editor/reports?state=closed');
-	return editor.getByTestId('report-group').filter({ has: editor.getByRole('heading', { name: guide?.title }) });
+	return editor
+		.getByTestId('report-group')
+		.filter({ has: editor.getByRole('heading', { name: guide?.title }) });
 }
 
 test.afterAll(async ({ browser }) => {
 	const editor = await signedIn(browser, 'editor@slotwise.test');
 	for (const state of ['open', 'closed'] as const) {
-		const restore = (await queueEntry(editor, state)).getByRole('button', { name: 'Restore guide' });
+		const restore = (await queueEntry(editor, state)).getByRole('button', {
+			name: 'Restore guide'
+		});
 		if ((await restore.count()) > 0) await restore.first().click();
 	}
 	await editor.context().close();
@@ -44,33 +48,47 @@ test('a reader reports a guide, an editor hides it and restores it, and the admi
 	const visitor = await (await browser.newContext()).newPage();
 	await visitor.goto(GUIDE_URL);
 	await visitor.getByText('Report this guide', { exact: true }).click();
-	await expect(visitor.getByRole('link', { name: 'Sign in' }).last()).toHaveAttribute('href', /redirectTo=%2Fguides%2Fpocket-itx-1440p/);
+	await expect(visitor.getByRole('link', { name: 'Sign in' }).last()).toHaveAttribute(
+		'href',
+		/redirectTo=%2Fguides%2Fpocket-itx-1440p/
+	);
 
 	const reader = await signedIn(browser, 'reader@slotwise.test');
 	await reader.goto(GUIDE_URL);
 	await reader.getByText('Report this guide', { exact: true }).click();
 	await reader.getByLabel('Unsafe advice (electrical, thermal or handling risk)').check();
-	await reader.getByLabel('Details for the editors').fill('The PSU section suggests opening the power supply.');
+	await reader
+		.getByLabel('Details for the editors')
+		.fill('The PSU section suggests opening the power supply.');
 	await reader.getByRole('button', { name: 'Send report' }).click();
-	await expect(reader.getByText(/Thank you: your report is with the editors|already reported this guide/)).toBeVisible();
+	await expect(
+		reader.getByText(/Thank you: your report is with the editors|already reported this guide/)
+	).toBeVisible();
 
 	const editor = await signedIn(browser, 'editor@slotwise.test');
 	await editor.goto('/editor');
-	await editor.getByRole('navigation', { name: 'Editor' }).getByRole('link', { name: 'Reports' }).click();
+	await editor
+		.getByRole('navigation', { name: 'Editor' })
+		.getByRole('link', { name: 'Reports' })
+		.click();
 	const entry = await queueEntry(editor, 'open');
 	await expect(entry).toContainText(/\d+ reports?/);
 	await expect(entry).toContainText('The PSU section suggests opening the power supply.');
 	await entry.getByText('Hide this guide…').click();
 	await entry.getByLabel('Reason (its author sees this)').fill(REASON);
 	await entry.getByRole('button', { name: 'Hide from the public' }).click();
-	await expect(editor.getByText(/Hidden from the public; its author sees your reason/)).toBeVisible();
+	await expect(
+		editor.getByText(/Hidden from the public; its author sees your reason/)
+	).toBeVisible();
 
 	// Visitors and other readers: gone from the page, browse, the feed and the API.
 	expect((await visitor.goto(GUIDE_URL))?.status()).toBe(404);
 	expect((await reader.goto(GUIDE_URL))?.status()).toBe(404);
 	await visitor.goto('/guides');
 	await expect(visitor.locator(`a[href="${GUIDE_URL}"]`)).toHaveCount(0);
-	const api = (await (await visitor.request.get('/api/v1/guides')).json()) as { items: { slug: string }[] };
+	const api = (await (await visitor.request.get('/api/v1/guides')).json()) as {
+		items: { slug: string }[];
+	};
 	expect(api.items.map((g) => g.slug)).not.toContain(guide.slug);
 	expect(await (await visitor.request.get('/guides/feed.xml')).text()).not.toContain(GUIDE_URL);
 
@@ -96,7 +114,10 @@ test('a reader reports a guide, an editor hides it and restores it, and the admi
 	// The admin filters the audit trail by action, without JavaScript-only controls.
 	const admin = await signedIn(browser, 'admin@slotwise.test');
 	await admin.goto('/admin/users');
-	await admin.getByRole('navigation', { name: 'Admin' }).getByRole('link', { name: 'Audit trail' }).click();
+	await admin
+		.getByRole('navigation', { name: 'Admin' })
+		.getByRole('link', { name: 'Audit trail' })
+		.click();
 	await admin.getByLabel('Action').selectOption('guide.hidden');
 	await admin.getByRole('button', { name: 'Filter' }).click();
 	await expect(admin).toHaveURL(/action=guide\.hidden/);
@@ -112,5 +133,7 @@ test('a reader reports a guide, an editor hides it and restores it, and the admi
 	await expect(restoredRow).toContainText('guide.restored');
 	await expect(restoredRow).toContainText('editor@slotwise.test');
 	await expect(restoredRow).toContainText(REASON);
-	await expect(admin.getByTestId('audit-row').filter({ hasNotText: 'guide.restored' })).toHaveCount(0);
+	await expect(admin.getByTestId('audit-row').filter({ hasNotText: 'guide.restored' })).toHaveCount(
+		0
+	);
 });

@@ -2,12 +2,20 @@ import { expect, test } from '@playwright/test';
 import { BASE_URL } from '../playwright.config';
 import { signInWithPassword } from './support';
 
-/* SECURITY-CHECKLIST.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
+/* docs/security.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
 
 const CROSS_SITE = 'https://evil.example';
 
-test('cross-origin form posts to sign-in, sign-up and sign-out are refused with 403', async ({ request }) => {
-	for (const path of ['/signin?/password', '/signin?/link', '/signup', '/signout', '/account?/delete']) {
+test('cross-origin form posts to sign-in, sign-up and sign-out are refused with 403', async ({
+	request
+}) => {
+	for (const path of [
+		'/signin?/password',
+		'/signin?/link',
+		'/signup',
+		'/signout',
+		'/account?/delete'
+	]) {
 		const response = await request.post(path, {
 			form: { email: 'reader@slotwise.test', password: 'slotwise-demo-password' },
 			headers: { origin: CROSS_SITE },
@@ -17,7 +25,9 @@ test('cross-origin form posts to sign-in, sign-up and sign-out are refused with 
 	}
 });
 
-test("Auth.js's own POST endpoints are closed: sign-in only runs through our validated actions", async ({ request }) => {
+test("Auth.js's own POST endpoints are closed: sign-in only runs through our validated actions", async ({
+	request
+}) => {
 	for (const path of ['/auth/callback/credentials', '/auth/signin/nodemailer', '/auth/signout']) {
 		const response = await request.post(path, {
 			form: { email: 'reader@slotwise.test', password: 'slotwise-demo-password' },
@@ -37,7 +47,9 @@ test('JSON API routes refuse non-JSON bodies with 415', async ({ request }) => {
 	expect(await response.json()).toMatchObject({ message: expect.stringMatching(/JSON/) });
 });
 
-test('pages carry CSP with nonces, nosniff, referrer policy and frame-ancestors', async ({ request }) => {
+test('pages carry CSP with nonces, nosniff, referrer policy and frame-ancestors', async ({
+	request
+}) => {
 	const response = await request.get('/');
 	const headers = response.headers();
 	const csp = headers['content-security-policy'] ?? '';
@@ -51,7 +63,10 @@ test('pages carry CSP with nonces, nosniff, referrer policy and frame-ancestors'
 	expect(headers['strict-transport-security']).toBeUndefined();
 });
 
-test('signed-in pages are not cached, and the session cookie is HttpOnly and SameSite', async ({ page, context }) => {
+test('signed-in pages are not cached, and the session cookie is HttpOnly and SameSite', async ({
+	page,
+	context
+}) => {
 	await signInWithPassword(page, 'reader@slotwise.test');
 	await expect(page).toHaveURL(/\/$/);
 	const response = await page.request.get('/account');
@@ -61,7 +76,9 @@ test('signed-in pages are not cached, and the session cookie is HttpOnly and Sam
 	expect(session?.sameSite).toBe('Lax');
 });
 
-test('a spoofed X-Forwarded-For does not change who the rate limiter counts', async ({ request }) => {
+test('a spoofed X-Forwarded-For does not change who the rate limiter counts', async ({
+	request
+}) => {
 	// adapter-node ignores the header unless ADDRESS_HEADER names it for a trusted proxy, so
 	// rotating it cannot buy fresh attempts: the limit still trips for this one client.
 	const email = 'aiko.tanabe@slotwise.test';

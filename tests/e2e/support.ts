@@ -1,6 +1,7 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect } from '@playwright/test';
 import type { Page } from '@playwright/test';
+import { createServer } from 'node:net';
 
 export const DEMO_PASSWORD = 'slotwise-demo-password';
 
@@ -8,9 +9,16 @@ export const DEMO_PASSWORD = 'slotwise-demo-password';
  * Signs in through the real form (password panel). By default waits until the app has
  * left the sign-in page, so the session cookie is set before the next navigation.
  */
-export async function signInWithPassword(page: Page, email: string, password = DEMO_PASSWORD, expectSuccess = true) {
+export async function signInWithPassword(
+	page: Page,
+	email: string,
+	password = DEMO_PASSWORD,
+	expectSuccess = true
+) {
 	await page.goto('/signin');
-	const panel = page.locator('section', { has: page.getByRole('heading', { name: 'With your password' }) });
+	const panel = page.locator('section', {
+		has: page.getByRole('heading', { name: 'With your password' })
+	});
 	await panel.getByLabel('E-mail').fill(email);
 	await panel.getByLabel('Password').fill(password);
 	await panel.getByRole('button', { name: 'Sign in' }).click();
@@ -19,7 +27,9 @@ export async function signInWithPassword(page: Page, email: string, password = D
 }
 
 /** The session as Auth.js reports it at /auth/session. */
-export async function sessionOf(page: Page): Promise<{ user?: { email: string; role: string } } | null> {
+export async function sessionOf(
+	page: Page
+): Promise<{ user?: { email: string; role: string } } | null> {
 	const response = await page.request.get('/auth/session');
 	expect(response.status()).toBe(200);
 	return (await response.json()) as { user?: { email: string; role: string } } | null;
@@ -48,8 +58,25 @@ export async function signUpConfirmed(page: Page, name: string, email: string, p
 
 /** axe-core's serious and critical WCAG 2.0–2.2 A/AA violations on the page, one line each with the selectors flagged. */
 export async function severeViolations(page: Page): Promise<string[]> {
-	const results = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa']).analyze();
+	const results = await new AxeBuilder({ page })
+		.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'])
+		.analyze();
 	return results.violations
 		.filter((v) => v.impact === 'serious' || v.impact === 'critical')
-		.map((v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+		.map(
+			(v) => `${v.impact} ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`
+		);
+}
+
+/** A TCP port free on 127.0.0.1 right now: tests never assume one another checkout may hold. */
+export function freePort(): Promise<number> {
+	return new Promise((resolve, reject) => {
+		const server = createServer();
+		server.once('error', reject);
+		server.listen(0, '127.0.0.1', () => {
+			const address = server.address();
+			const port = typeof address === 'object' && address ? address.port : 0;
+			server.close(() => resolve(port));
+		});
+	});
 }

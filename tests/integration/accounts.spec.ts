@@ -45,7 +45,9 @@ describe('accounts service', () => {
 	it('stores only token hashes, never the token sent by mail', async () => {
 		const email = `hash-${Date.now()}@example.test`;
 		await accounts.signUp({ name: 'Hal', email, password: PASSWORD }, ORIGIN);
-		const token = tokenFrom(firstLink(await waitForMessage({ to: email, subject: /confirm/i }), '/verify'));
+		const token = tokenFrom(
+			firstLink(await waitForMessage({ to: email, subject: /confirm/i }), '/verify')
+		);
 		const rows = await EmailToken.findAll();
 		expect(rows).toHaveLength(1);
 		expect(rows[0]?.tokenHash).toMatch(/^[0-9a-f]{64}$/);
@@ -56,7 +58,12 @@ describe('accounts service', () => {
 		const email = `taken-${Date.now()}@example.test`;
 		await signUpAndVerify(email);
 		const before = await User.count();
-		expect(await accounts.signUp({ name: 'Imposter', email, password: 'other long passphrase here' }, ORIGIN)).toEqual({ kind: 'ok' });
+		expect(
+			await accounts.signUp(
+				{ name: 'Imposter', email, password: 'other long passphrase here' },
+				ORIGIN
+			)
+		).toEqual({ kind: 'ok' });
 		expect(await User.count()).toBe(before);
 		await waitForMessage({ to: email, subject: /already|account/i });
 		// The owner's password is unchanged.
@@ -80,7 +87,9 @@ describe('accounts service', () => {
 		expect(await accounts.sessionUser(user.id, user.sessionVersion)).not.toBeNull();
 
 		await accounts.requestPasswordReset(email, ORIGIN);
-		const token = tokenFrom(firstLink(await waitForMessage({ to: email, subject: /reset/i }), '/reset/'));
+		const token = tokenFrom(
+			firstLink(await waitForMessage({ to: email, subject: /reset/i }), '/reset/')
+		);
 		const newPassword = 'copper hills at first light';
 		expect(await accounts.resetPassword(token, newPassword)).toBe('reset');
 		expect(await accounts.resetPassword(token, 'yet another long password')).toBe('invalid');
@@ -93,7 +102,10 @@ describe('accounts service', () => {
 		await accounts.requestPasswordReset(email, ORIGIN);
 		const messages = await waitForMessage({ to: email, subject: /reset/i });
 		const fresh = tokenFrom(firstLink(messages, '/reset/'));
-		await EmailToken.update({ expiresAt: new Date(Date.now() - 60_000) }, { where: { usedAt: null } });
+		await EmailToken.update(
+			{ expiresAt: new Date(Date.now() - 60_000) },
+			{ where: { usedAt: null } }
+		);
 		expect(await accounts.isResetTokenUsable(fresh)).toBe(false);
 		expect(await accounts.resetPassword(fresh, 'one more long password')).toBe('invalid');
 	});
@@ -110,8 +122,12 @@ describe('accounts service', () => {
 	});
 
 	it('sends no reset mail for an unknown address and says nothing different', async () => {
-		await expect(accounts.requestPasswordReset('nobody-here@example.test', ORIGIN)).resolves.toBeUndefined();
-		await expect(waitForMessage({ to: 'nobody-here@example.test', timeoutMs: 500 })).rejects.toThrow(/No e-mail/);
+		await expect(
+			accounts.requestPasswordReset('nobody-here@example.test', ORIGIN)
+		).resolves.toBeUndefined();
+		await expect(
+			waitForMessage({ to: 'nobody-here@example.test', timeoutMs: 500 })
+		).rejects.toThrow(/No e-mail/);
 	});
 
 	it('changes a password only with the current one, and ends older sessions', async () => {
@@ -119,8 +135,12 @@ describe('accounts service', () => {
 		await signUpAndVerify(email);
 		const user = await User.findOne({ where: { email } });
 		if (!user) throw new Error('user missing');
-		expect(await accounts.changePassword(user.id, 'not my password at all', 'brand new long password')).toEqual({ kind: 'wrong_password' });
-		expect(await accounts.changePassword(user.id, PASSWORD, 'brand new long password')).toEqual({ kind: 'ok' });
+		expect(
+			await accounts.changePassword(user.id, 'not my password at all', 'brand new long password')
+		).toEqual({ kind: 'wrong_password' });
+		expect(await accounts.changePassword(user.id, PASSWORD, 'brand new long password')).toEqual({
+			kind: 'ok'
+		});
 		expect(await accounts.sessionUser(user.id, user.sessionVersion)).toBeNull();
 		expect(await accounts.sessionUser(user.id, user.sessionVersion + 1)).toMatchObject({ email });
 	});
@@ -147,11 +167,24 @@ describe('accounts service', () => {
 		const user = await User.findOne({ where: { email } });
 		if (!user) throw new Error('user missing');
 
-		expect(await accounts.requestEmailChange(user.id, { newEmail: next, password: 'wrong long password here' }, ORIGIN)).toEqual({ kind: 'wrong_password' });
-		expect(await accounts.requestEmailChange(user.id, { newEmail: email, password: PASSWORD }, ORIGIN)).toEqual({ kind: 'same_address' });
-		expect(await accounts.requestEmailChange(user.id, { newEmail: next, password: PASSWORD }, ORIGIN)).toEqual({ kind: 'ok' });
+		expect(
+			await accounts.requestEmailChange(
+				user.id,
+				{ newEmail: next, password: 'wrong long password here' },
+				ORIGIN
+			)
+		).toEqual({ kind: 'wrong_password' });
+		expect(
+			await accounts.requestEmailChange(user.id, { newEmail: email, password: PASSWORD }, ORIGIN)
+		).toEqual({ kind: 'same_address' });
+		expect(
+			await accounts.requestEmailChange(user.id, { newEmail: next, password: PASSWORD }, ORIGIN)
+		).toEqual({ kind: 'ok' });
 		await waitForMessage({ to: email, subject: /about to change/i });
-		const link = firstLink(await waitForMessage({ to: next, subject: /new e-mail/i }), '/verify/email');
+		const link = firstLink(
+			await waitForMessage({ to: next, subject: /new e-mail/i }),
+			'/verify/email'
+		);
 		// Nothing moves before the confirmation.
 		expect((await User.findByPk(user.id))?.email).toBe(email);
 
@@ -168,7 +201,11 @@ describe('accounts service', () => {
 		await signUpAndVerify(b);
 		const user = await User.findOne({ where: { email: a } });
 		if (!user) throw new Error('user missing');
-		expect(await accounts.requestEmailChange(user.id, { newEmail: b, password: PASSWORD }, ORIGIN)).toEqual({ kind: 'ok' });
-		await expect(waitForMessage({ to: b, subject: /new e-mail/i, timeoutMs: 500 })).rejects.toThrow(/No e-mail/);
+		expect(
+			await accounts.requestEmailChange(user.id, { newEmail: b, password: PASSWORD }, ORIGIN)
+		).toEqual({ kind: 'ok' });
+		await expect(waitForMessage({ to: b, subject: /new e-mail/i, timeoutMs: 500 })).rejects.toThrow(
+			/No e-mail/
+		);
 	});
 });

@@ -6,12 +6,33 @@ import { resetDatabase } from '../support/db';
 
 /* The audit trail's filters on the real MariaDB (the admin page's /admin/audit list). */
 async function makeUser(email: string) {
-	return User.create({ email, name: email.split('@')[0] ?? email, role: 'editor', passwordHash: '$argon2id$v=19$fake-hash-for-tests' });
+	return User.create({
+		email,
+		name: email.split('@')[0] ?? email,
+		role: 'editor',
+		passwordHash: '$argon2id$v=19$fake-hash-for-tests'
+	});
 }
 
-async function event(actorId: string | null, action: string, subjectType: string, subjectId: string, at: string) {
+async function event(
+	actorId: string | null,
+	action: string,
+	subjectType: string,
+	subjectId: string,
+	at: string
+) {
 	const entry = await sequelize.transaction((t) =>
-		audit.record({ actorId, action, subjectType, subjectId, before: { hidden: false }, after: { hidden: true } }, t)
+		audit.record(
+			{
+				actorId,
+				action,
+				subjectType,
+				subjectId,
+				before: { hidden: false },
+				after: { hidden: true }
+			},
+			t
+		)
 	);
 	// Events are append-only in the app; the test back-dates its own rows to exercise the date filter.
 	await sequelize.query('UPDATE audit_events SET created_at = :at WHERE id = :id', {
@@ -69,7 +90,9 @@ describe('audit list filters on the real MariaDB', () => {
 	it('offers the actions and subject types in use for the filter lists', async () => {
 		const choices = await audit.filterChoices();
 		expect(choices.subjectTypes).toEqual(['guide', 'user']);
-		expect(choices.actions).toEqual(expect.arrayContaining(['guide.hidden', 'guide.restored', 'user.enabled']));
+		expect(choices.actions).toEqual(
+			expect.arrayContaining(['guide.hidden', 'guide.restored', 'user.enabled'])
+		);
 		expect(await AuditEvent.count()).toBe(4);
 	});
 });

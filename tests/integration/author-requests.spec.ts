@@ -2,7 +2,10 @@ import { randomUUID } from 'node:crypto';
 import { createServer } from 'node:net';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import type { Role } from '../../src/lib/domain/types';
-import { authorRequestInput, decideAuthorRequestInput } from '../../src/lib/schemas/author-requests';
+import {
+	authorRequestInput,
+	decideAuthorRequestInput
+} from '../../src/lib/schemas/author-requests';
 import { fieldIssues } from '../../src/lib/schemas/issues';
 import { AuditEvent, AuthorRequest, User } from '../../src/lib/server/db';
 import { closeTransport } from '../../src/lib/server/mail';
@@ -52,22 +55,32 @@ describe('author requests on the real MariaDB', () => {
 		it('files one pending request and refuses a second while it waits', async () => {
 			const reader = await makeUser('hal@example.test', 'Hal Brook');
 			const first = await authorRequests.submit(reader.id, PITCH);
-			expect(first).toMatchObject({ kind: 'ok', request: { state: 'pending', pitch: PITCH, decisionNote: null } });
+			expect(first).toMatchObject({
+				kind: 'ok',
+				request: { state: 'pending', pitch: PITCH, decisionNote: null }
+			});
 
 			const second = await authorRequests.submit(reader.id, `${PITCH} Again.`);
 			expect(second).toMatchObject({ kind: 'conflict' });
 			expect(await AuthorRequest.count({ where: { userId: reader.id } })).toBe(1);
 
-			expect(await authorRequests.getMine(reader.id)).toMatchObject({ state: 'pending', pitch: PITCH });
+			expect(await authorRequests.getMine(reader.id)).toMatchObject({
+				state: 'pending',
+				pitch: PITCH
+			});
 		});
 
 		it('lets only one of several simultaneous submits through (user row lock)', async () => {
 			for (let round = 0; round < 5; round++) {
 				const reader = await makeUser(`ivy${round}@example.test`, 'Ivy Stone');
-				const outcomes = await Promise.all([1, 2, 3, 4].map(() => authorRequests.submit(reader.id, PITCH)));
+				const outcomes = await Promise.all(
+					[1, 2, 3, 4].map(() => authorRequests.submit(reader.id, PITCH))
+				);
 				expect(outcomes.filter((o) => o.kind === 'ok')).toHaveLength(1);
 				expect(outcomes.filter((o) => o.kind === 'conflict')).toHaveLength(3);
-				expect(await AuthorRequest.count({ where: { userId: reader.id, state: 'pending' } })).toBe(1);
+				expect(await AuthorRequest.count({ where: { userId: reader.id, state: 'pending' } })).toBe(
+					1
+				);
 			}
 		});
 
@@ -90,15 +103,32 @@ describe('author requests on the real MariaDB', () => {
 		const newer = await makeUser('lu@example.test', 'Lu Fern');
 		await authorRequests.submit(newer.id, PITCH);
 		await authorRequests.submit(older.id, PITCH);
-		await AuthorRequest.update({ createdAt: new Date('2026-11-20T08:00:00Z') }, { where: { userId: older.id } });
-		await AuthorRequest.update({ createdAt: new Date('2026-11-29T08:00:00Z') }, { where: { userId: newer.id } });
+		await AuthorRequest.update(
+			{ createdAt: new Date('2026-11-20T08:00:00Z') },
+			{ where: { userId: older.id } }
+		);
+		await AuthorRequest.update(
+			{ createdAt: new Date('2026-11-29T08:00:00Z') },
+			{ where: { userId: newer.id } }
+		);
 
-		const page = await authorRequests.listPending({ page: 1, now: new Date('2026-11-30T07:00:00Z') });
+		const page = await authorRequests.listPending({
+			page: 1,
+			now: new Date('2026-11-30T07:00:00Z')
+		});
 		expect(page.total).toBe(2);
-		expect(page.items.map((r) => r.requester.email)).toEqual(['kit@example.test', 'lu@example.test']);
+		expect(page.items.map((r) => r.requester.email)).toEqual([
+			'kit@example.test',
+			'lu@example.test'
+		]);
 		// 9 days 23 hours → 9 whole days; 23 hours → 0.
 		expect(page.items.map((r) => r.waitingDays)).toEqual([9, 0]);
-		expect(page.items[0]?.requester).toEqual({ id: older.id, name: 'Kit Vale', email: 'kit@example.test', role: 'reader' });
+		expect(page.items[0]?.requester).toEqual({
+			id: older.id,
+			name: 'Kit Vale',
+			email: 'kit@example.test',
+			role: 'reader'
+		});
 	});
 
 	describe('decide', () => {
@@ -117,7 +147,10 @@ describe('author requests on the real MariaDB', () => {
 				approve: true,
 				note: 'Welcome aboard.'
 			});
-			expect(outcome).toMatchObject({ kind: 'ok', request: { state: 'approved', decisionNote: 'Welcome aboard.' } });
+			expect(outcome).toMatchObject({
+				kind: 'ok',
+				request: { state: 'approved', decisionNote: 'Welcome aboard.' }
+			});
 			if (process.env.MAILBOX_URL && outcome.kind === 'ok') expect(outcome.mailed).toBe(true);
 
 			const after = await reload(reader.id);
@@ -136,7 +169,11 @@ describe('author requests on the real MariaDB', () => {
 			expect(events[0]?.before).toEqual({ role: 'reader' });
 			expect(events[0]?.after).toEqual({ role: 'author' });
 			expect(events[1]?.before).toEqual({ state: 'pending' });
-			expect(events[1]?.after).toEqual({ state: 'approved', decisionNote: 'Welcome aboard.', requesterRole: 'author' });
+			expect(events[1]?.after).toEqual({
+				state: 'approved',
+				decisionNote: 'Welcome aboard.',
+				requesterRole: 'author'
+			});
 
 			expect(await authorRequests.getMine(reader.id)).toMatchObject({ state: 'approved' });
 			expect((await authorRequests.listPending({ page: 1 })).total).toBe(0);
@@ -169,7 +206,9 @@ describe('author requests on the real MariaDB', () => {
 			expect(outcome).toMatchObject({ kind: 'ok', request: { state: 'declined' } });
 			expect((await reload(reader.id)).role).toBe('reader');
 			expect((await reload(reader.id)).sessionVersion).toBe(1);
-			expect((await AuditEvent.findAll()).map((e) => e.action)).toEqual(['author_request.declined']);
+			expect((await AuditEvent.findAll()).map((e) => e.action)).toEqual([
+				'author_request.declined'
+			]);
 			if (withMailbox) {
 				const message = await waitForMessage({ to: reader.email, subject: /author request/ });
 				expect(message.subject).toBe('About your Slotwise author request');
@@ -195,7 +234,9 @@ describe('author requests on the real MariaDB', () => {
 			expect((await reload(reader.id)).role).toBe('author');
 			expect(await AuditEvent.count({ where: { subjectType: 'author_request' } })).toBe(1);
 
-			expect(await authorRequests.decide(editor.id, 999_999, { approve: true, note: null })).toEqual({
+			expect(
+				await authorRequests.decide(editor.id, 999_999, { approve: true, note: null })
+			).toEqual({
 				kind: 'not_found'
 			});
 		});
@@ -210,7 +251,10 @@ describe('author requests on the real MariaDB', () => {
 
 				const outcomes = await Promise.all([
 					authorRequests.decide(first.id, submitted.request.id, { approve: true, note: null }),
-					authorRequests.decide(second.id, submitted.request.id, { approve: false, note: 'Not yet.' })
+					authorRequests.decide(second.id, submitted.request.id, {
+						approve: false,
+						note: 'Not yet.'
+					})
 				]);
 				const winners = outcomes.filter((o) => o.kind === 'ok');
 				const losers = outcomes.filter((o) => o.kind === 'conflict');
@@ -222,7 +266,9 @@ describe('author requests on the real MariaDB', () => {
 				expect(stored?.state).toBe(approved ? 'approved' : 'declined');
 				expect((await reload(reader.id)).role).toBe(approved ? 'author' : 'reader');
 				expect(
-					await AuditEvent.count({ where: { subjectType: 'author_request', subjectId: String(submitted.request.id) } })
+					await AuditEvent.count({
+						where: { subjectType: 'author_request', subjectId: String(submitted.request.id) }
+					})
 				).toBe(1);
 			}
 		});
@@ -239,8 +285,15 @@ describe('author requests on the real MariaDB', () => {
 			process.env.SMTP_PORT = String(await closedPort());
 			closeTransport();
 			try {
-				const outcome = await authorRequests.decide(editor.id, submitted.request.id, { approve: true, note: null });
-				expect(outcome).toMatchObject({ kind: 'ok', mailed: false, request: { state: 'approved' } });
+				const outcome = await authorRequests.decide(editor.id, submitted.request.id, {
+					approve: true,
+					note: null
+				});
+				expect(outcome).toMatchObject({
+					kind: 'ok',
+					mailed: false,
+					request: { state: 'approved' }
+				});
 			} finally {
 				if (savedPort === undefined) delete process.env.SMTP_PORT;
 				else process.env.SMTP_PORT = savedPort;
@@ -260,20 +313,30 @@ describe('author requests on the real MariaDB', () => {
 			expect(authorRequestInput.safeParse({ pitch: 'x'.repeat(1000) }).success).toBe(true);
 			expect(authorRequestInput.safeParse({ pitch: 'x'.repeat(1001) }).success).toBe(false);
 			// 500 CRLF pairs are 1000 characters in the browser's count, and here.
-			expect(authorRequestInput.safeParse({ pitch: `a${'\r\nb'.repeat(499)}b` }).success).toBe(true);
+			expect(authorRequestInput.safeParse({ pitch: `a${'\r\nb'.repeat(499)}b` }).success).toBe(
+				true
+			);
 			expect(authorRequestInput.safeParse({ pitch: PITCH, role: 'author' }).success).toBe(false);
 		});
 
 		it('requires a note to decline, not to approve', () => {
-			const decline = decideAuthorRequestInput.safeParse({ requestId: '4', decision: 'decline', note: ' ' });
+			const decline = decideAuthorRequestInput.safeParse({
+				requestId: '4',
+				decision: 'decline',
+				note: ' '
+			});
 			expect(decline.success).toBe(false);
 			if (!decline.success) expect(Object.keys(fieldIssues(decline.error))).toEqual(['note']);
-			expect(decideAuthorRequestInput.parse({ requestId: '4', decision: 'approve', note: '' })).toEqual({
+			expect(
+				decideAuthorRequestInput.parse({ requestId: '4', decision: 'approve', note: '' })
+			).toEqual({
 				requestId: 4,
 				approve: true,
 				note: null
 			});
-			expect(decideAuthorRequestInput.safeParse({ requestId: 'x', decision: 'approve' }).success).toBe(false);
+			expect(
+				decideAuthorRequestInput.safeParse({ requestId: 'x', decision: 'approve' }).success
+			).toBe(false);
 		});
 	});
 });

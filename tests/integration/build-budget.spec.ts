@@ -9,7 +9,7 @@ import { demoGuide, forkBuild, newReader, partId, slotRows } from '../support/bu
 import { resetDatabase } from '../support/db';
 
 /*
- * Within budget on the real MariaDB (DESIGN.md "Computations" §8, services/build-budget.ts):
+ * Within budget on the real MariaDB (docs/architecture.md "Computations" §8, services/build-budget.ts):
  * the solver itself is checked against brute force in tests/unit/domain/within-budget.spec.ts;
  * here the proposals on the demo guide are worked out by hand from its seeded US prices
  * (pre-tax, region "us", so no conversion or estimate is involved), the fit report is the
@@ -39,12 +39,34 @@ const usd = (minor: number) => money(minor, 'USD');
 async function cheapAtxBoard(): Promise<void> {
 	const id = await partId('vantor-s550-atx-wifi');
 	const seen = (await Quote.findOne({ where: { partId: id } }))!;
-	await Quote.create({ partId: id, storeId: seen.storeId, regionId: seen.regionId, amountMinor: 5000, currency: 'USD', taxIncluded: false, observedAt: new Date(), url: null, source: 'editor' });
+	await Quote.create({
+		partId: id,
+		storeId: seen.storeId,
+		regionId: seen.regionId,
+		amountMinor: 5000,
+		currency: 'USD',
+		taxIncluded: false,
+		observedAt: new Date(),
+		url: null,
+		source: 'editor'
+	});
 }
 
 async function buildParts(buildId: number): Promise<BuildPart[]> {
-	const slots = (await BuildSlot.findAll({ where: { buildId }, include: [{ model: Part, as: 'part' }] })) as (BuildSlot & { part: Part })[];
-	return slots.map((s) => ({ key: String(s.id), label: s.label, category: s.category, quantity: s.quantity, part: { brand: s.part.brand, model: s.part.model, specs: s.part.specs } }) as unknown as BuildPart);
+	const slots = (await BuildSlot.findAll({
+		where: { buildId },
+		include: [{ model: Part, as: 'part' }]
+	})) as (BuildSlot & { part: Part })[];
+	return slots.map(
+		(s) =>
+			({
+				key: String(s.id),
+				label: s.label,
+				category: s.category,
+				quantity: s.quantity,
+				part: { brand: s.part.brand, model: s.part.model, specs: s.part.specs }
+			}) as unknown as BuildPart
+	);
 }
 
 describe('propose within budget', () => {
@@ -52,11 +74,17 @@ describe('propose within budget', () => {
 		// Need to save 1891. Single swaps that save money: board −2500, memory −1800, card −1000,
 		// case −500; only the board reaches it: 69891 − 2500 = 67391.
 		const outcome = await proposeWithinBudget(owner.id, build.id, 68000);
-		expect(outcome).toMatchObject({ kind: 'proposal', budget: usd(68000), currentTotal: usd(69891), total: usd(67391), changes: 1 });
+		expect(outcome).toMatchObject({
+			kind: 'proposal',
+			budget: usd(68000),
+			currentTotal: usd(69891),
+			total: usd(67391),
+			changes: 1
+		});
 		if (outcome.kind !== 'proposal') throw new Error(outcome.kind);
-		expect(outcome.swaps.map((s) => [s.label, s.from.part.slug, s.to.part.slug, s.delta.amountMinor])).toEqual([
-			['Motherboard', 'arkwell-s550m-daily', 'arkwell-s450m-basic', -2500]
-		]);
+		expect(
+			outcome.swaps.map((s) => [s.label, s.from.part.slug, s.to.part.slug, s.delta.amountMinor])
+		).toEqual([['Motherboard', 'arkwell-s550m-daily', 'arkwell-s450m-basic', -2500]]);
 	});
 
 	it('at 660.00 two swaps, board and memory, the only pair that reaches it (worked by hand)', async () => {
@@ -64,7 +92,10 @@ describe('propose within budget', () => {
 		const outcome = await proposeWithinBudget(owner.id, build.id, 66000);
 		expect(outcome).toMatchObject({ kind: 'proposal', total: usd(65591), changes: 2 });
 		if (outcome.kind !== 'proposal') throw new Error(outcome.kind);
-		expect(outcome.swaps.map((s) => s.to.part.slug)).toEqual(['arkwell-s450m-basic', 'aldmere-pulse-ddr4-3200-16gb']);
+		expect(outcome.swaps.map((s) => s.to.part.slug)).toEqual([
+			'arkwell-s450m-basic',
+			'aldmere-pulse-ddr4-3200-16gb'
+		]);
 	});
 
 	it('never proposes a fit conflict: a cheaper full-ATX board is passed over until the case changes with it', async () => {
@@ -85,7 +116,10 @@ describe('propose within budget', () => {
 	});
 
 	it('keeps a bought part: with the board bought, 680.00 needs memory and card (worked by hand)', async () => {
-		await BuildSlot.update({ purchased: true, paidMinor: 9499, paidCurrency: 'USD', purchasedAt: '2026-11-30' }, { where: { buildId: build.id, label: 'Motherboard' } });
+		await BuildSlot.update(
+			{ purchased: true, paidMinor: 9499, paidCurrency: 'USD', purchasedAt: '2026-11-30' },
+			{ where: { buildId: build.id, label: 'Motherboard' } }
+		);
 		// Without the board: memory −1800 alone falls short; pairs memory + card −2800 → 67091,
 		// memory + case −2300 → 67591; the lower total wins.
 		const outcome = await proposeWithinBudget(owner.id, build.id, 68000);
@@ -97,7 +131,12 @@ describe('propose within budget', () => {
 	it('explains when nothing fits, with the cheapest conflict-free total', async () => {
 		// Every saving at once: 69891 − 2500 − 1800 − 1000 − 500 = 64091.
 		const outcome = await proposeWithinBudget(owner.id, build.id, 60000);
-		expect(outcome).toMatchObject({ kind: 'no_fit', code: 'over_budget', budget: usd(60000), cheapestTotal: usd(64091) });
+		expect(outcome).toMatchObject({
+			kind: 'no_fit',
+			code: 'over_budget',
+			budget: usd(60000),
+			cheapestTotal: usd(64091)
+		});
 		if (outcome.kind !== 'no_fit') throw new Error(outcome.kind);
 		expect(outcome.reason).toBe(
 			`The cheapest combination without a conflict costs ${formatMoney(usd(64091))}, ${formatMoney(usd(4091))} over the budget of ${formatMoney(usd(60000))}.`
@@ -114,29 +153,52 @@ describe('propose within budget', () => {
 describe('apply within budget', () => {
 	it('changes exactly the proposed slots in one versioned change, sets the budget, and leaves no fit conflict', async () => {
 		await cheapAtxBoard();
-		await BuildSlot.update({ priceOverrideMinor: 6499, priceOverrideCurrency: 'USD', priceOverrideStore: 'Corner Shop', priceOverrideDate: '2026-11-30' }, { where: { buildId: build.id, label: 'Case' } });
+		await BuildSlot.update(
+			{
+				priceOverrideMinor: 6499,
+				priceOverrideCurrency: 'USD',
+				priceOverrideStore: 'Corner Shop',
+				priceOverrideDate: '2026-11-30'
+			},
+			{ where: { buildId: build.id, label: 'Case' } }
+		);
 		const before = await slotRows(build.id);
 		const proposal = await proposeWithinBudget(owner.id, build.id, 65000);
 		if (proposal.kind !== 'proposal') throw new Error(proposal.kind);
 
 		const applied = await applyWithinBudget(owner.id, build.id, 65000, 1);
-		expect(applied).toMatchObject({ kind: 'ok', version: 2, budget: usd(65000), total: proposal.total, changes: proposal.changes });
+		expect(applied).toMatchObject({
+			kind: 'ok',
+			version: 2,
+			budget: usd(65000),
+			total: proposal.total,
+			changes: proposal.changes
+		});
 		const after = await slotRows(build.id);
 		const changed = after.filter((s, i) => JSON.stringify(s) !== JSON.stringify(before[i]));
 		expect(changed.map((s) => s.id).sort()).toEqual(proposal.swaps.map((s) => s.slotId).sort());
 		for (const swap of proposal.swaps) {
-			expect(after.find((s) => s.id === swap.slotId)).toMatchObject({ part: swap.to.part.slug, origin: 'alternate', priceOverrideMinor: null });
+			expect(after.find((s) => s.id === swap.slotId)).toMatchObject({
+				part: swap.to.part.slug,
+				origin: 'alternate',
+				priceOverrideMinor: null
+			});
 		}
 		const saved = (await Build.findByPk(build.id))!;
 		expect([Number(saved.budgetMinor), saved.version]).toEqual([65000, 2]);
-		expect(fitReport(await buildParts(build.id)).filter((f) => f.severity === 'conflict')).toEqual([]);
+		expect(fitReport(await buildParts(build.id)).filter((f) => f.severity === 'conflict')).toEqual(
+			[]
+		);
 	});
 
 	it('writes nothing on a stale version or when nothing fits', async () => {
 		const before = await slotRows(build.id);
 		const stale = await applyWithinBudget(owner.id, build.id, 68000, 7);
 		// The answer carries the build as it is now (services/builds.ts getBuild).
-		expect(stale).toMatchObject({ kind: 'conflict', current: { id: build.id, version: 1, budget: null } });
+		expect(stale).toMatchObject({
+			kind: 'conflict',
+			current: { id: build.id, version: 1, budget: null }
+		});
 		expect((await applyWithinBudget(owner.id, build.id, 60000, 1)).kind).toBe('no_fit');
 		expect(await slotRows(build.id)).toEqual(before);
 		const saved = (await Build.findByPk(build.id))!;

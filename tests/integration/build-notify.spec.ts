@@ -48,7 +48,11 @@ async function submitRevision2(): Promise<number> {
 			pickPartId: s.pickPartId,
 			reason: s.reason,
 			priceQuote: s.priceQuote,
-			alternates: s.alternates.map((a) => ({ partId: a.partId, reasonTag: a.reasonTag, note: a.note }))
+			alternates: s.alternates.map((a) => ({
+				partId: a.partId,
+				reasonTag: a.reasonTag,
+				note: a.note
+			}))
 		}))
 	});
 	const saved = await drafts.saveDraft(author.id, DEMO_SLUG, input, view.version);
@@ -56,7 +60,10 @@ async function submitRevision2(): Promise<number> {
 	const sent = await drafts.submit(author.id, DEMO_SLUG, saved.draft.version, LINKS);
 	if (sent.kind !== 'submitted') throw new Error(sent.kind);
 	const guide = (await Guide.findOne({ where: { slug: DEMO_SLUG } }))!;
-	return (await GuideRevision.findOne({ where: { guideId: guide.id, reviewedAt: null }, order: [['number', 'DESC']] }))!.id;
+	return (await GuideRevision.findOne({
+		where: { guideId: guide.id, reviewedAt: null },
+		order: [['number', 'DESC']]
+	}))!.id;
 }
 
 describe('new-revision e-mail to build owners', () => {
@@ -68,13 +75,22 @@ describe('new-revision e-mail to build owners', () => {
 		const second = await forkBuild(keen, guide, { title: 'Spare-parts box' });
 		const optedOut = await forkBuild(quiet, guide, { notify: false });
 		const revisionId = await submitRevision2();
-		const versions = (await Build.findAll({ where: { id: [first.id, second.id] }, order: [['id', 'ASC']] })).map((b) => b.version);
+		const versions = (
+			await Build.findAll({ where: { id: [first.id, second.id] }, order: [['id', 'ASC']] })
+		).map((b) => b.version);
 
-		const decided = await reviews.decide(editor, revisionId, decisionInput.parse({ decision: 'approve' }), LINKS);
+		const decided = await reviews.decide(
+			editor,
+			revisionId,
+			decisionInput.parse({ decision: 'approve' }),
+			LINKS
+		);
 		expect(decided).toMatchObject({ kind: 'ok', guideState: 'published' });
 
 		const message = await waitForMessage({ to: keen.email, subject: SUBJECT });
-		expect(message.text).toContain('Revision 2 of "The steady 1080p starter for about $700" is now published.');
+		expect(message.text).toContain(
+			'Revision 2 of "The steady 1080p starter for about $700" is now published.'
+		);
 		expect(message.text).toContain(`${ORIGIN}/builds/${first.id}`);
 		expect(message.text).toContain(`${ORIGIN}/builds/${second.id}`);
 		expect(message.text).toContain('To stop these e-mails for a build');
@@ -83,13 +99,20 @@ describe('new-revision e-mail to build owners', () => {
 		expect(all.filter((m) => m.to.includes(keen.email))).toHaveLength(1);
 		expect(all.filter((m) => m.to.includes(quiet.email))).toHaveLength(0);
 
-		const after = await Build.findAll({ where: { id: [first.id, second.id, optedOut.id] }, order: [['id', 'ASC']] });
+		const after = await Build.findAll({
+			where: { id: [first.id, second.id, optedOut.id] },
+			order: [['id', 'ASC']]
+		});
 		expect(after.map((b) => b.lastNotifiedRevisionId)).toEqual([revisionId, revisionId, null]);
 		// Marking a build notified is not an edit: the owner's open tab stays current.
 		expect(after.slice(0, 2).map((b) => b.version)).toEqual(versions);
 
 		// Asking again for the same revision sends nothing more.
-		expect(await notifyForks(guide.id, revisionId, ORIGIN)).toEqual({ mailed: 0, failed: 0, builds: 0 });
+		expect(await notifyForks(guide.id, revisionId, ORIGIN)).toEqual({
+			mailed: 0,
+			failed: 0,
+			builds: 0
+		});
 		expect((await listMessages()).filter((m) => m.to.includes(keen.email))).toHaveLength(1);
 	});
 
@@ -100,9 +123,18 @@ describe('new-revision e-mail to build owners', () => {
 		// An address the app-wide e-mail schema refuses (mail.send throws before any connection).
 		await User.update({ email: 'not an address' }, { where: { id: owner.id } });
 		const revisionId = await submitRevision2();
-		const decided = await reviews.decide(editor, revisionId, decisionInput.parse({ decision: 'approve' }), LINKS);
+		const decided = await reviews.decide(
+			editor,
+			revisionId,
+			decisionInput.parse({ decision: 'approve' }),
+			LINKS
+		);
 		expect(decided.kind).toBe('ok');
-		expect(await notifyForks(guide.id, revisionId, ORIGIN)).toEqual({ mailed: 0, failed: 1, builds: 0 });
+		expect(await notifyForks(guide.id, revisionId, ORIGIN)).toEqual({
+			mailed: 0,
+			failed: 1,
+			builds: 0
+		});
 		expect((await Build.findByPk(build.id))?.lastNotifiedRevisionId).toBeNull();
 	});
 });

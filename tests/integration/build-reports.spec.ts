@@ -10,7 +10,7 @@ import { countRows, resetDatabase } from '../support/db';
  * Content reports on builds on the real MariaDB with the demo community: who may report a
  * build (what they can see, not their own), the editors' queue entry and link, hiding with
  * its audit event (gone for others and from the guide's lineage, shown to the owner with
- * the reason and to editors), and restoring. Product rules from the task (DESIGN.md
+ * the reason and to editors), and restoring. Product rules from the task (docs/architecture.md
  * "Build" visibility, content reports); no computation here needs a published source.
  */
 const GUIDE = 'steady-1080p-starter'; // a published demo guide by author@slotwise.test
@@ -44,7 +44,10 @@ const subject = (b: { id: number }) => ({ type: 'build' as const, id: String(b.i
 const as = (u: User) => ({ id: u.id, role: u.role });
 
 async function auditActions(b: { id: number }): Promise<string[]> {
-	const rows = await AuditEvent.findAll({ where: { subjectType: 'build', subjectId: String(b.id) }, order: [['id', 'ASC']] });
+	const rows = await AuditEvent.findAll({
+		where: { subjectType: 'build', subjectId: String(b.id) },
+		order: [['id', 'ASC']]
+	});
 	return rows.map((r) => r.action);
 }
 
@@ -71,14 +74,27 @@ describe('content reports on builds, real MariaDB', () => {
 		const build = await buildWith('public');
 		const first = await contentReports.report(author.id, 'build', String(build.id), input);
 		expect(first).toMatchObject({ kind: 'ok', created: true });
-		const again = await contentReports.report(author.id, 'build', String(build.id), { category: 'spam', detail: 'Second try at it.' });
+		const again = await contentReports.report(author.id, 'build', String(build.id), {
+			category: 'spam',
+			detail: 'Second try at it.'
+		});
 		expect(again).toMatchObject({ kind: 'ok', created: false });
-		await contentReports.report(editor.id, 'build', String(build.id), { category: 'misleading', detail: 'Wrong parts in the title.' });
+		await contentReports.report(editor.id, 'build', String(build.id), {
+			category: 'misleading',
+			detail: 'Wrong parts in the title.'
+		});
 
 		const queue = await contentReports.listQueue({ state: 'open', page: 1 });
-		const group = queue.items.find((g) => g.subject.type === 'build' && g.subject.id === String(build.id));
+		const group = queue.items.find(
+			(g) => g.subject.type === 'build' && g.subject.id === String(build.id)
+		);
 		expect(group?.reportCount).toBe(2);
-		expect(group?.subject).toMatchObject({ title: build.title, url: `/builds/${build.id}`, ownerName: reader.name, hidden: null });
+		expect(group?.subject).toMatchObject({
+			title: build.title,
+			url: `/builds/${build.id}`,
+			ownerName: reader.name,
+			hidden: null
+		});
 	});
 
 	it('refuses the owner, and does not reveal a build the reporter cannot see', async () => {
@@ -89,11 +105,19 @@ describe('content reports on builds, real MariaDB', () => {
 		});
 		const secret = await buildWith('private');
 		// Someone else's private build answers exactly like a build that does not exist.
-		expect(await contentReports.report(author.id, 'build', String(secret.id), input)).toEqual({ kind: 'not_found' });
-		expect(await contentReports.report(author.id, 'build', '999999', input)).toEqual({ kind: 'not_found' });
-		expect(await contentReports.report(author.id, 'build', 'x1', input)).toEqual({ kind: 'not_found' });
+		expect(await contentReports.report(author.id, 'build', String(secret.id), input)).toEqual({
+			kind: 'not_found'
+		});
+		expect(await contentReports.report(author.id, 'build', '999999', input)).toEqual({
+			kind: 'not_found'
+		});
+		expect(await contentReports.report(author.id, 'build', 'x1', input)).toEqual({
+			kind: 'not_found'
+		});
 		// The owner of a private build is still told it is their own.
-		expect(await contentReports.report(reader.id, 'build', String(secret.id), input)).toMatchObject({ kind: 'conflict' });
+		expect(await contentReports.report(reader.id, 'build', String(secret.id), input)).toMatchObject(
+			{ kind: 'conflict' }
+		);
 		expect(await countRows('content_reports')).toBe(0);
 	});
 
@@ -101,11 +125,23 @@ describe('content reports on builds, real MariaDB', () => {
 		const build = await buildWith('unlisted');
 		const token = build.shareToken as string;
 		expect(token).toHaveLength(43);
-		expect(await contentReports.report(author.id, 'build', String(build.id), input)).toEqual({ kind: 'not_found' });
-		expect(await contentReports.report(author.id, 'build', String(build.id), input, { shareToken: 'a'.repeat(43) })).toEqual({ kind: 'not_found' });
-		expect(await contentReports.report(author.id, 'build', String(build.id), input, { shareToken: token })).toMatchObject({ kind: 'ok', created: true });
+		expect(await contentReports.report(author.id, 'build', String(build.id), input)).toEqual({
+			kind: 'not_found'
+		});
+		expect(
+			await contentReports.report(author.id, 'build', String(build.id), input, {
+				shareToken: 'a'.repeat(43)
+			})
+		).toEqual({ kind: 'not_found' });
+		expect(
+			await contentReports.report(author.id, 'build', String(build.id), input, {
+				shareToken: token
+			})
+		).toMatchObject({ kind: 'ok', created: true });
 		const queue = await contentReports.listQueue({ state: 'open', page: 1 });
-		const group = queue.items.find((g) => g.subject.type === 'build' && g.subject.id === String(build.id));
+		const group = queue.items.find(
+			(g) => g.subject.type === 'build' && g.subject.id === String(build.id)
+		);
 		expect(group?.subject.url).toBe(`/builds/${build.id}?key=${encodeURIComponent(token)}`);
 	});
 
@@ -115,7 +151,10 @@ describe('content reports on builds, real MariaDB', () => {
 		await contentReports.report(author.id, 'build', String(build.id), input);
 		expect(await lineageIds()).toContain(build.id);
 
-		expect(await contentReports.hide(editor.id, subject(build), REASON)).toEqual({ kind: 'ok', closedReports: 1 });
+		expect(await contentReports.hide(editor.id, subject(build), REASON)).toEqual({
+			kind: 'ok',
+			closedReports: 1
+		});
 
 		expect(await builds.getBuild(null, build.id)).toBeNull();
 		expect(await builds.getBuild(as(author), build.id)).toBeNull();
@@ -137,13 +176,24 @@ describe('content reports on builds, real MariaDB', () => {
 		expect(after?.hiddenById).toBe(editor.id);
 
 		// Not reportable while hidden, and not hidden twice.
-		expect(await contentReports.report(admin.id, 'build', String(build.id), input)).toEqual({ kind: 'not_found' });
-		expect(await contentReports.hide(admin.id, subject(build), REASON)).toMatchObject({ kind: 'conflict', message: expect.stringContaining('already hidden') });
-		const report = await ContentReport.findOne({ where: { subjectType: 'build', subjectId: String(build.id) } });
+		expect(await contentReports.report(admin.id, 'build', String(build.id), input)).toEqual({
+			kind: 'not_found'
+		});
+		expect(await contentReports.hide(admin.id, subject(build), REASON)).toMatchObject({
+			kind: 'conflict',
+			message: expect.stringContaining('already hidden')
+		});
+		const report = await ContentReport.findOne({
+			where: { subjectType: 'build', subjectId: String(build.id) }
+		});
 		expect(report).toMatchObject({ state: 'actioned', openMarker: null, decidedById: editor.id });
 
 		const event = await AuditEvent.findOne({ where: { action: 'build.hidden' } });
-		expect(event).toMatchObject({ actorId: editor.id, subjectType: 'build', subjectId: String(build.id) });
+		expect(event).toMatchObject({
+			actorId: editor.id,
+			subjectType: 'build',
+			subjectId: String(build.id)
+		});
 		expect(event?.after).toMatchObject({ hidden: true, hiddenReason: REASON, reportsClosed: 1 });
 		expect(await auditActions(build)).toEqual(['build.hidden']);
 	});
@@ -166,19 +216,32 @@ describe('content reports on builds, real MariaDB', () => {
 		expect((await builds.getBuild(null, build.id))?.hidden).toBeNull();
 		expect(await lineageIds()).toContain(build.id);
 		expect((await builds.getBuild({ id: reader.id }, build.id))?.hidden).toBeNull();
-		expect(await contentReports.restore(editor.id, subject(build))).toMatchObject({ kind: 'conflict' });
+		expect(await contentReports.restore(editor.id, subject(build))).toMatchObject({
+			kind: 'conflict'
+		});
 
 		const restored = await AuditEvent.findOne({ where: { action: 'build.restored' } });
-		expect(restored).toMatchObject({ actorId: admin.id, before: { hidden: true, hiddenReason: REASON }, after: { hidden: false } });
+		expect(restored).toMatchObject({
+			actorId: admin.id,
+			before: { hidden: true, hiddenReason: REASON },
+			after: { hidden: false }
+		});
 		expect(await auditActions(build)).toEqual(['build.hidden', 'build.restored']);
-		expect(await contentReports.hide(editor.id, { type: 'build', id: '999999' }, REASON)).toEqual({ kind: 'not_found' });
+		expect(await contentReports.hide(editor.id, { type: 'build', id: '999999' }, REASON)).toEqual({
+			kind: 'not_found'
+		});
 	});
 
 	it('lets editors open a reported build made private meanwhile, until the reports are decided', async () => {
 		const build = await buildWith('public');
 		await contentReports.report(author.id, 'build', String(build.id), input);
 		const fresh = await builds.getBuild({ id: reader.id }, build.id);
-		const saved = await builds.updateBuild(reader.id, build.id, { visibility: 'private' }, fresh?.version ?? 0);
+		const saved = await builds.updateBuild(
+			reader.id,
+			build.id,
+			{ visibility: 'private' },
+			fresh?.version ?? 0
+		);
 		expect(saved.kind).toBe('ok');
 
 		expect(await builds.getBuild(as(author), build.id)).toBeNull();
@@ -188,7 +251,10 @@ describe('content reports on builds, real MariaDB', () => {
 		expect(seen?.isOwner).toBe(false);
 		expect(seen?.notes).toBe('');
 
-		expect(await contentReports.dismiss(editor.id, subject(build))).toMatchObject({ kind: 'ok', dismissed: 1 });
+		expect(await contentReports.dismiss(editor.id, subject(build))).toMatchObject({
+			kind: 'ok',
+			dismissed: 1
+		});
 		expect(await builds.getBuild(as(editor), build.id)).toBeNull();
 		expect(await auditActions(build)).toEqual(['content_report.dismissed']);
 	});

@@ -2,7 +2,18 @@ import { parse } from 'csv-parse/sync';
 import { QueryTypes } from 'sequelize';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { updateSlotInput } from '../../src/lib/schemas/build';
-import { Build, BuildSlot, Guide, GuideSlot, Part, Quote, Region, Store, User, sequelize } from '../../src/lib/server/db';
+import {
+	Build,
+	BuildSlot,
+	Guide,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	Store,
+	User,
+	sequelize
+} from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import * as builds from '../../src/lib/server/services/builds';
@@ -36,7 +47,8 @@ async function forked(owner: User = reader): Promise<BuildView> {
 }
 
 function ok(outcome: builds.MutationOutcome): BuildView {
-	if (outcome.kind !== 'ok') throw new Error(`expected ok, got ${JSON.stringify(outcome).slice(0, 300)}`);
+	if (outcome.kind !== 'ok')
+		throw new Error(`expected ok, got ${JSON.stringify(outcome).slice(0, 300)}`);
 	return outcome.build;
 }
 
@@ -68,16 +80,29 @@ describe('builds on the real MariaDB', () => {
 		// 32 random bytes in base64url are 43 characters.
 		expect(build.shareToken).toMatch(/^[A-Za-z0-9_-]{43}$/);
 
-		const source = await GuideSlot.findAll({ where: { revisionId: guide.publishedRevisionId as number }, order: [['position', 'ASC']] });
-		const copied = await BuildSlot.findAll({ where: { buildId: build.id }, order: [['position', 'ASC']] });
-		expect(copied.map((s) => [s.sourceSlotKey, s.label, s.category, s.partId, s.quantity, s.origin])).toEqual(
+		const source = await GuideSlot.findAll({
+			where: { revisionId: guide.publishedRevisionId as number },
+			order: [['position', 'ASC']]
+		});
+		const copied = await BuildSlot.findAll({
+			where: { buildId: build.id },
+			order: [['position', 'ASC']]
+		});
+		expect(
+			copied.map((s) => [s.sourceSlotKey, s.label, s.category, s.partId, s.quantity, s.origin])
+		).toEqual(
 			source.map((s) => [s.label, s.label, s.category, s.pickPartId, s.quantity, 'source'])
 		);
 
 		const view = await builds.getBuild({ id: reader.id }, build.id);
 		if (!view) throw new Error('owner cannot see the fork');
 		expect(view.isOwner).toBe(true);
-		expect(view.source).toMatchObject({ slug: GUIDE, baseRevisionNumber: 1, latestRevisionNumber: 1, newerRevisionAvailable: false });
+		expect(view.source).toMatchObject({
+			slug: GUIDE,
+			baseRevisionNumber: 1,
+			latestRevisionNumber: 1,
+			newerRevisionAvailable: false
+		});
 		expect(view.drift.every((d) => d.kind === 'same')).toBe(true);
 		expect(view.value.sourceResultsDiffer).toBe(false);
 		// The fresh fork costs what the guide page shows in its base region: the author's quotes.
@@ -104,7 +129,14 @@ describe('builds on the real MariaDB', () => {
 		expect(await builds.getBuild({ id: other.id }, view.id, { shareToken: token })).toBeNull();
 		const before = await builds.lineage(GUIDE);
 
-		const unlisted = ok(await builds.updateBuild(reader.id, view.id, { visibility: 'unlisted', notes: 'Ask Sam about the case.' }, view.version));
+		const unlisted = ok(
+			await builds.updateBuild(
+				reader.id,
+				view.id,
+				{ visibility: 'unlisted', notes: 'Ask Sam about the case.' },
+				view.version
+			)
+		);
 		expect(await builds.getBuild({ id: other.id }, view.id)).toBeNull();
 		expect(await builds.getBuild(null, view.id, { shareToken: 'x'.repeat(43) })).toBeNull();
 		const shared = await builds.getBuild(null, view.id, { shareToken: token });
@@ -120,7 +152,10 @@ describe('builds on the real MariaDB', () => {
 		expect((await builds.getBuild(null, view.id))?.isOwner).toBe(false);
 		const after = await builds.lineage(GUIDE);
 		expect(after.forkCount).toBe(before.forkCount);
-		expect(after.publicBuilds.find((b) => b.id === view.id)).toMatchObject({ title: view.title, ownerName: reader.name ?? 'Former member' });
+		expect(after.publicBuilds.find((b) => b.id === view.id)).toMatchObject({
+			title: view.title,
+			ownerName: reader.name ?? 'Former member'
+		});
 		// Private forks count in the total but are never listed.
 		await forked();
 		const later = await builds.lineage(GUIDE);
@@ -131,13 +166,34 @@ describe('builds on the real MariaDB', () => {
 	it('nobody but the owner changes a build', async () => {
 		const view = await forked();
 		const gpu = slotOf(view, 'gpu');
-		expect(await builds.updateBuild(other.id, view.id, { title: 'Mine now' }, view.version)).toEqual({ kind: 'not_found' });
-		expect(await builds.updateSlot(other.id, view.id, gpu.id, { quantity: 2 }, view.version)).toEqual({ kind: 'not_found' });
-		expect(await builds.removeSlot(other.id, view.id, gpu.id, view.version)).toEqual({ kind: 'not_found' });
-		expect(await builds.addSlot(other.id, view.id, { category: 'extra', label: 'Cable', partId: gpu.part.id, quantity: 1 }, view.version)).toEqual({ kind: 'not_found' });
+		expect(
+			await builds.updateBuild(other.id, view.id, { title: 'Mine now' }, view.version)
+		).toEqual({ kind: 'not_found' });
+		expect(
+			await builds.updateSlot(other.id, view.id, gpu.id, { quantity: 2 }, view.version)
+		).toEqual({ kind: 'not_found' });
+		expect(await builds.removeSlot(other.id, view.id, gpu.id, view.version)).toEqual({
+			kind: 'not_found'
+		});
+		expect(
+			await builds.addSlot(
+				other.id,
+				view.id,
+				{ category: 'extra', label: 'Cable', partId: gpu.part.id, quantity: 1 },
+				view.version
+			)
+		).toEqual({ kind: 'not_found' });
 		// A slot of another build is not found through this one.
 		const mine = await forked(other);
-		expect(await builds.updateSlot(reader.id, view.id, slotOf(mine, 'gpu').id, { quantity: 2 }, view.version)).toEqual({ kind: 'not_found' });
+		expect(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				slotOf(mine, 'gpu').id,
+				{ quantity: 2 },
+				view.version
+			)
+		).toEqual({ kind: 'not_found' });
 		expect((await Build.findByPk(view.id))?.version).toBe(view.version);
 	});
 
@@ -146,7 +202,15 @@ describe('builds on the real MariaDB', () => {
 		const gpu = slotOf(view, 'gpu');
 		const alternate = gpu.options.find((o) => o.kind === 'alternate');
 		if (!alternate) throw new Error('the demo GPU slot has alternates');
-		const swapped = ok(await builds.updateSlot(reader.id, view.id, gpu.id, { partId: alternate.part.id }, view.version));
+		const swapped = ok(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				gpu.id,
+				{ partId: alternate.part.id },
+				view.version
+			)
+		);
 		const now = slotOf(swapped, 'gpu');
 		expect(now.origin).toBe('alternate');
 		expect(now.part.id).toBe(alternate.part.id);
@@ -154,37 +218,77 @@ describe('builds on the real MariaDB', () => {
 		// The author's pick is now offered back, and the alternate is not offered twice.
 		expect(now.options.find((o) => o.kind === 'source_pick')?.part.id).toBe(gpu.part.id);
 		expect(now.options.some((o) => o.part.id === alternate.part.id)).toBe(false);
-		expect(swapped.drift.find((d) => d.label === gpu.label)).toMatchObject({ kind: 'swapped', from: `${gpu.part.brand} ${gpu.part.model}`, to: `${alternate.part.brand} ${alternate.part.model}` });
+		expect(swapped.drift.find((d) => d.label === gpu.label)).toMatchObject({
+			kind: 'swapped',
+			from: `${gpu.part.brand} ${gpu.part.model}`,
+			to: `${alternate.part.brand} ${alternate.part.model}`
+		});
 		expect(swapped.value.sourceResultsDiffer).toBe(true);
 
-		const back = ok(await builds.updateSlot(reader.id, view.id, gpu.id, { partId: gpu.part.id }, swapped.version));
+		const back = ok(
+			await builds.updateSlot(reader.id, view.id, gpu.id, { partId: gpu.part.id }, swapped.version)
+		);
 		expect(slotOf(back, 'gpu').origin).toBe('source');
 		expect(back.value.sourceResultsDiffer).toBe(false);
 
 		// A catalog graphics card that is neither the pick nor an alternate of this slot.
 		const offered = new Set([gpu.part.id, ...gpu.options.map((o) => o.part.id)]);
-		const gpus = await sequelize.query<{ id: number }>("SELECT id FROM parts WHERE category = 'gpu' ORDER BY id", { type: QueryTypes.SELECT });
+		const gpus = await sequelize.query<{ id: number }>(
+			"SELECT id FROM parts WHERE category = 'gpu' ORDER BY id",
+			{ type: QueryTypes.SELECT }
+		);
 		const custom = gpus.find((g) => !offered.has(g.id));
 		if (!custom) throw new Error('the demo catalog has a graphics card no slot offers');
-		const customView = ok(await builds.updateSlot(reader.id, view.id, gpu.id, { partId: custom.id }, back.version));
+		const customView = ok(
+			await builds.updateSlot(reader.id, view.id, gpu.id, { partId: custom.id }, back.version)
+		);
 		expect(slotOf(customView, 'gpu').origin).toBe('custom');
 
 		// Wrong category and unknown parts are refused by field; nothing is written.
 		const cpu = slotOf(customView, 'cpu');
-		expect(await builds.updateSlot(reader.id, view.id, gpu.id, { partId: cpu.part.id }, customView.version)).toMatchObject({ kind: 'invalid', issues: { partId: [expect.stringContaining('category')] } });
-		expect(await builds.updateSlot(reader.id, view.id, gpu.id, { partId: 99_999_999 }, customView.version)).toMatchObject({ kind: 'invalid', issues: { partId: expect.any(Array) } });
+		expect(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				gpu.id,
+				{ partId: cpu.part.id },
+				customView.version
+			)
+		).toMatchObject({ kind: 'invalid', issues: { partId: [expect.stringContaining('category')] } });
+		expect(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				gpu.id,
+				{ partId: 99_999_999 },
+				customView.version
+			)
+		).toMatchObject({ kind: 'invalid', issues: { partId: expect.any(Array) } });
 		expect((await Build.findByPk(view.id))?.version).toBe(customView.version);
 	});
 
 	it('a stale version is a conflict with the build as it is now, and writes nothing', async () => {
 		const view = await forked();
-		const first = ok(await builds.updateBuild(reader.id, view.id, { title: 'First tab' }, view.version));
-		const stale = await builds.updateBuild(reader.id, view.id, { title: 'Second tab' }, view.version);
+		const first = ok(
+			await builds.updateBuild(reader.id, view.id, { title: 'First tab' }, view.version)
+		);
+		const stale = await builds.updateBuild(
+			reader.id,
+			view.id,
+			{ title: 'Second tab' },
+			view.version
+		);
 		if (stale.kind !== 'conflict') throw new Error(stale.kind);
 		expect(stale.current.title).toBe('First tab');
 		expect(stale.current.version).toBe(first.version);
 		const slot = slotOf(view, 'memory');
-		const staleSlot = await builds.updateSlot(reader.id, view.id, slot.id, { quantity: 2 }, view.version);
+		const staleSlot = await builds.updateSlot(
+			reader.id,
+			view.id,
+			slot.id,
+			{ quantity: 2 },
+			view.version
+		);
 		expect(staleSlot.kind).toBe('conflict');
 		expect((await BuildSlot.findByPk(slot.id))?.quantity).toBe(slot.quantity);
 		expect((await Build.findByPk(view.id))?.title).toBe('First tab');
@@ -193,15 +297,29 @@ describe('builds on the real MariaDB', () => {
 	it('adds and removes a slot of the reader’s own', async () => {
 		const view = await forked();
 		const psu = slotOf(view, 'psu');
-		const added = await builds.addSlot(reader.id, view.id, { category: 'psu', label: 'Spare PSU', partId: psu.part.id, quantity: 1 }, view.version);
+		const added = await builds.addSlot(
+			reader.id,
+			view.id,
+			{ category: 'psu', label: 'Spare PSU', partId: psu.part.id, quantity: 1 },
+			view.version
+		);
 		const withSlot = ok(added);
 		const extra = withSlot.slots.at(-1);
 		expect(extra).toMatchObject({ label: 'Spare PSU', origin: 'custom', sourceSlotKey: null });
 		expect(withSlot.drift.some((d) => d.kind === 'added' && d.label === 'Spare PSU')).toBe(true);
-		expect(withSlot.totals.planned.amountMinor).toBe(view.totals.planned.amountMinor + (psu.lineTotal?.amountMinor ?? NaN));
+		expect(withSlot.totals.planned.amountMinor).toBe(
+			view.totals.planned.amountMinor + (psu.lineTotal?.amountMinor ?? NaN)
+		);
 		const removed = ok(await builds.removeSlot(reader.id, view.id, extra!.id, withSlot.version));
 		expect(removed.slots).toHaveLength(view.slots.length);
-		expect(await builds.addSlot(reader.id, view.id, { category: 'gpu', label: 'Second card', partId: psu.part.id, quantity: 1 }, removed.version)).toMatchObject({ kind: 'invalid', issues: { partId: expect.any(Array) } });
+		expect(
+			await builds.addSlot(
+				reader.id,
+				view.id,
+				{ category: 'gpu', label: 'Second card', partId: psu.part.id, quantity: 1 },
+				removed.version
+			)
+		).toMatchObject({ kind: 'invalid', issues: { partId: expect.any(Array) } });
 	});
 
 	it('re-prices in another region: a quoted line is the German quote, an estimated one matches the hand arithmetic (D)', async () => {
@@ -210,17 +328,43 @@ describe('builds on the real MariaDB', () => {
 		const us = (await Region.findOne({ where: { code: 'us' } })) as Region;
 		const de = (await Region.findOne({ where: { code: 'de' } })) as Region;
 		const store = (await Store.findOne({ where: { regionId: us.id } })) as Store;
-		const kit = await Part.create({ category: 'extra', brand: 'Testbench', model: 'Cable kit', slug: 'testbench-cable-kit', specs: { kind: 'cable kit' } });
-		await Quote.create({ partId: kit.id, storeId: store.id, regionId: us.id, amountMinor: 1999, currency: 'USD', taxIncluded: false, observedAt: new Date('2026-11-20T00:00:00Z'), url: null, source: 'editor' });
-		const added = ok(await builds.addSlot(reader.id, view.id, { category: 'extra', label: 'Cables', partId: kit.id, quantity: 2 }, view.version));
-		const moved = ok(await builds.updateBuild(reader.id, view.id, { regionCode: 'de' }, added.version));
+		const kit = await Part.create({
+			category: 'extra',
+			brand: 'Testbench',
+			model: 'Cable kit',
+			slug: 'testbench-cable-kit',
+			specs: { kind: 'cable kit' }
+		});
+		await Quote.create({
+			partId: kit.id,
+			storeId: store.id,
+			regionId: us.id,
+			amountMinor: 1999,
+			currency: 'USD',
+			taxIncluded: false,
+			observedAt: new Date('2026-11-20T00:00:00Z'),
+			url: null,
+			source: 'editor'
+		});
+		const added = ok(
+			await builds.addSlot(
+				reader.id,
+				view.id,
+				{ category: 'extra', label: 'Cables', partId: kit.id, quantity: 2 },
+				view.version
+			)
+		);
+		const moved = ok(
+			await builds.updateBuild(reader.id, view.id, { regionCode: 'de' }, added.version)
+		);
 		expect(moved.region.code).toBe('de');
 		expect(moved.totals.planned.currency).toBe('EUR');
 		const estimated = moved.slots.find((s) => s.part.id === kit.id);
-		if (estimated?.price?.status !== 'estimated') throw new Error('expected the kit to be estimated in Germany');
+		if (estimated?.price?.status !== 'estimated')
+			throw new Error('expected the kit to be estimated in Germany');
 		const factorBp = de.categoryFactorsBp?.extra ?? 10000;
-		// ECB 2 Jan 2024 (CHECK-VALUES 10c, V): 1 EUR = 1.0956 USD. US prices are pre-tax; DE
-		// VAT 19 % (CHECK-VALUES 11a, V2). EUR cents = 1999 / 1.0956 × factor × 1.19, rounded
+		// ECB 2 Jan 2024 (docs/sources.md 10c, V): 1 EUR = 1.0956 USD. US prices are pre-tax; DE
+		// VAT 19 % (docs/sources.md 11a, V2). EUR cents = 1999 / 1.0956 × factor × 1.19, rounded
 		// half-even once (D).
 		const exact = (1999 / 1.0956) * (factorBp / 10000) * 1.19;
 		expect(Math.abs(estimated.price.unit.amountMinor - exact)).toBeLessThanOrEqual(0.5 + 1e-6);
@@ -231,27 +375,43 @@ describe('builds on the real MariaDB', () => {
 		const quoted = moved.slots.filter((s) => s.price?.status === 'quoted');
 		expect(quoted.length).toBe(view.slots.length);
 		for (const line of quoted) {
-			const latest = await Quote.findOne({ where: { partId: line.part.id, regionId: de.id, status: 'active' }, order: [['observedAt', 'DESC'], ['id', 'DESC']] });
+			const latest = await Quote.findOne({
+				where: { partId: line.part.id, regionId: de.id, status: 'active' },
+				order: [
+					['observedAt', 'DESC'],
+					['id', 'DESC']
+				]
+			});
 			expect(line.price?.unit.amountMinor).toBe(Number(latest?.amountMinor));
 		}
 		// Planned is the exact sum of the priced lines.
-		expect(moved.totals.planned.amountMinor).toBe(moved.slots.reduce((t, s) => t + (s.lineTotal?.amountMinor ?? 0), 0));
+		expect(moved.totals.planned.amountMinor).toBe(
+			moved.slots.reduce((t, s) => t + (s.lineTotal?.amountMinor ?? 0), 0)
+		);
 		// A region asked for in the query prices the view without changing the build.
 		const peek = await builds.getBuild({ id: reader.id }, view.id, { regionCode: 'us' });
 		expect(peek?.region.code).toBe('us');
 		expect(peek?.totals.planned.amountMinor).toBe(added.totals.planned.amountMinor);
 		expect((await Build.findByPk(view.id))?.regionId).toBe(de.id);
-		expect(await builds.updateBuild(reader.id, view.id, { regionCode: 'zz' }, moved.version)).toMatchObject({ kind: 'invalid', issues: { regionCode: expect.any(Array) } });
+		expect(
+			await builds.updateBuild(reader.id, view.id, { regionCode: 'zz' }, moved.version)
+		).toMatchObject({ kind: 'invalid', issues: { regionCode: expect.any(Array) } });
 	});
 
 	it('converts a kept budget when the region changes currency: $800.00 → €730.19 at 1.0956 (D)', async () => {
 		const view = await forked();
-		const budgeted = ok(await builds.updateBuild(reader.id, view.id, { budget: '800.00' }, view.version));
+		const budgeted = ok(
+			await builds.updateBuild(reader.id, view.id, { budget: '800.00' }, view.version)
+		);
 		expect(budgeted.budget).toEqual({ amountMinor: 80000, currency: 'USD' });
-		const moved = ok(await builds.updateBuild(reader.id, view.id, { regionCode: 'de' }, budgeted.version));
-		// 80000 / 1.0956 = 73019.35… → 73019 cents (ECB 2 Jan 2024, CHECK-VALUES 10c, V).
+		const moved = ok(
+			await builds.updateBuild(reader.id, view.id, { regionCode: 'de' }, budgeted.version)
+		);
+		// 80000 / 1.0956 = 73019.35… → 73019 cents (ECB 2 Jan 2024, docs/sources.md 10c, V).
 		expect(moved.budget).toEqual({ amountMinor: 73019, currency: 'EUR' });
-		expect(await builds.updateBuild(reader.id, view.id, { budget: '10.001' }, moved.version)).toMatchObject({ kind: 'invalid', issues: { budget: ['EUR has 2 decimals.'] } });
+		expect(
+			await builds.updateBuild(reader.id, view.id, { budget: '10.001' }, moved.version)
+		).toMatchObject({ kind: 'invalid', issues: { budget: ['EUR has 2 decimals.'] } });
 	});
 
 	it('purchase tracker: planned, spent, remaining and left of budget by hand', async () => {
@@ -269,12 +429,51 @@ describe('builds on the real MariaDB', () => {
 		const gpu = slotOf(view, 'gpu');
 		const psu = slotOf(view, 'psu');
 		let v = ok(await builds.updateBuild(reader.id, view.id, { budget: '650.00' }, view.version));
-		v = ok(await builds.updateSlot(reader.id, view.id, cpu.id, { purchase: { purchased: true, paid: '150.00', purchasedAt: '2026-11-28', store: 'Corner Shop' } }, v.version));
-		v = ok(await builds.updateSlot(reader.id, view.id, gpu.id, { purchase: { purchased: true } }, v.version));
+		v = ok(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				cpu.id,
+				{
+					purchase: {
+						purchased: true,
+						paid: '150.00',
+						purchasedAt: '2026-11-28',
+						store: 'Corner Shop'
+					}
+				},
+				v.version
+			)
+		);
+		v = ok(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				gpu.id,
+				{ purchase: { purchased: true } },
+				v.version
+			)
+		);
 		// An override on a slot not bought yet: the line becomes 2 × 49.99.
-		v = ok(await builds.updateSlot(reader.id, view.id, psu.id, { quantity: 2, priceOverride: { amount: '49.99', store: 'Market stall', date: '2026-11-30' } }, v.version));
+		v = ok(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				psu.id,
+				{
+					quantity: 2,
+					priceOverride: { amount: '49.99', store: 'Market stall', date: '2026-11-30' }
+				},
+				v.version
+			)
+		);
 		const psuNow = v.slots.find((s) => s.id === psu.id);
-		expect(psuNow?.price).toMatchObject({ status: 'override', unit: { amountMinor: 4999, currency: 'USD' }, storeName: 'Market stall', observedAt: '2026-11-30' });
+		expect(psuNow?.price).toMatchObject({
+			status: 'override',
+			unit: { amountMinor: 4999, currency: 'USD' },
+			storeName: 'Market stall',
+			observedAt: '2026-11-30'
+		});
 		expect(psuNow?.lineTotal?.amountMinor).toBe(9998);
 
 		const cpuLine = cpu.lineTotal!.amountMinor;
@@ -291,11 +490,27 @@ describe('builds on the real MariaDB', () => {
 			boughtCount: 2,
 			unpricedSlots: 0
 		});
-		expect(v.slots.find((s) => s.id === cpu.id)?.purchase).toEqual({ purchased: true, paid: { amountMinor: 15000, currency: 'USD' }, purchasedAt: '2026-11-28', store: 'Corner Shop' });
+		expect(v.slots.find((s) => s.id === cpu.id)?.purchase).toEqual({
+			purchased: true,
+			paid: { amountMinor: 15000, currency: 'USD' },
+			purchasedAt: '2026-11-28',
+			store: 'Corner Shop'
+		});
 
 		// Bad amounts by field; dates in the future never reach the service.
-		expect(await builds.updateSlot(reader.id, view.id, cpu.id, { purchase: { purchased: true, paid: '1.005' } }, v.version)).toMatchObject({ kind: 'invalid', issues: { 'purchase.paid': ['USD has 2 decimals.'] } });
-		const future = updateSlotInput.safeParse({ version: 1, purchase: { purchased: true, purchasedAt: '2999-01-01' } });
+		expect(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				cpu.id,
+				{ purchase: { purchased: true, paid: '1.005' } },
+				v.version
+			)
+		).toMatchObject({ kind: 'invalid', issues: { 'purchase.paid': ['USD has 2 decimals.'] } });
+		const future = updateSlotInput.safeParse({
+			version: 1,
+			purchase: { purchased: true, purchasedAt: '2999-01-01' }
+		});
 		expect(future.success).toBe(false);
 		expect(future.error?.issues.map((i) => i.path.join('.'))).toEqual(['purchase.purchasedAt']);
 
@@ -305,22 +520,68 @@ describe('builds on the real MariaDB', () => {
 		expect(seen?.budget).toBeNull();
 		expect(seen?.totals.spent.amountMinor).toBe(0);
 		expect(seen?.totals.leftOfBudget).toBeNull();
-		expect(seen?.slots.every((s) => s.purchase.purchased === false && s.purchase.paid === null)).toBe(true);
+		expect(
+			seen?.slots.every((s) => s.purchase.purchased === false && s.purchase.paid === null)
+		).toBe(true);
 
 		// Un-marking clears what was paid.
-		v = ok(await builds.updateSlot(reader.id, view.id, cpu.id, { purchase: { purchased: false } }, v.version));
-		expect(await BuildSlot.findByPk(cpu.id)).toMatchObject({ purchased: false, paidMinor: null, purchasedAt: null, purchaseStore: null });
+		ok(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				cpu.id,
+				{ purchase: { purchased: false } },
+				v.version
+			)
+		);
+		expect(await BuildSlot.findByPk(cpu.id)).toMatchObject({
+			purchased: false,
+			paidMinor: null,
+			purchasedAt: null,
+			purchaseStore: null
+		});
 	});
 
 	it('exports the shopping list as CSV with the same totals, formula-safe', async () => {
 		const view = await forked();
 		const psu = slotOf(view, 'psu');
-		let v = ok(await builds.addSlot(reader.id, view.id, { category: 'psu', label: '=HYPERLINK("http://x.example")', partId: psu.part.id, quantity: 1 }, view.version));
-		v = ok(await builds.updateSlot(reader.id, view.id, psu.id, { purchase: { purchased: true, paid: '60.00' } }, v.version));
+		let v = ok(
+			await builds.addSlot(
+				reader.id,
+				view.id,
+				{
+					category: 'psu',
+					label: '=HYPERLINK("http://x.example")',
+					partId: psu.part.id,
+					quantity: 1
+				},
+				view.version
+			)
+		);
+		v = ok(
+			await builds.updateSlot(
+				reader.id,
+				view.id,
+				psu.id,
+				{ purchase: { purchased: true, paid: '60.00' } },
+				v.version
+			)
+		);
 		const csv = await builds.exportCsv({ id: reader.id }, view.id);
 		if (csv === null) throw new Error('owner cannot export');
 		const rows = parse(csv) as string[][];
-		expect(rows[0]).toEqual(['slot', 'part', 'quantity', 'unit price', 'line total', 'currency', 'status', 'store', 'bought', 'paid']);
+		expect(rows[0]).toEqual([
+			'slot',
+			'part',
+			'quantity',
+			'unit price',
+			'line total',
+			'currency',
+			'status',
+			'store',
+			'bought',
+			'paid'
+		]);
 		const lines = rows.slice(1, 1 + v.slots.length);
 		// Line totals in the file add up to the planned total row (cents, to avoid float sums).
 		const cents = (s: string) => Math.round(Number(s) * 100);
@@ -329,7 +590,9 @@ describe('builds on the real MariaDB', () => {
 		expect(cents(totalRow?.[4] ?? '')).toBe(sumLines);
 		expect(cents(totalRow?.[4] ?? '')).toBe(v.totals.planned.amountMinor);
 		expect(rows.find((r) => r[0] === 'Spent')?.[4]).toBe(builds.decimalOf(v.totals.spent));
-		expect(rows.find((r) => r[0] === 'Remaining to buy')?.[4]).toBe(builds.decimalOf(v.totals.remainingToBuy));
+		expect(rows.find((r) => r[0] === 'Remaining to buy')?.[4]).toBe(
+			builds.decimalOf(v.totals.remainingToBuy)
+		);
 		expect(lines.find((r) => r[0] === psu.label)?.slice(8)).toEqual(['yes', '60.00']);
 		// The formula-like label is neutralised with a leading quote (OWASP CSV injection).
 		expect(lines.some((r) => r[0] === `'=HYPERLINK("http://x.example")`)).toBe(true);
@@ -355,16 +618,24 @@ describe('builds on the real MariaDB', () => {
 
 describe('slot keys and input (no database)', () => {
 	it('keys revision slots by label, numbering repeats so every key is unique and fits 80 characters', () => {
-		const slot = (label: string) => ({ label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
+		const slot = (label: string) =>
+			({ label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
 		const long = 'L'.repeat(80);
-		const keys = builds.keyedRevisionSlots([slot('Storage'), slot('CPU'), slot('Storage'), slot(long), slot(long)]).map((k) => k.key);
+		const keys = builds
+			.keyedRevisionSlots([slot('Storage'), slot('CPU'), slot('Storage'), slot(long), slot(long)])
+			.map((k) => k.key);
 		expect(keys).toEqual(['Storage', 'CPU', 'Storage (2)', long, `${'L'.repeat(76)} (2)`]);
 		expect(keys.every((k) => k.length <= 80)).toBe(true);
 	});
 
 	it('refuses fields a reader may not set and dates that do not exist', () => {
 		expect(updateSlotInput.safeParse({ version: 1, origin: 'source' }).success).toBe(false);
-		expect(updateSlotInput.safeParse({ version: 1, priceOverride: { amount: '1', store: 'x', date: '2025-02-30' } }).success).toBe(false);
+		expect(
+			updateSlotInput.safeParse({
+				version: 1,
+				priceOverride: { amount: '1', store: 'x', date: '2025-02-30' }
+			}).success
+		).toBe(false);
 		expect(updateSlotInput.safeParse({ version: 0, quantity: 1 }).success).toBe(false);
 		expect(updateSlotInput.safeParse({ version: 3, priceOverride: null }).success).toBe(true);
 	});

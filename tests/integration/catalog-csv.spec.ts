@@ -4,7 +4,13 @@ import { AuditEvent, CatalogImport, Part, User, sequelize } from '../../src/lib/
 import * as csv from '../../src/lib/server/services/catalog-csv';
 import * as upkeep from '../../src/lib/server/services/catalog-upkeep';
 import { countRows, resetDatabase } from '../support/db';
-import { CSV_HEADER, THREE_BAD_ROWS, csvLine, generatedCsv, generatedRow } from '../support/parts-csv';
+import {
+	CSV_HEADER,
+	THREE_BAD_ROWS,
+	csvLine,
+	generatedCsv,
+	generatedRow
+} from '../support/parts-csv';
 
 /*
  * The CSV import on the real MariaDB: a file with any bad row is reported row by row and
@@ -20,7 +26,8 @@ async function editor(email = 'ed@example.test') {
 
 async function ready(editorId: string, text: string) {
 	const outcome = await csv.upload(editorId, bytes(text), 'parts.csv');
-	if (outcome.kind !== 'ready') throw new Error(`expected a clean file, got ${JSON.stringify(outcome).slice(0, 600)}`);
+	if (outcome.kind !== 'ready')
+		throw new Error(`expected a clean file, got ${JSON.stringify(outcome).slice(0, 600)}`);
 	return outcome.importId;
 }
 
@@ -29,13 +36,21 @@ describe('CSV import', () => {
 
 	it('lists exactly the 3 bad rows of a 200-row file with row, column and reason, and writes nothing', async () => {
 		const me = await editor();
-		const outcome = await csv.upload(me.id, bytes(generatedCsv(200, 'gen', THREE_BAD_ROWS)), 'parts.csv');
+		const outcome = await csv.upload(
+			me.id,
+			bytes(generatedCsv(200, 'gen', THREE_BAD_ROWS)),
+			'parts.csv'
+		);
 		expect(outcome.kind).toBe('invalid');
 		if (outcome.kind !== 'invalid') return;
 		expect(outcome).toMatchObject({ totalRows: 200, goodRows: 197, badRows: 3, moreProblems: 0 });
 		expect(outcome.problems).toEqual([
 			{ row: 20, column: 'specs_json', reason: 'lengthMm: Must be more than 0.' },
-			{ row: 87, column: 'category', reason: expect.stringMatching(/^"toaster": Choose one of: cpu, cooler/) },
+			{
+				row: 87,
+				column: 'category',
+				reason: expect.stringMatching(/^"toaster": Choose one of: cpu, cooler/)
+			},
 			{ row: 150, column: 'brand', reason: expect.stringMatching(/^Starts with "=": .*formulas/) }
 		]);
 		expect(await countRows('parts')).toBe(0);
@@ -56,7 +71,9 @@ describe('CSV import', () => {
 		expect(await countRows('parts')).toBe(200);
 		expect(await countRows('catalog_imports')).toBe(0);
 		expect(await AuditEvent.count({ where: { action: 'part.created' } })).toBe(200);
-		expect(await AuditEvent.count({ where: { action: 'catalog_import.committed', subjectId: importId } })).toBe(1);
+		expect(
+			await AuditEvent.count({ where: { action: 'catalog_import.committed', subjectId: importId } })
+		).toBe(1);
 		// A cell with a comma and quotes survives the round trip.
 		expect((await Part.findOne({ where: { slug: 'gen-3' } }))?.model).toBe('Arclight 3, Dual "OC"');
 		// Confirming twice does nothing the second time.
@@ -83,15 +100,32 @@ describe('CSV import', () => {
 		expect(await countRows('audit_events')).toBe(0);
 		// The upload is still there: once the cause is gone, the same confirmation succeeds.
 		expect(await countRows('catalog_imports')).toBe(1);
-		expect(await csv.commit(me.id, importId)).toEqual({ kind: 'ok', created: 200, updated: 0, unchanged: 0 });
+		expect(await csv.commit(me.id, importId)).toEqual({
+			kind: 'ok',
+			created: 200,
+			updated: 0,
+			unchanged: 0
+		});
 	});
 
 	it('refuses a wrong header, naming the expected columns', async () => {
 		const me = await editor();
-		const outcome = await csv.upload(me.id, bytes('category,brand,model,specs\r\n"fan","A","B","{}"\r\n'), 'x.csv');
+		const outcome = await csv.upload(
+			me.id,
+			bytes('category,brand,model,specs\r\n"fan","A","B","{}"\r\n'),
+			'x.csv'
+		);
 		expect(outcome).toMatchObject({
 			kind: 'invalid',
-			problems: [{ row: 1, column: null, reason: expect.stringContaining('must be exactly "category,brand,model,slug,specs_json" (found "category,brand,model,specs")') }]
+			problems: [
+				{
+					row: 1,
+					column: null,
+					reason: expect.stringContaining(
+						'must be exactly "category,brand,model,slug,specs_json" (found "category,brand,model,specs")'
+					)
+				}
+			]
 		});
 		expect(await countRows('catalog_imports')).toBe(0);
 	});
@@ -100,20 +134,47 @@ describe('CSV import', () => {
 		const me = await editor();
 		const row = csvLine(generatedRow(5, 'enc'));
 		// "Brückner" in Latin-1: 0xFC is not valid UTF-8.
-		const latin1 = Uint8Array.from([...bytes(`${CSV_HEADER}\r\n"fan","Br`), 0xfc, ...bytes(`ckner","F","enc-x","{}"\r\n`)]);
+		const latin1 = Uint8Array.from([
+			...bytes(`${CSV_HEADER}\r\n"fan","Br`),
+			0xfc,
+			...bytes(`ckner","F","enc-x","{}"\r\n`)
+		]);
 		const bad = await csv.upload(me.id, latin1, 'latin1.csv');
-		expect(bad).toMatchObject({ kind: 'invalid', problems: [{ row: 0, column: null, reason: expect.stringMatching(/not valid UTF-8 \(byte 48, line 2\)/) }] });
+		expect(bad).toMatchObject({
+			kind: 'invalid',
+			problems: [
+				{
+					row: 0,
+					column: null,
+					reason: expect.stringMatching(/not valid UTF-8 \(byte 48, line 2\)/)
+				}
+			]
+		});
 
 		const text = `${CSV_HEADER}\r\n${row}\r\n`;
 		const utf16le = new Uint8Array(text.length * 2);
 		for (let i = 0; i < text.length; i++) utf16le[i * 2] = text.charCodeAt(i);
 		const noBom = await csv.upload(me.id, utf16le, 'utf16.csv');
-		expect(noBom).toMatchObject({ kind: 'invalid', problems: [{ reason: expect.stringMatching(/UTF-16/) }] });
-		const withBom = await csv.upload(me.id, Uint8Array.from([0xff, 0xfe, ...utf16le]), 'utf16bom.csv');
-		expect(withBom).toMatchObject({ kind: 'invalid', problems: [{ reason: expect.stringMatching(/UTF-16/) }] });
+		expect(noBom).toMatchObject({
+			kind: 'invalid',
+			problems: [{ reason: expect.stringMatching(/UTF-16/) }]
+		});
+		const withBom = await csv.upload(
+			me.id,
+			Uint8Array.from([0xff, 0xfe, ...utf16le]),
+			'utf16bom.csv'
+		);
+		expect(withBom).toMatchObject({
+			kind: 'invalid',
+			problems: [{ reason: expect.stringMatching(/UTF-16/) }]
+		});
 		expect(await countRows('catalog_imports')).toBe(0);
 
-		const bom = await csv.upload(me.id, Uint8Array.from([0xef, 0xbb, 0xbf, ...bytes(text)]), 'bom.csv');
+		const bom = await csv.upload(
+			me.id,
+			Uint8Array.from([0xef, 0xbb, 0xbf, ...bytes(text)]),
+			'bom.csv'
+		);
 		expect(bom.kind).toBe('ready');
 	});
 
@@ -152,7 +213,13 @@ describe('CSV import', () => {
 
 	it('reports bad JSON, wrong cell counts, duplicate slugs in the file, and a slug of another category in the catalog', async () => {
 		const me = await editor();
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Lumenforge', model: 'Existing', slug: 'taken', specs: generatedRow(3, 'x').specs });
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Lumenforge',
+			model: 'Existing',
+			slug: 'taken',
+			specs: generatedRow(3, 'x').specs
+		});
 		const fan = generatedRow(5, 'dup');
 		const lines = [
 			CSV_HEADER,
@@ -161,16 +228,30 @@ describe('CSV import', () => {
 			csvLine(['fan', 'A', 'B', 'two', '{sizeMm: 120}']),
 			'"fan","A","B"',
 			csvLine({ ...fan, slug: 'taken' }),
-			csvLine({ ...fan, slug: 'three', specs: { sizeMm: 100, count: 1, maxRpm: 900, colour: 'red' } })
+			csvLine({
+				...fan,
+				slug: 'three',
+				specs: { sizeMm: 100, count: 1, maxRpm: 900, colour: 'red' }
+			})
 		];
 		const outcome = await csv.upload(me.id, bytes(lines.join('\n')), 'mixed.csv');
 		expect(outcome.kind).toBe('invalid');
 		if (outcome.kind !== 'invalid') return;
 		expect(outcome.problems).toEqual([
-			{ row: 3, column: 'slug', reason: 'The slug "one" is already used on row 2; each part needs its own slug.' },
+			{
+				row: 3,
+				column: 'slug',
+				reason: 'The slug "one" is already used on row 2; each part needs its own slug.'
+			},
 			{ row: 4, column: 'specs_json', reason: expect.stringMatching(/^Not valid JSON/) },
 			{ row: 5, column: null, reason: expect.stringMatching(/^Has 3 cells; every row needs 5/) },
-			{ row: 6, column: 'slug', reason: expect.stringMatching(/"taken" is an existing gpu part; a part's category cannot change/) },
+			{
+				row: 6,
+				column: 'slug',
+				reason: expect.stringMatching(
+					/"taken" is an existing gpu part; a part's category cannot change/
+				)
+			},
 			{ row: 7, column: 'specs_json', reason: 'sizeMm: Choose one of: 80, 92, 120, 140.' },
 			{ row: 7, column: 'specs_json', reason: 'Unknown field: colour.' }
 		]);
@@ -182,10 +263,24 @@ describe('CSV import', () => {
 		const first = await ready(me.id, generatedCsv(10, 'upd'));
 		await csv.commit(me.id, first);
 		const changed = generatedRow(1, 'upd');
-		const text = [CSV_HEADER, csvLine({ ...changed, model: 'Tempo renamed' }), csvLine(generatedRow(3, 'upd')), csvLine(generatedRow(11, 'upd'))].join('\r\n');
+		const text = [
+			CSV_HEADER,
+			csvLine({ ...changed, model: 'Tempo renamed' }),
+			csvLine(generatedRow(3, 'upd')),
+			csvLine(generatedRow(11, 'upd'))
+		].join('\r\n');
 		const second = await ready(me.id, text);
-		expect(await csv.preview(me.id, second)).toMatchObject({ creates: 1, updates: 1, unchanged: 1 });
-		expect(await csv.commit(me.id, second)).toEqual({ kind: 'ok', created: 1, updated: 1, unchanged: 1 });
+		expect(await csv.preview(me.id, second)).toMatchObject({
+			creates: 1,
+			updates: 1,
+			unchanged: 1
+		});
+		expect(await csv.commit(me.id, second)).toEqual({
+			kind: 'ok',
+			created: 1,
+			updated: 1,
+			unchanged: 1
+		});
 		expect((await Part.findOne({ where: { slug: 'upd-1' } }))?.model).toBe('Tempo renamed');
 		const event = await AuditEvent.findOne({ where: { action: 'part.updated' } });
 		expect(event?.before).toMatchObject({ model: 'Tempo 1 32 GB' });
@@ -216,8 +311,13 @@ describe('CSV import', () => {
 	it('refuses an oversized file and an empty one', async () => {
 		const me = await editor();
 		const big = new Uint8Array(csv.MAX_UPLOAD_BYTES + 1).fill(0x41);
-		expect(await csv.upload(me.id, big, 'big.csv')).toMatchObject({ kind: 'invalid', problems: [{ reason: expect.stringMatching(/upload at most 1\.0 MB/) }] });
-		expect(await csv.upload(me.id, new Uint8Array(0), 'empty.csv')).toMatchObject({ kind: 'invalid' });
+		expect(await csv.upload(me.id, big, 'big.csv')).toMatchObject({
+			kind: 'invalid',
+			problems: [{ reason: expect.stringMatching(/upload at most 1\.0 MB/) }]
+		});
+		expect(await csv.upload(me.id, new Uint8Array(0), 'empty.csv')).toMatchObject({
+			kind: 'invalid'
+		});
 		expect(await csv.upload(me.id, bytes(`${CSV_HEADER}\r\n`), 'header-only.csv')).toMatchObject({
 			kind: 'invalid',
 			problems: [{ reason: 'The file has a header but no parts.' }]
@@ -239,14 +339,30 @@ describe('CSV export', () => {
 
 	it('exports the catalog in the import layout, neutralising formula-like cells', async () => {
 		// Written around the service on purpose: rows from before these rules existed.
-		await Part.create({ category: 'fan', brand: '=HYPERLINK("http://x.example")', model: '-Breeze', slug: 'odd-fan', specs: { sizeMm: 120, count: 1, maxRpm: 1500 } });
-		await Part.create({ category: 'fan', brand: 'Draftwell', model: 'Breeze, "quiet"', slug: 'fine-fan', specs: { sizeMm: 140, count: 2, maxRpm: 1200 } });
+		await Part.create({
+			category: 'fan',
+			brand: '=HYPERLINK("http://x.example")',
+			model: '-Breeze',
+			slug: 'odd-fan',
+			specs: { sizeMm: 120, count: 1, maxRpm: 1500 }
+		});
+		await Part.create({
+			category: 'fan',
+			brand: 'Draftwell',
+			model: 'Breeze, "quiet"',
+			slug: 'fine-fan',
+			specs: { sizeMm: 140, count: 2, maxRpm: 1200 }
+		});
 		const text = await exported();
 		expect(text.charCodeAt(0)).toBe(0xfeff);
 		const lines = text.slice(1).split('\r\n');
 		expect(lines[0]).toBe(CSV_HEADER);
-		expect(lines[1]).toBe(`fan,"'=HYPERLINK(""http://x.example"")",'-Breeze,odd-fan,"{""sizeMm"":120,""count"":1,""maxRpm"":1500}"`);
-		expect(lines[2]).toBe(`fan,Draftwell,"Breeze, ""quiet""",fine-fan,"{""sizeMm"":140,""count"":2,""maxRpm"":1200}"`);
+		expect(lines[1]).toBe(
+			`fan,"'=HYPERLINK(""http://x.example"")",'-Breeze,odd-fan,"{""sizeMm"":120,""count"":1,""maxRpm"":1500}"`
+		);
+		expect(lines[2]).toBe(
+			`fan,Draftwell,"Breeze, ""quiet""",fine-fan,"{""sizeMm"":140,""count"":2,""maxRpm"":1200}"`
+		);
 		expect(lines[3]).toBe('');
 	});
 
@@ -256,13 +372,23 @@ describe('CSV export', () => {
 		const text = await exported();
 		expect(text.slice(1).trimEnd().split('\r\n')).toHaveLength(1201);
 		const again = await ready(me.id, text);
-		expect(await csv.preview(me.id, again)).toMatchObject({ rowCount: 1200, creates: 0, updates: 0, unchanged: 1200 });
+		expect(await csv.preview(me.id, again)).toMatchObject({
+			rowCount: 1200,
+			creates: 0,
+			updates: 0,
+			unchanged: 1200
+		});
 	});
 
 	it('offers a template that imports cleanly', async () => {
 		const me = await editor();
 		const importId = await ready(me.id, csv.templateCsv());
-		expect(await csv.commit(me.id, importId)).toEqual({ kind: 'ok', created: 3, updated: 0, unchanged: 0 });
+		expect(await csv.commit(me.id, importId)).toEqual({
+			kind: 'ok',
+			created: 3,
+			updated: 0,
+			unchanged: 0
+		});
 		expect(await Part.findOne({ where: { slug: 'example-boards-b6-compact' } })).not.toBeNull();
 	});
 });

@@ -24,12 +24,45 @@ async function editor() {
 }
 
 async function regionsAndStore() {
-	const us = await Region.create({ code: 'us', name: 'United States', currency: 'USD', taxMode: 'exclusive', taxRateBp: 0, categoryFactorsBp: {} });
-	const jp = await Region.create({ code: 'jp', name: 'Japan', currency: 'JPY', taxMode: 'inclusive', taxRateBp: 1000, categoryFactorsBp: {} });
-	const kw = await Region.create({ code: 'kw', name: 'Kuwait', currency: 'KWD', taxMode: 'exclusive', taxRateBp: 0, categoryFactorsBp: {} });
-	const usStore = await Store.create({ name: 'Kestrel Components', regionId: us.id, url: 'https://kestrel.example' });
-	const jpStore = await Store.create({ name: 'Kairo Denki', regionId: jp.id, url: 'https://kairo.example' });
-	const kwStore = await Store.create({ name: 'Gulf Parts', regionId: kw.id, url: 'https://gulf.example' });
+	const us = await Region.create({
+		code: 'us',
+		name: 'United States',
+		currency: 'USD',
+		taxMode: 'exclusive',
+		taxRateBp: 0,
+		categoryFactorsBp: {}
+	});
+	const jp = await Region.create({
+		code: 'jp',
+		name: 'Japan',
+		currency: 'JPY',
+		taxMode: 'inclusive',
+		taxRateBp: 1000,
+		categoryFactorsBp: {}
+	});
+	const kw = await Region.create({
+		code: 'kw',
+		name: 'Kuwait',
+		currency: 'KWD',
+		taxMode: 'exclusive',
+		taxRateBp: 0,
+		categoryFactorsBp: {}
+	});
+	const usStore = await Store.create({
+		name: 'Kestrel Components',
+		regionId: us.id,
+		url: 'https://kestrel.example'
+	});
+	const jpStore = await Store.create({
+		name: 'Kairo Denki',
+		regionId: jp.id,
+		url: 'https://kairo.example'
+	});
+	const kwStore = await Store.create({
+		name: 'Gulf Parts',
+		regionId: kw.id,
+		url: 'https://gulf.example'
+	});
 	return { us, jp, kw, usStore, jpStore, kwStore };
 }
 
@@ -38,14 +71,30 @@ describe('parts', () => {
 
 	it('creates a part with valid specs, derives the slug, and audits it', async () => {
 		const me = await editor();
-		const outcome = await upkeep.createPart(me.id, { category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60 Dual', slug: '', specs: GPU_SPECS });
-		expect(outcome).toMatchObject({ kind: 'ok', part: { slug: 'example-graphics-lumen-60-dual', category: 'gpu' } });
+		const outcome = await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 60 Dual',
+			slug: '',
+			specs: GPU_SPECS
+		});
+		expect(outcome).toMatchObject({
+			kind: 'ok',
+			part: { slug: 'example-graphics-lumen-60-dual', category: 'gpu' }
+		});
 		const part = await Part.findOne({ where: { slug: 'example-graphics-lumen-60-dual' } });
 		expect(part?.specs).toEqual(GPU_SPECS);
 		const events = await AuditEvent.findAll({ where: { action: 'part.created' } });
 		expect(events).toHaveLength(1);
-		expect(events[0]).toMatchObject({ actorId: me.id, subjectType: 'part', subjectId: String(part?.id) });
-		expect(events[0]?.after).toMatchObject({ slug: 'example-graphics-lumen-60-dual', specs: GPU_SPECS });
+		expect(events[0]).toMatchObject({
+			actorId: me.id,
+			subjectType: 'part',
+			subjectId: String(part?.id)
+		});
+		expect(events[0]?.after).toMatchObject({
+			slug: 'example-graphics-lumen-60-dual',
+			specs: GPU_SPECS
+		});
 	});
 
 	it('refuses bad specs with a message per field and writes nothing', async () => {
@@ -55,12 +104,28 @@ describe('parts', () => {
 			brand: '=HYPERLINK("x")',
 			model: '',
 			slug: 'Not A Slug',
-			specs: { ...GPU_SPECS, vramGb: -8, lengthMm: 'long', pcieGen: 7, powerConnectors: { pin6: 0, pin8: 1 }, colour: 'red' }
+			specs: {
+				...GPU_SPECS,
+				vramGb: -8,
+				lengthMm: 'long',
+				pcieGen: 7,
+				powerConnectors: { pin6: 0, pin8: 1 },
+				colour: 'red'
+			}
 		});
 		expect(outcome.kind).toBe('invalid');
 		if (outcome.kind !== 'invalid') return;
 		expect(Object.keys(outcome.issues).sort()).toEqual(
-			['brand', 'model', 'slug', 'spec', 'spec.lengthMm', 'spec.pcieGen', 'spec.powerConnectors.h12v2x6', 'spec.vramGb'].sort()
+			[
+				'brand',
+				'model',
+				'slug',
+				'spec',
+				'spec.lengthMm',
+				'spec.pcieGen',
+				'spec.powerConnectors.h12v2x6',
+				'spec.vramGb'
+			].sort()
 		);
 		expect(outcome.issues['spec.vramGb']).toEqual(['Must be more than 0.']);
 		expect(outcome.issues['spec.lengthMm']).toEqual(['Enter a number.']);
@@ -74,45 +139,117 @@ describe('parts', () => {
 
 	it('refuses an unknown category and a duplicate slug, writing nothing', async () => {
 		const me = await editor();
-		const unknown = await upkeep.createPart(me.id, { category: 'toaster', brand: 'A', model: 'B', specs: {} });
-		expect(unknown).toMatchObject({ kind: 'invalid', issues: { category: [expect.stringMatching(/Choose one of: cpu/)] } });
+		const unknown = await upkeep.createPart(me.id, {
+			category: 'toaster',
+			brand: 'A',
+			model: 'B',
+			specs: {}
+		});
+		expect(unknown).toMatchObject({
+			kind: 'invalid',
+			issues: { category: [expect.stringMatching(/Choose one of: cpu/)] }
+		});
 		// An absurd size: a 5-metre graphics card (the spec schema caps lengthMm).
-		const huge = await upkeep.createPart(me.id, { category: 'gpu', brand: 'A', model: 'B', specs: { ...GPU_SPECS, lengthMm: 5000 } });
-		expect(huge).toMatchObject({ kind: 'invalid', issues: { 'spec.lengthMm': [expect.stringMatching(/^Must be at most \d+\.$/)] } });
+		const huge = await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'A',
+			model: 'B',
+			specs: { ...GPU_SPECS, lengthMm: 5000 }
+		});
+		expect(huge).toMatchObject({
+			kind: 'invalid',
+			issues: { 'spec.lengthMm': [expect.stringMatching(/^Must be at most \d+\.$/)] }
+		});
 		expect(await countRows('parts')).toBe(0);
 
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60', slug: 'lumen-60', specs: GPU_SPECS });
-		const again = await upkeep.createPart(me.id, { category: 'gpu', brand: 'Other', model: 'Card', slug: 'lumen-60', specs: GPU_SPECS });
-		expect(again).toMatchObject({ kind: 'invalid', issues: { slug: [expect.stringMatching(/already exists/)] } });
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 60',
+			slug: 'lumen-60',
+			specs: GPU_SPECS
+		});
+		const again = await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Other',
+			model: 'Card',
+			slug: 'lumen-60',
+			specs: GPU_SPECS
+		});
+		expect(again).toMatchObject({
+			kind: 'invalid',
+			issues: { slug: [expect.stringMatching(/already exists/)] }
+		});
 		expect(await countRows('parts')).toBe(1);
 		expect(await AuditEvent.count({ where: { action: 'part.created' } })).toBe(1);
 	});
 
 	it('updates brand, model and specs (not category or slug), audits before and after, and skips no-op saves', async () => {
 		const me = await editor();
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60', slug: 'lumen-60', specs: GPU_SPECS });
-		const bad = await upkeep.updatePart(me.id, 'lumen-60', { brand: 'Example Graphics', model: 'Lumen 60', specs: { ...GPU_SPECS, lengthMm: 0 } });
-		expect(bad).toMatchObject({ kind: 'invalid', issues: { 'spec.lengthMm': ['Must be more than 0.'] } });
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 60',
+			slug: 'lumen-60',
+			specs: GPU_SPECS
+		});
+		const bad = await upkeep.updatePart(me.id, 'lumen-60', {
+			brand: 'Example Graphics',
+			model: 'Lumen 60',
+			specs: { ...GPU_SPECS, lengthMm: 0 }
+		});
+		expect(bad).toMatchObject({
+			kind: 'invalid',
+			issues: { 'spec.lengthMm': ['Must be more than 0.'] }
+		});
 		expect((await Part.findOne({ where: { slug: 'lumen-60' } }))?.specs).toEqual(GPU_SPECS);
 
-		const good = await upkeep.updatePart(me.id, 'lumen-60', { brand: 'Example Graphics', model: 'Lumen 60 OC', specs: { ...GPU_SPECS, lengthMm: 250 } });
-		expect(good).toMatchObject({ kind: 'ok', changed: true, part: { model: 'Lumen 60 OC', category: 'gpu', slug: 'lumen-60' } });
+		const good = await upkeep.updatePart(me.id, 'lumen-60', {
+			brand: 'Example Graphics',
+			model: 'Lumen 60 OC',
+			specs: { ...GPU_SPECS, lengthMm: 250 }
+		});
+		expect(good).toMatchObject({
+			kind: 'ok',
+			changed: true,
+			part: { model: 'Lumen 60 OC', category: 'gpu', slug: 'lumen-60' }
+		});
 		const event = await AuditEvent.findOne({ where: { action: 'part.updated' } });
 		expect(event?.before).toMatchObject({ model: 'Lumen 60', specs: { lengthMm: 242 } });
 		expect(event?.after).toMatchObject({ model: 'Lumen 60 OC', specs: { lengthMm: 250 } });
 
-		const same = await upkeep.updatePart(me.id, 'lumen-60', { brand: 'Example Graphics', model: 'Lumen 60 OC', specs: { ...GPU_SPECS, lengthMm: 250 } });
+		const same = await upkeep.updatePart(me.id, 'lumen-60', {
+			brand: 'Example Graphics',
+			model: 'Lumen 60 OC',
+			specs: { ...GPU_SPECS, lengthMm: 250 }
+		});
 		expect(same).toMatchObject({ kind: 'ok', changed: false });
 		expect(await AuditEvent.count({ where: { action: 'part.updated' } })).toBe(1);
-		expect(await upkeep.updatePart(me.id, 'no-such-part', { brand: 'x', model: 'y', specs: {} })).toEqual({ kind: 'not_found' });
+		expect(
+			await upkeep.updatePart(me.id, 'no-such-part', { brand: 'x', model: 'y', specs: {} })
+		).toEqual({ kind: 'not_found' });
 	});
 
 	it('lists and searches parts, with LIKE wildcards taken literally', async () => {
 		const me = await editor();
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60', specs: GPU_SPECS });
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Other_Brand', model: '100% Card', specs: GPU_SPECS });
-		expect((await upkeep.listParts({ q: 'lumen', page: 1 })).items.map((p) => p.slug)).toEqual(['example-graphics-lumen-60']);
-		expect((await upkeep.listParts({ q: '%', page: 1 })).items.map((p) => p.model)).toEqual(['100% Card']);
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 60',
+			specs: GPU_SPECS
+		});
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Other_Brand',
+			model: '100% Card',
+			specs: GPU_SPECS
+		});
+		expect((await upkeep.listParts({ q: 'lumen', page: 1 })).items.map((p) => p.slug)).toEqual([
+			'example-graphics-lumen-60'
+		]);
+		expect((await upkeep.listParts({ q: '%', page: 1 })).items.map((p) => p.model)).toEqual([
+			'100% Card'
+		]);
 		expect((await upkeep.listParts({ q: '', category: 'cpu', page: 1 })).total).toBe(0);
 	});
 });
@@ -125,37 +262,88 @@ describe('stores', () => {
 		const { usStore } = await regionsAndStore();
 		const before = await countRows('stores');
 
-		const bad = await upkeep.createStore(me.id, { name: '', regionCode: 'zz', url: 'javascript:alert(1)' });
+		const bad = await upkeep.createStore(me.id, {
+			name: '',
+			regionCode: 'zz',
+			url: 'javascript:alert(1)'
+		});
 		expect(bad).toMatchObject({ kind: 'invalid' });
 		if (bad.kind === 'invalid') expect(Object.keys(bad.issues).sort()).toEqual(['name', 'url']);
-		const unknownRegion = await upkeep.createStore(me.id, { name: 'New Shop', regionCode: 'zz', url: 'https://new.example' });
-		expect(unknownRegion).toEqual({ kind: 'invalid', issues: { regionCode: ['Unknown region "zz".'] } });
-		const taken = await upkeep.createStore(me.id, { name: 'Kestrel Components', regionCode: 'us', url: 'https://k.example' });
-		expect(taken).toMatchObject({ kind: 'invalid', issues: { name: [expect.stringMatching(/already exists/)] } });
+		const unknownRegion = await upkeep.createStore(me.id, {
+			name: 'New Shop',
+			regionCode: 'zz',
+			url: 'https://new.example'
+		});
+		expect(unknownRegion).toEqual({
+			kind: 'invalid',
+			issues: { regionCode: ['Unknown region "zz".'] }
+		});
+		const taken = await upkeep.createStore(me.id, {
+			name: 'Kestrel Components',
+			regionCode: 'us',
+			url: 'https://k.example'
+		});
+		expect(taken).toMatchObject({
+			kind: 'invalid',
+			issues: { name: [expect.stringMatching(/already exists/)] }
+		});
 		expect(await countRows('stores')).toBe(before);
 		expect(await countRows('audit_events')).toBe(0);
 
-		const created = await upkeep.createStore(me.id, { name: 'New Shop', regionCode: 'jp', url: 'https://new.example' });
+		const created = await upkeep.createStore(me.id, {
+			name: 'New Shop',
+			regionCode: 'jp',
+			url: 'https://new.example'
+		});
 		expect(created.kind).toBe('ok');
 		if (created.kind !== 'ok') return;
-		const renamed = await upkeep.updateStore(me.id, created.storeId, { name: 'Newer Shop', regionCode: 'us', url: 'https://newer.example' });
+		const renamed = await upkeep.updateStore(me.id, created.storeId, {
+			name: 'Newer Shop',
+			regionCode: 'us',
+			url: 'https://newer.example'
+		});
 		expect(renamed.kind).toBe('ok');
-		const clash = await upkeep.updateStore(me.id, created.storeId, { name: 'Kestrel Components', regionCode: 'us', url: 'https://newer.example' });
+		const clash = await upkeep.updateStore(me.id, created.storeId, {
+			name: 'Kestrel Components',
+			regionCode: 'us',
+			url: 'https://newer.example'
+		});
 		expect(clash.kind).toBe('invalid');
 		expect(await upkeep.deleteStore(me.id, created.storeId)).toEqual({ kind: 'ok' });
 		expect(await Store.findByPk(created.storeId)).toBeNull();
-		expect((await AuditEvent.findAll({ order: [['id', 'ASC']] })).map((e) => e.action)).toEqual(['store.created', 'store.updated', 'store.deleted']);
+		expect((await AuditEvent.findAll({ order: [['id', 'ASC']] })).map((e) => e.action)).toEqual([
+			'store.created',
+			'store.updated',
+			'store.deleted'
+		]);
 
 		const listed = await upkeep.listStores();
-		expect(listed.find((s) => s.id === usStore.id)).toMatchObject({ region: { code: 'us', currency: 'USD' }, quoteCount: 0 });
+		expect(listed.find((s) => s.id === usStore.id)).toMatchObject({
+			region: { code: 'us', currency: 'USD' },
+			quoteCount: 0
+		});
 	});
 
 	it('refuses to remove a store that has quotes', async () => {
 		const me = await editor();
 		const { usStore } = await regionsAndStore();
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60', slug: 'lumen-60', specs: GPU_SPECS });
-		await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(usStore.id), amount: '249.99', observedOn: '2024-01-02' });
-		expect(await upkeep.deleteStore(me.id, usStore.id)).toMatchObject({ kind: 'conflict', message: expect.stringMatching(/1 quote/) });
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 60',
+			slug: 'lumen-60',
+			specs: GPU_SPECS
+		});
+		await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(usStore.id),
+			amount: '249.99',
+			observedOn: '2024-01-02'
+		});
+		expect(await upkeep.deleteStore(me.id, usStore.id)).toMatchObject({
+			kind: 'conflict',
+			message: expect.stringMatching(/1 quote/)
+		});
 		expect(await Store.findByPk(usStore.id)).not.toBeNull();
 		expect((await upkeep.listStores()).find((s) => s.id === usStore.id)?.quoteCount).toBe(1);
 	});
@@ -167,20 +355,52 @@ describe('quotes', () => {
 	async function setup() {
 		const me = await editor();
 		const places = await regionsAndStore();
-		await upkeep.createPart(me.id, { category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60', slug: 'lumen-60', specs: GPU_SPECS });
+		await upkeep.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 60',
+			slug: 'lumen-60',
+			specs: GPU_SPECS
+		});
 		await AuditEvent.destroy({ where: {} });
 		return { me, ...places };
 	}
 
-	// Minor units per ISO 4217 List One (CHECK-VALUES 10a, status V): USD 2, JPY 0, KWD 3.
-	it('converts decimal amounts with the currency exponent (USD 2, JPY 0, KWD 3; ISO 4217, CHECK-VALUES 10a, V)', async () => {
+	// Minor units per ISO 4217 List One (docs/sources.md 10a, status V): USD 2, JPY 0, KWD 3.
+	it('converts decimal amounts with the currency exponent (USD 2, JPY 0, KWD 3; ISO 4217, docs/sources.md 10a, V)', async () => {
 		const { me, usStore, jpStore, kwStore } = await setup();
-		const usd = await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(usStore.id), amount: '249.99', shipping: '5', taxIncluded: '', observedOn: '2024-01-02' });
-		const jpy = await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(jpStore.id), amount: '38980', taxIncluded: 'on', observedOn: '2024-01-02' });
-		const kwd = await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(kwStore.id), amount: '76.125', observedOn: '2024-01-02' });
+		const usd = await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(usStore.id),
+			amount: '249.99',
+			shipping: '5',
+			taxIncluded: '',
+			observedOn: '2024-01-02'
+		});
+		const jpy = await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(jpStore.id),
+			amount: '38980',
+			taxIncluded: 'on',
+			observedOn: '2024-01-02'
+		});
+		const kwd = await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(kwStore.id),
+			amount: '76.125',
+			observedOn: '2024-01-02'
+		});
 		expect([usd.kind, jpy.kind, kwd.kind]).toEqual(['ok', 'ok', 'ok']);
 		const quotes = await Quote.findAll({ order: [['id', 'ASC']] });
-		expect(quotes.map((q) => [Number(q.amountMinor), q.currency, Number(q.shippingMinor), q.taxIncluded, q.source])).toEqual([
+		expect(
+			quotes.map((q) => [
+				Number(q.amountMinor),
+				q.currency,
+				Number(q.shippingMinor),
+				q.taxIncluded,
+				q.source
+			])
+		).toEqual([
 			[24999, 'USD', 500, false, 'editor'],
 			[38980, 'JPY', 0, true, 'editor'],
 			[76125, 'KWD', 0, false, 'editor']
@@ -193,30 +413,93 @@ describe('quotes', () => {
 
 	it('refuses a price with more decimals than the currency allows ("12.345" USD, "100.5" JPY) and writes nothing', async () => {
 		const { me, usStore, jpStore } = await setup();
-		const usd = await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(usStore.id), amount: '12.345', observedOn: '2024-01-02' });
-		expect(usd).toEqual({ kind: 'invalid', issues: { amount: ['USD allows at most 2 decimals, e.g. 129.99.'] } });
-		const jpy = await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(jpStore.id), amount: '100.5', observedOn: '2024-01-02' });
-		expect(jpy).toEqual({ kind: 'invalid', issues: { amount: ['JPY has no minor unit: enter a whole amount, e.g. 15800.'] } });
-		const shipping = await upkeep.addQuote(me.id, { partSlug: 'lumen-60', storeId: String(usStore.id), amount: '12.34', shipping: '1.999', observedOn: '2024-01-02' });
-		expect(shipping).toMatchObject({ kind: 'invalid', issues: { shipping: [expect.stringMatching(/at most 2 decimals/)] } });
+		const usd = await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(usStore.id),
+			amount: '12.345',
+			observedOn: '2024-01-02'
+		});
+		expect(usd).toEqual({
+			kind: 'invalid',
+			issues: { amount: ['USD allows at most 2 decimals, e.g. 129.99.'] }
+		});
+		const jpy = await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(jpStore.id),
+			amount: '100.5',
+			observedOn: '2024-01-02'
+		});
+		expect(jpy).toEqual({
+			kind: 'invalid',
+			issues: { amount: ['JPY has no minor unit: enter a whole amount, e.g. 15800.'] }
+		});
+		const shipping = await upkeep.addQuote(me.id, {
+			partSlug: 'lumen-60',
+			storeId: String(usStore.id),
+			amount: '12.34',
+			shipping: '1.999',
+			observedOn: '2024-01-02'
+		});
+		expect(shipping).toMatchObject({
+			kind: 'invalid',
+			issues: { shipping: [expect.stringMatching(/at most 2 decimals/)] }
+		});
 		expect(await countRows('quotes')).toBe(0);
 		expect(await countRows('audit_events')).toBe(0);
 	});
 
 	it('refuses unknown currency, unknown or mismatched region, unknown part, bad and future dates', async () => {
 		const { me, usStore } = await setup();
-		const base = { partSlug: 'lumen-60', storeId: String(usStore.id), amount: '249.99', observedOn: '2024-01-02' };
-		expect(await upkeep.addQuote(me.id, { ...base, currency: 'XYZ' })).toEqual({ kind: 'invalid', issues: { currency: ['Unknown currency code "XYZ".'] } });
-		expect(await upkeep.addQuote(me.id, { ...base, currency: 'dollars' })).toMatchObject({ kind: 'invalid', issues: { currency: [expect.stringMatching(/three-letter/)] } });
-		expect(await upkeep.addQuote(me.id, { ...base, regionCode: 'zz' })).toEqual({ kind: 'invalid', issues: { regionCode: ['Unknown region "zz".'] } });
-		expect(await upkeep.addQuote(me.id, { ...base, regionCode: 'jp' })).toMatchObject({ kind: 'invalid', issues: { regionCode: [expect.stringMatching(/sells in United States/)] } });
-		expect(await upkeep.addQuote(me.id, { ...base, partSlug: 'no-such-part' })).toMatchObject({ kind: 'invalid', issues: { partSlug: [expect.stringMatching(/No part/)] } });
-		expect(await upkeep.addQuote(me.id, { ...base, amount: '-5' })).toMatchObject({ kind: 'invalid', issues: { amount: [expect.any(String)] } });
-		expect(await upkeep.addQuote(me.id, { ...base, amount: '0.00' })).toMatchObject({ kind: 'invalid', issues: { amount: ['The price must be more than zero.'] } });
-		expect(await upkeep.addQuote(me.id, { ...base, observedOn: '2024-02-30' })).toMatchObject({ kind: 'invalid', issues: { observedOn: ['Enter a real date.'] } });
-		expect(await upkeep.addQuote(me.id, { ...base, observedOn: '2999-01-01' })).toMatchObject({ kind: 'invalid', issues: { observedOn: ['The day cannot be in the future.'] } });
-		expect(await upkeep.addQuote(me.id, { ...base, storeId: 'abc' })).toMatchObject({ kind: 'invalid', issues: { storeId: ['Unknown store.'] } });
-		expect(await upkeep.addQuote(me.id, { ...base, sneaky: '1' })).toMatchObject({ kind: 'invalid', issues: { _form: [expect.any(String)] } });
+		const base = {
+			partSlug: 'lumen-60',
+			storeId: String(usStore.id),
+			amount: '249.99',
+			observedOn: '2024-01-02'
+		};
+		expect(await upkeep.addQuote(me.id, { ...base, currency: 'XYZ' })).toEqual({
+			kind: 'invalid',
+			issues: { currency: ['Unknown currency code "XYZ".'] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, currency: 'dollars' })).toMatchObject({
+			kind: 'invalid',
+			issues: { currency: [expect.stringMatching(/three-letter/)] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, regionCode: 'zz' })).toEqual({
+			kind: 'invalid',
+			issues: { regionCode: ['Unknown region "zz".'] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, regionCode: 'jp' })).toMatchObject({
+			kind: 'invalid',
+			issues: { regionCode: [expect.stringMatching(/sells in United States/)] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, partSlug: 'no-such-part' })).toMatchObject({
+			kind: 'invalid',
+			issues: { partSlug: [expect.stringMatching(/No part/)] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, amount: '-5' })).toMatchObject({
+			kind: 'invalid',
+			issues: { amount: [expect.any(String)] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, amount: '0.00' })).toMatchObject({
+			kind: 'invalid',
+			issues: { amount: ['The price must be more than zero.'] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, observedOn: '2024-02-30' })).toMatchObject({
+			kind: 'invalid',
+			issues: { observedOn: ['Enter a real date.'] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, observedOn: '2999-01-01' })).toMatchObject({
+			kind: 'invalid',
+			issues: { observedOn: ['The day cannot be in the future.'] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, storeId: 'abc' })).toMatchObject({
+			kind: 'invalid',
+			issues: { storeId: ['Unknown store.'] }
+		});
+		expect(await upkeep.addQuote(me.id, { ...base, sneaky: '1' })).toMatchObject({
+			kind: 'invalid',
+			issues: { _form: [expect.any(String)] }
+		});
 		expect(await countRows('quotes')).toBe(0);
 		expect(await countRows('audit_events')).toBe(0);
 	});

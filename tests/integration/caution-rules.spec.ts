@@ -1,6 +1,9 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { AuditEvent, CautionRule, User, sequelize } from '../../src/lib/server/db';
-import { DEMO_CAUTION_RULES, up as seedDemoCautionRules } from '../../src/lib/server/db/seeders/2026.12.05T12.00.00.demo-caution-rules';
+import {
+	DEMO_CAUTION_RULES,
+	up as seedDemoCautionRules
+} from '../../src/lib/server/db/seeders/2026.12.05T12.00.00.demo-caution-rules';
 import { ruleFromForm } from '../../src/lib/schemas/caution-rules';
 import * as cautions from '../../src/lib/server/services/caution-rules';
 import * as fit from '../../src/lib/server/services/fit';
@@ -16,7 +19,8 @@ import { countRows, resetDatabase } from '../support/db';
 
 const RULE_FORM = {
 	title: 'K90 card with a quad-core CPU',
-	message: 'A K90 graphics card with fewer than six CPU cores: expect lower 1 % lows in busy scenes.',
+	message:
+		'A K90 graphics card with fewer than six CPU cores: expect lower 1 % lows in busy scenes.',
 	active: 'on',
 	'conditions.0.category': 'gpu',
 	'conditions.0.field': 'chip',
@@ -29,19 +33,43 @@ const RULE_FORM = {
 };
 
 const QUAD_CORE = {
-	socket: 'AM5', cores: 4, threads: 8, baseClockGhz: 3.8, boostClockGhz: 4.8, tdpW: 65,
-	memoryTypes: ['DDR5'], integratedGraphics: true, bundledCooler: true
+	socket: 'AM5',
+	cores: 4,
+	threads: 8,
+	baseClockGhz: 3.8,
+	boostClockGhz: 4.8,
+	tdpW: 65,
+	memoryTypes: ['DDR5'],
+	integratedGraphics: true,
+	bundledCooler: true
 };
 const K90_CARD = {
-	chip: 'K90', vramGb: 24, lengthMm: 320, slotWidth: 3, boardPowerW: 450,
-	powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 }, pcieGen: 5
+	chip: 'K90',
+	vramGb: 24,
+	lengthMm: 320,
+	slotWidth: 3,
+	boardPowerW: 450,
+	powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 },
+	pcieGen: 5
 };
 
 function fitInput(cores: number) {
 	return {
 		slots: [
-			{ category: 'cpu' as const, brand: 'Tarnwick', model: 'Vela 41', quantity: 1, specs: { ...QUAD_CORE, cores, threads: cores * 2 } },
-			{ category: 'gpu' as const, brand: 'Ferrant', model: 'Kestrel 24G', quantity: 1, specs: K90_CARD }
+			{
+				category: 'cpu' as const,
+				brand: 'Tarnwick',
+				model: 'Vela 41',
+				quantity: 1,
+				specs: { ...QUAD_CORE, cores, threads: cores * 2 }
+			},
+			{
+				category: 'gpu' as const,
+				brand: 'Ferrant',
+				model: 'Kestrel 24G',
+				quantity: 1,
+				specs: K90_CARD
+			}
 		]
 	};
 }
@@ -64,7 +92,12 @@ describe('caution rules service', () => {
 		const outcome = await cautions.createRule(me.id, ruleFromForm(RULE_FORM));
 		expect(outcome.kind).toBe('ok');
 		if (outcome.kind !== 'ok') return;
-		expect(outcome.rule).toMatchObject({ title: RULE_FORM.title, authorName: 'Eda Ledger', active: true, version: 1 });
+		expect(outcome.rule).toMatchObject({
+			title: RULE_FORM.title,
+			authorName: 'Eda Ledger',
+			active: true,
+			version: 1
+		});
 		const stored = await CautionRule.findByPk(outcome.rule.id);
 		expect(stored?.conditions).toEqual([
 			{ category: 'gpu', field: 'chip', operator: 'eq', value: 'K90' },
@@ -72,12 +105,22 @@ describe('caution rules service', () => {
 		]);
 		const events = await AuditEvent.findAll({ where: { action: 'caution_rule.created' } });
 		expect(events).toHaveLength(1);
-		expect(events[0]).toMatchObject({ actorId: me.id, subjectType: 'caution_rule', subjectId: String(outcome.rule.id) });
+		expect(events[0]).toMatchObject({
+			actorId: me.id,
+			subjectType: 'caution_rule',
+			subjectId: String(outcome.rule.id)
+		});
 		expect(events[0]?.after).toMatchObject({ title: RULE_FORM.title, message: RULE_FORM.message });
 
 		const findings = await cautionFindings(4);
 		expect(findings).toEqual([
-			expect.objectContaining({ severity: 'caution', message: RULE_FORM.message, authorName: 'Eda Ledger', cautionRuleId: outcome.rule.id, slots: ['gpu-2', 'cpu-1'] })
+			expect.objectContaining({
+				severity: 'caution',
+				message: RULE_FORM.message,
+				authorName: 'Eda Ledger',
+				cautionRuleId: outcome.rule.id,
+				slots: ['gpu-2', 'cpu-1']
+			})
 		]);
 		// Six cores: the rule does not hold, so no caution.
 		expect(await cautionFindings(6)).toEqual([]);
@@ -112,7 +155,10 @@ describe('caution rules service', () => {
 		const me = await editor();
 		expect((await cautions.createRule(me.id, ruleFromForm(RULE_FORM))).kind).toBe('ok');
 		const again = await cautions.createRule(me.id, ruleFromForm(RULE_FORM));
-		expect(again).toMatchObject({ kind: 'invalid', issues: { title: [expect.stringMatching(/already exists/)] } });
+		expect(again).toMatchObject({
+			kind: 'invalid',
+			issues: { title: [expect.stringMatching(/already exists/)] }
+		});
 		expect(await countRows('caution_rules')).toBe(1);
 		expect(await AuditEvent.count({ where: { action: 'caution_rule.created' } })).toBe(1);
 	});
@@ -122,10 +168,17 @@ describe('caution rules service', () => {
 		const other = await editor('Oli Marsh', 'oli@example.test');
 		const created = await cautions.createRule(author.id, ruleFromForm(RULE_FORM));
 		if (created.kind !== 'ok') throw new Error('create failed');
-		const changed = { ...RULE_FORM, message: 'Changed text: expect lower 1 % lows with fewer than eight cores.', 'conditions.1.value': '8' };
+		const changed = {
+			...RULE_FORM,
+			message: 'Changed text: expect lower 1 % lows with fewer than eight cores.',
+			'conditions.1.value': '8'
+		};
 
 		const saved = await cautions.updateRule(other.id, created.rule.id, 1, ruleFromForm(changed));
-		expect(saved).toMatchObject({ kind: 'ok', rule: { version: 2, authorName: 'Eda Ledger', message: changed.message } });
+		expect(saved).toMatchObject({
+			kind: 'ok',
+			rule: { version: 2, authorName: 'Eda Ledger', message: changed.message }
+		});
 		const event = await AuditEvent.findOne({ where: { action: 'caution_rule.updated' } });
 		expect(event).toMatchObject({ actorId: other.id, subjectId: String(created.rule.id) });
 		expect(event?.before).toMatchObject({ message: RULE_FORM.message });
@@ -139,7 +192,9 @@ describe('caution rules service', () => {
 		expect((await CautionRule.findByPk(created.rule.id))?.message).toBe(changed.message);
 		expect(await AuditEvent.count({ where: { action: 'caution_rule.updated' } })).toBe(1);
 
-		expect((await cautions.updateRule(author.id, 99999, 1, ruleFromForm(RULE_FORM))).kind).toBe('not_found');
+		expect((await cautions.updateRule(author.id, 99999, 1, ruleFromForm(RULE_FORM))).kind).toBe(
+			'not_found'
+		);
 	});
 
 	it('deactivates (the fit service stops showing it), activates again, and deletes, each audited', async () => {
@@ -159,7 +214,12 @@ describe('caution rules service', () => {
 		expect((await cautions.deleteRule(me.id, id, 3)).kind).toBe('ok');
 		expect(await countRows('caution_rules')).toBe(0);
 		const actions = (await AuditEvent.findAll({ order: [['id', 'ASC']] })).map((e) => e.action);
-		expect(actions).toEqual(['caution_rule.created', 'caution_rule.deactivated', 'caution_rule.activated', 'caution_rule.deleted']);
+		expect(actions).toEqual([
+			'caution_rule.created',
+			'caution_rule.deactivated',
+			'caution_rule.activated',
+			'caution_rule.deleted'
+		]);
 		const deleted = await AuditEvent.findOne({ where: { action: 'caution_rule.deleted' } });
 		expect(deleted?.before).toMatchObject({ title: RULE_FORM.title });
 		expect((await cautions.deleteRule(me.id, id, 3)).kind).toBe('not_found');
@@ -169,7 +229,10 @@ describe('caution rules service', () => {
 		const me = await editor();
 		const gone = await editor('Gone Person', 'gone@example.test');
 		const a = await cautions.createRule(me.id, ruleFromForm({ ...RULE_FORM, title: 'Zeta rule' }));
-		const b = await cautions.createRule(gone.id, ruleFromForm({ ...RULE_FORM, title: 'Alpha rule' }));
+		const b = await cautions.createRule(
+			gone.id,
+			ruleFromForm({ ...RULE_FORM, title: 'Alpha rule' })
+		);
 		if (a.kind !== 'ok' || b.kind !== 'ok') throw new Error('create failed');
 		await cautions.setActive(me.id, b.rule.id, 1, false);
 		await gone.destroy();
@@ -187,12 +250,31 @@ describe('caution rules service', () => {
 		const rules = await cautions.listRules();
 		expect(rules.map((r) => r.title).sort()).toEqual(DEMO_CAUTION_RULES.map((r) => r.title).sort());
 		expect(rules.every((r) => r.authorName === 'Dario Vesely')).toBe(true);
-		const { describeCondition, cautionRuleInput } = await import('../../src/lib/schemas/caution-rules');
+		const { describeCondition, cautionRuleInput } =
+			await import('../../src/lib/schemas/caution-rules');
 		for (const r of DEMO_CAUTION_RULES) {
 			// Each seeded condition survives the same check the editor form gets.
-			const asForm = r.conditions.map((c) => ({ category: c.category, field: c.field, operator: c.operator, value: Array.isArray(c.value) ? c.value.join(', ') : typeof c.value === 'boolean' ? (c.value ? 'yes' : 'no') : String(c.value) }));
-			const parsed = cautionRuleInput.safeParse({ title: r.title, message: r.message, active: true, conditions: asForm });
-			expect(parsed.error?.issues ?? [], r.conditions.map(describeCondition).join('; ')).toEqual([]);
+			const asForm = r.conditions.map((c) => ({
+				category: c.category,
+				field: c.field,
+				operator: c.operator,
+				value: Array.isArray(c.value)
+					? c.value.join(', ')
+					: typeof c.value === 'boolean'
+						? c.value
+							? 'yes'
+							: 'no'
+						: String(c.value)
+			}));
+			const parsed = cautionRuleInput.safeParse({
+				title: r.title,
+				message: r.message,
+				active: true,
+				conditions: asForm
+			});
+			expect(parsed.error?.issues ?? [], r.conditions.map(describeCondition).join('; ')).toEqual(
+				[]
+			);
 			expect(parsed.data?.conditions).toEqual(r.conditions);
 		}
 	});
@@ -206,14 +288,27 @@ describe('caution rules service', () => {
 		// Any CPU with a card of 1 GB or more: holds for every demo build with a graphics card.
 		const created = await cautions.createRule(
 			demoEditor.id,
-			ruleFromForm({ ...RULE_FORM, 'conditions.0.field': 'vramGb', 'conditions.0.operator': 'gte', 'conditions.0.value': '1', 'conditions.1.operator': 'gte', 'conditions.1.value': '1' })
+			ruleFromForm({
+				...RULE_FORM,
+				'conditions.0.field': 'vramGb',
+				'conditions.0.operator': 'gte',
+				'conditions.0.value': '1',
+				'conditions.1.operator': 'gte',
+				'conditions.1.value': '1'
+			})
 		);
 		if (created.kind !== 'ok') throw new Error(JSON.stringify(created));
 		const after = await guides.getGuidePage('balanced-1440p-am5', null);
 		if (after.kind !== 'ok') throw new Error(after.kind);
 		const fitAfter = after.page.extras.fit;
 		const added = fitAfter.findings.filter((f) => f.cautionRuleId === created.rule.id);
-		expect(added).toEqual([expect.objectContaining({ severity: 'caution', message: RULE_FORM.message, authorName: 'Dario Vesely' })]);
+		expect(added).toEqual([
+			expect.objectContaining({
+				severity: 'caution',
+				message: RULE_FORM.message,
+				authorName: 'Dario Vesely'
+			})
+		]);
 		expect(added[0]?.slots.map((k) => fitAfter.slotLabels[k])).toHaveLength(2);
 		expect(fitAfter.summary.caution).toBe(before.page.extras.fit.summary.caution + 1);
 		expect(fitAfter.findings.length).toBe(before.page.extras.fit.findings.length + 1);
@@ -234,9 +329,17 @@ describe('caution rules service', () => {
 		for (const card of cards) {
 			const outcome = await guides.getGuidePage(card.slug, null);
 			if (outcome.kind !== 'ok') throw new Error(`${card.slug}: ${outcome.kind}`);
-			expect(outcome.page.extras.fit.findings.filter((f) => f.cautionRuleId !== undefined), card.slug).toEqual([]);
-			const altMessages = outcome.page.guide.slots.flatMap((s) => s.alternates.flatMap((a) => a.dropIn?.changed.map((c) => c.message) ?? []));
-			expect(altMessages.filter((m) => messages.has(m)), card.slug).toEqual([]);
+			expect(
+				outcome.page.extras.fit.findings.filter((f) => f.cautionRuleId !== undefined),
+				card.slug
+			).toEqual([]);
+			const altMessages = outcome.page.guide.slots.flatMap((s) =>
+				s.alternates.flatMap((a) => a.dropIn?.changed.map((c) => c.message) ?? [])
+			);
+			expect(
+				altMessages.filter((m) => messages.has(m)),
+				card.slug
+			).toEqual([]);
 		}
 	});
 });

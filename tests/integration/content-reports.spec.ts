@@ -13,7 +13,7 @@ import { countRows, resetDatabase } from '../support/db';
  * Content reports and hiding on the real MariaDB with the demo community: reports, the
  * one-open-report rule, the editors' decisions with their audit events, and what a hidden
  * guide looks like to the public, its author and editors. No computation here needs a
- * published source: these are product rules from the issue (DESIGN.md, issue 6).
+ * published source: these are product rules from the issue (docs/architecture.md, issue 6).
  */
 const SLUG = 'steady-1080p-starter'; // written by author@slotwise.test in the demo data
 const REASON = 'The PSU section recommends bridging the PS_ON pin with a paperclip.';
@@ -34,7 +34,12 @@ async function user(email: string): Promise<User> {
 const input = { category: 'unsafe' as const, detail: 'It tells readers to open the PSU case.' };
 const subject = () => ({ type: 'guide' as const, id: guideId });
 
-async function publicSlugs(): Promise<{ list: string[]; browse: string[]; feed: string; home: string[] }> {
+async function publicSlugs(): Promise<{
+	list: string[];
+	browse: string[];
+	feed: string;
+	home: string[];
+}> {
 	const browse = await guideBrowse.browse(browseQuery);
 	if (browse.kind !== 'ok') throw new Error(browse.kind);
 	const home = await guideBrowse.homeLists(10);
@@ -47,7 +52,10 @@ async function publicSlugs(): Promise<{ list: string[]; browse: string[]; feed: 
 }
 
 async function auditActions(): Promise<string[]> {
-	const rows = await AuditEvent.findAll({ where: { subjectType: 'guide', subjectId: guideId }, order: [['id', 'ASC']] });
+	const rows = await AuditEvent.findAll({
+		where: { subjectType: 'guide', subjectId: guideId },
+		order: [['id', 'ASC']]
+	});
 	return rows.map((r) => r.action);
 }
 
@@ -60,7 +68,8 @@ describe('content reports on the real MariaDB', () => {
 		author = await user('author@slotwise.test');
 		admin = await user('admin@slotwise.test');
 		const guide = await Guide.findOne({ where: { slug: SLUG } });
-		if (!guide || guide.authorId !== author.id) throw new Error('demo guide missing or not by the demo author');
+		if (!guide || guide.authorId !== author.id)
+			throw new Error('demo guide missing or not by the demo author');
 		guideId = String(guide.id);
 	});
 
@@ -73,9 +82,14 @@ describe('content reports on the real MariaDB', () => {
 	it('files a report once; a repeat while it is open files nothing and says so', async () => {
 		const first = await contentReports.report(reader.id, 'guide', SLUG, input);
 		expect(first).toMatchObject({ kind: 'ok', created: true });
-		const again = await contentReports.report(reader.id, 'guide', SLUG, { category: 'spam', detail: 'Second try at it.' });
+		const again = await contentReports.report(reader.id, 'guide', SLUG, {
+			category: 'spam',
+			detail: 'Second try at it.'
+		});
 		expect(again).toMatchObject({ kind: 'ok', created: false });
-		expect(again.kind === 'ok' && first.kind === 'ok' && again.reportId === first.reportId).toBe(true);
+		expect(again.kind === 'ok' && first.kind === 'ok' && again.reportId === first.reportId).toBe(
+			true
+		);
 		expect(await countRows('content_reports')).toBe(1);
 
 		// Two submits at the same moment: the unique index lets exactly one in.
@@ -89,11 +103,20 @@ describe('content reports on the real MariaDB', () => {
 	});
 
 	it('refuses own content, unknown guides, and subject types that do not exist yet', async () => {
-		expect(await contentReports.report(author.id, 'guide', SLUG, input)).toMatchObject({ kind: 'conflict' });
-		expect(await contentReports.report(reader.id, 'guide', 'no-such-guide', input)).toEqual({ kind: 'not_found' });
+		expect(await contentReports.report(author.id, 'guide', SLUG, input)).toMatchObject({
+			kind: 'conflict'
+		});
+		expect(await contentReports.report(reader.id, 'guide', 'no-such-guide', input)).toEqual({
+			kind: 'not_found'
+		});
 		const photo = await contentReports.report(reader.id, 'photo', '1', input);
-		expect(photo).toMatchObject({ kind: 'conflict', message: expect.stringContaining('photos are not open yet') });
-		expect(await contentReports.hide(editor.id, { type: 'photo', id: '1' }, REASON)).toMatchObject({ kind: 'conflict' });
+		expect(photo).toMatchObject({
+			kind: 'conflict',
+			message: expect.stringContaining('photos are not open yet')
+		});
+		expect(await contentReports.hide(editor.id, { type: 'photo', id: '1' }, REASON)).toMatchObject({
+			kind: 'conflict'
+		});
 		expect(await countRows('content_reports')).toBe(0);
 	});
 
@@ -102,15 +125,27 @@ describe('content reports on the real MariaDB', () => {
 		expect(bad.success).toBe(false);
 		const paths = bad.success ? [] : bad.error.issues.map((i) => i.path.join('.'));
 		expect(paths.sort()).toEqual(['category', 'detail']);
-		expect(reportInput.safeParse({ category: 'unsafe', detail: 'Long enough detail.', extra: '1' }).success).toBe(false);
-		expect(hideInput.safeParse({ subjectType: 'guide', subjectId: '1', reason: 'too short' }).success).toBe(false);
-		expect(hideInput.safeParse({ subjectType: 'guide', subjectId: '0x1', reason: REASON }).success).toBe(false);
-		expect(hideInput.safeParse({ subjectType: 'guide', subjectId: '12', reason: REASON }).success).toBe(true);
+		expect(
+			reportInput.safeParse({ category: 'unsafe', detail: 'Long enough detail.', extra: '1' })
+				.success
+		).toBe(false);
+		expect(
+			hideInput.safeParse({ subjectType: 'guide', subjectId: '1', reason: 'too short' }).success
+		).toBe(false);
+		expect(
+			hideInput.safeParse({ subjectType: 'guide', subjectId: '0x1', reason: REASON }).success
+		).toBe(false);
+		expect(
+			hideInput.safeParse({ subjectType: 'guide', subjectId: '12', reason: REASON }).success
+		).toBe(true);
 	});
 
 	it('groups open reports by subject with a count for the editors', async () => {
 		await contentReports.report(reader.id, 'guide', SLUG, input);
-		await contentReports.report(editor.id, 'guide', SLUG, { category: 'misleading', detail: 'Wrong RAM speed listed.' });
+		await contentReports.report(editor.id, 'guide', SLUG, {
+			category: 'misleading',
+			detail: 'Wrong RAM speed listed.'
+		});
 		await contentReports.report(reader.id, 'guide', 'pocket-itx-1440p', input);
 		const queue = await contentReports.listQueue({ state: 'open', page: 1 });
 		expect(queue.total).toBe(2);
@@ -120,7 +155,9 @@ describe('content reports on the real MariaDB', () => {
 		expect(group?.reports.map((r) => r.category).sort()).toEqual(['misleading', 'unsafe']);
 		expect((await contentReports.listQueue({ state: 'closed', page: 1 })).total).toBe(0);
 		// One group per page: two pages.
-		expect((await contentReports.listQueue({ state: 'open', page: 2, perPage: 1 })).items).toHaveLength(1);
+		expect(
+			(await contentReports.listQueue({ state: 'open', page: 2, perPage: 1 })).items
+		).toHaveLength(1);
 	});
 
 	it('hides a guide: gone from every public list and page, shown to its author and editors with the reason', async () => {
@@ -129,7 +166,10 @@ describe('content reports on the real MariaDB', () => {
 		expect(before.list).toContain(SLUG);
 		expect(before.feed).toContain(`/guides/${SLUG}`);
 
-		expect(await contentReports.hide(editor.id, subject(), REASON)).toEqual({ kind: 'ok', closedReports: 1 });
+		expect(await contentReports.hide(editor.id, subject(), REASON)).toEqual({
+			kind: 'ok',
+			closedReports: 1
+		});
 
 		const after = await publicSlugs();
 		expect(after.list).not.toContain(SLUG);
@@ -140,11 +180,16 @@ describe('content reports on the real MariaDB', () => {
 		expect(await guides.getGuidePage(SLUG, null)).toEqual({ kind: 'not_found' });
 		expect(await guides.getPriced(SLUG, null)).toEqual({ kind: 'not_found' });
 		expect(await guides.getPublishedBySlug(SLUG)).toBeNull();
-		expect(await guides.getGuidePage(SLUG, null, undefined, { id: reader.id, role: 'reader' })).toEqual({ kind: 'not_found' });
+		expect(
+			await guides.getGuidePage(SLUG, null, undefined, { id: reader.id, role: 'reader' })
+		).toEqual({ kind: 'not_found' });
 		expect((await guides.getRevisionDiff(SLUG, 1, 1)).kind).toBe('not_found');
 
 		for (const viewer of [author, editor, admin]) {
-			const page = await guides.getGuidePage(SLUG, null, undefined, { id: viewer.id, role: viewer.role });
+			const page = await guides.getGuidePage(SLUG, null, undefined, {
+				id: viewer.id,
+				role: viewer.role
+			});
 			expect(page.kind).toBe('ok');
 			if (page.kind === 'ok') expect(page.page.hidden?.reason).toBe(REASON);
 		}
@@ -152,7 +197,9 @@ describe('content reports on the real MariaDB', () => {
 		expect(mine.find((g) => g.slug === SLUG)?.hiddenReason).toBe(REASON);
 
 		// A hidden guide cannot be reported (the public cannot see it) and cannot be hidden twice.
-		expect(await contentReports.report(admin.id, 'guide', SLUG, input)).toEqual({ kind: 'not_found' });
+		expect(await contentReports.report(admin.id, 'guide', SLUG, input)).toEqual({
+			kind: 'not_found'
+		});
 		expect(await contentReports.hide(admin.id, subject(), REASON)).toMatchObject({
 			kind: 'conflict',
 			message: expect.stringContaining('already hidden')
@@ -176,22 +223,34 @@ describe('content reports on the real MariaDB', () => {
 		expect((await guides.listPublished()).map((g) => g.slug)).toContain(SLUG);
 		const page = await guides.getGuidePage(SLUG, null);
 		expect(page.kind === 'ok' && page.page.hidden).toBeNull();
-		expect((await guides.listByAuthor(author.id)).find((g) => g.slug === SLUG)?.hiddenReason).toBeNull();
+		expect(
+			(await guides.listByAuthor(author.id)).find((g) => g.slug === SLUG)?.hiddenReason
+		).toBeNull();
 
 		expect(await contentReports.restore(editor.id, subject())).toMatchObject({ kind: 'conflict' });
 		const restored = await AuditEvent.findOne({ where: { action: 'guide.restored' } });
-		expect(restored).toMatchObject({ actorId: admin.id, before: { hidden: true, hiddenReason: REASON }, after: { hidden: false } });
+		expect(restored).toMatchObject({
+			actorId: admin.id,
+			before: { hidden: true, hiddenReason: REASON },
+			after: { hidden: false }
+		});
 		expect(await auditActions()).toEqual(['guide.hidden', 'guide.restored']);
 
 		// The earlier report is closed, so the same reader may report the visible guide again.
-		expect(await contentReports.report(reader.id, 'guide', SLUG, input)).toMatchObject({ kind: 'ok', created: true });
+		expect(await contentReports.report(reader.id, 'guide', SLUG, input)).toMatchObject({
+			kind: 'ok',
+			created: true
+		});
 		expect(await ContentReport.count({ where: { reporterId: reader.id } })).toBe(2);
 	});
 
 	it('dismisses the open reports once: of two editors deciding at once, one wins', async () => {
 		await contentReports.report(reader.id, 'guide', SLUG, input);
 		await contentReports.report(admin.id, 'guide', SLUG, input);
-		const [a, b] = await Promise.all([contentReports.dismiss(editor.id, subject()), contentReports.dismiss(admin.id, subject())]);
+		const [a, b] = await Promise.all([
+			contentReports.dismiss(editor.id, subject()),
+			contentReports.dismiss(admin.id, subject())
+		]);
 		const outcomes = [a, b].map((o) => o.kind).sort();
 		expect(outcomes).toEqual(['conflict', 'ok']);
 		expect([a, b].find((o) => o.kind === 'ok')).toMatchObject({ dismissed: 2 });
@@ -201,7 +260,9 @@ describe('content reports on the real MariaDB', () => {
 		expect((await guides.listPublished()).map((g) => g.slug)).toContain(SLUG);
 		const closed = await contentReports.listQueue({ state: 'closed', page: 1 });
 		expect(closed.items[0]).toMatchObject({ reportCount: 2 });
-		expect(closed.items[0]?.reports.every((r) => r.state === 'dismissed' && r.decidedBy !== null)).toBe(true);
+		expect(
+			closed.items[0]?.reports.every((r) => r.state === 'dismissed' && r.decidedBy !== null)
+		).toBe(true);
 	});
 
 	it('two editors hiding at once: one hides, the other is told, one audit event', async () => {
@@ -211,6 +272,8 @@ describe('content reports on the real MariaDB', () => {
 		]);
 		expect([a.kind, b.kind].sort()).toEqual(['conflict', 'ok']);
 		expect(await auditActions()).toEqual(['guide.hidden']);
-		expect(await contentReports.hide(editor.id, { type: 'guide', id: '999999' }, REASON)).toEqual({ kind: 'not_found' });
+		expect(await contentReports.hide(editor.id, { type: 'guide', id: '999999' }, REASON)).toEqual({
+			kind: 'not_found'
+		});
 	});
 });

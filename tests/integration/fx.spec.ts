@@ -1,6 +1,6 @@
 /*
  * Exchange rates end to end: the ECB client fetches over real HTTP from the local ECB fake
- * (scripts/ecb-fake.ts, serving the real reference rates of 2 January 2024 — CHECK-VALUES 10c,
+ * (scripts/ecb-fake.ts, serving the real reference rates of 2 January 2024 — docs/sources.md 10c,
  * status V), and the fx service stores them in the real MariaDB.
  *
  * This file starts nothing itself. `npm test` starts the fake (scripts/lib.sh start_ecb_fake)
@@ -25,7 +25,7 @@ const FAKE_URL =
 // The service reads ECB_RATES_URL itself, as the app does; npm test sets it.
 process.env.ECB_RATES_URL = FAKE_URL;
 
-// CHECK-VALUES 10c (V): ECB reference rates, 2 January 2024.
+// docs/sources.md 10c (V): ECB reference rates, 2 January 2024.
 const PUBLISHED: Record<string, string> = {
 	AUD: '1.6147',
 	CAD: '1.4565',
@@ -67,7 +67,8 @@ beforeAll(async () => {
 	} catch (e) {
 		throw new Error(
 			`The local ECB fake does not answer at ${health} (${String(e)}). ` +
-				'`npm test` starts it; by hand run `bash scripts/ecb-fake.sh start`.'
+				'`npm test` starts it; by hand run `bash scripts/ecb-fake.sh start`.',
+			{ cause: e }
 		);
 	}
 });

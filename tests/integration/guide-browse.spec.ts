@@ -3,7 +3,10 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { FrameResult, Guide, GuideRevision, GuideSlot, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
-import { parseGuideBrowseLenient, parseGuideBrowseStrict } from '../../src/lib/schemas/guide-browse';
+import {
+	parseGuideBrowseLenient,
+	parseGuideBrowseStrict
+} from '../../src/lib/schemas/guide-browse';
 import type { GuideBrowseQuery } from '../../src/lib/schemas/guide-browse';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import { atomFeed, xmlEscape } from '../../src/lib/server/services/guide-feed';
@@ -15,7 +18,12 @@ import { resetDatabase } from '../support/db';
  * 2 Jan 2024 demo rates. Every expected total below is the guide service's own figure for
  * that region (guides.getPriced), so browse and the guide page can never disagree.
  */
-const query = (q: Partial<GuideBrowseQuery>): GuideBrowseQuery => ({ tag: [], sort: 'newest', page: 1, ...q });
+const query = (q: Partial<GuideBrowseQuery>): GuideBrowseQuery => ({
+	tag: [],
+	sort: 'newest',
+	page: 1,
+	...q
+});
 
 async function browse(q: Partial<GuideBrowseQuery>) {
 	const outcome = await guideBrowse.browse(query(q));
@@ -46,12 +54,16 @@ describe('guide browse on the real MariaDB', () => {
 
 	it('filters by every ticked tag and by base region', async () => {
 		const gaming1440 = await browse({ tag: ['1440p', 'gaming'] });
-		const expected = demoGuides.filter((g) => g.tags.includes('1440p') && g.tags.includes('gaming')).map((g) => g.slug);
+		const expected = demoGuides
+			.filter((g) => g.tags.includes('1440p') && g.tags.includes('gaming'))
+			.map((g) => g.slug);
 		expect(gaming1440.items.map((g) => g.slug).sort()).toEqual(expected.sort());
 		expect(expected.length).toBeGreaterThan(1);
 
 		const fromUk = await browse({ base: 'uk' });
-		expect(fromUk.items.map((g) => g.slug)).toEqual(demoGuides.filter((g) => g.baseRegionCode === 'uk').map((g) => g.slug));
+		expect(fromUk.items.map((g) => g.slug)).toEqual(
+			demoGuides.filter((g) => g.baseRegionCode === 'uk').map((g) => g.slug)
+		);
 		expect((await browse({ tag: ['no-such-tag'] })).items).toEqual([]);
 	});
 
@@ -59,17 +71,29 @@ describe('guide browse on the real MariaDB', () => {
 		const all = await browse({ region: 'de', sort: 'total' });
 		const totals = await Promise.all(all.items.map((g) => totalIn(g.slug, 'de')));
 		expect(all.items.map((g) => g.picksTotal?.amountMinor)).toEqual(totals);
-		expect(all.items.every((g) => g.picksTotal?.currency === 'EUR' && g.pricedIn.code === 'de')).toBe(true);
+		expect(
+			all.items.every((g) => g.picksTotal?.currency === 'EUR' && g.pricedIn.code === 'de')
+		).toBe(true);
 		// Lowest total first.
 		expect(totals).toEqual([...totals].sort((a, b) => a - b));
 
 		// A budget exactly at the second cheapest total (whole euros, rounded outward) keeps it.
 		const second = totals[1] ?? 0;
-		const within = await browse({ region: 'de', min: Math.floor(second / 100), max: Math.ceil(second / 100), sort: 'total' });
+		const within = await browse({
+			region: 'de',
+			min: Math.floor(second / 100),
+			max: Math.ceil(second / 100),
+			sort: 'total'
+		});
 		expect(within.items.map((g) => g.slug)).toEqual([all.items[1]?.slug]);
 
 		const upToSecond = await browse({ region: 'de', max: Math.ceil(second / 100) });
-		expect(upToSecond.items.map((g) => g.slug).sort()).toEqual(all.items.slice(0, 2).map((g) => g.slug).sort());
+		expect(upToSecond.items.map((g) => g.slug).sort()).toEqual(
+			all.items
+				.slice(0, 2)
+				.map((g) => g.slug)
+				.sort()
+		);
 		expect((await browse({ region: 'de', max: 1 })).total).toBe(0);
 	});
 
@@ -87,15 +111,22 @@ describe('guide browse on the real MariaDB', () => {
 		const expected = await Promise.all(
 			result.items.map(async (g) => {
 				const guide = await Guide.findOne({ where: { slug: g.slug } });
-				const frames = await FrameResult.findAll({ where: { revisionId: guide?.publishedRevisionId ?? 0 } });
+				const frames = await FrameResult.findAll({
+					where: { revisionId: guide?.publishedRevisionId ?? 0 }
+				});
 				const priced = await guides.getPriced(g.slug, 'de');
 				if (priced.kind !== 'ok') throw new Error(priced.kind);
 				const total = priced.guide.unpricedSlots === 0 ? priced.guide.picksTotal : null;
-				if (frames.length === 0 || !total) return { slug: g.slug, publishedAt: g.publishedAt, value: null };
+				if (frames.length === 0 || !total)
+					return { slug: g.slug, publishedAt: g.publishedAt, value: null };
 				expect(total.currency).toBe('EUR');
 				const product = frames.reduce((p, f) => p * (f.avgFpsTenths / 10), 1);
 				const geometricMean = product ** (1 / frames.length);
-				return { slug: g.slug, publishedAt: g.publishedAt, value: (geometricMean * 100) / (total.amountMinor / 100) };
+				return {
+					slug: g.slug,
+					publishedAt: g.publishedAt,
+					value: (geometricMean * 100) / (total.amountMinor / 100)
+				};
 			})
 		);
 		const valued = expected.filter((e) => e.value !== null);
@@ -104,7 +135,9 @@ describe('guide browse on the real MariaDB', () => {
 
 		const order = [...expected].sort(
 			(a, b) =>
-				(b.value ?? -Infinity) - (a.value ?? -Infinity) || b.publishedAt.localeCompare(a.publishedAt) || a.slug.localeCompare(b.slug)
+				(b.value ?? -Infinity) - (a.value ?? -Infinity) ||
+				b.publishedAt.localeCompare(a.publishedAt) ||
+				a.slug.localeCompare(b.slug)
 		);
 		expect(result.items.map((g) => g.slug)).toEqual(order.map((e) => e.slug));
 		for (const [i, g] of result.items.entries()) {
@@ -120,27 +153,50 @@ describe('guide browse on the real MariaDB', () => {
 
 	it('answers unknown regions as such, not with an empty list', async () => {
 		expect((await guideBrowse.browse(query({ region: 'zz' }))).kind).toBe('unknown_region');
-		expect(await guideBrowse.browse(query({ base: 'zz' }))).toEqual({ kind: 'unknown_region', field: 'base' });
+		expect(await guideBrowse.browse(query({ base: 'zz' }))).toEqual({
+			kind: 'unknown_region',
+			field: 'base'
+		});
 	});
 
 	it('pages by 12 and reports the page count', async () => {
 		// Republish copies of the first demo guide until there are 27 published guides.
 		const source = await Guide.findOne({ where: { slug: demoGuides[0]?.slug ?? '' } });
-		const slots = await GuideSlot.findAll({ where: { revisionId: source?.publishedRevisionId ?? 0 } });
+		const slots = await GuideSlot.findAll({
+			where: { revisionId: source?.publishedRevisionId ?? 0 }
+		});
 		for (let i = 0; i < 27 - demoGuides.length; i++) {
 			const copy = await Guide.create({
-				slug: `copy-${i}`, authorId: source?.authorId ?? null, title: `Copy ${i}`, summary: 'A copy for paging.',
-				targetBudgetMinor: 70000, baseRegionId: source?.baseRegionId ?? 0, tags: ['paging'], state: 'published',
+				slug: `copy-${i}`,
+				authorId: source?.authorId ?? null,
+				title: `Copy ${i}`,
+				summary: 'A copy for paging.',
+				targetBudgetMinor: 70000,
+				baseRegionId: source?.baseRegionId ?? 0,
+				tags: ['paging'],
+				state: 'published',
 				publishedRevisionId: null
 			});
 			const revision = await GuideRevision.create({
-				guideId: copy.id, number: 1, buildNotesMd: '', submittedAt: null, reviewedAt: null,
-				publishedAt: new Date(Date.UTC(2026, 0, 1 + i)), reviewerId: null, reviewNote: null
+				guideId: copy.id,
+				number: 1,
+				buildNotesMd: '',
+				submittedAt: null,
+				reviewedAt: null,
+				publishedAt: new Date(Date.UTC(2026, 0, 1 + i)),
+				reviewerId: null,
+				reviewNote: null
 			});
 			await GuideSlot.bulkCreate(
 				slots.map((s) => ({
-					revisionId: revision.id, category: s.category, label: s.label, position: s.position,
-					quantity: s.quantity, pickPartId: s.pickPartId, reason: s.reason, priceQuoteId: s.priceQuoteId
+					revisionId: revision.id,
+					category: s.category,
+					label: s.label,
+					position: s.position,
+					quantity: s.quantity,
+					pickPartId: s.pickPartId,
+					reason: s.reason,
+					priceQuoteId: s.priceQuoteId
 				}))
 			);
 			await copy.update({ publishedRevisionId: revision.id });
@@ -149,7 +205,9 @@ describe('guide browse on the real MariaDB', () => {
 		expect([first.total, first.pageCount, first.items.length]).toEqual([27, 3, 12]);
 		const third = await browse({ page: 3 });
 		expect(third.items.length).toBe(3);
-		const seen = [...first.items, ...(await browse({ page: 2 })).items, ...third.items].map((g) => g.slug);
+		const seen = [...first.items, ...(await browse({ page: 2 })).items, ...third.items].map(
+			(g) => g.slug
+		);
 		expect(new Set(seen).size).toBe(27);
 		expect((await browse({ page: 4 })).items).toEqual([]);
 		expect((await browse({ tag: ['paging'] })).total).toBe(27 - demoGuides.length);
@@ -158,7 +216,9 @@ describe('guide browse on the real MariaDB', () => {
 
 describe('guide browse query', () => {
 	it('the API parse refuses bad, unknown and repeated parameters with field issues', () => {
-		const bad = parseGuideBrowseStrict(new URLSearchParams('min=abc&sort=cheapest&page=0&x=1&base=de&base=us'));
+		const bad = parseGuideBrowseStrict(
+			new URLSearchParams('min=abc&sort=cheapest&page=0&x=1&base=de&base=us')
+		);
 		expect(bad.ok).toBe(false);
 		if (bad.ok) return;
 		expect(Object.keys(bad.issues).sort()).toEqual(['_form', 'base', 'min', 'page', 'sort'].sort());
@@ -176,12 +236,19 @@ describe('guide browse query', () => {
 			ok: true,
 			query: { region: 'de', tag: [], sort: 'value', page: 1 }
 		});
-		const ok = parseGuideBrowseStrict(new URLSearchParams('region=DE&min=500&max=900&tag=1440p&tag=gaming&sort=total'));
-		expect(ok).toEqual({ ok: true, query: { region: 'de', min: 500, max: 900, tag: ['1440p', 'gaming'], sort: 'total', page: 1 } });
+		const ok = parseGuideBrowseStrict(
+			new URLSearchParams('region=DE&min=500&max=900&tag=1440p&tag=gaming&sort=total')
+		);
+		expect(ok).toEqual({
+			ok: true,
+			query: { region: 'de', min: 500, max: 900, tag: ['1440p', 'gaming'], sort: 'total', page: 1 }
+		});
 	});
 
 	it('the page parse drops what is bad, says why, and keeps the rest', () => {
-		const { query: q, issues } = parseGuideBrowseLenient(new URLSearchParams('region=de&min=-5&max=900&tag=<b>&page=2'));
+		const { query: q, issues } = parseGuideBrowseLenient(
+			new URLSearchParams('region=de&min=-5&max=900&tag=<b>&page=2')
+		);
 		expect(q).toEqual({ region: 'de', max: 900, tag: [], sort: 'newest', page: 2 });
 		expect(Object.keys(issues).sort()).toEqual(['min', 'tag']);
 	});
@@ -201,7 +268,9 @@ describe('Atom feed of published guides', () => {
 		expect(feed.self).toBe('http://slotwise.test/guides/feed.xml');
 		expect(feed.url).toBe('http://slotwise.test/guides');
 		const published = await guides.listPublished();
-		expect(feed.items.map((i) => i.url).sort()).toEqual(published.map((g) => `http://slotwise.test/guides/${g.slug}`).sort());
+		expect(feed.items.map((i) => i.url).sort()).toEqual(
+			published.map((g) => `http://slotwise.test/guides/${g.slug}`).sort()
+		);
 		for (const g of published) {
 			const item = feed.items.find((i) => i.url?.endsWith(`/guides/${g.slug}`));
 			expect(item?.title).toBe(g.title);
@@ -215,7 +284,10 @@ describe('Atom feed of published guides', () => {
 
 	it('escapes markup in titles so it reads as text and the XML stays well formed', async () => {
 		const demo = demoGuides[0];
-		await Guide.update({ title: 'Fast & <b>quiet</b> "build"' }, { where: { slug: demo?.slug ?? '' } });
+		await Guide.update(
+			{ title: 'Fast & <b>quiet</b> "build"' },
+			{ where: { slug: demo?.slug ?? '' } }
+		);
 		const xml = await atomFeed('http://slotwise.test');
 		expect(xml).toContain('Fast &amp; &lt;b&gt;quiet&lt;/b&gt; &quot;build&quot;');
 		const item = parseFeed(xml).items.find((i) => i.url?.endsWith(`/guides/${demo?.slug}`));

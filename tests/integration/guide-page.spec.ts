@@ -1,6 +1,15 @@
 import { Op } from 'sequelize';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Region, SlotAlternate, sequelize } from '../../src/lib/server/db';
+import {
+	FrameResult,
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Region,
+	SlotAlternate,
+	sequelize
+} from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { demoResults } from '../../src/lib/server/db/seeders/demo-data/results';
@@ -52,20 +61,51 @@ async function guideWithSlots(slug: string, slotCount: number): Promise<void> {
 			{ transaction }
 		);
 		const revision = await GuideRevision.create(
-			{ guideId: guide.id, number: 1, buildNotesMd: 'x', buildNotesHtml: '<p>x</p>', submittedAt: new Date(), reviewedAt: new Date(), publishedAt: new Date(), reviewerId: null, reviewNote: null },
+			{
+				guideId: guide.id,
+				number: 1,
+				buildNotesMd: 'x',
+				buildNotesHtml: '<p>x</p>',
+				submittedAt: new Date(),
+				reviewedAt: new Date(),
+				publishedAt: new Date(),
+				reviewerId: null,
+				reviewNote: null
+			},
 			{ transaction }
 		);
 		for (let i = 0; i < slotCount; i++) {
 			const s = demoSlots[i % demoSlots.length] as GuideSlot & { alternates: SlotAlternate[] };
 			const slot = await GuideSlot.create(
-				{ revisionId: revision.id, category: s.category, label: `${s.label} ${i + 1}`, position: i + 1, quantity: 1, pickPartId: s.pickPartId, reason: s.reason, priceQuoteId: s.priceQuoteId },
+				{
+					revisionId: revision.id,
+					category: s.category,
+					label: `${s.label} ${i + 1}`,
+					position: i + 1,
+					quantity: 1,
+					pickPartId: s.pickPartId,
+					reason: s.reason,
+					priceQuoteId: s.priceQuoteId
+				},
 				{ transaction }
 			);
 			for (const a of s.alternates) {
-				await SlotAlternate.create({ slotId: slot.id, partId: a.partId, rank: a.rank, reasonTag: a.reasonTag, note: a.note }, { transaction });
+				await SlotAlternate.create(
+					{ slotId: slot.id, partId: a.partId, rank: a.rank, reasonTag: a.reasonTag, note: a.note },
+					{ transaction }
+				);
 			}
 		}
-		await FrameResult.create({ revisionId: revision.id, workload: 'Hollow Meridian', resolution: '1920x1080', avgFpsTenths: 600, low1FpsTenths: 450 }, { transaction });
+		await FrameResult.create(
+			{
+				revisionId: revision.id,
+				workload: 'Hollow Meridian',
+				resolution: '1920x1080',
+				avgFpsTenths: 600,
+				low1FpsTenths: 450
+			},
+			{ transaction }
+		);
 		await guide.update({ publishedRevisionId: revision.id }, { transaction });
 	});
 }
@@ -85,12 +125,16 @@ describe('guide page service on the real MariaDB', () => {
 	});
 
 	it('backfills notes rendered as null in an older seed without touching other fields', async () => {
-		const revision = await GuideRevision.findOne({ include: [{ model: Guide, as: 'guide', where: { slug: 'pocket-itx-1440p' } }] });
+		const revision = await GuideRevision.findOne({
+			include: [{ model: Guide, as: 'guide', where: { slug: 'pocket-itx-1440p' } }]
+		});
 		if (!revision) throw new Error('no revision');
 		await revision.update({ buildNotesHtml: null });
 		// Re-running the community seed (guide exists, so it is not re-created) fills the missing HTML.
-				await seedDemoCommunity(sequelize);
-		const after = await GuideRevision.findOne({ include: [{ model: Guide, as: 'guide', where: { slug: 'pocket-itx-1440p' } }] });
+		await seedDemoCommunity(sequelize);
+		const after = await GuideRevision.findOne({
+			include: [{ model: Guide, as: 'guide', where: { slug: 'pocket-itx-1440p' } }]
+		});
 		expect(after?.buildNotesHtml).toBe(renderMarkdown(after?.buildNotesMd ?? ''));
 	});
 
@@ -99,7 +143,8 @@ describe('guide page service on the real MariaDB', () => {
 		const { findings, summary } = p.extras.fit;
 		expect(findings.length).toBeGreaterThan(0);
 		expect(summary.ok + summary.caution + summary.conflict).toBe(findings.length);
-		for (const f of findings) for (const key of f.slots) expect(p.extras.fit.slotLabels[key]).toBeTruthy();
+		for (const f of findings)
+			for (const key of f.slots) expect(p.extras.fit.slotLabels[key]).toBeTruthy();
 		expect(p.extras.power.loadW).toBeGreaterThan(0);
 		expect(p.extras.power.recommendedW).toBeGreaterThanOrEqual(p.extras.power.loadW);
 		expect(p.extras.power.psuRatedW).toBeGreaterThan(0);
@@ -111,7 +156,9 @@ describe('guide page service on the real MariaDB', () => {
 	it('shows the seeded frame results and thermals, and value against the region total', async () => {
 		const p = await page('steady-1080p-starter', null);
 		const seeded = demoResults['steady-1080p-starter'];
-		expect(p.extras.frames.map((f) => f.averageFps)).toEqual(seeded?.frames.map((f) => f.avgFpsTenths / 10));
+		expect(p.extras.frames.map((f) => f.averageFps)).toEqual(
+			seeded?.frames.map((f) => f.avgFpsTenths / 10)
+		);
 		expect(p.extras.thermals).toHaveLength(seeded?.thermals.length ?? -1);
 		const value = p.guide.value;
 		expect(value?.resultCount).toBe(seeded?.frames.length);
@@ -149,8 +196,13 @@ describe('guide page service on the real MariaDB', () => {
 		const guide = await Guide.findOne({ where: { slug: 'quiet-4k-play-and-work' } });
 		const first = await GuideRevision.findByPk(guide?.publishedRevisionId ?? 0);
 		if (!guide || !first) throw new Error('demo guide missing');
-		const slots = await GuideSlot.findAll({ where: { revisionId: first.id }, order: [['position', 'ASC']] });
-		const other = await Part.findOne({ where: { category: slots[0]?.category, id: { [Op.ne]: slots[0]?.pickPartId ?? 0 } } });
+		const slots = await GuideSlot.findAll({
+			where: { revisionId: first.id },
+			order: [['position', 'ASC']]
+		});
+		const other = await Part.findOne({
+			where: { category: slots[0]?.category, id: { [Op.ne]: slots[0]?.pickPartId ?? 0 } }
+		});
 		const second = await GuideRevision.create({
 			guideId: guide.id,
 			number: 2,
@@ -184,11 +236,23 @@ describe('guide page service on the real MariaDB', () => {
 		const kinds = outcome.diff.slots.map((c) => `${c.kind}:${c.label}`);
 		expect(kinds).toContain(`removed:${slots.at(-1)?.label}`);
 		const changedFirst = outcome.diff.slots.find((c) => c.label === slots[0]?.label);
-		if (other) expect(changedFirst?.kind === 'changed' && changedFirst.fields.map((f) => f.field)).toContain('pick');
+		if (other)
+			expect(changedFirst?.kind === 'changed' && changedFirst.fields.map((f) => f.field)).toContain(
+				'pick'
+			);
 		const changedSecond = outcome.diff.slots.find((c) => c.label === slots[1]?.label);
-		expect(changedSecond?.kind === 'changed' && changedSecond.fields).toContainEqual({ field: 'quantity', from: slots[1]?.quantity, to: (slots[1]?.quantity ?? 0) + 1 });
-		expect(outcome.diff.notes).toContainEqual({ kind: 'added', text: 'Re-seat the card after transport.' });
-		expect(await guides.getRevisionDiff('quiet-4k-play-and-work', 1, 9)).toEqual({ kind: 'not_found' });
+		expect(changedSecond?.kind === 'changed' && changedSecond.fields).toContainEqual({
+			field: 'quantity',
+			from: slots[1]?.quantity,
+			to: (slots[1]?.quantity ?? 0) + 1
+		});
+		expect(outcome.diff.notes).toContainEqual({
+			kind: 'added',
+			text: 'Re-seat the card after transport.'
+		});
+		expect(await guides.getRevisionDiff('quiet-4k-play-and-work', 1, 9)).toEqual({
+			kind: 'not_found'
+		});
 		expect(await guides.getRevisionDiff('no-such-guide', 1, 2)).toEqual({ kind: 'not_found' });
 	});
 
@@ -202,12 +266,16 @@ describe('guide page service on the real MariaDB', () => {
 			expect(forty.result.guide.slots).toHaveLength(40);
 			expect(forty.queries.length).toBe(eight.queries.length);
 			expect(eight.queries.length).toBeLessThanOrEqual(12);
-			console.info(`guide page, region ${region ?? 'base'}: ${eight.queries.length} queries for 8 and 40 slots`);
+			console.info(
+				`guide page, region ${region ?? 'base'}: ${eight.queries.length} queries for 8 and 40 slots`
+			);
 		}
 	});
 
 	it('refuses an unknown region and an unknown guide', async () => {
-		expect(await guides.getGuidePage('steady-1080p-starter', 'zz')).toEqual({ kind: 'unknown_region' });
+		expect(await guides.getGuidePage('steady-1080p-starter', 'zz')).toEqual({
+			kind: 'unknown_region'
+		});
 		expect(await guides.getGuidePage('no-such-guide', null)).toEqual({ kind: 'not_found' });
 		expect(await Region.count()).toBeGreaterThan(0);
 	});

@@ -21,7 +21,8 @@ let editor: User;
 let admin: User;
 let slotsOfDemo: DraftInput['slots'];
 const LINKS = { guidesUrl: 'http://127.0.0.1/my/guides' };
-const queue = (q: Partial<Record<string, unknown>> = {}) => reviews.listQueue(reviewQueueQuery.parse(q));
+const queue = (q: Partial<Record<string, unknown>> = {}) =>
+	reviews.listQueue(reviewQueueQuery.parse(q));
 const decision = (d: Record<string, unknown>) => decisionInput.parse(d);
 
 async function freshDemo() {
@@ -41,7 +42,11 @@ async function freshDemo() {
 			pickPartId: s.pickPartId,
 			reason: s.reason,
 			priceQuote: s.priceQuote,
-			alternates: s.alternates.map((a) => ({ partId: a.partId, reasonTag: a.reasonTag, note: a.note }))
+			alternates: s.alternates.map((a) => ({
+				partId: a.partId,
+				reasonTag: a.reasonTag,
+				note: a.note
+			}))
 		}))
 	);
 }
@@ -54,15 +59,33 @@ function input(overrides: Partial<DraftInput> = {}): DraftInput {
 		baseRegion: 'us',
 		tags: ['1080p'],
 		disclosure: 'none',
-		buildNotes: { firmware: 'Update firmware.', assembly: 'Seat the CPU.', cabling: '', display: '' },
+		buildNotes: {
+			firmware: 'Update firmware.',
+			assembly: 'Seat the CPU.',
+			cabling: '',
+			display: ''
+		},
 		slots: slotsOfDemo,
 		...overrides
 	});
 }
 
 /** A new guide by `owner`, saved and submitted; returns its slug and pending revision id. */
-async function submitted(owner: User, title = 'Review me'): Promise<{ slug: string; revisionId: number }> {
-	const made = await drafts.createGuide(owner.id, createGuideInput.parse({ title, summary: 'x', targetBudget: '800', baseRegion: 'us', tags: [], disclosure: 'none' }));
+async function submitted(
+	owner: User,
+	title = 'Review me'
+): Promise<{ slug: string; revisionId: number }> {
+	const made = await drafts.createGuide(
+		owner.id,
+		createGuideInput.parse({
+			title,
+			summary: 'x',
+			targetBudget: '800',
+			baseRegion: 'us',
+			tags: [],
+			disclosure: 'none'
+		})
+	);
 	if (made.kind !== 'created') throw new Error(JSON.stringify(made));
 	const saved = await drafts.saveDraft(owner.id, made.slug, input({ title }), made.version);
 	if (saved.kind !== 'saved') throw new Error(JSON.stringify(saved));
@@ -73,7 +96,10 @@ async function submitted(owner: User, title = 'Review me'): Promise<{ slug: stri
 
 async function pendingId(slug: string): Promise<number> {
 	const guide = (await Guide.findOne({ where: { slug } })) as Guide;
-	const revision = await GuideRevision.findOne({ where: { guideId: guide.id, reviewedAt: null }, order: [['number', 'DESC']] });
+	const revision = await GuideRevision.findOne({
+		where: { guideId: guide.id, reviewedAt: null },
+		order: [['number', 'DESC']]
+	});
 	return revision?.id ?? 0;
 }
 
@@ -87,31 +113,73 @@ describe('review workflow', () => {
 		expect(await guideState(slug)).toBe('in_review');
 		await waitForMessage({ to: author.email, subject: /^Your guide is in the review queue$/ });
 		const waiting = await queue();
-		expect(waiting.items.map((i) => [i.slug, i.kind, i.resubmitted])).toEqual([[slug, 'new', false]]);
+		expect(waiting.items.map((i) => [i.slug, i.kind, i.resubmitted])).toEqual([
+			[slug, 'new', false]
+		]);
 
-		const sentBack = await reviews.decide(editor, revisionId, decision({ decision: 'request_changes', note: 'Add a cooler note.', slotNotes: [{ label: 'CPU', note: 'Say why six cores.' }] }), LINKS);
+		const sentBack = await reviews.decide(
+			editor,
+			revisionId,
+			decision({
+				decision: 'request_changes',
+				note: 'Add a cooler note.',
+				slotNotes: [{ label: 'CPU', note: 'Say why six cores.' }]
+			}),
+			LINKS
+		);
 		expect(sentBack).toMatchObject({ kind: 'ok', guideState: 'changes_requested', mailed: true });
-		const mail = await waitForMessage({ to: author.email, subject: /^An editor asked for changes to your guide$/ });
+		const mail = await waitForMessage({
+			to: author.email,
+			subject: /^An editor asked for changes to your guide$/
+		});
 		expect(mail.text).toContain('Add a cooler note.');
 		expect(mail.text).toContain('Say why six cores.');
 		expect((await queue()).total).toBe(0);
 
 		// The author's dashboard shows the note; after an edit it shows what changed.
 		const editable = await drafts.getDraft(author.id, slug);
-		const changedSlots = slotsOfDemo.map((s, i) => (i === 0 ? { ...s, reason: 'Six cores run every game in the list.' } : s));
-		const saved = await drafts.saveDraft(author.id, slug, input({ slots: changedSlots }), editable?.version ?? 0);
+		const changedSlots = slotsOfDemo.map((s, i) =>
+			i === 0 ? { ...s, reason: 'Six cores run every game in the list.' } : s
+		);
+		const saved = await drafts.saveDraft(
+			author.id,
+			slug,
+			input({ slots: changedSlots }),
+			editable?.version ?? 0
+		);
 		if (saved.kind !== 'saved') throw new Error(saved.kind);
-		const [card] = await reviews.authorDashboard(author.id).then((all) => all.filter((g) => g.slug === slug));
-		expect(card?.lastDecision).toMatchObject({ decision: 'request_changes', note: 'Add a cooler note.', slotNotes: [{ label: 'CPU', note: 'Say why six cores.' }] });
+		const [card] = await reviews
+			.authorDashboard(author.id)
+			.then((all) => all.filter((g) => g.slug === slug));
+		expect(card?.lastDecision).toMatchObject({
+			decision: 'request_changes',
+			note: 'Add a cooler note.',
+			slotNotes: [{ label: 'CPU', note: 'Say why six cores.' }]
+		});
 		expect(card?.changedSinceDecision?.slots).toEqual([
-			{ kind: 'changed', label: 'CPU', fields: [{ field: 'reason', from: slotsOfDemo[0]?.reason, to: 'Six cores run every game in the list.' }], alternates: [] }
+			{
+				kind: 'changed',
+				label: 'CPU',
+				fields: [
+					{
+						field: 'reason',
+						from: slotsOfDemo[0]?.reason,
+						to: 'Six cores run every game in the list.'
+					}
+				],
+				alternates: []
+			}
 		]);
 
 		const again = await drafts.submit(author.id, slug, saved.draft.version, LINKS);
 		expect(again.kind).toBe('submitted');
 		expect(await guideState(slug)).toBe('in_review');
 		const second = await pendingId(slug);
-		expect((await queue()).items[0]).toMatchObject({ revisionId: second, revisionNumber: 2, resubmitted: true });
+		expect((await queue()).items[0]).toMatchObject({
+			revisionId: second,
+			revisionNumber: 2,
+			resubmitted: true
+		});
 		const page = await reviews.getReview(editor, second, '127.0.0.1:4173');
 		expect(page?.sinceLastReview?.slots.map((s) => s.label)).toEqual(['CPU']);
 		expect(page?.diff.from).toBe(0); // a new guide: compared against nothing
@@ -123,20 +191,33 @@ describe('review workflow', () => {
 		expect(publicPage.kind).toBe('ok');
 		if (publicPage.kind === 'ok') expect(publicPage.page.guide.revisionNumber).toBe(2);
 
-		const trail = await AuditEvent.findAll({ where: { subjectType: 'guide_revision' }, order: [['id', 'ASC']] });
+		const trail = await AuditEvent.findAll({
+			where: { subjectType: 'guide_revision' },
+			order: [['id', 'ASC']]
+		});
 		expect(trail.map((e) => [e.action, e.actorId])).toEqual([
 			['guide_revision.changes_requested', editor.id],
 			['guide_revision.approved', editor.id]
 		]);
-		expect(trail[1]?.after).toMatchObject({ state: 'published', decision: 'approve', selfReviewOverride: false });
+		expect(trail[1]?.after).toMatchObject({
+			state: 'published',
+			decision: 'approve',
+			selfReviewOverride: false
+		});
 	});
 
 	it('answers a decision on a revision that is no longer pending with a conflict naming what happened', async () => {
 		const { revisionId } = await submitted(author);
 		await reviews.decide(editor, revisionId, decision({ decision: 'approve' }), LINKS);
-		const late = await reviews.decide(admin, revisionId, decision({ decision: 'decline', note: 'Too late.' }), LINKS);
+		const late = await reviews.decide(
+			admin,
+			revisionId,
+			decision({ decision: 'decline', note: 'Too late.' }),
+			LINKS
+		);
 		expect(late.kind).toBe('conflict');
-		if (late.kind === 'conflict') expect(late.message).toMatch(/^Revision 1 was already approved by Dario Vesely at /);
+		if (late.kind === 'conflict')
+			expect(late.message).toMatch(/^Revision 1 was already approved by Dario Vesely at /);
 		expect(await Review.count()).toBe(1);
 	});
 
@@ -144,7 +225,12 @@ describe('review workflow', () => {
 		const { slug, revisionId } = await submitted(author);
 		const results = await Promise.all([
 			reviews.decide(editor, revisionId, decision({ decision: 'approve' }), LINKS),
-			reviews.decide(admin, revisionId, decision({ decision: 'decline', note: 'Not this one.' }), LINKS)
+			reviews.decide(
+				admin,
+				revisionId,
+				decision({ decision: 'decline', note: 'Not this one.' }),
+				LINKS
+			)
 		]);
 		expect(results.map((r) => r.kind).sort()).toEqual(['conflict', 'ok']);
 		expect(await Review.count({ where: { revisionId } })).toBe(1);
@@ -154,28 +240,57 @@ describe('review workflow', () => {
 
 	it("refuses an editor's decision on their own guide; an admin's override works and is audited", async () => {
 		const mine = await submitted(editor, 'Editor wrote this');
-		const refused = await reviews.decide(editor, mine.revisionId, decision({ decision: 'approve' }), LINKS);
-		expect(refused).toEqual({ kind: 'forbidden', message: 'You wrote this guide, so another editor must review it.' });
+		const refused = await reviews.decide(
+			editor,
+			mine.revisionId,
+			decision({ decision: 'approve' }),
+			LINKS
+		);
+		expect(refused).toEqual({
+			kind: 'forbidden',
+			message: 'You wrote this guide, so another editor must review it.'
+		});
 		expect(await guideState(mine.slug)).toBe('in_review');
 
 		const adminsOwn = await submitted(admin, 'Admin wrote this');
 		const page = await reviews.getReview(admin, adminsOwn.revisionId, 'localhost');
 		expect(page).toMatchObject({ ownGuide: true, canDecide: true });
-		const override = await reviews.decide(admin, adminsOwn.revisionId, decision({ decision: 'approve' }), LINKS);
+		const override = await reviews.decide(
+			admin,
+			adminsOwn.revisionId,
+			decision({ decision: 'approve' }),
+			LINKS
+		);
 		expect(override.kind).toBe('ok');
-		expect(await Review.findOne({ where: { revisionId: adminsOwn.revisionId } })).toMatchObject({ selfReviewOverride: true });
-		const events = await AuditEvent.findAll({ where: { actorId: admin.id }, order: [['id', 'ASC']] });
-		expect(events.map((e) => e.action)).toEqual(['guide_revision.approved', 'review.self_review_override']);
+		expect(await Review.findOne({ where: { revisionId: adminsOwn.revisionId } })).toMatchObject({
+			selfReviewOverride: true
+		});
+		const events = await AuditEvent.findAll({
+			where: { actorId: admin.id },
+			order: [['id', 'ASC']]
+		});
+		expect(events.map((e) => e.action)).toEqual([
+			'guide_revision.approved',
+			'review.self_review_override'
+		]);
 	});
 
 	it('keeps a live revision up while a newer one is reviewed, declined or approved', async () => {
 		const live = (await Guide.findOne({ where: { slug: 'steady-1080p-starter' } })) as Guide;
 		const view = await drafts.getDraft(author.id, live.slug);
-		const saved = await drafts.saveDraft(author.id, live.slug, input({ title: live.title, slots: slotsOfDemo.slice(0, -1) }), view?.version ?? 0);
+		const saved = await drafts.saveDraft(
+			author.id,
+			live.slug,
+			input({ title: live.title, slots: slotsOfDemo.slice(0, -1) }),
+			view?.version ?? 0
+		);
 		if (saved.kind !== 'saved') throw new Error(saved.kind);
 		await drafts.submit(author.id, live.slug, saved.draft.version, LINKS);
 		// Submitting never publishes: the live revision is unchanged and the guide stays published.
-		expect(await Guide.findByPk(live.id)).toMatchObject({ state: 'published', publishedRevisionId: live.publishedRevisionId });
+		expect(await Guide.findByPk(live.id)).toMatchObject({
+			state: 'published',
+			publishedRevisionId: live.publishedRevisionId
+		});
 		const pending = await pendingId(live.slug);
 		expect((await queue({ kind: 'revision' })).items.map((i) => i.revisionId)).toEqual([pending]);
 		expect((await queue({ kind: 'new' })).total).toBe(0);
@@ -183,48 +298,111 @@ describe('review workflow', () => {
 		const page = await reviews.getReview(editor, pending, 'localhost');
 		expect(page?.diff.slots.filter((s) => s.kind === 'removed')).toHaveLength(1);
 
-		await reviews.decide(editor, pending, decision({ decision: 'decline', note: 'Keep the case slot.' }), LINKS);
-		expect(await Guide.findByPk(live.id)).toMatchObject({ state: 'published', publishedRevisionId: live.publishedRevisionId });
+		await reviews.decide(
+			editor,
+			pending,
+			decision({ decision: 'decline', note: 'Keep the case slot.' }),
+			LINKS
+		);
+		expect(await Guide.findByPk(live.id)).toMatchObject({
+			state: 'published',
+			publishedRevisionId: live.publishedRevisionId
+		});
 		await waitForMessage({ to: author.email, subject: /^About your guide revision$/ });
 	});
 
 	it('unpublishes a live guide back to the author and archives for good', async () => {
 		const slug = 'steady-1080p-starter';
-		const unpublished = await reviews.moderate(editor, slug, moderationInput.parse({ action: 'unpublish', reason: 'Prices are a year old.' }), LINKS);
+		const unpublished = await reviews.moderate(
+			editor,
+			slug,
+			moderationInput.parse({ action: 'unpublish', reason: 'Prices are a year old.' }),
+			LINKS
+		);
 		expect(unpublished).toMatchObject({ kind: 'ok', guideState: 'changes_requested' });
 		expect((await guides.getGuidePage(slug, null)).kind).toBe('not_found');
-		expect((await reviews.moderate(editor, slug, moderationInput.parse({ action: 'unpublish', reason: 'Again.' }), LINKS)).kind).toBe('conflict');
+		expect(
+			(
+				await reviews.moderate(
+					editor,
+					slug,
+					moderationInput.parse({ action: 'unpublish', reason: 'Again.' }),
+					LINKS
+				)
+			).kind
+		).toBe('conflict');
 		await waitForMessage({ to: author.email, subject: /^Your guide was unpublished$/ });
 
-		await reviews.moderate(editor, slug, moderationInput.parse({ action: 'archive', reason: 'Abandoned.' }), LINKS);
+		await reviews.moderate(
+			editor,
+			slug,
+			moderationInput.parse({ action: 'archive', reason: 'Abandoned.' }),
+			LINKS
+		);
 		expect(await guideState(slug)).toBe('archived');
 		const view = await drafts.getDraft(author.id, slug);
 		const refused = await drafts.saveDraft(author.id, slug, input(), view?.version ?? 0);
-		expect(refused).toEqual({ kind: 'invalid', issues: { _form: ['This guide was archived by an editor and can no longer be edited.'] } });
-		expect((await AuditEvent.findAll({ order: [['id', 'ASC']] })).map((e) => e.action)).toEqual(['guide.unpublished', 'guide.archived']);
+		expect(refused).toEqual({
+			kind: 'invalid',
+			issues: { _form: ['This guide was archived by an editor and can no longer be edited.'] }
+		});
+		expect((await AuditEvent.findAll({ order: [['id', 'ASC']] })).map((e) => e.action)).toEqual([
+			'guide.unpublished',
+			'guide.archived'
+		]);
 	});
 
 	it('flags old quotes and unknown links on the review page and shows the fit report and power budget', async () => {
 		const { revisionId } = await submitted(author);
-		const slots = slotsOfDemo.map((s, i) => (i === 0 && s.priceQuote ? { ...s, priceQuote: { ...s.priceQuote, observedAt: '2026-09-01' } } : s));
-		const page = await reviews.getReview(editor, revisionId, '127.0.0.1:4173', new Date('2026-12-02T00:00:00Z'));
+		const slots = slotsOfDemo.map((s, i) =>
+			i === 0 && s.priceQuote
+				? { ...s, priceQuote: { ...s.priceQuote, observedAt: '2026-09-01' } }
+				: s
+		);
+		const page = await reviews.getReview(
+			editor,
+			revisionId,
+			'127.0.0.1:4173',
+			new Date('2026-12-02T00:00:00Z')
+		);
 		expect(page?.fit.summary.conflict).toBe(0);
 		expect(page?.power.loadW).toBeGreaterThan(0);
 		// The demo quotes are recent; a resubmission with an old quote and a stray link is flagged.
 		const view = await drafts.getDraft(author.id, 'review-me');
-		await reviews.decide(editor, revisionId, decision({ decision: 'request_changes', note: 'Fix it.' }), LINKS);
+		await reviews.decide(
+			editor,
+			revisionId,
+			decision({ decision: 'request_changes', note: 'Fix it.' }),
+			LINKS
+		);
 		const saved = await drafts.saveDraft(
 			author.id,
 			'review-me',
-			input({ slots, buildNotes: { firmware: 'See https://stray-host.example/bios for the file.', assembly: 'Seat the CPU.', cabling: '', display: '' } }),
+			input({
+				slots,
+				buildNotes: {
+					firmware: 'See https://stray-host.example/bios for the file.',
+					assembly: 'Seat the CPU.',
+					cabling: '',
+					display: ''
+				}
+			}),
 			(await drafts.getDraft(author.id, 'review-me'))?.version ?? view?.version ?? 0
 		);
 		if (saved.kind !== 'saved') throw new Error(JSON.stringify(saved));
 		await drafts.submit(author.id, 'review-me', saved.draft.version, LINKS);
-		const flagged = await reviews.getReview(editor, await pendingId('review-me'), '127.0.0.1:4173', new Date('2026-12-02T00:00:00Z'));
+		const flagged = await reviews.getReview(
+			editor,
+			await pendingId('review-me'),
+			'127.0.0.1:4173',
+			new Date('2026-12-02T00:00:00Z')
+		);
 		expect(flagged?.flags.map((f) => f.kind).sort()).toEqual(['stale_quote', 'unknown_link']);
 		expect(flagged?.diff.from).toBe(0);
-		expect(flagged?.sinceLastReview?.slots[0]).toMatchObject({ kind: 'changed', fields: [expect.objectContaining({ field: 'price' })] });
+		expect(flagged?.sinceLastReview?.slots[0]).toMatchObject({
+			kind: 'changed',
+			fields: [expect.objectContaining({ field: 'price' })]
+		});
 	});
 });
 
@@ -232,7 +410,12 @@ describe('decision input', () => {
 	it('refuses decisions without the reasons authors need', () => {
 		expect(decisionInput.safeParse({ decision: 'decline', note: '  ' }).success).toBe(false);
 		expect(decisionInput.safeParse({ decision: 'request_changes' }).success).toBe(false);
-		expect(decisionInput.safeParse({ decision: 'request_changes', slotNotes: [{ label: 'CPU', note: 'Why?' }] }).success).toBe(true);
+		expect(
+			decisionInput.safeParse({
+				decision: 'request_changes',
+				slotNotes: [{ label: 'CPU', note: 'Why?' }]
+			}).success
+		).toBe(true);
 		expect(decisionInput.safeParse({ decision: 'publish' }).success).toBe(false);
 		expect(moderationInput.safeParse({ action: 'archive', reason: '' }).success).toBe(false);
 	});

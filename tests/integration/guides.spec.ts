@@ -46,12 +46,18 @@ describe('guides service on the real MariaDB', () => {
 		for (const [i, slot] of (guide?.slots ?? []).entries()) {
 			expect(slot.position).toBe(i + 1);
 			expect(slot.price?.unit.currency).toBe(guide?.baseRegion.currency);
-			expect(slot.alternates.map((a) => a.part.slug)).toEqual(demo.slots[i]?.alternates.map((a) => a.partSlug));
+			expect(slot.alternates.map((a) => a.part.slug)).toEqual(
+				demo.slots[i]?.alternates.map((a) => a.partSlug)
+			);
 			expect(slot.alternates.map((a) => a.rank)).toEqual(slot.alternates.map((_, r) => r + 1));
 		}
 		const range = guide?.totalRange;
-		expect(range && guide?.picksTotal && range.min.amountMinor <= guide.picksTotal.amountMinor).toBe(true);
-		expect(range && guide?.picksTotal && range.max.amountMinor >= guide.picksTotal.amountMinor).toBe(true);
+		expect(
+			range && guide?.picksTotal && range.min.amountMinor <= guide.picksTotal.amountMinor
+		).toBe(true);
+		expect(
+			range && guide?.picksTotal && range.max.amountMinor >= guide.picksTotal.amountMinor
+		).toBe(true);
 	});
 
 	it('gives nothing for an unknown slug or a guide that is not published', async () => {
@@ -88,7 +94,10 @@ describe('guide pricing in another region (region adjust on the real MariaDB)', 
 		const quoted = g.slots.find((s) => s.price?.status === 'quoted');
 		expect(quoted, 'the demo has German quotes for some picks').toBeDefined();
 		if (quoted?.price) {
-			const latest = await Quote.findOne({ where: { partId: quoted.pick.id, regionId: de.id }, order: [['observedAt', 'DESC']] });
+			const latest = await Quote.findOne({
+				where: { partId: quoted.pick.id, regionId: de.id },
+				order: [['observedAt', 'DESC']]
+			});
 			expect(quoted.price.unit.amountMinor).toBe(Number(latest?.amountMinor));
 		}
 	});
@@ -105,8 +114,8 @@ describe('guide pricing in another region (region adjust on the real MariaDB)', 
 		const yen = base.guide.slots.find((s) => s.id === estimated.id)?.price?.unit.amountMinor ?? 0;
 		const de = await Region.findOne({ where: { code: 'de' } });
 		const factorBp = de?.categoryFactorsBp?.[estimated.category] ?? 10000;
-		// ECB 2 Jan 2024 (CHECK-VALUES 10c, V): 1 EUR = 155.68 JPY. JP consumption tax 10 %
-		// (value from memory), DE VAT 19 % (CHECK-VALUES 11a, V2). EUR cents =
+		// ECB 2 Jan 2024 (docs/sources.md 10c, V): 1 EUR = 155.68 JPY. JP consumption tax 10 %
+		// (value from memory), DE VAT 19 % (docs/sources.md 11a, V2). EUR cents =
 		// yen / 1.10 / 155.68 × factor × 1.19 × 100, rounded half-even once (D).
 		const exact = (yen / 1.1 / 155.68) * (factorBp / 10000) * 1.19 * 100;
 		expect(Math.abs(estimated.price.unit.amountMinor - exact)).toBeLessThanOrEqual(0.5 + 1e-6);
@@ -118,6 +127,8 @@ describe('guide pricing in another region (region adjust on the real MariaDB)', 
 		if (outcome.kind !== 'ok') throw new Error(outcome.kind);
 		expect(outcome.guide.picks.estimated).toBe(0);
 		expect(outcome.guide.regions.map((r) => r.code).sort()).toEqual(['de', 'jp', 'uk', 'us']);
-		expect(await guides.getPriced('steady-1080p-starter', 'zz')).toEqual({ kind: 'unknown_region' });
+		expect(await guides.getPriced('steady-1080p-starter', 'zz')).toEqual({
+			kind: 'unknown_region'
+		});
 	});
 });

@@ -8,7 +8,7 @@
  *   bash scripts/smtp-fake.sh start
  *   npx vitest run --project integration tests/integration/mail.spec.ts
  *
- * Refusal cases are SECURITY-CHECKLIST.md §8's list and ASVS v5.0.0 1.3.11 (mail injection).
+ * Refusal cases are docs/security.md §8's list and ASVS v5.0.0 1.3.11 (mail injection).
  */
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -43,7 +43,9 @@ const ATTACK_DOMAINS = /@(evil\.test|victim\.test|x\.test|y\.test)$/i;
 
 beforeAll(async () => {
 	const url = mailboxUrl(); // throws a clear message when MAILBOX_URL is unset
-	const health = await fetch(`${url}/health`, { signal: AbortSignal.timeout(3_000) }).catch(() => null);
+	const health = await fetch(`${url}/health`, { signal: AbortSignal.timeout(3_000) }).catch(
+		() => null
+	);
 	if (!health?.ok) {
 		throw new Error(
 			`The local SMTP fake does not answer at ${url}. npm test starts it; by hand run: bash scripts/smtp-fake.sh start`
@@ -73,7 +75,12 @@ function expectDeliveredOnce(message: MailboxMessage, to: string, sent: MailTemp
 
 const link = (path: string, token: string) => `${APP}${path}?token=${token}&from=mail`;
 
-const cases: { name: string; to: string; mail: MailTemplate; links: [prefix: string, url: string][] }[] = [
+const cases: {
+	name: string;
+	to: string;
+	mail: MailTemplate;
+	links: [prefix: string, url: string][];
+}[] = [
 	{
 		name: 'verifyEmail',
 		to: addr('verify'),
@@ -95,7 +102,10 @@ const cases: { name: string; to: string; mail: MailTemplate; links: [prefix: str
 	{
 		name: 'signUpWithExistingEmail',
 		to: addr('existing'),
-		mail: templates.signUpWithExistingEmail({ signInUrl: `${APP}/signin`, resetUrl: `${APP}/reset-password` }),
+		mail: templates.signUpWithExistingEmail({
+			signInUrl: `${APP}/signin`,
+			resetUrl: `${APP}/reset-password`
+		}),
 		links: [
 			['/signin', `${APP}/signin`],
 			['/reset-password', `${APP}/reset-password`]
@@ -110,7 +120,12 @@ const cases: { name: string; to: string; mail: MailTemplate; links: [prefix: str
 	{
 		name: 'authorRequestDecision (approved)',
 		to: addr('approved'),
-		mail: templates.authorRequestDecision({ name: 'Ana', approved: true, note: 'Welcome aboard.', url: `${APP}/` }),
+		mail: templates.authorRequestDecision({
+			name: 'Ana',
+			approved: true,
+			note: 'Welcome aboard.',
+			url: `${APP}/`
+		}),
 		links: [['/', `${APP}/`]]
 	},
 	{
@@ -135,14 +150,19 @@ describe('each account e-mail travels over SMTP to exactly one recipient', () =>
 		for (const [prefix, url] of links) {
 			expect(firstLink(message, prefix)).toBe(url);
 			// The HTML carries the same link, attribute-escaped (& → &amp;).
-			expect(message.html).toContain(`href="${url.replaceAll('&', '&amp;')}" style="color:#0E6F6A;`);
+			expect(message.html).toContain(
+				`href="${url.replaceAll('&', '&amp;')}" style="color:#0E6F6A;`
+			);
 		}
 		if (links.length === 0) expect(linksIn(message)).toEqual([]);
 		expect(await delivered(to)).toHaveLength(1);
 	});
 
 	it('states how long a one-time link lasts', async () => {
-		await send(addr('minutes'), templates.signInLink({ url: `${APP}/signin/link?token=t`, minutes: 10 }));
+		await send(
+			addr('minutes'),
+			templates.signInLink({ url: `${APP}/signin/link?token=t`, minutes: 10 })
+		);
 		const message = await waitForMessage({ to: addr('minutes'), subject: /sign-in link/ });
 		expect(message.text).toContain('It works once and expires in 10 minutes.');
 	});
@@ -154,12 +174,18 @@ describe('each account e-mail travels over SMTP to exactly one recipient', () =>
 	});
 
 	it('escapes a hostile name in the HTML and drops a link-like name from the greeting', async () => {
-		await send(addr('escaped'), templates.verifyEmail({ name: '<script>alert(1)</script> & co', url: `${APP}/v` }));
+		await send(
+			addr('escaped'),
+			templates.verifyEmail({ name: '<script>alert(1)</script> & co', url: `${APP}/v` })
+		);
 		const escaped = await waitForMessage({ to: addr('escaped') });
 		expect(escaped.html).toContain('Hello &lt;script&gt;alert(1)&lt;/script&gt; &amp; co,');
 		expect(escaped.html).not.toContain('<script');
 
-		await send(addr('linkname'), templates.verifyEmail({ name: 'Win a GPU at www.prize.example', url: `${APP}/v` }));
+		await send(
+			addr('linkname'),
+			templates.verifyEmail({ name: 'Win a GPU at www.prize.example', url: `${APP}/v` })
+		);
 		const plain = await waitForMessage({ to: addr('linkname') });
 		expect(plain.text.startsWith('Hello,\n')).toBe(true);
 		expect(plain.text).not.toContain('prize');
@@ -208,7 +234,10 @@ describe('send() refuses bad recipients before any SMTP traffic', () => {
 
 describe('headers stay ours', () => {
 	it('strips CR/LF from the subject, so no header can be added through it', async () => {
-		const sneaky = { ...templates.passwordChanged(), subject: 'Hello\r\nBcc: evil@y.test\r\n\r\nbody' };
+		const sneaky = {
+			...templates.passwordChanged(),
+			subject: 'Hello\r\nBcc: evil@y.test\r\n\r\nbody'
+		};
 		await send(addr('subject'), sneaky);
 		const message = await waitForMessage({ to: addr('subject') });
 		expect(message.subject).toBe('Hello Bcc: evil@y.test body');
@@ -218,7 +247,7 @@ describe('headers stay ours', () => {
 	});
 
 	it('passes one-click unsubscribe headers through unchanged', async () => {
-		// Exact header per RFC 8058 (CHECK-VALUES row 12, V2); List-Unsubscribe per RFC 2369.
+		// Exact header per RFC 8058 (docs/sources.md row 12, V2); List-Unsubscribe per RFC 2369.
 		await send(addr('list'), templates.passwordChanged(), {
 			'List-Unsubscribe': '<https://slotwise.test/unsubscribe/abc123>',
 			'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click'
@@ -236,7 +265,9 @@ describe('headers stay ours', () => {
 		['a non-ASCII value', { 'X-Name': 'Zoë' }]
 	])('refuses %s with MailHeaderError, and nothing arrives', async (_label, headers) => {
 		const to = addr(`headers-${randomUUID().slice(0, 6)}`);
-		await expect(send(to, templates.passwordChanged(), headers)).rejects.toBeInstanceOf(MailHeaderError);
+		await expect(send(to, templates.passwordChanged(), headers)).rejects.toBeInstanceOf(
+			MailHeaderError
+		);
 		await expectOnlySentinelArrives(to);
 	});
 });

@@ -3,7 +3,13 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { sequelize } from '../../src/lib/server/db';
 import { migrations } from '../../src/lib/server/db/migrations';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
-import { demoGuides, demoParts, demoRegions, demoStores, demoUsers } from '../../src/lib/server/db/seeders/demo-data';
+import {
+	demoGuides,
+	demoParts,
+	demoRegions,
+	demoStores,
+	demoUsers
+} from '../../src/lib/server/db/seeders/demo-data';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { migrator } from '../../src/lib/server/db/umzug';
 import { countRows, resetDatabase } from '../support/db';
@@ -27,7 +33,10 @@ async function tablesPresent(): Promise<string[]> {
 		'SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE()',
 		{ type: QueryTypes.SELECT }
 	);
-	return rows.map((r) => r.name).filter((n) => !n.startsWith('schema_')).sort();
+	return rows
+		.map((r) => r.name)
+		.filter((n) => !n.startsWith('schema_'))
+		.sort();
 }
 
 describe('migrations on the real MariaDB', () => {
@@ -89,9 +98,13 @@ describe('demo seed', () => {
 	});
 
 	it('stores demo passwords as argon2id hashes, never in clear', async () => {
-		const rows = await sequelize.query<{ password_hash: string }>('SELECT password_hash FROM users', {
-			type: QueryTypes.SELECT
-		});
-		for (const row of rows) expect(row.password_hash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
+		const rows = await sequelize.query<{ password_hash: string }>(
+			'SELECT password_hash FROM users',
+			{
+				type: QueryTypes.SELECT
+			}
+		);
+		for (const row of rows)
+			expect(row.password_hash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
 	});
 });

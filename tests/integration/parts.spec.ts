@@ -1,7 +1,22 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Guide, GuideRevision, GuideSlot, Part, Quote, Region, Store, sequelize } from '../../src/lib/server/db';
+import {
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	Store,
+	sequelize
+} from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
-import { demoGuides, demoParts, demoQuotes, demoRegions, demoStores } from '../../src/lib/server/db/seeders/demo-data';
+import {
+	demoGuides,
+	demoParts,
+	demoQuotes,
+	demoRegions,
+	demoStores
+} from '../../src/lib/server/db/seeders/demo-data';
 import type { DemoPart } from '../../src/lib/server/db/seeders/demo-data';
 import { parsePartSearchStrict } from '../../src/lib/schemas/parts';
 import * as parts from '../../src/lib/server/services/parts';
@@ -79,7 +94,11 @@ describe('parts catalog on the real MariaDB', () => {
 			for (const q of cases) {
 				const words = q.toLowerCase().split(/\s+/);
 				const expected = demoParts
-					.filter((p) => words.every((w) => p.brand.toLowerCase().includes(w) || p.model.toLowerCase().includes(w)))
+					.filter((p) =>
+						words.every(
+							(w) => p.brand.toLowerCase().includes(w) || p.model.toLowerCase().includes(w)
+						)
+					)
 					.sort(byBrandModel);
 				expect(expected.length, `demo data has matches for "${q}"`).toBeGreaterThan(0);
 				const { total, items } = await allPages({ q });
@@ -107,18 +126,66 @@ describe('parts catalog on the real MariaDB', () => {
 		// Each row: the URL query, and the same rule written out over the demo data.
 		const filterCases: [string, (p: DemoPart) => boolean][] = [
 			['category=cpu&socket=AM5', (p) => p.category === 'cpu' && spec(p, 'socket') === 'AM5'],
-			['category=cpu&socket=LGA1851&minCores=20', (p) => p.category === 'cpu' && spec(p, 'socket') === 'LGA1851' && Number(spec(p, 'cores')) >= 20],
-			['category=motherboard&socket=AM5&formFactor=Mini-ITX&memoryType=DDR5', (p) => p.category === 'motherboard' && spec(p, 'socket') === 'AM5' && spec(p, 'formFactor') === 'Mini-ITX' && spec(p, 'memoryType') === 'DDR5'],
-			['category=motherboard&memoryType=DDR4', (p) => p.category === 'motherboard' && spec(p, 'memoryType') === 'DDR4'],
-			['category=memory&memoryType=DDR5&minSpeedMts=6000', (p) => p.category === 'memory' && spec(p, 'type') === 'DDR5' && Number(spec(p, 'speedMts')) >= 6000],
+			[
+				'category=cpu&socket=LGA1851&minCores=20',
+				(p) =>
+					p.category === 'cpu' && spec(p, 'socket') === 'LGA1851' && Number(spec(p, 'cores')) >= 20
+			],
+			[
+				'category=motherboard&socket=AM5&formFactor=Mini-ITX&memoryType=DDR5',
+				(p) =>
+					p.category === 'motherboard' &&
+					spec(p, 'socket') === 'AM5' &&
+					spec(p, 'formFactor') === 'Mini-ITX' &&
+					spec(p, 'memoryType') === 'DDR5'
+			],
+			[
+				'category=motherboard&memoryType=DDR4',
+				(p) => p.category === 'motherboard' && spec(p, 'memoryType') === 'DDR4'
+			],
+			[
+				'category=memory&memoryType=DDR5&minSpeedMts=6000',
+				(p) =>
+					p.category === 'memory' &&
+					spec(p, 'type') === 'DDR5' &&
+					Number(spec(p, 'speedMts')) >= 6000
+			],
 			['category=gpu&minVramGb=16', (p) => p.category === 'gpu' && Number(spec(p, 'vramGb')) >= 16],
-			['category=gpu&maxLengthMm=250', (p) => p.category === 'gpu' && Number(spec(p, 'lengthMm')) <= 250],
-			['category=gpu&minVramGb=12&maxLengthMm=250', (p) => p.category === 'gpu' && Number(spec(p, 'vramGb')) >= 12 && Number(spec(p, 'lengthMm')) <= 250],
-			['category=psu&minRatedW=750&formFactor=SFX', (p) => p.category === 'psu' && Number(spec(p, 'ratedW')) >= 750 && spec(p, 'formFactor') === 'SFX'],
-			['category=case&boardFormFactor=ATX', (p) => p.category === 'case' && (spec(p, 'boardFormFactors') as string[]).includes('ATX')],
-			['category=case&fitsGpuLengthMm=336', (p) => p.category === 'case' && Number(spec(p, 'maxGpuLengthMm')) >= 336],
-			['category=storage&interface=sata', (p) => p.category === 'storage' && spec(p, 'interface') === 'sata'],
-			['category=storage&formFactor=m2-2280&q=cindral', (p) => p.category === 'storage' && spec(p, 'formFactor') === 'm2-2280' && p.brand === 'Cindral']
+			[
+				'category=gpu&maxLengthMm=250',
+				(p) => p.category === 'gpu' && Number(spec(p, 'lengthMm')) <= 250
+			],
+			[
+				'category=gpu&minVramGb=12&maxLengthMm=250',
+				(p) =>
+					p.category === 'gpu' &&
+					Number(spec(p, 'vramGb')) >= 12 &&
+					Number(spec(p, 'lengthMm')) <= 250
+			],
+			[
+				'category=psu&minRatedW=750&formFactor=SFX',
+				(p) =>
+					p.category === 'psu' &&
+					Number(spec(p, 'ratedW')) >= 750 &&
+					spec(p, 'formFactor') === 'SFX'
+			],
+			[
+				'category=case&boardFormFactor=ATX',
+				(p) => p.category === 'case' && (spec(p, 'boardFormFactors') as string[]).includes('ATX')
+			],
+			[
+				'category=case&fitsGpuLengthMm=336',
+				(p) => p.category === 'case' && Number(spec(p, 'maxGpuLengthMm')) >= 336
+			],
+			[
+				'category=storage&interface=sata',
+				(p) => p.category === 'storage' && spec(p, 'interface') === 'sata'
+			],
+			[
+				'category=storage&formFactor=m2-2280&q=cindral',
+				(p) =>
+					p.category === 'storage' && spec(p, 'formFactor') === 'm2-2280' && p.brand === 'Cindral'
+			]
 		];
 
 		it.each(filterCases)('spec filters: %s', async (params, rule) => {
@@ -133,18 +200,36 @@ describe('parts catalog on the real MariaDB', () => {
 		});
 
 		it('pages filtered results too', async () => {
-			const expected = demoParts.filter((p) => p.category === 'gpu' && Number(spec(p, 'vramGb')) >= 12).sort(byBrandModel);
-			const first = await parts.search({ q: '', category: 'gpu', specFilters: { minVramGb: 12 }, page: 1, perPage: 2 });
+			const expected = demoParts
+				.filter((p) => p.category === 'gpu' && Number(spec(p, 'vramGb')) >= 12)
+				.sort(byBrandModel);
+			const first = await parts.search({
+				q: '',
+				category: 'gpu',
+				specFilters: { minVramGb: 12 },
+				page: 1,
+				perPage: 2
+			});
 			expect(first.total).toBe(expected.length);
 			expect(first.pageCount).toBe(Math.ceil(expected.length / 2));
-			const last = await parts.search({ q: '', category: 'gpu', specFilters: { minVramGb: 12 }, page: 99, perPage: 2 });
+			const last = await parts.search({
+				q: '',
+				category: 'gpu',
+				specFilters: { minVramGb: 12 },
+				page: 99,
+				perPage: 2
+			});
 			expect(last.page).toBe(first.pageCount);
 			expect(slugsOf(last.items)).toEqual(slugsOf(expected.slice((first.pageCount - 1) * 2)));
 		});
 
 		it('refuses a spec filter outside its category (the schema stops these before the service)', async () => {
-			await expect(parts.search({ q: '', category: 'cpu', specFilters: { minVramGb: 8 }, page: 1 })).rejects.toThrow(RangeError);
-			await expect(parts.search({ q: '', specFilters: { socket: 'AM5' }, page: 1 })).rejects.toThrow(RangeError);
+			await expect(
+				parts.search({ q: '', category: 'cpu', specFilters: { minVramGb: 8 }, page: 1 })
+			).rejects.toThrow(RangeError);
+			await expect(
+				parts.search({ q: '', specFilters: { socket: 'AM5' }, page: 1 })
+			).rejects.toThrow(RangeError);
 		});
 
 		it('returns plain JSON-safe objects', async () => {
@@ -169,7 +254,12 @@ describe('parts catalog on the real MariaDB', () => {
 		it('returns the specs as stored', async () => {
 			for (const demo of demoParts.slice(0, 20)) {
 				const part = await parts.getBySlug(demo.slug);
-				expect(part).toMatchObject({ slug: demo.slug, category: demo.category, brand: demo.brand, model: demo.model });
+				expect(part).toMatchObject({
+					slug: demo.slug,
+					category: demo.category,
+					brand: demo.brand,
+					model: demo.model
+				});
 				expect(part?.specs).toEqual(demo.specs);
 			}
 		});
@@ -199,11 +289,15 @@ describe('parts catalog on the real MariaDB', () => {
 		it('shows a five-step history for the Cobalt C6 at Kestrel, in date order', async () => {
 			const part = await parts.getBySlug('solenne-cobalt-c6-8g');
 			const kestrel = part?.history.find((s) => s.storeName === 'Kestrel Components');
-			expect(kestrel?.points.map((p) => p.amountMinor)).toEqual([26999, 25999, 24999, 23999, 22999]);
+			expect(kestrel?.points.map((p) => p.amountMinor)).toEqual([
+				26999, 25999, 24999, 23999, 22999
+			]);
 			const dates = kestrel?.points.map((p) => p.observedAt) ?? [];
 			expect(dates).toEqual([...dates].sort());
 			// Four regions, four currencies: the chart draws one axis per currency.
-			expect(new Set(part?.history.map((s) => s.currency))).toEqual(new Set(['USD', 'EUR', 'GBP', 'JPY']));
+			expect(new Set(part?.history.map((s) => s.currency))).toEqual(
+				new Set(['USD', 'EUR', 'GBP', 'JPY'])
+			);
 		});
 
 		it('groups each store’s latest quote under its region, cheapest first', async () => {
@@ -211,11 +305,22 @@ describe('parts catalog on the real MariaDB', () => {
 				const part = await parts.getBySlug(demo.slug);
 				const quotes = demoQuotes.filter((q) => q.partSlug === demo.slug);
 				const regionCodes = [...new Set(quotes.map((q) => regionOfStore(q.storeName).code))];
-				expect(part?.quotesByRegion.map((g) => g.region.code).sort(), demo.slug).toEqual(regionCodes.sort());
+				expect(part?.quotesByRegion.map((g) => g.region.code).sort(), demo.slug).toEqual(
+					regionCodes.sort()
+				);
 				for (const group of part?.quotesByRegion ?? []) {
 					const region = demoRegions.find((r) => r.code === group.region.code);
-					const latest = [...new Set(quotes.filter((q) => regionOfStore(q.storeName).code === group.region.code).map((q) => q.storeName))].map(
-						(storeName) => quotes.filter((q) => q.storeName === storeName).sort((a, b) => a.daysAgo - b.daysAgo)[0]
+					const latest = [
+						...new Set(
+							quotes
+								.filter((q) => regionOfStore(q.storeName).code === group.region.code)
+								.map((q) => q.storeName)
+						)
+					].map(
+						(storeName) =>
+							quotes
+								.filter((q) => q.storeName === storeName)
+								.sort((a, b) => a.daysAgo - b.daysAgo)[0]
 					);
 					expect(group.quotes.map((q) => [q.storeName, q.price.amountMinor]).sort()).toEqual(
 						latest.map((q) => [q?.storeName, q?.amountMinor]).sort()
@@ -237,9 +342,13 @@ describe('parts catalog on the real MariaDB', () => {
 						slug: g.slug,
 						title: g.title,
 						uses: g.slots.flatMap((slot) => [
-							...(slot.pickSlug === demo.slug ? [{ role: 'pick', slotLabel: slot.label, rank: null }] : []),
+							...(slot.pickSlug === demo.slug
+								? [{ role: 'pick', slotLabel: slot.label, rank: null }]
+								: []),
 							...slot.alternates.flatMap((alt, i) =>
-								alt.partSlug === demo.slug ? [{ role: 'alternate', slotLabel: slot.label, rank: i + 1 }] : []
+								alt.partSlug === demo.slug
+									? [{ role: 'alternate', slotLabel: slot.label, rank: i + 1 }]
+									: []
 							)
 						])
 					}))
@@ -262,21 +371,36 @@ describe('parts catalog on the real MariaDB', () => {
 			if (!guide || !other) throw new Error('demo guide or part missing');
 			const oldRevisionId = guide.publishedRevisionId;
 			const revision = await GuideRevision.create({
-				guideId: guide.id, number: 2, buildNotesMd: 'Revised.', submittedAt: SEED_NOW, reviewedAt: SEED_NOW,
-				publishedAt: SEED_NOW, reviewerId: null, reviewNote: null
+				guideId: guide.id,
+				number: 2,
+				buildNotesMd: 'Revised.',
+				submittedAt: SEED_NOW,
+				reviewedAt: SEED_NOW,
+				publishedAt: SEED_NOW,
+				reviewerId: null,
+				reviewNote: null
 			});
 			await GuideSlot.create({
-				revisionId: revision.id, category: 'cpu', label: 'CPU', position: 1, pickPartId: other.id, reason: 'Newer pick.', priceQuoteId: null
+				revisionId: revision.id,
+				category: 'cpu',
+				label: 'CPU',
+				position: 1,
+				pickPartId: other.id,
+				reason: 'Newer pick.',
+				priceQuoteId: null
 			});
 			await guide.update({ publishedRevisionId: revision.id });
 			expect((await parts.getBySlug('halvard-strata-406'))?.guides).toEqual([]);
-			expect((await parts.getBySlug('halvard-strata-606'))?.guides.find((g) => g.slug === guide.slug)?.uses).toEqual([
-				{ role: 'pick', slotLabel: 'CPU', rank: null }
-			]);
+			expect(
+				(await parts.getBySlug('halvard-strata-606'))?.guides.find((g) => g.slug === guide.slug)
+					?.uses
+			).toEqual([{ role: 'pick', slotLabel: 'CPU', rank: null }]);
 
 			// Back to revision 1, then archived: an archived guide uses nothing.
 			await guide.update({ publishedRevisionId: oldRevisionId });
-			expect((await parts.getBySlug('halvard-strata-406'))?.guides.map((g) => g.slug)).toEqual(['steady-1080p-starter']);
+			expect((await parts.getBySlug('halvard-strata-406'))?.guides.map((g) => g.slug)).toEqual([
+				'steady-1080p-starter'
+			]);
 			await guide.update({ state: 'archived' });
 			expect((await parts.getBySlug('halvard-strata-406'))?.guides).toEqual([]);
 			await guide.update({ state: 'published' });
@@ -287,18 +411,37 @@ describe('parts catalog on the real MariaDB', () => {
 			const store = await Store.findOne({ where: { name: 'Bayline PC Supply' } });
 			const region = await Region.findOne({ where: { code: 'us' } });
 			if (!part || !store || !region) throw new Error('demo rows missing');
-			const base = { partId: part.id, storeId: store.id, regionId: region.id, currency: 'USD', taxIncluded: false, url: null, source: 'editor' as const };
-			await Quote.create({ ...base, amountMinor: 1, observedAt: new Date(SEED_NOW.getTime() + DAY_MS), status: 'withdrawn' });
+			const base = {
+				partId: part.id,
+				storeId: store.id,
+				regionId: region.id,
+				currency: 'USD',
+				taxIncluded: false,
+				url: null,
+				source: 'editor' as const
+			};
+			await Quote.create({
+				...base,
+				amountMinor: 1,
+				observedAt: new Date(SEED_NOW.getTime() + DAY_MS),
+				status: 'withdrawn'
+			});
 			let detail = await parts.getBySlug(part.slug);
 			let us = detail?.quotesByRegion.find((g) => g.region.code === 'us');
 			expect(us?.quotes.find((q) => q.storeName === store.name)?.price.amountMinor).toBe(21999);
 			expect(detail?.history.flatMap((s) => s.points).some((p) => p.amountMinor === 1)).toBe(false);
 
-			await Quote.create({ ...base, amountMinor: 20999, observedAt: new Date(SEED_NOW.getTime() + 2 * DAY_MS) });
+			await Quote.create({
+				...base,
+				amountMinor: 20999,
+				observedAt: new Date(SEED_NOW.getTime() + 2 * DAY_MS)
+			});
 			detail = await parts.getBySlug(part.slug);
 			us = detail?.quotesByRegion.find((g) => g.region.code === 'us');
 			expect(us?.quotes.find((q) => q.storeName === store.name)?.price.amountMinor).toBe(20999);
-			expect(detail?.history.find((s) => s.storeName === store.name)?.points.map((p) => p.amountMinor)).toEqual([21999, 20999]);
+			expect(
+				detail?.history.find((s) => s.storeName === store.name)?.points.map((p) => p.amountMinor)
+			).toEqual([21999, 20999]);
 		});
 
 		it('returns a plain JSON-safe object', async () => {
@@ -311,15 +454,23 @@ describe('parts catalog on the real MariaDB', () => {
 		type SearchEvent = Parameters<typeof searchRoute>[0];
 		type DetailEvent = Parameters<typeof detailRoute>[0];
 		const search = (qs: string) =>
-			searchRoute({ url: new URL(`http://127.0.0.1/api/v1/parts${qs}`), params: {} } as unknown as SearchEvent);
+			searchRoute({
+				url: new URL(`http://127.0.0.1/api/v1/parts${qs}`),
+				params: {}
+			} as unknown as SearchEvent);
 		const detail = (slug: string, qs = '') =>
-			detailRoute({ url: new URL(`http://127.0.0.1/api/v1/parts/${slug}${qs}`), params: { slug } } as unknown as DetailEvent);
+			detailRoute({
+				url: new URL(`http://127.0.0.1/api/v1/parts/${slug}${qs}`),
+				params: { slug }
+			} as unknown as DetailEvent);
 
 		it('answers a search with items, total, page and pageCount', async () => {
 			const response = await search('?category=gpu&minVramGb=16&page=1');
 			expect(response.status).toBe(200);
 			const body = await response.json();
-			const expected = demoParts.filter((p) => p.category === 'gpu' && Number(spec(p, 'vramGb')) >= 16).sort(byBrandModel);
+			const expected = demoParts
+				.filter((p) => p.category === 'gpu' && Number(spec(p, 'vramGb')) >= 16)
+				.sort(byBrandModel);
 			expect(body.total).toBe(expected.length);
 			expect(body.page).toBe(1);
 			expect(body.pageCount).toBe(1);
@@ -348,7 +499,9 @@ describe('parts catalog on the real MariaDB', () => {
 		it('answers a part with its detail, and 404 { message } for an unknown slug', async () => {
 			const ok = await detail('solenne-cobalt-c6-8g');
 			expect(ok.status).toBe(200);
-			expect(await ok.json()).toEqual(JSON.parse(JSON.stringify(await parts.getBySlug('solenne-cobalt-c6-8g'))));
+			expect(await ok.json()).toEqual(
+				JSON.parse(JSON.stringify(await parts.getBySlug('solenne-cobalt-c6-8g')))
+			);
 			const missing = await detail('no-such-part');
 			expect(missing.status).toBe(404);
 			expect(await missing.json()).toEqual({ message: expect.any(String) });

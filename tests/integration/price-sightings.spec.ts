@@ -1,7 +1,15 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { fieldIssues } from '../../src/lib/schemas/issues';
 import { priceSightingInput, rejectSightingInput } from '../../src/lib/schemas/price-sightings';
-import { AuditEvent, Part, PriceSighting, Quote, Region, Store, User } from '../../src/lib/server/db';
+import {
+	AuditEvent,
+	Part,
+	PriceSighting,
+	Quote,
+	Region,
+	Store,
+	User
+} from '../../src/lib/server/db';
 import * as parts from '../../src/lib/server/services/parts';
 import * as sightings from '../../src/lib/server/services/price-sightings';
 import { countRows, resetDatabase } from '../support/db';
@@ -29,18 +37,77 @@ const GPU_SPECS = {
 };
 
 async function world() {
-	const us = await Region.create({ code: 'us', name: 'United States', currency: 'USD', taxMode: 'exclusive', taxRateBp: 0, categoryFactorsBp: {} });
-	const jp = await Region.create({ code: 'jp', name: 'Japan', currency: 'JPY', taxMode: 'inclusive', taxRateBp: 1000, categoryFactorsBp: {} });
-	const kw = await Region.create({ code: 'kw', name: 'Kuwait', currency: 'KWD', taxMode: 'exclusive', taxRateBp: 0, categoryFactorsBp: {} });
-	const kestrel = await Store.create({ name: 'Kestrel Components', regionId: us.id, url: 'https://kestrel.example' });
-	const harbor = await Store.create({ name: 'Harbor Bits', regionId: us.id, url: 'https://harbor.example' });
-	const kairo = await Store.create({ name: 'Kairo Denki', regionId: jp.id, url: 'https://kairo.example' });
-	const gulf = await Store.create({ name: 'Gulf Parts', regionId: kw.id, url: 'https://gulf.example' });
-	const part = await Part.create({ category: 'gpu', brand: 'Example Graphics', model: 'Lumen 60 Dual', slug: 'example-graphics-lumen-60-dual', specs: GPU_SPECS });
-	const reader = await User.create({ email: 'rosa@example.test', name: 'Rosa Vale', role: 'reader' });
-	const reader2 = await User.create({ email: 'tam@example.test', name: 'Tam Oduya', role: 'reader' });
-	const editor = await User.create({ email: 'ed@example.test', name: 'Eda Ledger', role: 'editor' });
-	const editor2 = await User.create({ email: 'ned@example.test', name: 'Ned Ferris', role: 'editor' });
+	const us = await Region.create({
+		code: 'us',
+		name: 'United States',
+		currency: 'USD',
+		taxMode: 'exclusive',
+		taxRateBp: 0,
+		categoryFactorsBp: {}
+	});
+	const jp = await Region.create({
+		code: 'jp',
+		name: 'Japan',
+		currency: 'JPY',
+		taxMode: 'inclusive',
+		taxRateBp: 1000,
+		categoryFactorsBp: {}
+	});
+	const kw = await Region.create({
+		code: 'kw',
+		name: 'Kuwait',
+		currency: 'KWD',
+		taxMode: 'exclusive',
+		taxRateBp: 0,
+		categoryFactorsBp: {}
+	});
+	const kestrel = await Store.create({
+		name: 'Kestrel Components',
+		regionId: us.id,
+		url: 'https://kestrel.example'
+	});
+	const harbor = await Store.create({
+		name: 'Harbor Bits',
+		regionId: us.id,
+		url: 'https://harbor.example'
+	});
+	const kairo = await Store.create({
+		name: 'Kairo Denki',
+		regionId: jp.id,
+		url: 'https://kairo.example'
+	});
+	const gulf = await Store.create({
+		name: 'Gulf Parts',
+		regionId: kw.id,
+		url: 'https://gulf.example'
+	});
+	const part = await Part.create({
+		category: 'gpu',
+		brand: 'Example Graphics',
+		model: 'Lumen 60 Dual',
+		slug: 'example-graphics-lumen-60-dual',
+		specs: GPU_SPECS
+	});
+	const reader = await User.create({
+		email: 'rosa@example.test',
+		name: 'Rosa Vale',
+		role: 'reader'
+	});
+	const reader2 = await User.create({
+		email: 'tam@example.test',
+		name: 'Tam Oduya',
+		role: 'reader'
+	});
+	const editor = await User.create({
+		email: 'ed@example.test',
+		name: 'Eda Ledger',
+		role: 'editor'
+	});
+	const editor2 = await User.create({
+		email: 'ned@example.test',
+		name: 'Ned Ferris',
+		role: 'editor'
+	});
 	return { us, jp, kw, kestrel, harbor, kairo, gulf, part, reader, reader2, editor, editor2 };
 }
 
@@ -78,14 +145,41 @@ describe('price sightings on the real MariaDB', () => {
 			const outcome = await sightings.submit(w.reader.id, w.part.slug, form(w), NOW);
 			expect(outcome.kind).toBe('created');
 			const row = await PriceSighting.findOne();
-			expect(row).toMatchObject({ state: 'pending', currency: 'USD', observedOn: YESTERDAY, seenCount: 1, submittedById: w.reader.id });
-			// ISO 4217 List One (CHECK-VALUES 10a, V): USD has 2 minor-unit digits, so 249.99 → 24999.
+			expect(row).toMatchObject({
+				state: 'pending',
+				currency: 'USD',
+				observedOn: YESTERDAY,
+				seenCount: 1,
+				submittedById: w.reader.id
+			});
+			// ISO 4217 List One (docs/sources.md 10a, V): USD has 2 minor-unit digits, so 249.99 → 24999.
 			expect(Number(row?.amountMinor)).toBe(24999);
 
 			// ISO 4217 List One (10a, V): JPY has 0 digits, KWD has 3.
-			expect((await sightings.submit(w.reader.id, w.part.slug, form(w, { regionCode: 'jp', storeId: String(w.kairo.id), price: '38800' }), NOW)).kind).toBe('created');
-			expect((await sightings.submit(w.reader.id, w.part.slug, form(w, { regionCode: 'kw', storeId: String(w.gulf.id), price: '76.125' }), NOW)).kind).toBe('created');
-			const amounts = (await PriceSighting.findAll({ order: [['id', 'ASC']] })).map((s) => [s.currency, Number(s.amountMinor)]);
+			expect(
+				(
+					await sightings.submit(
+						w.reader.id,
+						w.part.slug,
+						form(w, { regionCode: 'jp', storeId: String(w.kairo.id), price: '38800' }),
+						NOW
+					)
+				).kind
+			).toBe('created');
+			expect(
+				(
+					await sightings.submit(
+						w.reader.id,
+						w.part.slug,
+						form(w, { regionCode: 'kw', storeId: String(w.gulf.id), price: '76.125' }),
+						NOW
+					)
+				).kind
+			).toBe('created');
+			const amounts = (await PriceSighting.findAll({ order: [['id', 'ASC']] })).map((s) => [
+				s.currency,
+				Number(s.amountMinor)
+			]);
 			expect(amounts).toEqual([
 				['USD', 24999],
 				['JPY', 38800],
@@ -100,7 +194,12 @@ describe('price sightings on the real MariaDB', () => {
 
 		it('merges a report of the same price, store and day into the pending one, counting people', async () => {
 			const first = await sightings.submit(w.reader.id, w.part.slug, form(w), NOW);
-			const second = await sightings.submit(w.reader2.id, w.part.slug, form(w, { url: 'http://kestrel.example/other-link' }), NOW);
+			const second = await sightings.submit(
+				w.reader2.id,
+				w.part.slug,
+				form(w, { url: 'http://kestrel.example/other-link' }),
+				NOW
+			);
 			expect(first.kind).toBe('created');
 			expect(second).toMatchObject({ kind: 'merged', seenCount: 2 });
 			if (first.kind !== 'created' || second.kind !== 'merged') throw new Error('unexpected');
@@ -109,10 +208,16 @@ describe('price sightings on the real MariaDB', () => {
 			const rows = await PriceSighting.findAll();
 			expect(rows).toHaveLength(1);
 			// The earliest submitter and their link stay.
-			expect(rows[0]).toMatchObject({ seenCount: 2, submittedById: w.reader.id, url: 'https://kestrel.example/p/lumen-60-dual' });
+			expect(rows[0]).toMatchObject({
+				seenCount: 2,
+				submittedById: w.reader.id,
+				url: 'https://kestrel.example/p/lumen-60-dual'
+			});
 			expect(await countRows('price_sighting_reports')).toBe(2);
 			// The merged-in reporter sees it in their own list too.
-			expect(await sightings.listMine(w.reader2.id, w.part.slug)).toMatchObject([{ seenCount: 2, state: 'pending' }]);
+			expect(await sightings.listMine(w.reader2.id, w.part.slug)).toMatchObject([
+				{ seenCount: 2, state: 'pending' }
+			]);
 
 			// The same person again is not a second person.
 			const again = await sightings.submit(w.reader.id, w.part.slug, form(w), NOW);
@@ -122,18 +227,36 @@ describe('price sightings on the real MariaDB', () => {
 
 		it('does not merge across days, stores or amounts', async () => {
 			await sightings.submit(w.reader.id, w.part.slug, form(w), NOW);
-			expect((await sightings.submit(w.reader2.id, w.part.slug, form(w, { observedOn: TODAY }), NOW)).kind).toBe('created');
-			expect((await sightings.submit(w.reader2.id, w.part.slug, form(w, { storeId: String(w.harbor.id) }), NOW)).kind).toBe('created');
-			expect((await sightings.submit(w.reader2.id, w.part.slug, form(w, { price: '249.98' }), NOW)).kind).toBe('created');
+			expect(
+				(await sightings.submit(w.reader2.id, w.part.slug, form(w, { observedOn: TODAY }), NOW))
+					.kind
+			).toBe('created');
+			expect(
+				(
+					await sightings.submit(
+						w.reader2.id,
+						w.part.slug,
+						form(w, { storeId: String(w.harbor.id) }),
+						NOW
+					)
+				).kind
+			).toBe('created');
+			expect(
+				(await sightings.submit(w.reader2.id, w.part.slug, form(w, { price: '249.98' }), NOW)).kind
+			).toBe('created');
 			expect(await countRows('price_sightings')).toBe(4);
 			expect((await PriceSighting.findAll()).every((s) => s.seenCount === 1)).toBe(true);
 		});
 
 		it('merges simultaneous reports of one price into one row (part row lock)', async () => {
 			const people = await Promise.all(
-				[1, 2, 3, 4].map((n) => User.create({ email: `p${n}@example.test`, name: `Person ${n}`, role: 'reader' }))
+				[1, 2, 3, 4].map((n) =>
+					User.create({ email: `p${n}@example.test`, name: `Person ${n}`, role: 'reader' })
+				)
 			);
-			const outcomes = await Promise.all(people.map((p) => sightings.submit(p.id, w.part.slug, form(w), NOW)));
+			const outcomes = await Promise.all(
+				people.map((p) => sightings.submit(p.id, w.part.slug, form(w), NOW))
+			);
 			expect(outcomes.filter((o) => o.kind === 'created')).toHaveLength(1);
 			expect(outcomes.filter((o) => o.kind === 'merged')).toHaveLength(3);
 			const rows = await PriceSighting.findAll();
@@ -167,19 +290,38 @@ describe('price sightings on the real MariaDB', () => {
 				expect(outcome.issues[field]?.[0]).toMatch(/\w/);
 			}
 			// The oldest day allowed is exactly 90 days back (common practice, no published source).
-			expect((await sightings.submit(w.reader.id, w.part.slug, form(w, { observedOn: '2026-08-22' }), NOW)).kind).toBe('created');
+			expect(
+				(
+					await sightings.submit(
+						w.reader.id,
+						w.part.slug,
+						form(w, { observedOn: '2026-08-22' }),
+						NOW
+					)
+				).kind
+			).toBe('created');
 			const { sightings: s, reports, ...rest } = await writtenRows();
 			expect({ sightings: s - 1, reports: reports - 1, ...rest }).toEqual(before);
 
-			expect(await sightings.submit(w.reader.id, 'no-such-part', form(w), NOW)).toEqual({ kind: 'not_found' });
-			expect(await sightings.submit(w.reader.id, w.part.slug, { ...form(w), extra: 'x' }, NOW)).toMatchObject({ kind: 'invalid' });
+			expect(await sightings.submit(w.reader.id, 'no-such-part', form(w), NOW)).toEqual({
+				kind: 'not_found'
+			});
+			expect(
+				await sightings.submit(w.reader.id, w.part.slug, { ...form(w), extra: 'x' }, NOW)
+			).toMatchObject({ kind: 'invalid' });
 		});
 
 		it('the schema alone reports field issues for missing fields', () => {
 			const result = priceSightingInput(NOW).safeParse({});
 			expect(result.success).toBe(false);
 			if (result.success) return;
-			expect(Object.keys(fieldIssues(result.error)).sort()).toEqual(['observedOn', 'price', 'regionCode', 'storeId', 'url']);
+			expect(Object.keys(fieldIssues(result.error)).sort()).toEqual([
+				'observedOn',
+				'price',
+				'regionCode',
+				'storeId',
+				'url'
+			]);
 		});
 	});
 
@@ -197,10 +339,19 @@ describe('price sightings on the real MariaDB', () => {
 			if (outcome.kind !== 'ok' || outcome.quoteId === null) throw new Error('no quote');
 
 			const quote = await Quote.findByPk(outcome.quoteId);
-			expect(quote).toMatchObject({ source: 'sighting', currency: 'JPY', taxIncluded: true, url: 'https://kestrel.example/p/lumen-60-dual' });
+			expect(quote).toMatchObject({
+				source: 'sighting',
+				currency: 'JPY',
+				taxIncluded: true,
+				url: 'https://kestrel.example/p/lumen-60-dual'
+			});
 			expect(Number(quote?.amountMinor)).toBe(38800);
 			expect(quote?.observedAt.toISOString()).toBe(`${YESTERDAY}T12:00:00.000Z`);
-			expect(await PriceSighting.findByPk(id)).toMatchObject({ state: 'verified', decidedById: w.editor.id, quoteId: outcome.quoteId });
+			expect(await PriceSighting.findByPk(id)).toMatchObject({
+				state: 'verified',
+				decidedById: w.editor.id,
+				quoteId: outcome.quoteId
+			});
 
 			const detail = await parts.getBySlug(w.part.slug);
 			expect(detail?.history).toEqual([
@@ -215,20 +366,47 @@ describe('price sightings on the real MariaDB', () => {
 
 			const events = await AuditEvent.findAll({ where: { action: 'price_sighting.verified' } });
 			expect(events).toHaveLength(1);
-			expect(events[0]).toMatchObject({ actorId: w.editor.id, subjectType: 'price_sighting', subjectId: String(id) });
-			expect(events[0]?.after).toMatchObject({ state: 'verified', quoteId: outcome.quoteId, amountMinor: 38800 });
-			expect(await sightings.listMine(w.reader.id, w.part.slug)).toMatchObject([{ state: 'verified' }]);
+			expect(events[0]).toMatchObject({
+				actorId: w.editor.id,
+				subjectType: 'price_sighting',
+				subjectId: String(id)
+			});
+			expect(events[0]?.after).toMatchObject({
+				state: 'verified',
+				quoteId: outcome.quoteId,
+				amountMinor: 38800
+			});
+			expect(await sightings.listMine(w.reader.id, w.part.slug)).toMatchObject([
+				{ state: 'verified' }
+			]);
 
 			// A later report of the verified price joins it: counted, but no second quote.
-			const late = await sightings.submit(w.reader2.id, w.part.slug, form(w, { regionCode: 'jp', storeId: String(w.kairo.id), price: '38800' }), NOW);
+			const late = await sightings.submit(
+				w.reader2.id,
+				w.part.slug,
+				form(w, { regionCode: 'jp', storeId: String(w.kairo.id), price: '38800' }),
+				NOW
+			);
 			expect(late).toMatchObject({ kind: 'merged_verified', sightingId: id, seenCount: 2 });
 			expect(await countRows('quotes')).toBe(1);
 			expect(await countRows('price_sightings')).toBe(1);
 		});
 
 		it('answers politely when the same price is already a quote from an editor, and writes nothing', async () => {
-			await Quote.create({ partId: w.part.id, storeId: w.kestrel.id, regionId: w.us.id, amountMinor: 24999, currency: 'USD', taxIncluded: false, observedAt: new Date(`${YESTERDAY}T09:30:00Z`), url: null, source: 'editor' });
-			expect(await sightings.submit(w.reader.id, w.part.slug, form(w), NOW)).toEqual({ kind: 'already_quoted' });
+			await Quote.create({
+				partId: w.part.id,
+				storeId: w.kestrel.id,
+				regionId: w.us.id,
+				amountMinor: 24999,
+				currency: 'USD',
+				taxIncluded: false,
+				observedAt: new Date(`${YESTERDAY}T09:30:00Z`),
+				url: null,
+				source: 'editor'
+			});
+			expect(await sightings.submit(w.reader.id, w.part.slug, form(w), NOW)).toEqual({
+				kind: 'already_quoted'
+			});
 			expect(await countRows('price_sightings')).toBe(0);
 		});
 
@@ -238,32 +416,55 @@ describe('price sightings on the real MariaDB', () => {
 			expect(parsed.success).toBe(false);
 			if (!parsed.success) expect(fieldIssues(parsed.error).reason?.[0]).toMatch(/why/);
 
-			expect(await sightings.reject(w.editor.id, id, '')).toMatchObject({ kind: 'invalid', issues: { reason: [expect.any(String)] } });
-			expect(await PriceSighting.findByPk(id)).toMatchObject({ state: 'pending', rejectReason: null });
+			expect(await sightings.reject(w.editor.id, id, '')).toMatchObject({
+				kind: 'invalid',
+				issues: { reason: [expect.any(String)] }
+			});
+			expect(await PriceSighting.findByPk(id)).toMatchObject({
+				state: 'pending',
+				rejectReason: null
+			});
 			expect(await countRows('audit_events')).toBe(0);
 
 			const reason = 'The link shows a different model (the 40 Solo).';
-			expect(await sightings.reject(w.editor.id, id, reason, NOW)).toEqual({ kind: 'ok', quoteId: null });
-			expect(await PriceSighting.findByPk(id)).toMatchObject({ state: 'rejected', rejectReason: reason, decidedById: w.editor.id });
+			expect(await sightings.reject(w.editor.id, id, reason, NOW)).toEqual({
+				kind: 'ok',
+				quoteId: null
+			});
+			expect(await PriceSighting.findByPk(id)).toMatchObject({
+				state: 'rejected',
+				rejectReason: reason,
+				decidedById: w.editor.id
+			});
 			expect(await countRows('quotes')).toBe(0);
 			const events = await AuditEvent.findAll({ where: { action: 'price_sighting.rejected' } });
 			expect(events).toHaveLength(1);
 			expect(events[0]?.after).toMatchObject({ state: 'rejected', rejectReason: reason });
-			expect(await sightings.listMine(w.reader.id, w.part.slug)).toMatchObject([{ state: 'rejected', rejectReason: reason }]);
+			expect(await sightings.listMine(w.reader.id, w.part.slug)).toMatchObject([
+				{ state: 'rejected', rejectReason: reason }
+			]);
 
 			// A rejected sighting is not merged into: the same report starts a new pending one.
-			expect((await sightings.submit(w.reader2.id, w.part.slug, form(w), NOW)).kind).toBe('created');
+			expect((await sightings.submit(w.reader2.id, w.part.slug, form(w), NOW)).kind).toBe(
+				'created'
+			);
 		});
 
 		it('a second decision on the same sighting is a conflict and changes nothing', async () => {
 			const id = await pendingId();
 			expect((await sightings.verify(w.editor.id, id, NOW)).kind).toBe('ok');
 			const again = await sightings.verify(w.editor2.id, id, NOW);
-			expect(again).toMatchObject({ kind: 'conflict', message: expect.stringMatching(/already verified/) });
+			expect(again).toMatchObject({
+				kind: 'conflict',
+				message: expect.stringMatching(/already verified/)
+			});
 			expect((await sightings.reject(w.editor2.id, id, 'Wrong price.', NOW)).kind).toBe('conflict');
 			expect(await countRows('quotes')).toBe(1);
 			expect(await countRows('audit_events')).toBe(1);
-			expect(await PriceSighting.findByPk(id)).toMatchObject({ state: 'verified', decidedById: w.editor.id });
+			expect(await PriceSighting.findByPk(id)).toMatchObject({
+				state: 'verified',
+				decidedById: w.editor.id
+			});
 			expect(await sightings.verify(w.editor.id, 987654, NOW)).toEqual({ kind: 'not_found' });
 		});
 
@@ -298,7 +499,11 @@ describe('price sightings on the real MariaDB', () => {
 				{ amountMinor: 38800, currency: 'JPY' },
 				{ amountMinor: 19900, currency: 'USD' }
 			]);
-			expect(all.items[0]).toMatchObject({ part: { slug: w.part.slug, name: 'Example Graphics Lumen 60 Dual' }, storeName: 'Kestrel Components', submittedBy: { email: 'rosa@example.test' } });
+			expect(all.items[0]).toMatchObject({
+				part: { slug: w.part.slug, name: 'Example Graphics Lumen 60 Dual' },
+				storeName: 'Kestrel Components',
+				submittedBy: { email: 'rosa@example.test' }
+			});
 
 			expect((await sightings.listPending({ page: 1, q: '', region: 'jp' })).total).toBe(1);
 			expect((await sightings.listPending({ page: 1, q: '', region: 'zz' })).total).toBe(0);

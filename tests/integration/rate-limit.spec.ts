@@ -29,16 +29,24 @@ import { resetDatabase } from '../support/db';
 const IP = '203.0.113.7'; // TEST-NET-3 (RFC 5737)
 const OTHER_IP = '198.51.100.9'; // TEST-NET-2
 
-async function spend(limiter: LimiterName, key: string, times: number, via: RateLimits['consume'] = consume) {
+async function spend(
+	limiter: LimiterName,
+	key: string,
+	times: number,
+	via: RateLimits['consume'] = consume
+) {
 	const results = [];
 	for (let i = 0; i < times; i++) results.push(await via(limiter, key));
 	return results;
 }
 
 async function storedKeys(): Promise<string[]> {
-	const rows = await sequelize.query<{ key: string }>('SELECT `key` FROM rate_limits ORDER BY `key`', {
-		type: QueryTypes.SELECT
-	});
+	const rows = await sequelize.query<{ key: string }>(
+		'SELECT `key` FROM rate_limits ORDER BY `key`',
+		{
+			type: QueryTypes.SELECT
+		}
+	);
 	return rows.map((r) => r.key);
 }
 
@@ -111,7 +119,9 @@ describe('keys', () => {
 		expect((await consume('signInByAccountAndAddress', victim)).ok).toBe(false);
 
 		// Same account from another address, another account from the same address.
-		expect(await consume('signInByAccountAndAddress', joinKey(OTHER_IP, 'owner@example.test'))).toEqual({
+		expect(
+			await consume('signInByAccountAndAddress', joinKey(OTHER_IP, 'owner@example.test'))
+		).toEqual({
 			ok: true
 		});
 		expect(await consume('signInByAccountAndAddress', joinKey(IP, 'other@example.test'))).toEqual({
@@ -124,9 +134,16 @@ describe('keys', () => {
 
 	it('counts e-mail case and full-width variants as the same key', async () => {
 		const { points } = policyOf('passwordResetByEmail');
-		const variants = ['Reader@Example.test', ' reader@example.test', 'READER@EXAMPLE.TEST', 'reader＠example.test'];
+		const variants = [
+			'Reader@Example.test',
+			' reader@example.test',
+			'READER@EXAMPLE.TEST',
+			'reader＠example.test'
+		];
 		for (let i = 0; i < points; i++) {
-			expect((await consume('passwordResetByEmail', variants[i % variants.length] ?? '')).ok).toBe(true);
+			expect((await consume('passwordResetByEmail', variants[i % variants.length] ?? '')).ok).toBe(
+				true
+			);
 		}
 		expect((await consume('passwordResetByEmail', 'reader@example.test')).ok).toBe(false);
 		expect(await storedKeys()).toEqual(['reset_email:reader@example.test']);
@@ -166,7 +183,10 @@ describe('peek and reset', () => {
 	it('peek reports blocked only when the next consume would be refused, without counting', async () => {
 		const { points } = policyOf('signInByAccountAndAddress');
 		const key = joinKey(IP, 'reader@example.test');
-		expect(await peek('signInByAccountAndAddress', key)).toEqual({ blocked: false, retryAfterSeconds: 0 });
+		expect(await peek('signInByAccountAndAddress', key)).toEqual({
+			blocked: false,
+			retryAfterSeconds: 0
+		});
 
 		await spend('signInByAccountAndAddress', key, points - 1);
 		for (let i = 0; i < 5; i++) {
@@ -247,7 +267,11 @@ describe('several app instances', () => {
 describe('when the store is unreachable', () => {
 	it('fails closed within 3 s, and logs the outage once', async () => {
 		const logged: StoreErrorLog[] = [];
-		const down = createRateLimits({ ...dbConfigFromEnv(), port: 1, logStoreError: (e) => logged.push(e) });
+		const down = createRateLimits({
+			...dbConfigFromEnv(),
+			port: 1,
+			logStoreError: (e) => logged.push(e)
+		});
 		try {
 			const started = Date.now();
 			expect(await down.consume('signUp', IP)).toEqual({
@@ -256,7 +280,9 @@ describe('when the store is unreachable', () => {
 			});
 			expect(Date.now() - started).toBeLessThan(3_000);
 
-			expect(await down.peek('signInByAccountAndAddress', joinKey(IP, 'reader@example.test'))).toEqual({
+			expect(
+				await down.peek('signInByAccountAndAddress', joinKey(IP, 'reader@example.test'))
+			).toEqual({
 				blocked: true,
 				retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS
 			});

@@ -5,7 +5,7 @@ import { SESSION_ABSOLUTE_SECONDS, authConfig } from '../../src/lib/server/auth/
 import { resetDatabase } from '../support/db';
 
 /*
- * ASVS 7.3.1/7.3.2 (SECURITY-CHECKLIST §1): sessions end after an absolute lifetime however
+ * ASVS 7.3.1/7.3.2 (docs/security.md §1): sessions end after an absolute lifetime however
  * active they are, and a role change, disable or session-version bump applies on the next
  * session read. Runs the real jwt callback against the real database.
  */
@@ -17,7 +17,12 @@ describe('session checks in the jwt callback', () => {
 	let user: User;
 	beforeEach(async () => {
 		await resetDatabase();
-		user = await User.create({ email: 'session@example.test', name: 'Sess', role: 'reader', emailVerified: new Date() });
+		user = await User.create({
+			email: 'session@example.test',
+			name: 'Sess',
+			role: 'reader',
+			emailVerified: new Date()
+		});
 	});
 
 	it('keeps a fresh session and carries the current role from the database', async () => {

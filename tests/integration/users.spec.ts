@@ -11,7 +11,13 @@ import { resetDatabase } from '../support/db';
 /** Creates an account directly, `minutesAgo` old so "newest first" is deterministic. */
 async function makeUser(email: string, name: string, role: Role = 'reader', minutesAgo = 0) {
 	const createdAt = new Date(Date.UTC(2026, 10, 1, 12, 0, 0) - minutesAgo * 60_000);
-	return User.create({ email, name, role, passwordHash: '$argon2id$v=19$fake-hash-for-tests', createdAt });
+	return User.create({
+		email,
+		name,
+		role,
+		passwordHash: '$argon2id$v=19$fake-hash-for-tests',
+		createdAt
+	});
 }
 
 async function reload(id: string) {
@@ -28,7 +34,12 @@ describe('users service on the real MariaDB', () => {
 	describe('search', () => {
 		it('pages 25 at a time, newest first, with total and page count', async () => {
 			for (let i = 0; i < 30; i++) {
-				await makeUser(`member${String(i).padStart(2, '0')}@example.test`, `Member ${i}`, 'reader', i);
+				await makeUser(
+					`member${String(i).padStart(2, '0')}@example.test`,
+					`Member ${i}`,
+					'reader',
+					i
+				);
 			}
 			const first = await users.search({ q: '', page: 1 });
 			expect(first.total).toBe(30);
@@ -40,7 +51,9 @@ describe('users service on the real MariaDB', () => {
 
 			const second = await users.search({ q: '', page: 2 });
 			expect(second.page).toBe(2);
-			expect(second.items.map((u) => u.email)).toEqual([25, 26, 27, 28, 29].map((i) => `member${i}@example.test`));
+			expect(second.items.map((u) => u.email)).toEqual(
+				[25, 26, 27, 28, 29].map((i) => `member${i}@example.test`)
+			);
 
 			// Past the end: the last page, not an empty one.
 			const beyond = await users.search({ q: '', page: 9 });
@@ -54,7 +67,10 @@ describe('users service on the real MariaDB', () => {
 			await makeUser('cy@example.test', 'Cy Dune', 'editor', 3);
 
 			const byName = await users.search({ q: 'QUILL', page: 1 });
-			expect(byName.items.map((u) => u.email)).toEqual(['ana.quill@example.test', 'bo@quillworks.test']);
+			expect(byName.items.map((u) => u.email)).toEqual([
+				'ana.quill@example.test',
+				'bo@quillworks.test'
+			]);
 			expect(byName.total).toBe(2);
 
 			const readers = await users.search({ q: 'quill', role: 'reader', page: 1 });
@@ -70,7 +86,9 @@ describe('users service on the real MariaDB', () => {
 			await makeUser('under_score@example.test', 'Under Score', 'reader', 3);
 			await makeUser('underxscore@example.test', 'Underx Score', 'reader', 4);
 
-			expect((await users.search({ q: '%', page: 1 })).items.map((u) => u.email)).toEqual(['quiet@example.test']);
+			expect((await users.search({ q: '%', page: 1 })).items.map((u) => u.email)).toEqual([
+				'quiet@example.test'
+			]);
 			expect((await users.search({ q: 'under_', page: 1 })).items.map((u) => u.email)).toEqual([
 				'under_score@example.test'
 			]);
@@ -102,7 +120,9 @@ describe('users service on the real MariaDB', () => {
 			expect(after.role).toBe('editor');
 			expect(after.sessionVersion).toBe(reader.sessionVersion);
 
-			const events = await AuditEvent.findAll({ where: { subjectType: 'user', subjectId: reader.id } });
+			const events = await AuditEvent.findAll({
+				where: { subjectType: 'user', subjectId: reader.id }
+			});
 			expect(events).toHaveLength(1);
 			expect(events[0]?.actorId).toBe(admin.id);
 			expect(events[0]?.action).toBe('user.role_changed');
@@ -135,7 +155,9 @@ describe('users service on the real MariaDB', () => {
 
 		it('answers not_found for an unknown account', async () => {
 			const admin = await makeUser('root@example.test', 'Ada Admin', 'admin');
-			expect(await users.changeRole(admin.id, randomUUID(), 'editor')).toEqual({ kind: 'not_found' });
+			expect(await users.changeRole(admin.id, randomUUID(), 'editor')).toEqual({
+				kind: 'not_found'
+			});
 		});
 	});
 
@@ -182,16 +204,26 @@ describe('users service on the real MariaDB', () => {
 
 	describe('input schemas', () => {
 		it('refuse extra fields and bad values with field-level messages', () => {
-			const extra = changeRoleInput.safeParse({ userId: randomUUID(), role: 'editor', sessionVersion: '9' });
+			const extra = changeRoleInput.safeParse({
+				userId: randomUUID(),
+				role: 'editor',
+				sessionVersion: '9'
+			});
 			expect(extra.success).toBe(false);
 			if (!extra.success) expect(Object.keys(fieldIssues(extra.error))).toEqual(['_form']);
 
 			const badRole = changeRoleInput.safeParse({ userId: 'not-a-uuid', role: 'owner' });
 			expect(badRole.success).toBe(false);
-			if (!badRole.success) expect(Object.keys(fieldIssues(badRole.error)).sort()).toEqual(['role', 'userId']);
+			if (!badRole.success)
+				expect(Object.keys(fieldIssues(badRole.error)).sort()).toEqual(['role', 'userId']);
 
-			expect(setDisabledInput.parse({ userId: randomUUID(), disabled: 'false' }).disabled).toBe(false);
-			expect(userSearchQuery.parse({ q: '  ana ', role: '', page: '' })).toEqual({ q: 'ana', page: 1 });
+			expect(setDisabledInput.parse({ userId: randomUUID(), disabled: 'false' }).disabled).toBe(
+				false
+			);
+			expect(userSearchQuery.parse({ q: '  ana ', role: '', page: '' })).toEqual({
+				q: 'ana',
+				page: 1
+			});
 			const badPage = userSearchQuery.safeParse({ page: '0' });
 			expect(badPage.success).toBe(false);
 			if (!badPage.success) expect(fieldIssues(badPage.error).page).toEqual(['Pages start at 1.']);

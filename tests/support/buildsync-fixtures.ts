@@ -3,14 +3,24 @@
  * the models and services/builds.ts fork on the real MariaDB (the demo community seeded first).
  */
 import { randomBytes } from 'node:crypto';
-import { Build, BuildSlot, Guide, GuideRevision, GuideSlot, Part, SlotAlternate, User } from '../../src/lib/server/db';
+import {
+	Build,
+	BuildSlot,
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	SlotAlternate,
+	User
+} from '../../src/lib/server/db';
 import { fork } from '../../src/lib/server/services/builds';
 
 export const DEMO_SLUG = 'steady-1080p-starter';
 
 export async function demoGuide(): Promise<Guide> {
 	const guide = await Guide.findOne({ where: { slug: DEMO_SLUG } });
-	if (!guide || !guide.publishedRevisionId) throw new Error('demo guide missing; seed the demo community first');
+	if (!guide || !guide.publishedRevisionId)
+		throw new Error('demo guide missing; seed the demo community first');
 	return guide;
 }
 
@@ -22,16 +32,28 @@ export async function partId(slug: string): Promise<number> {
 
 export async function newReader(tag: string): Promise<User> {
 	const suffix = randomBytes(4).toString('hex');
-	return User.create({ email: `${tag}-${suffix}@slotwise.test`, name: `Reader ${tag}`, role: 'reader', emailVerified: new Date() });
+	return User.create({
+		email: `${tag}-${suffix}@slotwise.test`,
+		name: `Reader ${tag}`,
+		role: 'reader',
+		emailVerified: new Date()
+	});
 }
 
 /** A fork of the guide's published revision (services/builds.ts fork), with optional settings. */
-export async function forkBuild(owner: User, guide: Guide, opts: { notify?: boolean; title?: string } = {}): Promise<Build> {
+export async function forkBuild(
+	owner: User,
+	guide: Guide,
+	opts: { notify?: boolean; title?: string } = {}
+): Promise<Build> {
 	const forked = await fork(owner.id, guide.slug);
 	if (forked.kind !== 'created') throw new Error(`fork of ${guide.slug} failed: ${forked.kind}`);
 	const build = (await Build.findByPk(forked.id))!;
 	if (opts.notify !== undefined || opts.title !== undefined) {
-		await build.update({ ...(opts.title !== undefined ? { title: opts.title } : {}), ...(opts.notify !== undefined ? { notifyOnNewRevision: opts.notify } : {}) });
+		await build.update({
+			...(opts.title !== undefined ? { title: opts.title } : {}),
+			...(opts.notify !== undefined ? { notifyOnNewRevision: opts.notify } : {})
+		});
 	}
 	return build;
 }
@@ -89,7 +111,13 @@ export async function publishRevision(
 		});
 		for (const a of s.alternates) {
 			if (a.partId === pickPartId) continue;
-			await SlotAlternate.create({ slotId: slot.id, partId: a.partId, rank: a.rank, reasonTag: a.reasonTag, note: a.note });
+			await SlotAlternate.create({
+				slotId: slot.id,
+				partId: a.partId,
+				rank: a.rank,
+				reasonTag: a.reasonTag,
+				note: a.note
+			});
 		}
 	}
 	for (const a of add) {
@@ -111,7 +139,14 @@ export async function publishRevision(
 
 /** The build's slots as comparable rows, in position order. */
 export async function slotRows(buildId: number) {
-	const slots = (await BuildSlot.findAll({ where: { buildId }, include: [{ model: Part, as: 'part' }], order: [['position', 'ASC'], ['id', 'ASC']] })) as (BuildSlot & { part: Part })[];
+	const slots = (await BuildSlot.findAll({
+		where: { buildId },
+		include: [{ model: Part, as: 'part' }],
+		order: [
+			['position', 'ASC'],
+			['id', 'ASC']
+		]
+	})) as (BuildSlot & { part: Part })[];
 	return slots.map((s) => ({
 		id: s.id,
 		label: s.label,

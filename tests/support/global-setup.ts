@@ -12,7 +12,8 @@ export default async function setup() {
 		await sequelize.authenticate();
 	} catch (e) {
 		throw new Error(
-			`Integration tests need MariaDB on ${config.host}:${config.port} (run: bash scripts/db.sh start). ${String(e)}`
+			`Integration tests need MariaDB on ${config.host}:${config.port} (run: bash scripts/db.sh start). ${String(e)}`,
+			{ cause: e }
 		);
 	}
 	await migrator(sequelize).up();

@@ -28,10 +28,12 @@ async function call(path: string, init?: RequestInit): Promise<Response> {
 		response = await fetch(url, { ...init, signal: AbortSignal.timeout(5_000) });
 	} catch (e) {
 		throw new Error(
-			`The SMTP fake's mailbox at ${url} does not answer (start it: bash scripts/smtp-fake.sh start). ${String(e)}`
+			`The SMTP fake's mailbox at ${url} does not answer (start it: bash scripts/smtp-fake.sh start). ${String(e)}`,
+			{ cause: e }
 		);
 	}
-	if (!response.ok) throw new Error(`Mailbox ${init?.method ?? 'GET'} ${path} answered ${response.status}`);
+	if (!response.ok)
+		throw new Error(`Mailbox ${init?.method ?? 'GET'} ${path} answered ${response.status}`);
 	return response;
 }
 
@@ -81,14 +83,19 @@ export async function waitForMessage({
 /** Every http(s) URL in the plain-text body, in order. */
 export function linksIn(message: Pick<MailboxMessage, 'text'>): string[] {
 	// A sentence-ending full stop or comma after a link is not part of it.
-	return (message.text.match(/https?:\/\/[^\s<>"')\]]+/g) ?? []).map((link) => link.replace(/[.,;:!?]+$/, ''));
+	return (message.text.match(/https?:\/\/[^\s<>"')\]]+/g) ?? []).map((link) =>
+		link.replace(/[.,;:!?]+$/, '')
+	);
 }
 
 /**
  * The first URL in the plain-text body whose path starts with `pathPrefix`
  * (e.g. '/signin/verify'); throws, listing the links found, when there is none.
  */
-export function firstLink(message: Pick<MailboxMessage, 'text' | 'subject'>, pathPrefix: string): string {
+export function firstLink(
+	message: Pick<MailboxMessage, 'text' | 'subject'>,
+	pathPrefix: string
+): string {
 	const links = linksIn(message);
 	const match = links.find((link) => {
 		try {

@@ -19,14 +19,27 @@ export function generatedRow(i: number, prefix: string): GeneratedRow {
 	const slug = `${prefix}-${i}`;
 	switch (i % 5) {
 		case 0:
-			return { category: 'fan', brand: 'Draftwell', model: `Breeze ${i}`, slug, specs: { sizeMm: 120, count: 1 + (i % 3), maxRpm: 1200 + i } };
+			return {
+				category: 'fan',
+				brand: 'Draftwell',
+				model: `Breeze ${i}`,
+				slug,
+				specs: { sizeMm: 120, count: 1 + (i % 3), maxRpm: 1200 + i }
+			};
 		case 1:
 			return {
 				category: 'memory',
 				brand: 'Corvale',
 				model: `Tempo ${i} 32 GB`,
 				slug,
-				specs: { type: 'DDR5', modules: 2, moduleGb: 16, speedMts: 6000, casLatency: 30, voltage: 1.35 }
+				specs: {
+					type: 'DDR5',
+					modules: 2,
+					moduleGb: 16,
+					speedMts: 6000,
+					casLatency: 30,
+					voltage: 1.35
+				}
 			};
 		case 2:
 			return {
@@ -34,7 +47,14 @@ export function generatedRow(i: number, prefix: string): GeneratedRow {
 				brand: 'Quillstone',
 				model: `Ledger ${i}`,
 				slug,
-				specs: { interface: 'nvme', formFactor: 'm2-2280', pcieGen: 4, capacityGb: 1000, readMbs: 7000, writeMbs: 6000 }
+				specs: {
+					interface: 'nvme',
+					formFactor: 'm2-2280',
+					pcieGen: 4,
+					capacityGb: 1000,
+					readMbs: 7000,
+					writeMbs: 6000
+				}
 			};
 		case 3:
 			return {
@@ -42,7 +62,15 @@ export function generatedRow(i: number, prefix: string): GeneratedRow {
 				brand: 'Lumenforge',
 				model: `Arclight ${i}, Dual "OC"`,
 				slug,
-				specs: { chip: 'Arclight 60', vramGb: 8, lengthMm: 240 + (i % 60), slotWidth: 2, boardPowerW: 165, powerConnectors: { pin6: 0, pin8: 1, h12v2x6: 0 }, pcieGen: 4 }
+				specs: {
+					chip: 'Arclight 60',
+					vramGb: 8,
+					lengthMm: 240 + (i % 60),
+					slotWidth: 2,
+					boardPowerW: 165,
+					powerConnectors: { pin6: 0, pin8: 1, h12v2x6: 0 },
+					pcieGen: 4
+				}
 			};
 		default:
 			return {
@@ -51,7 +79,17 @@ export function generatedRow(i: number, prefix: string): GeneratedRow {
 				brand: 'Tollgate',
 				model: `Strata ${i}`,
 				slug,
-				specs: { socket: 'AM5', cores: 6, threads: 12, baseClockGhz: 3.8, boostClockGhz: 5.1, tdpW: 65, memoryTypes: ['DDR5'], integratedGraphics: true, bundledCooler: true }
+				specs: {
+					socket: 'AM5',
+					cores: 6,
+					threads: 12,
+					baseClockGhz: 3.8,
+					boostClockGhz: 5.1,
+					tdpW: 65,
+					memoryTypes: ['DDR5'],
+					integratedGraphics: true,
+					bundledCooler: true
+				}
 			};
 	}
 }
@@ -62,7 +100,9 @@ function cell(value: string): string {
 }
 
 export function csvLine(row: GeneratedRow | string[]): string {
-	const cells = Array.isArray(row) ? row : [row.category, row.brand, row.model, row.slug, JSON.stringify(row.specs)];
+	const cells = Array.isArray(row)
+		? row
+		: [row.category, row.brand, row.model, row.slug, JSON.stringify(row.specs)];
 	return cells.map(cell).join(',');
 }
 
@@ -70,7 +110,11 @@ export function csvLine(row: GeneratedRow | string[]): string {
  * `count` rows (data rows 1..count, spreadsheet rows 2..count+1). `broken` replaces some
  * rows by spreadsheet row number with a bad version.
  */
-export function generatedCsv(count: number, prefix: string, broken: Record<number, (row: GeneratedRow) => GeneratedRow | string[]> = {}): string {
+export function generatedCsv(
+	count: number,
+	prefix: string,
+	broken: Record<number, (row: GeneratedRow) => GeneratedRow | string[]> = {}
+): string {
 	const lines = [CSV_HEADER];
 	for (let i = 1; i <= count; i++) {
 		const row = generatedRow(i, prefix);
@@ -90,7 +134,15 @@ export const THREE_BAD_ROWS: Record<number, (row: GeneratedRow) => GeneratedRow>
 	20: (row) => ({
 		...row,
 		category: 'gpu',
-		specs: { chip: 'Arclight 60', vramGb: 8, lengthMm: -5, slotWidth: 2, boardPowerW: 165, powerConnectors: { pin6: 0, pin8: 1, h12v2x6: 0 }, pcieGen: 4 }
+		specs: {
+			chip: 'Arclight 60',
+			vramGb: 8,
+			lengthMm: -5,
+			slotWidth: 2,
+			boardPowerW: 165,
+			powerConnectors: { pin6: 0, pin8: 1, h12v2x6: 0 },
+			pcieGen: 4
+		}
 	}),
 	87: (row) => ({ ...row, category: 'toaster' }),
 	150: (row) => ({ ...row, brand: "=cmd|' /C calc'!A0" })

@@ -1,10 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import { decimalToMinor, minorToDecimal, slugify, startsLikeFormula, validateSpecs } from '../../src/lib/schemas/catalog-upkeep';
+import {
+	decimalToMinor,
+	minorToDecimal,
+	slugify,
+	startsLikeFormula,
+	validateSpecs
+} from '../../src/lib/schemas/catalog-upkeep';
 import { bpToPercent, percentToBp } from '../../src/lib/schemas/regions';
 import { specFields, specLabel, specsFromForm } from '../../src/lib/schemas/spec-form';
 
 describe('decimalToMinor', () => {
-	// Exponents per ISO 4217 List One (CHECK-VALUES 10a, V): JPY 0, USD 2, KWD 3.
+	// Exponents per ISO 4217 List One (docs/sources.md 10a, V): JPY 0, USD 2, KWD 3.
 	it.each([
 		['129.99', 2, 'USD', 12999],
 		['129.9', 2, 'USD', 12990],
@@ -14,7 +20,10 @@ describe('decimalToMinor', () => {
 		['1.234', 3, 'KWD', 1234],
 		['1.2', 3, 'KWD', 1200]
 	])('%s %s → %i minor units', (text, digits, currency, expected) => {
-		expect(decimalToMinor(text as string, digits as number, currency as string)).toEqual({ ok: true, amountMinor: expected });
+		expect(decimalToMinor(text as string, digits as number, currency as string)).toEqual({
+			ok: true,
+			amountMinor: expected
+		});
 	});
 
 	it.each([
@@ -26,7 +35,10 @@ describe('decimalToMinor', () => {
 		['1e3', 2, 'USD', 'Enter an amount in USD with digits and a point, e.g. 129.99.'],
 		['', 2, 'USD', 'Enter an amount in USD with digits and a point, e.g. 129.99.']
 	])('refuses %j in %s', (text, digits, currency, message) => {
-		expect(decimalToMinor(text as string, digits as number, currency as string)).toEqual({ ok: false, message });
+		expect(decimalToMinor(text as string, digits as number, currency as string)).toEqual({
+			ok: false,
+			message
+		});
 	});
 
 	it('goes back to the decimal text a form shows', () => {
@@ -52,7 +64,8 @@ describe('percent ↔ basis points (1 bp = 0.01 %)', () => {
 	});
 
 	it('refuses more than two decimals, signs and words', () => {
-		for (const text of ['9.975', '-1', '+5', 'ten', '', '1,5']) expect(percentToBp(text)).toBeNull();
+		for (const text of ['9.975', '-1', '+5', 'ten', '', '1,5'])
+			expect(percentToBp(text)).toBeNull();
 	});
 
 	it('shows two decimals', () => {
@@ -70,7 +83,8 @@ describe('slugs and formula-like text', () => {
 	});
 
 	it('spots cells a spreadsheet would run', () => {
-		for (const text of ['=1', '+1', '-1', '@A1', '\t1', '\r1', ' =1']) expect(startsLikeFormula(text)).toBe(true);
+		for (const text of ['=1', '+1', '-1', '@A1', '\t1', '\r1', ' =1'])
+			expect(startsLikeFormula(text)).toBe(true);
 		for (const text of ['a=1', '1-2', '', ' ', 'x@y']) expect(startsLikeFormula(text)).toBe(false);
 	});
 });
@@ -87,17 +101,37 @@ describe('the per-category form generated from the spec schemas', () => {
 			['powerConnectors', 'group'],
 			['pcieGen', 'select']
 		]);
-		expect(gpu.find((f) => f.key === 'pcieGen')).toMatchObject({ options: ['3', '4', '5'], numeric: true });
-		expect(gpu.find((f) => f.key === 'lengthMm')).toMatchObject({ label: 'Length (mm)', integer: true, unit: 'mm' });
+		expect(gpu.find((f) => f.key === 'pcieGen')).toMatchObject({
+			options: ['3', '4', '5'],
+			numeric: true
+		});
+		expect(gpu.find((f) => f.key === 'lengthMm')).toMatchObject({
+			label: 'Length (mm)',
+			integer: true,
+			unit: 'mm'
+		});
 		expect(gpu.find((f) => f.key === 'slotWidth')).toMatchObject({ integer: false, max: 5 });
 		const cpu = specFields('cpu');
-		expect(cpu.find((f) => f.key === 'memoryTypes')).toMatchObject({ kind: 'multi', options: ['DDR4', 'DDR5'] });
-		expect(cpu.find((f) => f.key === 'packagePowerW')).toMatchObject({ kind: 'number', optional: true });
+		expect(cpu.find((f) => f.key === 'memoryTypes')).toMatchObject({
+			kind: 'multi',
+			options: ['DDR4', 'DDR5']
+		});
+		expect(cpu.find((f) => f.key === 'packagePowerW')).toMatchObject({
+			kind: 'number',
+			optional: true
+		});
 		expect(cpu.find((f) => f.key === 'bundledCooler')).toMatchObject({ kind: 'checkbox' });
 		const board = specFields('motherboard');
 		expect(board.find((f) => f.key === 'm2Slots')).toMatchObject({ kind: 'rows', maxRows: 8 });
-		expect(specFields('case').find((f) => f.key === 'boardFormFactors')).toMatchObject({ kind: 'multi', options: ['ATX', 'microATX', 'Mini-ITX', 'E-ATX'] });
-		expect(specFields('cooler').find((f) => f.key === 'radiatorMm')).toMatchObject({ kind: 'select', optional: true, options: ['120', '140', '240', '280', '360', '420'] });
+		expect(specFields('case').find((f) => f.key === 'boardFormFactors')).toMatchObject({
+			kind: 'multi',
+			options: ['ATX', 'microATX', 'Mini-ITX', 'E-ATX']
+		});
+		expect(specFields('cooler').find((f) => f.key === 'radiatorMm')).toMatchObject({
+			kind: 'select',
+			optional: true,
+			options: ['120', '140', '240', '280', '360', '420']
+		});
 		expect(specLabel('boostClockGhz')).toBe('Boost clock (GHz)');
 		expect(specLabel('maxGpuLengthMm')).toBe('Maximum graphics card length (mm)');
 		expect(specLabel('ratedHeatW')).toBe('Rated heat (W)');
@@ -140,7 +174,14 @@ describe('the per-category form generated from the spec schemas', () => {
 	});
 
 	it('keeps text that is not a number, so the schema names the field', () => {
-		const specs = specsFromForm(specFields('fan'), form([['spec.sizeMm', '120'], ['spec.count', 'two'], ['spec.maxRpm', '']]));
+		const specs = specsFromForm(
+			specFields('fan'),
+			form([
+				['spec.sizeMm', '120'],
+				['spec.count', 'two'],
+				['spec.maxRpm', '']
+			])
+		);
 		expect(specs).toEqual({ sizeMm: 120, count: 'two' });
 		expect(validateSpecs('fan', specs)).toEqual({
 			ok: false,
@@ -149,9 +190,21 @@ describe('the per-category form generated from the spec schemas', () => {
 				{ path: 'maxRpm', message: 'Required.' }
 			]
 		});
-		expect(validateSpecs('fan', { sizeMm: 120, count: 1.5, maxRpm: 1000 })).toEqual({ ok: false, issues: [{ path: 'count', message: 'Enter a whole number.' }] });
-		expect(validateSpecs('fan', null)).toEqual({ ok: false, issues: [{ path: '', message: 'Must be an object of fields.' }] });
-		const cpu = specsFromForm(specFields('cpu'), form([['spec.memoryTypes', 'DDR4'], ['spec.memoryTypes', 'DDR5']]));
+		expect(validateSpecs('fan', { sizeMm: 120, count: 1.5, maxRpm: 1000 })).toEqual({
+			ok: false,
+			issues: [{ path: 'count', message: 'Enter a whole number.' }]
+		});
+		expect(validateSpecs('fan', null)).toEqual({
+			ok: false,
+			issues: [{ path: '', message: 'Must be an object of fields.' }]
+		});
+		const cpu = specsFromForm(
+			specFields('cpu'),
+			form([
+				['spec.memoryTypes', 'DDR4'],
+				['spec.memoryTypes', 'DDR5']
+			])
+		);
 		expect(cpu.memoryTypes).toEqual(['DDR4', 'DDR5']);
 		expect(cpu.bundledCooler).toBe(false);
 	});

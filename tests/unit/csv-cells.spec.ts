@@ -20,12 +20,19 @@ describe('neutraliseCell (OWASP "CSV Injection" trigger characters)', () => {
 		expect(neutraliseCell(input)).toBe(output);
 	});
 
-	it.each(['Draftwell', 'Breeze 120', '{"sizeMm":120}', 'a=b', 'x-1', 'name@example', '', "'quoted", '12.5'])(
-		'leaves %j exactly as it is',
-		(input) => {
-			expect(neutraliseCell(input)).toBe(input);
-		}
-	);
+	it.each([
+		'Draftwell',
+		'Breeze 120',
+		'{"sizeMm":120}',
+		'a=b',
+		'x-1',
+		'name@example',
+		'',
+		"'quoted",
+		'12.5'
+	])('leaves %j exactly as it is', (input) => {
+		expect(neutraliseCell(input)).toBe(input);
+	});
 });
 
 describe('decodeCsvBytes', () => {
@@ -33,7 +40,10 @@ describe('decodeCsvBytes', () => {
 
 	it('decodes UTF-8 and drops a UTF-8 byte-order mark', () => {
 		expect(decodeCsvBytes(utf8('a,Brückner\n'))).toEqual({ ok: true, text: 'a,Brückner\n' });
-		expect(decodeCsvBytes(Uint8Array.from([0xef, 0xbb, 0xbf, ...utf8('a,b')]))).toEqual({ ok: true, text: 'a,b' });
+		expect(decodeCsvBytes(Uint8Array.from([0xef, 0xbb, 0xbf, ...utf8('a,b')]))).toEqual({
+			ok: true,
+			text: 'a,b'
+		});
 	});
 
 	it('names the first bad byte and its line in a Latin-1 file', () => {
@@ -51,7 +61,11 @@ describe('decodeCsvBytes', () => {
 
 	it('recognises UTF-16 by its BOM, and without one by its NUL bytes', () => {
 		const le = Uint8Array.from([0x61, 0, 0x2c, 0, 0x62, 0]);
-		for (const bytes of [le, Uint8Array.from([0xff, 0xfe, ...le]), Uint8Array.from([0xfe, 0xff, 0, 0x61])]) {
+		for (const bytes of [
+			le,
+			Uint8Array.from([0xff, 0xfe, ...le]),
+			Uint8Array.from([0xfe, 0xff, 0, 0x61])
+		]) {
 			const result = decodeCsvBytes(bytes);
 			expect(result.ok).toBe(false);
 			if (!result.ok) expect(result.reason).toMatch(/UTF-16/);

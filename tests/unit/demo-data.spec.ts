@@ -10,7 +10,12 @@ import type {
 	PsuSpecs,
 	StorageSpecs
 } from '../../src/lib/schemas/part-specs';
-import { ALTERNATE_REASONS, PART_CATEGORIES, ROLES, type PartCategory } from '../../src/lib/domain/types';
+import {
+	ALTERNATE_REASONS,
+	PART_CATEGORIES,
+	ROLES,
+	type PartCategory
+} from '../../src/lib/domain/types';
 import {
 	demoGuides,
 	demoParts,
@@ -28,31 +33,90 @@ import {
  * seeded demo never shows a pick that contradicts the product's own fit rules.
  */
 
-const CORE_CATEGORIES: PartCategory[] = ['cpu', 'cooler', 'motherboard', 'memory', 'storage', 'gpu', 'psu', 'case'];
-const ALLOWED_TAGS = ['1080p', '1440p', '4k', 'gaming', 'creator', 'quiet', 'compact', 'budget', 'atx', 'mini-itx', 'microatx'];
+const CORE_CATEGORIES: PartCategory[] = [
+	'cpu',
+	'cooler',
+	'motherboard',
+	'memory',
+	'storage',
+	'gpu',
+	'psu',
+	'case'
+];
+const ALLOWED_TAGS = [
+	'1080p',
+	'1440p',
+	'4k',
+	'gaming',
+	'creator',
+	'quiet',
+	'compact',
+	'budget',
+	'atx',
+	'mini-itx',
+	'microatx'
+];
 const KEBAB = /^[a-z0-9]+(?:-[a-z0-9]+)*$/;
 
 // Real brands and product lines of the trade; the demo must name none of them.
 const REAL_NAMES = [
-	'amd', 'intel', 'nvidia', 'geforce', 'radeon', 'ryzen', 'threadripper', 'epyc', 'xeon', 'pentium', 'celeron',
-	'corsair', 'samsung', 'asus', 'asrock', 'msi', 'gigabyte', 'aorus', 'evga', 'zotac', 'palit', 'powercolor',
-	'noctua', 'seasonic', 'crucial', 'kingston', 'western digital', 'seagate', 'sabrent', 'sk hynix', 'hynix',
-	'g\\.skill', 'teamgroup', 'fractal', 'nzxt', 'lian li', 'be quiet', 'phanteks', 'thermaltake', 'cooler master',
-	'deepcool', 'thermalright', 'windows', 'ubuntu', 'macos', 'freesync', 'g-sync'
+	'amd',
+	'intel',
+	'nvidia',
+	'geforce',
+	'radeon',
+	'ryzen',
+	'threadripper',
+	'epyc',
+	'xeon',
+	'pentium',
+	'celeron',
+	'corsair',
+	'samsung',
+	'asus',
+	'asrock',
+	'msi',
+	'gigabyte',
+	'aorus',
+	'evga',
+	'zotac',
+	'palit',
+	'powercolor',
+	'noctua',
+	'seasonic',
+	'crucial',
+	'kingston',
+	'western digital',
+	'seagate',
+	'sabrent',
+	'sk hynix',
+	'hynix',
+	'g\\.skill',
+	'teamgroup',
+	'fractal',
+	'nzxt',
+	'lian li',
+	'be quiet',
+	'phanteks',
+	'thermaltake',
+	'cooler master',
+	'deepcool',
+	'thermalright',
+	'windows',
+	'ubuntu',
+	'macos',
+	'freesync',
+	'g-sync'
 ];
 
 const partsBySlug = new Map(demoParts.map((p) => [p.slug, p]));
 const storesByName = new Map(demoStores.map((s) => [s.name, s]));
 const regionCodes = new Set(demoRegions.map((r) => r.code));
 
-function specsOf<T>(slug: string): T {
-	const part = partsBySlug.get(slug);
-	if (!part) throw new Error(`unknown part ${slug}`);
-	return part.specs as T;
-}
-
 function picksOf(guide: DemoGuide, category: PartCategory): DemoPart[] {
-	return guide.slots.filter((s) => s.category === category).map((s) => partsBySlug.get(s.pickSlug)!);
+	return guide.slots
+		.filter((s) => s.category === category)
+		.map((s) => partsBySlug.get(s.pickSlug)!);
 }
 
 function onlyPick<T>(guide: DemoGuide, category: PartCategory): T {
@@ -68,7 +132,7 @@ function latestQuote(partSlug: string, storeName: string) {
 		.sort((a, b) => a.daysAgo - b.daysAgo)[0];
 }
 
-/** AM sockets derive package power as round(tdp × 1.35) (CHECK-VALUES 8a); LGA parts state it. */
+/** AM sockets derive package power as round(tdp × 1.35) (docs/sources.md 8a); LGA parts state it. */
 function cpuPackagePower(cpu: CpuSpecs): number {
 	return cpu.packagePowerW ?? Math.round((cpu.tdpW * 135) / 100);
 }
@@ -107,7 +171,11 @@ describe('demo data is internally consistent (invented data, checked against the
 			expect(new URL(s.url).protocol).toBe('https:');
 			expect(new URL(s.url).hostname.endsWith('.example'), s.url).toBe(true);
 		}
-		for (const code of regionCodes) expect(demoStores.some((s) => s.regionCode === code), code).toBe(true);
+		for (const code of regionCodes)
+			expect(
+				demoStores.some((s) => s.regionCode === code),
+				code
+			).toBe(true);
 	});
 
 	it('has parts whose specs pass the category schema, with unique kebab-case slugs', () => {
@@ -138,8 +206,12 @@ describe('demo data is internally consistent (invented data, checked against the
 		for (const q of demoQuotes) {
 			expect(partsBySlug.has(q.partSlug), q.partSlug).toBe(true);
 			expect(storesByName.has(q.storeName), q.storeName).toBe(true);
-			expect(Number.isInteger(q.amountMinor) && q.amountMinor > 0, `${q.partSlug} ${q.amountMinor}`).toBe(true);
-			if (q.shippingMinor !== undefined) expect(Number.isInteger(q.shippingMinor) && q.shippingMinor >= 0).toBe(true);
+			expect(
+				Number.isInteger(q.amountMinor) && q.amountMinor > 0,
+				`${q.partSlug} ${q.amountMinor}`
+			).toBe(true);
+			if (q.shippingMinor !== undefined)
+				expect(Number.isInteger(q.shippingMinor) && q.shippingMinor >= 0).toBe(true);
 			expect(Number.isInteger(q.daysAgo) && q.daysAgo >= 0 && q.daysAgo <= 120).toBe(true);
 		}
 		// No two observations of one part at one store on the same day.
@@ -149,11 +221,17 @@ describe('demo data is internally consistent (invented data, checked against the
 
 	it('gives several parts a price history and leaves some parts unquoted in some region', () => {
 		const perStore = new Map<string, number>();
-		for (const q of demoQuotes) perStore.set(`${q.partSlug}|${q.storeName}`, (perStore.get(`${q.partSlug}|${q.storeName}`) ?? 0) + 1);
+		for (const q of demoQuotes)
+			perStore.set(
+				`${q.partSlug}|${q.storeName}`,
+				(perStore.get(`${q.partSlug}|${q.storeName}`) ?? 0) + 1
+			);
 		expect([...perStore.values()].filter((n) => n >= 3).length).toBeGreaterThanOrEqual(4);
 
 		const quotedIn = (slug: string, region: string) =>
-			demoQuotes.some((q) => q.partSlug === slug && storesByName.get(q.storeName)?.regionCode === region);
+			demoQuotes.some(
+				(q) => q.partSlug === slug && storesByName.get(q.storeName)?.regionCode === region
+			);
 		const gaps = demoParts.filter((p) => [...regionCodes].some((r) => !quotedIn(p.slug, r)));
 		expect(gaps.length).toBeGreaterThanOrEqual(3);
 	});
@@ -175,9 +253,22 @@ describe('demo data is internally consistent (invented data, checked against the
 	it('has build notes with the four sections and the safety cautions', () => {
 		for (const g of demoGuides) {
 			const headings = [...g.buildNotesMd.matchAll(/^## (.+)$/gm)].map((m) => m[1]);
-			expect(headings, g.slug).toEqual(['Firmware setup checklist', 'Assembly steps', 'Cable routing', 'Display pairing']);
+			expect(headings, g.slug).toEqual([
+				'Firmware setup checklist',
+				'Assembly steps',
+				'Cable routing',
+				'Display pairing'
+			]);
 			const notes = g.buildNotesMd.toLowerCase();
-			for (const phrase of ['unplug it from the mains', 'never open the power supply', '12v-2x6', 'anti-static', 'sharp', 'local electrical codes', 'manual']) {
+			for (const phrase of [
+				'unplug it from the mains',
+				'never open the power supply',
+				'12v-2x6',
+				'anti-static',
+				'sharp',
+				'local electrical codes',
+				'manual'
+			]) {
 				expect(notes, `${g.slug}: ${phrase}`).toContain(phrase);
 			}
 		}
@@ -185,7 +276,9 @@ describe('demo data is internally consistent (invented data, checked against the
 
 	for (const guide of demoGuides) {
 		describe(`guide ${guide.slug}`, () => {
-			const baseStores = new Set(demoStores.filter((s) => s.regionCode === guide.baseRegionCode).map((s) => s.name));
+			const baseStores = new Set(
+				demoStores.filter((s) => s.regionCode === guide.baseRegionCode).map((s) => s.name)
+			);
 
 			it('has at least eight slots, each with a reason and one to three alternates of its category', () => {
 				expect(guide.slots.length).toBeGreaterThanOrEqual(8);
@@ -208,24 +301,43 @@ describe('demo data is internally consistent (invented data, checked against the
 						expect(alt.note.trim().length).toBeGreaterThan(0);
 					}
 				}
-				for (const c of ['cpu', 'motherboard', 'memory', 'storage', 'gpu', 'psu', 'case'] as const) {
+				for (const c of [
+					'cpu',
+					'motherboard',
+					'memory',
+					'storage',
+					'gpu',
+					'psu',
+					'case'
+				] as const) {
 					expect(picksOf(guide, c).length, c).toBeGreaterThanOrEqual(1);
 				}
 			});
 
-			it("prices each pick at a base-region store that quotes it, and every alternate in the base region", () => {
+			it('prices each pick at a base-region store that quotes it, and every alternate in the base region', () => {
 				for (const slot of guide.slots) {
-					expect(baseStores.has(slot.quoteStore), `${slot.pickSlug} @ ${slot.quoteStore}`).toBe(true);
-					expect(latestQuote(slot.pickSlug, slot.quoteStore), `${slot.pickSlug} @ ${slot.quoteStore}`).toBeDefined();
+					expect(baseStores.has(slot.quoteStore), `${slot.pickSlug} @ ${slot.quoteStore}`).toBe(
+						true
+					);
+					expect(
+						latestQuote(slot.pickSlug, slot.quoteStore),
+						`${slot.pickSlug} @ ${slot.quoteStore}`
+					).toBeDefined();
 					for (const alt of slot.alternates) {
-						const quoted = demoQuotes.some((q) => q.partSlug === alt.partSlug && baseStores.has(q.storeName));
+						const quoted = demoQuotes.some(
+							(q) => q.partSlug === alt.partSlug && baseStores.has(q.storeName)
+						);
 						expect(quoted, `${alt.partSlug} in ${guide.baseRegionCode}`).toBe(true);
 					}
 				}
 			});
 
 			it('keeps the picks within the target budget', () => {
-				const total = guide.slots.reduce((sum, slot) => sum + latestQuote(slot.pickSlug, slot.quoteStore)!.amountMinor * slot.quantity, 0);
+				const total = guide.slots.reduce(
+					(sum, slot) =>
+						sum + latestQuote(slot.pickSlug, slot.quoteStore)!.amountMinor * slot.quantity,
+					0
+				);
 				expect(total).toBeLessThanOrEqual(guide.targetBudgetMinor);
 				expect(total).toBeGreaterThanOrEqual(guide.targetBudgetMinor * 0.85);
 			});
@@ -248,21 +360,28 @@ describe('demo data is internally consistent (invented data, checked against the
 				expect(gpu.lengthMm).toBeLessThanOrEqual(pcCase.maxGpuLengthMm);
 				expect(pcCase.psuFormFactors).toContain(psu.formFactor);
 
-				if (coolers.length === 0) expect(cpu.bundledCooler, 'no cooler slot needs a bundled cooler').toBe(true);
+				if (coolers.length === 0)
+					expect(cpu.bundledCooler, 'no cooler slot needs a bundled cooler').toBe(true);
 				for (const cooler of coolers) {
 					expect(cooler.sockets).toContain(cpu.socket);
 					expect(cooler.ratedHeatW).toBeGreaterThanOrEqual(cpuPackagePower(cpu));
-					if (cooler.type === 'air') expect(cooler.heightMm!).toBeLessThanOrEqual(pcCase.maxCoolerHeightMm);
-					if (cooler.type === 'liquid') expect(cooler.radiatorMm!).toBeLessThanOrEqual(pcCase.radiatorMm);
+					if (cooler.type === 'air')
+						expect(cooler.heightMm!).toBeLessThanOrEqual(pcCase.maxCoolerHeightMm);
+					if (cooler.type === 'liquid')
+						expect(cooler.radiatorMm!).toBeLessThanOrEqual(pcCase.radiatorMm);
 				}
 
-				const nvme = picksOf(guide, 'storage').filter((p) => (p.specs as StorageSpecs).interface === 'nvme');
+				const nvme = picksOf(guide, 'storage').filter(
+					(p) => (p.specs as StorageSpecs).interface === 'nvme'
+				);
 				expect(nvme.length).toBeLessThanOrEqual(board.m2Slots.length);
 
 				// Auxiliary connectors: the PSU must have a lead for every inlet on the card.
 				expect(gpu.powerConnectors.h12v2x6).toBeLessThanOrEqual(psu.connectors.h12v2x6);
 				expect(gpu.powerConnectors.pin8).toBeLessThanOrEqual(psu.connectors.pin8);
-				expect(gpu.powerConnectors.pin6).toBeLessThanOrEqual(psu.connectors.pin6 + psu.connectors.pin8);
+				expect(gpu.powerConnectors.pin6).toBeLessThanOrEqual(
+					psu.connectors.pin6 + psu.connectors.pin8
+				);
 
 				// Common practice, no published source: keep the load at or below about 70 % of the rating.
 				const allowanceW = 100; // board, memory, drives and fans, generously
@@ -273,7 +392,14 @@ describe('demo data is internally consistent (invented data, checked against the
 	}
 
 	it('names no real brand or product line anywhere in the demo data', () => {
-		const text = JSON.stringify({ demoUsers, demoRegions, demoStores, demoParts, demoQuotes, demoGuides });
+		const text = JSON.stringify({
+			demoUsers,
+			demoRegions,
+			demoStores,
+			demoParts,
+			demoQuotes,
+			demoGuides
+		});
 		const pattern = new RegExp(`\\b(?:${REAL_NAMES.join('|')})\\b`, 'gi');
 		expect(text.match(pattern) ?? []).toEqual([]);
 	});

@@ -9,7 +9,7 @@ import {
 
 /*
  * The fixture is the ECB's daily-file layout holding the reference rates published for
- * 2 January 2024 (CHECK-VALUES 10c: ECB "Euro foreign exchange reference rates",
+ * 2 January 2024 (docs/sources.md 10c: ECB "Euro foreign exchange reference rates",
  * eurofxref-hist.csv; two mirrors agree — status V).
  */
 const fixture = readFileSync(
@@ -33,7 +33,7 @@ function parseError(xml: string): EcbRatesError {
 	throw new Error('expected the parser to refuse this file');
 }
 
-describe('ECB daily XML: the 2 January 2024 fixture (CHECK-VALUES 10c, V)', () => {
+describe('ECB daily XML: the 2 January 2024 fixture (docs/sources.md 10c, V)', () => {
 	const parsed = parseEcbDailyXml(fixture);
 
 	it('reads the as-of date from Cube time', () => {

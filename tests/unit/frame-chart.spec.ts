@@ -12,7 +12,10 @@ const result = (workload: string, averageFps: number, low1Fps: number | null) =>
 
 describe('frameChart', () => {
 	it('draws bars on one zero-based scale with the 1 % low tick inside its bar', () => {
-		const chart = frameChart([result('Hollow Meridian', 120, 90), result('Rustwake Rally', 60, null)]);
+		const chart = frameChart([
+			result('Hollow Meridian', 120, 90),
+			result('Rustwake Rally', 60, null)
+		]);
 		const [a, b] = chart.bars;
 		if (!a || !b) throw new Error('two bars expected');
 		// Half the frames, half the length: the scale starts at zero.

@@ -1,6 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { draftInput, joinBuildNotes, splitBuildNotes } from '../../src/lib/schemas/guide-editor';
-import { applyOp, emptyFrame, emptySlot, emptyThermal, fromDraft, fromForm, moveSlot, toInput } from '../../src/lib/schemas/guide-editor-form';
+import {
+	applyOp,
+	emptyFrame,
+	emptySlot,
+	emptyThermal,
+	fromDraft,
+	fromForm,
+	moveSlot,
+	toInput
+} from '../../src/lib/schemas/guide-editor-form';
 import type { EditorDraft } from '../../src/lib/schemas/guide-editor-form';
 
 const base: EditorDraft = {
@@ -23,7 +32,21 @@ const base: EditorDraft = {
 
 function posted(fields: Record<string, string>): FormData {
 	const data = new FormData();
-	for (const [k, v] of Object.entries({ title: 'Tiny', summary: 'S', targetBudget: '1', baseRegion: 'us', disclosure: 'none', 'slots.0.key': 'a', 'slots.0.category': 'cpu', 'slots.0.label': 'L', 'slots.0.quantity': '1', 'slots.0.pickPartId': '5', 'slots.0.reason': 'R', ...fields })) data.append(k, v);
+	for (const [k, v] of Object.entries({
+		title: 'Tiny',
+		summary: 'S',
+		targetBudget: '1',
+		baseRegion: 'us',
+		disclosure: 'none',
+		'slots.0.key': 'a',
+		'slots.0.category': 'cpu',
+		'slots.0.label': 'L',
+		'slots.0.quantity': '1',
+		'slots.0.pickPartId': '5',
+		'slots.0.reason': 'R',
+		...fields
+	}))
+		data.append(k, v);
 	return data;
 }
 
@@ -35,7 +58,10 @@ describe('guide editor form', () => {
 		expect(applyOp(base, 'addSlot').slots).toHaveLength(3);
 		const withAlts = applyOp(applyOp(base, 'addAlt:0'), 'addAlt:0');
 		const keys = withAlts.slots[0]?.alternates.map((a) => a.key) ?? [];
-		expect(applyOp(withAlts, 'altDown:0:0').slots[0]?.alternates.map((a) => a.key)).toEqual([keys[1], keys[0]]);
+		expect(applyOp(withAlts, 'altDown:0:0').slots[0]?.alternates.map((a) => a.key)).toEqual([
+			keys[1],
+			keys[0]
+		]);
 		expect(applyOp(withAlts, 'removeAlt:0:1').slots[0]?.alternates).toHaveLength(1);
 		expect(applyOp(base, 'bogus:9')).toBe(base);
 		expect(moveSlot(base, 1, 0).slots.map((s) => s.key)).toEqual(['b', 'a']);
@@ -43,40 +69,100 @@ describe('guide editor form', () => {
 
 	it('reads the posted form back into the same working copy', () => {
 		const data = new FormData();
-		for (const [k, v] of Object.entries({ title: 'Tiny', summary: 'S', targetBudget: '1', baseRegion: 'us', disclosure: 'none', 'slots.0.key': 'a', 'slots.0.category': 'cpu', 'slots.0.label': 'L', 'slots.0.quantity': '2', 'slots.0.pickPartId': '5', 'slots.0.reason': 'R', 'slots.0.alternates.0.partId': '6', 'slots.0.alternates.0.reasonTag': 'quieter', 'slots.0.alternates.0.note': 'n' })) data.append(k, v);
+		for (const [k, v] of Object.entries({
+			title: 'Tiny',
+			summary: 'S',
+			targetBudget: '1',
+			baseRegion: 'us',
+			disclosure: 'none',
+			'slots.0.key': 'a',
+			'slots.0.category': 'cpu',
+			'slots.0.label': 'L',
+			'slots.0.quantity': '2',
+			'slots.0.pickPartId': '5',
+			'slots.0.reason': 'R',
+			'slots.0.alternates.0.partId': '6',
+			'slots.0.alternates.0.reasonTag': 'quieter',
+			'slots.0.alternates.0.note': 'n'
+		}))
+			data.append(k, v);
 		data.append('tags', 'gaming');
 		data.append('tags', '4k');
 		const draft = fromForm(data);
 		expect(draft.tags).toEqual(['gaming', '4k']);
 		const parsed = draftInput.parse(toInput(draft));
-		expect(parsed.slots[0]).toMatchObject({ quantity: 2, pickPartId: 5, priceQuote: null, alternates: [{ partId: 6, reasonTag: 'quieter', note: 'n' }] });
+		expect(parsed.slots[0]).toMatchObject({
+			quantity: 2,
+			pickPartId: 5,
+			priceQuote: null,
+			alternates: [{ partId: 6, reasonTag: 'quieter', note: 'n' }]
+		});
 	});
 
 	it('stores build notes as one document with four headings and splits it back', () => {
 		const notes = { firmware: '- a', assembly: '1. b', cabling: '', display: 'd' };
 		const md = joinBuildNotes(notes);
-		expect(md).toBe('## Firmware setup checklist\n\n- a\n\n## Assembly steps\n\n1. b\n\n## Display pairing\n\nd\n');
+		expect(md).toBe(
+			'## Firmware setup checklist\n\n- a\n\n## Assembly steps\n\n1. b\n\n## Display pairing\n\nd\n'
+		);
 		expect(splitBuildNotes(md)).toEqual(notes);
 		// Text under an unknown heading stays with the section before it.
-		expect(splitBuildNotes('## Assembly steps\n\nx\n\n## Extra\n\ny').assembly).toBe('x\n\n## Extra\n\ny');
+		expect(splitBuildNotes('## Assembly steps\n\nx\n\n## Extra\n\ny').assembly).toBe(
+			'x\n\n## Extra\n\ny'
+		);
 	});
 
 	it('reads repeated frame and thermal rows, closing gaps left by removed rows', () => {
 		const draft = fromForm(
 			posted({
-				'frames.0.key': 'f0', 'frames.0.workload': 'Skyreach', 'frames.0.resolution': '2560x1440', 'frames.0.preset': 'High', 'frames.0.avgFps': '143.5', 'frames.0.low1Fps': '98', 'frames.0.notes': '',
+				'frames.0.key': 'f0',
+				'frames.0.workload': 'Skyreach',
+				'frames.0.resolution': '2560x1440',
+				'frames.0.preset': 'High',
+				'frames.0.avgFps': '143.5',
+				'frames.0.low1Fps': '98',
+				'frames.0.notes': '',
 				// Row 1 was removed in the browser: row 2 follows row 0 without a hole.
-				'frames.2.key': 'f2', 'frames.2.workload': 'Tidewalk', 'frames.2.resolution': '1920x1080', 'frames.2.preset': '', 'frames.2.avgFps': '60', 'frames.2.low1Fps': '',
-				'thermals.0.key': 't0', 'thermals.0.loadName': 'Stress 30 min', 'thermals.0.cpuTempC': '78', 'thermals.0.gpuTempC': '', 'thermals.0.cpuUtilPct': '100', 'thermals.0.gpuUtilPct': '3'
+				'frames.2.key': 'f2',
+				'frames.2.workload': 'Tidewalk',
+				'frames.2.resolution': '1920x1080',
+				'frames.2.preset': '',
+				'frames.2.avgFps': '60',
+				'frames.2.low1Fps': '',
+				'thermals.0.key': 't0',
+				'thermals.0.loadName': 'Stress 30 min',
+				'thermals.0.cpuTempC': '78',
+				'thermals.0.gpuTempC': '',
+				'thermals.0.cpuUtilPct': '100',
+				'thermals.0.gpuUtilPct': '3'
 			})
 		);
-		expect(draft.frames.map((f) => [f.key, f.workload, f.avgFps, f.low1Fps])).toEqual([['f0', 'Skyreach', '143.5', '98'], ['f2', 'Tidewalk', '60', '']]);
+		expect(draft.frames.map((f) => [f.key, f.workload, f.avgFps, f.low1Fps])).toEqual([
+			['f0', 'Skyreach', '143.5', '98'],
+			['f2', 'Tidewalk', '60', '']
+		]);
 		const parsed = draftInput.parse(toInput(draft));
 		expect(parsed.frames).toEqual([
-			{ workload: 'Skyreach', resolution: '2560x1440', preset: 'High', avgFps: '143.5', low1Fps: '98', notes: '' },
-			{ workload: 'Tidewalk', resolution: '1920x1080', preset: '', avgFps: '60', low1Fps: null, notes: '' }
+			{
+				workload: 'Skyreach',
+				resolution: '2560x1440',
+				preset: 'High',
+				avgFps: '143.5',
+				low1Fps: '98',
+				notes: ''
+			},
+			{
+				workload: 'Tidewalk',
+				resolution: '1920x1080',
+				preset: '',
+				avgFps: '60',
+				low1Fps: null,
+				notes: ''
+			}
 		]);
-		expect(parsed.thermals).toEqual([{ loadName: 'Stress 30 min', cpuTempC: 78, gpuTempC: null, cpuUtilPct: 100, gpuUtilPct: 3 }]);
+		expect(parsed.thermals).toEqual([
+			{ loadName: 'Stress 30 min', cpuTempC: 78, gpuTempC: null, cpuUtilPct: 100, gpuUtilPct: 3 }
+		]);
 		// A form without result rows means "no results" (an empty list replaces), not "keep".
 		expect(draftInput.parse(toInput(fromForm(posted({})))).frames).toEqual([]);
 	});
@@ -85,15 +171,38 @@ describe('guide editor form', () => {
 		const draft = {
 			...base,
 			frames: [
-				{ ...emptyFrame('a'), workload: 'Skyreach', resolution: '2560x1440', avgFps: '90', low1Fps: '90.1' },
+				{
+					...emptyFrame('a'),
+					workload: 'Skyreach',
+					resolution: '2560x1440',
+					avgFps: '90',
+					low1Fps: '90.1'
+				},
 				{ ...emptyFrame('b'), workload: '', resolution: '1440p', avgFps: '143.55', low1Fps: '' },
-				{ ...emptyFrame('c'), workload: 'W', resolution: '1920x1080', avgFps: '2000.1', low1Fps: '0' }
+				{
+					...emptyFrame('c'),
+					workload: 'W',
+					resolution: '1920x1080',
+					avgFps: '2000.1',
+					low1Fps: '0'
+				}
 			],
-			thermals: [{ ...emptyThermal('t'), loadName: 'Idle', cpuTempC: '121', gpuTempC: '40.5', cpuUtilPct: '101', gpuUtilPct: 'x' }]
+			thermals: [
+				{
+					...emptyThermal('t'),
+					loadName: 'Idle',
+					cpuTempC: '121',
+					gpuTempC: '40.5',
+					cpuUtilPct: '101',
+					gpuUtilPct: 'x'
+				}
+			]
 		};
 		const result = draftInput.safeParse(toInput(draft));
 		expect(result.success).toBe(false);
-		const byPath = Object.fromEntries((result.error?.issues ?? []).map((i) => [i.path.join('.'), i.message]));
+		const byPath = Object.fromEntries(
+			(result.error?.issues ?? []).map((i) => [i.path.join('.'), i.message])
+		);
 		expect(byPath).toMatchObject({
 			'frames.0.low1Fps': 'The 1 % low cannot be above the average FPS.',
 			'frames.1.workload': 'Name the game or application.',
@@ -107,7 +216,22 @@ describe('guide editor form', () => {
 			'thermals.0.gpuUtilPct': 'Enter the GPU utilisation as a whole number.'
 		});
 		// Equal is fine: the 1 % low may match the average on a capped frame rate.
-		expect(draftInput.safeParse(toInput({ ...base, frames: [{ ...emptyFrame('a'), workload: 'W', resolution: '1920x1080', avgFps: '60', low1Fps: '60.0' }] })).success).toBe(true);
+		expect(
+			draftInput.safeParse(
+				toInput({
+					...base,
+					frames: [
+						{
+							...emptyFrame('a'),
+							workload: 'W',
+							resolution: '1920x1080',
+							avgFps: '60',
+							low1Fps: '60.0'
+						}
+					]
+				})
+			).success
+		).toBe(true);
 	});
 
 	it('adds and removes result rows with the no-JS operations, and round-trips a stored draft', () => {
@@ -116,8 +240,35 @@ describe('guide editor form', () => {
 		const keys = two.frames.map((f) => f.key);
 		expect(applyOp(two, 'removeFrame:0').frames.map((f) => f.key)).toEqual([keys[1]]);
 		expect(applyOp(applyOp(base, 'addThermal'), 'removeThermal:0').thermals).toEqual([]);
-		const stored = fromDraft({ title: 'T', summary: 'S', targetBudget: '1', baseRegion: 'us', tags: [], disclosure: 'none', disclosureNote: null, walkthroughUrl: null, buildNotes: base.buildNotes, slots: [], frames: [{ workload: 'W', resolution: '1920x1080', preset: '', avgFps: '59.9', low1Fps: null, notes: 'n' }], thermals: [{ loadName: 'L', cpuTempC: 70, gpuTempC: null, cpuUtilPct: 0, gpuUtilPct: null }] });
+		const stored = fromDraft({
+			title: 'T',
+			summary: 'S',
+			targetBudget: '1',
+			baseRegion: 'us',
+			tags: [],
+			disclosure: 'none',
+			disclosureNote: null,
+			walkthroughUrl: null,
+			buildNotes: base.buildNotes,
+			slots: [],
+			frames: [
+				{
+					workload: 'W',
+					resolution: '1920x1080',
+					preset: '',
+					avgFps: '59.9',
+					low1Fps: null,
+					notes: 'n'
+				}
+			],
+			thermals: [{ loadName: 'L', cpuTempC: 70, gpuTempC: null, cpuUtilPct: 0, gpuUtilPct: null }]
+		});
 		expect(stored.frames[0]).toMatchObject({ avgFps: '59.9', low1Fps: '', notes: 'n' });
-		expect(stored.thermals[0]).toMatchObject({ cpuTempC: '70', gpuTempC: '', cpuUtilPct: '0', gpuUtilPct: '' });
+		expect(stored.thermals[0]).toMatchObject({
+			cpuTempC: '70',
+			gpuTempC: '',
+			cpuUtilPct: '0',
+			gpuUtilPct: ''
+		});
 	});
 });

@@ -8,9 +8,9 @@ import { minorUnitsPerMajor } from '$lib/domain/region';
  * money.ts takes minor units from dinero.js 2.0.2's currency records. They are checked here
  * against a second, independent copy of ISO 4217 List One: the XML bundled in the
  * `currency-codes` 2.2.0 package (maintenance agency SIX, Pblshd="2024-06-25"),
- * CHECK-VALUES 10a/10b (status V).
+ * docs/sources.md 10a/10b (status V).
  *
- * Known differences (CHECK-VALUES notes 3 and 4, and what this test found):
+ * Known differences (docs/sources.md notes 3 and 4, and what this test found):
  * - XCG (Caribbean guilder, replaced ANG in 2025) is newer than the 2024-06-25 list: dinero
  *   has it, currency-codes does not. ZWG is in both.
  * - HUF: ISO says 2 decimals (cash is whole forints; Slotwise follows ISO, not cash digits).
@@ -28,7 +28,7 @@ const dinero = dineroCurrencies as unknown as Record<
 const NON_DECIMAL = new Set(['MGA', 'MRU']);
 
 describe('ISO 4217 minor units: money.ts vs currency-codes 2.2.0 (ISO 4217 List One, SIX, 2024-06-25 — V)', () => {
-	it('bundles the 2024-06-25 list with 179 codes (CHECK-VALUES 10b)', () => {
+	it('bundles the 2024-06-25 list with 179 codes (docs/sources.md 10b)', () => {
 		expect(currencyCodes.publishDate).toBe('2024-06-25');
 		expect(isoData).toHaveLength(179);
 	});
@@ -42,12 +42,12 @@ describe('ISO 4217 minor units: money.ts vs currency-codes 2.2.0 (ISO 4217 List 
 		expect(minorUnitDigits(code)).toBe(digits);
 	});
 
-	it('HUF has 2 decimals in ISO 4217 and in money.ts (CHECK-VALUES note 4)', () => {
+	it('HUF has 2 decimals in ISO 4217 and in money.ts (docs/sources.md note 4)', () => {
 		expect(currencyCodes.code('HUF')?.digits).toBe(2);
 		expect(minorUnitDigits('HUF')).toBe(2);
 	});
 
-	it('XCG is missing from currency-codes 2.2.0 but known to money.ts (CHECK-VALUES note 3)', () => {
+	it('XCG is missing from currency-codes 2.2.0 but known to money.ts (docs/sources.md note 3)', () => {
 		expect(currencyCodes.code('XCG')).toBeUndefined();
 		expect(minorUnitDigits('XCG')).toBe(2);
 	});

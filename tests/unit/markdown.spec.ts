@@ -5,7 +5,7 @@ import { unified } from 'unified';
 import { renderMarkdown, sanitiseHtml } from '../../src/lib/server/markdown';
 
 // XSS payloads an author could type into build notes. Sources for the vectors: the OWASP
-// XSS Filter Evasion Cheat Sheet and SECURITY-CHECKLIST.md §5 (raw HTML, event handlers,
+// XSS Filter Evasion Cheat Sheet and docs/security.md §5 (raw HTML, event handlers,
 // javascript:/data: URLs, iframes, svg, style).
 const corpus: Record<string, string> = {
 	scriptTag: '<script>window.__xss=1</script>',
@@ -39,7 +39,21 @@ const corpus: Record<string, string> = {
 	tableCell: '| a | b |\n|---|---|\n| <img src=x onerror=alert(1)> | [x](javascript:alert(1)) |'
 };
 
-const forbiddenTags = new Set(['script', 'iframe', 'svg', 'style', 'object', 'embed', 'form', 'meta', 'base', 'link', 'math', 'frame', 'frameset']);
+const forbiddenTags = new Set([
+	'script',
+	'iframe',
+	'svg',
+	'style',
+	'object',
+	'embed',
+	'form',
+	'meta',
+	'base',
+	'link',
+	'math',
+	'frame',
+	'frameset'
+]);
 const urlProps = ['href', 'src', 'action', 'formAction', 'poster', 'cite', 'srcSet'];
 
 /** Parses the output as a browser would (hast, no sanitiser) and checks every element. */
@@ -68,7 +82,7 @@ function assertInert(html: string) {
 	}
 }
 
-describe('renderMarkdown (remark → rehype-sanitize, SECURITY-CHECKLIST.md §5)', () => {
+describe('renderMarkdown (remark → rehype-sanitize, docs/security.md §5)', () => {
 	for (const [name, payload] of Object.entries(corpus)) {
 		it(`renders ${name} inert and idempotently`, () => {
 			const html = renderMarkdown(payload);

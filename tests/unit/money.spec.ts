@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { convertAt, formatMoney, minorUnitDigits, money, multiply, sum } from '$lib/domain/money';
 
 /*
- * Sources (CHECK-VALUES.md):
+ * Sources (docs/sources.md):
  * 10a ISO 4217 List One, maintenance agency SIX, published 2024-06-25 (V).
  * 10c ECB euro foreign exchange reference rates for 2 Jan 2024 (V).
  * 10d worked conversions with dinero.js 2.0.2, half-even (D).

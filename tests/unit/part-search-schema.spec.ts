@@ -11,7 +11,10 @@ describe('catalog search query', () => {
 			ok: true,
 			query: { q: 'cobalt', category: 'gpu', page: 2, specFilters: { minVramGb: 12 } }
 		});
-		expect(strict('')).toEqual({ ok: true, query: { q: '', category: undefined, page: 1, specFilters: {} } });
+		expect(strict('')).toEqual({
+			ok: true,
+			query: { q: '', category: undefined, page: 1, specFilters: {} }
+		});
 		expect(strict('category=')).toMatchObject({ ok: true, query: { category: undefined } });
 	});
 
@@ -36,8 +39,15 @@ describe('catalog search query', () => {
 	});
 
 	it('lenient: drops only what is wrong and says why', () => {
-		const { query, issues } = lenient('q=cobalt&category=gpu&minVramGb=16&maxLengthMm=5000&colour=red');
-		expect(query).toEqual({ q: 'cobalt', category: 'gpu', page: 1, specFilters: { minVramGb: 16 } });
+		const { query, issues } = lenient(
+			'q=cobalt&category=gpu&minVramGb=16&maxLengthMm=5000&colour=red'
+		);
+		expect(query).toEqual({
+			q: 'cobalt',
+			category: 'gpu',
+			page: 1,
+			specFilters: { minVramGb: 16 }
+		});
 		expect(Object.keys(issues).sort()).toEqual(['_form', 'maxLengthMm']);
 	});
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { SPEC_SCHEMAS, parseSpecs } from '$lib/schemas/part-specs';
 import { PART_CATEGORIES } from '$lib/domain/types';
 
-// The spec-field contract of DESIGN.md: invented example values, real field names and units.
+// The spec-field contract of docs/architecture.md: invented example values, real field names and units.
 describe('part spec schemas', () => {
 	it('has a schema for every catalog category', () => {
 		for (const category of PART_CATEGORIES) expect(SPEC_SCHEMAS[category]).toBeDefined();
@@ -60,7 +60,11 @@ describe('part spec schemas', () => {
 			sataPorts: 4,
 			wifi: true
 		};
-		expect(parseSpecs('motherboard', { ...board, m2Slots: [{ pcieGen: 5, maxLengthMm: 80 }] }).success).toBe(true);
-		expect(parseSpecs('motherboard', { ...board, m2Slots: [{ pcieGen: 5, maxLengthMm: 75 }] }).success).toBe(false);
+		expect(
+			parseSpecs('motherboard', { ...board, m2Slots: [{ pcieGen: 5, maxLengthMm: 80 }] }).success
+		).toBe(true);
+		expect(
+			parseSpecs('motherboard', { ...board, m2Slots: [{ pcieGen: 5, maxLengthMm: 75 }] }).success
+		).toBe(false);
 	});
 });

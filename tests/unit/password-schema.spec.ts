@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { isCommonPassword, newPassword, passwordLength } from '$lib/schemas/password';
 
 /*
- * NIST SP 800-63B-4 §3.1.1.2 (final 2025; CHECK-VALUES 13a, status V2 — read through
+ * NIST SP 800-63B-4 §3.1.1.2 (final 2025; docs/sources.md 13a, status V2 — read through
  * quoting secondaries): minimum 15 characters for single-factor passwords, at least 64
  * allowed, no composition rules, blocklist of common passwords, code point = 1 character.
  */

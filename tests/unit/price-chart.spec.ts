@@ -34,7 +34,10 @@ describe('price history geometry', () => {
 	it('draws one chart per currency, never mixing currencies on an axis', () => {
 		const charts = priceCharts([lindenhof, kairo, brueckner]);
 		expect(charts.map((c) => c.currency)).toEqual(['EUR', 'JPY']);
-		expect(charts[0]?.series.map((s) => s.label)).toEqual(['Germany · Lindenhof', 'Germany · Brückner']);
+		expect(charts[0]?.series.map((s) => s.label)).toEqual([
+			'Germany · Lindenhof',
+			'Germany · Brückner'
+		]);
 		expect(charts[1]?.series.map((s) => s.label)).toEqual(['Japan · Kairo']);
 		expect(charts[0]?.observations).toBe(5);
 	});
@@ -61,7 +64,9 @@ describe('price history geometry', () => {
 	it('sorts points by date even when given out of order', () => {
 		const shuffled = { ...lindenhof, points: [...lindenhof.points].reverse() };
 		const [chart] = priceCharts([shuffled]);
-		expect(chart?.series[0]?.points.map((p) => p.amountMinor)).toEqual([22900, 21500, 20500, 19900]);
+		expect(chart?.series[0]?.points.map((p) => p.amountMinor)).toEqual([
+			22900, 21500, 20500, 19900
+		]);
 	});
 
 	it('draws a step line: the price holds level until the next observation, then moves', () => {
@@ -69,7 +74,10 @@ describe('price history geometry', () => {
 		const series = chart?.series[0];
 		const [a, b] = series?.points ?? [];
 		if (!series || !a || !b) throw new Error('no points');
-		const coords = [...series.path.matchAll(/(-?[\d.]+),(-?[\d.]+)/g)].map((m) => [Number(m[1]), Number(m[2])]);
+		const coords = [...series.path.matchAll(/(-?[\d.]+),(-?[\d.]+)/g)].map((m) => [
+			Number(m[1]),
+			Number(m[2])
+		]);
 		expect(series.path.startsWith('M')).toBe(true);
 		// First point, then along at the first price to the second date, then to the second price.
 		expect(coords[0]?.[0]).toBeCloseTo(a.x, 2);
@@ -81,7 +89,9 @@ describe('price history geometry', () => {
 	});
 
 	it('gives every series in a chart its own marker shape and legend label', () => {
-		const many = ['A', 'B', 'C', 'D', 'E'].map((name, i) => eur(name, [['2026-11-0' + (i + 1), 10000 + i * 100]]));
+		const many = ['A', 'B', 'C', 'D', 'E'].map((name, i) =>
+			eur(name, [['2026-11-0' + (i + 1), 10000 + i * 100]])
+		);
 		const [chart] = priceCharts(many);
 		const shapes = chart?.series.map((s) => s.shape) ?? [];
 		expect(new Set(shapes).size).toBe(5);
@@ -111,11 +121,20 @@ describe('price history geometry', () => {
 		const point = chart?.series[0]?.points[0];
 		expect(point?.x).toBeCloseTo((CHART_SIZE.left + CHART_SIZE.width - CHART_SIZE.right) / 2, 2);
 		expect(Number.isFinite(point?.y)).toBe(true);
-		expect(chart?.summary).toBe('Prices in EUR at 1 store, 1 observation on 25 Nov 2026. All at €209.00.');
+		expect(chart?.summary).toBe(
+			'Prices in EUR at 1 store, 1 observation on 25 Nov 2026. All at €209.00.'
+		);
 	});
 
 	it('puts date ticks on distinct days, even when the chart spans only a day or two', () => {
-		for (const input of [brueckner, eur('Short', [['2026-11-25', 100], ['2026-11-27', 120]]), lindenhof]) {
+		for (const input of [
+			brueckner,
+			eur('Short', [
+				['2026-11-25', 100],
+				['2026-11-27', 120]
+			]),
+			lindenhof
+		]) {
 			const [chart] = priceCharts([input]);
 			const labels = chart?.xTicks.map((t) => t.label) ?? [];
 			expect(labels.length, input.storeName).toBeGreaterThanOrEqual(2);
@@ -124,7 +143,13 @@ describe('price history geometry', () => {
 	});
 
 	it('puts price ticks on whole minor units, so no two ticks read the same', () => {
-		const cheapYen: SeriesInput = { ...kairo, points: [{ observedAt: '2026-11-01T00:00:00.000Z', amountMinor: 100 }, { observedAt: '2026-11-02T00:00:00.000Z', amountMinor: 101 }] };
+		const cheapYen: SeriesInput = {
+			...kairo,
+			points: [
+				{ observedAt: '2026-11-01T00:00:00.000Z', amountMinor: 100 },
+				{ observedAt: '2026-11-02T00:00:00.000Z', amountMinor: 101 }
+			]
+		};
 		for (const input of [cheapYen, brueckner, kairo]) {
 			const [chart] = priceCharts([input]);
 			const labels = chart?.yTicks.map((t) => t.label) ?? [];

@@ -1,9 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { formatSpecValue, keySpecs, specLabel, specRows, specUnit } from '$lib/components/parts/spec-format';
+import {
+	formatSpecValue,
+	keySpecs,
+	specLabel,
+	specRows,
+	specUnit
+} from '$lib/components/parts/spec-format';
 import { SPEC_SCHEMAS } from '$lib/schemas/part-specs';
 import { demoParts } from '$lib/server/db/seeders/demo-data';
 
-// Units come from the field names of the spec contract (DESIGN.md "Spec fields").
+// Units come from the field names of the spec contract (docs/architecture.md "Spec fields").
 describe('spec units and labels from field names', () => {
 	it.each([
 		['lengthMm', 'mm'],
@@ -44,11 +50,16 @@ describe('spec units and labels from field names', () => {
 		expect(formatSpecValue('formFactor', 'm2-2280')).toBe('M.2 2280');
 		expect(formatSpecValue('interface', 'nvme')).toBe('NVMe');
 		expect(formatSpecValue('boardFormFactors', ['ATX', 'microATX'])).toBe('ATX, microATX');
-		expect(formatSpecValue('powerConnectors', { pin6: 0, pin8: 2, h12v2x6: 1 })).toBe('2 × 8-pin PCIe, 1 × 12V-2x6');
-		expect(formatSpecValue('powerConnectors', { pin6: 0, pin8: 0, h12v2x6: 0 })).toBe('none');
-		expect(formatSpecValue('m2Slots', [{ pcieGen: 5, maxLengthMm: 80 }, { pcieGen: 4, maxLengthMm: 80 }])).toBe(
-			'PCIe 5.0, up to 80 mm; PCIe 4.0, up to 80 mm'
+		expect(formatSpecValue('powerConnectors', { pin6: 0, pin8: 2, h12v2x6: 1 })).toBe(
+			'2 × 8-pin PCIe, 1 × 12V-2x6'
 		);
+		expect(formatSpecValue('powerConnectors', { pin6: 0, pin8: 0, h12v2x6: 0 })).toBe('none');
+		expect(
+			formatSpecValue('m2Slots', [
+				{ pcieGen: 5, maxLengthMm: 80 },
+				{ pcieGen: 4, maxLengthMm: 80 }
+			])
+		).toBe('PCIe 5.0, up to 80 mm; PCIe 4.0, up to 80 mm');
 	});
 
 	it('gives every demo part a row per stored spec and some key specs, with no raw object text', () => {

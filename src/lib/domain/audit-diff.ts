@@ -36,7 +36,11 @@ export function changedKeys(
 		const inA = Object.hasOwn(a, key);
 		const inB = Object.hasOwn(b, key);
 		if (inA && inB && JSON.stringify(a[key]) === JSON.stringify(b[key])) continue;
-		changes.push({ key, before: inA ? valueText(a[key]) : null, after: inB ? valueText(b[key]) : null });
+		changes.push({
+			key,
+			before: inA ? valueText(a[key]) : null,
+			after: inB ? valueText(b[key]) : null
+		});
 	}
 	return changes;
 }

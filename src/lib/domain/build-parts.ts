@@ -51,7 +51,8 @@ export function severityRank(severity: Severity): number {
 /** The worst severity in a list of findings (`ok` for an empty list). */
 export function worstSeverity(findings: readonly Finding[]): Severity {
 	let worst: Severity = 'ok';
-	for (const f of findings) if (SEVERITY_RANK[f.severity] > SEVERITY_RANK[worst]) worst = f.severity;
+	for (const f of findings)
+		if (SEVERITY_RANK[f.severity] > SEVERITY_RANK[worst]) worst = f.severity;
 	return worst;
 }
 
@@ -64,6 +65,7 @@ export function partName(slot: { part: { brand: string; model: string } }): stri
 export function slotsOf<C extends PartCategory>(build: BuildParts, category: C): BuildPartOf<C>[] {
 	const out: BuildPartOf<C>[] = [];
 	// The union cannot be narrowed by a generic category, hence the cast after the check.
-	for (const slot of build) if (slot.category === category) out.push(slot as unknown as BuildPartOf<C>);
+	for (const slot of build)
+		if (slot.category === category) out.push(slot as unknown as BuildPartOf<C>);
 	return out;
 }

@@ -17,7 +17,10 @@ export const REPORT_CATEGORIES = {
 	other: 'Something else'
 } as const;
 export type ReportCategory = keyof typeof REPORT_CATEGORIES;
-export const REPORT_CATEGORY_KEYS = Object.keys(REPORT_CATEGORIES) as [ReportCategory, ...ReportCategory[]];
+export const REPORT_CATEGORY_KEYS = Object.keys(REPORT_CATEGORIES) as [
+	ReportCategory,
+	...ReportCategory[]
+];
 
 /** Open until an editor decides; `dismissed` (no action) or `actioned` (content hidden). */
 export const REPORT_STATES = ['open', 'dismissed', 'actioned'] as const;

@@ -1,5 +1,5 @@
 /**
- * Alternates as drop-ins (DESIGN.md "Computations" §7): for each ranked alternate of a
+ * Alternates as drop-ins (docs/architecture.md "Computations" §7): for each ranked alternate of a
  * guide, the fit report with that alternate swapped into its slot and every other slot
  * left at the author's pick, reduced to what a reader needs beside the alternate: does
  * it fit (no conflict), how bad is the worst finding, and what changed against the picks.
@@ -74,7 +74,13 @@ function byIdentity(findings: readonly Finding[]): Map<string, Finding> {
 }
 
 function pickPart(slot: GuideSlot): BuildPart {
-	return { key: slot.key, label: slot.label, category: slot.category, quantity: slot.quantity, part: slot.pick } as BuildPart;
+	return {
+		key: slot.key,
+		label: slot.label,
+		category: slot.category,
+		quantity: slot.quantity,
+		part: slot.pick
+	} as BuildPart;
 }
 
 /**
@@ -83,9 +89,15 @@ function pickPart(slot: GuideSlot): BuildPart {
  * One full report per alternate keeps it simple and exact (cross-slot effects such as the
  * PSU rating are included); bench/fit.ts times 60 alternates at under 1 ms.
  */
-export function dropIns(slots: readonly GuideSlot[], cautionRules: readonly CautionRule[] = []): DropInReport {
+export function dropIns(
+	slots: readonly GuideSlot[],
+	cautionRules: readonly CautionRule[] = []
+): DropInReport {
 	// Editors' pairing cautions join every report, so a swap can add or clear one too.
-	const fitReport = (build: BuildPart[]): Finding[] => [...fitReportOf(build), ...pairingCautions(build, cautionRules)];
+	const fitReport = (build: BuildPart[]): Finding[] => [
+		...fitReportOf(build),
+		...pairingCautions(build, cautionRules)
+	];
 	const base: BuildPart[] = slots.map(pickPart);
 	const picks = fitReport(base);
 	const before = byIdentity(picks);
@@ -105,7 +117,8 @@ export function dropIns(slots: readonly GuideSlot[], cautionRules: readonly Caut
 			const changed: FindingChange[] = [];
 			for (const [id, f] of after) {
 				const prior = before.get(id);
-				if (!prior || prior.severity !== f.severity) changed.push({ ...f, before: prior ? prior.severity : null });
+				if (!prior || prior.severity !== f.severity)
+					changed.push({ ...f, before: prior ? prior.severity : null });
 			}
 			const gone: Finding[] = [];
 			for (const [id, f] of before) if (!after.has(id)) gone.push(f);

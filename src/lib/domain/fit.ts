@@ -1,5 +1,5 @@
 /**
- * Fit report: the compatibility findings for a set of parts (DESIGN.md "Computations" §3).
+ * Fit report: the compatibility findings for a set of parts (docs/architecture.md "Computations" §3).
  *
  * Every rule that can run gives a finding (`ok` included), so the report shows what was
  * checked. A rule whose slots are missing is skipped quietly, except "no cooler" and "no
@@ -18,7 +18,13 @@ import {
 } from './build-parts';
 import { kitCapacityGb } from './memory';
 import { formatGBs, linkBandwidthGBs, pcieLabel } from './pcie';
-import { cpuSustainedPower, estimateLoad, psuFeedsGpu, recommendedPsuW, TARGET_LOAD_SHARE_PCT } from './power';
+import {
+	cpuSustainedPower,
+	estimateLoad,
+	psuFeedsGpu,
+	recommendedPsuW,
+	TARGET_LOAD_SHARE_PCT
+} from './power';
 
 export type { BuildPart, BuildParts, Finding, Severity } from './build-parts';
 export { worstSeverity } from './build-parts';
@@ -33,26 +39,41 @@ export interface BoardSize {
 }
 
 /**
- * Maximum board sizes (CHECK-VALUES 1a–1d). ATX 12 × 9.6 in and microATX 9.6 × 9.6 in:
+ * Maximum board sizes (docs/sources.md 1a–1d). ATX 12 × 9.6 in and microATX 9.6 × 9.6 in:
  * Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3. Mini-ITX
  * 170 × 170 mm: Intel Mini-ITX Addendum v1.1, §1 Table 1. E-ATX is not standardised by
  * Intel/ATX (the 12 × 13 in board is SSI EEB), so it has no size here and fits only a
- * case that lists E-ATX (CHECK-VALUES note 10).
+ * case that lists E-ATX (docs/sources.md note 10).
  */
 export const BOARD_SIZES_MM: Readonly<Record<BoardFormFactor, BoardSize | null>> = {
-	ATX: { widthMm: 305, depthMm: 244, source: 'Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3 (ATX: 12 × 9.6 in)' },
-	microATX: { widthMm: 244, depthMm: 244, source: 'Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3 (9.6 × 9.6 in)' },
-	'Mini-ITX': { widthMm: 170, depthMm: 170, source: 'Intel Mini-ITX Addendum v1.1 to the microATX specification v1.2, §1 Table 1' },
+	ATX: {
+		widthMm: 305,
+		depthMm: 244,
+		source:
+			'Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3 (ATX: 12 × 9.6 in)'
+	},
+	microATX: {
+		widthMm: 244,
+		depthMm: 244,
+		source: 'Intel microATX Motherboard Interface Specification v1.2, §2.1 Table 3 (9.6 × 9.6 in)'
+	},
+	'Mini-ITX': {
+		widthMm: 170,
+		depthMm: 170,
+		source: 'Intel Mini-ITX Addendum v1.1 to the microATX specification v1.2, §1 Table 1'
+	},
 	'E-ATX': null
 };
 
 /** "ATX (305 × 244 mm)"; E-ATX says it has no standard size. */
 export function boardSizeText(formFactor: BoardFormFactor): string {
 	const size = BOARD_SIZES_MM[formFactor];
-	return size ? `${formFactor} (${size.widthMm} × ${size.depthMm} mm)` : `${formFactor} (no standard size; SSI EEB, the nearest standard, is 305 × 330 mm)`;
+	return size
+		? `${formFactor} (${size.widthMm} × ${size.depthMm} mm)`
+		: `${formFactor} (no standard size; SSI EEB, the nearest standard, is 305 × 330 mm)`;
 }
 
-/** M.2 module length in mm from its name: 22 mm wide + length, 2280 → 80 (CHECK-VALUES 7). */
+/** M.2 module length in mm from its name: 22 mm wide + length, 2280 → 80 (docs/sources.md 7). */
 export function m2LengthMm(formFactor: string): number | null {
 	const match = /^m2-22(\d{2,3})$/.exec(formFactor);
 	return match ? Number(match[1]) : null;
@@ -89,8 +110,18 @@ const cpuSocketBoard: Rule = ({ cpu, board }, out) => {
 	const b = board.part.specs.socket;
 	out.push(
 		a === b
-			? { rule: 'cpu-socket-board', severity: 'ok', slots: [cpu.key, board.key], message: `${partName(cpu)} and ${partName(board)} share the ${a} socket.` }
-			: { rule: 'cpu-socket-board', severity: 'conflict', slots: [cpu.key, board.key], message: `${partName(cpu)} is an ${a} CPU; ${partName(board)} has an ${b} socket.` }
+			? {
+					rule: 'cpu-socket-board',
+					severity: 'ok',
+					slots: [cpu.key, board.key],
+					message: `${partName(cpu)} and ${partName(board)} share the ${a} socket.`
+				}
+			: {
+					rule: 'cpu-socket-board',
+					severity: 'conflict',
+					slots: [cpu.key, board.key],
+					message: `${partName(cpu)} is an ${a} CPU; ${partName(board)} has an ${b} socket.`
+				}
 	);
 };
 
@@ -101,8 +132,18 @@ const cpuSocketCooler: Rule = ({ cpu, coolers }, out) => {
 		const sockets = cooler.part.specs.sockets;
 		out.push(
 			sockets.includes(socket)
-				? { rule: 'cpu-socket-cooler', severity: 'ok', slots: [cooler.key, cpu.key], message: `${partName(cooler)} mounts on ${socket}, the socket of ${partName(cpu)}.` }
-				: { rule: 'cpu-socket-cooler', severity: 'conflict', slots: [cooler.key, cpu.key], message: `${partName(cooler)} mounts on ${listText(sockets)} only; ${partName(cpu)} is ${socket}.` }
+				? {
+						rule: 'cpu-socket-cooler',
+						severity: 'ok',
+						slots: [cooler.key, cpu.key],
+						message: `${partName(cooler)} mounts on ${socket}, the socket of ${partName(cpu)}.`
+					}
+				: {
+						rule: 'cpu-socket-cooler',
+						severity: 'conflict',
+						slots: [cooler.key, cpu.key],
+						message: `${partName(cooler)} mounts on ${listText(sockets)} only; ${partName(cpu)} is ${socket}.`
+					}
 		);
 	}
 };
@@ -114,8 +155,18 @@ const memoryTypeBoard: Rule = ({ memory, board }, out) => {
 		const t = kit.part.specs.type;
 		out.push(
 			t === boardType
-				? { rule: 'memory-type-board', severity: 'ok', slots: [kit.key, board.key], message: `${partName(kit)} is ${t}, the memory type of ${partName(board)}.` }
-				: { rule: 'memory-type-board', severity: 'conflict', slots: [kit.key, board.key], message: `${partName(kit)} is ${t}; ${partName(board)} takes ${boardType} only.` }
+				? {
+						rule: 'memory-type-board',
+						severity: 'ok',
+						slots: [kit.key, board.key],
+						message: `${partName(kit)} is ${t}, the memory type of ${partName(board)}.`
+					}
+				: {
+						rule: 'memory-type-board',
+						severity: 'conflict',
+						slots: [kit.key, board.key],
+						message: `${partName(kit)} is ${t}; ${partName(board)} takes ${boardType} only.`
+					}
 		);
 	}
 };
@@ -127,8 +178,18 @@ const memoryTypeCpu: Rule = ({ memory, cpu }, out) => {
 		const t = kit.part.specs.type;
 		out.push(
 			supported.includes(t)
-				? { rule: 'memory-type-cpu', severity: 'ok', slots: [kit.key, cpu.key], message: `${partName(cpu)} supports ${t}, the type of ${partName(kit)}.` }
-				: { rule: 'memory-type-cpu', severity: 'conflict', slots: [kit.key, cpu.key], message: `${partName(kit)} is ${t}; ${partName(cpu)} supports ${listText(supported)} only.` }
+				? {
+						rule: 'memory-type-cpu',
+						severity: 'ok',
+						slots: [kit.key, cpu.key],
+						message: `${partName(cpu)} supports ${t}, the type of ${partName(kit)}.`
+					}
+				: {
+						rule: 'memory-type-cpu',
+						severity: 'conflict',
+						slots: [kit.key, cpu.key],
+						message: `${partName(kit)} is ${t}; ${partName(cpu)} supports ${listText(supported)} only.`
+					}
 		);
 	}
 };
@@ -136,7 +197,9 @@ const memoryTypeCpu: Rule = ({ memory, cpu }, out) => {
 const memorySlotsAndCapacity: Rule = ({ memory, board }, out) => {
 	if (!board || memory.length === 0) return;
 	const slots = [...memory.map((m) => m.key), board.key];
-	const names = listText(memory.map((m) => (m.quantity > 1 ? `${m.quantity} × ${partName(m)}` : partName(m))));
+	const names = listText(
+		memory.map((m) => (m.quantity > 1 ? `${m.quantity} × ${partName(m)}` : partName(m)))
+	);
 	let modules = 0;
 	let totalGb = 0;
 	for (const kit of memory) {
@@ -146,13 +209,33 @@ const memorySlotsAndCapacity: Rule = ({ memory, board }, out) => {
 	const b = board.part.specs;
 	out.push(
 		modules <= b.memorySlots
-			? { rule: 'memory-slots', severity: 'ok', slots, message: `${names}: ${plural(modules, 'module')} for the ${b.memorySlots} memory slots of ${partName(board)}.` }
-			: { rule: 'memory-slots', severity: 'conflict', slots, message: `${names}: ${plural(modules, 'module')}, but ${partName(board)} has ${b.memorySlots} memory slots.` }
+			? {
+					rule: 'memory-slots',
+					severity: 'ok',
+					slots,
+					message: `${names}: ${plural(modules, 'module')} for the ${b.memorySlots} memory slots of ${partName(board)}.`
+				}
+			: {
+					rule: 'memory-slots',
+					severity: 'conflict',
+					slots,
+					message: `${names}: ${plural(modules, 'module')}, but ${partName(board)} has ${b.memorySlots} memory slots.`
+				}
 	);
 	out.push(
 		totalGb <= b.maxMemoryGb
-			? { rule: 'memory-capacity', severity: 'ok', slots, message: `${names}: ${totalGb} GB in total; ${partName(board)} supports up to ${b.maxMemoryGb} GB.` }
-			: { rule: 'memory-capacity', severity: 'conflict', slots, message: `${names}: ${totalGb} GB in total, above the ${b.maxMemoryGb} GB ${partName(board)} supports.` }
+			? {
+					rule: 'memory-capacity',
+					severity: 'ok',
+					slots,
+					message: `${names}: ${totalGb} GB in total; ${partName(board)} supports up to ${b.maxMemoryGb} GB.`
+				}
+			: {
+					rule: 'memory-capacity',
+					severity: 'conflict',
+					slots,
+					message: `${names}: ${totalGb} GB in total, above the ${b.maxMemoryGb} GB ${partName(board)} supports.`
+				}
 	);
 };
 
@@ -163,21 +246,38 @@ const boardFormFactorCase: Rule = ({ board, pcCase }, out) => {
 	const slots = [board.key, pcCase.key];
 	const takes = `${partName(pcCase)} takes ${listText(listed)}`;
 	if (listed.includes(ff)) {
-		out.push({ rule: 'board-form-factor-case', severity: 'ok', slots, message: `${partName(board)} is ${boardSizeText(ff)}; ${takes}.` });
+		out.push({
+			rule: 'board-form-factor-case',
+			severity: 'ok',
+			slots,
+			message: `${partName(board)} is ${boardSizeText(ff)}; ${takes}.`
+		});
 		return;
 	}
 	// Not listed: a standard board no larger than a listed standard size usually mounts,
 	// because microATX and Mini-ITX use a subset of the ATX mounting holes (microATX
 	// specification v1.2 aims at ATX chassis compatibility; wording from memory, M).
 	const size = BOARD_SIZES_MM[ff];
-	const roomy = size !== null && listed.some((other) => {
-		const o = BOARD_SIZES_MM[other];
-		return o !== null && o.widthMm >= size.widthMm && o.depthMm >= size.depthMm;
-	});
+	const roomy =
+		size !== null &&
+		listed.some((other) => {
+			const o = BOARD_SIZES_MM[other];
+			return o !== null && o.widthMm >= size.widthMm && o.depthMm >= size.depthMm;
+		});
 	out.push(
 		roomy
-			? { rule: 'board-form-factor-case', severity: 'caution', slots, message: `${partName(board)} is ${boardSizeText(ff)}; ${takes}, not ${ff} by name. Smaller boards share the ATX mounting holes, so it usually fits: check the case manual.` }
-			: { rule: 'board-form-factor-case', severity: 'conflict', slots, message: `${partName(board)} is ${boardSizeText(ff)}; ${takes} only (largest: ${boardSizeText(largestListed(listed))}).` }
+			? {
+					rule: 'board-form-factor-case',
+					severity: 'caution',
+					slots,
+					message: `${partName(board)} is ${boardSizeText(ff)}; ${takes}, not ${ff} by name. Smaller boards share the ATX mounting holes, so it usually fits: check the case manual.`
+				}
+			: {
+					rule: 'board-form-factor-case',
+					severity: 'conflict',
+					slots,
+					message: `${partName(board)} is ${boardSizeText(ff)}; ${takes} only (largest: ${boardSizeText(largestListed(listed))}).`
+				}
 	);
 };
 
@@ -199,8 +299,18 @@ const gpuLengthCase: Rule = ({ gpus, pcCase }, out) => {
 		const mm = gpu.part.specs.lengthMm;
 		out.push(
 			mm <= maxMm
-				? { rule: 'gpu-length-case', severity: 'ok', slots: [gpu.key, pcCase.key], message: `${partName(gpu)} fits ${partName(pcCase)}: card is ${mm} mm, case fits ${maxMm} mm (${maxMm - mm} mm to spare).` }
-				: { rule: 'gpu-length-case', severity: 'conflict', slots: [gpu.key, pcCase.key], message: `${partName(gpu)} is too long for ${partName(pcCase)}: card is ${mm} mm, case fits ${maxMm} mm (${mm - maxMm} mm over).` }
+				? {
+						rule: 'gpu-length-case',
+						severity: 'ok',
+						slots: [gpu.key, pcCase.key],
+						message: `${partName(gpu)} fits ${partName(pcCase)}: card is ${mm} mm, case fits ${maxMm} mm (${maxMm - mm} mm to spare).`
+					}
+				: {
+						rule: 'gpu-length-case',
+						severity: 'conflict',
+						slots: [gpu.key, pcCase.key],
+						message: `${partName(gpu)} is too long for ${partName(pcCase)}: card is ${mm} mm, case fits ${maxMm} mm (${mm - maxMm} mm over).`
+					}
 		);
 	}
 };
@@ -214,8 +324,18 @@ const coolerClearanceCase: Rule = ({ coolers, pcCase }, out) => {
 		if (s.type === 'air' && s.heightMm !== undefined) {
 			out.push(
 				s.heightMm <= c.maxCoolerHeightMm
-					? { rule: 'cooler-height-case', severity: 'ok', slots, message: `${partName(cooler)} fits ${partName(pcCase)}: cooler is ${s.heightMm} mm tall, case fits ${c.maxCoolerHeightMm} mm.` }
-					: { rule: 'cooler-height-case', severity: 'conflict', slots, message: `${partName(cooler)} is too tall for ${partName(pcCase)}: cooler is ${s.heightMm} mm, case fits ${c.maxCoolerHeightMm} mm (${s.heightMm - c.maxCoolerHeightMm} mm over).` }
+					? {
+							rule: 'cooler-height-case',
+							severity: 'ok',
+							slots,
+							message: `${partName(cooler)} fits ${partName(pcCase)}: cooler is ${s.heightMm} mm tall, case fits ${c.maxCoolerHeightMm} mm.`
+						}
+					: {
+							rule: 'cooler-height-case',
+							severity: 'conflict',
+							slots,
+							message: `${partName(cooler)} is too tall for ${partName(pcCase)}: cooler is ${s.heightMm} mm, case fits ${c.maxCoolerHeightMm} mm (${s.heightMm - c.maxCoolerHeightMm} mm over).`
+						}
 			);
 		} else if (s.type === 'liquid' && s.radiatorMm !== undefined) {
 			let severity: Severity = 'ok';
@@ -238,15 +358,30 @@ const psuFormFactorCase: Rule = ({ psu, pcCase }, out) => {
 	const listed = pcCase.part.specs.psuFormFactors;
 	const slots = [psu.key, pcCase.key];
 	if (listed.includes(ff)) {
-		out.push({ rule: 'psu-form-factor-case', severity: 'ok', slots, message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies.` });
+		out.push({
+			rule: 'psu-form-factor-case',
+			severity: 'ok',
+			slots,
+			message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies.`
+		});
 		return;
 	}
 	// A smaller unit in a larger bay is common practice with an adapter bracket.
 	const larger = listed.some((other) => PSU_SIZE_ORDER[other] > PSU_SIZE_ORDER[ff]);
 	out.push(
 		larger
-			? { rule: 'psu-form-factor-case', severity: 'caution', slots, message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies. A smaller unit fits a larger bay with an adapter bracket (often sold separately).` }
-			: { rule: 'psu-form-factor-case', severity: 'conflict', slots, message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies only.` }
+			? {
+					rule: 'psu-form-factor-case',
+					severity: 'caution',
+					slots,
+					message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies. A smaller unit fits a larger bay with an adapter bracket (often sold separately).`
+				}
+			: {
+					rule: 'psu-form-factor-case',
+					severity: 'conflict',
+					slots,
+					message: `${partName(psu)} is ${ff}; ${partName(pcCase)} takes ${listText(listed)} power supplies only.`
+				}
 	);
 };
 
@@ -263,7 +398,7 @@ const psuRating: Rule = ({ build, psu }, out) => {
 		severity = 'conflict';
 		message = `${partName(psu)} is rated ${rated} W, below the estimated load of ${loadW} W. Recommended: ${recommended} W.`;
 	} else if (loadW * 3 > rated * 2) {
-		// DESIGN.md: the load should sit near half to two-thirds of the rating. The
+		// docs/architecture.md: the load should sit near half to two-thirds of the rating. The
 		// recommendation aims at 60 %; only a load beyond two-thirds earns a caution.
 		severity = 'caution';
 		message = `${partName(psu)} is rated ${rated} W; the estimated load of ${loadW} W is ${sharePct} % of it. Recommended: ${recommended} W, ${basis}.`;
@@ -309,7 +444,9 @@ const m2Drives: Rule = ({ storage, board }, out) => {
 			if (free.length === 0) unplaced.push(drive);
 			else
 				out.push({
-					rule: 'm2-length', severity: 'conflict', slots,
+					rule: 'm2-length',
+					severity: 'conflict',
+					slots,
 					message: `${name} is ${drive.lengthMm} mm long (M.2 22${drive.lengthMm}); the free M.2 slots of ${boardName} take up to ${Math.max(...free.map((s) => s.maxLengthMm))} mm.`
 				});
 			continue;
@@ -326,19 +463,25 @@ const m2Drives: Rule = ({ storage, board }, out) => {
 
 		if (drive.gen === 0) {
 			out.push({
-				rule: 'm2-slot', severity: 'caution', slots,
+				rule: 'm2-slot',
+				severity: 'caution',
+				slots,
 				message: `${name} is an M.2 SATA drive for ${where}: many M.2 slots take NVMe only, so check in the board manual that this one accepts SATA.`
 			});
 		} else if (chosen.pcieGen < drive.gen) {
 			const slotGBs = formatGBs(linkBandwidthGBs(chosen.pcieGen, 4));
 			const driveGBs = formatGBs(linkBandwidthGBs(drive.gen, 4));
 			out.push({
-				rule: 'm2-slot', severity: 'caution', slots,
+				rule: 'm2-slot',
+				severity: 'caution',
+				slots,
 				message: `${name} is a ${pcieLabel(drive.gen)} drive in ${where}: it works, but at up to ${slotGBs} instead of ${driveGBs} (x4 link, usable one direction).`
 			});
 		} else {
 			out.push({
-				rule: 'm2-slot', severity: 'ok', slots,
+				rule: 'm2-slot',
+				severity: 'ok',
+				slots,
 				message: `${name} (${pcieLabel(drive.gen)}, M.2 22${drive.lengthMm}) goes in ${where}.`
 			});
 		}
@@ -347,7 +490,9 @@ const m2Drives: Rule = ({ storage, board }, out) => {
 	if (unplaced.length > 0) {
 		const keys = [...new Set(drives.map((d) => d.slot.key))];
 		out.push({
-			rule: 'm2-count', severity: 'conflict', slots: [...keys, board.key],
+			rule: 'm2-count',
+			severity: 'conflict',
+			slots: [...keys, board.key],
 			message: `${plural(drives.length, 'M.2 drive')} (${listText([...new Set(drives.map((d) => partName(d.slot)))])}), but ${boardName} has ${plural(boardSlots.length, 'M.2 slot')}.`
 		});
 	}
@@ -355,7 +500,9 @@ const m2Drives: Rule = ({ storage, board }, out) => {
 
 const sataPorts: Rule = ({ storage, board }, out) => {
 	if (!board) return;
-	const sata = storage.filter((s) => s.part.specs.interface === 'sata' && m2LengthMm(s.part.specs.formFactor) === null);
+	const sata = storage.filter(
+		(s) => s.part.specs.interface === 'sata' && m2LengthMm(s.part.specs.formFactor) === null
+	);
 	if (sata.length === 0) return;
 	let count = 0;
 	for (const s of sata) count += s.quantity;
@@ -364,8 +511,18 @@ const sataPorts: Rule = ({ storage, board }, out) => {
 	const names = listText(sata.map((s) => partName(s)));
 	out.push(
 		count <= ports
-			? { rule: 'sata-ports', severity: 'ok', slots, message: `${names}: ${plural(count, 'SATA drive')} for the ${ports} SATA ports of ${partName(board)}.` }
-			: { rule: 'sata-ports', severity: 'conflict', slots, message: `${names}: ${plural(count, 'SATA drive')}, but ${partName(board)} has ${plural(ports, 'SATA port')}.` }
+			? {
+					rule: 'sata-ports',
+					severity: 'ok',
+					slots,
+					message: `${names}: ${plural(count, 'SATA drive')} for the ${ports} SATA ports of ${partName(board)}.`
+				}
+			: {
+					rule: 'sata-ports',
+					severity: 'conflict',
+					slots,
+					message: `${names}: ${plural(count, 'SATA drive')}, but ${partName(board)} has ${plural(ports, 'SATA port')}.`
+				}
 	);
 };
 
@@ -373,8 +530,18 @@ const cpuCooling: Rule = ({ cpu, coolers }, out) => {
 	if (!cpu || coolers.length > 0) return;
 	out.push(
 		cpu.part.specs.bundledCooler
-			? { rule: 'cpu-cooler', severity: 'ok', slots: [cpu.key], message: `${partName(cpu)} comes with a cooler, so the build needs no cooler slot.` }
-			: { rule: 'cpu-cooler', severity: 'conflict', slots: [cpu.key], message: `${partName(cpu)} comes without a cooler and the build has no CPU cooler.` }
+			? {
+					rule: 'cpu-cooler',
+					severity: 'ok',
+					slots: [cpu.key],
+					message: `${partName(cpu)} comes with a cooler, so the build needs no cooler slot.`
+				}
+			: {
+					rule: 'cpu-cooler',
+					severity: 'conflict',
+					slots: [cpu.key],
+					message: `${partName(cpu)} comes without a cooler and the build has no CPU cooler.`
+				}
 	);
 };
 
@@ -382,22 +549,43 @@ const cpuGraphics: Rule = ({ cpu, gpus }, out) => {
 	if (!cpu || gpus.length > 0) return;
 	out.push(
 		cpu.part.specs.integratedGraphics
-			? { rule: 'cpu-graphics', severity: 'ok', slots: [cpu.key], message: `${partName(cpu)} has integrated graphics; the display connects to the board's video outputs.` }
-			: { rule: 'cpu-graphics', severity: 'conflict', slots: [cpu.key], message: `${partName(cpu)} has no integrated graphics and the build has no graphics card: there is no display output.` }
+			? {
+					rule: 'cpu-graphics',
+					severity: 'ok',
+					slots: [cpu.key],
+					message: `${partName(cpu)} has integrated graphics; the display connects to the board's video outputs.`
+				}
+			: {
+					rule: 'cpu-graphics',
+					severity: 'conflict',
+					slots: [cpu.key],
+					message: `${partName(cpu)} has no integrated graphics and the build has no graphics card: there is no display output.`
+				}
 	);
 };
 
 const coolerHeat: Rule = ({ cpu, coolers }, out) => {
 	if (!cpu) return;
 	const power = cpuSustainedPower(cpu.part.specs);
-	// CHECK-VALUES 15: cooler heat ratings have no common test method across vendors.
-	const caveat = 'cooler heat ratings have no common test method across vendors, so treat this as a rough guide';
+	// docs/sources.md 15: cooler heat ratings have no common test method across vendors.
+	const caveat =
+		'cooler heat ratings have no common test method across vendors, so treat this as a rough guide';
 	for (const cooler of coolers) {
 		const rated = cooler.part.specs.ratedHeatW;
 		out.push(
 			rated >= power.watts
-				? { rule: 'cooler-heat', severity: 'ok', slots: [cooler.key, cpu.key], message: `${partName(cooler)} is rated for ${rated} W; ${partName(cpu)} sustains about ${power.watts} W (${power.note}). Note: ${caveat}.` }
-				: { rule: 'cooler-heat', severity: 'caution', slots: [cooler.key, cpu.key], message: `${partName(cooler)} is rated for ${rated} W, below the ${power.watts} W ${partName(cpu)} sustains (${power.note}): expect higher temperatures, fan noise or lower clocks under long loads. Note: ${caveat}.` }
+				? {
+						rule: 'cooler-heat',
+						severity: 'ok',
+						slots: [cooler.key, cpu.key],
+						message: `${partName(cooler)} is rated for ${rated} W; ${partName(cpu)} sustains about ${power.watts} W (${power.note}). Note: ${caveat}.`
+					}
+				: {
+						rule: 'cooler-heat',
+						severity: 'caution',
+						slots: [cooler.key, cpu.key],
+						message: `${partName(cooler)} is rated for ${rated} W, below the ${power.watts} W ${partName(cpu)} sustains (${power.note}): expect higher temperatures, fan noise or lower clocks under long loads. Note: ${caveat}.`
+					}
 		);
 	}
 };

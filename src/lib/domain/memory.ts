@@ -3,12 +3,13 @@
  *
  * DDR transfers twice per clock, so one clock cycle lasts 2000 / (MT/s) ns, and the
  * first word arrives after CAS-latency cycles (Crucial, "Speed vs. latency":
- * "latency (ns) = clock cycle time (ns) x number of clock cycles"; CHECK-VALUES 5c).
+ * "latency (ns) = clock cycle time (ns) x number of clock cycles"; docs/sources.md 5c).
  */
 
 /** Clock cycle time in ns for a data rate in MT/s (DDR: two transfers per cycle). */
 export function cycleTimeNs(speedMts: number): number {
-	if (!(speedMts > 0) || !Number.isFinite(speedMts)) throw new RangeError(`Data rate must be positive, got ${speedMts}`);
+	if (!(speedMts > 0) || !Number.isFinite(speedMts))
+		throw new RangeError(`Data rate must be positive, got ${speedMts}`);
 	return 2000 / speedMts;
 }
 
@@ -18,7 +19,9 @@ export function cycleTimeNs(speedMts: number): number {
  */
 export function firstWordLatencyNs(casLatency: number, speedMts: number): number {
 	if (!Number.isInteger(casLatency) || casLatency <= 0) {
-		throw new RangeError(`CAS latency must be a positive whole number of cycles, got ${casLatency}`);
+		throw new RangeError(
+			`CAS latency must be a positive whole number of cycles, got ${casLatency}`
+		);
 	}
 	return casLatency * cycleTimeNs(speedMts);
 }

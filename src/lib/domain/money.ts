@@ -18,7 +18,8 @@ export function currencyOf(code: string): Currency<number> {
 	if (!currency) throw new RangeError(`Unknown ISO 4217 currency code: ${code}`);
 	// MGA and MRU divide into fifths; ISO lists them with 2 digits. Amounts here are
 	// decimal minor units, so those two are refused rather than priced wrongly.
-	if (currency.base !== 10) throw new RangeError(`${code} has non-decimal subunits, which Slotwise does not price`);
+	if (currency.base !== 10)
+		throw new RangeError(`${code} has non-decimal subunits, which Slotwise does not price`);
 	return currency;
 }
 
@@ -81,7 +82,8 @@ export function convertAt(m: Money, to: string, rate: string): Money {
 	if (!match) throw new RangeError(`Rate must be a positive decimal string, got "${rate}"`);
 	const fraction = match[2] ?? '';
 	const amount = Number(`${match[1]}${fraction}`);
-	if (!Number.isSafeInteger(amount) || amount === 0) throw new RangeError(`Unusable rate "${rate}"`);
+	if (!Number.isSafeInteger(amount) || amount === 0)
+		throw new RangeError(`Unusable rate "${rate}"`);
 	const target = currencyOf(to);
 	const converted = convert(toDinero(m), target, {
 		[target.code]: { amount, scale: fraction.length }

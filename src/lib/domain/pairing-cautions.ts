@@ -68,7 +68,11 @@ function same(a: unknown, b: unknown): boolean {
 }
 
 /** Whether `actual` (a part's spec value) meets one condition; undefined or null never does. */
-export function conditionHolds(actual: unknown, operator: CautionOperator, expected: ConditionValue): boolean {
+export function conditionHolds(
+	actual: unknown,
+	operator: CautionOperator,
+	expected: ConditionValue
+): boolean {
 	if (actual === undefined || actual === null) return false;
 	switch (operator) {
 		case 'eq':
@@ -89,19 +93,29 @@ export function conditionHolds(actual: unknown, operator: CautionOperator, expec
 			return Array.isArray(expected) && (expected as unknown[]).some((e) => same(actual, e));
 		case 'contains':
 			if (Array.isArray(actual)) return actual.some((a) => same(a, expected));
-			return typeof actual === 'string' && typeof expected === 'string' && actual.toLowerCase().includes(expected.toLowerCase());
+			return (
+				typeof actual === 'string' &&
+				typeof expected === 'string' &&
+				actual.toLowerCase().includes(expected.toLowerCase())
+			);
 	}
 }
 
 /** Keys of the slots the rule is about, or null when it does not fire. */
-export function ruleMatches(build: BuildParts, conditions: readonly CautionCondition[]): string[] | null {
+export function ruleMatches(
+	build: BuildParts,
+	conditions: readonly CautionCondition[]
+): string[] | null {
 	if (conditions.length === 0) return null;
 	const byCategory = new Map<PartCategory, CautionCondition[]>();
-	for (const c of conditions) byCategory.set(c.category, [...(byCategory.get(c.category) ?? []), c]);
+	for (const c of conditions)
+		byCategory.set(c.category, [...(byCategory.get(c.category) ?? []), c]);
 	const slots: string[] = [];
 	for (const [category, list] of byCategory) {
 		const matching = build.filter(
-			(slot) => slot.category === category && list.every((c) => conditionHolds(valueAt(slot.part.specs, c.field), c.operator, c.value))
+			(slot) =>
+				slot.category === category &&
+				list.every((c) => conditionHolds(valueAt(slot.part.specs, c.field), c.operator, c.value))
 		);
 		if (matching.length === 0) return null;
 		for (const slot of matching) slots.push(slot.key);

@@ -5,11 +5,11 @@
  * in GB/s (10^9 bytes per second), after line encoding (8b/10b for 1.0/2.0, 128b/130b for
  * 3.0–5.0) and before packet/protocol overhead. PCI-SIG headlines quote raw bidirectional
  * figures instead (4.0 x16 "64 GB/s"), which is why a 4.0 x4 drive link shows here as
- * ≈ 7.88 GB/s (CHECK-VALUES 6 and note 6).
+ * ≈ 7.88 GB/s (docs/sources.md 6 and note 6).
  *
  * Sources: PCI-SIG PCIe 3.0 FAQ (8 GT/s, 128b/130b); rates double per generation.
  * 6.0 (64 GT/s, PAM4, FLIT with FEC) is left out: its usable share depends on the FLIT
- * split, which we only have from memory (CHECK-VALUES 6, status M).
+ * split, which we only have from memory (docs/sources.md 6, status M).
  */
 
 export const PCIE_BANDWIDTH_CONVENTION =
@@ -57,7 +57,8 @@ export function laneBandwidthGBs(gen: number): number {
 
 /** Usable GB/s of a link of `lanes` lanes, one direction (4.0 x4 ≈ 7.88). */
 export function linkBandwidthGBs(gen: number, lanes: number): number {
-	if (![1, 2, 4, 8, 16].includes(lanes)) throw new RangeError(`PCIe links have 1, 2, 4, 8 or 16 lanes, got ${lanes}`);
+	if (![1, 2, 4, 8, 16].includes(lanes))
+		throw new RangeError(`PCIe links have 1, 2, 4, 8 or 16 lanes, got ${lanes}`);
 	return laneBandwidthGBs(gen) * lanes;
 }
 

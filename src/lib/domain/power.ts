@@ -2,7 +2,7 @@
  * Power budget: estimated system load, a recommended PSU rating, what the graphics card
  * can draw through its slot and connectors, and whether the PSU's leads can feed it.
  *
- * Published limits (CHECK-VALUES):
+ * Published limits (docs/sources.md):
  * - PCIe x16 slot 75 W (PCIe CEM, unchanged since CEM 1.1; 2a, secondary sources).
  * - Auxiliary connectors: 6-pin 75 W, 8-pin 150 W, 12V-2x6 / 12VHPWR 600 W (Intel ATX
  *   Version 3 PSU Design Guide, doc 336521 rev 2.0, Table 3-5; 2b).
@@ -14,13 +14,7 @@
  * Everything called an *allowance* below is common practice, no published source.
  */
 import type { CpuSpecs, GpuSpecs } from '../schemas/part-specs';
-import {
-	partName,
-	slotsOf,
-	type BuildPartOf,
-	type BuildParts,
-	type Finding
-} from './build-parts';
+import { partName, slotsOf, type BuildPartOf, type BuildParts, type Finding } from './build-parts';
 
 /** PCIe CEM: an x16 graphics slot delivers 75 W (66 W on +12 V, 9.9 W on +3.3 V). */
 export const PCIE_SLOT_W = 75;
@@ -56,7 +50,7 @@ export const COMMON_PSU_SIZES_W = [450, 550, 650, 750, 850, 1000, 1200, 1300, 15
 /**
  * Target: the estimated load at most 60 % of the rating, so it sits near half to
  * two-thirds after rounding up to a common size, where units run cool and quiet, with
- * room for short spikes (common practice, no published source; CHECK-VALUES 15).
+ * room for short spikes (common practice, no published source; docs/sources.md 15).
  */
 export const TARGET_LOAD_SHARE_PCT = 60;
 
@@ -71,21 +65,32 @@ export interface CpuPower {
 
 /**
  * AMD package power tracking limit: round(TDP × 135 / 100) in integer arithmetic, half up.
- * Floating point would give 170 × 1.35 = 229.50000000000003 (CHECK-VALUES note 5).
+ * Floating point would give 170 × 1.35 = 229.50000000000003 (docs/sources.md note 5).
  */
 export function amdPptW(tdpW: number): number {
-	if (!Number.isInteger(tdpW) || tdpW <= 0) throw new RangeError(`TDP must be a positive whole number of W, got ${tdpW}`);
+	if (!Number.isInteger(tdpW) || tdpW <= 0)
+		throw new RangeError(`TDP must be a positive whole number of W, got ${tdpW}`);
 	return Math.floor((tdpW * 135 + 50) / 100);
 }
 
 /** Sustained CPU package power, with the rule it came from. */
-export function cpuSustainedPower(cpu: Pick<CpuSpecs, 'socket' | 'tdpW' | 'packagePowerW'>): CpuPower {
+export function cpuSustainedPower(
+	cpu: Pick<CpuSpecs, 'socket' | 'tdpW' | 'packagePowerW'>
+): CpuPower {
 	if (cpu.packagePowerW !== undefined) {
-		return { watts: cpu.packagePowerW, basis: 'stated', note: `stated sustained package power ${cpu.packagePowerW} W` };
+		return {
+			watts: cpu.packagePowerW,
+			basis: 'stated',
+			note: `stated sustained package power ${cpu.packagePowerW} W`
+		};
 	}
 	if (cpu.socket.startsWith('AM')) {
 		const ppt = amdPptW(cpu.tdpW);
-		return { watts: ppt, basis: 'amd-ppt', note: `AMD socket power limit PPT = ${cpu.tdpW} W TDP × 1.35 = ${ppt} W` };
+		return {
+			watts: ppt,
+			basis: 'amd-ppt',
+			note: `AMD socket power limit PPT = ${cpu.tdpW} W TDP × 1.35 = ${ppt} W`
+		};
 	}
 	if (cpu.socket.startsWith('LGA')) {
 		return {
@@ -94,11 +99,17 @@ export function cpuSustainedPower(cpu: Pick<CpuSpecs, 'socket' | 'tdpW' | 'packa
 			note: `Intel Processor Base Power (PL1) ${cpu.tdpW} W; boards may allow Maximum Turbo Power (PL2) for long periods, so the real draw can be higher`
 		};
 	}
-	return { watts: cpu.tdpW, basis: 'tdp', note: `TDP ${cpu.tdpW} W as stated (no vendor rule for this socket)` };
+	return {
+		watts: cpu.tdpW,
+		basis: 'tdp',
+		note: `TDP ${cpu.tdpW} W as stated (no vendor rule for this socket)`
+	};
 }
 
 /** Sustained CPU package power in W (see cpuSustainedPower for the rule used). */
-export function cpuSustainedPowerW(cpu: Pick<CpuSpecs, 'socket' | 'tdpW' | 'packagePowerW'>): number {
+export function cpuSustainedPowerW(
+	cpu: Pick<CpuSpecs, 'socket' | 'tdpW' | 'packagePowerW'>
+): number {
 	return cpuSustainedPower(cpu).watts;
 }
 
@@ -136,29 +147,67 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 		switch (slot.category) {
 			case 'cpu': {
 				const p = cpuSustainedPower(slot.part.specs);
-				lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: p.watts * q, basis: p.note });
+				lines.push({
+					key: slot.key,
+					label: `${slot.label}: ${name}`,
+					watts: p.watts * q,
+					basis: p.note
+				});
 				break;
 			}
 			case 'gpu': {
 				const w = slot.part.specs.boardPowerW;
-				lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: w * q, basis: `stated board power ${w} W${q > 1 ? ` × ${q}` : ''}` });
+				lines.push({
+					key: slot.key,
+					label: `${slot.label}: ${name}`,
+					watts: w * q,
+					basis: `stated board power ${w} W${q > 1 ? ` × ${q}` : ''}`
+				});
 				break;
 			}
 			case 'motherboard':
 				boardSeen = true;
-				lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: ALLOWANCE_W.motherboard, basis: ALLOWANCE_NOTE });
+				lines.push({
+					key: slot.key,
+					label: `${slot.label}: ${name}`,
+					watts: ALLOWANCE_W.motherboard,
+					basis: ALLOWANCE_NOTE
+				});
 				break;
 			case 'memory': {
-				const each = slot.part.specs.type === 'DDR5' ? ALLOWANCE_W.memoryModuleDdr5 : ALLOWANCE_W.memoryModuleDdr4;
+				const each =
+					slot.part.specs.type === 'DDR5'
+						? ALLOWANCE_W.memoryModuleDdr5
+						: ALLOWANCE_W.memoryModuleDdr4;
 				const modules = slot.part.specs.modules * q;
-				lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: each * modules, basis: `${modules} × ${each} W per ${slot.part.specs.type} module, ${ALLOWANCE_NOTE}` });
+				lines.push({
+					key: slot.key,
+					label: `${slot.label}: ${name}`,
+					watts: each * modules,
+					basis: `${modules} × ${each} W per ${slot.part.specs.type} module, ${ALLOWANCE_NOTE}`
+				});
 				break;
 			}
 			case 'storage': {
 				const s = slot.part.specs;
-				const each = s.interface === 'nvme' ? ALLOWANCE_W.nvmeDrive : s.formFactor === '3.5in' ? ALLOWANCE_W.hardDisk35 : ALLOWANCE_W.sataSsd;
-				const kind = s.interface === 'nvme' ? 'NVMe drive' : s.formFactor === '3.5in' ? '3.5-inch drive' : 'SATA SSD';
-				lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: each * q, basis: `${q} × ${each} W per ${kind}, ${ALLOWANCE_NOTE}` });
+				const each =
+					s.interface === 'nvme'
+						? ALLOWANCE_W.nvmeDrive
+						: s.formFactor === '3.5in'
+							? ALLOWANCE_W.hardDisk35
+							: ALLOWANCE_W.sataSsd;
+				const kind =
+					s.interface === 'nvme'
+						? 'NVMe drive'
+						: s.formFactor === '3.5in'
+							? '3.5-inch drive'
+							: 'SATA SSD';
+				lines.push({
+					key: slot.key,
+					label: `${slot.label}: ${name}`,
+					watts: each * q,
+					basis: `${q} × ${each} W per ${kind}, ${ALLOWANCE_NOTE}`
+				});
 				break;
 			}
 			case 'cooler': {
@@ -166,21 +215,41 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 				if (c.type === 'liquid') {
 					const fans = radiatorFans(c.radiatorMm ?? 0);
 					const w = (ALLOWANCE_W.pump + fans * ALLOWANCE_W.fan) * q;
-					lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: w, basis: `pump ${ALLOWANCE_W.pump} W + ${fans} radiator fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}` });
+					lines.push({
+						key: slot.key,
+						label: `${slot.label}: ${name}`,
+						watts: w,
+						basis: `pump ${ALLOWANCE_W.pump} W + ${fans} radiator fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+					});
 				} else {
-					lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: ALLOWANCE_W.fan * q, basis: `one fan × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}` });
+					lines.push({
+						key: slot.key,
+						label: `${slot.label}: ${name}`,
+						watts: ALLOWANCE_W.fan * q,
+						basis: `one fan × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+					});
 				}
 				break;
 			}
 			case 'fan': {
 				const fans = slot.part.specs.count * q;
-				lines.push({ key: slot.key, label: `${slot.label}: ${name}`, watts: fans * ALLOWANCE_W.fan, basis: `${fans} fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}` });
+				lines.push({
+					key: slot.key,
+					label: `${slot.label}: ${name}`,
+					watts: fans * ALLOWANCE_W.fan,
+					basis: `${fans} fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+				});
 				break;
 			}
 			case 'case': {
 				const fans = slot.part.specs.includedFans * q;
 				if (fans > 0) {
-					lines.push({ key: slot.key, label: `${slot.label}: ${name} (included fans)`, watts: fans * ALLOWANCE_W.fan, basis: `${fans} fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}` });
+					lines.push({
+						key: slot.key,
+						label: `${slot.label}: ${name} (included fans)`,
+						watts: fans * ALLOWANCE_W.fan,
+						basis: `${fans} fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+					});
 				}
 				break;
 			}
@@ -191,9 +260,19 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 	}
 	// Every PC has a board; count it even when the list leaves that slot out.
 	if (!boardSeen) {
-		lines.push({ key: 'allowance:motherboard', label: 'Motherboard (not listed)', watts: ALLOWANCE_W.motherboard, basis: ALLOWANCE_NOTE });
+		lines.push({
+			key: 'allowance:motherboard',
+			label: 'Motherboard (not listed)',
+			watts: ALLOWANCE_W.motherboard,
+			basis: ALLOWANCE_NOTE
+		});
 	}
-	lines.push({ key: 'allowance:usb', label: 'USB devices and peripherals', watts: ALLOWANCE_W.usbPeripherals, basis: ALLOWANCE_NOTE });
+	lines.push({
+		key: 'allowance:usb',
+		label: 'USB devices and peripherals',
+		watts: ALLOWANCE_W.usbPeripherals,
+		basis: ALLOWANCE_NOTE
+	});
 	let loadW = 0;
 	for (const line of lines) loadW += line.watts;
 	return { loadW, breakdown: lines };
@@ -205,7 +284,8 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
  * largest common size, the minimum rounded up to 100 W. Common practice, no published source.
  */
 export function recommendedPsuW(loadW: number): number {
-	if (!Number.isFinite(loadW) || loadW < 0) throw new RangeError(`Load must be a non-negative number of W, got ${loadW}`);
+	if (!Number.isFinite(loadW) || loadW < 0)
+		throw new RangeError(`Load must be a non-negative number of W, got ${loadW}`);
 	const minimumW = Math.ceil((loadW * 100) / TARGET_LOAD_SHARE_PCT);
 	for (const size of COMMON_PSU_SIZES_W) if (size >= minimumW) return size;
 	return Math.ceil(minimumW / 100) * 100;
@@ -226,10 +306,17 @@ export interface GpuDeliverable {
  */
 export function gpuDeliverable(gpu: Pick<GpuSpecs, 'powerConnectors'>): GpuDeliverable {
 	const c = gpu.powerConnectors;
-	const connectorsW = c.pin6 * CONNECTOR_W.pin6 + c.pin8 * CONNECTOR_W.pin8 + c.h12v2x6 * CONNECTOR_W.h12v2x6;
+	const connectorsW =
+		c.pin6 * CONNECTOR_W.pin6 + c.pin8 * CONNECTOR_W.pin8 + c.h12v2x6 * CONNECTOR_W.h12v2x6;
 	const sum = PCIE_SLOT_W + connectorsW;
 	const ceilingW = CARD_CEILING_W.cem51;
-	return { slotW: PCIE_SLOT_W, connectorsW, totalW: Math.min(sum, ceilingW), ceilingW, capped: sum > ceilingW };
+	return {
+		slotW: PCIE_SLOT_W,
+		connectorsW,
+		totalW: Math.min(sum, ceilingW),
+		ceilingW,
+		capped: sum > ceilingW
+	};
 }
 
 /** Deliverable card power in W (slot + connectors, capped at 675 W). */
@@ -265,14 +352,23 @@ export function psuFeedsGpu(psu: BuildPartOf<'psu'>, gpu: BuildPartOf<'gpu'>): F
 	const cards = q > 1 ? `${q} × ${cardName}` : cardName;
 
 	if (need.pin6 + need.pin8 + need.h12v2x6 === 0) {
-		return [{ rule, severity: 'ok', slots, message: `${cards} draws only from its slot (${PCIE_SLOT_W} W); ${psuName} needs no graphics leads for it.` }];
+		return [
+			{
+				rule,
+				severity: 'ok',
+				slots,
+				message: `${cards} draws only from its slot (${PCIE_SLOT_W} W); ${psuName} needs no graphics leads for it.`
+			}
+		];
 	}
 
 	const findings: Finding[] = [];
 	let spare8 = leads.pin8 - need.pin8;
 	if (spare8 < 0) {
 		findings.push({
-			rule, severity: 'conflict', slots,
+			rule,
+			severity: 'conflict',
+			slots,
 			message: `${cards} needs ${need.pin8} × 8-pin PCIe power; ${psuName} has ${leads.pin8} 8-pin lead${leads.pin8 === 1 ? '' : 's'}.`
 		});
 		spare8 = 0;
@@ -283,33 +379,40 @@ export function psuFeedsGpu(psu: BuildPartOf<'psu'>, gpu: BuildPartOf<'gpu'>): F
 	spare8 -= sixFromEight;
 	if (sixFromSix + sixFromEight < need.pin6) {
 		findings.push({
-			rule, severity: 'conflict', slots,
+			rule,
+			severity: 'conflict',
+			slots,
 			message: `${cards} needs ${need.pin6} × 6-pin PCIe power; ${psuName} has ${leads.pin6} 6-pin and not enough spare 8-pin (6+2) leads.`
 		});
 	}
 
 	const native = Math.min(need.h12v2x6, leads.h12v2x6);
 	const viaAdapter = need.h12v2x6 - native;
-	let adapterNote = '';
 	if (viaAdapter > 0) {
 		// Power one 12V-2x6 inlet must carry: board power less the slot and other inlets.
 		const perCardConnectorW = Math.max(
 			0,
-			gpu.part.specs.boardPowerW - PCIE_SLOT_W - inlets.pin8 * CONNECTOR_W.pin8 - inlets.pin6 * CONNECTOR_W.pin6
+			gpu.part.specs.boardPowerW -
+				PCIE_SLOT_W -
+				inlets.pin8 * CONNECTOR_W.pin8 -
+				inlets.pin6 * CONNECTOR_W.pin6
 		);
 		const perInletW = Math.ceil(perCardConnectorW / inlets.h12v2x6);
 		const eightsEach = Math.min(4, Math.max(2, Math.ceil(perInletW / CONNECTOR_W.pin8)));
 		const eightsNeeded = eightsEach * viaAdapter;
 		if (spare8 >= eightsNeeded) {
-			adapterNote = ` via an adapter from ${eightsEach} × 8-pin (${eightsEach} × ${CONNECTOR_W.pin8} W = ${eightsEach * CONNECTOR_W.pin8} W)`;
+			const adapterNote = ` via an adapter from ${eightsEach} × 8-pin (${eightsEach} × ${CONNECTOR_W.pin8} W = ${eightsEach * CONNECTOR_W.pin8} W)`;
 			findings.push({
-				rule, severity: 'caution', slots,
+				rule,
+				severity: 'caution',
+				slots,
 				message: `${cards} has a 12V-2x6 inlet and ${psuName} has ${leads.h12v2x6 === 0 ? 'no 12V-2x6 lead' : `only ${leads.h12v2x6} 12V-2x6 lead${leads.h12v2x6 === 1 ? '' : 's'}`}: it can be fed${adapterNote}, carrying about ${perInletW} W. Use the adapter supplied with the card, push every plug fully home, and do not bend the cable close to the plug.`
 			});
-			spare8 -= eightsNeeded;
 		} else {
 			findings.push({
-				rule, severity: 'conflict', slots,
+				rule,
+				severity: 'conflict',
+				slots,
 				message: `${cards} needs ${need.h12v2x6} × 12V-2x6 (about ${perInletW} W each); ${psuName} has ${leads.h12v2x6} 12V-2x6 lead${leads.h12v2x6 === 1 ? '' : 's'} and only ${spare8} spare 8-pin lead${spare8 === 1 ? '' : 's'}, short of the ${eightsNeeded} an adapter needs.`
 			});
 		}
@@ -317,7 +420,9 @@ export function psuFeedsGpu(psu: BuildPartOf<'psu'>, gpu: BuildPartOf<'gpu'>): F
 
 	if (findings.length === 0) {
 		findings.push({
-			rule, severity: 'ok', slots,
+			rule,
+			severity: 'ok',
+			slots,
 			message: `${psuName} has native leads for every power inlet of ${cards} (${inletList(inlets)}).`
 		});
 	}
@@ -361,7 +466,8 @@ export function powerBudget(parts: BuildParts): PowerBudget {
 			boardPowerW: gpu.part.specs.boardPowerW,
 			withinDeliverable: gpu.part.specs.boardPowerW <= deliverableW
 		};
-		if (psu) budget.gpu.connectorsOk = !psuFeedsGpu(psu, gpu).some((f) => f.severity === 'conflict');
+		if (psu)
+			budget.gpu.connectorsOk = !psuFeedsGpu(psu, gpu).some((f) => f.severity === 'conflict');
 	}
 	return budget;
 }

@@ -1,5 +1,5 @@
 /**
- * Region adjust (DESIGN.md, Computations §2): re-prices a guide's slots for a reader's region.
+ * Region adjust (docs/architecture.md, Computations §2): re-prices a guide's slots for a reader's region.
  *
  * For every option (pick or alternate) of every slot:
  * - a quote from the target region wins: the line is `quoted`, dated by the quote;

@@ -1,5 +1,5 @@
 /**
- * Reproducibility (DESIGN.md, Computations §10): how copyable a guide is in one region.
+ * Reproducibility (docs/architecture.md, Computations §10): how copyable a guide is in one region.
  *
  * Inputs per slot: when its pick was last quoted in the region, and whether at least one of
  * its alternates fits the rest of the build as a drop-in (computed elsewhere, by dropins.ts).

@@ -34,8 +34,10 @@ export interface ReviewFlagInput {
 const DAY_MS = 86_400_000;
 
 // Query keys and words that usually mean a paid link or placement. A heuristic: the editor decides.
-const AFFILIATE_QUERY_KEYS = /^(ref|referral|aff|affid|affiliate|affiliate_id|partner|tag|clickid|subid)$/i;
-const PAID_WORDS = /\b(sponsored|sponsor(ed)? by|affiliate|commission|provided (to me )?by the (brand|maker|manufacturer)|paid partnership)\b/i;
+const AFFILIATE_QUERY_KEYS =
+	/^(ref|referral|aff|affid|affiliate|affiliate_id|partner|tag|clickid|subid)$/i;
+const PAID_WORDS =
+	/\b(sponsored|sponsor(ed)? by|affiliate|commission|provided (to me )?by the (brand|maker|manufacturer)|paid partnership)\b/i;
 
 /** Every http(s) URL in Markdown text: inline links, autolinks and bare addresses. */
 export function linksIn(markdown: string): string[] {
@@ -70,26 +72,50 @@ function looksAffiliate(url: string): boolean {
 
 function disclosureFlags(input: ReviewFlagInput, links: string[]): ReviewFlag[] {
 	const { kind, note } = input.disclosure;
-	if (kind === null) return [{ kind: 'disclosure', message: 'No disclosure is stated: every guide must say whether it has sponsored parts or affiliate links.' }];
+	if (kind === null)
+		return [
+			{
+				kind: 'disclosure',
+				message:
+					'No disclosure is stated: every guide must say whether it has sponsored parts or affiliate links.'
+			}
+		];
 	if (kind !== 'none') {
 		if ((note ?? '').trim() === '') {
-			const what = kind === 'sponsored' ? 'which parts were provided' : 'which links earn a commission';
-			return [{ kind: 'disclosure', message: `The guide declares ${kind} content but does not say ${what}.` }];
+			const what =
+				kind === 'sponsored' ? 'which parts were provided' : 'which links earn a commission';
+			return [
+				{
+					kind: 'disclosure',
+					message: `The guide declares ${kind} content but does not say ${what}.`
+				}
+			];
 		}
 		return [];
 	}
 	const paidLinks = links.filter(looksAffiliate);
 	const flags: ReviewFlag[] = [];
 	if (paidLinks.length > 0) {
-		flags.push({ kind: 'disclosure', message: `Disclosure says none, but ${paidLinks.length === 1 ? 'a link carries' : `${paidLinks.length} links carry`} a referral parameter: ${paidLinks.slice(0, 3).join(', ')}.` });
+		flags.push({
+			kind: 'disclosure',
+			message: `Disclosure says none, but ${paidLinks.length === 1 ? 'a link carries' : `${paidLinks.length} links carry`} a referral parameter: ${paidLinks.slice(0, 3).join(', ')}.`
+		});
 	}
 	const words = input.buildNotesMd.match(PAID_WORDS);
-	if (words) flags.push({ kind: 'disclosure', message: `Disclosure says none, but the build notes mention "${words[0]}".` });
+	if (words)
+		flags.push({
+			kind: 'disclosure',
+			message: `Disclosure says none, but the build notes mention "${words[0]}".`
+		});
 	return flags;
 }
 
 export function reviewFlags(input: ReviewFlagInput): ReviewFlag[] {
-	const links = [...linksIn(input.buildNotesMd), ...(input.walkthroughUrl ? [input.walkthroughUrl] : []), ...input.quotes.flatMap((q) => (q.url ? [q.url] : []))];
+	const links = [
+		...linksIn(input.buildNotesMd),
+		...(input.walkthroughUrl ? [input.walkthroughUrl] : []),
+		...input.quotes.flatMap((q) => (q.url ? [q.url] : []))
+	];
 	const flags = disclosureFlags(input, links);
 
 	const unknown = new Set<string>();
@@ -98,14 +124,24 @@ export function reviewFlags(input: ReviewFlagInput): ReviewFlag[] {
 		if (host === null) unknown.add(link);
 		else if (!isKnownHost(host, input.knownHosts)) unknown.add(host);
 	}
-	for (const host of unknown) flags.push({ kind: 'unknown_link', message: `Links to ${host}, which is not a known store or this site.` });
+	for (const host of unknown)
+		flags.push({
+			kind: 'unknown_link',
+			message: `Links to ${host}, which is not a known store or this site.`
+		});
 
 	for (const quote of input.quotes) {
-		const ageDays = Math.floor((input.now.getTime() - new Date(quote.observedAt).getTime()) / DAY_MS);
+		const ageDays = Math.floor(
+			(input.now.getTime() - new Date(quote.observedAt).getTime()) / DAY_MS
+		);
 		if (ageDays > STALE_QUOTE_DAYS) {
-			flags.push({ kind: 'stale_quote', message: `${quote.slotLabel}: the quoted price is ${ageDays} days old (more than ${STALE_QUOTE_DAYS}).` });
+			flags.push({
+				kind: 'stale_quote',
+				message: `${quote.slotLabel}: the quoted price is ${ageDays} days old (more than ${STALE_QUOTE_DAYS}).`
+			});
 		}
 	}
-	for (const conflict of input.conflicts) flags.push({ kind: 'fit_conflict', message: `Fit conflict: ${conflict.message}` });
+	for (const conflict of input.conflicts)
+		flags.push({ kind: 'fit_conflict', message: `Fit conflict: ${conflict.message}` });
 	return flags;
 }

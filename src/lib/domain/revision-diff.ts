@@ -63,7 +63,10 @@ export interface RevisionDiff {
 	notesChanged: boolean;
 }
 
-function diffAlternates(before: AlternateSnapshot[], after: AlternateSnapshot[]): AlternateChange[] {
+function diffAlternates(
+	before: AlternateSnapshot[],
+	after: AlternateSnapshot[]
+): AlternateChange[] {
 	const old = new Map(before.map((a) => [a.partId, a]));
 	const now = new Map(after.map((a) => [a.partId, a]));
 	const changes: AlternateChange[] = [];
@@ -79,7 +82,8 @@ function diffAlternates(before: AlternateSnapshot[], after: AlternateSnapshot[])
 		if (o.note !== a.note) details.push('note edited');
 		if (details.length > 0) changes.push({ kind: 'changed', name: a.name, details });
 	}
-	for (const o of before) if (!now.has(o.partId)) changes.push({ kind: 'removed', name: o.name, details: [] });
+	for (const o of before)
+		if (!now.has(o.partId)) changes.push({ kind: 'removed', name: o.name, details: [] });
 	return changes;
 }
 
@@ -103,16 +107,19 @@ export function revisionDiff(a: RevisionSnapshot, b: RevisionSnapshot): Revision
 		}
 		const fields: FieldChange[] = [];
 		if (o.pick.id !== s.pick.id) fields.push({ field: 'pick', from: o.pick.name, to: s.pick.name });
-		if (o.quantity !== s.quantity) fields.push({ field: 'quantity', from: o.quantity, to: s.quantity });
+		if (o.quantity !== s.quantity)
+			fields.push({ field: 'quantity', from: o.quantity, to: s.quantity });
 		if (o.reason !== s.reason) fields.push({ field: 'reason', from: o.reason, to: s.reason });
 		if (o.price !== undefined && s.price !== undefined && o.price !== s.price) {
 			fields.push({ field: 'price', from: o.price ?? 'no quote', to: s.price ?? 'no quote' });
 		}
 		const alternates = diffAlternates(o.alternates, s.alternates);
-		if (fields.length > 0 || alternates.length > 0) slots.push({ kind: 'changed', label: s.label, fields, alternates });
+		if (fields.length > 0 || alternates.length > 0)
+			slots.push({ kind: 'changed', label: s.label, fields, alternates });
 	}
 	for (const o of a.slots) {
-		if (!afterLabels.has(o.label)) slots.push({ kind: 'removed', label: o.label, pick: o.pick.name, quantity: o.quantity });
+		if (!afterLabels.has(o.label))
+			slots.push({ kind: 'removed', label: o.label, pick: o.pick.name, quantity: o.quantity });
 	}
 
 	const notesChanged = a.buildNotesMd !== b.buildNotesMd;

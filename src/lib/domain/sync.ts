@@ -1,5 +1,5 @@
 /**
- * Drift and sync (DESIGN.md "Computations" §9): a build against the guide revision it was
+ * Drift and sync (docs/architecture.md "Computations" §9): a build against the guide revision it was
  * forked from (the base) and a newer published revision of that guide (upstream).
  *
  * Slot key: every guide slot carries a `key` string that is unique within a revision and
@@ -120,7 +120,8 @@ export function sameContent(a: SlotContent, b: SlotContent): boolean {
 function indexSource(slots: readonly SourceSlot[], side: string): Map<string, SourceSlot> {
 	const map = new Map<string, SourceSlot>();
 	for (const s of slots) {
-		if (map.has(s.key)) throw new SyncInputError(`${side} revision has two slots with key "${s.key}"`);
+		if (map.has(s.key))
+			throw new SyncInputError(`${side} revision has two slots with key "${s.key}"`);
 		map.set(s.key, s);
 	}
 	return map;
@@ -141,7 +142,8 @@ function indexLocal(local: readonly BuildSlot[], base: Map<string, SourceSlot>) 
 			added.push(s);
 			continue;
 		}
-		if (byKey.has(s.sourceKey)) throw new SyncInputError(`build has two slots from source slot "${s.sourceKey}"`);
+		if (byKey.has(s.sourceKey))
+			throw new SyncInputError(`build has two slots from source slot "${s.sourceKey}"`);
 		byKey.set(s.sourceKey, s);
 	}
 	return { byKey, added };
@@ -150,9 +152,16 @@ function indexLocal(local: readonly BuildSlot[], base: Map<string, SourceSlot>) 
 const BOTH: SyncChoice[] = ['take_upstream', 'keep_local'];
 
 function row(
-	partial: Pick<SyncRow, 'id' | 'sourceKey' | 'status' | 'base' | 'upstream' | 'local'> & Partial<SyncRow>
+	partial: Pick<SyncRow, 'id' | 'sourceKey' | 'status' | 'base' | 'upstream' | 'local'> &
+		Partial<SyncRow>
 ): SyncRow {
-	return { conflict: null, options: [], defaultTakeAll: 'keep_local', defaultKeep: 'keep_local', ...partial };
+	return {
+		conflict: null,
+		options: [],
+		defaultTakeAll: 'keep_local',
+		defaultKeep: 'keep_local',
+		...partial
+	};
 }
 
 /** Classifies one source slot present in the base. */
@@ -162,20 +171,53 @@ function classify(key: string, b: SourceSlot, u: SourceSlot | null, l: BuildSlot
 		const upChanged = !sameContent(b, u);
 		const hereChanged = !sameContent(b, l);
 		if (!upChanged && !hereChanged) return row({ ...common, status: 'unchanged' });
-		if (upChanged && !hereChanged) return row({ ...common, status: 'upstream_only', options: BOTH, defaultTakeAll: 'take_upstream' });
+		if (upChanged && !hereChanged)
+			return row({
+				...common,
+				status: 'upstream_only',
+				options: BOTH,
+				defaultTakeAll: 'take_upstream'
+			});
 		// Taking upstream on a local-only change reverts it to the source.
 		if (!upChanged && hereChanged) return row({ ...common, status: 'local_only', options: BOTH });
 		if (sameContent(u, l)) return row({ ...common, status: 'both_same' });
-		return row({ ...common, status: 'conflict', conflict: 'changed_both', options: BOTH, defaultTakeAll: null, defaultKeep: null });
+		return row({
+			...common,
+			status: 'conflict',
+			conflict: 'changed_both',
+			options: BOTH,
+			defaultTakeAll: null,
+			defaultKeep: null
+		});
 	}
 	if (!u && l) {
-		if (sameContent(b, l)) return row({ ...common, status: 'removed_upstream', options: BOTH, defaultTakeAll: 'take_upstream' });
-		return row({ ...common, status: 'conflict', conflict: 'removed_upstream_changed_here', options: BOTH, defaultTakeAll: null, defaultKeep: null });
+		if (sameContent(b, l))
+			return row({
+				...common,
+				status: 'removed_upstream',
+				options: BOTH,
+				defaultTakeAll: 'take_upstream'
+			});
+		return row({
+			...common,
+			status: 'conflict',
+			conflict: 'removed_upstream_changed_here',
+			options: BOTH,
+			defaultTakeAll: null,
+			defaultKeep: null
+		});
 	}
 	if (u && !l) {
 		// Taking upstream on a local removal puts the source's slot back.
 		if (sameContent(b, u)) return row({ ...common, status: 'removed_locally', options: BOTH });
-		return row({ ...common, status: 'conflict', conflict: 'changed_upstream_removed_here', options: BOTH, defaultTakeAll: null, defaultKeep: null });
+		return row({
+			...common,
+			status: 'conflict',
+			conflict: 'changed_upstream_removed_here',
+			options: BOTH,
+			defaultTakeAll: null,
+			defaultKeep: null
+		});
 	}
 	// Removed on both sides: the same change, nothing to choose.
 	return row({ ...common, status: 'both_same' });
@@ -186,7 +228,11 @@ function classify(key: string, b: SourceSlot, u: SourceSlot | null, l: BuildSlot
  * place), then slots the build no longer has (in the base's order), then slots upstream
  * added (in upstream's order).
  */
-export function planSync(base: readonly SourceSlot[], upstream: readonly SourceSlot[], local: readonly BuildSlot[]): SyncPlan {
+export function planSync(
+	base: readonly SourceSlot[],
+	upstream: readonly SourceSlot[],
+	local: readonly BuildSlot[]
+): SyncPlan {
 	const b = indexSource(base, 'base');
 	const u = indexSource(upstream, 'upstream');
 	const { byKey } = indexLocal(local, b);
@@ -194,22 +240,44 @@ export function planSync(base: readonly SourceSlot[], upstream: readonly SourceS
 
 	for (const l of local) {
 		const key = l.sourceKey;
-		if (key !== null && byKey.get(key) === l) {
-			rows.push(classify(key, b.get(key)!, u.get(key) ?? null, l));
+		const baseSlot = key !== null && byKey.get(key) === l ? b.get(key) : undefined;
+		if (key !== null && baseSlot) {
+			rows.push(classify(key, baseSlot, u.get(key) ?? null, l));
 		} else {
-			rows.push(row({ id: `local:${String(l.id)}`, sourceKey: null, status: 'added_locally', base: null, upstream: null, local: l }));
+			rows.push(
+				row({
+					id: `local:${String(l.id)}`,
+					sourceKey: null,
+					status: 'added_locally',
+					base: null,
+					upstream: null,
+					local: l
+				})
+			);
 		}
 	}
-	for (const s of base) if (!byKey.has(s.key)) rows.push(classify(s.key, s, u.get(s.key) ?? null, null));
+	for (const s of base)
+		if (!byKey.has(s.key)) rows.push(classify(s.key, s, u.get(s.key) ?? null, null));
 	for (const s of upstream) {
 		if (!b.has(s.key)) {
 			rows.push(
-				row({ id: `source:${s.key}`, sourceKey: s.key, status: 'added_upstream', base: null, upstream: s, local: null, options: BOTH, defaultTakeAll: 'take_upstream' })
+				row({
+					id: `source:${s.key}`,
+					sourceKey: s.key,
+					status: 'added_upstream',
+					base: null,
+					upstream: s,
+					local: null,
+					options: BOTH,
+					defaultTakeAll: 'take_upstream'
+				})
 			);
 		}
 	}
 	const conflicts = rows.filter((r) => r.status === 'conflict').map((r) => r.id);
-	const offered = rows.filter((r) => ['upstream_only', 'added_upstream', 'removed_upstream', 'conflict'].includes(r.status)).length;
+	const offered = rows.filter((r) =>
+		['upstream_only', 'added_upstream', 'removed_upstream', 'conflict'].includes(r.status)
+	).length;
 	return { rows, conflicts, offered, upstreamKeys: upstream.map((s) => s.key) };
 }
 
@@ -270,7 +338,16 @@ function fromUpstream(u: SourceSlot, l: BuildSlot | null): SyncedSlot {
 }
 
 function fromLocal(l: BuildSlot, sourceKey: string | null): SyncedSlot {
-	return { id: l.id, sourceKey, label: l.label, category: l.category, partId: l.partId, quantity: l.quantity, from: 'local', changed: false };
+	return {
+		id: l.id,
+		sourceKey,
+		label: l.label,
+		category: l.category,
+		partId: l.partId,
+		quantity: l.quantity,
+		from: 'local',
+		changed: false
+	};
 }
 
 /**
@@ -290,9 +367,12 @@ export function applySync(
 	for (const [rowId, choice] of Object.entries(choices)) {
 		const r = rowsById.get(rowId);
 		if (!r) invalid.push({ rowId, reason: 'no such row in this sync' });
-		else if (!r.options.includes(choice)) invalid.push({ rowId, reason: `"${choice}" is not offered for a ${r.status} row` });
+		else if (!r.options.includes(choice))
+			invalid.push({ rowId, reason: `"${choice}" is not offered for a ${r.status} row` });
 	}
-	const unresolved = plan.rows.filter((r) => r.status === 'conflict' && !Object.hasOwn(choices, r.id)).map((r) => r.id);
+	const unresolved = plan.rows
+		.filter((r) => r.status === 'conflict' && !Object.hasOwn(choices, r.id))
+		.map((r) => r.id);
 	if (invalid.length > 0 || unresolved.length > 0) return { ok: false, unresolved, invalid };
 
 	const kept: SyncedSlot[] = [];
@@ -301,8 +381,11 @@ export function applySync(
 	const decisions: SyncDecision[] = [];
 
 	for (const r of plan.rows) {
-		const explicit = Object.hasOwn(choices, r.id) ? choices[r.id]! : null;
-		const choice = r.options.length === 0 ? null : (explicit ?? (options.takeAllNonConflicting ? r.defaultTakeAll : r.defaultKeep));
+		const explicit = Object.hasOwn(choices, r.id) ? (choices[r.id] ?? null) : null;
+		const choice =
+			r.options.length === 0
+				? null
+				: (explicit ?? (options.takeAllNonConflicting ? r.defaultTakeAll : r.defaultKeep));
 		decisions.push({ rowId: r.id, status: r.status, choice });
 		const { upstream: u, local: l } = r;
 		if (choice === 'take_upstream') {
@@ -317,11 +400,13 @@ export function applySync(
 	// Place created slots by upstream order.
 	const slots = [...kept];
 	const upstreamIndex = new Map(plan.upstreamKeys.map((k, i) => [k, i]));
-	inserted.sort((a, b) => upstreamIndex.get(a.sourceKey!)! - upstreamIndex.get(b.sourceKey!)!);
+	// Every inserted slot came from upstream, so its key is in the index.
+	const at = (key: string | null) => (key === null ? -1 : (upstreamIndex.get(key) ?? -1));
+	inserted.sort((a, b) => at(a.sourceKey) - at(b.sourceKey));
 	for (const s of inserted) {
 		let index = 0;
-		for (let k = upstreamIndex.get(s.sourceKey!)! - 1; k >= 0; k--) {
-			const prevKey = plan.upstreamKeys[k]!;
+		for (let k = at(s.sourceKey) - 1; k >= 0; k--) {
+			const prevKey = plan.upstreamKeys[k];
 			const found = slots.findIndex((x) => x.sourceKey === prevKey);
 			if (found >= 0) {
 				index = found + 1;
@@ -364,17 +449,25 @@ export function drift(base: readonly SourceSlot[], local: readonly BuildSlot[]):
 	const rows: DriftRow[] = [];
 	for (const l of local) {
 		const key = l.sourceKey;
-		const s = key !== null && byKey.get(key) === l ? b.get(key)! : null;
+		const s = key !== null && byKey.get(key) === l ? (b.get(key) ?? null) : null;
 		if (!s) {
 			rows.push({ kind: 'added', sourceKey: null, base: null, local: l, quantityChanged: false });
 			continue;
 		}
 		const quantityChanged = s.quantity !== l.quantity;
-		const kind: DriftKind = s.partId !== l.partId ? 'swapped' : quantityChanged ? 'quantity' : 'same';
+		const kind: DriftKind =
+			s.partId !== l.partId ? 'swapped' : quantityChanged ? 'quantity' : 'same';
 		rows.push({ kind, sourceKey: s.key, base: s, local: l, quantityChanged });
 	}
 	for (const s of base) {
-		if (!byKey.has(s.key)) rows.push({ kind: 'removed', sourceKey: s.key, base: s, local: null, quantityChanged: false });
+		if (!byKey.has(s.key))
+			rows.push({
+				kind: 'removed',
+				sourceKey: s.key,
+				base: s,
+				local: null,
+				quantityChanged: false
+			});
 	}
 	return { rows, changed: rows.filter((r) => r.kind !== 'same').length };
 }

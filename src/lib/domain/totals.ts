@@ -38,6 +38,7 @@ export function listTotals(slots: SlotPricing[], currency: string): ListTotals {
 	return {
 		picksTotal: priced ? sum(pickLines, currency) : null,
 		unpricedSlots,
-		range: minLines.length > 0 ? { min: sum(minLines, currency), max: sum(maxLines, currency) } : null
+		range:
+			minLines.length > 0 ? { min: sum(minLines, currency), max: sum(maxLines, currency) } : null
 	};
 }

@@ -1,5 +1,5 @@
 /**
- * Shared vocabulary of Slotwise (see DESIGN.md "Words we use").
+ * Shared vocabulary of Slotwise (see docs/architecture.md "Our words").
  * Plain types only: no framework, database or environment imports.
  */
 

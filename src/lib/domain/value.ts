@@ -1,5 +1,5 @@
 /**
- * Value (DESIGN.md, Computations §5): how many frames a build gives for its money.
+ * Value (docs/architecture.md, Computations §5): how many frames a build gives for its money.
  *
  * - Geometric mean of the average FPS over the frame results. Benchmark suites summarise
  *   several workloads with the geometric mean (SPEC CPU reports the geometric mean of its

@@ -1,5 +1,7 @@
+/* eslint-disable @typescript-eslint/no-non-null-assertion -- the solver indexes typed arrays and
+   per-slot tables it sized itself; every index is in range by construction. */
 /**
- * Within budget (DESIGN.md "Computations" §8): from each slot's current part and its
+ * Within budget (docs/architecture.md "Computations" §8): from each slot's current part and its
  * alternates, the combination that has no conflict, costs at most the reader's budget and
  * changes the fewest slots from the current picks. Ties: lower total, then a fixed
  * preference (see `preferenceOrder`): slot by slot in the order given, the current part
@@ -110,7 +112,10 @@ export type WithinBudgetResult =
 export const MAX_OPTIONS_PER_SLOT = 32;
 
 function assertAmount(value: number, what: string): void {
-	if (!Number.isSafeInteger(value) || value < 0) throw new RangeError(`${what} must be a non-negative integer amount of minor units, got ${value}`);
+	if (!Number.isSafeInteger(value) || value < 0)
+		throw new RangeError(
+			`${what} must be a non-negative integer amount of minor units, got ${value}`
+		);
 }
 
 function validate(input: WithinBudgetInput): void {
@@ -119,7 +124,8 @@ function validate(input: WithinBudgetInput): void {
 	for (const s of input.slots) {
 		if (keys.has(s.key)) throw new RangeError(`two slots have the key "${s.key}"`);
 		keys.add(s.key);
-		if (s.alternates.length + 1 > MAX_OPTIONS_PER_SLOT) throw new RangeError(`slot "${s.key}" has more than ${MAX_OPTIONS_PER_SLOT} options`);
+		if (s.alternates.length + 1 > MAX_OPTIONS_PER_SLOT)
+			throw new RangeError(`slot "${s.key}" has more than ${MAX_OPTIONS_PER_SLOT} options`);
 		assertAmount(s.current.price, `price of ${s.key} current`);
 		s.alternates.forEach((a, i) => assertAmount(a.price, `price of ${s.key} alternate ${i + 1}`));
 	}
@@ -127,7 +133,13 @@ function validate(input: WithinBudgetInput): void {
 
 function refsOf(slots: readonly BudgetSlot[]): OptionRef[][] {
 	return slots.map((s, slot) =>
-		[s.current, ...s.alternates].map((o, option) => ({ slot, slotKey: s.key, option, id: o.id, price: o.price }))
+		[s.current, ...s.alternates].map((o, option) => ({
+			slot,
+			slotKey: s.key,
+			option,
+			id: o.id,
+			price: o.price
+		}))
 	);
 }
 
@@ -153,7 +165,13 @@ function swapsOf(slots: readonly BudgetSlot[], choice: readonly number[]): Swap[
  * first.
  */
 export function preferenceOrder(price: readonly (readonly number[])[]): number[][] {
-	return price.map((p) => [0, ...p.map((_, o) => o).filter((o) => o !== 0).sort((a, b) => p[a]! - p[b]! || a - b)]);
+	return price.map((p) => [
+		0,
+		...p
+			.map((_, o) => o)
+			.filter((o) => o !== 0)
+			.sort((a, b) => p[a]! - p[b]! || a - b)
+	]);
 }
 
 /** Lexicographic comparison of two vectors of equal length. */
@@ -175,7 +193,8 @@ function noFit(
 			cheapestTotal: null,
 			shortfall: null,
 			cheapestSwaps: [],
-			message: 'No combination of the current parts and their alternates is free of conflicts, whatever the budget.',
+			message:
+				'No combination of the current parts and their alternates is free of conflicts, whatever the budget.',
 			nodes
 		};
 	}
@@ -193,7 +212,12 @@ function noFit(
 	};
 }
 
-function found(input: WithinBudgetInput, choice: number[], total: number, nodes: number): WithinBudgetResult {
+function found(
+	input: WithinBudgetInput,
+	choice: number[],
+	total: number,
+	nodes: number
+): WithinBudgetResult {
 	return {
 		ok: true,
 		choice,
@@ -254,7 +278,9 @@ export function withinBudget(input: WithinBudgetInput): WithinBudgetResult {
 	let currentConflicts: number[][] | null = null;
 	if (n <= 31) {
 		currentConflicts = Array.from({ length: n }, (_, i) =>
-			Array.from({ length: n }, (_, j) => j).filter((j) => j > i && !(compat[first[i]! * n + j]! & 1))
+			Array.from({ length: n }, (_, j) => j).filter(
+				(j) => j > i && !(compat[first[i]! * n + j]! & 1)
+			)
 		);
 		if (currentConflicts.every((list) => list.length === 0)) currentConflicts = null;
 	}
@@ -382,12 +408,16 @@ export function bruteForce(input: WithinBudgetInput): WithinBudgetResult {
 	const n = slots.length;
 	const refs = refsOf(slots);
 	const flat = refs.flat();
-	const index = refs.map((r, i) => r.map((_, o) => refs.slice(0, i).reduce((c, x) => c + x.length, 0) + o));
+	const index = refs.map((r, i) =>
+		r.map((_, o) => refs.slice(0, i).reduce((c, x) => c + x.length, 0) + o)
+	);
 	const bad: boolean[][] = flat.map(() => flat.map(() => false));
 	if (input.conflicts) {
-		for (const a of flat) for (const b of flat) if (a.slot < b.slot && input.conflicts(a, b)) {
-			bad[index[a.slot]![a.option]!]![index[b.slot]![b.option]!] = true;
-		}
+		for (const a of flat)
+			for (const b of flat)
+				if (a.slot < b.slot && input.conflicts(a, b)) {
+					bad[index[a.slot]![a.option]!]![index[b.slot]![b.option]!] = true;
+				}
 	}
 	const usable = flat.map((o) => !input.unusable?.(o));
 
@@ -416,14 +446,19 @@ export function bruteForce(input: WithinBudgetInput): WithinBudgetResult {
 			const total = choice.reduce((t, o, i) => t + refs[i]![o]!.price, 0);
 			const changes = choice.filter((o) => o !== 0).length;
 			const rank = choice.map((o, i) => rankOf[i]![o]!);
-			if (!cheapest || total < cheapest.total || (total === cheapest.total && lexLess(rank, cheapest.rank))) {
+			if (
+				!cheapest ||
+				total < cheapest.total ||
+				(total === cheapest.total && lexLess(rank, cheapest.rank))
+			) {
 				cheapest = { total, choice: [...choice], rank };
 			}
 			if (
 				total <= input.budget &&
 				(!best ||
 					changes < best.changes ||
-					(changes === best.changes && (total < best.total || (total === best.total && lexLess(rank, best.rank)))))
+					(changes === best.changes &&
+						(total < best.total || (total === best.total && lexLess(rank, best.rank)))))
 			) {
 				best = { changes, total, choice: [...choice], rank };
 			}

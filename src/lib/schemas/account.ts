@@ -6,7 +6,10 @@ import { existingPassword, newPassword } from './password';
 export const redirectTarget = z
 	.string()
 	.max(500)
-	.refine((p) => p.startsWith('/') && !p.startsWith('//') && !p.startsWith('/\\'), 'Not a local path')
+	.refine(
+		(p) => p.startsWith('/') && !p.startsWith('//') && !p.startsWith('/\\'),
+		'Not a local path'
+	)
 	.catch('/');
 
 const displayName = z

@@ -20,7 +20,11 @@ export const auditQuery = z
 	.strictObject({
 		action: z.preprocess(
 			emptyAsUndefined,
-			z.string().regex(/^[a-z][a-z_]*\.[a-z][a-z_]*$/, 'Pick an action from the list.').max(64).optional()
+			z
+				.string()
+				.regex(/^[a-z][a-z_]*\.[a-z][a-z_]*$/, 'Pick an action from the list.')
+				.max(64)
+				.optional()
 		),
 		actor: z.preprocess(
 			emptyAsUndefined,
@@ -28,7 +32,10 @@ export const auditQuery = z
 		),
 		subject: z.preprocess(
 			emptyAsUndefined,
-			z.string().regex(/^[a-z][a-z_]{0,31}$/, 'Pick a subject type from the list.').optional()
+			z
+				.string()
+				.regex(/^[a-z][a-z_]{0,31}$/, 'Pick a subject type from the list.')
+				.optional()
 		),
 		from: z.preprocess(emptyAsUndefined, isoDay.optional()),
 		to: z.preprocess(emptyAsUndefined, isoDay.optional()),
@@ -36,7 +43,11 @@ export const auditQuery = z
 	})
 	.superRefine((q, ctx) => {
 		if (q.from && q.to && q.from > q.to) {
-			ctx.addIssue({ code: 'custom', path: ['to'], message: 'The end date is before the start date.' });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['to'],
+				message: 'The end date is before the start date.'
+			});
 		}
 	});
 export type AuditQuery = z.infer<typeof auditQuery>;

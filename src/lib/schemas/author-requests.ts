@@ -1,6 +1,10 @@
 import { z } from 'zod';
 import { pageNumber } from './query-params';
-import { DECISION_NOTE_MAX_CHARS, PITCH_MAX_CHARS, PITCH_MIN_CHARS } from './author-request-limits.js';
+import {
+	DECISION_NOTE_MAX_CHARS,
+	PITCH_MAX_CHARS,
+	PITCH_MIN_CHARS
+} from './author-request-limits.js';
 
 export { DECISION_NOTE_MAX_CHARS, PITCH_MAX_CHARS, PITCH_MIN_CHARS };
 
@@ -49,7 +53,10 @@ export const decideAuthorRequestInput = z
 			.pipe(
 				z
 					.string()
-					.max(DECISION_NOTE_MAX_CHARS, `Keep the note to at most ${DECISION_NOTE_MAX_CHARS} characters.`)
+					.max(
+						DECISION_NOTE_MAX_CHARS,
+						`Keep the note to at most ${DECISION_NOTE_MAX_CHARS} characters.`
+					)
 			)
 	})
 	.superRefine((input, ctx) => {

@@ -6,9 +6,19 @@ import { z } from 'zod';
  * Amounts stay decimal text here: the service checks them against the region's currency.
  */
 
-const id = (what: string) => z.coerce.number({ error: `Unknown ${what}.` }).int(`Unknown ${what}.`).positive(`Unknown ${what}.`);
-const version = z.coerce.number({ error: 'Reload the page: the form is missing its version.' }).int().min(1);
-const amount = z.string().trim().regex(/^\d{1,9}(\.\d{1,3})?$/, 'Write an amount like 129.99.');
+const id = (what: string) =>
+	z.coerce
+		.number({ error: `Unknown ${what}.` })
+		.int(`Unknown ${what}.`)
+		.positive(`Unknown ${what}.`);
+const version = z.coerce
+	.number({ error: 'Reload the page: the form is missing its version.' })
+	.int()
+	.min(1);
+const amount = z
+	.string()
+	.trim()
+	.regex(/^\d{1,9}(\.\d{1,3})?$/, 'Write an amount like 129.99.');
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Pick a date.');
 const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
 
@@ -17,14 +27,24 @@ export const slotForm = z.object({ slotId: id('slot'), version });
 export const swapForm = slotForm.extend({ partId: id('part') });
 
 export const quantityForm = slotForm.extend({
-	quantity: z.coerce.number({ error: 'Write a whole number.' }).int('Write a whole number.').min(1, 'At least 1.').max(16, 'At most 16.')
+	quantity: z.coerce
+		.number({ error: 'Write a whole number.' })
+		.int('Write a whole number.')
+		.min(1, 'At least 1.')
+		.max(16, 'At most 16.')
 });
 
 export const overrideForm = z.union([
-	slotForm.extend({ clear: z.literal('1') }).transform(({ slotId, version }) => ({ slotId, version, priceOverride: null })),
+	slotForm
+		.extend({ clear: z.literal('1') })
+		.transform(({ slotId, version }) => ({ slotId, version, priceOverride: null })),
 	slotForm
 		.extend({ amount, store: z.string().trim().min(1, 'Name the store.').max(120), date: day })
-		.transform(({ slotId, version, amount, store, date }) => ({ slotId, version, priceOverride: { amount, store, date } }))
+		.transform(({ slotId, version, amount, store, date }) => ({
+			slotId,
+			version,
+			priceOverride: { amount, store, date }
+		}))
 ]);
 
 export const purchaseForm = slotForm
@@ -37,7 +57,9 @@ export const purchaseForm = slotForm
 	.transform(({ slotId, version, purchased, paid, purchasedAt, store }) => ({
 		slotId,
 		version,
-		purchase: purchased ? { purchased, paid, purchasedAt, store } : { purchased, paid: null, purchasedAt: null, store: null }
+		purchase: purchased
+			? { purchased, paid, purchasedAt, store }
+			: { purchased, paid: null, purchasedAt: null, store: null }
 	}));
 
 export const addSlotForm = z.object({
@@ -65,14 +87,23 @@ export const syncForm = z.preprocess(
 	(data) => {
 		const form = data as FormData;
 		const choices: Record<string, string> = {};
-		for (const [key, value] of form) if (key.startsWith('choice:') && typeof value === 'string') choices[key.slice(7)] = value;
-		return { version: form.get('version'), upstreamRevisionId: form.get('upstreamRevisionId') ?? undefined, takeAllNonConflicting: form.get('takeAll') === '1', choices };
+		for (const [key, value] of form)
+			if (key.startsWith('choice:') && typeof value === 'string') choices[key.slice(7)] = value;
+		return {
+			version: form.get('version'),
+			upstreamRevisionId: form.get('upstreamRevisionId') ?? undefined,
+			takeAllNonConflicting: form.get('takeAll') === '1',
+			choices
+		};
 	},
 	z.object({
 		version,
 		upstreamRevisionId: z.coerce.number().int().positive().optional(),
 		takeAllNonConflicting: z.boolean(),
-		choices: z.record(z.string().max(200), z.enum(['take_upstream', 'keep_local'], { error: 'Choose to take the change or keep yours.' }))
+		choices: z.record(
+			z.string().max(200),
+			z.enum(['take_upstream', 'keep_local'], { error: 'Choose to take the change or keep yours.' })
+		)
 	})
 );
 

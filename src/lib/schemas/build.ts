@@ -11,7 +11,10 @@ import { PART_CATEGORIES } from '$lib/domain/types';
 
 export const BUILD_VISIBILITY_VALUES = ['private', 'unlisted', 'public'] as const;
 
-const version = z.number({ message: 'Send the version you last saw.' }).int().positive('Send the version you last saw.');
+const version = z
+	.number({ message: 'Send the version you last saw.' })
+	.int()
+	.positive('Send the version you last saw.');
 
 /** A non-negative decimal amount as typed ("700", "699.99"). */
 export const buildAmount = z
@@ -32,14 +35,25 @@ export const pastDate = z
 
 const storeName = z.string().trim().min(1, 'Name the store.').max(120, 'At most 120 characters.');
 
-export const regionCode = z.string().trim().toLowerCase().regex(/^[a-z]{2,8}$/, 'Choose a region.');
+export const regionCode = z
+	.string()
+	.trim()
+	.toLowerCase()
+	.regex(/^[a-z]{2,8}$/, 'Choose a region.');
 
 export const updateBuildInput = z.strictObject({
 	version,
-	title: z.string().trim().min(1, 'Give the build a title.').max(160, 'At most 160 characters.').optional(),
+	title: z
+		.string()
+		.trim()
+		.min(1, 'Give the build a title.')
+		.max(160, 'At most 160 characters.')
+		.optional(),
 	notes: z.string().max(10_000, 'At most 10,000 characters.').optional(),
 	regionCode: regionCode.optional(),
-	visibility: z.enum(BUILD_VISIBILITY_VALUES, { message: 'Choose private, unlisted or public.' }).optional(),
+	visibility: z
+		.enum(BUILD_VISIBILITY_VALUES, { message: 'Choose private, unlisted or public.' })
+		.optional(),
 	/** null removes the budget. */
 	budget: buildAmount.nullable().optional(),
 	notifyOnNewRevision: z.boolean().optional()

@@ -32,9 +32,11 @@ export function startsLikeFormula(value: string): boolean {
 	return first !== '' && (FORMULA_TRIGGERS as readonly string[]).includes(first);
 }
 
-const FORMULA_MESSAGE = 'Must not start with =, +, -, @, a tab or a line break (spreadsheets run such cells as formulas).';
+const FORMULA_MESSAGE =
+	'Must not start with =, +, -, @, a tab or a line break (spreadsheets run such cells as formulas).';
 
 // Control characters other than tab and line breaks have no place in a name.
+// eslint-disable-next-line no-control-regex -- matching control characters is the point
 const CONTROL_CHARS = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
 
 function nameText(what: string, max: number) {
@@ -43,7 +45,10 @@ function nameText(what: string, max: number) {
 		.trim()
 		.min(1, `Enter the ${what}.`)
 		.max(max, `Use at most ${max} characters for the ${what}.`)
-		.refine((v) => !CONTROL_CHARS.test(v) && !/[\r\n\t]/.test(v), 'Use a single line without control characters.')
+		.refine(
+			(v) => !CONTROL_CHARS.test(v) && !/[\r\n\t]/.test(v),
+			'Use a single line without control characters.'
+		)
 		.refine((v) => !startsLikeFormula(v), FORMULA_MESSAGE);
 }
 
@@ -54,8 +59,14 @@ export const partSlug = z
 	.trim()
 	.min(1, 'Enter a slug.')
 	.max(140, 'Use at most 140 characters for the slug.')
-	.regex(SLUG_PATTERN, 'Use lower-case letters, digits and single hyphens, e.g. "halvard-strata-606".')
-	.refine((s) => !(RESERVED_PART_SLUGS as readonly string[]).includes(s), 'This word is reserved; add the brand or model to it.');
+	.regex(
+		SLUG_PATTERN,
+		'Use lower-case letters, digits and single hyphens, e.g. "halvard-strata-606".'
+	)
+	.refine(
+		(s) => !(RESERVED_PART_SLUGS as readonly string[]).includes(s),
+		'This word is reserved; add the brand or model to it.'
+	);
 
 /** "Ærø Cool 5 — Pro" → "aero-cool-5-pro": the slug a part gets when none is given. */
 export function slugify(...words: string[]): string {
@@ -85,7 +96,10 @@ export const partFieldsInput = z.strictObject({
 	category: partCategory,
 	brand: nameText('brand', 80),
 	model: nameText('model', 120),
-	slug: z.preprocess((v) => (typeof v === 'string' && v.trim() === '' ? undefined : v), partSlug.optional())
+	slug: z.preprocess(
+		(v) => (typeof v === 'string' && v.trim() === '' ? undefined : v),
+		partSlug.optional()
+	)
 });
 export type PartFieldsInput = z.infer<typeof partFieldsInput>;
 
@@ -130,12 +144,19 @@ export function specIssueMessage(issue: RawIssue): string | undefined {
 			return undefined;
 		case 'too_small':
 			if (issue.origin === 'array') return `Choose at least ${String(issue.minimum)}.`;
-			if (issue.origin === 'string') return Number(issue.minimum) <= 1 ? 'Required.' : `Use at least ${String(issue.minimum)} characters.`;
-			return issue.inclusive ? `Must be at least ${String(issue.minimum)}.` : `Must be more than ${String(issue.minimum)}.`;
+			if (issue.origin === 'string')
+				return Number(issue.minimum) <= 1
+					? 'Required.'
+					: `Use at least ${String(issue.minimum)} characters.`;
+			return issue.inclusive
+				? `Must be at least ${String(issue.minimum)}.`
+				: `Must be more than ${String(issue.minimum)}.`;
 		case 'too_big':
 			if (issue.origin === 'array') return `At most ${String(issue.maximum)} allowed.`;
 			if (issue.origin === 'string') return `Use at most ${String(issue.maximum)} characters.`;
-			return issue.inclusive ? `Must be at most ${String(issue.maximum)}.` : `Must be less than ${String(issue.maximum)}.`;
+			return issue.inclusive
+				? `Must be at most ${String(issue.maximum)}.`
+				: `Must be less than ${String(issue.maximum)}.`;
 		case 'invalid_value':
 			return `Choose one of: ${list(issue.values ?? [])}.`;
 		case 'invalid_union': {
@@ -164,7 +185,10 @@ export function validateSpecs(
 	if (result.success) return { ok: true, specs: result.data as Record<string, unknown> };
 	return {
 		ok: false,
-		issues: result.error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }))
+		issues: result.error.issues.map((i) => ({
+			path: i.path.map(String).join('.'),
+			message: i.message
+		}))
 	};
 }
 
@@ -181,7 +205,10 @@ export function decimalToMinor(
 	const trimmed = text.trim();
 	const match = /^(\d{1,13})(?:\.(\d+))?$/.exec(trimmed);
 	if (!match) {
-		return { ok: false, message: `Enter an amount in ${currency} with digits and a point, e.g. ${example(digits)}.` };
+		return {
+			ok: false,
+			message: `Enter an amount in ${currency} with digits and a point, e.g. ${example(digits)}.`
+		};
 	}
 	const whole = match[1] ?? '0';
 	const fraction = match[2] ?? '';
@@ -195,7 +222,8 @@ export function decimalToMinor(
 		};
 	}
 	const amountMinor = Number(whole + fraction.padEnd(digits, '0'));
-	if (!Number.isSafeInteger(amountMinor)) return { ok: false, message: 'That amount is too large.' };
+	if (!Number.isSafeInteger(amountMinor))
+		return { ok: false, message: 'That amount is too large.' };
 	return { ok: true, amountMinor };
 }
 
@@ -211,7 +239,8 @@ export function minorToDecimal(amountMinor: number, digits: number): string {
 	return `${sign}${text.slice(0, -digits)}.${text.slice(-digits)}`;
 }
 
-const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+const emptyAsUndefined = (value: unknown) =>
+	typeof value === 'string' && value.trim() === '' ? undefined : value;
 
 const webAddress = z
 	.string()
@@ -241,7 +270,11 @@ export const storeInput = z.strictObject({
 export type StoreInput = z.infer<typeof storeInput>;
 
 const id = (what: string) =>
-	z.coerce.number({ error: `Unknown ${what}.` }).int(`Unknown ${what}.`).positive(`Unknown ${what}.`).max(2 ** 32 - 1, `Unknown ${what}.`);
+	z.coerce
+		.number({ error: `Unknown ${what}.` })
+		.int(`Unknown ${what}.`)
+		.positive(`Unknown ${what}.`)
+		.max(2 ** 32 - 1, `Unknown ${what}.`);
 
 export const storeIdInput = z.strictObject({ storeId: id('store') });
 
@@ -268,14 +301,26 @@ export const quoteInput = z.strictObject({
 			.regex(/^[A-Z]{3}$/, 'Use a three-letter ISO 4217 code, e.g. EUR.')
 			.optional()
 	),
-	amount: z.string({ error: 'Enter the price.' }).trim().min(1, 'Enter the price.').max(20, 'That amount is too long.'),
-	shipping: z.preprocess(emptyAsUndefined, z.string().trim().max(20, 'That amount is too long.').optional()),
+	amount: z
+		.string({ error: 'Enter the price.' })
+		.trim()
+		.min(1, 'Enter the price.')
+		.max(20, 'That amount is too long.'),
+	shipping: z.preprocess(
+		emptyAsUndefined,
+		z.string().trim().max(20, 'That amount is too long.').optional()
+	),
 	// A checkbox posts "on" when ticked and nothing when not.
 	taxIncluded: z.preprocess((v) => v === 'on' || v === 'true', z.boolean()),
 	observedOn: z
 		.string({ error: 'Enter the day the price was seen.' })
 		.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
-		.refine((d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().startsWith(d), 'Enter a real date.')
+		.refine(
+			(d) =>
+				!Number.isNaN(Date.parse(`${d}T00:00:00Z`)) &&
+				new Date(`${d}T00:00:00Z`).toISOString().startsWith(d),
+			'Enter a real date.'
+		)
 		.refine((d) => d >= '2000-01-01', 'Enter a date from 2000 on.')
 		.refine((d) => d <= todayIso(), 'The day cannot be in the future.'),
 	url: z.preprocess(emptyAsUndefined, webAddress.optional())
@@ -291,4 +336,6 @@ export const partListQuery = z.strictObject({
 export type PartListQuery = z.infer<typeof partListQuery>;
 
 /** POST ?/confirm and ?/discard on /editor/parts/import. */
-export const catalogImportIdInput = z.strictObject({ importId: z.uuid({ error: 'Unknown upload.' }) });
+export const catalogImportIdInput = z.strictObject({
+	importId: z.uuid({ error: 'Unknown upload.' })
+});

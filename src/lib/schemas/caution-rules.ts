@@ -44,7 +44,13 @@ function conditionFields(fields: SpecField[], prefix = '', labelPrefix = ''): Co
 		const path = prefix + f.key;
 		const label = labelPrefix + f.label;
 		const add = (kind: ConditionFieldKind, options?: string[]) =>
-			out.push({ path, label, kind, operators: OPERATORS_BY_KIND[kind], ...(options ? { options } : {}) });
+			out.push({
+				path,
+				label,
+				kind,
+				operators: OPERATORS_BY_KIND[kind],
+				...(options ? { options } : {})
+			});
 		if (f.kind === 'number') add('number');
 		else if (f.kind === 'select') add(f.numeric ? 'number-choice' : 'choice', f.options);
 		else if (f.kind === 'text') add('text');
@@ -72,20 +78,33 @@ export const FORM_CONDITION_ROWS = 4;
 const NUMBER_TEXT = /^-?\d+(?:\.\d+)?$/;
 
 /** A typed-in value as the field's kind reads it, or a message saying what is wrong. */
-function readValue(field: ConditionField, operator: CautionOperator, raw: string): { value: ConditionValue } | { message: string } {
+function readValue(
+	field: ConditionField,
+	operator: CautionOperator,
+	raw: string
+): { value: ConditionValue } | { message: string } {
 	const text = raw.trim();
 	if (text === '') return { message: 'Enter a value.' };
-	const items = operator === 'in' ? text.split(',').map((t) => t.trim()).filter((t) => t !== '') : [text];
+	const items =
+		operator === 'in'
+			? text
+					.split(',')
+					.map((t) => t.trim())
+					.filter((t) => t !== '')
+			: [text];
 	if (items.length === 0) return { message: 'Enter one or more values, separated by commas.' };
 	if (items.length > 20) return { message: 'Enter at most 20 values.' };
 	const numeric = field.kind === 'number' || field.kind === 'number-choice';
 	const read: Array<string | number | boolean> = [];
 	for (const item of items) {
 		if (numeric) {
-			if (!NUMBER_TEXT.test(item)) return { message: `"${item}" is not a number; ${field.label} is a number.` };
+			if (!NUMBER_TEXT.test(item))
+				return { message: `"${item}" is not a number; ${field.label} is a number.` };
 			const n = Number(item);
 			if (field.kind === 'number-choice' && !field.options?.includes(String(n))) {
-				return { message: `${field.label} is one of ${field.options?.join(', ')}; "${item}" is not.` };
+				return {
+					message: `${field.label} is one of ${field.options?.join(', ')}; "${item}" is not.`
+				};
 			}
 			read.push(n);
 		} else if (field.kind === 'yes-no') {
@@ -96,7 +115,10 @@ function readValue(field: ConditionField, operator: CautionOperator, raw: string
 			read.push(lower === 'yes' || lower === 'true');
 		} else if (field.kind === 'choice' || field.kind === 'list') {
 			const match = field.options?.find((o) => o.toLowerCase() === item.toLowerCase());
-			if (!match) return { message: `${field.label} is one of ${field.options?.join(', ')}; "${item}" is not.` };
+			if (!match)
+				return {
+					message: `${field.label} is one of ${field.options?.join(', ')}; "${item}" is not.`
+				};
 			read.push(match);
 		} else {
 			if (item.length > 60) return { message: 'Keep text values to 60 characters.' };
@@ -122,23 +144,38 @@ const conditionsInput = z
 	.transform((rows, ctx) => {
 		const conditions: CautionCondition[] = [];
 		rows.forEach((c, i) => {
-			const at = (key: string, message: string) => ctx.addIssue({ code: 'custom', path: [i, key], message, input: c });
+			const at = (key: string, message: string) =>
+				ctx.addIssue({ code: 'custom', path: [i, key], message, input: c });
 			const category = PART_CATEGORIES.find((p) => p === c.category);
 			if (!category) return at('category', 'Choose a part category.');
 			const field = conditionField(category, c.field);
 			if (!field) {
-				return at('field', c.field === '' ? 'Choose a spec field.' : `${CATEGORY_LABELS[category]} has no spec field "${c.field}".`);
+				return at(
+					'field',
+					c.field === ''
+						? 'Choose a spec field.'
+						: `${CATEGORY_LABELS[category]} has no spec field "${c.field}".`
+				);
 			}
 			const operator = CAUTION_OPERATORS.find((o) => o === c.operator);
 			if (!operator) return at('operator', 'Choose a comparison.');
 			if (!field.operators.includes(operator)) {
-				return at('operator', `"${operator}" does not apply to ${field.label}; use ${field.operators.join(', ')}.`);
+				return at(
+					'operator',
+					`"${operator}" does not apply to ${field.label}; use ${field.operators.join(', ')}.`
+				);
 			}
 			const value = readValue(field, operator, c.value);
 			if ('message' in value) return at('value', value.message);
 			conditions.push({ category, field: field.path, operator, value: value.value });
 		});
-		if (rows.length < 2) ctx.addIssue({ code: 'custom', path: [], message: 'A pairing caution needs at least two conditions.', input: rows });
+		if (rows.length < 2)
+			ctx.addIssue({
+				code: 'custom',
+				path: [],
+				message: 'A pairing caution needs at least two conditions.',
+				input: rows
+			});
 		return conditions;
 	});
 
@@ -147,7 +184,11 @@ const conditionsInput = z
  * title and a wrong condition value are reported together.
  */
 export const cautionRuleInput = z.object({
-	title: z.string().trim().min(3, 'Enter a title of at least 3 characters.').max(120, 'Keep the title to 120 characters.'),
+	title: z
+		.string()
+		.trim()
+		.min(3, 'Enter a title of at least 3 characters.')
+		.max(120, 'Keep the title to 120 characters.'),
 	message: z
 		.string()
 		.trim()
@@ -161,7 +202,8 @@ export type CautionRuleInput = z.output<typeof cautionRuleInput>;
 
 /** Form fields (flat, `conditions.0.field`...) → the object cautionRuleInput checks; blank rows are dropped. */
 export function ruleFromForm(fields: Record<string, string>) {
-	const conditions: Array<{ category: string; field: string; operator: string; value: string }> = [];
+	const conditions: Array<{ category: string; field: string; operator: string; value: string }> =
+		[];
 	for (let i = 0; i < MAX_CONDITIONS; i++) {
 		const row = {
 			category: fields[`conditions.${i}.category`] ?? '',

@@ -33,7 +33,10 @@ export const reportInput = z.strictObject({
 		.pipe(
 			z
 				.string()
-				.min(REPORT_DETAIL_MIN_CHARS, `Write at least ${REPORT_DETAIL_MIN_CHARS} characters about what is wrong.`)
+				.min(
+					REPORT_DETAIL_MIN_CHARS,
+					`Write at least ${REPORT_DETAIL_MIN_CHARS} characters about what is wrong.`
+				)
 				.max(REPORT_DETAIL_MAX_CHARS, `Keep it to at most ${REPORT_DETAIL_MAX_CHARS} characters.`)
 		)
 });
@@ -60,8 +63,14 @@ export const hideInput = z.strictObject({
 		.pipe(
 			z
 				.string()
-				.min(HIDE_REASON_MIN_CHARS, `Write at least ${HIDE_REASON_MIN_CHARS} characters: its owner sees this reason.`)
-				.max(HIDE_REASON_MAX_CHARS, `Keep the reason to at most ${HIDE_REASON_MAX_CHARS} characters.`)
+				.min(
+					HIDE_REASON_MIN_CHARS,
+					`Write at least ${HIDE_REASON_MIN_CHARS} characters: its owner sees this reason.`
+				)
+				.max(
+					HIDE_REASON_MAX_CHARS,
+					`Keep the reason to at most ${HIDE_REASON_MAX_CHARS} characters.`
+				)
 		)
 });
 export type HideInput = z.infer<typeof hideInput>;

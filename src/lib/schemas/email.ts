@@ -3,7 +3,7 @@ import { z } from 'zod';
 /*
  * The one e-mail address schema: every e-mail field in the app (sign-up, sign-in, reset,
  * newsletter, admin) parses through `emailAddress`, and the mailer refuses anything it
- * rejects. SECURITY-CHECKLIST.md §8 lists the attacks it stops: quoted local parts that
+ * rejects. docs/security.md §8 lists the attacks it stops: quoted local parts that
  * nodemailer once misrouted, address lists and CR/LF that smuggle extra recipients or
  * headers, and fullwidth @ signs that only become an @ after Unicode normalisation.
  *
@@ -32,8 +32,7 @@ const LIST_SEPARATOR = /[,;\s]/;
 // RFC 5322 atext: a dot-atom local part without quotes or comments.
 const LOCAL_PART = /^[A-Za-z0-9!#$%&'*+/=?^_`{|}~-]+(?:\.[A-Za-z0-9!#$%&'*+/=?^_`{|}~-]+)*$/;
 // LDH labels of 1–63 characters, at least two labels, a letter-only (or punycode) TLD.
-const DOMAIN =
-	/^(?:[a-z0-9](?:[a-z0-9-]{0,61}[a-z0-9])?\.)+(?:[a-z]{2,63}|xn--[a-z0-9-]{1,59})$/;
+const DOMAIN = /^(?:[a-z0-9](?:[a-z0-9-]{0,61}[a-z0-9])?\.)+(?:[a-z]{2,63}|xn--[a-z0-9-]{1,59})$/;
 
 export const EMAIL_MESSAGES = {
 	required: 'Enter your e-mail address.',
@@ -53,8 +52,8 @@ export const EMAIL_MESSAGES = {
 
 export type EmailAddressCheck = { ok: true; address: string } | { ok: false; message: string };
 
-const NON_ASCII = /[^\x00-\x7f]/u;
-const NON_ASCII_ALL = /[^\x00-\x7f]/gu;
+const NON_ASCII = /\P{ASCII}/u;
+const NON_ASCII_ALL = /\P{ASCII}/gu;
 
 /**
  * Non-ASCII characters that NFKC turns into "@", e.g. U+FF20 "＠" and U+FE6B "﹫".

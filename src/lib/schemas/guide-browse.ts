@@ -19,12 +19,21 @@ export const GUIDES_PER_PAGE = 12;
  */
 export const GUIDE_SORTS = ['newest', 'total', 'value'] as const;
 export type GuideSort = (typeof GUIDE_SORTS)[number];
-export const GUIDE_SORT_LABELS: Record<GuideSort, string> = { newest: 'Newest', total: 'Lowest total', value: 'Best value' };
+export const GUIDE_SORT_LABELS: Record<GuideSort, string> = {
+	newest: 'Newest',
+	total: 'Lowest total',
+	value: 'Best value'
+};
 /** Sorts that compare totals, so need the reader's region. */
-const SORTS_NEEDING_REGION: Record<GuideSort, string | null> = { newest: null, total: 'total', value: 'value' };
+const SORTS_NEEDING_REGION: Record<GuideSort, string | null> = {
+	newest: null,
+	total: 'total',
+	value: 'value'
+};
 
 // A GET form sends "" for a field left blank: that means "no filter", not a bad value.
-const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+const emptyAsUndefined = (value: unknown) =>
+	typeof value === 'string' && value.trim() === '' ? undefined : value;
 
 const regionCode = z.preprocess(
 	emptyAsUndefined,
@@ -72,21 +81,33 @@ export const guideBrowseFields = z.strictObject({
 export const guideBrowseQuery = guideBrowseFields.superRefine((input, ctx) => {
 	const needsRegion = 'Choose the region your budget is in: totals are compared in its currency.';
 	if (!input.region) {
-		if (input.min !== undefined) ctx.addIssue({ code: 'custom', path: ['min'], message: needsRegion });
-		if (input.max !== undefined) ctx.addIssue({ code: 'custom', path: ['max'], message: needsRegion });
+		if (input.min !== undefined)
+			ctx.addIssue({ code: 'custom', path: ['min'], message: needsRegion });
+		if (input.max !== undefined)
+			ctx.addIssue({ code: 'custom', path: ['max'], message: needsRegion });
 		const sortBy = SORTS_NEEDING_REGION[input.sort];
 		if (sortBy) {
-			ctx.addIssue({ code: 'custom', path: ['sort'], message: `Choose a region to sort by ${sortBy}: totals are compared in its currency.` });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['sort'],
+				message: `Choose a region to sort by ${sortBy}: totals are compared in its currency.`
+			});
 		}
 	}
 	if (input.min !== undefined && input.max !== undefined && input.min > input.max) {
-		ctx.addIssue({ code: 'custom', path: ['max'], message: 'The highest budget must be at least the lowest.' });
+		ctx.addIssue({
+			code: 'custom',
+			path: ['max'],
+			message: 'The highest budget must be at least the lowest.'
+		});
 	}
 });
 export type GuideBrowseQuery = z.output<typeof guideBrowseQuery>;
 
 /** Strict parse for the API: any unknown or repeated parameter or bad value fails with field issues. */
-export function parseGuideBrowseStrict(params: URLSearchParams): { ok: true; query: GuideBrowseQuery } | { ok: false; issues: Issues } {
+export function parseGuideBrowseStrict(
+	params: URLSearchParams
+): { ok: true; query: GuideBrowseQuery } | { ok: false; issues: Issues } {
 	const { raw, repeated } = queryRecord(params, ['tag']);
 	return parseStrict(guideBrowseQuery, raw, repeated);
 }
@@ -95,7 +116,10 @@ export function parseGuideBrowseStrict(params: URLSearchParams): { ok: true; que
  * Lenient parse for the page: each bad or unknown parameter is reported and dropped, so one
  * typo does not lose the rest of the search. A bad tag drops the tag filter as a whole.
  */
-export function parseGuideBrowseLenient(params: URLSearchParams): { query: GuideBrowseQuery; issues: Issues } {
+export function parseGuideBrowseLenient(params: URLSearchParams): {
+	query: GuideBrowseQuery;
+	issues: Issues;
+} {
 	const { raw, repeated } = queryRecord(params, ['tag']);
 	return parseLenient(guideBrowseQuery, Object.keys(guideBrowseFields.shape), raw, repeated);
 }

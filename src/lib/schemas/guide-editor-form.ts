@@ -84,8 +84,21 @@ export interface DraftLike {
 		priceQuote: { storeId: number; amount: string; observedAt: string } | null;
 		alternates: { partId: number; reasonTag: string; note: string }[];
 	}[];
-	frames: { workload: string; resolution: string; preset: string; avgFps: string; low1Fps: string | null; notes: string }[];
-	thermals: { loadName: string; cpuTempC: number | null; gpuTempC: number | null; cpuUtilPct: number | null; gpuUtilPct: number | null }[];
+	frames: {
+		workload: string;
+		resolution: string;
+		preset: string;
+		avgFps: string;
+		low1Fps: string | null;
+		notes: string;
+	}[];
+	thermals: {
+		loadName: string;
+		cpuTempC: number | null;
+		gpuTempC: number | null;
+		cpuUtilPct: number | null;
+		gpuUtilPct: number | null;
+	}[];
 }
 
 let counter = 0;
@@ -95,7 +108,18 @@ export function newKey(): string {
 }
 
 export function emptySlot(category: PartCategory = 'cpu', key = newKey()): EditorSlot {
-	return { key, category, label: '', quantity: '1', pickPartId: '', reason: '', quoteStoreId: '', quoteAmount: '', quoteObservedAt: '', alternates: [] };
+	return {
+		key,
+		category,
+		label: '',
+		quantity: '1',
+		pickPartId: '',
+		reason: '',
+		quoteStoreId: '',
+		quoteAmount: '',
+		quoteObservedAt: '',
+		alternates: []
+	};
 }
 
 export function emptyAlternate(key = newKey()): EditorAlternate {
@@ -133,9 +157,22 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			quoteStoreId: s.priceQuote ? String(s.priceQuote.storeId) : '',
 			quoteAmount: s.priceQuote?.amount ?? '',
 			quoteObservedAt: s.priceQuote?.observedAt ?? '',
-			alternates: s.alternates.map((a, j) => ({ key: `s${i}a${j}`, partId: String(a.partId), reasonTag: a.reasonTag, note: a.note }))
+			alternates: s.alternates.map((a, j) => ({
+				key: `s${i}a${j}`,
+				partId: String(a.partId),
+				reasonTag: a.reasonTag,
+				note: a.note
+			}))
 		})),
-		frames: d.frames.map((f, i) => ({ key: `f${i}`, workload: f.workload, resolution: f.resolution, preset: f.preset, avgFps: f.avgFps, low1Fps: f.low1Fps ?? '', notes: f.notes })),
+		frames: d.frames.map((f, i) => ({
+			key: `f${i}`,
+			workload: f.workload,
+			resolution: f.resolution,
+			preset: f.preset,
+			avgFps: f.avgFps,
+			low1Fps: f.low1Fps ?? '',
+			notes: f.notes
+		})),
 		thermals: d.thermals.map((t, i) => ({
 			key: `t${i}`,
 			loadName: t.loadName,
@@ -169,7 +206,12 @@ export function fromForm(data: FormData): EditorDraft {
 		for (let j = 0; j < count(`${p}alternates.`); j++) {
 			const a = `${p}alternates.${j}.`;
 			if (!data.has(`${a}partId`)) continue;
-			alternates.push({ key: text(`${a}key`) || `s${i}a${j}`, partId: text(`${a}partId`), reasonTag: text(`${a}reasonTag`), note: text(`${a}note`) });
+			alternates.push({
+				key: text(`${a}key`) || `s${i}a${j}`,
+				partId: text(`${a}partId`),
+				reasonTag: text(`${a}reasonTag`),
+				note: text(`${a}note`)
+			});
 		}
 		slots.push({
 			key: text(`${p}key`) || `s${i}`,
@@ -189,13 +231,28 @@ export function fromForm(data: FormData): EditorDraft {
 	for (let i = 0; i < count('frames.'); i++) {
 		const p = `frames.${i}.`;
 		if (!data.has(`${p}workload`)) continue;
-		frames.push({ key: text(`${p}key`) || `f${i}`, workload: text(`${p}workload`), resolution: text(`${p}resolution`), preset: text(`${p}preset`), avgFps: text(`${p}avgFps`), low1Fps: text(`${p}low1Fps`), notes: text(`${p}notes`) });
+		frames.push({
+			key: text(`${p}key`) || `f${i}`,
+			workload: text(`${p}workload`),
+			resolution: text(`${p}resolution`),
+			preset: text(`${p}preset`),
+			avgFps: text(`${p}avgFps`),
+			low1Fps: text(`${p}low1Fps`),
+			notes: text(`${p}notes`)
+		});
 	}
 	const thermals: EditorThermal[] = [];
 	for (let i = 0; i < count('thermals.'); i++) {
 		const p = `thermals.${i}.`;
 		if (!data.has(`${p}loadName`)) continue;
-		thermals.push({ key: text(`${p}key`) || `t${i}`, loadName: text(`${p}loadName`), cpuTempC: text(`${p}cpuTempC`), gpuTempC: text(`${p}gpuTempC`), cpuUtilPct: text(`${p}cpuUtilPct`), gpuUtilPct: text(`${p}gpuUtilPct`) });
+		thermals.push({
+			key: text(`${p}key`) || `t${i}`,
+			loadName: text(`${p}loadName`),
+			cpuTempC: text(`${p}cpuTempC`),
+			gpuTempC: text(`${p}gpuTempC`),
+			cpuUtilPct: text(`${p}cpuUtilPct`),
+			gpuUtilPct: text(`${p}gpuUtilPct`)
+		});
 	}
 	return {
 		title: text('title'),
@@ -206,7 +263,12 @@ export function fromForm(data: FormData): EditorDraft {
 		disclosure: text('disclosure'),
 		disclosureNote: text('disclosureNote'),
 		walkthroughUrl: text('walkthroughUrl'),
-		buildNotes: { firmware: text('buildNotes.firmware'), assembly: text('buildNotes.assembly'), cabling: text('buildNotes.cabling'), display: text('buildNotes.display') },
+		buildNotes: {
+			firmware: text('buildNotes.firmware'),
+			assembly: text('buildNotes.assembly'),
+			cabling: text('buildNotes.cabling'),
+			display: text('buildNotes.display')
+		},
 		slots,
 		frames,
 		thermals
@@ -239,9 +301,20 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 				s.quoteStoreId || s.quoteAmount || s.quoteObservedAt
 					? { storeId: num(s.quoteStoreId), amount: s.quoteAmount, observedAt: s.quoteObservedAt }
 					: null,
-			alternates: s.alternates.map((a) => ({ partId: num(a.partId), reasonTag: a.reasonTag, note: a.note }))
+			alternates: s.alternates.map((a) => ({
+				partId: num(a.partId),
+				reasonTag: a.reasonTag,
+				note: a.note
+			}))
 		})),
-		frames: d.frames.map((f) => ({ workload: f.workload, resolution: f.resolution, preset: f.preset, avgFps: f.avgFps, low1Fps: f.low1Fps, notes: f.notes })),
+		frames: d.frames.map((f) => ({
+			workload: f.workload,
+			resolution: f.resolution,
+			preset: f.preset,
+			avgFps: f.avgFps,
+			low1Fps: f.low1Fps,
+			notes: f.notes
+		})),
 		thermals: d.thermals.map((t) => ({
 			loadName: t.loadName,
 			cpuTempC: optNum(t.cpuTempC),
@@ -285,7 +358,10 @@ export function applyOp(d: EditorDraft, op: string): EditorDraft {
 			return { ...d, thermals: d.thermals.filter((_, k) => k !== i) };
 	}
 	if (!slot) return d;
-	const withAlternates = (alternates: EditorAlternate[]) => ({ ...d, slots: slots.map((s, k) => (k === i ? { ...slot, alternates } : s)) });
+	const withAlternates = (alternates: EditorAlternate[]) => ({
+		...d,
+		slots: slots.map((s, k) => (k === i ? { ...slot, alternates } : s))
+	});
 	switch (name) {
 		case 'addAlt':
 			return withAlternates([...slot.alternates, emptyAlternate()]);

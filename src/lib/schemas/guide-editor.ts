@@ -43,7 +43,10 @@ const isoDate = z
 	.trim()
 	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
 	.refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Enter a real date.')
-	.refine((s) => Date.parse(`${s}T00:00:00Z`) <= Date.now(), 'The price cannot be observed in the future.');
+	.refine(
+		(s) => Date.parse(`${s}T00:00:00Z`) <= Date.now(),
+		'The price cannot be observed in the future.'
+	);
 
 const optionalText = (max: number) =>
 	z
@@ -57,8 +60,15 @@ export const guideMetaFields = {
 	title: z.string().trim().min(3, 'Give the guide a title of at least 3 characters.').max(160),
 	summary: z.string().trim().min(1, 'Write a short summary.').max(2000),
 	targetBudget: decimalAmount,
-	baseRegion: z.string().trim().toLowerCase().regex(/^[a-z]{2,8}$/, 'Choose a region.'),
-	tags: z.array(z.enum(GUIDE_TAGS as [GuideTag, ...GuideTag[]])).max(GUIDE_TAGS.length).default([]),
+	baseRegion: z
+		.string()
+		.trim()
+		.toLowerCase()
+		.regex(/^[a-z]{2,8}$/, 'Choose a region.'),
+	tags: z
+		.array(z.enum(GUIDE_TAGS as [GuideTag, ...GuideTag[]]))
+		.max(GUIDE_TAGS.length)
+		.default([]),
 	disclosure: z.enum(GUIDE_DISCLOSURES, { message: 'Choose a disclosure.' }),
 	disclosureNote: optionalText(1000),
 	walkthroughUrl: optionalText(500).refine(
@@ -126,8 +136,15 @@ export function tenthsToFps(tenths: number): string {
 
 export const frameResultInput = z
 	.strictObject({
-		workload: z.string().trim().min(1, 'Name the game or application.').max(120, 'At most 120 characters.'),
-		resolution: z.string().trim().regex(/^\d{3,5}x\d{3,5}$/, 'Enter a resolution like 2560x1440.'),
+		workload: z
+			.string()
+			.trim()
+			.min(1, 'Name the game or application.')
+			.max(120, 'At most 120 characters.'),
+		resolution: z
+			.string()
+			.trim()
+			.regex(/^\d{3,5}x\d{3,5}$/, 'Enter a resolution like 2560x1440.'),
 		preset: z.string().trim().max(60, 'At most 60 characters.').default(''),
 		avgFps: fpsText('average FPS'),
 		/** Empty when the author did not measure it. */
@@ -139,7 +156,11 @@ export const frameResultInput = z
 	})
 	.superRefine((r, ctx) => {
 		if (r.low1Fps !== null && fpsToTenths(r.low1Fps) > fpsToTenths(r.avgFps)) {
-			ctx.addIssue({ code: 'custom', path: ['low1Fps'], message: 'The 1 % low cannot be above the average FPS.' });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['low1Fps'],
+				message: 'The 1 % low cannot be above the average FPS.'
+			});
 		}
 	});
 export type FrameResultInput = z.infer<typeof frameResultInput>;
@@ -155,7 +176,11 @@ const reading = (what: string, max: number, unit: string) =>
 		.default(null);
 
 export const thermalResultInput = z.strictObject({
-	loadName: z.string().trim().min(1, 'Name the load (e.g. a stress test or a game).').max(120, 'At most 120 characters.'),
+	loadName: z
+		.string()
+		.trim()
+		.min(1, 'Name the load (e.g. a stress test or a game).')
+		.max(120, 'At most 120 characters.'),
 	cpuTempC: reading('CPU temperature', 120, '°C'),
 	gpuTempC: reading('GPU temperature', 120, '°C'),
 	cpuUtilPct: reading('CPU utilisation', 100, '%'),
@@ -204,10 +229,17 @@ export function joinBuildNotes(notes: BuildNotesInput): string {
 export function splitBuildNotes(md: string): BuildNotesInput {
 	const notes: BuildNotesInput = { firmware: '', assembly: '', cabling: '', display: '' };
 	let current: BuildNoteKey = 'firmware';
-	const lines: Record<BuildNoteKey, string[]> = { firmware: [], assembly: [], cabling: [], display: [] };
+	const lines: Record<BuildNoteKey, string[]> = {
+		firmware: [],
+		assembly: [],
+		cabling: [],
+		display: []
+	};
 	for (const line of md.split('\n')) {
 		const heading = /^##\s+(.+?)\s*$/.exec(line)?.[1]?.toLowerCase();
-		const section = heading ? BUILD_NOTE_SECTIONS.find((s) => s.heading.toLowerCase() === heading) : undefined;
+		const section = heading
+			? BUILD_NOTE_SECTIONS.find((s) => s.heading.toLowerCase() === heading)
+			: undefined;
 		if (section) current = section.key;
 		else lines[current].push(line);
 	}

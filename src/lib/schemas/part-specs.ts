@@ -3,7 +3,7 @@ import type { PartCategory } from '$lib/domain/types';
 
 /*
  * The spec-field contract shared by the catalog, fit report, power budget and API
- * (DESIGN.md "Spec fields"). Lengths in mm, power in W, speeds in MT/s or MB/s;
+ * (docs/architecture.md "Spec fields"). Lengths in mm, power in W, speeds in MT/s or MB/s;
  * field names end in their unit. Strict objects: an unknown field is an error, so a
  * typo in an import never silently drops a value.
  */
@@ -16,7 +16,7 @@ export const MEMORY_TYPES = ['DDR4', 'DDR5'] as const;
 export const BOARD_FORM_FACTORS = ['ATX', 'microATX', 'Mini-ITX', 'E-ATX'] as const;
 export const PSU_FORM_FACTORS = ['ATX', 'SFX', 'SFX-L'] as const;
 export const STORAGE_FORM_FACTORS = ['m2-2280', 'm2-2242', 'm2-2230', '2.5in', '3.5in'] as const;
-/** 80 PLUS levels (CHECK-VALUES 4a). */
+/** 80 PLUS levels (docs/sources.md 4a). */
 export const EFFICIENCY_LEVELS = [
 	'80 PLUS',
 	'80 PLUS Bronze',
@@ -49,7 +49,16 @@ export const coolerSpecs = z
 	.strictObject({
 		type: z.enum(['air', 'liquid']),
 		heightMm: positiveInt.max(250).optional(),
-		radiatorMm: z.union([z.literal(120), z.literal(140), z.literal(240), z.literal(280), z.literal(360), z.literal(420)]).optional(),
+		radiatorMm: z
+			.union([
+				z.literal(120),
+				z.literal(140),
+				z.literal(240),
+				z.literal(280),
+				z.literal(360),
+				z.literal(420)
+			])
+			.optional(),
 		sockets: z.array(socket).min(1),
 		ratedHeatW: positiveInt.max(1000)
 	})
@@ -58,7 +67,10 @@ export const coolerSpecs = z
 		path: ['type']
 	});
 
-export const m2Slot = z.strictObject({ pcieGen, maxLengthMm: z.union([z.literal(30), z.literal(42), z.literal(60), z.literal(80), z.literal(110)]) });
+export const m2Slot = z.strictObject({
+	pcieGen,
+	maxLengthMm: z.union([z.literal(30), z.literal(42), z.literal(60), z.literal(80), z.literal(110)])
+});
 
 export const motherboardSpecs = z.strictObject({
 	socket,

@@ -24,7 +24,7 @@ export const PARTS_PER_PAGE = 24;
 export interface SelectFilter {
 	key: SpecFilterKey;
 	label: string;
-	/** The spec field it reads (DESIGN.md "Spec fields"). */
+	/** The spec field it reads (docs/architecture.md "Spec fields"). */
 	field: string;
 	/** eq: the field equals the value; includes: the field is a list holding the value. */
 	op: 'eq' | 'includes';
@@ -53,13 +53,22 @@ function select(
 	return { key, label, field, op, options };
 }
 
-function numeric(key: SpecFilterKey, label: string, field: string, op: 'min' | 'max', unit: string): NumberFilter {
+function numeric(
+	key: SpecFilterKey,
+	label: string,
+	field: string,
+	op: 'min' | 'max',
+	unit: string
+): NumberFilter {
 	return { key, label, field, op, unit };
 }
 
 /** The filters each category offers; categories not listed have none. */
 export const SPEC_FILTERS: Partial<Record<PartCategory, readonly SpecFilterDef[]>> = {
-	cpu: [select('socket', 'Socket', 'socket', SOCKETS), numeric('minCores', 'Cores, at least', 'cores', 'min', '')],
+	cpu: [
+		select('socket', 'Socket', 'socket', SOCKETS),
+		numeric('minCores', 'Cores, at least', 'cores', 'min', '')
+	],
 	motherboard: [
 		select('socket', 'Socket', 'socket', SOCKETS),
 		select('formFactor', 'Form factor', 'formFactor', BOARD_FORM_FACTORS),
@@ -78,7 +87,13 @@ export const SPEC_FILTERS: Partial<Record<PartCategory, readonly SpecFilterDef[]
 		select('formFactor', 'Form factor', 'formFactor', PSU_FORM_FACTORS)
 	],
 	case: [
-		select('boardFormFactor', 'Takes boards of', 'boardFormFactors', BOARD_FORM_FACTORS, 'includes'),
+		select(
+			'boardFormFactor',
+			'Takes boards of',
+			'boardFormFactors',
+			BOARD_FORM_FACTORS,
+			'includes'
+		),
 		numeric('fitsGpuLengthMm', 'Fits a card of', 'maxGpuLengthMm', 'min', 'mm')
 	],
 	storage: [
@@ -88,9 +103,13 @@ export const SPEC_FILTERS: Partial<Record<PartCategory, readonly SpecFilterDef[]
 };
 
 // A GET form posts "" for every field left blank: that means "no filter", not a bad value.
-const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+const emptyAsUndefined = (value: unknown) =>
+	typeof value === 'string' && value.trim() === '' ? undefined : value;
 
-const choice = z.preprocess(emptyAsUndefined, z.string().trim().max(40, 'That value is too long.').optional());
+const choice = z.preprocess(
+	emptyAsUndefined,
+	z.string().trim().max(40, 'That value is too long.').optional()
+);
 
 function wholeNumber(what: string, max: number, unit: string) {
 	return z.preprocess(
@@ -160,7 +179,11 @@ export const partSearchQuery = partSearchFields
 					message: `The ${key} filter applies to ${categoriesWith(key)} only; choose that category first.`
 				});
 			} else if ('options' in def && !def.options.includes(String(value))) {
-				ctx.addIssue({ code: 'custom', path: [key], message: `Choose one of ${def.options.join(', ')}.` });
+				ctx.addIssue({
+					code: 'custom',
+					path: [key],
+					message: `Choose one of ${def.options.join(', ')}.`
+				});
 			}
 		}
 	})
@@ -177,7 +200,9 @@ export type PartSearchQuery = z.output<typeof partSearchQuery>;
  * Strict parse for the API: any unknown or repeated parameter, bad value or filter outside
  * the chosen category fails with field issues.
  */
-export function parsePartSearchStrict(params: URLSearchParams): { ok: true; query: PartSearchQuery } | { ok: false; issues: Issues } {
+export function parsePartSearchStrict(
+	params: URLSearchParams
+): { ok: true; query: PartSearchQuery } | { ok: false; issues: Issues } {
 	const { raw, repeated } = queryRecord(params);
 	return parseStrict(partSearchQuery, raw, repeated);
 }
@@ -186,7 +211,10 @@ export function parsePartSearchStrict(params: URLSearchParams): { ok: true; quer
  * Lenient parse for the page: each bad or unknown parameter is reported and dropped, so
  * one typo in the address does not lose the rest of the search.
  */
-export function parsePartSearchLenient(params: URLSearchParams): { query: PartSearchQuery; issues: Issues } {
+export function parsePartSearchLenient(params: URLSearchParams): {
+	query: PartSearchQuery;
+	issues: Issues;
+} {
 	const { raw, repeated } = queryRecord(params);
 	return parseLenient(partSearchQuery, Object.keys(partSearchFields.shape), raw, repeated);
 }

@@ -2,7 +2,7 @@ import { dictionary } from '@zxcvbn-ts/language-common';
 import { z } from 'zod';
 
 /*
- * Password rules per NIST SP 800-63B-4 §3.1.1.2 (CHECK-VALUES 13a, V2): at least 15
+ * Password rules per NIST SP 800-63B-4 §3.1.1.2 (docs/sources.md 13a, V2): at least 15
  * characters for a single-factor password, at least 64 allowed (we allow 256), no
  * composition rules, no truncation, each Unicode code point counts as one character,
  * and a blocklist of commonly used passwords — here the ~49,000-entry common-password

@@ -19,7 +19,8 @@ export function utcDay(at: Date): string {
 	return at.toISOString().slice(0, 10);
 }
 
-const emptyAsUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
+const emptyAsUndefined = (value: unknown) =>
+	typeof value === 'string' && value.trim() === '' ? undefined : value;
 
 const id = (what: string) =>
 	z.coerce
@@ -67,7 +68,9 @@ export function priceSightingInput(now: Date = new Date()) {
 			.string({ error: 'Enter the day you saw the price.' })
 			.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
 			.refine(
-				(d) => !Number.isNaN(Date.parse(`${d}T00:00:00Z`)) && new Date(`${d}T00:00:00Z`).toISOString().startsWith(d),
+				(d) =>
+					!Number.isNaN(Date.parse(`${d}T00:00:00Z`)) &&
+					new Date(`${d}T00:00:00Z`).toISOString().startsWith(d),
 				'Enter a real date.'
 			)
 			.refine((d) => d <= today, 'The day cannot be in the future (dates are UTC).')
@@ -90,7 +93,10 @@ export const rejectSightingInput = z.strictObject({
 			z
 				.string()
 				.min(3, 'Say why the sighting is rejected: the people who reported it see this reason.')
-				.max(REJECT_REASON_MAX_CHARS, `Keep the reason to at most ${REJECT_REASON_MAX_CHARS} characters.`)
+				.max(
+					REJECT_REASON_MAX_CHARS,
+					`Keep the reason to at most ${REJECT_REASON_MAX_CHARS} characters.`
+				)
 		)
 });
 

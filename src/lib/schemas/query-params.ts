@@ -54,7 +54,8 @@ export function parseLenient<S extends z.ZodType>(
 	repeated: readonly string[]
 ): { query: z.output<S>; issues: Issues } {
 	const issues: Issues = {};
-	for (const key of repeated) (issues[key] ??= []).push(`${key} was given more than once; the last value is used.`);
+	for (const key of repeated)
+		(issues[key] ??= []).push(`${key} was given more than once; the last value is used.`);
 	let input = raw;
 	for (let round = 0; round < 4; round++) {
 		const parsed = schema.safeParse(input);
@@ -66,7 +67,9 @@ export function parseLenient<S extends z.ZodType>(
 			bad.add(field);
 			(issues[field] ??= []).push(...messages);
 		}
-		input = Object.fromEntries(Object.entries(input).filter(([key]) => knownKeys.includes(key) && !bad.has(key)));
+		input = Object.fromEntries(
+			Object.entries(input).filter(([key]) => knownKeys.includes(key) && !bad.has(key))
+		);
 	}
 	return { query: schema.parse({}), issues };
 }

@@ -28,24 +28,31 @@ export function bpToPercent(bp: number): string {
 }
 
 function percentField(label: string, minBp: number, maxBp: number) {
-	return z
-		.string({ error: `Enter ${label} as a percentage.` })
-		.transform((text, ctx) => {
-			const bp = percentToBp(text);
-			if (bp === null) {
-				ctx.addIssue({ code: 'custom', message: `Enter ${label} as a percentage with at most two decimals, e.g. ${bpToPercent(minBp === 0 ? 1900 : 10400)}.` });
-				return z.NEVER;
-			}
-			if (bp < minBp || bp > maxBp) {
-				ctx.addIssue({ code: 'custom', message: `Use a value from ${bpToPercent(minBp)} % to ${bpToPercent(maxBp)} %.` });
-				return z.NEVER;
-			}
-			return bp;
-		});
+	return z.string({ error: `Enter ${label} as a percentage.` }).transform((text, ctx) => {
+		const bp = percentToBp(text);
+		if (bp === null) {
+			ctx.addIssue({
+				code: 'custom',
+				message: `Enter ${label} as a percentage with at most two decimals, e.g. ${bpToPercent(minBp === 0 ? 1900 : 10400)}.`
+			});
+			return z.NEVER;
+		}
+		if (bp < minBp || bp > maxBp) {
+			ctx.addIssue({
+				code: 'custom',
+				message: `Use a value from ${bpToPercent(minBp)} % to ${bpToPercent(maxBp)} %.`
+			});
+			return z.NEVER;
+		}
+		return bp;
+	});
 }
 
 const factorFields = Object.fromEntries(
-	PART_CATEGORIES.map((c) => [`factor.${c}`, percentField('the factor', FACTOR_MIN_BP, FACTOR_MAX_BP)])
+	PART_CATEGORIES.map((c) => [
+		`factor.${c}`,
+		percentField('the factor', FACTOR_MIN_BP, FACTOR_MAX_BP)
+	])
 ) as Record<`factor.${PartCategory}`, ReturnType<typeof percentField>>;
 
 /** POST ?/settings on /editor/regions/[code]: name, currency, tax display mode and one factor per category. */
@@ -56,7 +63,7 @@ export const regionSettingsInput = z
 			.trim()
 			.min(1, 'Enter the region name.')
 			.max(80, 'Use at most 80 characters.')
-			.refine((v) => !/[\u0000-\u001f\u007f<>]/.test(v), 'Use plain text on one line.'),
+			.refine((v) => !/[\p{Cc}<>]/u.test(v), 'Use plain text on one line.'),
 		currency: z
 			.string({ error: 'Enter the currency code.' })
 			.trim()
@@ -93,7 +100,7 @@ export const taxRateInput = z.strictObject({
 		.string()
 		.trim()
 		.max(200, 'Keep the note to at most 200 characters.')
-		.refine((v) => !/[\u0000-\u001f\u007f<>]/.test(v), 'Use plain text on one line.')
+		.refine((v) => !/[\p{Cc}<>]/u.test(v), 'Use plain text on one line.')
 		.default('')
 		.transform((v) => (v === '' ? null : v))
 });
@@ -101,7 +108,11 @@ export type TaxRateInput = z.output<typeof taxRateInput>;
 
 /** POST ?/removeRate */
 export const removeTaxRateInput = z.strictObject({
-	rateId: z.coerce.number({ error: 'Unknown rate.' }).int('Unknown rate.').positive('Unknown rate.').max(2 ** 32 - 1, 'Unknown rate.')
+	rateId: z.coerce
+		.number({ error: 'Unknown rate.' })
+		.int('Unknown rate.')
+		.positive('Unknown rate.')
+		.max(2 ** 32 - 1, 'Unknown rate.')
 });
 
 /** The region code in /editor/regions/[code]. */

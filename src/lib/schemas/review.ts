@@ -19,7 +19,9 @@ const note = (max: number) =>
 
 export const reviewQueueQuery = z.strictObject({
 	page: pageNumber,
-	kind: z.enum(['all', 'new', 'revision'], { error: 'Show all, new guides or revisions.' }).default('all'),
+	kind: z
+		.enum(['all', 'new', 'revision'], { error: 'Show all, new guides or revisions.' })
+		.default('all'),
 	sort: z.enum(['oldest', 'newest'], { error: 'Sort by oldest or newest.' }).default('oldest'),
 	author: z.string().trim().max(100, 'Keep the author search to 100 characters.').default('')
 });
@@ -27,33 +29,51 @@ export type ReviewQueueQuery = z.output<typeof reviewQueueQuery>;
 
 export const guideStateQuery = z.strictObject({
 	page: reviewQueueQuery.shape.page,
-	state: z.enum(['all', 'draft', 'in_review', 'changes_requested', 'published', 'declined', 'archived'], { error: 'Choose a state from the list.' }).default('all'),
+	state: z
+		.enum(['all', 'draft', 'in_review', 'changes_requested', 'published', 'declined', 'archived'], {
+			error: 'Choose a state from the list.'
+		})
+		.default('all'),
 	q: z.string().trim().max(100, 'Keep the search to 100 characters.').default('')
 });
 export type GuideStateQuery = z.output<typeof guideStateQuery>;
 
 export const decisionInput = z
 	.strictObject({
-		decision: z.enum(['approve', 'request_changes', 'decline'], { error: 'Choose approve, request changes or decline.' }),
+		decision: z.enum(['approve', 'request_changes', 'decline'], {
+			error: 'Choose approve, request changes or decline.'
+		}),
 		note: note(REVIEW_NOTE_MAX_CHARS),
 		slotNotes: z
-			.array(z.strictObject({ label: z.string().trim().min(1).max(80), note: note(SLOT_NOTE_MAX_CHARS) }))
+			.array(
+				z.strictObject({ label: z.string().trim().min(1).max(80), note: note(SLOT_NOTE_MAX_CHARS) })
+			)
 			.max(40, 'At most 40 slot notes.')
 			.default([])
 			.transform((notes) => notes.filter((n) => n.note !== ''))
 	})
 	.superRefine((input, ctx) => {
 		if (input.decision === 'decline' && input.note === '') {
-			ctx.addIssue({ code: 'custom', path: ['note'], message: 'Say why the revision is declined: the author receives this reason.' });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['note'],
+				message: 'Say why the revision is declined: the author receives this reason.'
+			});
 		}
 		if (input.decision === 'request_changes' && input.note === '' && input.slotNotes.length === 0) {
-			ctx.addIssue({ code: 'custom', path: ['note'], message: 'Say what should change, in the note or on a slot.' });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['note'],
+				message: 'Say what should change, in the note or on a slot.'
+			});
 		}
 	});
 export type DecisionInput = z.output<typeof decisionInput>;
 
 export const moderationInput = z.strictObject({
 	action: z.enum(['unpublish', 'archive'], { error: 'Choose unpublish or archive.' }),
-	reason: note(REVIEW_NOTE_MAX_CHARS).pipe(z.string().min(1, 'Say why: the author receives this reason.'))
+	reason: note(REVIEW_NOTE_MAX_CHARS).pipe(
+		z.string().min(1, 'Say why: the author receives this reason.')
+	)
 });
 export type ModerationInput = z.output<typeof moderationInput>;

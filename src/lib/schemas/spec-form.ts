@@ -94,7 +94,10 @@ function unitOf(key: string): string | undefined {
 	return UNITS.find(([pattern]) => pattern.test(key))?.[1];
 }
 
-type AnySchema = z.ZodType & { def: { type: string } & Record<string, unknown> } & Record<string, unknown>;
+type AnySchema = z.ZodType & { def: { type: string } & Record<string, unknown> } & Record<
+		string,
+		unknown
+	>;
 
 function unwrapOptional(schema: AnySchema): { inner: AnySchema; optional: boolean } {
 	if (schema.def.type === 'optional') {
@@ -105,7 +108,8 @@ function unwrapOptional(schema: AnySchema): { inner: AnySchema; optional: boolea
 
 function literalValues(schema: AnySchema): unknown[] | null {
 	if (schema.def.type === 'literal') return [...((schema.def.values as unknown[]) ?? [])];
-	if (schema.def.type === 'enum') return [...((schema as unknown as { options: unknown[] }).options ?? [])];
+	if (schema.def.type === 'enum')
+		return [...((schema as unknown as { options: unknown[] }).options ?? [])];
 	if (schema.def.type === 'union') {
 		const options = schema.def.options as AnySchema[];
 		const values = options.map(literalValues);
@@ -115,7 +119,9 @@ function literalValues(schema: AnySchema): unknown[] | null {
 }
 
 function maxLength(schema: AnySchema): number | undefined {
-	const checks = (schema.def.checks as Array<{ _zod: { def: { check: string; maximum?: number } } }> | undefined) ?? [];
+	const checks =
+		(schema.def.checks as
+			Array<{ _zod: { def: { check: string; maximum?: number } } }> | undefined) ?? [];
 	return checks.find((c) => c._zod.def.check === 'max_length')?._zod.def.maximum;
 }
 
@@ -124,16 +130,28 @@ function describe(key: string, schema: AnySchema): SpecField {
 	const label = specLabel(key);
 	const type = inner.def.type;
 	if (type === 'number') {
-		const n = inner as unknown as { minValue: number | null; maxValue: number | null; isInt: boolean };
-		const max = n.maxValue !== null && n.maxValue < Number.MAX_SAFE_INTEGER ? n.maxValue : undefined;
-		const min = n.minValue !== null && n.minValue > Number.MIN_SAFE_INTEGER ? n.minValue : undefined;
+		const n = inner as unknown as {
+			minValue: number | null;
+			maxValue: number | null;
+			isInt: boolean;
+		};
+		const max =
+			n.maxValue !== null && n.maxValue < Number.MAX_SAFE_INTEGER ? n.maxValue : undefined;
+		const min =
+			n.minValue !== null && n.minValue > Number.MIN_SAFE_INTEGER ? n.minValue : undefined;
 		return { kind: 'number', key, label, optional, integer: n.isInt, min, max, unit: unitOf(key) };
 	}
 	if (type === 'boolean') return { kind: 'checkbox', key, label, optional };
 	if (type === 'string') return { kind: 'text', key, label, optional, maxLength: maxLength(inner) };
 	if (type === 'object') {
 		const shape = (inner as unknown as { shape: Record<string, AnySchema> }).shape;
-		return { kind: 'group', key, label, optional, fields: Object.entries(shape).map(([k, s]) => describe(k, s)) };
+		return {
+			kind: 'group',
+			key,
+			label,
+			optional,
+			fields: Object.entries(shape).map(([k, s]) => describe(k, s))
+		};
 	}
 	if (type === 'array') {
 		const element = (inner as unknown as { element: AnySchema }).element;
@@ -153,7 +171,14 @@ function describe(key: string, schema: AnySchema): SpecField {
 	}
 	const values = literalValues(inner);
 	if (values) {
-		return { kind: 'select', key, label, optional, options: values.map(String), numeric: values.every((v) => typeof v === 'number') };
+		return {
+			kind: 'select',
+			key,
+			label,
+			optional,
+			options: values.map(String),
+			numeric: values.every((v) => typeof v === 'number')
+		};
 	}
 	throw new Error(`spec-form: no form control for ${key} (${type})`);
 }
@@ -172,7 +197,11 @@ const NUMBER_TEXT = /^-?\d+(?:\.\d+)?$/;
  * typed, so the schema refuses it and the form shows it again. Repeated rows (M.2 slots)
  * with every field empty are dropped, so a form can always offer a few blank rows.
  */
-export function specsFromForm(fields: SpecField[], values: (name: string) => string[], prefix = 'spec'): Record<string, unknown> {
+export function specsFromForm(
+	fields: SpecField[],
+	values: (name: string) => string[],
+	prefix = 'spec'
+): Record<string, unknown> {
 	const specs: Record<string, unknown> = {};
 	convertInto(fields, values, prefix, specs);
 	return specs;
@@ -193,7 +222,8 @@ function convertInto(
 				target[field.key] = NUMBER_TEXT.test(first) ? Number(first) : first;
 				break;
 			case 'select':
-				if (first !== '') target[field.key] = field.numeric && NUMBER_TEXT.test(first) ? Number(first) : first;
+				if (first !== '')
+					target[field.key] = field.numeric && NUMBER_TEXT.test(first) ? Number(first) : first;
 				break;
 			case 'text':
 				if (first !== '') target[field.key] = first;
@@ -202,7 +232,9 @@ function convertInto(
 				target[field.key] = first === 'on' || first === 'true';
 				break;
 			case 'multi':
-				target[field.key] = values(name).map((v) => v.trim()).filter((v) => v !== '');
+				target[field.key] = values(name)
+					.map((v) => v.trim())
+					.filter((v) => v !== '');
 				break;
 			case 'group': {
 				const inner: Record<string, unknown> = {};
@@ -214,7 +246,9 @@ function convertInto(
 				const rows: Record<string, unknown>[] = [];
 				for (let i = 0; i < field.maxRows; i++) {
 					const rowName = `${name}.${i}`;
-					const blank = field.fields.every((f) => (values(`${rowName}.${f.key}`)[0] ?? '').trim() === '');
+					const blank = field.fields.every(
+						(f) => (values(`${rowName}.${f.key}`)[0] ?? '').trim() === ''
+					);
 					if (blank) continue;
 					const row: Record<string, unknown> = {};
 					// Kept rows close up, so issue paths count rows as the re-shown form lists them.

@@ -18,11 +18,7 @@ const role = z.enum(ROLES, { error: 'Choose one of reader, author, editor or adm
 
 /** GET /admin/users?q=&role=&page= */
 export const userSearchQuery = z.strictObject({
-	q: z
-		.string()
-		.trim()
-		.max(100, 'Search for at most 100 characters.')
-		.default(''),
+	q: z.string().trim().max(100, 'Search for at most 100 characters.').default(''),
 	role: z.preprocess(emptyAsUndefined, role.optional()),
 	page: pageNumber
 });

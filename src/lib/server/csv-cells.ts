@@ -10,10 +10,15 @@ import { startsLikeFormula } from '$lib/schemas/catalog-upkeep';
  * spreadsheet programs write one); UTF-16 is recognised by its BOM or, without one, by
  * the NUL bytes that ASCII text has in it, so the message can say what to do.
  */
-export function decodeCsvBytes(bytes: Uint8Array): { ok: true; text: string } | { ok: false; reason: string } {
+export function decodeCsvBytes(
+	bytes: Uint8Array
+): { ok: true; text: string } | { ok: false; reason: string } {
 	const utf16 =
 		'The file is UTF-16 text. Save it as "CSV UTF-8" (comma-separated, UTF-8) and upload it again.';
-	if (bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff))) {
+	if (
+		bytes.length >= 2 &&
+		((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff))
+	) {
 		return { ok: false, reason: utf16 };
 	}
 	if (bytes.includes(0)) {
@@ -40,7 +45,16 @@ function firstBadByte(bytes: Uint8Array): string {
 	let i = 0;
 	while (i < bytes.length) {
 		const b = bytes[i] ?? 0;
-		const len = b < 0x80 ? 1 : b >= 0xc2 && b <= 0xdf ? 2 : b >= 0xe0 && b <= 0xef ? 3 : b >= 0xf0 && b <= 0xf4 ? 4 : 0;
+		const len =
+			b < 0x80
+				? 1
+				: b >= 0xc2 && b <= 0xdf
+					? 2
+					: b >= 0xe0 && b <= 0xef
+						? 3
+						: b >= 0xf0 && b <= 0xf4
+							? 4
+							: 0;
 		if (len === 0 || i + len > bytes.length) break;
 		try {
 			decoder.decode(bytes.subarray(i, i + len));

@@ -29,7 +29,10 @@ export function logUnexpectedError(errorId: string, event: RequestEvent, error: 
 			errorId,
 			method: event.request.method,
 			path: event.url.pathname,
-			error: error instanceof Error ? { name: error.name, message: error.message, stack: error.stack } : String(error)
+			error:
+				error instanceof Error
+					? { name: error.name, message: error.message, stack: error.stack }
+					: String(error)
 		})
 	);
 }

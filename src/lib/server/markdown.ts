@@ -1,6 +1,6 @@
 /**
  * Author Markdown → sanitised HTML, rendered once when a revision is saved and stored
- * beside the Markdown (SECURITY-CHECKLIST.md §5). Pages only ever `{@html}` this output.
+ * beside the Markdown (docs/security.md §5). Pages only ever `{@html}` this output.
  *
  * - remark-rehype runs without `allowDangerousHtml`, so raw HTML in the Markdown is dropped
  *   before it ever becomes a node.

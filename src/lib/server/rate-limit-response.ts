@@ -30,7 +30,10 @@ export function tooManyRequests(retryAfterSeconds: number, message = TOO_MANY_RE
 }
 
 /** For `+server.ts` API routes: a JSON 429 in the API's `{ message }` error shape. */
-export function tooManyRequestsJson(retryAfterSeconds: number, message = TOO_MANY_REQUESTS_MESSAGE) {
+export function tooManyRequestsJson(
+	retryAfterSeconds: number,
+	message = TOO_MANY_REQUESTS_MESSAGE
+) {
 	const seconds = wholeSeconds(retryAfterSeconds);
 	return json(
 		{ message, retryAfterSeconds: seconds },

@@ -2,11 +2,11 @@
  * Rate limits for the sign-in flows, shared by every app instance through one MariaDB table
  * (`rate_limits`, created by migration 2026.12.02T09.07.00) and rate-limiter-flexible's
  * RateLimiterMySQL, whose upsert runs in one InnoDB transaction, so two instances can't both
- * spend the last point (SECURITY-CHECKLIST.md §4).
+ * spend the last point (docs/security.md §4).
  *
  * It has its own mysql2 *callback* pool: the library calls `pool.getConnection(cb)` and
  * `conn.query(sql, values, cb)`, and handed the Sequelize `mariadb` instance it hangs
- * (STACK.md gotcha 11). Relative imports and plain process.env only, no `$app`, so scripts
+ * (docs/architecture.md, platform note 11). Relative imports and plain process.env only, no `$app`, so scripts
  * can use it; the SvelteKit-facing 429 helpers are in rate-limit-response.ts.
  *
  * Failing closed: when the store errors or doesn't answer within `operationTimeoutMs`,
@@ -164,7 +164,8 @@ function expandIpv6(address: string): string[] {
 	const v4 = /(\d{1,3})\.(\d{1,3})\.(\d{1,3})\.(\d{1,3})$/.exec(text);
 	if (v4) {
 		const [a, b, c, d] = v4.slice(1).map(Number) as [number, number, number, number];
-		text = text.slice(0, v4.index) + `${((a << 8) | b).toString(16)}:${((c << 8) | d).toString(16)}`;
+		text =
+			text.slice(0, v4.index) + `${((a << 8) | b).toString(16)}:${((c << 8) | d).toString(16)}`;
 	}
 	const [head = '', tail] = text.split('::');
 	const left = head ? head.split(':') : [];

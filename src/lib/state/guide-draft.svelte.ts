@@ -18,7 +18,11 @@ export class GuideDraftState {
 	issues = $state<Record<string, string[]>>({});
 	readonly catalog: EditorCatalogView;
 
-	constructor(initial: EditorDraft, catalog: EditorCatalogView, issues: Record<string, string[]> = {}) {
+	constructor(
+		initial: EditorDraft,
+		catalog: EditorCatalogView,
+		issues: Record<string, string[]> = {}
+	) {
 		this.draft = initial;
 		this.catalog = catalog;
 		this.issues = issues;

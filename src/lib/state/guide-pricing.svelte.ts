@@ -34,10 +34,14 @@ export class GuidePricing {
 		this.problem = null;
 		try {
 			const url = `/api/v1/guides/${encodeURIComponent(base.slug)}/pricing?region=${encodeURIComponent(region)}`;
-			const response = await fetcher(url, { signal: controller.signal, headers: { accept: 'application/json' } });
+			const response = await fetcher(url, {
+				signal: controller.signal,
+				headers: { accept: 'application/json' }
+			});
 			const body = await response.json();
 			if (!response.ok) {
-				this.problem = typeof body?.message === 'string' ? body.message : 'Prices could not be loaded.';
+				this.problem =
+					typeof body?.message === 'string' ? body.message : 'Prices could not be loaded.';
 				return false;
 			}
 			this.#fetched = { base, guide: body as PricedGuide };

@@ -10,33 +10,70 @@ import { goodBuild, slot } from './fixtures';
  */
 
 const ddr4Kit = slot('memory', 'memory', 'Halden', 'Pulse DDR4-3200 2 × 16 GB', {
-	type: 'DDR4', modules: 2, moduleGb: 16, speedMts: 3200, casLatency: 16, voltage: 1.35
+	type: 'DDR4',
+	modules: 2,
+	moduleGb: 16,
+	speedMts: 3200,
+	casLatency: 16,
+	voltage: 1.35
 });
 const ddr5Big = slot('memory', 'memory', 'Halden', 'Flux DDR5-6000 2 × 32 GB', {
-	type: 'DDR5', modules: 2, moduleGb: 32, speedMts: 6000, casLatency: 30, voltage: 1.35
+	type: 'DDR5',
+	modules: 2,
+	moduleGb: 32,
+	speedMts: 6000,
+	casLatency: 30,
+	voltage: 1.35
 });
 const longCard = slot('gpu', 'gpu', 'Ferrant', 'Kestrel XL', {
-	chip: 'K80', vramGb: 16, lengthMm: 336, slotWidth: 3.2, boardPowerW: 300, powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 }, pcieGen: 5
+	chip: 'K80',
+	vramGb: 16,
+	lengthMm: 336,
+	slotWidth: 3.2,
+	boardPowerW: 300,
+	powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 },
+	pcieGen: 5
 });
 const gen5Drive = slot('storage', 'storage', 'Brightmoor', 'N5 2 TB', {
-	interface: 'nvme', formFactor: 'm2-2280', pcieGen: 5, capacityGb: 2000, readMbs: 14000, writeMbs: 12000
+	interface: 'nvme',
+	formFactor: 'm2-2280',
+	pcieGen: 5,
+	capacityGb: 2000,
+	readMbs: 14000,
+	writeMbs: 12000
 });
-const loop360 = slot('cooler', 'cooler', 'Ostery', 'Loop 360', { type: 'liquid', radiatorMm: 360, sockets: ['AM5'], ratedHeatW: 300 });
+const loop360 = slot('cooler', 'cooler', 'Ostery', 'Loop 360', {
+	type: 'liquid',
+	radiatorMm: 360,
+	sockets: ['AM5'],
+	ratedHeatW: 300
+});
 
 /** The good build as guide slots, with the given alternates per slot key. */
 function guide(alternates: Record<string, BuildPart[]>): GuideSlot[] {
-	return goodBuild().map((s) => ({
-		key: s.key,
-		label: s.label,
-		category: s.category,
-		quantity: s.quantity,
-		pick: s.part,
-		alternates: (alternates[s.key] ?? []).map((a, i) => ({ id: `${s.key}-${i + 1}`, part: a.part }))
-	}) as GuideSlot);
+	return goodBuild().map(
+		(s) =>
+			({
+				key: s.key,
+				label: s.label,
+				category: s.category,
+				quantity: s.quantity,
+				pick: s.part,
+				alternates: (alternates[s.key] ?? []).map((a, i) => ({
+					id: `${s.key}-${i + 1}`,
+					part: a.part
+				}))
+			}) as GuideSlot
+	);
 }
 
 describe('alternates as drop-ins', () => {
-	const slots = guide({ memory: [ddr4Kit, ddr5Big], gpu: [longCard], storage: [gen5Drive], cooler: [loop360] });
+	const slots = guide({
+		memory: [ddr4Kit, ddr5Big],
+		gpu: [longCard],
+		storage: [gen5Drive],
+		cooler: [loop360]
+	});
 	const report = dropIns(slots);
 	const result = (id: string) => report.alternates.find((a) => a.alternateId === id)!;
 
@@ -73,7 +110,9 @@ describe('alternates as drop-ins', () => {
 		// 300 W instead of 263 W lifts the load to 537 W: 537 / 850 = 63 %, still within
 		// two-thirds of the 850 W pick (D; the two-thirds bound is common practice, no
 		// published source), so only the length rule changes.
-		expect(r.changed.map((c) => [c.rule, c.before, c.severity])).toEqual([['gpu-length-case', 'ok', 'conflict']]);
+		expect(r.changed.map((c) => [c.rule, c.before, c.severity])).toEqual([
+			['gpu-length-case', 'ok', 'conflict']
+		]);
 		expect(r.changed[0]?.message).toContain('card is 336 mm, case fits 330 mm');
 	});
 
@@ -86,7 +125,9 @@ describe('alternates as drop-ins', () => {
 		expect(r.fits).toBe(true);
 		// Pump 5 W + 3 fans × 3 W replace one 3 W fan: load 500 → 511 W, 511 / 850 = 60 % —
 		// within two-thirds, so the PSU rating stays ok (D; allowances: common practice).
-		expect(r.changed.map((c) => [c.rule, c.before, c.severity])).toEqual([['radiator-case', null, 'ok']]);
+		expect(r.changed.map((c) => [c.rule, c.before, c.severity])).toEqual([
+			['radiator-case', null, 'ok']
+		]);
 		expect(r.gone.map((f) => f.rule)).toEqual(['cooler-height-case']);
 	});
 
@@ -94,7 +135,9 @@ describe('alternates as drop-ins', () => {
 		for (const r of report.alternates) {
 			const s = slots.find((x) => x.key === r.slotKey)!;
 			const alt = s.alternates[r.rank - 1]!;
-			const build = goodBuild().map((b) => (b.key === r.slotKey ? ({ ...b, part: alt.part } as BuildPart) : b));
+			const build = goodBuild().map((b) =>
+				b.key === r.slotKey ? ({ ...b, part: alt.part } as BuildPart) : b
+			);
 			const direct = fitReport(build);
 			expect(r.fits, String(r.alternateId)).toBe(!direct.some((f) => f.severity === 'conflict'));
 		}

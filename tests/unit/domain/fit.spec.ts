@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { BOARD_SIZES_MM, boardSizeText, fitReport, m2LengthMm, summarize, type Finding } from '$lib/domain/fit';
+import {
+	BOARD_SIZES_MM,
+	boardSizeText,
+	fitReport,
+	m2LengthMm,
+	summarize,
+	type Finding
+} from '$lib/domain/fit';
 import {
 	boardAm5Atx,
 	caseAtx,
@@ -22,7 +29,7 @@ const only = (findings: Finding[], rule: string): Finding => {
 	return matches[0]!;
 };
 
-describe('board sizes (CHECK-VALUES 1a–1d)', () => {
+describe('board sizes (docs/sources.md 1a–1d)', () => {
 	it('ATX 12 × 9.6 in = 305 × 244 mm (Intel microATX Motherboard Interface Specification v1.2 §2.1 Table 3, V; D: 12 × 25.4 = 304.8, 9.6 × 25.4 = 243.84)', () => {
 		expect(BOARD_SIZES_MM.ATX).toMatchObject({ widthMm: 305, depthMm: 244 });
 		expect(Math.round(12 * 25.4)).toBe(305);
@@ -37,14 +44,14 @@ describe('board sizes (CHECK-VALUES 1a–1d)', () => {
 		expect(BOARD_SIZES_MM['Mini-ITX']).toMatchObject({ widthMm: 170, depthMm: 170 });
 	});
 
-	it('E-ATX has no standard size (CHECK-VALUES 1d, V2: the standard 12 × 13 in board is SSI EEB)', () => {
+	it('E-ATX has no standard size (docs/sources.md 1d, V2: the standard 12 × 13 in board is SSI EEB)', () => {
 		expect(BOARD_SIZES_MM['E-ATX']).toBeNull();
 		expect(boardSizeText('E-ATX')).toContain('no standard size');
 		expect(boardSizeText('E-ATX')).toContain('305 × 330 mm');
 	});
 });
 
-describe('M.2 module lengths from their names (CHECK-VALUES 7, V2: name = 22 mm width + length in mm)', () => {
+describe('M.2 module lengths from their names (docs/sources.md 7, V2: name = 22 mm width + length in mm)', () => {
 	it.each([
 		['m2-2230', 30],
 		['m2-2242', 42],
@@ -93,8 +100,15 @@ describe('fit report', () => {
 	describe('done-when cases', () => {
 		it('an AM5 CPU on an LGA1700 board is a conflict naming both parts and sockets', () => {
 			const board = slot('motherboard', 'board', 'Quellbrook', 'Z7 ATX', {
-				socket: 'LGA1700', chipset: 'Q790', formFactor: 'ATX', memoryType: 'DDR5', memorySlots: 4, maxMemoryGb: 192,
-				m2Slots: [{ pcieGen: 4, maxLengthMm: 80 }], sataPorts: 4, wifi: false
+				socket: 'LGA1700',
+				chipset: 'Q790',
+				formFactor: 'ATX',
+				memoryType: 'DDR5',
+				memorySlots: 4,
+				maxMemoryGb: 192,
+				m2Slots: [{ pcieGen: 4, maxLengthMm: 80 }],
+				sataPorts: 4,
+				wifi: false
 			});
 			const f = only(fitReport(withSlots(board)), 'cpu-socket-board');
 			expect(f).toEqual({
@@ -107,7 +121,12 @@ describe('fit report', () => {
 
 		it('DDR4 memory on a DDR5 board is a conflict', () => {
 			const kit = slot('memory', 'memory', 'Halden', 'Pulse DDR4-3200 2 × 16 GB', {
-				type: 'DDR4', modules: 2, moduleGb: 16, speedMts: 3200, casLatency: 16, voltage: 1.35
+				type: 'DDR4',
+				modules: 2,
+				moduleGb: 16,
+				speedMts: 3200,
+				casLatency: 16,
+				voltage: 1.35
 			});
 			const findings = fitReport(withSlots(kit));
 			expect(only(findings, 'memory-type-board')).toEqual({
@@ -116,25 +135,39 @@ describe('fit report', () => {
 				slots: ['memory', 'board'],
 				message: 'Halden Pulse DDR4-3200 2 × 16 GB is DDR4; Quellbrook B6 ATX takes DDR5 only.'
 			});
-			// AM5 supports DDR5 only (CHECK-VALUES 9, V2), so the CPU rule agrees.
+			// AM5 supports DDR5 only (docs/sources.md 9, V2), so the CPU rule agrees.
 			expect(only(findings, 'memory-type-cpu').severity).toBe('conflict');
 		});
 
 		it('a card longer than the case allows is a conflict: "card is 336 mm, case fits 330 mm"', () => {
 			const long = slot('gpu', 'gpu', 'Ferrant', 'Kestrel XL', {
-				chip: 'K80', vramGb: 16, lengthMm: 336, slotWidth: 3.2, boardPowerW: 300,
-				powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 }, pcieGen: 5
+				chip: 'K80',
+				vramGb: 16,
+				lengthMm: 336,
+				slotWidth: 3.2,
+				boardPowerW: 300,
+				powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 },
+				pcieGen: 5
 			});
 			const f = only(fitReport(withSlots(long)), 'gpu-length-case');
 			expect(f.severity).toBe('conflict');
 			expect(f.slots).toEqual(['gpu', 'case']);
-			expect(f.message).toBe('Ferrant Kestrel XL is too long for Halden Atrium: card is 336 mm, case fits 330 mm (6 mm over).');
+			expect(f.message).toBe(
+				'Ferrant Kestrel XL is too long for Halden Atrium: card is 336 mm, case fits 330 mm (6 mm over).'
+			);
 		});
 
-		it('a Mini-ITX-only case with an ATX board is a conflict quoting the standard sizes (CHECK-VALUES 1a, 1c)', () => {
+		it('a Mini-ITX-only case with an ATX board is a conflict quoting the standard sizes (docs/sources.md 1a, 1c)', () => {
 			const itxCase = slot('case', 'case', 'Halden', 'Pocket', {
-				boardFormFactors: ['Mini-ITX'], maxGpuLengthMm: 330, maxCoolerHeightMm: 165,
-				psuFormFactors: ['ATX'], radiatorMm: 240, includedFans: 1, fanMounts: 2, bays25: 1, bays35: 0
+				boardFormFactors: ['Mini-ITX'],
+				maxGpuLengthMm: 330,
+				maxCoolerHeightMm: 165,
+				psuFormFactors: ['ATX'],
+				radiatorMm: 240,
+				includedFans: 1,
+				fanMounts: 2,
+				bays25: 1,
+				bays35: 0
 			});
 			const f = only(fitReport(withSlots(itxCase)), 'board-form-factor-case');
 			expect(f.severity).toBe('conflict');
@@ -144,13 +177,28 @@ describe('fit report', () => {
 			);
 		});
 
-		it('a PCIe 5.0 drive in a 4.0 slot is a caution, not a conflict, with the bandwidths (CHECK-VALUES 6: 5.0 x4 ≈ 15.75, 4.0 x4 ≈ 7.88 GB/s, D)', () => {
+		it('a PCIe 5.0 drive in a 4.0 slot is a caution, not a conflict, with the bandwidths (docs/sources.md 6: 5.0 x4 ≈ 15.75, 4.0 x4 ≈ 7.88 GB/s, D)', () => {
 			const gen4Board = slot('motherboard', 'board', 'Quellbrook', 'B6M Base', {
-				socket: 'AM5', chipset: 'Q650', formFactor: 'microATX', memoryType: 'DDR5', memorySlots: 4, maxMemoryGb: 192,
-				m2Slots: [{ pcieGen: 4, maxLengthMm: 80 }, { pcieGen: 4, maxLengthMm: 80 }], sataPorts: 4, wifi: false
+				socket: 'AM5',
+				chipset: 'Q650',
+				formFactor: 'microATX',
+				memoryType: 'DDR5',
+				memorySlots: 4,
+				maxMemoryGb: 192,
+				m2Slots: [
+					{ pcieGen: 4, maxLengthMm: 80 },
+					{ pcieGen: 4, maxLengthMm: 80 }
+				],
+				sataPorts: 4,
+				wifi: false
 			});
 			const gen5Drive = slot('storage', 'storage', 'Brightmoor', 'N5 2 TB', {
-				interface: 'nvme', formFactor: 'm2-2280', pcieGen: 5, capacityGb: 2000, readMbs: 14000, writeMbs: 12000
+				interface: 'nvme',
+				formFactor: 'm2-2280',
+				pcieGen: 5,
+				capacityGb: 2000,
+				readMbs: 14000,
+				writeMbs: 12000
 			});
 			const findings = fitReport(withSlots(gen4Board, gen5Drive));
 			const f = only(findings, 'm2-slot');
@@ -165,10 +213,23 @@ describe('fit report', () => {
 
 	describe('platform', () => {
 		it('a cooler without a mount for the CPU socket is a conflict', () => {
-			const amOnly = slot('cooler', 'cooler', 'Ostery', 'Slim 135', { type: 'air', heightMm: 135, sockets: ['AM4', 'AM5'], ratedHeatW: 180 });
+			const amOnly = slot('cooler', 'cooler', 'Ostery', 'Slim 135', {
+				type: 'air',
+				heightMm: 135,
+				sockets: ['AM4', 'AM5'],
+				ratedHeatW: 180
+			});
 			const lgaCpu = slot('cpu', 'cpu', 'Marrow', 'Core 14', {
-				socket: 'LGA1700', cores: 14, threads: 20, baseClockGhz: 3.5, boostClockGhz: 5.3, tdpW: 125, packagePowerW: 181,
-				memoryTypes: ['DDR4', 'DDR5'], integratedGraphics: true, bundledCooler: false
+				socket: 'LGA1700',
+				cores: 14,
+				threads: 20,
+				baseClockGhz: 3.5,
+				boostClockGhz: 5.3,
+				tdpW: 125,
+				packagePowerW: 181,
+				memoryTypes: ['DDR4', 'DDR5'],
+				integratedGraphics: true,
+				bundledCooler: false
 			});
 			const f = only(fitReport([lgaCpu, amOnly]), 'cpu-socket-cooler');
 			expect(f.severity).toBe('conflict');
@@ -177,13 +238,22 @@ describe('fit report', () => {
 
 		it('counts modules over all kits and quantities against the board slots, and capacity against the maximum', () => {
 			const itx = slot('motherboard', 'board', 'Quellbrook', 'B6I', {
-				socket: 'AM5', chipset: 'Q650', formFactor: 'Mini-ITX', memoryType: 'DDR5', memorySlots: 2, maxMemoryGb: 48,
-				m2Slots: [{ pcieGen: 4, maxLengthMm: 80 }], sataPorts: 2, wifi: true
+				socket: 'AM5',
+				chipset: 'Q650',
+				formFactor: 'Mini-ITX',
+				memoryType: 'DDR5',
+				memorySlots: 2,
+				maxMemoryGb: 48,
+				m2Slots: [{ pcieGen: 4, maxLengthMm: 80 }],
+				sataPorts: 2,
+				wifi: true
 			});
 			const findings = fitReport(withSlots(itx, { ...ddr5Kit, quantity: 2 }));
 			const slots = only(findings, 'memory-slots');
 			expect(slots.severity).toBe('conflict');
-			expect(slots.message).toBe('2 × Halden Flux DDR5-6000 2 × 16 GB: 4 modules, but Quellbrook B6I has 2 memory slots.');
+			expect(slots.message).toBe(
+				'2 × Halden Flux DDR5-6000 2 × 16 GB: 4 modules, but Quellbrook B6I has 2 memory slots.'
+			);
 			const capacity = only(findings, 'memory-capacity');
 			expect(capacity.severity).toBe('conflict');
 			expect(capacity.message).toContain('64 GB in total, above the 48 GB');
@@ -192,44 +262,90 @@ describe('fit report', () => {
 
 	describe('case fit', () => {
 		const eatxBoard = slot('motherboard', 'board', 'Quellbrook', 'X6 Extended', {
-			socket: 'AM5', chipset: 'Q670', formFactor: 'E-ATX', memoryType: 'DDR5', memorySlots: 4, maxMemoryGb: 256,
-			m2Slots: [{ pcieGen: 5, maxLengthMm: 80 }], sataPorts: 6, wifi: true
+			socket: 'AM5',
+			chipset: 'Q670',
+			formFactor: 'E-ATX',
+			memoryType: 'DDR5',
+			memorySlots: 4,
+			maxMemoryGb: 256,
+			m2Slots: [{ pcieGen: 5, maxLengthMm: 80 }],
+			sataPorts: 6,
+			wifi: true
 		});
 
-		it('E-ATX: no standard size, so only a case listing E-ATX takes it (CHECK-VALUES 1d and note 10)', () => {
-			expect(only(fitReport(withSlots(eatxBoard)), 'board-form-factor-case').severity).toBe('conflict');
-			const bigCase = slot('case', 'case', 'Halden', 'Tower XL', { ...caseAtx.part.specs, boardFormFactors: ['E-ATX', 'ATX'] });
-			expect(only(fitReport(withSlots(eatxBoard, bigCase)), 'board-form-factor-case').severity).toBe('ok');
+		it('E-ATX: no standard size, so only a case listing E-ATX takes it (docs/sources.md 1d and note 10)', () => {
+			expect(only(fitReport(withSlots(eatxBoard)), 'board-form-factor-case').severity).toBe(
+				'conflict'
+			);
+			const bigCase = slot('case', 'case', 'Halden', 'Tower XL', {
+				...caseAtx.part.specs,
+				boardFormFactors: ['E-ATX', 'ATX']
+			});
+			expect(
+				only(fitReport(withSlots(eatxBoard, bigCase)), 'board-form-factor-case').severity
+			).toBe('ok');
 		});
 
 		it('a smaller standard board in a case that lists only ATX is a caution (fits by size: 244 × 244 within 305 × 244 mm)', () => {
-			const atxOnly = slot('case', 'case', 'Halden', 'Plain ATX', { ...caseAtx.part.specs, boardFormFactors: ['ATX'] });
-			const micro = slot('motherboard', 'board', 'Quellbrook', 'B6M', { ...boardAm5Atx.part.specs, formFactor: 'microATX' });
+			const atxOnly = slot('case', 'case', 'Halden', 'Plain ATX', {
+				...caseAtx.part.specs,
+				boardFormFactors: ['ATX']
+			});
+			const micro = slot('motherboard', 'board', 'Quellbrook', 'B6M', {
+				...boardAm5Atx.part.specs,
+				formFactor: 'microATX'
+			});
 			const f = only(fitReport(withSlots(atxOnly, micro)), 'board-form-factor-case');
 			expect(f.severity).toBe('caution');
 			expect(f.message).toContain('microATX (244 × 244 mm)');
 		});
 
 		it('an air cooler taller than the case clearance is a conflict with both heights', () => {
-			const tall = slot('cooler', 'cooler', 'Ostery', 'Tower 170', { type: 'air', heightMm: 170, sockets: ['AM5'], ratedHeatW: 250 });
+			const tall = slot('cooler', 'cooler', 'Ostery', 'Tower 170', {
+				type: 'air',
+				heightMm: 170,
+				sockets: ['AM5'],
+				ratedHeatW: 250
+			});
 			const f = only(fitReport(withSlots(tall)), 'cooler-height-case');
 			expect(f.severity).toBe('conflict');
-			expect(f.message).toBe('Ostery Tower 170 is too tall for Halden Atrium: cooler is 170 mm, case fits 165 mm (5 mm over).');
+			expect(f.message).toBe(
+				'Ostery Tower 170 is too tall for Halden Atrium: cooler is 170 mm, case fits 165 mm (5 mm over).'
+			);
 		});
 
 		it('a radiator larger than the case takes, or a case without a mount, is a conflict; a liquid cooler skips the height rule', () => {
-			const loop420 = slot('cooler', 'cooler', 'Ostery', 'Loop 420', { type: 'liquid', radiatorMm: 420, sockets: ['AM5'], ratedHeatW: 350 });
+			const loop420 = slot('cooler', 'cooler', 'Ostery', 'Loop 420', {
+				type: 'liquid',
+				radiatorMm: 420,
+				sockets: ['AM5'],
+				ratedHeatW: 350
+			});
 			const findings = fitReport(withSlots(loop420));
 			expect(byRule(findings, 'cooler-height-case')).toEqual([]);
-			expect(only(findings, 'radiator-case')).toMatchObject({ severity: 'conflict', message: 'Ostery Loop 420 has a 420 mm radiator; Halden Atrium takes up to 360 mm.' });
-			const noMount = slot('case', 'case', 'Halden', 'Box', { ...caseAtx.part.specs, radiatorMm: 0 });
-			expect(only(fitReport(withSlots(loop420, noMount)), 'radiator-case').message).toContain('has no radiator mount');
+			expect(only(findings, 'radiator-case')).toMatchObject({
+				severity: 'conflict',
+				message: 'Ostery Loop 420 has a 420 mm radiator; Halden Atrium takes up to 360 mm.'
+			});
+			const noMount = slot('case', 'case', 'Halden', 'Box', {
+				...caseAtx.part.specs,
+				radiatorMm: 0
+			});
+			expect(only(fitReport(withSlots(loop420, noMount)), 'radiator-case').message).toContain(
+				'has no radiator mount'
+			);
 		});
 
 		it('PSU form factor: ATX in an SFX-only case is a conflict; SFX in an ATX bay is a caution (bracket)', () => {
-			const sfxCase = slot('case', 'case', 'Halden', 'Cube', { ...caseAtx.part.specs, psuFormFactors: ['SFX', 'SFX-L'] });
+			const sfxCase = slot('case', 'case', 'Halden', 'Cube', {
+				...caseAtx.part.specs,
+				psuFormFactors: ['SFX', 'SFX-L']
+			});
 			expect(only(fitReport(withSlots(sfxCase)), 'psu-form-factor-case').severity).toBe('conflict');
-			const sfx = slot('psu', 'psu', 'Ostery', 'Small 850', { ...psu850.part.specs, formFactor: 'SFX' });
+			const sfx = slot('psu', 'psu', 'Ostery', 'Small 850', {
+				...psu850.part.specs,
+				formFactor: 'SFX'
+			});
 			const f = only(fitReport(withSlots(sfx)), 'psu-form-factor-case');
 			expect(f.severity).toBe('caution');
 			expect(f.message).toContain('adapter bracket');
@@ -240,32 +356,55 @@ describe('fit report', () => {
 		// Load of the good build is 500 W (see power.spec.ts); recommended 850 W
 		// (common practice, no published source: load ≤ 60 % of the rating).
 		it('a PSU below the recommended rating is a caution, below the estimated load a conflict', () => {
-			const psu650 = slot('psu', 'psu', 'Ostery', 'Current 650', { ...psu850.part.specs, ratedW: 650 });
+			const psu650 = slot('psu', 'psu', 'Ostery', 'Current 650', {
+				...psu850.part.specs,
+				ratedW: 650
+			});
 			const caution = only(fitReport(withSlots(psu650)), 'psu-rating');
 			expect(caution.severity).toBe('caution');
 			// D: 500 / 650 = 76.9 % → 77 %
 			expect(caution.message).toBe(
 				'Ostery Current 650 is rated 650 W; the estimated load of 500 W is 77 % of it. Recommended: 850 W, so the load stays at or below 60 % of the rating (common practice).'
 			);
-			const psu450 = slot('psu', 'psu', 'Ostery', 'Current 450', { ...psu850.part.specs, ratedW: 450 });
+			const psu450 = slot('psu', 'psu', 'Ostery', 'Current 450', {
+				...psu850.part.specs,
+				ratedW: 450
+			});
 			const conflict = only(fitReport(withSlots(psu450)), 'psu-rating');
 			expect(conflict.severity).toBe('conflict');
-			expect(conflict.message).toBe('Ostery Current 450 is rated 450 W, below the estimated load of 500 W. Recommended: 850 W.');
+			expect(conflict.message).toBe(
+				'Ostery Current 450 is rated 450 W, below the estimated load of 500 W. Recommended: 850 W.'
+			);
 		});
 
-		it('accepts a load up to two-thirds of the rating and cautions above (DESIGN.md; common practice, no published source)', () => {
+		it('accepts a load up to two-thirds of the rating and cautions above (docs/architecture.md; common practice, no published source)', () => {
 			// D: 500 W on 750 W = 66.7 % (not above 2/3) → ok; on 740 W = 67.6 % → caution.
-			const psu750 = slot('psu', 'psu', 'Ostery', 'Current 750', { ...psu850.part.specs, ratedW: 750 });
+			const psu750 = slot('psu', 'psu', 'Ostery', 'Current 750', {
+				...psu850.part.specs,
+				ratedW: 750
+			});
 			expect(only(fitReport(withSlots(psu750)), 'psu-rating').severity).toBe('ok');
-			const psu740 = slot('psu', 'psu', 'Ostery', 'Current 740', { ...psu850.part.specs, ratedW: 740 });
+			const psu740 = slot('psu', 'psu', 'Ostery', 'Current 740', {
+				...psu850.part.specs,
+				ratedW: 740
+			});
 			expect(only(fitReport(withSlots(psu740)), 'psu-rating').severity).toBe('caution');
 		});
 
 		it('checks the card power connectors against the PSU leads (via the power budget rules)', () => {
 			const h12Card = slot('gpu', 'gpu', 'Ferrant', 'Kestrel 5', {
-				chip: 'K85', vramGb: 16, lengthMm: 300, slotWidth: 3, boardPowerW: 300, powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 }, pcieGen: 5
+				chip: 'K85',
+				vramGb: 16,
+				lengthMm: 300,
+				slotWidth: 3,
+				boardPowerW: 300,
+				powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 },
+				pcieGen: 5
 			});
-			const noH12 = slot('psu', 'psu', 'Ostery', 'Classic 850', { ...psu850.part.specs, connectors: { pin6: 0, pin8: 4, h12v2x6: 0, eps8: 2 } });
+			const noH12 = slot('psu', 'psu', 'Ostery', 'Classic 850', {
+				...psu850.part.specs,
+				connectors: { pin6: 0, pin8: 4, h12v2x6: 0, eps8: 2 }
+			});
 			const f = only(fitReport(withSlots(h12Card, noH12)), 'gpu-power-connectors');
 			expect(f.severity).toBe('caution');
 			expect(f.slots).toEqual(['gpu', 'psu']);
@@ -273,46 +412,92 @@ describe('fit report', () => {
 			expect(f.message).toContain('Ostery Classic 850');
 		});
 
-		it('a cooler rated below the CPU sustained power is a caution that says ratings are not comparable (CHECK-VALUES 15, common practice, no published source)', () => {
-			const small = slot('cooler', 'cooler', 'Ostery', 'Low 47', { type: 'air', heightMm: 47, sockets: ['AM5'], ratedHeatW: 95 });
+		it('a cooler rated below the CPU sustained power is a caution that says ratings are not comparable (docs/sources.md 15, common practice, no published source)', () => {
+			const small = slot('cooler', 'cooler', 'Ostery', 'Low 47', {
+				type: 'air',
+				heightMm: 47,
+				sockets: ['AM5'],
+				ratedHeatW: 95
+			});
 			const f = only(fitReport(withSlots(small)), 'cooler-heat');
 			expect(f.severity).toBe('caution');
-			// 142 W = AMD PPT for 105 W TDP (CHECK-VALUES 8a, V2)
-			expect(f.message).toContain('Ostery Low 47 is rated for 95 W, below the 142 W Tarnwick Vela 65X sustains');
+			// 142 W = AMD PPT for 105 W TDP (docs/sources.md 8a, V2)
+			expect(f.message).toContain(
+				'Ostery Low 47 is rated for 95 W, below the 142 W Tarnwick Vela 65X sustains'
+			);
 			expect(f.message).toContain('no common test method');
 		});
 	});
 
 	describe('storage', () => {
-		const drive = (key: string, model: string, formFactor: 'm2-2280' | 'm2-2242' | 'm2-2230', pcieGen: 3 | 4 | 5, quantity = 1) =>
-			slot('storage', key, 'Brightmoor', model, { interface: 'nvme', formFactor, pcieGen, capacityGb: 1000, readMbs: 5000, writeMbs: 4000 }, quantity);
+		const drive = (
+			key: string,
+			model: string,
+			formFactor: 'm2-2280' | 'm2-2242' | 'm2-2230',
+			pcieGen: 3 | 4 | 5,
+			quantity = 1
+		) =>
+			slot(
+				'storage',
+				key,
+				'Brightmoor',
+				model,
+				{ interface: 'nvme', formFactor, pcieGen, capacityGb: 1000, readMbs: 5000, writeMbs: 4000 },
+				quantity
+			);
 
 		it('gives the fast slot to the fast drive: 5.0 and 4.0 drives on a board with one slot of each are both ok', () => {
-			const findings = fitReport(withSlots(drive('storage', 'N4', 'm2-2280', 4), drive('fast', 'N5', 'm2-2280', 5)));
+			const findings = fitReport(
+				withSlots(drive('storage', 'N4', 'm2-2280', 4), drive('fast', 'N5', 'm2-2280', 5))
+			);
 			expect(byRule(findings, 'm2-slot').map((f) => [f.slots[0], f.severity])).toEqual([
 				['fast', 'ok'],
 				['storage', 'ok']
 			]);
-			expect(only(findings.filter((f) => f.slots[0] === 'fast'), 'm2-slot').message).toContain('M.2 slot 1');
+			expect(
+				only(
+					findings.filter((f) => f.slots[0] === 'fast'),
+					'm2-slot'
+				).message
+			).toContain('M.2 slot 1');
 		});
 
 		it('more M.2 drives than slots is a conflict naming the counts', () => {
 			const findings = fitReport(withSlots(drive('storage', 'N4', 'm2-2280', 4, 3)));
 			const f = only(findings, 'm2-count');
 			expect(f.severity).toBe('conflict');
-			expect(f.message).toBe('3 M.2 drives (Brightmoor N4), but Quellbrook B6 ATX has 2 M.2 slots.');
+			expect(f.message).toBe(
+				'3 M.2 drives (Brightmoor N4), but Quellbrook B6 ATX has 2 M.2 slots.'
+			);
 		});
 
-		it('a drive longer than the free slots take is a conflict (CHECK-VALUES 7: 2280 = 80 mm)', () => {
-			const shortSlots = slot('motherboard', 'board', 'Quellbrook', 'B6 Tiny', { ...boardAm5Atx.part.specs, m2Slots: [{ pcieGen: 4, maxLengthMm: 42 }] });
+		it('a drive longer than the free slots take is a conflict (docs/sources.md 7: 2280 = 80 mm)', () => {
+			const shortSlots = slot('motherboard', 'board', 'Quellbrook', 'B6 Tiny', {
+				...boardAm5Atx.part.specs,
+				m2Slots: [{ pcieGen: 4, maxLengthMm: 42 }]
+			});
 			const f = only(fitReport(withSlots(shortSlots)), 'm2-length');
 			expect(f.severity).toBe('conflict');
-			expect(f.message).toBe('Brightmoor N4 2 TB is 80 mm long (M.2 2280); the free M.2 slots of Quellbrook B6 Tiny take up to 42 mm.');
-			expect(only(fitReport(withSlots(shortSlots, drive('storage', 'N4 Short', 'm2-2242', 4))), 'm2-slot').severity).toBe('ok');
+			expect(f.message).toBe(
+				'Brightmoor N4 2 TB is 80 mm long (M.2 2280); the free M.2 slots of Quellbrook B6 Tiny take up to 42 mm.'
+			);
+			expect(
+				only(
+					fitReport(withSlots(shortSlots, drive('storage', 'N4 Short', 'm2-2242', 4))),
+					'm2-slot'
+				).severity
+			).toBe('ok');
 		});
 
 		it('SATA drives count against SATA ports', () => {
-			const ssd = slot('storage', 'ssd', 'Brightmoor', 'S2 2 TB', { interface: 'sata', formFactor: '2.5in', capacityGb: 2000, readMbs: 550, writeMbs: 520 }, 5);
+			const ssd = slot(
+				'storage',
+				'ssd',
+				'Brightmoor',
+				'S2 2 TB',
+				{ interface: 'sata', formFactor: '2.5in', capacityGb: 2000, readMbs: 550, writeMbs: 520 },
+				5
+			);
 			const f = only(fitReport(withSlots(ssd)), 'sata-ports');
 			expect(f.severity).toBe('conflict');
 			expect(f.message).toContain('5 SATA drives, but Quellbrook B6 ATX has 4 SATA ports');
@@ -328,26 +513,52 @@ describe('fit report', () => {
 				slots: ['cpu'],
 				message: 'Tarnwick Vela 65X comes without a cooler and the build has no CPU cooler.'
 			});
-			const boxed = slot('cpu', 'cpu', 'Tarnwick', 'Vela 65', { ...cpuAm5.part.specs, tdpW: 65, bundledCooler: true });
-			expect(only(fitReport(without('cooler').map((s) => (s.key === 'cpu' ? boxed : s))), 'cpu-cooler').severity).toBe('ok');
+			const boxed = slot('cpu', 'cpu', 'Tarnwick', 'Vela 65', {
+				...cpuAm5.part.specs,
+				tdpW: 65,
+				bundledCooler: true
+			});
+			expect(
+				only(fitReport(without('cooler').map((s) => (s.key === 'cpu' ? boxed : s))), 'cpu-cooler')
+					.severity
+			).toBe('ok');
 		});
 
 		it('a CPU without integrated graphics and no graphics card is a conflict; with integrated graphics, ok', () => {
-			const noIgpu = slot('cpu', 'cpu', 'Tarnwick', 'Vela 65F', { ...cpuAm5.part.specs, integratedGraphics: false });
+			const noIgpu = slot('cpu', 'cpu', 'Tarnwick', 'Vela 65F', {
+				...cpuAm5.part.specs,
+				integratedGraphics: false
+			});
 			const build = without('gpu').map((s) => (s.key === 'cpu' ? noIgpu : s));
-			expect(only(fitReport(build), 'cpu-graphics')).toMatchObject({ severity: 'conflict', slots: ['cpu'] });
+			expect(only(fitReport(build), 'cpu-graphics')).toMatchObject({
+				severity: 'conflict',
+				slots: ['cpu']
+			});
 			expect(only(fitReport(without('gpu')), 'cpu-graphics').severity).toBe('ok');
 		});
 
 		it('skips rules whose slots are missing, quietly', () => {
 			const findings = fitReport([cpuAm5, boardAm5Atx]);
-			expect(findings.map((f) => f.rule)).toEqual(['cpu-socket-board', 'cpu-cooler', 'cpu-graphics']);
+			expect(findings.map((f) => f.rule)).toEqual([
+				'cpu-socket-board',
+				'cpu-cooler',
+				'cpu-graphics'
+			]);
 			expect(fitReport([gpu2x8, nvmeGen4, cooler150, ddr5Kit])).toEqual([]);
 		});
 	});
 
 	it('summarize counts findings per severity and names the worst', () => {
-		const findings = fitReport(withSlots(slot('cooler', 'cooler', 'Ostery', 'Low 47', { type: 'air', heightMm: 47, sockets: ['AM4'], ratedHeatW: 95 })));
+		const findings = fitReport(
+			withSlots(
+				slot('cooler', 'cooler', 'Ostery', 'Low 47', {
+					type: 'air',
+					heightMm: 47,
+					sockets: ['AM4'],
+					ratedHeatW: 95
+				})
+			)
+		);
 		expect(summarize(findings)).toEqual({ ok: 12, caution: 1, conflict: 1, worst: 'conflict' });
 	});
 });

@@ -3,10 +3,10 @@ import { cycleTimeNs, firstWordLatencyNs, kitCapacityGb } from '$lib/domain/memo
 
 /*
  * Formula: Crucial, "Speed vs. latency": "latency (ns) = clock cycle time (ns) x number of
- * clock cycles", cycle = 2000 / (MT/s) — CHECK-VALUES 5c, status V for the formula and
+ * clock cycles", cycle = 2000 / (MT/s) — docs/sources.md 5c, status V for the formula and
  * D for each worked value (arithmetic shown).
  */
-describe('first-word latency = CL × 2000 / (MT/s) (CHECK-VALUES 5c)', () => {
+describe('first-word latency = CL × 2000 / (MT/s) (docs/sources.md 5c)', () => {
 	it('DDR5-6000 CL30 = 10.0 ns (V formula; D: 30 × 2000 / 6000 = 10)', () => {
 		expect(firstWordLatencyNs(30, 6000)).toBeCloseTo(10.0, 10);
 	});
@@ -19,7 +19,7 @@ describe('first-word latency = CL × 2000 / (MT/s) (CHECK-VALUES 5c)', () => {
 		expect(firstWordLatencyNs(40, 4800)).toBeCloseTo(16.67, 2);
 	});
 
-	it('DDR5-6000 CL42, the JEDEC "A" bin (CHECK-VALUES 5b, V2), = 14.0 ns (D: 42 × 2000 / 6000 = 14)', () => {
+	it('DDR5-6000 CL42, the JEDEC "A" bin (docs/sources.md 5b, V2), = 14.0 ns (D: 42 × 2000 / 6000 = 14)', () => {
 		expect(firstWordLatencyNs(42, 6000)).toBeCloseTo(14.0, 10);
 	});
 

@@ -13,16 +13,33 @@ import {
 	type CautionCondition,
 	type CautionRule
 } from '../../../src/lib/domain/pairing-cautions';
-import { cautionRuleInput, CONDITION_FIELDS, describeCondition, ruleFromForm } from '../../../src/lib/schemas/caution-rules';
+import {
+	cautionRuleInput,
+	CONDITION_FIELDS,
+	describeCondition,
+	ruleFromForm
+} from '../../../src/lib/schemas/caution-rules';
 import { cpuAm5, goodBuild, gpu2x8, slot, withSlots } from './fixtures';
 
 const quadCore = slot('cpu', 'cpu', 'Tarnwick', 'Vela 41', {
-	socket: 'AM5', cores: 4, threads: 8, baseClockGhz: 3.8, boostClockGhz: 4.8, tdpW: 65,
-	memoryTypes: ['DDR5'], integratedGraphics: true, bundledCooler: true
+	socket: 'AM5',
+	cores: 4,
+	threads: 8,
+	baseClockGhz: 3.8,
+	boostClockGhz: 4.8,
+	tdpW: 65,
+	memoryTypes: ['DDR5'],
+	integratedGraphics: true,
+	bundledCooler: true
 });
 const bigCard = slot('gpu', 'gpu', 'Ferrant', 'Kestrel 24G', {
-	chip: 'K90', vramGb: 24, lengthMm: 320, slotWidth: 3, boardPowerW: 450,
-	powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 }, pcieGen: 5
+	chip: 'K90',
+	vramGb: 24,
+	lengthMm: 320,
+	slotWidth: 3,
+	boardPowerW: 450,
+	powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 },
+	pcieGen: 5
 });
 
 const lowCoreRule: CautionRule = {
@@ -105,7 +122,9 @@ describe('pairingCautions', () => {
 
 	it('does not fire when the build has no part of a named category', () => {
 		const noGpu = goodBuild().filter((s) => s.category !== 'gpu');
-		expect(pairingCautions([...noGpu.filter((s) => s.key !== 'cpu'), quadCore], [lowCoreRule])).toEqual([]);
+		expect(
+			pairingCautions([...noGpu.filter((s) => s.key !== 'cpu'), quadCore], [lowCoreRule])
+		).toEqual([]);
 	});
 
 	it('needs conditions on the same category to hold for the same part', () => {
@@ -116,7 +135,10 @@ describe('pairingCautions', () => {
 		// Two cards: the K90 has 24 GB, the K70 has 16 GB; no single card meets both.
 		const twoCards = [...goodBuild(), { ...bigCard, key: 'gpu-2' }];
 		expect(ruleMatches(twoCards, sameCard)).toBeNull();
-		const smallK90 = slot('gpu', 'gpu-3', 'Ferrant', 'Kestrel 16G K90', { ...bigCard.part.specs, vramGb: 16 });
+		const smallK90 = slot('gpu', 'gpu-3', 'Ferrant', 'Kestrel 16G K90', {
+			...bigCard.part.specs,
+			vramGb: 16
+		});
 		expect(ruleMatches([...twoCards, smallK90], sameCard)).toEqual(['gpu-3']);
 	});
 
@@ -142,21 +164,44 @@ describe('pairingCautions', () => {
 			]
 		};
 		expect(pairingCautions(goodBuild(), [rule])).toEqual([]);
-		expect(pairingCautions(goodBuild(), [{ ...rule, conditions: [...rule.conditions.slice(1), { category: 'cpu', field: 'noSuchField', operator: 'eq', value: 1 }] }])).toEqual([]);
+		expect(
+			pairingCautions(goodBuild(), [
+				{
+					...rule,
+					conditions: [
+						...rule.conditions.slice(1),
+						{ category: 'cpu', field: 'noSuchField', operator: 'eq', value: 1 }
+					]
+				}
+			])
+		).toEqual([]);
 	});
 
 	it('gives one finding per firing rule, in rule order', () => {
-		const second: CautionRule = { ...lowCoreRule, id: 9, message: 'Second rule.', conditions: [
-			{ category: 'cpu', field: 'bundledCooler', operator: 'eq', value: true },
-			{ category: 'gpu', field: 'pcieGen', operator: 'eq', value: 5 }
-		] };
+		const second: CautionRule = {
+			...lowCoreRule,
+			id: 9,
+			message: 'Second rule.',
+			conditions: [
+				{ category: 'cpu', field: 'bundledCooler', operator: 'eq', value: true },
+				{ category: 'gpu', field: 'pcieGen', operator: 'eq', value: 5 }
+			]
+		};
 		const findings = pairingCautions(withSlots(quadCore, bigCard), [second, lowCoreRule]);
 		expect(findings.map((f) => f.cautionRuleId)).toEqual([9, 7]);
 	});
 
 	it('joins the drop-in pass: an alternate that clears the pairing shows the caution as gone', () => {
 		const slots = withSlots(quadCore, bigCard).map(
-			(s) => ({ key: s.key, label: s.label, category: s.category, quantity: s.quantity, pick: s.part, alternates: s.key === 'gpu' ? [{ id: 'alt-1', part: gpu2x8.part }] : [] }) as GuideSlot
+			(s) =>
+				({
+					key: s.key,
+					label: s.label,
+					category: s.category,
+					quantity: s.quantity,
+					pick: s.part,
+					alternates: s.key === 'gpu' ? [{ id: 'alt-1', part: gpu2x8.part }] : []
+				}) as GuideSlot
 		);
 		const report = dropIns(slots, [lowCoreRule]);
 		expect(report.picks.filter((f) => f.cautionRuleId === 7)).toHaveLength(1);
@@ -168,18 +213,37 @@ describe('pairingCautions', () => {
 });
 
 describe('the rule schema, checked against the real spec schemas', () => {
-	const base = { title: 'Big card, few cores', message: 'Expect lower 1 % lows with this pairing.', active: true };
+	const base = {
+		title: 'Big card, few cores',
+		message: 'Expect lower 1 % lows with this pairing.',
+		active: true
+	};
 
 	it('reads form text into typed values per field kind', () => {
 		const parsed = cautionRuleInput.safeParse(
 			ruleFromForm({
 				...base,
 				active: 'on',
-				'conditions.0.category': 'gpu', 'conditions.0.field': 'chip', 'conditions.0.operator': 'in', 'conditions.0.value': 'K90, K80',
-				'conditions.1.category': 'cpu', 'conditions.1.field': 'cores', 'conditions.1.operator': 'lt', 'conditions.1.value': '6',
-				'conditions.2.category': 'cpu', 'conditions.2.field': 'socket', 'conditions.2.operator': 'eq', 'conditions.2.value': 'am5',
-				'conditions.3.category': 'cpu', 'conditions.3.field': 'integratedGraphics', 'conditions.3.operator': 'eq', 'conditions.3.value': 'no',
-				'conditions.4.category': 'cpu', 'conditions.4.field': 'memoryTypes', 'conditions.4.operator': 'contains', 'conditions.4.value': 'ddr4'
+				'conditions.0.category': 'gpu',
+				'conditions.0.field': 'chip',
+				'conditions.0.operator': 'in',
+				'conditions.0.value': 'K90, K80',
+				'conditions.1.category': 'cpu',
+				'conditions.1.field': 'cores',
+				'conditions.1.operator': 'lt',
+				'conditions.1.value': '6',
+				'conditions.2.category': 'cpu',
+				'conditions.2.field': 'socket',
+				'conditions.2.operator': 'eq',
+				'conditions.2.value': 'am5',
+				'conditions.3.category': 'cpu',
+				'conditions.3.field': 'integratedGraphics',
+				'conditions.3.operator': 'eq',
+				'conditions.3.value': 'no',
+				'conditions.4.category': 'cpu',
+				'conditions.4.field': 'memoryTypes',
+				'conditions.4.operator': 'contains',
+				'conditions.4.value': 'ddr4'
 			})
 		);
 		expect(parsed.success).toBe(true);
@@ -205,7 +269,9 @@ describe('the rule schema, checked against the real spec schemas', () => {
 			]
 		});
 		expect(parsed.success).toBe(false);
-		const paths = Object.fromEntries(parsed.error!.issues.map((i) => [i.path.join('.'), i.message]));
+		const paths = Object.fromEntries(
+			parsed.error!.issues.map((i) => [i.path.join('.'), i.message])
+		);
 		expect(paths['conditions.0.field']).toMatch(/no spec field "chipFamily"/);
 		expect(paths['conditions.1.operator']).toMatch(/does not apply to Cores/);
 		expect(paths['conditions.2.value']).toMatch(/not a number/);
@@ -214,7 +280,15 @@ describe('the rule schema, checked against the real spec schemas', () => {
 	});
 
 	it('needs at least two conditions, and drops blank form rows', () => {
-		const raw = ruleFromForm({ ...base, active: 'on', 'conditions.0.category': 'cpu', 'conditions.0.field': 'cores', 'conditions.0.operator': 'lt', 'conditions.0.value': '6', 'conditions.1.value': ' ' });
+		const raw = ruleFromForm({
+			...base,
+			active: 'on',
+			'conditions.0.category': 'cpu',
+			'conditions.0.field': 'cores',
+			'conditions.0.operator': 'lt',
+			'conditions.0.value': '6',
+			'conditions.1.value': ' '
+		});
 		expect(raw.conditions).toHaveLength(1);
 		const parsed = cautionRuleInput.safeParse(raw);
 		expect(parsed.error?.issues.map((i) => i.path.join('.'))).toEqual(['conditions']);
@@ -225,6 +299,8 @@ describe('the rule schema, checked against the real spec schemas', () => {
 		expect(board).toContain('chipset');
 		expect(board).not.toContain('m2Slots');
 		expect(CONDITION_FIELDS.psu.map((f) => f.path)).toContain('connectors.eps8');
-		expect(CONDITION_FIELDS.cpu.find((f) => f.path === 'memoryTypes')?.operators).toEqual(['contains']);
+		expect(CONDITION_FIELDS.cpu.find((f) => f.path === 'memoryTypes')?.operators).toEqual([
+			'contains'
+		]);
 	});
 });

@@ -8,11 +8,11 @@ import {
 } from '$lib/domain/pcie';
 
 /*
- * Rates and encodings: PCI-SIG, PCIe 3.0 FAQ (8 GT/s, 128b/130b) — CHECK-VALUES 6, status V.
+ * Rates and encodings: PCI-SIG, PCIe 3.0 FAQ (8 GT/s, 128b/130b) — docs/sources.md 6, status V.
  * Per-lane and x4 figures are arithmetic on those (status D): GT/s × encoding ÷ 8 bits.
- * Convention: usable bandwidth, one direction (CHECK-VALUES note 6).
+ * Convention: usable bandwidth, one direction (docs/sources.md note 6).
  */
-describe('PCIe lane bandwidth, usable one direction (CHECK-VALUES 6)', () => {
+describe('PCIe lane bandwidth, usable one direction (docs/sources.md 6)', () => {
 	it('1.0: 2.5 GT/s × 8/10 ÷ 8 = 0.25 GB/s per lane (V rates, D arithmetic)', () => {
 		expect(laneBandwidthGBs(1)).toBeCloseTo(0.25, 10);
 	});
@@ -33,7 +33,7 @@ describe('PCIe lane bandwidth, usable one direction (CHECK-VALUES 6)', () => {
 		expect(laneBandwidthGBs(5)).toBeCloseTo(3.938, 3);
 	});
 
-	it('x4 links: 3.0 ≈ 3.94, 4.0 ≈ 7.88, 5.0 ≈ 15.75 GB/s (CHECK-VALUES 6, D: 4 × per-lane)', () => {
+	it('x4 links: 3.0 ≈ 3.94, 4.0 ≈ 7.88, 5.0 ≈ 15.75 GB/s (docs/sources.md 6, D: 4 × per-lane)', () => {
 		expect(linkBandwidthGBs(3, 4)).toBeCloseTo(3.94, 2);
 		expect(linkBandwidthGBs(4, 4)).toBeCloseTo(7.88, 2);
 		expect(linkBandwidthGBs(5, 4)).toBeCloseTo(15.75, 2);
@@ -41,7 +41,7 @@ describe('PCIe lane bandwidth, usable one direction (CHECK-VALUES 6)', () => {
 	});
 
 	it('4.0 x16 one way = the PCI-SIG raw bidirectional headline "64 GB/s" ÷ 2, less encoding (V headline; D: 64 ÷ 2 × 128/130 = 31.5)', () => {
-		// PCI-SIG x16 headline figures are raw and bidirectional (CHECK-VALUES 6, V);
+		// PCI-SIG x16 headline figures are raw and bidirectional (docs/sources.md 6, V);
 		// one direction halves it, 128b/130b takes 2 bits in 130: 32 × 128/130 = 31.51.
 		expect(linkBandwidthGBs(4, 16)).toBeCloseTo((64 / 2) * (128 / 130), 10);
 	});

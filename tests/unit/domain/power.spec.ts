@@ -15,28 +15,46 @@ import {
 	psuFeedsGpu,
 	recommendedPsuW
 } from '$lib/domain/power';
-import { boardAm5Atx, caseAtx, cooler150, cpuAm5, ddr5Kit, goodBuild, gpu2x8, nvmeGen4, psu850, slot, withSlots } from './fixtures';
+import {
+	boardAm5Atx,
+	caseAtx,
+	cooler150,
+	cpuAm5,
+	ddr5Kit,
+	goodBuild,
+	gpu2x8,
+	nvmeGen4,
+	psu850,
+	slot,
+	withSlots
+} from './fixtures';
 
 describe('CPU sustained power', () => {
 	// AMD press statement, 26 May 2022: "TDP*1.35 is the standard calculation for TDP v. PPT
-	// for AMD sockets in the 'Zen' era… (170*1.35=229.5)" — CHECK-VALUES 8a, status V2
+	// for AMD sockets in the 'Zen' era… (170*1.35=229.5)" — docs/sources.md 8a, status V2
 	// (several verbatim copies; primary not retrieved).
 	it.each([
 		[65, 88],
 		[105, 142],
 		[120, 162],
 		[170, 230]
-	])('AMD PPT: TDP %i W → %i W (CHECK-VALUES 8a, V2)', (tdp, ppt) => {
+	])('AMD PPT: TDP %i W → %i W (docs/sources.md 8a, V2)', (tdp, ppt) => {
 		expect(amdPptW(tdp)).toBe(ppt);
 		expect(cpuSustainedPowerW({ socket: 'AM5', tdpW: tdp })).toBe(ppt);
 	});
 
-	it('AM4 maximum 105 W TDP → 142 W PPT; AM5 maximum 170 W → 230 W (CHECK-VALUES 8a, V2)', () => {
-		expect(cpuSustainedPower({ socket: 'AM4', tdpW: 105 })).toMatchObject({ watts: 142, basis: 'amd-ppt' });
-		expect(cpuSustainedPower({ socket: 'AM5', tdpW: 170 })).toMatchObject({ watts: 230, basis: 'amd-ppt' });
+	it('AM4 maximum 105 W TDP → 142 W PPT; AM5 maximum 170 W → 230 W (docs/sources.md 8a, V2)', () => {
+		expect(cpuSustainedPower({ socket: 'AM4', tdpW: 105 })).toMatchObject({
+			watts: 142,
+			basis: 'amd-ppt'
+		});
+		expect(cpuSustainedPower({ socket: 'AM5', tdpW: 170 })).toMatchObject({
+			watts: 230,
+			basis: 'amd-ppt'
+		});
 	});
 
-	it('uses integer arithmetic: 170 × 1.35 is 229.50000000000003 in floating point (CHECK-VALUES note 5), the rule gives exactly 230', () => {
+	it('uses integer arithmetic: 170 × 1.35 is 229.50000000000003 in floating point (docs/sources.md note 5), the rule gives exactly 230', () => {
 		expect(170 * 1.35).not.toBe(229.5);
 		const ppt = amdPptW(170);
 		expect(Number.isInteger(ppt)).toBe(true);
@@ -44,11 +62,14 @@ describe('CPU sustained power', () => {
 	});
 
 	it('prefers a stated sustained package power over any rule', () => {
-		expect(cpuSustainedPower({ socket: 'LGA1700', tdpW: 125, packagePowerW: 253 })).toMatchObject({ watts: 253, basis: 'stated' });
+		expect(cpuSustainedPower({ socket: 'LGA1700', tdpW: 125, packagePowerW: 253 })).toMatchObject({
+			watts: 253,
+			basis: 'stated'
+		});
 		expect(cpuSustainedPowerW({ socket: 'AM5', tdpW: 105, packagePowerW: 120 })).toBe(120);
 	});
 
-	it('LGA without packagePowerW: Processor Base Power (former TDP / PL1), and says so (CHECK-VALUES 8b, Intel ARK definitions, wording M)', () => {
+	it('LGA without packagePowerW: Processor Base Power (former TDP / PL1), and says so (docs/sources.md 8b, Intel ARK definitions, wording M)', () => {
 		const p = cpuSustainedPower({ socket: 'LGA1851', tdpW: 125 });
 		expect(p).toMatchObject({ watts: 125, basis: 'intel-base-power' });
 		expect(p.note).toMatch(/Processor Base Power \(PL1\) 125 W/);
@@ -57,12 +78,12 @@ describe('CPU sustained power', () => {
 });
 
 describe('graphics card deliverable power (PCIe CEM limits)', () => {
-	it('slot 75 W (PCIe CEM x16, CHECK-VALUES 2a, V2: 12 V × 5.5 A + 3.3 V × 3 A = 66 + 9.9 W)', () => {
+	it('slot 75 W (PCIe CEM x16, docs/sources.md 2a, V2: 12 V × 5.5 A + 3.3 V × 3 A = 66 + 9.9 W)', () => {
 		expect(PCIE_SLOT_W).toBe(75);
 		expect(gpuDeliverableW({ powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 0 } })).toBe(75);
 	});
 
-	it('6-pin 75 W, 8-pin 150 W, 12V-2x6 600 W (Intel 336521 rev 2.0 Table 3-5, CHECK-VALUES 2b, V)', () => {
+	it('6-pin 75 W, 8-pin 150 W, 12V-2x6 600 W (Intel 336521 rev 2.0 Table 3-5, docs/sources.md 2b, V)', () => {
 		expect(CONNECTOR_W).toEqual({ pin6: 75, pin8: 150, h12v2x6: 600 });
 	});
 
@@ -73,19 +94,30 @@ describe('graphics card deliverable power (PCIe CEM limits)', () => {
 		[1, 1, 0, 300, '75 + 75 + 150'],
 		[0, 2, 0, 375, '75 + 2 × 150'],
 		[0, 3, 0, 525, '75 + 3 × 150']
-	])('%i × 6-pin + %i × 8-pin + %i × 12V-2x6 → %i W (D: %s, from 2a and 2b)', (pin6, pin8, h12v2x6, watts) => {
-		expect(gpuDeliverableW({ powerConnectors: { pin6, pin8, h12v2x6 } })).toBe(watts);
-	});
+	])(
+		'%i × 6-pin + %i × 8-pin + %i × 12V-2x6 → %i W (D: %s, from 2a and 2b)',
+		(pin6, pin8, h12v2x6, watts) => {
+			expect(gpuDeliverableW({ powerConnectors: { pin6, pin8, h12v2x6 } })).toBe(watts);
+		}
+	);
 
 	it('one 12V-2x6 → 75 + 600 = 675 W, exactly the CEM 5.1 card ceiling (2e, V: 336521 rev 2.1a; CEM 5.0 was 600 W)', () => {
 		expect(CARD_CEILING_W).toEqual({ cem50: 600, cem51: 675 });
 		expect(gpuDeliverable({ powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 1 } })).toEqual({
-			slotW: 75, connectorsW: 600, totalW: 675, ceilingW: 675, capped: false
+			slotW: 75,
+			connectorsW: 600,
+			totalW: 675,
+			ceilingW: 675,
+			capped: false
 		});
 	});
 
 	it('caps at the 675 W card ceiling (2e, V): two 12V-2x6 sum to 1275 W but deliver 675 W (D: 75 + 2 × 600)', () => {
-		expect(gpuDeliverable({ powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 2 } })).toMatchObject({ connectorsW: 1200, totalW: 675, capped: true });
+		expect(gpuDeliverable({ powerConnectors: { pin6: 0, pin8: 0, h12v2x6: 2 } })).toMatchObject({
+			connectorsW: 1200,
+			totalW: 675,
+			capped: true
+		});
 	});
 });
 
@@ -140,16 +172,49 @@ describe('load estimate', () => {
 		expect(breakdown.find((l) => l.key === 'cpu')?.basis).toMatch(/105 W TDP × 1\.35 = 142 W/);
 		expect(breakdown.find((l) => l.key === 'cpu')?.label).toBe('cpu: Tarnwick Vela 65X');
 		for (const key of ['cooler', 'board', 'memory', 'storage', 'case', 'allowance:usb']) {
-			expect(breakdown.find((l) => l.key === key)?.basis, key).toMatch(/common practice \(no published source\)/);
+			expect(breakdown.find((l) => l.key === key)?.basis, key).toMatch(
+				/common practice \(no published source\)/
+			);
 		}
 	});
 
 	it('counts quantities, liquid cooler pump and radiator fans, fan packs and a missing board', () => {
-		const liquid = slot('cooler', 'cooler', 'Ostery', 'Loop 360', { type: 'liquid', radiatorMm: 360, sockets: ['AM5'], ratedHeatW: 300 });
-		const liquid280 = slot('cooler', 'cooler2', 'Ostery', 'Loop 280', { type: 'liquid', radiatorMm: 280, sockets: ['AM5'], ratedHeatW: 280 });
-		const fans = slot('fan', 'fans', 'Ostery', 'Draft 120 (3-pack)', { sizeMm: 120, count: 3, maxRpm: 1500 }, 2);
-		const hdd = slot('storage', 'hdd', 'Brightmoor', 'Vault 8 TB', { interface: 'sata', formFactor: '3.5in', capacityGb: 8000, readMbs: 250, writeMbs: 250 }, 2);
-		const { breakdown } = estimateLoad([cpuAm5, liquid, liquid280, fans, hdd, { ...ddr5Kit, quantity: 2 }]);
+		const liquid = slot('cooler', 'cooler', 'Ostery', 'Loop 360', {
+			type: 'liquid',
+			radiatorMm: 360,
+			sockets: ['AM5'],
+			ratedHeatW: 300
+		});
+		const liquid280 = slot('cooler', 'cooler2', 'Ostery', 'Loop 280', {
+			type: 'liquid',
+			radiatorMm: 280,
+			sockets: ['AM5'],
+			ratedHeatW: 280
+		});
+		const fans = slot(
+			'fan',
+			'fans',
+			'Ostery',
+			'Draft 120 (3-pack)',
+			{ sizeMm: 120, count: 3, maxRpm: 1500 },
+			2
+		);
+		const hdd = slot(
+			'storage',
+			'hdd',
+			'Brightmoor',
+			'Vault 8 TB',
+			{ interface: 'sata', formFactor: '3.5in', capacityGb: 8000, readMbs: 250, writeMbs: 250 },
+			2
+		);
+		const { breakdown } = estimateLoad([
+			cpuAm5,
+			liquid,
+			liquid280,
+			fans,
+			hdd,
+			{ ...ddr5Kit, quantity: 2 }
+		]);
 		const w = (key: string) => breakdown.find((l) => l.key === key)?.watts;
 		expect(w('cooler')).toBe(ALLOWANCE_W.pump + 3 * ALLOWANCE_W.fan); // 360 mm = 3 × 120 mm fans
 		expect(w('cooler2')).toBe(ALLOWANCE_W.pump + 2 * ALLOWANCE_W.fan); // 280 mm = 2 × 140 mm fans
@@ -163,17 +228,32 @@ describe('load estimate', () => {
 describe('PSU leads vs card inlets', () => {
 	const card = (boardPowerW: number, pin6: number, pin8: number, h12v2x6: number) =>
 		slot('gpu', 'gpu', 'Ferrant', `Test ${boardPowerW}`, {
-			chip: 'T', vramGb: 8, lengthMm: 250, slotWidth: 2, boardPowerW, powerConnectors: { pin6, pin8, h12v2x6 }, pcieGen: 4
+			chip: 'T',
+			vramGb: 8,
+			lengthMm: 250,
+			slotWidth: 2,
+			boardPowerW,
+			powerConnectors: { pin6, pin8, h12v2x6 },
+			pcieGen: 4
 		});
 	const supply = (pin6: number, pin8: number, h12v2x6: number) =>
 		slot('psu', 'psu', 'Ostery', `Leads ${pin6}/${pin8}/${h12v2x6}`, {
-			ratedW: 850, formFactor: 'ATX', efficiency: '80 PLUS Gold', modular: 'full', connectors: { pin6, pin8, h12v2x6, eps8: 2 }, atx3: false
+			ratedW: 850,
+			formFactor: 'ATX',
+			efficiency: '80 PLUS Gold',
+			modular: 'full',
+			connectors: { pin6, pin8, h12v2x6, eps8: 2 },
+			atx3: false
 		});
 
 	it('native leads for every inlet: ok', () => {
 		const findings = psuFeedsGpu(psu850, gpu2x8);
 		expect(findings).toHaveLength(1);
-		expect(findings[0]).toMatchObject({ rule: 'gpu-power-connectors', severity: 'ok', slots: ['gpu', 'psu'] });
+		expect(findings[0]).toMatchObject({
+			rule: 'gpu-power-connectors',
+			severity: 'ok',
+			slots: ['gpu', 'psu']
+		});
 		expect(findings[0]?.message).toContain('Ostery Current 850');
 		expect(findings[0]?.message).toContain('Ferrant Kestrel 16G');
 	});
@@ -191,7 +271,9 @@ describe('PSU leads vs card inlets', () => {
 	});
 
 	it('a 450 W 12V-2x6 card needs 3 × 8-pin through an adapter (D: 450 − 75 = 375 W → ⌈375 / 150⌉ = 3); two leads are a conflict', () => {
-		expect(psuFeedsGpu(supply(0, 3, 0), card(450, 0, 0, 1))[0]?.message).toContain('3 × 8-pin (3 × 150 W = 450 W)');
+		expect(psuFeedsGpu(supply(0, 3, 0), card(450, 0, 0, 1))[0]?.message).toContain(
+			'3 × 8-pin (3 × 150 W = 450 W)'
+		);
 		const [f] = psuFeedsGpu(supply(0, 2, 0), card(450, 0, 0, 1));
 		expect(f?.severity).toBe('conflict');
 		expect(f?.message).toMatch(/short of the 3 an adapter needs/);
@@ -200,12 +282,16 @@ describe('PSU leads vs card inlets', () => {
 	it('too few 8-pin leads: conflict naming the counts', () => {
 		const [f] = psuFeedsGpu(supply(0, 1, 0), gpu2x8);
 		expect(f).toMatchObject({ severity: 'conflict' });
-		expect(f?.message).toBe('Ferrant Kestrel 16G needs 2 × 8-pin PCIe power; Ostery Leads 0/1/0 has 1 8-pin lead.');
+		expect(f?.message).toBe(
+			'Ferrant Kestrel 16G needs 2 × 8-pin PCIe power; Ostery Leads 0/1/0 has 1 8-pin lead.'
+		);
 	});
 
 	it('6-pin inlets take spare 6+2 leads; without any it is a conflict', () => {
 		expect(psuFeedsGpu(supply(0, 2, 0), card(225, 1, 1, 0)).map((f) => f.severity)).toEqual(['ok']);
-		expect(psuFeedsGpu(supply(0, 1, 0), card(225, 1, 1, 0)).map((f) => f.severity)).toEqual(['conflict']);
+		expect(psuFeedsGpu(supply(0, 1, 0), card(225, 1, 1, 0)).map((f) => f.severity)).toEqual([
+			'conflict'
+		]);
 	});
 
 	it('a card without power inlets draws from the slot only (75 W, 2a)', () => {
@@ -229,7 +315,12 @@ describe('power budget', () => {
 
 	it('flags connectors that cannot feed the card and leaves PSU fields out without a PSU', () => {
 		const weak = slot('psu', 'psu', 'Ostery', 'Basic 650', {
-			ratedW: 650, formFactor: 'ATX', efficiency: '80 PLUS Bronze', modular: 'none', connectors: { pin6: 0, pin8: 1, h12v2x6: 0, eps8: 1 }, atx3: false
+			ratedW: 650,
+			formFactor: 'ATX',
+			efficiency: '80 PLUS Bronze',
+			modular: 'none',
+			connectors: { pin6: 0, pin8: 1, h12v2x6: 0, eps8: 1 },
+			atx3: false
 		});
 		expect(powerBudget(withSlots(weak)).gpu?.connectorsOk).toBe(false);
 		const noPsu = powerBudget([cpuAm5, cooler150, boardAm5Atx, ddr5Kit, nvmeGen4, gpu2x8, caseAtx]);

@@ -17,7 +17,7 @@ import {
 } from '$lib/domain/region';
 
 /*
- * Sources (CHECK-VALUES.md):
+ * Sources (docs/sources.md):
  * 10c ECB euro foreign exchange reference rates, 2 January 2024 (V).
  * 10d worked conversions, half-even (D), and €100.00 net × 1.19 → €119.00 (D).
  * 11a EU standard VAT: DE 19 %, HU 27 % (EC "VAT rates applied in the Member States"; V2).
@@ -75,7 +75,7 @@ const JP_NO_TAX: RegionPricing = {
 };
 
 describe('tax in basis points, integers only', () => {
-	it('€100.00 net + 19 % DE VAT = €119.00 (CHECK-VALUES 10d, D; DE 19 % 11a, V2)', () => {
+	it('€100.00 net + 19 % DE VAT = €119.00 (docs/sources.md 10d, D; DE 19 % 11a, V2)', () => {
 		// 10000 × (10000 + 1900) / 10000 = 11900 minor units
 		expect(addTax(eur(10000), 1900)).toEqual(eur(11900));
 	});
@@ -157,12 +157,15 @@ describe('conversion through EUR, one half-even rounding at the minor unit', () 
 		['JPY', 77838, '¥77,838'],
 		['GBP', 43322, '£433.22']
 	];
-	it.each(cases)('€499.99 → %s (CHECK-VALUES 10d, D), same as dinero convertAt', (code, minor) => {
-		expect(convertThroughEur(eur(49999), code, ECB_2024_01_02)).toEqual(money(minor, code));
-		expect(convertAt(eur(49999), code, ECB_2024_01_02[code]?.ratePerEur ?? '')).toEqual(
-			money(minor, code)
-		);
-	});
+	it.each(cases)(
+		'€499.99 → %s (docs/sources.md 10d, D), same as dinero convertAt',
+		(code, minor) => {
+			expect(convertThroughEur(eur(49999), code, ECB_2024_01_02)).toEqual(money(minor, code));
+			expect(convertAt(eur(49999), code, ECB_2024_01_02[code]?.ratePerEur ?? '')).toEqual(
+				money(minor, code)
+			);
+		}
+	);
 
 	it('US$547.79 → GBP: 547.79 × 0.86645 / 1.0956 = 433.21709… → £433.22 (D)', () => {
 		expect(convertThroughEur(money(54779, 'USD'), 'GBP', ECB_2024_01_02)).toEqual(

@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { isKnownHost, linksIn, reviewFlags, STALE_QUOTE_DAYS } from '../../../src/lib/domain/review-flags';
+import {
+	isKnownHost,
+	linksIn,
+	reviewFlags,
+	STALE_QUOTE_DAYS
+} from '../../../src/lib/domain/review-flags';
 import type { ReviewFlagInput } from '../../../src/lib/domain/review-flags';
 
 /*
@@ -16,7 +21,9 @@ function input(overrides: Partial<ReviewFlagInput> = {}): ReviewFlagInput {
 		buildNotesMd: 'Seat the CPU by the triangle. Update firmware first.',
 		walkthroughUrl: null,
 		knownHosts: ['harbor.example', 'slotwise.test'],
-		quotes: [{ slotLabel: 'CPU', observedAt: '2026-11-25T00:00:00Z', url: 'https://harbor.example/cpu' }],
+		quotes: [
+			{ slotLabel: 'CPU', observedAt: '2026-11-25T00:00:00Z', url: 'https://harbor.example/cpu' }
+		],
 		conflicts: [],
 		now: NOW,
 		...overrides
@@ -29,27 +36,38 @@ describe('review flags', () => {
 	});
 
 	it('flags a missing disclosure and a declared one that says nothing', () => {
-		expect(reviewFlags(input({ disclosure: { kind: null, note: null } })).map((f) => f.kind)).toEqual(['disclosure']);
+		expect(
+			reviewFlags(input({ disclosure: { kind: null, note: null } })).map((f) => f.kind)
+		).toEqual(['disclosure']);
 		const sponsored = reviewFlags(input({ disclosure: { kind: 'sponsored', note: '  ' } }));
 		expect(sponsored).toHaveLength(1);
 		expect(sponsored[0]?.message).toContain('which parts were provided');
-		expect(reviewFlags(input({ disclosure: { kind: 'affiliate', note: 'Store links earn a commission.' } }))).toEqual([]);
+		expect(
+			reviewFlags(
+				input({ disclosure: { kind: 'affiliate', note: 'Store links earn a commission.' } })
+			)
+		).toEqual([]);
 	});
 
 	it('flags "none" when links carry referral parameters or the text speaks of sponsorship', () => {
-		const referral = reviewFlags(input({ buildNotesMd: 'Buy it [here](https://harbor.example/cpu?ref=ada42).' }));
+		const referral = reviewFlags(
+			input({ buildNotesMd: 'Buy it [here](https://harbor.example/cpu?ref=ada42).' })
+		);
 		expect(referral.map((f) => f.kind)).toEqual(['disclosure']);
 		expect(referral[0]?.message).toContain('referral parameter');
 		const words = reviewFlags(input({ buildNotesMd: 'The case was sponsored by the maker.' }));
 		expect(words.map((f) => f.kind)).toEqual(['disclosure']);
 		// A query string without a referral key is fine.
-		expect(reviewFlags(input({ buildNotesMd: 'See https://harbor.example/cpu?color=black.' }))).toEqual([]);
+		expect(
+			reviewFlags(input({ buildNotesMd: 'See https://harbor.example/cpu?color=black.' }))
+		).toEqual([]);
 	});
 
 	it('flags links to unknown hosts once per host, subdomains of known hosts pass', () => {
 		const flags = reviewFlags(
 			input({
-				buildNotesMd: 'Guide: https://odd-shop.example/a and https://odd-shop.example/b, also <https://shop.harbor.example/x>.',
+				buildNotesMd:
+					'Guide: https://odd-shop.example/a and https://odd-shop.example/b, also <https://shop.harbor.example/x>.',
 				walkthroughUrl: 'https://clips.example/walk'
 			})
 		);
@@ -62,11 +80,9 @@ describe('review flags', () => {
 	});
 
 	it('finds links in Markdown without trailing punctuation', () => {
-		expect(linksIn('One [a](https://a.example/x). Two <https://b.example/y>, three https://c.example/z!')).toEqual([
-			'https://a.example/x',
-			'https://b.example/y',
-			'https://c.example/z'
-		]);
+		expect(
+			linksIn('One [a](https://a.example/x). Two <https://b.example/y>, three https://c.example/z!')
+		).toEqual(['https://a.example/x', 'https://b.example/y', 'https://c.example/z']);
 	});
 
 	it(`flags quotes older than ${STALE_QUOTE_DAYS} days, not those exactly ${STALE_QUOTE_DAYS} days old`, () => {
@@ -78,11 +94,20 @@ describe('review flags', () => {
 				]
 			})
 		);
-		expect(flags).toEqual([{ kind: 'stale_quote', message: 'Board: the quoted price is 31 days old (more than 30).' }]);
+		expect(flags).toEqual([
+			{ kind: 'stale_quote', message: 'Board: the quoted price is 31 days old (more than 30).' }
+		]);
 	});
 
 	it('repeats each fit conflict as a flag', () => {
-		const flags = reviewFlags(input({ conflicts: [{ message: 'The CPU needs socket AM5; the board has LGA1700.' }] }));
-		expect(flags).toEqual([{ kind: 'fit_conflict', message: 'Fit conflict: The CPU needs socket AM5; the board has LGA1700.' }]);
+		const flags = reviewFlags(
+			input({ conflicts: [{ message: 'The CPU needs socket AM5; the board has LGA1700.' }] })
+		);
+		expect(flags).toEqual([
+			{
+				kind: 'fit_conflict',
+				message: 'Fit conflict: The CPU needs socket AM5; the board has LGA1700.'
+			}
+		]);
 	});
 });

@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { revisionDiff, type RevisionSnapshot, type SlotSnapshot } from '../../../src/lib/domain/revision-diff';
+import {
+	revisionDiff,
+	type RevisionSnapshot,
+	type SlotSnapshot
+} from '../../../src/lib/domain/revision-diff';
 
 function slot(label: string, over: Partial<SlotSnapshot> = {}): SlotSnapshot {
 	return {
@@ -16,7 +20,11 @@ function slot(label: string, over: Partial<SlotSnapshot> = {}): SlotSnapshot {
 const base: RevisionSnapshot = {
 	number: 1,
 	buildNotesMd: '## Firmware\n\nEnable the memory profile.\nUpdate the firmware.\n',
-	slots: [slot('Processor'), slot('Storage', { category: 'storage', pick: { id: 2, name: 'Kelp 1TB' } }), slot('Case fans', { category: 'fan', pick: { id: 3, name: 'Breeze 120' }, alternates: [] })]
+	slots: [
+		slot('Processor'),
+		slot('Storage', { category: 'storage', pick: { id: 2, name: 'Kelp 1TB' } }),
+		slot('Case fans', { category: 'fan', pick: { id: 3, name: 'Breeze 120' }, alternates: [] })
+	]
 };
 
 describe('revisionDiff', () => {
@@ -46,7 +54,12 @@ describe('revisionDiff', () => {
 				],
 				alternates: []
 			},
-			{ kind: 'changed', label: 'Storage', fields: [{ field: 'quantity', from: 1, to: 2 }], alternates: [] },
+			{
+				kind: 'changed',
+				label: 'Storage',
+				fields: [{ field: 'quantity', from: 1, to: 2 }],
+				alternates: []
+			},
 			{ kind: 'added', label: 'Graphics card', pick: 'Vanta 60', quantity: 1 },
 			{ kind: 'removed', label: 'Case fans', pick: 'Breeze 120', quantity: 1 }
 		]);
@@ -59,7 +72,13 @@ describe('revisionDiff', () => {
 			slots: [
 				slot('Processor', {
 					alternates: [
-						{ partId: 11, name: 'Arvo C6X', rank: 1, reasonTag: 'upgrade-path', note: 'More boost.' },
+						{
+							partId: 11,
+							name: 'Arvo C6X',
+							rank: 1,
+							reasonTag: 'upgrade-path',
+							note: 'More boost.'
+						},
 						{ partId: 10, name: 'Arvo C4', rank: 2, reasonTag: 'easier-to-find', note: '' }
 					]
 				}),
@@ -75,16 +94,28 @@ describe('revisionDiff', () => {
 				fields: [],
 				alternates: [
 					{ kind: 'added', name: 'Arvo C6X', details: [] },
-					{ kind: 'changed', name: 'Arvo C4', details: ['rank 1 → 2', 'reason lower-price → easier-to-find'] }
+					{
+						kind: 'changed',
+						name: 'Arvo C4',
+						details: ['rank 1 → 2', 'reason lower-price → easier-to-find']
+					}
 				]
 			}
 		]);
 		const removed = revisionDiff(next, base).slots[0];
-		expect(removed?.kind === 'changed' && removed.alternates).toContainEqual({ kind: 'removed', name: 'Arvo C6X', details: [] });
+		expect(removed?.kind === 'changed' && removed.alternates).toContainEqual({
+			kind: 'removed',
+			name: 'Arvo C6X',
+			details: []
+		});
 	});
 
 	it('diffs the build notes line by line', () => {
-		const next = { ...base, number: 2, buildNotesMd: '## Firmware\n\nEnable the memory profile.\nSet the fan curve.\n' };
+		const next = {
+			...base,
+			number: 2,
+			buildNotesMd: '## Firmware\n\nEnable the memory profile.\nSet the fan curve.\n'
+		};
 		const d = revisionDiff(base, next);
 		expect(d.notesChanged).toBe(true);
 		expect(d.notes).toEqual([

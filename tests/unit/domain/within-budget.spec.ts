@@ -11,7 +11,7 @@ import {
 /*
  * "Within budget" is an optimisation, not a measurement: there is no published value to
  * check it against. The expected answers are worked examples by hand from the design rule
- * (DESIGN.md "Computations" §8: no conflict, total ≤ budget, fewest slots changed from the
+ * (docs/architecture.md "Computations" §8: no conflict, total ≤ budget, fewest slots changed from the
  * current picks, ties by lower total; Slotwise's own last tie-break: preference order, see
  * preferenceOrder in within-budget.ts), and the branch and bound is checked against the brute-force
  * reference on random instances. Prices are invented minor units.
@@ -20,7 +20,14 @@ import {
 // Worked example: three slots, current total 300.00 + 500.00 + 100.00 = 900.00.
 const slots: BudgetSlot[] = [
 	{ key: 'cpu', current: { id: 'A', price: 30_000 }, alternates: [{ id: 'B', price: 25_000 }] },
-	{ key: 'gpu', current: { id: 'G1', price: 50_000 }, alternates: [{ id: 'G2', price: 40_000 }, { id: 'G3', price: 45_000 }] },
+	{
+		key: 'gpu',
+		current: { id: 'G1', price: 50_000 },
+		alternates: [
+			{ id: 'G2', price: 40_000 },
+			{ id: 'G3', price: 45_000 }
+		]
+	},
 	{ key: 'psu', current: { id: 'P1', price: 10_000 }, alternates: [{ id: 'P2', price: 8_000 }] }
 ];
 const pairs = (list: [string, string][]) => (a: OptionRef, b: OptionRef) =>
@@ -41,7 +48,14 @@ function swapIds(r: WithinBudgetResult): string[] {
 describe('within budget: worked examples by hand', () => {
 	it('keeps the current picks when they fit (a total equal to the budget is within it)', () => {
 		const r = both({ slots, budget: 90_000 });
-		expect(r).toMatchObject({ ok: true, changes: 0, total: 90_000, currentTotal: 90_000, swaps: [], choice: [0, 0, 0] });
+		expect(r).toMatchObject({
+			ok: true,
+			changes: 0,
+			total: 90_000,
+			currentTotal: 90_000,
+			swaps: [],
+			choice: [0, 0, 0]
+		});
 	});
 
 	it('one cent over: one change, the cheapest single swap (gpu G1 → G2, 800.00)', () => {
@@ -84,7 +98,8 @@ describe('within budget: worked examples by hand', () => {
 	it('the full check (a rule about three parts) rejects a candidate and the next best wins', () => {
 		// Say B + G2 + P1 overloads the supply (made-up three-part rule): the best 2-change
 		// answer B+G2 (750.00) is rejected; next is G2+P2 780.00.
-		const fullCheck = (picks: readonly OptionRef[]) => !(picks[0]!.id === 'B' && picks[1]!.id === 'G2' && picks[2]!.id === 'P1');
+		const fullCheck = (picks: readonly OptionRef[]) =>
+			!(picks[0]!.id === 'B' && picks[1]!.id === 'G2' && picks[2]!.id === 'P1');
 		const r = both({ slots, budget: 79_999, fullCheck });
 		expect(r).toMatchObject({ ok: true, changes: 2, total: 78_000 });
 		expect(swapIds(r)).toEqual(['gpu:G1→G2', 'psu:P1→P2']);
@@ -93,37 +108,92 @@ describe('within budget: worked examples by hand', () => {
 	it('explains a budget below the cheapest conflict-free total', () => {
 		// Cheapest of all: B + G2 + P2 = 730.00; budget 729.99.
 		const r = both({ slots, budget: 72_999, formatAmount: (m) => `$${(m / 100).toFixed(2)}` });
-		expect(r).toMatchObject({ ok: false, reason: 'over_budget', budget: 72_999, cheapestTotal: 73_000, shortfall: 1 });
-		expect(!r.ok && r.message).toBe('The cheapest combination without a conflict costs $730.00, $0.01 over the budget of $729.99.');
+		expect(r).toMatchObject({
+			ok: false,
+			reason: 'over_budget',
+			budget: 72_999,
+			cheapestTotal: 73_000,
+			shortfall: 1
+		});
+		expect(!r.ok && r.message).toBe(
+			'The cheapest combination without a conflict costs $730.00, $0.01 over the budget of $729.99.'
+		);
 		expect(!r.ok && r.cheapestSwaps.map((s) => s.to.id)).toEqual(['B', 'G2', 'P2']);
 	});
 
 	it('the explanation prices the cheapest combination that has no conflict', () => {
 		// G2 conflicts with both PSUs: cheapest conflict-free is B + G3 + P2 = 780.00.
-		const r = both({ slots, budget: 70_000, conflicts: pairs([['G2', 'P1'], ['G2', 'P2']]) });
-		expect(r).toMatchObject({ ok: false, reason: 'over_budget', cheapestTotal: 78_000, shortfall: 8_000 });
+		const r = both({
+			slots,
+			budget: 70_000,
+			conflicts: pairs([
+				['G2', 'P1'],
+				['G2', 'P2']
+			])
+		});
+		expect(r).toMatchObject({
+			ok: false,
+			reason: 'over_budget',
+			cheapestTotal: 78_000,
+			shortfall: 8_000
+		});
 	});
 
 	it('says so when no combination is free of conflicts, whatever the budget', () => {
-		const conflicts = pairs([['A', 'G1'], ['A', 'G2'], ['A', 'G3'], ['B', 'G1'], ['B', 'G2'], ['B', 'G3']]);
+		const conflicts = pairs([
+			['A', 'G1'],
+			['A', 'G2'],
+			['A', 'G3'],
+			['B', 'G1'],
+			['B', 'G2'],
+			['B', 'G3']
+		]);
 		const r = both({ slots, budget: 10_000_000, conflicts });
-		expect(r).toMatchObject({ ok: false, reason: 'no_conflict_free_combination', cheapestTotal: null, shortfall: null, cheapestSwaps: [] });
+		expect(r).toMatchObject({
+			ok: false,
+			reason: 'no_conflict_free_combination',
+			cheapestTotal: null,
+			shortfall: null,
+			cheapestSwaps: []
+		});
 		expect(!r.ok && r.message).toMatch(/No combination .* free of conflicts/);
 	});
 
 	it('a slot without alternates can only keep its part; no slots is an empty build at 0', () => {
-		const r = both({ slots: [{ key: 'os', current: { id: 'O', price: 12_000 }, alternates: [] }], budget: 11_999 });
-		expect(r).toMatchObject({ ok: false, reason: 'over_budget', cheapestTotal: 12_000, shortfall: 1 });
-		expect(both({ slots: [], budget: 0 })).toMatchObject({ ok: true, changes: 0, total: 0, swaps: [] });
+		const r = both({
+			slots: [{ key: 'os', current: { id: 'O', price: 12_000 }, alternates: [] }],
+			budget: 11_999
+		});
+		expect(r).toMatchObject({
+			ok: false,
+			reason: 'over_budget',
+			cheapestTotal: 12_000,
+			shortfall: 1
+		});
+		expect(both({ slots: [], budget: 0 })).toMatchObject({
+			ok: true,
+			changes: 0,
+			total: 0,
+			swaps: []
+		});
 	});
 
 	it('rejects prices and budgets that are not integer minor units, duplicate keys and oversized slots', () => {
 		expect(() => withinBudget({ slots, budget: 10.5 })).toThrow(RangeError);
 		expect(() => withinBudget({ slots, budget: -1 })).toThrow(RangeError);
-		expect(() => withinBudget({ slots: [{ ...slots[0]!, current: { id: 'A', price: 99.99 } }], budget: 1 })).toThrow('price of cpu current');
-		expect(() => withinBudget({ slots: [slots[0]!, slots[0]!], budget: 1 })).toThrow('two slots have the key "cpu"');
+		expect(() =>
+			withinBudget({ slots: [{ ...slots[0]!, current: { id: 'A', price: 99.99 } }], budget: 1 })
+		).toThrow('price of cpu current');
+		expect(() => withinBudget({ slots: [slots[0]!, slots[0]!], budget: 1 })).toThrow(
+			'two slots have the key "cpu"'
+		);
 		const many = Array.from({ length: 32 }, (_, i) => ({ id: i, price: 1 }));
-		expect(() => withinBudget({ slots: [{ key: 'x', current: { id: 'c', price: 1 }, alternates: many }], budget: 1 })).toThrow('more than 32 options');
+		expect(() =>
+			withinBudget({
+				slots: [{ key: 'x', current: { id: 'c', price: 1 }, alternates: many }],
+				budget: 1
+			})
+		).toThrow('more than 32 options');
 	});
 });
 
@@ -147,14 +217,19 @@ function randomInstance(rand: () => number): WithinBudgetInput {
 	const built: BudgetSlot[] = Array.from({ length: n }, (_, i) => ({
 		key: `slot-${i}`,
 		current: { id: `${i}.0`, price: price() },
-		alternates: Array.from({ length: int(0, 4) }, (_, j) => ({ id: `${i}.${j + 1}`, price: price() }))
+		alternates: Array.from({ length: int(0, 4) }, (_, j) => ({
+			id: `${i}.${j + 1}`,
+			price: price()
+		}))
 	}));
 	const conflictRate = [0, 0.1, 0.25, 0.5][int(0, 3)]!;
 	const conflicting = new Set<string>();
 	built.forEach((a, i) =>
 		built.forEach((b, j) => {
 			if (j <= i) return;
-			for (let x = 0; x <= a.alternates.length; x++) for (let y = 0; y <= b.alternates.length; y++) if (rand() < conflictRate) conflicting.add(`${i}.${x}|${j}.${y}`);
+			for (let x = 0; x <= a.alternates.length; x++)
+				for (let y = 0; y <= b.alternates.length; y++)
+					if (rand() < conflictRate) conflicting.add(`${i}.${x}|${j}.${y}`);
 		})
 	);
 	const currentTotal = built.reduce((t, s) => t + s.current.price, 0);
@@ -166,9 +241,12 @@ function randomInstance(rand: () => number): WithinBudgetInput {
 		slots: built,
 		budget,
 		conflicts: (a, b) => conflicting.has(`${a.slot}.${a.option}|${b.slot}.${b.option}`),
-		unusable: rand() < 0.3 ? (o) => (o.slot * 7 + o.option * 13 + unusableSeed) % 11 === 0 : undefined,
+		unusable:
+			rand() < 0.3 ? (o) => (o.slot * 7 + o.option * 13 + unusableSeed) % 11 === 0 : undefined,
 		// A deterministic stand-in for a rule about three or more parts: rejects some full combinations.
-		fullCheck: withFull ? (picks) => picks.reduce((h, p) => (h * 31 + p.option + 1) % 1009, fullSeed) % 5 !== 0 : undefined
+		fullCheck: withFull
+			? (picks) => picks.reduce((h, p) => (h * 31 + p.option + 1) % 1009, fullSeed) % 5 !== 0
+			: undefined
 	};
 }
 
@@ -201,14 +279,25 @@ describe('branch and bound against brute force (seeded random instances)', () =>
 			alternates: Array.from({ length: 5 }, (_, j) => ({ id: `${i}.${j + 1}`, price: 10_000 }))
 		}));
 		// The current part of every even slot conflicts with the current part of the next slot: six forced changes.
-		const conflicts = (a: OptionRef, b: OptionRef) => a.option === 0 && b.option === 0 && a.slot % 2 === 0 && b.slot === a.slot + 1;
+		const conflicts = (a: OptionRef, b: OptionRef) =>
+			a.option === 0 && b.option === 0 && a.slot % 2 === 0 && b.slot === a.slot + 1;
 		const r = withinBudget({ slots: flat, budget: 120_000, conflicts });
 		// Fewest changes: one per conflicting pair, the later slot (preference order keeps earlier
 		// slots) to its first alternate (equal prices keep the order given).
-		expect(r).toMatchObject({ ok: true, changes: 6, total: 120_000, choice: [0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1] });
+		expect(r).toMatchObject({
+			ok: true,
+			changes: 6,
+			total: 120_000,
+			choice: [0, 1, 0, 1, 0, 1, 0, 1, 0, 1, 0, 1]
+		});
 		expect(r.nodes).toBeLessThan(5_000);
 		const none = withinBudget({ slots: flat, budget: 119_999, conflicts });
-		expect(none).toMatchObject({ ok: false, reason: 'over_budget', cheapestTotal: 120_000, shortfall: 1 });
+		expect(none).toMatchObject({
+			ok: false,
+			reason: 'over_budget',
+			cheapestTotal: 120_000,
+			shortfall: 1
+		});
 		expect(none.nodes).toBeLessThan(50_000);
 	});
 
@@ -217,10 +306,17 @@ describe('branch and bound against brute force (seeded random instances)', () =>
 		const built: BudgetSlot[] = Array.from({ length: 7 }, (_, i) => ({
 			key: `s${i}`,
 			current: { id: `${i}.0`, price: 5_000 + Math.floor(rand() * 50_000) },
-			alternates: Array.from({ length: 5 }, (_, j) => ({ id: `${i}.${j + 1}`, price: 5_000 + Math.floor(rand() * 50_000) }))
+			alternates: Array.from({ length: 5 }, (_, j) => ({
+				id: `${i}.${j + 1}`,
+				price: 5_000 + Math.floor(rand() * 50_000)
+			}))
 		}));
 		const total = built.reduce((t, s) => t + s.current.price, 0);
-		const input: WithinBudgetInput = { slots: built, budget: Math.round(total * 0.8), conflicts: (a, b) => (a.option * 5 + b.option * 3 + a.slot + b.slot) % 9 === 0 };
+		const input: WithinBudgetInput = {
+			slots: built,
+			budget: Math.round(total * 0.8),
+			conflicts: (a, b) => (a.option * 5 + b.option * 3 + a.slot + b.slot) % 9 === 0
+		};
 		const bb = both(input);
 		const bf = bruteForce(input);
 		expect(bf.nodes).toBe(6 ** 7);

@@ -9,7 +9,8 @@ export function pagedHref(
 	return (page) => {
 		const params = new URLSearchParams();
 		for (const [key, value] of Object.entries(filters)) {
-			if (value === undefined || value === null || value === '' || value === defaults[key]) continue;
+			if (value === undefined || value === null || value === '' || value === defaults[key])
+				continue;
 			params.set(key, String(value));
 		}
 		if (page > 1) params.set('page', String(page));

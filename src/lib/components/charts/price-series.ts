@@ -119,15 +119,29 @@ function dateFormatter(withYear: boolean) {
 /** Charts for every currency in `input`, in the order currencies first appear. */
 export function priceCharts(input: SeriesInput[], size = CHART_SIZE): PriceChart[] {
 	const currencies = [...new Set(input.filter((s) => s.points.length > 0).map((s) => s.currency))];
-	return currencies.map((currency) => chartFor(currency, input.filter((s) => s.currency === currency), size));
+	return currencies.map((currency) =>
+		chartFor(
+			currency,
+			input.filter((s) => s.currency === currency),
+			size
+		)
+	);
 }
 
 function chartFor(currency: string, input: SeriesInput[], size: typeof CHART_SIZE): PriceChart {
-	const plot = { left: size.left, top: size.top, right: size.width - size.right, bottom: size.height - size.bottom };
+	const plot = {
+		left: size.left,
+		top: size.top,
+		right: size.width - size.right,
+		bottom: size.height - size.bottom
+	};
 	const scale = 10 ** minorUnitDigits(currency);
 	const sorted = input
 		.filter((s) => s.points.length > 0)
-		.map((s) => ({ ...s, points: [...s.points].sort((a, b) => a.observedAt.localeCompare(b.observedAt)) }));
+		.map((s) => ({
+			...s,
+			points: [...s.points].sort((a, b) => a.observedAt.localeCompare(b.observedAt))
+		}));
 	const all = sorted.flatMap((s) => s.points);
 	const times = all.map((p) => dayOf(p.observedAt));
 	const majors = all.map((p) => p.amountMinor / scale);
@@ -165,7 +179,11 @@ function chartFor(currency: string, input: SeriesInput[], size: typeof CHART_SIZ
 			priceLabel: formatMoney({ amountMinor: p.amountMinor, currency }),
 			dateLabel: pointDate.format(new Date(p.observedAt))
 		}));
-		const path = line<PlottedPoint>((p) => p.x, (p) => p.y).curve(curveStepAfter)(points) ?? '';
+		const path =
+			line<PlottedPoint>(
+				(p) => p.x,
+				(p) => p.y
+			).curve(curveStepAfter)(points) ?? '';
 		return {
 			label: `${s.regionName} · ${s.storeName}`,
 			shape: shape.name,
@@ -181,7 +199,10 @@ function chartFor(currency: string, input: SeriesInput[], size: typeof CHART_SIZ
 		width: size.width,
 		height: size.height,
 		plot,
-		xTicks: dateTicks(x.ticks(5), start, end).map((t) => ({ x: x(t), label: formatDate.format(t) })),
+		xTicks: dateTicks(x.ticks(5), start, end).map((t) => ({
+			x: x(t),
+			label: formatDate.format(t)
+		})),
 		// Only whole minor units are prices (no half yen): other ticks would repeat a label.
 		yTicks: y
 			.ticks(5)
@@ -224,7 +245,9 @@ function summarise(currency: string, series: PlottedSeries[]): string {
 	const lines = series.length === 1 ? '1 store' : `${series.length} stores`;
 	const count = points.length === 1 ? '1 observation' : `${points.length} observations`;
 	const span =
-		first.dateLabel === last.dateLabel ? `on ${first.dateLabel}` : `from ${first.dateLabel} to ${last.dateLabel}`;
+		first.dateLabel === last.dateLabel
+			? `on ${first.dateLabel}`
+			: `from ${first.dateLabel} to ${last.dateLabel}`;
 	const range =
 		lowest.amountMinor === highest.amountMinor
 			? `All at ${lowest.priceLabel}.`

@@ -51,6 +51,12 @@ export interface ImportProblemRow {
 }
 
 /** Messages for one field, and the ids that tie them to their control. */
-export function describedBy(id: string, issues: string[] | undefined, hintId?: string): string | undefined {
-	return [hintId, issues?.length ? `${id}-issues` : undefined].filter(Boolean).join(' ') || undefined;
+export function describedBy(
+	id: string,
+	issues: string[] | undefined,
+	hintId?: string
+): string | undefined {
+	return (
+		[hintId, issues?.length ? `${id}-issues` : undefined].filter(Boolean).join(' ') || undefined
+	);
 }

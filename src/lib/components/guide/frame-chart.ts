@@ -32,7 +32,8 @@ export interface FrameChart {
 	summary: string;
 }
 
-const fps = (n: number) => n.toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+const fps = (n: number) =>
+	n.toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 
 export function resultLabel(r: FrameResultView): string {
 	return [r.workload, r.resolution.replace('x', '×'), r.preset].filter(Boolean).join(' · ');
@@ -40,7 +41,10 @@ export function resultLabel(r: FrameResultView): string {
 
 export function frameChart(results: readonly FrameResultView[]): FrameChart {
 	const max = Math.max(1, ...results.map((r) => Math.max(r.averageFps, r.low1Fps ?? 0)));
-	const x = scaleLinear().domain([0, max]).nice().range([0, CHART_WIDTH - VALUE_ROOM]);
+	const x = scaleLinear()
+		.domain([0, max])
+		.nice()
+		.range([0, CHART_WIDTH - VALUE_ROOM]);
 	const rowH = LABEL_H + BAR_H + ROW_GAP;
 	const bars = results.map((r, i) => {
 		const y = i * rowH;
@@ -63,7 +67,12 @@ export function frameChart(results: readonly FrameResultView[]): FrameChart {
 		bars,
 		ticks: x.ticks(5).map((t) => ({ x: x(t), label: String(t) })),
 		axisY,
-		summary: results.map((r) => `${resultLabel(r)}: ${fps(r.averageFps)} FPS average${r.low1Fps !== null ? `, ${fps(r.low1Fps)} 1 % low` : ''}`).join('; ')
+		summary: results
+			.map(
+				(r) =>
+					`${resultLabel(r)}: ${fps(r.averageFps)} FPS average${r.low1Fps !== null ? `, ${fps(r.low1Fps)} 1 % low` : ''}`
+			)
+			.join('; ')
 	};
 }
 

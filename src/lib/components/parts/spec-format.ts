@@ -1,5 +1,5 @@
 /*
- * Spec fields as text for people. Field names end in their unit (DESIGN.md "Spec
+ * Spec fields as text for people. Field names end in their unit (docs/architecture.md "Spec
  * fields"), so the unit shown comes from the name: lengthMm → "mm", boardPowerW → "W",
  * speedMts → "MT/s". Pure functions: the pages and tests share them.
  */
@@ -77,7 +77,12 @@ const STORAGE_FORM_FACTOR_NAMES: Record<string, string> = {
 	'3.5in': '3.5-inch'
 };
 
-const VALUE_NAMES: Record<string, string> = { nvme: 'NVMe', sata: 'SATA', air: 'Air', liquid: 'Liquid' };
+const VALUE_NAMES: Record<string, string> = {
+	nvme: 'NVMe',
+	sata: 'SATA',
+	air: 'Air',
+	liquid: 'Liquid'
+};
 
 /** The unit suffix a field name ends in, if any. */
 function unitSuffix(field: string): [suffix: string, unit: string] | null {
@@ -136,7 +141,8 @@ export function formatSpecValue(field: string, value: unknown): string {
 	if (field === 'm2Slots' && Array.isArray(value)) {
 		return value.length > 0 ? value.map(m2SlotText).join('; ') : 'none';
 	}
-	if (Array.isArray(value)) return value.length > 0 ? value.map((v) => formatSpecValue(field, v)).join(', ') : 'none';
+	if (Array.isArray(value))
+		return value.length > 0 ? value.map((v) => formatSpecValue(field, v)).join(', ') : 'none';
 	if (typeof value === 'object') return connectorsText(value as Record<string, unknown>);
 	const text = String(value);
 	return STORAGE_FORM_FACTOR_NAMES[text] ?? VALUE_NAMES[text] ?? text;
@@ -175,5 +181,9 @@ const KEY_FIELDS: Record<PartCategory, string[]> = {
 export function keySpecs(category: PartCategory, specs: Record<string, unknown>): SpecRow[] {
 	return (KEY_FIELDS[category] ?? [])
 		.filter((field) => specs[field] !== undefined)
-		.map((field) => ({ field, label: specLabel(field), value: formatSpecValue(field, specs[field]) }));
+		.map((field) => ({
+			field,
+			label: specLabel(field),
+			value: formatSpecValue(field, specs[field])
+		}));
 }

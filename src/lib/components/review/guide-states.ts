@@ -1,4 +1,4 @@
-/** Guide states as editors and authors read them (DESIGN.md's words). */
+/** Guide states as editors and authors read them (docs/architecture.md's words). */
 export const GUIDE_STATE_LABELS: Record<string, string> = {
 	draft: 'Draft',
 	in_review: 'In review',

@@ -11,7 +11,12 @@
  */
 import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
-import { syncApplyInput, syncUndoInput, withinBudgetApplyInput, withinBudgetInput } from '$lib/schemas/build-sync';
+import {
+	syncApplyInput,
+	syncUndoInput,
+	withinBudgetApplyInput,
+	withinBudgetInput
+} from '$lib/schemas/build-sync';
 import { requireUser } from '$lib/server/auth/guards';
 import * as budget from '$lib/server/services/build-budget';
 import type { BudgetNoFit } from '$lib/server/services/build-budget';
@@ -22,7 +27,15 @@ import { invalid, notFound as notFoundAnswer, readJson, stale as staleAnswer } f
 const notFound = () => notFoundAnswer('Build not found');
 const stale = (current: unknown) => staleAnswer(CHANGED_ELSEWHERE, current);
 const noFit = (n: BudgetNoFit) =>
-	json({ message: n.reason, code: n.code, budget: n.budget, ...(n.cheapestTotal ? { cheapestTotal: n.cheapestTotal } : {}) }, { status: 422 });
+	json(
+		{
+			message: n.reason,
+			code: n.code,
+			budget: n.budget,
+			...(n.cheapestTotal ? { cheapestTotal: n.cheapestTotal } : {})
+		},
+		{ status: 422 }
+	);
 
 function buildId(event: RequestEvent): number {
 	return Number(event.params.id);
@@ -36,7 +49,13 @@ export async function getSyncPlan(event: RequestEvent): Promise<Response> {
 		case 'not_found':
 			return notFound();
 		case 'invalid':
-			return json({ message: outcome.issues._form?.[0] ?? 'This build cannot be synced.', issues: outcome.issues }, { status: 422 });
+			return json(
+				{
+					message: outcome.issues._form?.[0] ?? 'This build cannot be synced.',
+					issues: outcome.issues
+				},
+				{ status: 422 }
+			);
 		default:
 			return json(outcome);
 	}
@@ -93,7 +112,12 @@ export async function postApplyWithinBudget(event: RequestEvent): Promise<Respon
 	const user = requireUser();
 	const input = await readJson(event.request, withinBudgetApplyInput);
 	if (!input.ok) return input.response;
-	const outcome = await budget.applyWithinBudget(user.id, buildId(event), input.data.budget, input.data.version);
+	const outcome = await budget.applyWithinBudget(
+		user.id,
+		buildId(event),
+		input.data.budget,
+		input.data.version
+	);
 	switch (outcome.kind) {
 		case 'not_found':
 			return notFound();

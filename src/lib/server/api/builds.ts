@@ -7,7 +7,13 @@
  */
 import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
-import { addSlotInput, buildQuery, removeSlotInput, updateBuildInput, updateSlotInput } from '$lib/schemas/build';
+import {
+	addSlotInput,
+	buildQuery,
+	removeSlotInput,
+	updateBuildInput,
+	updateSlotInput
+} from '$lib/schemas/build';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as builds from '$lib/server/services/builds';
@@ -36,7 +42,11 @@ function answer(outcome: MutationOutcome): Response {
 }
 
 /** Parses ?key= and ?region=; an unknown region is a 400, not a silent fallback. */
-function queryOf(url: URL): { ok: true; value: { shareToken?: string; regionCode?: string } } | { ok: false; response: Response } {
+function queryOf(
+	url: URL
+):
+	| { ok: true; value: { shareToken?: string; regionCode?: string } }
+	| { ok: false; response: Response } {
 	const query = buildQuery.safeParse(Object.fromEntries(url.searchParams));
 	if (!query.success) return { ok: false, response: invalid(fieldIssues(query.error)) };
 	return { ok: true, value: { shareToken: query.data.key, regionCode: query.data.region } };
@@ -54,13 +64,21 @@ export async function forkGuide({ params, request }: RequestEvent): Promise<Resp
 		} catch {
 			return json({ message: 'The body is not valid JSON.' }, { status: 400 });
 		}
-		if (typeof value !== 'object' || value === null || Array.isArray(value) || Object.keys(value).length > 0) {
+		if (
+			typeof value !== 'object' ||
+			value === null ||
+			Array.isArray(value) ||
+			Object.keys(value).length > 0
+		) {
 			return invalid({ _form: ['Send an empty JSON object: a fork takes no fields.'] });
 		}
 	}
 	const outcome = await builds.fork(user.id, params.slug ?? '');
 	if (outcome.kind === 'not_found') return json({ message: 'Guide not found' }, { status: 404 });
-	return json({ id: outcome.id }, { status: 201, headers: { location: `/api/v1/builds/${outcome.id}` } });
+	return json(
+		{ id: outcome.id },
+		{ status: 201, headers: { location: `/api/v1/builds/${outcome.id}` } }
+	);
 }
 
 /** GET /api/v1/builds/[id]?region=&key= → the build (priced in ?region= when given) */
@@ -70,7 +88,8 @@ export async function getBuild({ params, url }: RequestEvent): Promise<Response>
 	if (!query.ok) return query.response;
 	const view = await builds.getBuild({ id: user.id }, idOf(params.id), query.value);
 	if (!view) return notFound();
-	if (query.value.regionCode && view.region.code !== query.value.regionCode) return invalid({ region: ['Choose a region from the list.'] });
+	if (query.value.regionCode && view.region.code !== query.value.regionCode)
+		return invalid({ region: ['Choose a region from the list.'] });
 	return json(view);
 }
 
@@ -93,7 +112,9 @@ export async function patchSlot({ params, request }: RequestEvent): Promise<Resp
 	const input = await readJson(request, updateSlotInput);
 	if (!input.ok) return input.response;
 	const { version, ...patch } = input.data;
-	return answer(await builds.updateSlot(user.id, idOf(params.id), idOf(params.slotId), patch, version));
+	return answer(
+		await builds.updateSlot(user.id, idOf(params.id), idOf(params.slotId), patch, version)
+	);
 }
 
 /** POST /api/v1/builds/[id]/slots { version, category, label, partId, quantity } → 201 build */
@@ -113,7 +134,9 @@ export async function deleteSlot({ params, request }: RequestEvent): Promise<Res
 	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
 	const input = await readJson(request, removeSlotInput);
 	if (!input.ok) return input.response;
-	return answer(await builds.removeSlot(user.id, idOf(params.id), idOf(params.slotId), input.data.version));
+	return answer(
+		await builds.removeSlot(user.id, idOf(params.id), idOf(params.slotId), input.data.version)
+	);
 }
 
 /**

@@ -19,7 +19,10 @@ export async function createGuide({ request }: RequestEvent): Promise<Response> 
 	if (!input.ok) return input.response;
 	const outcome = await drafts.createGuide(user.id, input.data);
 	if (outcome.kind === 'invalid') return invalid(outcome.issues);
-	return json({ slug: outcome.slug, version: outcome.version }, { status: 201, headers: { location: `/api/v1/guides/${outcome.slug}/draft` } });
+	return json(
+		{ slug: outcome.slug, version: outcome.version },
+		{ status: 201, headers: { location: `/api/v1/guides/${outcome.slug}/draft` } }
+	);
 }
 
 /** GET /api/v1/guides/[slug]/draft → the working copy with its version */
@@ -44,7 +47,13 @@ export async function saveDraft({ params, request }: RequestEvent): Promise<Resp
 		case 'invalid':
 			return invalid(outcome.issues);
 		case 'conflict':
-			return json({ message: 'This guide was changed elsewhere since you opened it.', current: outcome.current }, { status: 409 });
+			return json(
+				{
+					message: 'This guide was changed elsewhere since you opened it.',
+					current: outcome.current
+				},
+				{ status: 409 }
+			);
 		case 'saved':
 			return json(outcome.draft);
 	}
@@ -56,14 +65,22 @@ export async function submitDraft({ params, request, url }: RequestEvent): Promi
 	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
 	const input = await readJson(request, submitInput);
 	if (!input.ok) return input.response;
-	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version, { guidesUrl: new URL('/my/guides', url.origin).href });
+	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version, {
+		guidesUrl: new URL('/my/guides', url.origin).href
+	});
 	switch (outcome.kind) {
 		case 'not_found':
 			return notFound();
 		case 'invalid':
 			return invalid(outcome.issues);
 		case 'conflict':
-			return json({ message: 'This guide was changed elsewhere since you opened it.', current: outcome.current }, { status: 409 });
+			return json(
+				{
+					message: 'This guide was changed elsewhere since you opened it.',
+					current: outcome.current
+				},
+				{ status: 409 }
+			);
 		case 'submitted':
 			return json(outcome.draft);
 	}

@@ -9,21 +9,29 @@ import { fieldIssues } from '$lib/schemas/issues';
 export type Read<T> = { ok: true; data: T } | { ok: false; response: Response };
 
 /** The request's JSON body checked against `schema`: its data, or the 400 to send back. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<Read<z.output<S>>> {
+export async function readJson<S extends z.ZodType>(
+	request: Request,
+	schema: S
+): Promise<Read<z.output<S>>> {
 	let value: unknown;
 	try {
 		value = await request.json();
 	} catch {
-		return { ok: false, response: json({ message: 'The body is not valid JSON.' }, { status: 400 }) };
+		return {
+			ok: false,
+			response: json({ message: 'The body is not valid JSON.' }, { status: 400 })
+		};
 	}
 	const parsed = schema.safeParse(value);
 	if (!parsed.success) return { ok: false, response: invalid(fieldIssues(parsed.error)) };
 	return { ok: true, data: parsed.data };
 }
 
-export const invalid = (issues: Record<string, string[]>) => json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
+export const invalid = (issues: Record<string, string[]>) =>
+	json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
 
 export const notFound = (message: string) => json({ message }, { status: 404 });
 
 /** 409: someone changed it since the client's `version`; `current` is what is stored now. */
-export const stale = (message: string, current: unknown) => json({ message, current }, { status: 409 });
+export const stale = (message: string, current: unknown) =>
+	json({ message, current }, { status: 409 });

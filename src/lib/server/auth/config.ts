@@ -82,7 +82,8 @@ export const authConfig: SvelteKitAuthConfig = {
 				token.authAt = now;
 			}
 			if (!token.uid || typeof token.sv !== 'number') return null;
-			if (typeof token.authAt !== 'number' || now - token.authAt > SESSION_ABSOLUTE_SECONDS) return null;
+			if (typeof token.authAt !== 'number' || now - token.authAt > SESSION_ABSOLUTE_SECONDS)
+				return null;
 			const current = await accounts.sessionUser(token.uid, token.sv);
 			if (!current) return null;
 			token.role = current.role;

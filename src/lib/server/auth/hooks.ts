@@ -9,7 +9,12 @@ import type { Handle } from '@sveltejs/kit';
  * open: the session read, the sign-in link callback and Auth.js's error page. Sign-in,
  * sign-up and sign-out go through our form actions, where validation and rate limits run.
  */
-const OPEN_AUTH_PATHS = [/^\/auth\/session$/, /^\/auth\/callback\/nodemailer$/, /^\/auth\/error$/, /^\/auth\/verify-request$/];
+const OPEN_AUTH_PATHS = [
+	/^\/auth\/session$/,
+	/^\/auth\/callback\/nodemailer$/,
+	/^\/auth\/error$/,
+	/^\/auth\/verify-request$/
+];
 
 export const closeAuthEndpoints: Handle = ({ event, resolve }) => {
 	const { pathname } = event.url;
@@ -25,7 +30,13 @@ export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	const session = await event.locals.auth();
 	const user = session?.user;
-	if (user?.id) event.locals.user = { id: user.id, email: user.email, name: user.name ?? null, role: user.role };
+	if (user?.id)
+		event.locals.user = {
+			id: user.id,
+			email: user.email,
+			name: user.name ?? null,
+			role: user.role
+		};
 	return resolve(event);
 };
 
@@ -54,7 +65,10 @@ export const guardAreas: Handle = ({ event, resolve }) => {
 	if (area) {
 		if (!user) {
 			if (event.request.method !== 'GET') error(401, 'Sign in first');
-			redirect(303, `/signin?redirectTo=${encodeURIComponent(event.url.pathname + event.url.search)}`);
+			redirect(
+				303,
+				`/signin?redirectTo=${encodeURIComponent(event.url.pathname + event.url.search)}`
+			);
 		}
 		const allowed = user.role === 'admin' || AREA_ROLES[area].includes(user.role);
 		if (!allowed) error(403, 'You do not have access to this page');
@@ -75,7 +89,10 @@ const LARGE_BODY_ROUTES = [/^\/\(editor\)\/editor\/parts\/import$/];
  */
 export const capBodies: Handle = ({ event, resolve }) => {
 	const length = Number(event.request.headers.get('content-length') ?? 0);
-	if (length > DEFAULT_BODY_LIMIT_BYTES && !LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))) {
+	if (
+		length > DEFAULT_BODY_LIMIT_BYTES &&
+		!LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))
+	) {
 		return new Response('Payload too large', { status: 413 });
 	}
 	return resolve(event);
@@ -89,7 +106,10 @@ export const jsonOnlyApi: Handle = ({ event, resolve }) => {
 	if (event.url.pathname.startsWith('/api/') && BODY_METHODS.has(event.request.method)) {
 		const type = event.request.headers.get('content-type') ?? '';
 		if (!/^application\/json\b/i.test(type)) {
-			return json({ message: 'Send a JSON body (Content-Type: application/json).' }, { status: 415 });
+			return json(
+				{ message: 'Send a JSON body (Content-Type: application/json).' },
+				{ status: 415 }
+			);
 		}
 	}
 	return resolve(event);

@@ -1,6 +1,6 @@
 /*
  * Password hashing with argon2id at the OWASP Password Storage Cheat Sheet minimum
- * (m = 19 MiB, t = 2, p = 1; CHECK-VALUES 13b). Relative imports only: the seeders use it.
+ * (m = 19 MiB, t = 2, p = 1; docs/sources.md 13b). Relative imports only: the seeders use it.
  */
 import { hash, verify } from '@node-rs/argon2';
 

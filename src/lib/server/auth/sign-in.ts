@@ -8,7 +8,11 @@ import { CredentialsSignin } from '@auth/core/errors';
 import type { RequestEvent } from '@sveltejs/kit';
 import { authConfig } from './config';
 
-async function callAuth(event: RequestEvent, path: string, fields: Record<string, string>): Promise<string> {
+async function callAuth(
+	event: RequestEvent,
+	path: string,
+	fields: Record<string, string>
+): Promise<string> {
 	const headers = new Headers({ 'content-type': 'application/x-www-form-urlencoded' });
 	const cookie = event.request.headers.get('cookie');
 	if (cookie) headers.set('cookie', cookie);
@@ -29,9 +33,17 @@ function failed(redirectUrl: string): boolean {
 }
 
 /** Signs in with e-mail and password; false when Auth.js refused the credentials. */
-export async function signInWithPassword(event: RequestEvent, email: string, password: string): Promise<boolean> {
+export async function signInWithPassword(
+	event: RequestEvent,
+	email: string,
+	password: string
+): Promise<boolean> {
 	try {
-		const target = await callAuth(event, 'callback/credentials', { email, password, callbackUrl: '/' });
+		const target = await callAuth(event, 'callback/credentials', {
+			email,
+			password,
+			callbackUrl: '/'
+		});
 		return !failed(target);
 	} catch (e) {
 		// In raw mode Auth.js throws refused credentials instead of redirecting.
@@ -41,7 +53,11 @@ export async function signInWithPassword(event: RequestEvent, email: string, pas
 }
 
 /** Mails a single-use sign-in link; false when Auth.js could not send it. */
-export async function sendSignInLink(event: RequestEvent, email: string, redirectTo: string): Promise<boolean> {
+export async function sendSignInLink(
+	event: RequestEvent,
+	email: string,
+	redirectTo: string
+): Promise<boolean> {
 	const target = await callAuth(event, 'signin/nodemailer', { email, callbackUrl: redirectTo });
 	return !failed(target);
 }

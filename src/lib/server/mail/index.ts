@@ -2,7 +2,7 @@
  * The one way the app sends e-mail. Relative imports and plain process.env only (see
  * transport.ts), so scripts can send too.
  *
- * Rules from SECURITY-CHECKLIST.md §8: exactly one recipient per message, passed as an
+ * Rules from docs/security.md §8: exactly one recipient per message, passed as an
  * address object so nodemailer never parses a user-typed string into a list; the address
  * must pass the app-wide `emailAddress` schema; the subject loses any CR/LF; the only
  * headers are the ones we set, and extra headers (List-Unsubscribe and the like) are
@@ -70,11 +70,13 @@ function checkedHeaders(headers: Record<string, string>): Record<string, string>
 
 /** One line: CR/LF (and other control characters) become spaces. */
 export function oneLineSubject(subject: string): string {
-	return subject
-		// eslint-disable-next-line no-control-regex
-		.replace(/[\u0000-\u001f\u007f\u0085\u2028\u2029]+/g, ' ')
-		.replace(/ {2,}/g, ' ')
-		.trim();
+	return (
+		subject
+			// eslint-disable-next-line no-control-regex
+			.replace(/[\u0000-\u001f\u007f\u0085\u2028\u2029]+/g, ' ')
+			.replace(/ {2,}/g, ' ')
+			.trim()
+	);
 }
 
 /**

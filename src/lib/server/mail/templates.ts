@@ -3,7 +3,7 @@
  * transport, no env, so tests and the mailer share them.
  *
  * Tone: calm, short, plain language; every message says why the person got it and what
- * to do if it was not them. Subjects are fixed wording, never user input (SECURITY-CHECKLIST
+ * to do if it was not them. Subjects are fixed wording, never user input (docs/security.md
  * §8). Names and editor notes go in the body only, escaped for HTML. Links are app-built
  * URLs; anything but http(s) is refused, so a bad call cannot produce a javascript: link.
  */
@@ -284,7 +284,13 @@ export function accountDisabled({ note }: { note?: string | null } = {}): MailTe
 }
 
 /** Sent to the new address: confirming moves the account there. */
-export function confirmEmailChange({ url, minutes }: { url: string; minutes: number }): MailTemplate {
+export function confirmEmailChange({
+	url,
+	minutes
+}: {
+	url: string;
+	minutes: number;
+}): MailTemplate {
 	return render({
 		subject: 'Confirm your new e-mail address for Slotwise',
 		greeting: 'Hello,',
@@ -311,7 +317,17 @@ export function emailChangeRequested({ resetUrl }: { resetUrl: string }): MailTe
 }
 
 /** After an author submits a revision: it is in the review queue. */
-export function revisionSubmitted({ name, title, revision, url }: { name: string; title: string; revision: number; url: string }): MailTemplate {
+export function revisionSubmitted({
+	name,
+	title,
+	revision,
+	url
+}: {
+	name: string;
+	title: string;
+	revision: number;
+	url: string;
+}): MailTemplate {
 	return render({
 		subject: 'Your guide is in the review queue',
 		greeting: greetingFor(name),
@@ -394,8 +410,13 @@ export function guideRevisionForBuilds({
 				? `Your build "${builds[0]?.title ?? ''}" is still on the revision you started from. Open it to see what changed and take the changes you want, slot by slot. Nothing changes in your build until you do.`
 				: `${builds.length} of your builds started from this guide. Open each one to see what changed and take the changes you want, slot by slot. Nothing changes in your builds until you do.`
 		],
-		actions: builds.map((b) => ({ label: one ? 'Open your build' : `Open "${b.title}"`, url: b.url })),
-		after: ['To stop these e-mails for a build, open it and turn off the new-revision e-mail in its settings.'],
+		actions: builds.map((b) => ({
+			label: one ? 'Open your build' : `Open "${b.title}"`,
+			url: b.url
+		})),
+		after: [
+			'To stop these e-mails for a build, open it and turn off the new-revision e-mail in its settings.'
+		],
 		why: 'You got this e-mail because you have a build on Slotwise that started from this guide.'
 	});
 }

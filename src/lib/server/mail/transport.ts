@@ -47,7 +47,7 @@ export function transportOptions(config: MailConfig): SMTPTransport.Options {
 		secure: config.secure,
 		auth: config.user ? { user: config.user, pass: config.password ?? '' } : undefined,
 		// Messages never read local files or fetch URLs for content or attachments
-		// (SECURITY-CHECKLIST §8): a path or URL that slips into a message stays text.
+		// (docs/security.md §8): a path or URL that slips into a message stays text.
 		disableFileAccess: true,
 		disableUrlAccess: true,
 		// nodemailer's defaults (2 min connect, 10 min socket) would hold a sign-in request

@@ -45,14 +45,24 @@ async function issueToken(
 ) {
 	const token = randomBytes(32).toString('base64url');
 	await EmailToken.create(
-		{ userId, purpose, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + minutes * MINUTE_MS), newEmail },
+		{
+			userId,
+			purpose,
+			tokenHash: hashToken(token),
+			expiresAt: new Date(Date.now() + minutes * MINUTE_MS),
+			newEmail
+		},
 		{ transaction }
 	);
 	return token;
 }
 
 /** Marks a token used and returns it, or null when unknown, used or expired. */
-async function redeem(token: string, purpose: EmailTokenPurpose, transaction: Transaction): Promise<EmailToken | null> {
+async function redeem(
+	token: string,
+	purpose: EmailTokenPurpose,
+	transaction: Transaction
+): Promise<EmailToken | null> {
 	const row = await EmailToken.findOne({
 		where: { tokenHash: hashToken(token), purpose },
 		lock: transaction.LOCK.UPDATE,
@@ -64,7 +74,11 @@ async function redeem(token: string, purpose: EmailTokenPurpose, transaction: Tr
 }
 
 /** The user id of a redeemed token, or null. */
-async function redeemToken(token: string, purpose: EmailTokenPurpose, transaction: Transaction): Promise<string | null> {
+async function redeemToken(
+	token: string,
+	purpose: EmailTokenPurpose,
+	transaction: Transaction
+): Promise<string | null> {
 	return (await redeem(token, purpose, transaction))?.userId ?? null;
 }
 
@@ -74,7 +88,10 @@ export type SignUpOutcome = { kind: 'ok' };
  * Creates an unverified reader account and mails a verification link. When the address is
  * taken, the owner gets a note instead and the caller sees the same outcome.
  */
-export async function signUp(input: { name: string; email: string; password: string }, origin: string): Promise<SignUpOutcome> {
+export async function signUp(
+	input: { name: string; email: string; password: string },
+	origin: string
+): Promise<SignUpOutcome> {
 	const existing = await User.findOne({ where: { email: input.email } });
 	if (existing) {
 		const message = templates.signUpWithExistingEmail({
@@ -92,7 +109,10 @@ export async function signUp(input: { name: string; email: string; password: str
 		);
 		return issueToken(user.id, 'verify_email', VERIFY_EMAIL_MINUTES, transaction);
 	});
-	await mail.send(input.email, templates.verifyEmail({ name: input.name, url: `${origin}/verify?token=${token}` }));
+	await mail.send(
+		input.email,
+		templates.verifyEmail({ name: input.name, url: `${origin}/verify?token=${token}` })
+	);
 	return { kind: 'ok' };
 }
 
@@ -101,7 +121,10 @@ export async function verifyEmail(token: string): Promise<'verified' | 'invalid'
 	return sequelize.transaction(async (transaction) => {
 		const userId = await redeemToken(token, 'verify_email', transaction);
 		if (!userId) return 'invalid';
-		await User.update({ emailVerified: new Date() }, { where: { id: userId, emailVerified: null }, transaction });
+		await User.update(
+			{ emailVerified: new Date() },
+			{ where: { id: userId, emailVerified: null }, transaction }
+		);
 		return 'verified';
 	});
 }
@@ -118,7 +141,10 @@ export interface AuthenticatedUser {
  * Checks an e-mail and password. Unknown address, wrong password, unverified address and
  * disabled account all give null, after the same argon2 work.
  */
-export async function authenticate(email: string, password: string): Promise<AuthenticatedUser | null> {
+export async function authenticate(
+	email: string,
+	password: string
+): Promise<AuthenticatedUser | null> {
 	const user = await User.findOne({ where: { email } });
 	if (!user?.passwordHash) {
 		timingDecoyHash ??= hashPassword(randomBytes(16).toString('hex'));
@@ -127,7 +153,13 @@ export async function authenticate(email: string, password: string): Promise<Aut
 	}
 	const ok = await verifyPassword(user.passwordHash, password);
 	if (!ok || user.disabledAt || !user.emailVerified) return null;
-	return { id: user.id, email: user.email, name: user.name, role: user.role, sessionVersion: user.sessionVersion };
+	return {
+		id: user.id,
+		email: user.email,
+		name: user.name,
+		role: user.role,
+		sessionVersion: user.sessionVersion
+	};
 }
 
 /** Mails a reset link when the address has an active account; silent otherwise. */
@@ -143,7 +175,9 @@ export async function requestPasswordReset(email: string, origin: string): Promi
 
 /** Whether a reset token can still be used (for showing the form). */
 export async function isResetTokenUsable(token: string): Promise<boolean> {
-	const row = await EmailToken.findOne({ where: { tokenHash: hashToken(token), purpose: 'reset_password' } });
+	const row = await EmailToken.findOne({
+		where: { tokenHash: hashToken(token), purpose: 'reset_password' }
+	});
 	return Boolean(row && !row.usedAt && row.expiresAt.getTime() >= Date.now());
 }
 
@@ -182,9 +216,14 @@ export async function resetPassword(token: string, password: string): Promise<'r
 export type ChangePasswordOutcome = { kind: 'ok' } | { kind: 'wrong_password' };
 
 /** Changes the password after checking the current one; ends every session. */
-export async function changePassword(userId: string, current: string, next: string): Promise<ChangePasswordOutcome> {
+export async function changePassword(
+	userId: string,
+	current: string,
+	next: string
+): Promise<ChangePasswordOutcome> {
 	const user = await User.findByPk(userId);
-	if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, current))) return { kind: 'wrong_password' };
+	if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, current)))
+		return { kind: 'wrong_password' };
 	const passwordHash = await hashPassword(next);
 	await User.update(
 		{ passwordHash, sessionVersion: user.sessionVersion + 1 },
@@ -194,7 +233,8 @@ export async function changePassword(userId: string, current: string, next: stri
 	return { kind: 'ok' };
 }
 
-export type EmailChangeOutcome = { kind: 'ok' } | { kind: 'wrong_password' } | { kind: 'same_address' };
+export type EmailChangeOutcome =
+	{ kind: 'ok' } | { kind: 'wrong_password' } | { kind: 'same_address' };
 
 /**
  * Starts moving an account to a new address: a confirmation link goes to the new address
@@ -213,10 +253,19 @@ export async function requestEmailChange(
 	}
 	if (input.newEmail === user.email) return { kind: 'same_address' };
 	if (await User.findOne({ where: { email: input.newEmail } })) return { kind: 'ok' };
-	const token = await issueToken(user.id, 'change_email', CHANGE_EMAIL_MINUTES, undefined, input.newEmail);
+	const token = await issueToken(
+		user.id,
+		'change_email',
+		CHANGE_EMAIL_MINUTES,
+		undefined,
+		input.newEmail
+	);
 	await mail.send(
 		input.newEmail,
-		templates.confirmEmailChange({ url: `${origin}/verify/email?token=${token}`, minutes: CHANGE_EMAIL_MINUTES })
+		templates.confirmEmailChange({
+			url: `${origin}/verify/email?token=${token}`,
+			minutes: CHANGE_EMAIL_MINUTES
+		})
 	);
 	await mail.send(user.email, templates.emailChangeRequested({ resetUrl: `${origin}/reset` }));
 	return { kind: 'ok' };
@@ -272,7 +321,9 @@ export async function deleteAccount(userId: string): Promise<void> {
 
 /** Session check on every request: the user's current role, or null to end the session. */
 export async function sessionUser(id: string, sessionVersion: number) {
-	const user = await User.findByPk(id, { attributes: ['id', 'email', 'name', 'role', 'sessionVersion', 'disabledAt'] });
+	const user = await User.findByPk(id, {
+		attributes: ['id', 'email', 'name', 'role', 'sessionVersion', 'disabledAt']
+	});
 	if (!user || user.disabledAt || user.sessionVersion !== sessionVersion) return null;
 	return { id: user.id, email: user.email, name: user.name, role: user.role };
 }

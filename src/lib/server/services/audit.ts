@@ -85,9 +85,14 @@ export function pageWindow(total: number, page: number, perPage: number) {
  * Appends one event inside `transaction` (required: an audit row written outside the
  * change's transaction could survive a rolled-back change, or go missing for a kept one).
  */
-export async function record(event: AuditEventInput, transaction: Transaction): Promise<AuditEntry> {
+export async function record(
+	event: AuditEventInput,
+	transaction: Transaction
+): Promise<AuditEntry> {
 	if (!ACTION_PATTERN.test(event.action)) {
-		throw new Error(`Audit action must look like "subject.verb", got ${JSON.stringify(event.action)}`);
+		throw new Error(
+			`Audit action must look like "subject.verb", got ${JSON.stringify(event.action)}`
+		);
 	}
 	const row = await AuditEvent.create(
 		{
@@ -152,7 +157,9 @@ export async function list(options: {
 		offset: window.offset
 	});
 	return {
-		items: rows.map((row) => toEntry(row, (row as AuditEvent & { actor?: User | null }).actor ?? null)),
+		items: rows.map((row) =>
+			toEntry(row, (row as AuditEvent & { actor?: User | null }).actor ?? null)
+		),
 		total,
 		page: window.page,
 		perPage,
@@ -186,5 +193,8 @@ export async function filterChoices(): Promise<{ actions: string[]; subjectTypes
 		{ type: QueryTypes.SELECT }
 	);
 	const actions = new Set<string>([...AUDIT_ACTIONS, ...rows.map((r) => r.action)]);
-	return { actions: [...actions].sort(), subjectTypes: [...new Set(rows.map((r) => r.subjectType))].sort() };
+	return {
+		actions: [...actions].sort(),
+		subjectTypes: [...new Set(rows.map((r) => r.subjectType))].sort()
+	};
 }

@@ -61,7 +61,10 @@ export async function submit(
 		const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
 		if (!user) return { kind: 'not_found' } as const;
 		if (user.role !== 'reader') {
-			return { kind: 'conflict', message: `Your account already has the ${user.role} role.` } as const;
+			return {
+				kind: 'conflict',
+				message: `Your account already has the ${user.role} role.`
+			} as const;
 		}
 		// A plain read is enough: it runs after the user lock is held, so it sees every
 		// request committed by a submit that held the lock before us.
@@ -72,10 +75,14 @@ export async function submit(
 		if (pending > 0) {
 			return {
 				kind: 'conflict',
-				message: 'You already have a request waiting for an editor. You will get an e-mail when it is decided.'
+				message:
+					'You already have a request waiting for an editor. You will get an e-mail when it is decided.'
 			} as const;
 		}
-		const request = await AuthorRequest.create({ userId, pitch, state: 'pending' }, { transaction });
+		const request = await AuthorRequest.create(
+			{ userId, pitch, state: 'pending' },
+			{ transaction }
+		);
 		return { kind: 'ok', request: toMine(request) } as const;
 	});
 }
@@ -117,7 +124,12 @@ export async function listPending(options: {
 		items: rows.map((row) => ({
 			id: row.id,
 			pitch: row.pitch,
-			requester: { id: row.user.id, name: row.user.name, email: row.user.email, role: row.user.role },
+			requester: {
+				id: row.user.id,
+				name: row.user.name,
+				email: row.user.email,
+				role: row.user.role
+			},
 			createdAt: row.createdAt.toISOString(),
 			waitingDays: Math.max(0, Math.floor((now.getTime() - row.createdAt.getTime()) / DAY_MS))
 		})),
@@ -145,12 +157,18 @@ export async function decide(
 ): Promise<Outcome<{ request: MyAuthorRequest; mailed: boolean }>> {
 	const note = decision.note?.trim() || null;
 	if (!decision.approve && note === null) {
-		return { kind: 'conflict', message: 'Say why the request is declined: the reader receives this note.' };
+		return {
+			kind: 'conflict',
+			message: 'Say why the request is declined: the reader receives this note.'
+		};
 	}
 
 	const result = await sequelize.transaction(async (transaction) => {
 		// Unlocked look-up only to learn whose row to lock first (see the lock order above).
-		const found = await AuthorRequest.findByPk(requestId, { attributes: ['id', 'userId'], transaction });
+		const found = await AuthorRequest.findByPk(requestId, {
+			attributes: ['id', 'userId'],
+			transaction
+		});
 		if (!found) return { kind: 'not_found' } as const;
 		const user = await User.findByPk(found.userId, { transaction, lock: transaction.LOCK.UPDATE });
 		// A locking read returns the latest committed row, not this transaction's snapshot.

@@ -1,5 +1,7 @@
+/* eslint-disable @typescript-eslint/no-non-null-assertion -- slot and option indexes come from
+   the solver, which only returns positions of the arrays built here. */
 /**
- * Within budget for a build (DESIGN.md "Computations" §8): the domain solver
+ * Within budget for a build (docs/architecture.md "Computations" §8): the domain solver
  * (domain/within-budget.ts) over each slot's current part plus its source slot's pick and
  * alternates, priced in the build's region, with the real fit report as the conflict rule.
  *
@@ -72,7 +74,14 @@ export interface BudgetNoFit {
 export type ProposeOutcome = BudgetProposal | BudgetNoFit | { kind: 'not_found' };
 
 export type ApplyBudgetOutcome =
-	| { kind: 'ok'; version: number; budget: Money; total: Money; changes: number; swaps: BudgetSwapView[] }
+	| {
+			kind: 'ok';
+			version: number;
+			budget: Money;
+			total: Money;
+			changes: number;
+			swaps: BudgetSwapView[];
+	  }
 	| BudgetNoFit
 	| { kind: 'conflict'; current: BuildView }
 	| { kind: 'not_found' };
@@ -94,34 +103,66 @@ interface Problem {
 }
 
 /** The slots with their options and line prices in the build's region. */
-async function loadProblem(build: Build, region: Region, transaction?: Transaction): Promise<Problem> {
+async function loadProblem(
+	build: Build,
+	region: Region,
+	transaction?: Transaction
+): Promise<Problem> {
 	const priced = await pricedOptions(build, region);
 	const bought = new Map(
-		(await BuildSlot.findAll({ where: { buildId: build.id }, attributes: ['id', 'purchased', 'paidMinor', 'paidCurrency'], transaction })).map((s) => [s.id, s])
+		(
+			await BuildSlot.findAll({
+				where: { buildId: build.id },
+				attributes: ['id', 'purchased', 'paidMinor', 'paidCurrency'],
+				transaction
+			})
+		).map((s) => [s.id, s])
 	);
 	const currency = region.currency.toUpperCase();
 	const slots = priced.map((p): SlotOptions => {
 		const purchase = bought.get(p.slotId);
 		const options = purchase?.purchased ? [p.current] : [p.current, ...p.options];
 		const prices = options.map((o) => (o.lineTotal ? o.lineTotal.amountMinor : null));
-		if (purchase?.purchased && purchase.paidMinor !== null && purchase.paidCurrency?.toUpperCase() === currency) prices[0] = Number(purchase.paidMinor);
-		return { slotId: p.slotId, label: p.label, category: p.category, quantity: p.quantity, options, prices };
+		if (
+			purchase?.purchased &&
+			purchase.paidMinor !== null &&
+			purchase.paidCurrency?.toUpperCase() === currency
+		)
+			prices[0] = Number(purchase.paidMinor);
+		return {
+			slotId: p.slotId,
+			label: p.label,
+			category: p.category,
+			quantity: p.quantity,
+			options,
+			prices
+		};
 	});
 	return { currency, slots };
 }
 
 function buildPart(key: string, slot: SlotOptions, option: PricedOption): BuildPart {
-	return { key, label: slot.label, category: slot.category, quantity: slot.quantity, part: option.info } as unknown as BuildPart;
+	return {
+		key,
+		label: slot.label,
+		category: slot.category,
+		quantity: slot.quantity,
+		part: option.info
+	} as unknown as BuildPart;
 }
 
-type Solved = { ok: true; result: Extract<WithinBudgetResult, { ok: true }>; problem: Problem } | { ok: false; noFit: BudgetNoFit };
+type Solved =
+	| { ok: true; result: Extract<WithinBudgetResult, { ok: true }>; problem: Problem }
+	| { ok: false; noFit: BudgetNoFit };
 
 function solve(problem: Problem, budgetMinor: number): Solved {
 	const { currency, slots } = problem;
 	const m = (minor: number) => money(minor, currency);
 	const unpriced = slots.filter((s) => s.prices.every((p) => p === null));
 	if (unpriced.length > 0) {
-		const names = unpriced.map((s) => `${s.label} (${s.options[0]!.part.brand} ${s.options[0]!.part.model})`).join(', ');
+		const names = unpriced
+			.map((s) => `${s.label} (${s.options[0]!.part.brand} ${s.options[0]!.part.model})`)
+			.join(', ');
 		return {
 			ok: false,
 			noFit: {
@@ -147,10 +188,18 @@ function solve(problem: Problem, budgetMinor: number): Solved {
 		conflicts: (a, b) => {
 			const ka = keyOf(a.slot);
 			const kb = keyOf(b.slot);
-			const pair = [buildPart(ka, slots[a.slot]!, optionOf(a)), buildPart(kb, slots[b.slot]!, optionOf(b))];
-			return fitReport(pair).some((f) => f.severity === 'conflict' && f.slots.includes(ka) && f.slots.includes(kb));
+			const pair = [
+				buildPart(ka, slots[a.slot]!, optionOf(a)),
+				buildPart(kb, slots[b.slot]!, optionOf(b))
+			];
+			return fitReport(pair).some(
+				(f) => f.severity === 'conflict' && f.slots.includes(ka) && f.slots.includes(kb)
+			);
 		},
-		fullCheck: (picks) => !fitReport(picks.map((o) => buildPart(keyOf(o.slot), slots[o.slot]!, optionOf(o)))).some((f) => f.severity === 'conflict'),
+		fullCheck: (picks) =>
+			!fitReport(picks.map((o) => buildPart(keyOf(o.slot), slots[o.slot]!, optionOf(o)))).some(
+				(f) => f.severity === 'conflict'
+			),
 		formatAmount: (minor) => formatMoney(m(minor))
 	});
 	if (result.ok) return { ok: true, result, problem };
@@ -192,12 +241,23 @@ async function currentView(ownerId: string, buildId: number): Promise<BuildView>
 	return view;
 }
 
-async function ownBuild(ownerId: string, buildId: number, transaction?: Transaction): Promise<Build | null> {
-	return Build.findOne({ where: { id: buildId, ownerId }, ...(transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {}) });
+async function ownBuild(
+	ownerId: string,
+	buildId: number,
+	transaction?: Transaction
+): Promise<Build | null> {
+	return Build.findOne({
+		where: { id: buildId, ownerId },
+		...(transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {})
+	});
 }
 
 /** The swaps that bring the owner's build within `budgetMinor` (minor units of its region's currency), or why none do. */
-export async function proposeWithinBudget(ownerId: string, buildId: number, budgetMinor: number): Promise<ProposeOutcome> {
+export async function proposeWithinBudget(
+	ownerId: string,
+	buildId: number,
+	budgetMinor: number
+): Promise<ProposeOutcome> {
 	const build = await ownBuild(ownerId, buildId);
 	if (!build) return { kind: 'not_found' };
 	const region = (await Region.findByPk(build.regionId)) as Region;
@@ -220,16 +280,25 @@ export async function proposeWithinBudget(ownerId: string, buildId: number, budg
  * version checked, the build's budget set. A swapped slot loses its price override (it was
  * for the old part). When nothing fits, nothing is written.
  */
-export async function applyWithinBudget(ownerId: string, buildId: number, budgetMinor: number, expectedVersion: number): Promise<ApplyBudgetOutcome> {
+export async function applyWithinBudget(
+	ownerId: string,
+	buildId: number,
+	budgetMinor: number,
+	expectedVersion: number
+): Promise<ApplyBudgetOutcome> {
 	return sequelize.transaction(async (transaction): Promise<ApplyBudgetOutcome> => {
 		const build = await ownBuild(ownerId, buildId, transaction);
 		if (!build) return { kind: 'not_found' };
-		if (build.version !== expectedVersion) return { kind: 'conflict', current: await currentView(ownerId, build.id) };
+		if (build.version !== expectedVersion)
+			return { kind: 'conflict', current: await currentView(ownerId, build.id) };
 		const region = (await Region.findByPk(build.regionId, { transaction })) as Region;
 		const solved = solve(await loadProblem(build, region, transaction), budgetMinor);
 		if (!solved.ok) return solved.noFit;
 		const { result, problem } = solved;
-		const [affected] = await Build.update({ budgetMinor, version: expectedVersion + 1 }, { where: { id: build.id, version: expectedVersion }, transaction });
+		const [affected] = await Build.update(
+			{ budgetMinor, version: expectedVersion + 1 },
+			{ where: { id: build.id, version: expectedVersion }, transaction }
+		);
 		if (affected !== 1) throw new Error('build version moved while locked');
 		for (const [i, s] of problem.slots.entries()) {
 			const o = result.choice[i] ?? 0;
@@ -249,6 +318,13 @@ export async function applyWithinBudget(ownerId: string, buildId: number, budget
 			);
 		}
 		const m = (minor: number) => money(minor, problem.currency);
-		return { kind: 'ok', version: expectedVersion + 1, budget: m(budgetMinor), total: m(result.total), changes: result.changes, swaps: swapsOf(problem, result.choice) };
+		return {
+			kind: 'ok',
+			version: expectedVersion + 1,
+			budget: m(budgetMinor),
+			total: m(result.total),
+			changes: result.changes,
+			swaps: swapsOf(problem, result.choice)
+		};
 	});
 }

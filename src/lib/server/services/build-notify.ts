@@ -38,17 +38,29 @@ function logFailure(what: string, error: unknown, extra: Record<string, unknown>
 }
 
 /** E-mails the owners of the guide's builds about `revisionId`; `origin` builds the links (e.g. https://slotwise.example). */
-export async function notifyForks(guideId: number, revisionId: number, origin: string): Promise<NotifyResult> {
+export async function notifyForks(
+	guideId: number,
+	revisionId: number,
+	origin: string
+): Promise<NotifyResult> {
 	const result: NotifyResult = { mailed: 0, failed: 0, builds: 0 };
 	try {
-		const [guide, revision] = await Promise.all([Guide.findByPk(guideId), GuideRevision.findByPk(revisionId)]);
+		const [guide, revision] = await Promise.all([
+			Guide.findByPk(guideId),
+			GuideRevision.findByPk(revisionId)
+		]);
 		if (!guide || !revision || revision.guideId !== guide.id) return result;
 		const builds = (await Build.findAll({
 			where: {
 				sourceGuideId: guide.id,
 				notifyOnNewRevision: true,
 				[Op.and]: [
-					{ [Op.or]: [{ lastNotifiedRevisionId: null }, { lastNotifiedRevisionId: { [Op.ne]: revisionId } }] },
+					{
+						[Op.or]: [
+							{ lastNotifiedRevisionId: null },
+							{ lastNotifiedRevisionId: { [Op.ne]: revisionId } }
+						]
+					},
 					{ [Op.or]: [{ baseRevisionId: null }, { baseRevisionId: { [Op.ne]: revisionId } }] }
 				]
 			},
@@ -90,7 +102,10 @@ export async function notifyForks(guideId: number, revisionId: number, origin: s
 }
 
 /** notifyForks for the guide the revision belongs to (what decide() calls after an approval). */
-export async function notifyForksOfRevision(revisionId: number, origin: string): Promise<NotifyResult> {
+export async function notifyForksOfRevision(
+	revisionId: number,
+	origin: string
+): Promise<NotifyResult> {
 	try {
 		const revision = await GuideRevision.findByPk(revisionId, { attributes: ['id', 'guideId'] });
 		if (!revision) return { mailed: 0, failed: 0, builds: 0 };

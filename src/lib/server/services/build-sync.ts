@@ -1,5 +1,5 @@
 /**
- * Sync of a build with its source guide (DESIGN.md "Computations" §9): the per-slot
+ * Sync of a build with its source guide (docs/architecture.md "Computations" §9): the per-slot
  * three-way table between the build's base revision, the guide's current published
  * revision and the build's slots (domain/sync.ts planSync), applying the reader's choices
  * as one transaction, and undoing the last sync.
@@ -18,7 +18,14 @@
  */
 import type { InferCreationAttributes, Transaction } from 'sequelize';
 import { SyncInputError, applySync as applyDomainSync, planSync } from '$lib/domain/sync';
-import type { BuildSlot as SyncBuildSlot, ConflictKind, SourceSlot, SyncChoice, SyncPlan, SyncStatus } from '$lib/domain/sync';
+import type {
+	BuildSlot as SyncBuildSlot,
+	ConflictKind,
+	SourceSlot,
+	SyncChoice,
+	SyncPlan,
+	SyncStatus
+} from '$lib/domain/sync';
 import type { PartCategory } from '$lib/domain/types';
 import { Build, BuildSlot, BuildSync, Guide, GuideRevision, Part, sequelize } from '$lib/server/db';
 import type { SlotRowSnapshot } from '$lib/server/db/models/BuildSync';
@@ -93,7 +100,15 @@ export interface ApplySyncInput {
 export type SyncState = Exclude<SyncPlanOutcome, { kind: 'not_found' } | { kind: 'invalid' }>;
 
 export type ApplySyncOutcome =
-	| { kind: 'ok'; version: number; syncId: number; baseRevisionId: number; changedSlots: number; removedSlots: number; addedSlots: number }
+	| {
+			kind: 'ok';
+			version: number;
+			syncId: number;
+			baseRevisionId: number;
+			changedSlots: number;
+			removedSlots: number;
+			addedSlots: number;
+	  }
 	| { kind: 'conflict'; current: SyncState }
 	| { kind: 'invalid'; issues: Record<string, string[]> }
 	| { kind: 'not_found' };
@@ -105,7 +120,8 @@ export type UndoSyncOutcome =
 	| { kind: 'not_found' };
 
 const NOTHING_TO_UNDO = 'There is no sync to undo on this build.';
-const STALE_TABLE = 'A newer revision of the guide was published since this table was made. Review the new table and choose again.';
+const STALE_TABLE =
+	'A newer revision of the guide was published since this table was made. Review the new table and choose again.';
 
 interface SyncState0 {
 	build: Build;
@@ -119,62 +135,139 @@ interface SyncState0 {
 }
 
 /** The build when it is the owner's, else null (locked when a transaction is given). */
-async function ownBuild(ownerId: string, buildId: number, transaction?: Transaction): Promise<Build | null> {
-	return Build.findOne({ where: { id: buildId, ownerId }, ...(transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {}) });
+async function ownBuild(
+	ownerId: string,
+	buildId: number,
+	transaction?: Transaction
+): Promise<Build | null> {
+	return Build.findOne({
+		where: { id: buildId, ownerId },
+		...(transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {})
+	});
 }
 
 function localOf(slots: BuildSlot[]): SyncBuildSlot[] {
-	return slots.map((s) => ({ id: s.id, sourceKey: s.sourceSlotKey, label: s.label, category: s.category, partId: s.partId, quantity: s.quantity }));
+	return slots.map((s) => ({
+		id: s.id,
+		sourceKey: s.sourceSlotKey,
+		label: s.label,
+		category: s.category,
+		partId: s.partId,
+		quantity: s.quantity
+	}));
 }
 
 /**
  * Loads what a plan needs. Returns 'up_to_date' when the guide has no public revision other
  * than the build's base (or the build lost its source or base revision).
  */
-async function loadState(build: Build, transaction?: Transaction): Promise<SyncState0 | 'up_to_date'> {
+async function loadState(
+	build: Build,
+	transaction?: Transaction
+): Promise<SyncState0 | 'up_to_date'> {
 	if (!build.sourceGuideId || !build.baseRevisionId) return 'up_to_date';
 	const guide = await Guide.findByPk(build.sourceGuideId, { transaction });
-	if (!guide || guide.state !== 'published' || !guide.publishedRevisionId || guide.hiddenAt) return 'up_to_date';
+	if (!guide || guide.state !== 'published' || !guide.publishedRevisionId || guide.hiddenAt)
+		return 'up_to_date';
 	if (guide.publishedRevisionId === build.baseRevisionId) return 'up_to_date';
-	const revisions = await GuideRevision.findAll({ where: { id: [build.baseRevisionId, guide.publishedRevisionId] }, transaction });
+	const revisions = await GuideRevision.findAll({
+		where: { id: [build.baseRevisionId, guide.publishedRevisionId] },
+		transaction
+	});
 	const baseRevision = revisions.find((r) => r.id === build.baseRevisionId);
 	const upstreamRevision = revisions.find((r) => r.id === guide.publishedRevisionId);
 	if (!baseRevision || !upstreamRevision) return 'up_to_date';
 	// Published revisions never change, so reading them outside the transaction is safe.
 	const slots = await loadRevisionSlots([baseRevision.id, upstreamRevision.id]);
-	const localSlots = await BuildSlot.findAll({ where: { buildId: build.id }, order: [['position', 'ASC'], ['id', 'ASC']], transaction });
+	const localSlots = await BuildSlot.findAll({
+		where: { buildId: build.id },
+		order: [
+			['position', 'ASC'],
+			['id', 'ASC']
+		],
+		transaction
+	});
 	// Keys as fork gives them (builds.ts keyedRevisionSlots: the label, " (2)" for a repeat).
-	const baseSlots = sourceSlotsOf(keyedRevisionSlots(slots.filter((s) => s.revisionId === baseRevision.id)));
-	const upstreamSlots = sourceSlotsOf(keyedRevisionSlots(slots.filter((s) => s.revisionId === upstreamRevision.id)));
+	const baseSlots = sourceSlotsOf(
+		keyedRevisionSlots(slots.filter((s) => s.revisionId === baseRevision.id))
+	);
+	const upstreamSlots = sourceSlotsOf(
+		keyedRevisionSlots(slots.filter((s) => s.revisionId === upstreamRevision.id))
+	);
 	const plan = planSync(baseSlots, upstreamSlots, localOf(localSlots));
-	return { build, guide, baseRevision, upstreamRevision, baseSlots, upstreamSlots, localSlots, plan };
+	return {
+		build,
+		guide,
+		baseRevision,
+		upstreamRevision,
+		baseSlots,
+		upstreamSlots,
+		localSlots,
+		plan
+	};
 }
 
 async function lastSyncOf(buildId: number, transaction?: Transaction): Promise<BuildSync | null> {
-	return BuildSync.findOne({ where: { buildId, undoneAt: null }, order: [['id', 'DESC']], transaction });
+	return BuildSync.findOne({
+		where: { buildId, undoneAt: null },
+		order: [['id', 'DESC']],
+		transaction
+	});
 }
 
-async function lastSyncView(buildId: number, transaction?: Transaction): Promise<LastSyncView | null> {
+async function lastSyncView(
+	buildId: number,
+	transaction?: Transaction
+): Promise<LastSyncView | null> {
 	const last = await lastSyncOf(buildId, transaction);
 	if (!last) return null;
 	const ids = [last.fromRevisionId, last.toRevisionId].filter((id): id is number => id !== null);
-	const revisions = await GuideRevision.findAll({ where: { id: ids }, attributes: ['id', 'number'], transaction });
+	const revisions = await GuideRevision.findAll({
+		where: { id: ids },
+		attributes: ['id', 'number'],
+		transaction
+	});
 	const numberOf = (id: number | null) => revisions.find((r) => r.id === id)?.number ?? null;
-	return { id: last.id, fromRevisionNumber: numberOf(last.fromRevisionId), toRevisionNumber: numberOf(last.toRevisionId), createdAt: last.createdAt.toISOString() };
+	return {
+		id: last.id,
+		fromRevisionNumber: numberOf(last.fromRevisionId),
+		toRevisionNumber: numberOf(last.toRevisionId),
+		createdAt: last.createdAt.toISOString()
+	};
 }
 
 function partRef(p: Part): PartRef {
-	return { id: p.id, slug: p.slug, brand: p.brand, model: p.model, category: p.category as PartCategory };
+	return {
+		id: p.id,
+		slug: p.slug,
+		brand: p.brand,
+		model: p.model,
+		category: p.category as PartCategory
+	};
 }
 
 async function planView(state: SyncState0, transaction?: Transaction): Promise<SyncPlanView> {
 	const { build, guide, plan } = state;
 	const partIds = new Set<number>();
-	for (const r of plan.rows) for (const side of [r.base, r.upstream, r.local]) if (side) partIds.add(side.partId);
-	const parts = new Map((await Part.findAll({ where: { id: [...partIds] }, transaction })).map((p) => [p.id, partRef(p)]));
-	const side = (s: { partId: number; quantity: number; label: string } | null): SyncSideView | null => {
+	for (const r of plan.rows)
+		for (const side of [r.base, r.upstream, r.local]) if (side) partIds.add(side.partId);
+	const parts = new Map(
+		(await Part.findAll({ where: { id: [...partIds] }, transaction })).map((p) => [
+			p.id,
+			partRef(p)
+		])
+	);
+	const side = (
+		s: { partId: number; quantity: number; label: string } | null
+	): SyncSideView | null => {
 		if (!s) return null;
-		const part = parts.get(s.partId) ?? { id: s.partId, slug: '', brand: 'Unknown part', model: `#${s.partId}`, category: 'fan' as PartCategory };
+		const part = parts.get(s.partId) ?? {
+			id: s.partId,
+			slug: '',
+			brand: 'Unknown part',
+			model: `#${s.partId}`,
+			category: 'fan' as PartCategory
+		};
 		return { part, quantity: s.quantity, label: s.label };
 	};
 	const rows: SyncRowView[] = plan.rows.map((r) => {
@@ -212,13 +305,19 @@ async function planView(state: SyncState0, transaction?: Transaction): Promise<S
 }
 
 function inputError(e: unknown): Record<string, string[]> | null {
-	if (e instanceof SyncInputError) return { _form: [`This build cannot be synced automatically: ${e.message}.`] };
+	if (e instanceof SyncInputError)
+		return { _form: [`This build cannot be synced automatically: ${e.message}.`] };
 	return null;
 }
 
 async function stateOf(build: Build, transaction?: Transaction): Promise<SyncState> {
 	const state = await loadState(build, transaction);
-	if (state === 'up_to_date') return { kind: 'up_to_date', version: build.version, lastSync: await lastSyncView(build.id, transaction) };
+	if (state === 'up_to_date')
+		return {
+			kind: 'up_to_date',
+			version: build.version,
+			lastSync: await lastSyncView(build.id, transaction)
+		};
 	return { kind: 'plan', plan: await planView(state, transaction) };
 }
 
@@ -244,7 +343,12 @@ function snapshotOf(slot: BuildSlot): SlotRowSnapshot {
 }
 
 /** Bumps the version of a build the caller has locked; false when it moved meanwhile. */
-async function stamp(build: Build, expectedVersion: number, changes: Partial<Pick<Build, 'baseRevisionId'>>, transaction: Transaction): Promise<boolean> {
+async function stamp(
+	build: Build,
+	expectedVersion: number,
+	changes: Partial<Pick<Build, 'baseRevisionId'>>,
+	transaction: Transaction
+): Promise<boolean> {
 	const [affected] = await Build.update(
 		{ ...changes, version: expectedVersion + 1 },
 		{ where: { id: build.id, version: expectedVersion }, transaction }
@@ -264,39 +368,73 @@ function storedRows(value: unknown): SlotRowSnapshot[] {
  * Applies the reader's choices: one transaction that stores the slots before, rewrites the
  * slots per domain applySync, and moves the build's base to the guide's published revision.
  */
-export async function applySync(ownerId: string, buildId: number, input: ApplySyncInput, expectedVersion: number): Promise<ApplySyncOutcome> {
+export async function applySync(
+	ownerId: string,
+	buildId: number,
+	input: ApplySyncInput,
+	expectedVersion: number
+): Promise<ApplySyncOutcome> {
 	try {
 		return await sequelize.transaction(async (transaction): Promise<ApplySyncOutcome> => {
 			const build = await ownBuild(ownerId, buildId, transaction);
 			if (!build) return { kind: 'not_found' };
-			if (build.version !== expectedVersion) return { kind: 'conflict', current: await stateOf(build, transaction) };
+			if (build.version !== expectedVersion)
+				return { kind: 'conflict', current: await stateOf(build, transaction) };
 			const state = await loadState(build, transaction);
-			if (state === 'up_to_date') return { kind: 'invalid', issues: { _form: ['This build is already on the guide’s latest published revision.'] } };
-			if (input.upstreamRevisionId !== undefined && input.upstreamRevisionId !== state.upstreamRevision.id) {
+			if (state === 'up_to_date')
+				return {
+					kind: 'invalid',
+					issues: { _form: ['This build is already on the guide’s latest published revision.'] }
+				};
+			if (
+				input.upstreamRevisionId !== undefined &&
+				input.upstreamRevisionId !== state.upstreamRevision.id
+			) {
 				return { kind: 'invalid', issues: { upstreamRevisionId: [STALE_TABLE] } };
 			}
-			const outcome = applyDomainSync(state.plan, input.choices, { takeAllNonConflicting: input.takeAllNonConflicting });
+			const outcome = applyDomainSync(state.plan, input.choices, {
+				takeAllNonConflicting: input.takeAllNonConflicting
+			});
 			if (!outcome.ok) {
 				const issues: Record<string, string[]> = {};
 				const labelOf = (rowId: string) => state.plan.rows.find((r) => r.id === rowId);
 				for (const rowId of outcome.unresolved) {
 					const row = labelOf(rowId);
 					const label = row?.local?.label ?? row?.upstream?.label ?? row?.base?.label ?? rowId;
-					(issues[`choices.${rowId}`] ??= []).push(`${label}: changed on both sides. Choose to take the guide’s version or keep yours.`);
+					(issues[`choices.${rowId}`] ??= []).push(
+						`${label}: changed on both sides. Choose to take the guide’s version or keep yours.`
+					);
 				}
-				for (const { rowId, reason } of outcome.invalid) (issues[`choices.${rowId}`] ??= []).push(reason);
+				for (const { rowId, reason } of outcome.invalid)
+					(issues[`choices.${rowId}`] ??= []).push(reason);
 				return { kind: 'invalid', issues };
 			}
 
 			const before = state.localSlots;
 			const byId = new Map(before.map((s) => [s.id, s]));
-			if (!(await stamp(build, expectedVersion, { baseRevisionId: state.upstreamRevision.id }, transaction))) throw new StaleVersion();
+			if (
+				!(await stamp(
+					build,
+					expectedVersion,
+					{ baseRevisionId: state.upstreamRevision.id },
+					transaction
+				))
+			)
+				throw new StaleVersion();
 			const sync = await BuildSync.create(
-				{ buildId: build.id, fromRevisionId: state.baseRevision.id, toRevisionId: state.upstreamRevision.id, slotsBefore: before.map(snapshotOf) },
+				{
+					buildId: build.id,
+					fromRevisionId: state.baseRevision.id,
+					toRevisionId: state.upstreamRevision.id,
+					slotsBefore: before.map(snapshotOf)
+				},
 				{ transaction }
 			);
 			if (outcome.removedIds.length > 0) {
-				await BuildSlot.destroy({ where: { buildId: build.id, id: outcome.removedIds.map(Number) }, transaction });
+				await BuildSlot.destroy({
+					where: { buildId: build.id, id: outcome.removedIds.map(Number) },
+					transaction
+				});
 			}
 			let changedSlots = 0;
 			let addedSlots = 0;
@@ -306,14 +444,30 @@ export async function applySync(ownerId: string, buildId: number, input: ApplySy
 				if (!existing) {
 					addedSlots++;
 					await BuildSlot.create(
-						{ buildId: build.id, sourceSlotKey: s.sourceKey, category: s.category as PartCategory, label: s.label, position, partId: s.partId, quantity: s.quantity, origin: 'source' },
+						{
+							buildId: build.id,
+							sourceSlotKey: s.sourceKey,
+							category: s.category as PartCategory,
+							label: s.label,
+							position,
+							partId: s.partId,
+							quantity: s.quantity,
+							origin: 'source'
+						},
 						{ transaction }
 					);
 					continue;
 				}
 				if (s.changed) changedSlots++;
 				const partChanged = existing.partId !== s.partId;
-				existing.set({ sourceSlotKey: s.sourceKey, label: s.label, category: s.category as PartCategory, position, partId: s.partId, quantity: s.quantity });
+				existing.set({
+					sourceSlotKey: s.sourceKey,
+					label: s.label,
+					category: s.category as PartCategory,
+					position,
+					partId: s.partId,
+					quantity: s.quantity
+				});
 				if (s.from === 'upstream' && s.changed) existing.origin = 'source';
 				if (partChanged) {
 					// The override and the purchase were about the old part.
@@ -349,27 +503,51 @@ export async function applySync(ownerId: string, buildId: number, input: ApplySy
 	}
 }
 
-async function conflictNow(ownerId: string, buildId: number): Promise<{ kind: 'conflict'; current: SyncState } | { kind: 'not_found' }> {
+async function conflictNow(
+	ownerId: string,
+	buildId: number
+): Promise<{ kind: 'conflict'; current: SyncState } | { kind: 'not_found' }> {
 	const build = await ownBuild(ownerId, buildId);
 	return build ? { kind: 'conflict', current: await stateOf(build) } : { kind: 'not_found' };
 }
 
 /** Restores the slots and base revision of the build's last sync that was not undone. */
-export async function undoLastSync(ownerId: string, buildId: number, expectedVersion: number): Promise<UndoSyncOutcome> {
+export async function undoLastSync(
+	ownerId: string,
+	buildId: number,
+	expectedVersion: number
+): Promise<UndoSyncOutcome> {
 	try {
 		return await sequelize.transaction(async (transaction): Promise<UndoSyncOutcome> => {
 			const build = await ownBuild(ownerId, buildId, transaction);
 			if (!build) return { kind: 'not_found' };
-			if (build.version !== expectedVersion) return { kind: 'conflict', current: await stateOf(build, transaction) };
-			const last = await BuildSync.findOne({ where: { buildId: build.id, undoneAt: null }, order: [['id', 'DESC']], transaction, lock: transaction.LOCK.UPDATE });
+			if (build.version !== expectedVersion)
+				return { kind: 'conflict', current: await stateOf(build, transaction) };
+			const last = await BuildSync.findOne({
+				where: { buildId: build.id, undoneAt: null },
+				order: [['id', 'DESC']],
+				transaction,
+				lock: transaction.LOCK.UPDATE
+			});
 			if (!last) return { kind: 'invalid', issues: { _form: [NOTHING_TO_UNDO] } };
-			if (!(await stamp(build, expectedVersion, { baseRevisionId: last.fromRevisionId }, transaction))) throw new StaleVersion();
+			if (
+				!(await stamp(build, expectedVersion, { baseRevisionId: last.fromRevisionId }, transaction))
+			)
+				throw new StaleVersion();
 			await BuildSlot.destroy({ where: { buildId: build.id }, transaction });
-			const rows = storedRows(last.slotsBefore).map((row) => ({ ...row, buildId: build.id })) as unknown as InferCreationAttributes<BuildSlot>[];
+			const rows = storedRows(last.slotsBefore).map((row) => ({
+				...row,
+				buildId: build.id
+			})) as unknown as InferCreationAttributes<BuildSlot>[];
 			if (rows.length > 0) await BuildSlot.bulkCreate(rows, { transaction });
 			last.undoneAt = new Date();
 			await last.save({ transaction });
-			return { kind: 'ok', version: expectedVersion + 1, baseRevisionId: last.fromRevisionId, restoredSlots: rows.length };
+			return {
+				kind: 'ok',
+				version: expectedVersion + 1,
+				baseRevisionId: last.fromRevisionId,
+				restoredSlots: rows.length
+			};
 		});
 	} catch (e) {
 		if (e instanceof StaleVersion) return conflictNow(ownerId, buildId);

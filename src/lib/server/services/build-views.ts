@@ -51,7 +51,12 @@ export interface BuildSlotView {
 	/** The reader's price. `applied` is false when it is in another currency than the region's (the region changed since). */
 	override: { amount: Money; store: string; date: string; applied: boolean } | null;
 	/** Owner only; others see `{ purchased: false, paid: null, purchasedAt: null, store: null }`. */
-	purchase: { purchased: boolean; paid: Money | null; purchasedAt: string | null; store: string | null };
+	purchase: {
+		purchased: boolean;
+		paid: Money | null;
+		purchasedAt: string | null;
+		store: string | null;
+	};
 	options: BuildOptionView[];
 }
 

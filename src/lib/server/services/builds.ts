@@ -1,5 +1,5 @@
 /**
- * Builds (DESIGN.md "Build", "Drift"; issue 7): a reader's fork of a published guide
+ * Builds (docs/architecture.md "Build", "Drift"; issue 7): a reader's fork of a published guide
  * revision, priced in the reader's region, with the base revision's pick and alternates
  * offered per slot, a purchase tracker, drift against the base and value against the
  * source. Edits of a build live here; the two bulk changes live beside it and follow the
@@ -26,12 +26,30 @@ import { summarize } from '$lib/domain/fit';
 import { minorUnitDigits, money, multiply, sum } from '$lib/domain/money';
 import { powerBudget } from '$lib/domain/power';
 import { convertThroughEur, MissingRateError, priceOption } from '$lib/domain/region';
-import type { OptionInput, PricedLine, QuoteInput, RatesPerEur, RegionPricing } from '$lib/domain/region';
+import type {
+	OptionInput,
+	PricedLine,
+	QuoteInput,
+	RatesPerEur,
+	RegionPricing
+} from '$lib/domain/region';
 import { drift as driftOf, slotKeys } from '$lib/domain/sync';
 import type { BuildSlot as SyncBuildSlot, SourceSlot } from '$lib/domain/sync';
 import type { Money, PartCategory, TaxMode } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
-import { Build, BuildSlot, FrameResult, Guide, GuideRevision, Part, Quote, Region, Store, User, sequelize } from '$lib/server/db';
+import {
+	Build,
+	BuildSlot,
+	FrameResult,
+	Guide,
+	GuideRevision,
+	Part,
+	Quote,
+	Region,
+	Store,
+	User,
+	sequelize
+} from '$lib/server/db';
 import { neutraliseCell } from '$lib/server/csv-cells';
 import { activeRules } from './caution-rules';
 import { hasOpenReport } from './content-reports';
@@ -106,7 +124,13 @@ export function keyedRevisionSlots(slots: readonly LoadedRevisionSlot[]): KeyedR
 
 /** A revision's slots as domain/sync.ts takes them. */
 export function sourceSlotsOf(keyed: readonly KeyedRevisionSlot[]): SourceSlot[] {
-	return keyed.map(({ key, slot }) => ({ key, label: slot.label, category: slot.category, partId: slot.pickPartId, quantity: slot.quantity }));
+	return keyed.map(({ key, slot }) => ({
+		key,
+		label: slot.label,
+		category: slot.category,
+		partId: slot.pickPartId,
+		quantity: slot.quantity
+	}));
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -123,9 +147,17 @@ export function newShareToken(): string {
  * the guide's base region, in one transaction (the build row and every slot, or nothing).
  * Hidden, unpublished or unknown guides: not_found.
  */
-export async function fork(ownerId: string, guideSlug: string): Promise<{ kind: 'created'; id: number } | { kind: 'not_found' }> {
+export async function fork(
+	ownerId: string,
+	guideSlug: string
+): Promise<{ kind: 'created'; id: number } | { kind: 'not_found' }> {
 	const guide = await Guide.findOne({
-		where: { slug: guideSlug, state: 'published', publishedRevisionId: { [Op.ne]: null }, hiddenAt: null }
+		where: {
+			slug: guideSlug,
+			state: 'published',
+			publishedRevisionId: { [Op.ne]: null },
+			hiddenAt: null
+		}
 	});
 	if (!guide || guide.publishedRevisionId === null) return { kind: 'not_found' };
 	const revisionId = guide.publishedRevisionId;
@@ -167,8 +199,17 @@ export async function fork(ownerId: string, guideSlug: string): Promise<{ kind: 
 // Loading and visibility
 // ---------------------------------------------------------------------------------------------
 
-type LoadedGuide = Guide & { author?: User | null; baseRegion?: Region; publishedRevision?: GuideRevision | null };
-type LoadedBuild = Build & { owner?: User | null; region: Region; sourceGuide?: LoadedGuide | null; baseRevision?: GuideRevision | null };
+type LoadedGuide = Guide & {
+	author?: User | null;
+	baseRegion?: Region;
+	publishedRevision?: GuideRevision | null;
+};
+type LoadedBuild = Build & {
+	owner?: User | null;
+	region: Region;
+	sourceGuide?: LoadedGuide | null;
+	baseRevision?: GuideRevision | null;
+};
 type LoadedSlot = BuildSlot & { part: Part };
 
 async function loadBuild(id: number, transaction?: Transaction): Promise<LoadedBuild | null> {
@@ -211,7 +252,11 @@ function tokenMatches(stored: string, given: string | undefined): boolean {
 }
 
 /** 'owner', 'other' (may read, sees no private data) or null (may not know the build exists). */
-function access(build: Build, viewer: Viewer, shareToken: string | undefined): 'owner' | 'other' | null {
+function access(
+	build: Build,
+	viewer: Viewer,
+	shareToken: string | undefined
+): 'owner' | 'other' | null {
 	if (viewer && viewer.id === build.ownerId) return 'owner';
 	// Hidden by the editors (services/content-reports): a 404 for everyone but the owner and editors.
 	if (build.hiddenAt) return null;
@@ -247,19 +292,38 @@ interface PricingContext {
 	priceOf: (part: Part, category: PartCategory, chosen: QuoteWithStore | null) => PricedLine;
 }
 
-async function pricingContext(build: LoadedBuild, region: Region, slots: LoadedSlot[]): Promise<PricingContext> {
+async function pricingContext(
+	build: LoadedBuild,
+	region: Region,
+	slots: LoadedSlot[]
+): Promise<PricingContext> {
 	const base = build.sourceGuide?.baseRegion ?? region;
 	const inBase = base.id === region.id;
-	const baseSlots = build.baseRevisionId ? keyedRevisionSlots(await loadRevisionSlots([build.baseRevisionId])) : [];
+	const baseSlots = build.baseRevisionId
+		? keyedRevisionSlots(await loadRevisionSlots([build.baseRevisionId]))
+		: [];
 	const baseByKey = new Map(baseSlots.map((k) => [k.key, k.slot]));
 	const partIds = [
-		...new Set([...slots.map((s) => s.partId), ...baseSlots.flatMap(({ slot }) => [slot.pickPartId, ...slot.alternates.map((a) => a.partId)])])
+		...new Set([
+			...slots.map((s) => s.partId),
+			...baseSlots.flatMap(({ slot }) => [slot.pickPartId, ...slot.alternates.map((a) => a.partId)])
+		])
 	];
-	const [baseQuotes, rates] = await Promise.all([latestQuotes(partIds, base.id), fx.ratesForPricing()]);
+	const [baseQuotes, rates] = await Promise.all([
+		latestQuotes(partIds, base.id),
+		fx.ratesForPricing()
+	]);
 	const targetQuotes = inBase ? baseQuotes : await latestQuotes(partIds, region.id);
 	const optionInput = (part: Part, chosen: QuoteWithStore | null): OptionInput => {
-		const basePrice = chosen && chosen.regionId === base.id ? quoteInput(chosen) : (baseQuotes.get(part.id) ?? null);
-		return { partId: part.id, basePrice, targetQuote: inBase ? basePrice : (targetQuotes.get(part.id) ?? null) };
+		const basePrice =
+			chosen && chosen.regionId === base.id
+				? quoteInput(chosen)
+				: (baseQuotes.get(part.id) ?? null);
+		return {
+			partId: part.id,
+			basePrice,
+			targetQuote: inBase ? basePrice : (targetQuotes.get(part.id) ?? null)
+		};
 	};
 	const basePricing = pricingOf(base);
 	const targetPricing = pricingOf(region);
@@ -270,7 +334,8 @@ async function pricingContext(build: LoadedBuild, region: Region, slots: LoadedS
 		baseSlots,
 		baseByKey,
 		optionInput,
-		priceOf: (part, category, chosen) => priceOption(optionInput(part, chosen), category, basePricing, targetPricing, rates)
+		priceOf: (part, category, chosen) =>
+			priceOption(optionInput(part, chosen), category, basePricing, targetPricing, rates)
 	};
 }
 
@@ -278,13 +343,24 @@ async function pricingContext(build: LoadedBuild, region: Region, slots: LoadedS
  * The author's chosen quote is the base price of the source pick (as on the guide page), so
  * a fresh fork costs what the guide shows in every region; other parts use the latest quote.
  */
-function chosenQuote(ctx: PricingContext, sourceSlotKey: string | null, partId: number): QuoteWithStore | null {
+function chosenQuote(
+	ctx: PricingContext,
+	sourceSlotKey: string | null,
+	partId: number
+): QuoteWithStore | null {
 	const baseSlot = sourceSlotKey === null ? undefined : ctx.baseByKey.get(sourceSlotKey);
 	return baseSlot && baseSlot.pickPartId === partId ? baseSlot.priceQuote : null;
 }
 
-function currentPrice(ctx: PricingContext, slot: LoadedSlot): { line: PricedLine; price: BuildPriceLine | null } {
-	const line = ctx.priceOf(slot.part, slot.category, chosenQuote(ctx, slot.sourceSlotKey, slot.partId));
+function currentPrice(
+	ctx: PricingContext,
+	slot: LoadedSlot
+): { line: PricedLine; price: BuildPriceLine | null } {
+	const line = ctx.priceOf(
+		slot.part,
+		slot.category,
+		chosenQuote(ctx, slot.sourceSlotKey, slot.partId)
+	);
 	if (slot.priceOverrideMinor !== null && slot.priceOverrideCurrency === ctx.region.currency) {
 		return {
 			line,
@@ -315,17 +391,35 @@ function optionsFor(ctx: PricingContext, slot: LoadedSlot): OptionSource[] {
 	if (!baseSlot) return [];
 	const out: OptionSource[] = [];
 	if (baseSlot.pickPartId !== slot.partId) {
-		out.push({ part: baseSlot.pick, kind: 'source_pick', rank: 0, reasonTag: null, note: baseSlot.reason, chosen: baseSlot.priceQuote });
+		out.push({
+			part: baseSlot.pick,
+			kind: 'source_pick',
+			rank: 0,
+			reasonTag: null,
+			note: baseSlot.reason,
+			chosen: baseSlot.priceQuote
+		});
 	}
 	for (const alt of baseSlot.alternates) {
 		if (alt.partId === slot.partId) continue;
-		out.push({ part: alt.part, kind: 'alternate', rank: alt.rank, reasonTag: alt.reasonTag, note: alt.note, chosen: null });
+		out.push({
+			part: alt.part,
+			kind: 'alternate',
+			rank: alt.rank,
+			reasonTag: alt.reasonTag,
+			note: alt.note,
+			chosen: null
+		});
 	}
 	return out;
 }
 
 /** What the origin of a slot holding `partId` is, by the base revision's slot with its key. */
-function originOf(ctx: PricingContext, sourceSlotKey: string | null, partId: number): BuildSlotOrigin {
+function originOf(
+	ctx: PricingContext,
+	sourceSlotKey: string | null,
+	partId: number
+): BuildSlotOrigin {
 	const baseSlot = sourceSlotKey === null ? undefined : ctx.baseByKey.get(sourceSlotKey);
 	if (!baseSlot) return 'custom';
 	if (baseSlot.pickPartId === partId) return 'source';
@@ -344,7 +438,12 @@ export async function pricedOptions(build: Build, region: Region): Promise<Price
 	const ctx = await pricingContext(loaded, region, slots);
 	return slots.map((slot) => {
 		const { price } = currentPrice(ctx, slot);
-		const priced = (part: Part, kind: PricedOption['kind'], rank: number, p: BuildPriceLine | null): PricedOption => ({
+		const priced = (
+			part: Part,
+			kind: PricedOption['kind'],
+			rank: number,
+			p: BuildPriceLine | null
+		): PricedOption => ({
 			part: partRef(part),
 			info: partInfo(part),
 			kind,
@@ -360,7 +459,14 @@ export async function pricedOptions(build: Build, region: Region): Promise<Price
 			category: slot.category,
 			quantity: slot.quantity,
 			current: priced(slot.part, 'current', 0, price),
-			options: optionsFor(ctx, slot).map((o) => priced(o.part, o.kind, o.rank, priceLine(ctx.priceOf(o.part, slot.category, o.chosen), region)))
+			options: optionsFor(ctx, slot).map((o) =>
+				priced(
+					o.part,
+					o.kind,
+					o.rank,
+					priceLine(ctx.priceOf(o.part, slot.category, o.chosen), region)
+				)
+			)
 		};
 	});
 }
@@ -374,7 +480,11 @@ export async function pricedOptions(build: Build, region: Region): Promise<Price
  * `opts.regionCode` when that region exists). Null when the viewer may not see it: the
  * caller answers 404 with no data, whether the build exists or not.
  */
-export async function getBuild(viewer: Viewer, id: number, opts: { shareToken?: string; regionCode?: string } = {}): Promise<BuildView | null> {
+export async function getBuild(
+	viewer: Viewer,
+	id: number,
+	opts: { shareToken?: string; regionCode?: string } = {}
+): Promise<BuildView | null> {
 	const build = await loadBuild(id);
 	if (!build) return null;
 	const who = access(build, viewer, opts.shareToken) ?? (await editorAccess(build, viewer));
@@ -390,13 +500,19 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 	const slots = await loadSlots(build.id);
 	const ctx = await pricingContext(build, region, slots);
 	const [frames, cautionRules] = await Promise.all([
-		build.baseRevisionId ? FrameResult.findAll({ where: { revisionId: build.baseRevisionId }, attributes: ['avgFpsTenths'] }) : Promise.resolve([]),
+		build.baseRevisionId
+			? FrameResult.findAll({
+					where: { revisionId: build.baseRevisionId },
+					attributes: ['avgFpsTenths']
+				})
+			: Promise.resolve([]),
 		activeRules()
 	]);
 	const currency = region.currency;
 	let ratesAsOf: string | null = null;
 	const noteRate = (line: PricedLine) => {
-		if (line.status === 'estimated' && line.date && (ratesAsOf === null || line.date < ratesAsOf)) ratesAsOf = line.date;
+		if (line.status === 'estimated' && line.date && (ratesAsOf === null || line.date < ratesAsOf))
+			ratesAsOf = line.date;
 	};
 
 	// Fit: the build's parts, each slot's options as drop-ins (one report per option).
@@ -409,13 +525,23 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 				category: slot.category,
 				quantity: slot.quantity,
 				pick: partInfo(slot.part),
-				alternates: (optionSources[i] ?? []).map((o, j) => ({ id: `${slot.id}:${j}`, part: partInfo(o.part) }))
+				alternates: (optionSources[i] ?? []).map((o, j) => ({
+					id: `${slot.id}:${j}`,
+					part: partInfo(o.part)
+				}))
 			}) as unknown as DropInSlot
 	);
 	const drop = dropIns(dropSlots, cautionRules);
 	const fitsById = new Map(drop.alternates.map((r) => [String(r.alternateId), r.fits]));
 	const buildParts = dropSlots.map(
-		(d) => ({ key: d.key, label: d.label, category: d.category, quantity: d.quantity, part: d.pick }) as unknown as BuildPart
+		(d) =>
+			({
+				key: d.key,
+				label: d.label,
+				category: d.category,
+				quantity: d.quantity,
+				part: d.pick
+			}) as unknown as BuildPart
 	);
 
 	const slotViews: BuildSlotView[] = slots.map((slot, i) => {
@@ -458,7 +584,10 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 				isOwner && slot.purchased
 					? {
 							purchased: true,
-							paid: slot.paidMinor !== null && slot.paidCurrency ? money(Number(slot.paidMinor), slot.paidCurrency) : null,
+							paid:
+								slot.paidMinor !== null && slot.paidCurrency
+									? money(Number(slot.paidMinor), slot.paidCurrency)
+									: null,
 							purchasedAt: slot.purchasedAt,
 							store: slot.purchaseStore
 						}
@@ -469,32 +598,61 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 
 	// Totals (see BuildTotals): exact sums in the region's currency.
 	const priced = slotViews.filter((s) => s.lineTotal !== null);
-	const planned = sum(priced.map((s) => s.lineTotal as Money), currency);
+	const planned = sum(
+		priced.map((s) => s.lineTotal as Money),
+		currency
+	);
 	const bought = slotViews.filter((s) => s.purchase.purchased);
-	const spent = sum(bought.map((s) => paidInRegion(s, currency, ctx.rates)).filter((m): m is Money => m !== null), currency);
-	const remainingToBuy = sum(priced.filter((s) => !s.purchase.purchased).map((s) => s.lineTotal as Money), currency);
-	const budget = isOwner && build.budgetMinor !== null ? money(Number(build.budgetMinor), currency) : null;
-	const leftOfBudget = budget ? money(budget.amountMinor - spent.amountMinor - remainingToBuy.amountMinor, currency) : null;
+	const spent = sum(
+		bought.map((s) => paidInRegion(s, currency, ctx.rates)).filter((m): m is Money => m !== null),
+		currency
+	);
+	const remainingToBuy = sum(
+		priced.filter((s) => !s.purchase.purchased).map((s) => s.lineTotal as Money),
+		currency
+	);
+	const budget =
+		isOwner && build.budgetMinor !== null ? money(Number(build.budgetMinor), currency) : null;
+	const leftOfBudget = budget
+		? money(budget.amountMinor - spent.amountMinor - remainingToBuy.amountMinor, currency)
+		: null;
 	const unpricedSlots = slotViews.length - priced.length;
 
 	// Drift against the base revision, and value against the source.
 	const sourceSlots = sourceSlotsOf(ctx.baseSlots);
-	const localSlots: SyncBuildSlot[] = slots.map((s) => ({ id: s.id, sourceKey: s.sourceSlotKey, label: s.label, category: s.category, partId: s.partId, quantity: s.quantity }));
+	const localSlots: SyncBuildSlot[] = slots.map((s) => ({
+		id: s.id,
+		sourceKey: s.sourceSlotKey,
+		label: s.label,
+		category: s.category,
+		partId: s.partId,
+		quantity: s.quantity
+	}));
 	const partNames = new Map<number, string>();
 	for (const s of slots) partNames.set(s.partId, nameOf(s.part));
 	for (const { slot } of ctx.baseSlots) partNames.set(slot.pickPartId, nameOf(slot.pick));
 	const driftView: DriftView[] = driftOf(sourceSlots, localSlots).rows.map((r) => {
 		const label = r.local?.label ?? r.base?.label ?? '';
-		const named = (s: { partId: number; quantity: number }) => `${partNames.get(s.partId) ?? `part ${s.partId}`}${s.quantity > 1 ? ` × ${s.quantity}` : ''}`;
+		// Each kind carries the sides it is about (drift in domain/sync.ts); a side left
+		// out reads as an empty name rather than throwing.
+		const named = (s: { partId: number; quantity: number } | null) =>
+			s
+				? `${partNames.get(s.partId) ?? `part ${s.partId}`}${s.quantity > 1 ? ` × ${s.quantity}` : ''}`
+				: '';
 		switch (r.kind) {
 			case 'swapped':
-				return { label, kind: r.kind, from: named(r.base!), to: named(r.local!) };
+				return { label, kind: r.kind, from: named(r.base), to: named(r.local) };
 			case 'quantity':
-				return { label, kind: r.kind, from: String(r.base!.quantity), to: String(r.local!.quantity) };
+				return {
+					label,
+					kind: r.kind,
+					from: String(r.base?.quantity ?? ''),
+					to: String(r.local?.quantity ?? '')
+				};
 			case 'added':
-				return { label, kind: r.kind, to: named(r.local!) };
+				return { label, kind: r.kind, to: named(r.local) };
 			case 'removed':
-				return { label, kind: r.kind, from: named(r.base!) };
+				return { label, kind: r.kind, from: named(r.base) };
 			default:
 				return { label, kind: r.kind };
 		}
@@ -509,14 +667,19 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 			noteRate(line);
 			return line.unit ? multiply(line.unit, slot.quantity) : null;
 		});
-		const sourceTotal = sourceLines.length > 0 && sourceLines.every((m) => m !== null) ? sum(sourceLines as Money[], currency) : null;
+		const sourceTotal =
+			sourceLines.length > 0 && sourceLines.every((m) => m !== null)
+				? sum(sourceLines as Money[], currency)
+				: null;
 		const idsOf = (parts: { category: string; partId: number }[], category: PartCategory) =>
 			parts
 				.filter((p) => p.category === category)
 				.map((p) => p.partId)
 				.sort((a, b) => a - b)
 				.join(',');
-		const differ = (['cpu', 'gpu'] as const).some((c) => idsOf(localSlots, c) !== idsOf(sourceSlots, c));
+		const differ = (['cpu', 'gpu'] as const).some(
+			(c) => idsOf(localSlots, c) !== idsOf(sourceSlots, c)
+		);
 		value = {
 			build: { ...valueOf(results, buildTotal), total: buildTotal } satisfies ValueView,
 			source: { ...valueOf(results, sourceTotal), total: sourceTotal } satisfies ValueView,
@@ -538,15 +701,28 @@ async function assemble(build: LoadedBuild, region: Region, isOwner: boolean): P
 		budget,
 		source: sourceView(build),
 		slots: slotViews,
-		totals: { planned, spent, remainingToBuy, leftOfBudget, unpricedSlots, boughtCount: bought.length },
-		fit: { findings: drop.picks, summary: summarize(drop.picks), slotLabels: Object.fromEntries(slots.map((s) => [String(s.id), s.label])) },
+		totals: {
+			planned,
+			spent,
+			remainingToBuy,
+			leftOfBudget,
+			unpricedSlots,
+			boughtCount: bought.length
+		},
+		fit: {
+			findings: drop.picks,
+			summary: summarize(drop.picks),
+			slotLabels: Object.fromEntries(slots.map((s) => [String(s.id), s.label]))
+		},
 		power: powerBudget(buildParts),
 		drift: driftView,
 		value,
 		ratesAsOf,
 		updatedAt: build.updatedAt.toISOString(),
 		// Only the owner and editors get a hidden build at all (see `access`).
-		hidden: build.hiddenAt ? { reason: build.hiddenReason ?? '', hiddenAt: build.hiddenAt.toISOString() } : null
+		hidden: build.hiddenAt
+			? { reason: build.hiddenReason ?? '', hiddenAt: build.hiddenAt.toISOString() }
+			: null
 	};
 }
 
@@ -570,7 +746,8 @@ function paidInRegion(slot: BuildSlotView, currency: string, rates: RatesPerEur)
 function sourceView(build: LoadedBuild): BuildSourceView | null {
 	const guide = build.sourceGuide;
 	if (!guide) return null;
-	const published = guide.state === 'published' && !guide.hiddenAt ? (guide.publishedRevision ?? null) : null;
+	const published =
+		guide.state === 'published' && !guide.hiddenAt ? (guide.publishedRevision ?? null) : null;
 	const baseNumber = build.baseRevision?.number ?? null;
 	const latest = published?.number ?? null;
 	return {
@@ -589,13 +766,20 @@ export async function listMine(ownerId: string): Promise<BuildCard[]> {
 		where: { ownerId },
 		include: [
 			{ model: Region, as: 'region' },
-			{ model: Guide, as: 'sourceGuide', include: [{ model: GuideRevision, as: 'publishedRevision', attributes: ['id', 'number'] }] },
+			{
+				model: Guide,
+				as: 'sourceGuide',
+				include: [{ model: GuideRevision, as: 'publishedRevision', attributes: ['id', 'number'] }]
+			},
 			{ model: GuideRevision, as: 'baseRevision', attributes: ['id', 'number'] }
 		],
 		order: [['updatedAt', 'DESC']]
 	})) as LoadedBuild[];
 	if (builds.length === 0) return [];
-	const slots = await BuildSlot.findAll({ where: { buildId: builds.map((b) => b.id) }, attributes: ['buildId', 'purchased'] });
+	const slots = await BuildSlot.findAll({
+		where: { buildId: builds.map((b) => b.id) },
+		attributes: ['buildId', 'purchased']
+	});
 	return builds.map((b) => {
 		const mine = slots.filter((s) => s.buildId === b.id);
 		const source = sourceView(b);
@@ -632,7 +816,12 @@ export async function lineage(guideSlug: string): Promise<LineageView> {
 	]);
 	return {
 		forkCount,
-		publicBuilds: publicBuilds.map((b) => ({ id: b.id, title: b.title, ownerName: b.owner?.name ?? 'Former member', updatedAt: b.updatedAt.toISOString() }))
+		publicBuilds: publicBuilds.map((b) => ({
+			id: b.id,
+			title: b.title,
+			ownerName: b.owner?.name ?? 'Former member',
+			updatedAt: b.updatedAt.toISOString()
+		}))
 	};
 }
 
@@ -649,7 +838,12 @@ async function change(
 	ownerId: string,
 	id: number,
 	expectedVersion: number,
-	buildFields: Partial<Pick<Build, 'title' | 'notes' | 'regionId' | 'visibility' | 'budgetMinor' | 'notifyOnNewRevision'>>,
+	buildFields: Partial<
+		Pick<
+			Build,
+			'title' | 'notes' | 'regionId' | 'visibility' | 'budgetMinor' | 'notifyOnNewRevision'
+		>
+	>,
 	work?: (transaction: Transaction) => Promise<void>
 ): Promise<MutationOutcome> {
 	const committed = await sequelize.transaction(async (transaction) => {
@@ -698,7 +892,12 @@ export interface BuildPatch {
  * the budget again. Price overrides stay in the currency they were entered in and apply
  * again only in a region with that currency.
  */
-export async function updateBuild(ownerId: string, id: number, patch: BuildPatch, expectedVersion: number): Promise<MutationOutcome> {
+export async function updateBuild(
+	ownerId: string,
+	id: number,
+	patch: BuildPatch,
+	expectedVersion: number
+): Promise<MutationOutcome> {
 	const build = await ownBuild(ownerId, id);
 	if (!build) return { kind: 'not_found' };
 	const issues: Issues = {};
@@ -712,21 +911,33 @@ export async function updateBuild(ownerId: string, id: number, patch: BuildPatch
 	if (patch.title !== undefined) fields.title = patch.title;
 	if (patch.notes !== undefined) fields.notes = patch.notes;
 	if (patch.visibility !== undefined) fields.visibility = patch.visibility;
-	if (patch.notifyOnNewRevision !== undefined) fields.notifyOnNewRevision = patch.notifyOnNewRevision;
+	if (patch.notifyOnNewRevision !== undefined)
+		fields.notifyOnNewRevision = patch.notifyOnNewRevision;
 	if (region.id !== build.regionId) fields.regionId = region.id;
 	if (patch.budget !== undefined) {
 		if (patch.budget === null) fields.budgetMinor = null;
 		else {
 			const minor = toMinor(patch.budget, region.currency);
-			if (minor === null || !Number.isSafeInteger(minor)) issues.budget = [digitsIssue(region.currency)];
+			if (minor === null || !Number.isSafeInteger(minor))
+				issues.budget = [digitsIssue(region.currency)];
 			else fields.budgetMinor = minor;
 		}
-	} else if (build.budgetMinor !== null && region.currency !== build.region.currency && !issues.regionCode) {
+	} else if (
+		build.budgetMinor !== null &&
+		region.currency !== build.region.currency &&
+		!issues.regionCode
+	) {
 		try {
-			fields.budgetMinor = convertThroughEur(money(Number(build.budgetMinor), build.region.currency), region.currency, await fx.ratesForPricing()).amountMinor;
+			fields.budgetMinor = convertThroughEur(
+				money(Number(build.budgetMinor), build.region.currency),
+				region.currency,
+				await fx.ratesForPricing()
+			).amountMinor;
 		} catch (e) {
 			if (!(e instanceof MissingRateError)) throw e;
-			issues.budget = [`There is no exchange rate to convert your budget to ${region.currency}; enter it again in ${region.currency}.`];
+			issues.budget = [
+				`There is no exchange rate to convert your budget to ${region.currency}; enter it again in ${region.currency}.`
+			];
 		}
 	}
 	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
@@ -738,7 +949,12 @@ export interface SlotPatch {
 	quantity?: number;
 	/** null removes the override. */
 	priceOverride?: { amount: string; store: string; date: string } | null;
-	purchase?: { purchased: boolean; paid?: string | null; purchasedAt?: string | null; store?: string | null };
+	purchase?: {
+		purchased: boolean;
+		paid?: string | null;
+		purchasedAt?: string | null;
+		store?: string | null;
+	};
 }
 
 /**
@@ -748,7 +964,13 @@ export interface SlotPatch {
  * Amounts are in the build region's currency with its digits; dates are checked by the schema.
  * `purchased: false` clears what was paid, when and where.
  */
-export async function updateSlot(ownerId: string, id: number, slotId: number, patch: SlotPatch, expectedVersion: number): Promise<MutationOutcome> {
+export async function updateSlot(
+	ownerId: string,
+	id: number,
+	slotId: number,
+	patch: SlotPatch,
+	expectedVersion: number
+): Promise<MutationOutcome> {
 	const build = await ownBuild(ownerId, id);
 	if (!build) return { kind: 'not_found' };
 	const slot = await BuildSlot.findOne({ where: { id: slotId, buildId: id } });
@@ -760,9 +982,12 @@ export async function updateSlot(ownerId: string, id: number, slotId: number, pa
 	if (patch.partId !== undefined && patch.partId !== slot.partId) {
 		const part = await Part.findByPk(patch.partId, { attributes: ['id', 'category'] });
 		if (!part) issues.partId = ['No such part in the catalog.'];
-		else if (part.category !== slot.category) issues.partId = [`Choose a part of this slot's category (${slot.category}).`];
+		else if (part.category !== slot.category)
+			issues.partId = [`Choose a part of this slot's category (${slot.category}).`];
 		else {
-			const baseSlots = build.baseRevisionId ? keyedRevisionSlots(await loadRevisionSlots([build.baseRevisionId])) : [];
+			const baseSlots = build.baseRevisionId
+				? keyedRevisionSlots(await loadRevisionSlots([build.baseRevisionId]))
+				: [];
 			const baseByKey = new Map(baseSlots.map((k) => [k.key, k.slot]));
 			fields.partId = part.id;
 			fields.origin = originOf({ baseByKey } as PricingContext, slot.sourceSlotKey, part.id);
@@ -773,7 +998,8 @@ export async function updateSlot(ownerId: string, id: number, slotId: number, pa
 	if (patch.priceOverride === null) Object.assign(fields, clearedOverride());
 	else if (patch.priceOverride) {
 		const minor = toMinor(patch.priceOverride.amount, currency);
-		if (minor === null || !Number.isSafeInteger(minor)) issues['priceOverride.amount'] = [digitsIssue(currency)];
+		if (minor === null || !Number.isSafeInteger(minor))
+			issues['priceOverride.amount'] = [digitsIssue(currency)];
 		else
 			Object.assign(fields, {
 				priceOverrideMinor: minor,
@@ -785,13 +1011,20 @@ export async function updateSlot(ownerId: string, id: number, slotId: number, pa
 	if (patch.purchase) {
 		const p = patch.purchase;
 		if (!p.purchased) {
-			Object.assign(fields, { purchased: false, paidMinor: null, paidCurrency: null, purchasedAt: null, purchaseStore: null });
+			Object.assign(fields, {
+				purchased: false,
+				paidMinor: null,
+				paidCurrency: null,
+				purchasedAt: null,
+				purchaseStore: null
+			});
 		} else {
 			fields.purchased = true;
 			if (p.paid === null) Object.assign(fields, { paidMinor: null, paidCurrency: null });
 			else if (p.paid !== undefined) {
 				const minor = toMinor(p.paid, currency);
-				if (minor === null || !Number.isSafeInteger(minor)) issues['purchase.paid'] = [digitsIssue(currency)];
+				if (minor === null || !Number.isSafeInteger(minor))
+					issues['purchase.paid'] = [digitsIssue(currency)];
 				else Object.assign(fields, { paidMinor: minor, paidCurrency: currency });
 			}
 			if (p.purchasedAt !== undefined) fields.purchasedAt = p.purchasedAt ?? null;
@@ -800,12 +1033,18 @@ export async function updateSlot(ownerId: string, id: number, slotId: number, pa
 	}
 	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	return change(ownerId, id, expectedVersion, {}, async (transaction) => {
-		if (Object.keys(fields).length > 0) await BuildSlot.update(fields, { where: { id: slot.id, buildId: id }, transaction });
+		if (Object.keys(fields).length > 0)
+			await BuildSlot.update(fields, { where: { id: slot.id, buildId: id }, transaction });
 	});
 }
 
 function clearedOverride(): Partial<BuildSlot> {
-	return { priceOverrideMinor: null, priceOverrideCurrency: null, priceOverrideStore: null, priceOverrideDate: null };
+	return {
+		priceOverrideMinor: null,
+		priceOverrideCurrency: null,
+		priceOverrideStore: null,
+		priceOverrideDate: null
+	};
 }
 
 /** A slot of the reader's own (no source key, origin 'custom'), placed last. */
@@ -820,20 +1059,36 @@ export async function addSlot(
 	const issues: Issues = {};
 	const part = await Part.findByPk(input.partId, { attributes: ['id', 'category'] });
 	if (!part) issues.partId = ['No such part in the catalog.'];
-	else if (part.category !== input.category) issues.partId = [`Choose a part of the slot's category (${input.category}).`];
+	else if (part.category !== input.category)
+		issues.partId = [`Choose a part of the slot's category (${input.category}).`];
 	const count = await BuildSlot.count({ where: { buildId: id } });
 	if (count >= MAX_BUILD_SLOTS) issues._form = [`A build has at most ${MAX_BUILD_SLOTS} slots.`];
 	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	return change(ownerId, id, expectedVersion, {}, async (transaction) => {
-		const last = (await BuildSlot.max('position', { where: { buildId: id }, transaction })) as number | null;
+		const last = (await BuildSlot.max('position', { where: { buildId: id }, transaction })) as
+			number | null;
 		await BuildSlot.create(
-			{ buildId: id, sourceSlotKey: null, category: input.category, label: input.label, position: (last ?? 0) + 1, partId: input.partId, quantity: input.quantity, origin: 'custom' },
+			{
+				buildId: id,
+				sourceSlotKey: null,
+				category: input.category,
+				label: input.label,
+				position: (last ?? 0) + 1,
+				partId: input.partId,
+				quantity: input.quantity,
+				origin: 'custom'
+			},
 			{ transaction }
 		);
 	});
 }
 
-export async function removeSlot(ownerId: string, id: number, slotId: number, expectedVersion: number): Promise<MutationOutcome> {
+export async function removeSlot(
+	ownerId: string,
+	id: number,
+	slotId: number,
+	expectedVersion: number
+): Promise<MutationOutcome> {
 	const build = await ownBuild(ownerId, id);
 	if (!build) return { kind: 'not_found' };
 	const slot = await BuildSlot.findOne({ where: { id: slotId, buildId: id }, attributes: ['id'] });
@@ -847,7 +1102,18 @@ export async function removeSlot(ownerId: string, id: number, slotId: number, ex
 // CSV shopping list
 // ---------------------------------------------------------------------------------------------
 
-export const BUILD_CSV_COLUMNS = ['slot', 'part', 'quantity', 'unit price', 'line total', 'currency', 'status', 'store', 'bought', 'paid'] as const;
+export const BUILD_CSV_COLUMNS = [
+	'slot',
+	'part',
+	'quantity',
+	'unit price',
+	'line total',
+	'currency',
+	'status',
+	'store',
+	'bought',
+	'paid'
+] as const;
 
 /** Minor units as a plain decimal in the currency's digits: 69999 USD → "699.99", −500 → "-5.00". */
 export function decimalOf(m: Money): string {
@@ -865,7 +1131,11 @@ export function decimalOf(m: Money): string {
  * formula get a leading quote (services/catalog-csv neutraliseCell); amounts we format
  * ourselves ("-12.50" left of budget) are plain numbers and stay numbers.
  */
-export async function exportCsv(viewer: Viewer, id: number, opts: { shareToken?: string; regionCode?: string } = {}): Promise<string | null> {
+export async function exportCsv(
+	viewer: Viewer,
+	id: number,
+	opts: { shareToken?: string; regionCode?: string } = {}
+): Promise<string | null> {
 	const view = await getBuild(viewer, id, opts);
 	if (!view) return null;
 	const currency = view.region.currency;
@@ -883,17 +1153,44 @@ export async function exportCsv(viewer: Viewer, id: number, opts: { shareToken?:
 			s.price?.status ?? 'unpriced',
 			neutraliseCell(s.price?.storeName ?? ''),
 			view.isOwner ? (s.purchase.purchased ? 'yes' : 'no') : '',
-			paid ? (paid.currency === currency ? decimalOf(paid) : neutraliseCell(`${decimalOf(paid)} ${paid.currency}`)) : ''
+			paid
+				? paid.currency === currency
+					? decimalOf(paid)
+					: neutraliseCell(`${decimalOf(paid)} ${paid.currency}`)
+				: ''
 		]);
 	}
-	const total = (label: string, m: Money | null) => [label, '', '', '', amount(m), currency, '', '', '', ''];
+	const total = (label: string, m: Money | null) => [
+		label,
+		'',
+		'',
+		'',
+		amount(m),
+		currency,
+		'',
+		'',
+		'',
+		''
+	];
 	rows.push(total('Planned total', view.totals.planned));
 	if (view.isOwner) {
 		rows.push(total('Spent', view.totals.spent));
 		rows.push(total('Remaining to buy', view.totals.remainingToBuy));
 		if (view.totals.leftOfBudget) rows.push(total('Left of budget', view.totals.leftOfBudget));
 	}
-	if (view.totals.unpricedSlots > 0) rows.push([`Slots without a price (not in the totals): ${view.totals.unpricedSlots}`, '', '', '', '', '', '', '', '', '']);
+	if (view.totals.unpricedSlots > 0)
+		rows.push([
+			`Slots without a price (not in the totals): ${view.totals.unpricedSlots}`,
+			'',
+			'',
+			'',
+			'',
+			'',
+			'',
+			'',
+			'',
+			''
+		]);
 	return stringify(rows, { record_delimiter: '\r\n' });
 }
 
@@ -923,20 +1220,43 @@ async function latestQuotes(partIds: number[], regionId: number): Promise<Map<nu
 }
 
 function quoteInput(q: QuoteWithStore): QuoteInput {
-	return { unit: money(Number(q.amountMinor), q.currency), taxIncluded: q.taxIncluded, observedAt: q.observedAt.toISOString(), storeName: q.store.name };
+	return {
+		unit: money(Number(q.amountMinor), q.currency),
+		taxIncluded: q.taxIncluded,
+		observedAt: q.observedAt.toISOString(),
+		storeName: q.store.name
+	};
 }
 
 function priceLine(line: PricedLine, region: Region): PriceLine | null {
 	if (line.status === 'unpriced' || !line.unit) return null;
-	return { unit: line.unit, status: line.status, storeName: line.storeName, observedAt: line.date, taxIncluded: region.taxMode === 'inclusive' };
+	return {
+		unit: line.unit,
+		status: line.status,
+		storeName: line.storeName,
+		observedAt: line.date,
+		taxIncluded: region.taxMode === 'inclusive'
+	};
 }
 
 function pricingOf(r: Region): RegionPricing {
-	return { code: r.code, currency: r.currency, taxMode: r.taxMode as TaxMode, taxRateBp: r.taxRateBp, categoryFactorsBp: r.categoryFactorsBp ?? {} };
+	return {
+		code: r.code,
+		currency: r.currency,
+		taxMode: r.taxMode as TaxMode,
+		taxRateBp: r.taxRateBp,
+		categoryFactorsBp: r.categoryFactorsBp ?? {}
+	};
 }
 
 function partRef(p: Part): PartRef {
-	return { id: p.id, slug: p.slug, brand: p.brand, model: p.model, category: p.category as PartCategory };
+	return {
+		id: p.id,
+		slug: p.slug,
+		brand: p.brand,
+		model: p.model,
+		category: p.category as PartCategory
+	};
 }
 
 function partInfo(p: Part): PartInfo {
@@ -948,5 +1268,11 @@ function nameOf(p: Part): string {
 }
 
 function regionSummary(r: Region): RegionSummary {
-	return { code: r.code, name: r.name, currency: r.currency, taxMode: r.taxMode as TaxMode, taxRateBp: r.taxRateBp };
+	return {
+		code: r.code,
+		name: r.name,
+		currency: r.currency,
+		taxMode: r.taxMode as TaxMode,
+		taxRateBp: r.taxRateBp
+	};
 }

@@ -96,23 +96,38 @@ interface ParsedRow {
 }
 
 /** The header and data rows of the text, or the file-level problem that stops reading it. */
-export function parseCsvText(text: string): { ok: true; rows: ParsedRow[]; cellCountProblems: ImportProblem[] } | { ok: false; problem: ImportProblem } {
+export function parseCsvText(
+	text: string
+):
+	| { ok: true; rows: ParsedRow[]; cellCountProblems: ImportProblem[] }
+	| { ok: false; problem: ImportProblem } {
 	let records: string[][];
 	try {
-		records = parse(text, { relax_column_count: true, skip_empty_lines: false, bom: true }) as string[][];
+		records = parse(text, {
+			relax_column_count: true,
+			skip_empty_lines: false,
+			bom: true
+		}) as string[][];
 	} catch (e) {
 		if (e instanceof CsvError) {
 			const line = (e as CsvError & { lines?: number }).lines;
 			return {
 				ok: false,
-				problem: { row: 0, column: null, reason: `The file is not well-formed CSV${line ? ` (near line ${line})` : ''}: ${e.message}` }
+				problem: {
+					row: 0,
+					column: null,
+					reason: `The file is not well-formed CSV${line ? ` (near line ${line})` : ''}: ${e.message}`
+				}
 			};
 		}
 		throw e;
 	}
 	const header = records[0]?.map((h) => h.trim());
 	if (!header || (header.length === 1 && header[0] === '')) {
-		return { ok: false, problem: { row: 1, column: null, reason: 'The file is empty: expected a header row.' } };
+		return {
+			ok: false,
+			problem: { row: 1, column: null, reason: 'The file is empty: expected a header row.' }
+		};
 	}
 	const expected = CSV_COLUMNS.join(',');
 	if (header.join(',') !== expected) {
@@ -140,16 +155,26 @@ export function parseCsvText(text: string): { ok: true; rows: ParsedRow[]; cellC
 			});
 			continue;
 		}
-		const cells = Object.fromEntries(CSV_COLUMNS.map((c, i) => [c, record[i] ?? ''])) as Record<CsvColumn, string>;
+		const cells = Object.fromEntries(CSV_COLUMNS.map((c, i) => [c, record[i] ?? ''])) as Record<
+			CsvColumn,
+			string
+		>;
 		rows.push({ row, cells });
 	}
 	return { ok: true, rows, cellCountProblems };
 }
 
-const FIELD_COLUMN: Record<string, CsvColumn> = { category: 'category', brand: 'brand', model: 'model', slug: 'slug' };
+const FIELD_COLUMN: Record<string, CsvColumn> = {
+	category: 'category',
+	brand: 'brand',
+	model: 'model',
+	slug: 'slug'
+};
 
 /** Every problem of one row on its own (no catalog or other rows involved), or the checked part. */
-export function checkRow(parsed: ParsedRow): { ok: true; part: ImportedPartRow } | { ok: false; problems: ImportProblem[] } {
+export function checkRow(
+	parsed: ParsedRow
+): { ok: true; part: ImportedPartRow } | { ok: false; problems: ImportProblem[] } {
 	const { row, cells } = parsed;
 	const problems: ImportProblem[] = [];
 	for (const column of CSV_COLUMNS) {
@@ -167,19 +192,43 @@ export function checkRow(parsed: ParsedRow): { ok: true; part: ImportedPartRow }
 
 	let specs: unknown;
 	const specsText = cells.specs_json.trim();
-	if (specsText === '') problems.push({ row, column: 'specs_json', reason: 'Empty: give the specs as a JSON object, e.g. {"sizeMm":120,"count":1,"maxRpm":1500}.' });
-	else if (specsText.length > MAX_SPECS_JSON_CHARS) problems.push({ row, column: 'specs_json', reason: `Longer than ${MAX_SPECS_JSON_CHARS} characters.` });
+	if (specsText === '')
+		problems.push({
+			row,
+			column: 'specs_json',
+			reason: 'Empty: give the specs as a JSON object, e.g. {"sizeMm":120,"count":1,"maxRpm":1500}.'
+		});
+	else if (specsText.length > MAX_SPECS_JSON_CHARS)
+		problems.push({
+			row,
+			column: 'specs_json',
+			reason: `Longer than ${MAX_SPECS_JSON_CHARS} characters.`
+		});
 	else {
 		try {
 			specs = JSON.parse(specsText);
 			if (!specs || typeof specs !== 'object' || Array.isArray(specs)) {
-				problems.push({ row, column: 'specs_json', reason: 'Must be a JSON object ({...}) of spec fields.' });
+				problems.push({
+					row,
+					column: 'specs_json',
+					reason: 'Must be a JSON object ({...}) of spec fields.'
+				});
 			}
 		} catch (e) {
-			problems.push({ row, column: 'specs_json', reason: `Not valid JSON: ${(e as Error).message}.` });
+			problems.push({
+				row,
+				column: 'specs_json',
+				reason: `Not valid JSON: ${(e as Error).message}.`
+			});
 		}
 	}
-	const checked = checkPart({ category: cells.category.trim(), brand: cells.brand, model: cells.model, slug: cells.slug, specs: specs ?? {} });
+	const checked = checkPart({
+		category: cells.category.trim(),
+		brand: cells.brand,
+		model: cells.model,
+		slug: cells.slug,
+		specs: specs ?? {}
+	});
 	if (!checked.ok) {
 		// With the JSON itself refused, spec messages about the stand-in "{}" would only repeat it.
 		const jsonRefused = problems.length > 0;
@@ -187,8 +236,18 @@ export function checkRow(parsed: ParsedRow): { ok: true; part: ImportedPartRow }
 			const column = FIELD_COLUMN[key];
 			if (!column && jsonRefused) continue;
 			for (const message of messages) {
-				if (column) problems.push({ row, column, reason: column === 'category' ? `"${cells.category.trim()}": ${message}` : message });
-				else problems.push({ row, column: 'specs_json', reason: key === 'spec' ? message : `${key.slice('spec.'.length)}: ${message}` });
+				if (column)
+					problems.push({
+						row,
+						column,
+						reason: column === 'category' ? `"${cells.category.trim()}": ${message}` : message
+					});
+				else
+					problems.push({
+						row,
+						column: 'specs_json',
+						reason: key === 'spec' ? message : `${key.slice('spec.'.length)}: ${message}`
+					});
 			}
 		}
 	}
@@ -205,8 +264,18 @@ interface CheckedFile {
 }
 
 /** Decodes, parses and checks a file against itself and the catalog (no writes). */
-export async function checkFile(bytes: Uint8Array, fileName: string, transaction?: Transaction): Promise<CheckedFile> {
-	const result: CheckedFile = { fileName, totalRows: 0, problems: [], parts: [], badRowNumbers: new Set() };
+export async function checkFile(
+	bytes: Uint8Array,
+	fileName: string,
+	transaction?: Transaction
+): Promise<CheckedFile> {
+	const result: CheckedFile = {
+		fileName,
+		totalRows: 0,
+		problems: [],
+		parts: [],
+		badRowNumbers: new Set()
+	};
 	const decoded = decodeCsvBytes(bytes);
 	if (!decoded.ok) {
 		result.problems.push({ row: 0, column: null, reason: decoded.reason });
@@ -223,7 +292,11 @@ export async function checkFile(bytes: Uint8Array, fileName: string, transaction
 		return result;
 	}
 	if (result.totalRows > MAX_ROWS) {
-		result.problems.push({ row: 0, column: null, reason: `The file has ${result.totalRows} parts; import at most ${MAX_ROWS} at a time.` });
+		result.problems.push({
+			row: 0,
+			column: null,
+			reason: `The file has ${result.totalRows} parts; import at most ${MAX_ROWS} at a time.`
+		});
 		return result;
 	}
 	const problems: ImportProblem[] = [...parsed.cellCountProblems];
@@ -237,14 +310,21 @@ export async function checkFile(bytes: Uint8Array, fileName: string, transaction
 		}
 		const earlier = firstRowOfSlug.get(checked.part.slug);
 		if (earlier !== undefined) {
-			problems.push({ row: row.row, column: 'slug', reason: `The slug "${checked.part.slug}" is already used on row ${earlier}; each part needs its own slug.` });
+			problems.push({
+				row: row.row,
+				column: 'slug',
+				reason: `The slug "${checked.part.slug}" is already used on row ${earlier}; each part needs its own slug.`
+			});
 			continue;
 		}
 		firstRowOfSlug.set(checked.part.slug, row.row);
 		good.push(checked.part);
 	}
 	// Against the catalog: a slug there with another category cannot be updated into this one.
-	const existing = await existingBySlug(good.map((p) => p.slug), transaction);
+	const existing = await existingBySlug(
+		good.map((p) => p.slug),
+		transaction
+	);
 	for (const part of good) {
 		const current = existing.get(part.slug);
 		if (current && current.category !== part.category) {
@@ -266,7 +346,11 @@ async function existingBySlug(slugs: string[], transaction?: Transaction) {
 	for (let i = 0; i < slugs.length; i += 500) {
 		const chunk = slugs.slice(i, i + 500);
 		if (chunk.length === 0) continue;
-		const parts = await Part.findAll({ where: { slug: { [Op.in]: chunk } }, transaction, ...(transaction ? { lock: transaction.LOCK.UPDATE } : {}) });
+		const parts = await Part.findAll({
+			where: { slug: { [Op.in]: chunk } },
+			transaction,
+			...(transaction ? { lock: transaction.LOCK.UPDATE } : {})
+		});
 		for (const part of parts) found.set(part.slug, part);
 	}
 	return found;
@@ -275,7 +359,9 @@ async function existingBySlug(slugs: string[], transaction?: Transaction) {
 function actionFor(part: ImportedPartRow, current: Part | undefined): ImportRowSummary['action'] {
 	if (!current) return 'create';
 	const same =
-		current.brand === part.brand && current.model === part.model && stableJson(current.specs) === stableJson(part.specs);
+		current.brand === part.brand &&
+		current.model === part.model &&
+		stableJson(current.specs) === stableJson(part.specs);
 	return same ? 'unchanged' : 'update';
 }
 
@@ -283,29 +369,61 @@ function actionFor(part: ImportedPartRow, current: Part | undefined): ImportRowS
  * Step 1: checks an uploaded file. With any problem, reports them all and stores nothing.
  * Otherwise stores the checked rows for `editorId` to confirm, and returns their id.
  */
-export async function upload(editorId: string, bytes: Uint8Array, fileName: string, now = new Date()): Promise<UploadOutcome> {
+export async function upload(
+	editorId: string,
+	bytes: Uint8Array,
+	fileName: string,
+	now = new Date()
+): Promise<UploadOutcome> {
 	const name = cleanFileName(fileName);
 	if (bytes.length > MAX_UPLOAD_BYTES) {
-		return invalid(name, 0, 0, [{ row: 0, column: null, reason: `The file is ${formatBytes(bytes.length)}; upload at most ${formatBytes(MAX_UPLOAD_BYTES)} at a time.` }]);
+		return invalid(name, 0, 0, [
+			{
+				row: 0,
+				column: null,
+				reason: `The file is ${formatBytes(bytes.length)}; upload at most ${formatBytes(MAX_UPLOAD_BYTES)} at a time.`
+			}
+		]);
 	}
-	if (bytes.length === 0) return invalid(name, 0, 0, [{ row: 0, column: null, reason: 'Choose a CSV file to upload (the one sent was empty).' }]);
+	if (bytes.length === 0)
+		return invalid(name, 0, 0, [
+			{ row: 0, column: null, reason: 'Choose a CSV file to upload (the one sent was empty).' }
+		]);
 	const checked = await checkFile(bytes, name);
 	if (checked.problems.length > 0) {
-		return invalid(name, checked.totalRows, checked.totalRows - checked.badRowNumbers.size, checked.problems);
+		return invalid(
+			name,
+			checked.totalRows,
+			checked.totalRows - checked.badRowNumbers.size,
+			checked.problems
+		);
 	}
 	const id = randomUUID();
 	await sequelize.transaction(async (transaction) => {
 		// Housekeeping here rather than a timer: no process keeps state between requests.
 		await CatalogImport.destroy({ where: { expiresAt: { [Op.lt]: now } }, transaction });
 		await CatalogImport.create(
-			{ id, editorId, fileName: name, rowCount: checked.parts.length, payload: checked.parts, createdAt: now, expiresAt: new Date(now.getTime() + IMPORT_TTL_MS) },
+			{
+				id,
+				editorId,
+				fileName: name,
+				rowCount: checked.parts.length,
+				payload: checked.parts,
+				createdAt: now,
+				expiresAt: new Date(now.getTime() + IMPORT_TTL_MS)
+			},
 			{ transaction }
 		);
 	});
 	return { kind: 'ready', importId: id };
 }
 
-function invalid(fileName: string, totalRows: number, goodRows: number, problems: ImportProblem[]): UploadOutcome {
+function invalid(
+	fileName: string,
+	totalRows: number,
+	goodRows: number,
+	problems: ImportProblem[]
+): UploadOutcome {
 	const badRows = new Set(problems.filter((p) => p.row > 1).map((p) => p.row)).size;
 	return {
 		kind: 'invalid',
@@ -319,7 +437,10 @@ function invalid(fileName: string, totalRows: number, goodRows: number, problems
 }
 
 function cleanFileName(name: string): string {
-	const cleaned = name.replace(/[\u0000-\u001f\u007f]/g, '').replace(/^.*[\\/]/, '').trim();
+	const cleaned = name
+		.replace(/\p{Cc}/gu, '')
+		.replace(/^.*[\\/]/, '')
+		.trim();
 	return (cleaned || 'upload.csv').slice(0, 200);
 }
 
@@ -327,7 +448,12 @@ function formatBytes(n: number): string {
 	return n >= 1024 * 1024 ? `${(n / 1024 / 1024).toFixed(1)} MB` : `${Math.ceil(n / 1024)} KB`;
 }
 
-async function loadImport(editorId: string, importId: string, now: Date, transaction?: Transaction) {
+async function loadImport(
+	editorId: string,
+	importId: string,
+	now: Date,
+	transaction?: Transaction
+) {
 	if (!/^[0-9a-f-]{36}$/.test(importId)) return null;
 	const stored = await CatalogImport.findOne({
 		where: { id: importId, editorId, expiresAt: { [Op.gt]: now } },
@@ -338,7 +464,11 @@ async function loadImport(editorId: string, importId: string, now: Date, transac
 }
 
 /** The stored upload `importId` of `editorId` with what confirming would do, or null (unknown, someone else's, or expired). */
-export async function preview(editorId: string, importId: string, now = new Date()): Promise<ImportPreview | null> {
+export async function preview(
+	editorId: string,
+	importId: string,
+	now = new Date()
+): Promise<ImportPreview | null> {
 	const stored = await loadImport(editorId, importId, now);
 	if (!stored) return null;
 	const rows = stored.payload;
@@ -377,7 +507,11 @@ const INSERT_CHUNK = 100;
  * again first (the catalog or the schemas may have changed since the preview); any
  * problem or error rolls back everything.
  */
-export async function commit(editorId: string, importId: string, now = new Date()): Promise<CommitOutcome> {
+export async function commit(
+	editorId: string,
+	importId: string,
+	now = new Date()
+): Promise<CommitOutcome> {
 	return sequelize.transaction(async (transaction) => {
 		const stored = await loadImport(editorId, importId, now, transaction);
 		if (!stored) return { kind: 'not_found' } as const;
@@ -389,21 +523,33 @@ export async function commit(editorId: string, importId: string, now = new Date(
 			const checked = checkPart(row);
 			if (!checked.ok) {
 				for (const [key, messages] of Object.entries(checked.issues)) {
-					problems.push({ row: row.row, column: FIELD_COLUMN[key] ?? 'specs_json', reason: `${key}: ${messages.join(' ')}` });
+					problems.push({
+						row: row.row,
+						column: FIELD_COLUMN[key] ?? 'specs_json',
+						reason: `${key}: ${messages.join(' ')}`
+					});
 				}
 			} else parts.push({ row: row.row, ...checked.part });
 		}
-		const existing = await existingBySlug(parts.map((p) => p.slug), transaction);
+		const existing = await existingBySlug(
+			parts.map((p) => p.slug),
+			transaction
+		);
 		for (const part of parts) {
 			const current = existing.get(part.slug);
 			if (current && current.category !== part.category) {
-				problems.push({ row: part.row, column: 'slug', reason: `"${part.slug}" is now an existing ${current.category} part.` });
+				problems.push({
+					row: part.row,
+					column: 'slug',
+					reason: `"${part.slug}" is now an existing ${current.category} part.`
+				});
 			}
 		}
 		if (problems.length) {
 			return {
 				kind: 'conflict',
-				message: 'The catalog or its rules changed since the preview; nothing was written. Upload the file again to see what to fix.',
+				message:
+					'The catalog or its rules changed since the preview; nothing was written. Upload the file again to see what to fix.',
 				problems
 			} as const;
 		}
@@ -419,9 +565,19 @@ export async function commit(editorId: string, importId: string, now = new Date(
 			else if (action === 'unchanged' || !current) unchanged++;
 			else {
 				const before = snapshotOf(current);
-				await current.update({ brand: part.brand, model: part.model, specs: part.specs }, { transaction });
+				await current.update(
+					{ brand: part.brand, model: part.model, specs: part.specs },
+					{ transaction }
+				);
 				await audit.record(
-					{ actorId: editorId, action: 'part.updated', subjectType: 'part', subjectId: current.id, before, after: { ...snapshotOf(current), importId } },
+					{
+						actorId: editorId,
+						action: 'part.updated',
+						subjectType: 'part',
+						subjectId: current.id,
+						before,
+						after: { ...snapshotOf(current), importId }
+					},
 					transaction
 				);
 				updated++;
@@ -430,16 +586,32 @@ export async function commit(editorId: string, importId: string, now = new Date(
 		for (let i = 0; i < toCreate.length; i += INSERT_CHUNK) {
 			const chunk = toCreate.slice(i, i + INSERT_CHUNK);
 			await Part.bulkCreate(
-				chunk.map(({ category, brand, model, slug, specs }) => ({ category, brand, model, slug, specs })),
+				chunk.map(({ category, brand, model, slug, specs }) => ({
+					category,
+					brand,
+					model,
+					slug,
+					specs
+				})),
 				{ transaction }
 			);
 			// Ids by slug rather than trusting the driver's insert ids for a multi-row insert.
-			const inserted = await Part.findAll({ where: { slug: { [Op.in]: chunk.map((p) => p.slug) } }, attributes: ['id', 'slug'], transaction });
+			const inserted = await Part.findAll({
+				where: { slug: { [Op.in]: chunk.map((p) => p.slug) } },
+				attributes: ['id', 'slug'],
+				transaction
+			});
 			const idOf = new Map(inserted.map((p) => [p.slug, p.id]));
 			for (const part of chunk) {
 				const { category, brand, model, slug, specs } = part;
 				await audit.record(
-					{ actorId: editorId, action: 'part.created', subjectType: 'part', subjectId: idOf.get(slug) ?? slug, after: { category, brand, model, slug, specs, importId } },
+					{
+						actorId: editorId,
+						action: 'part.created',
+						subjectType: 'part',
+						subjectId: idOf.get(slug) ?? slug,
+						after: { category, brand, model, slug, specs, importId }
+					},
 					transaction
 				);
 			}
@@ -461,7 +633,13 @@ export async function commit(editorId: string, importId: string, now = new Date(
 }
 
 function snapshotOf(part: Part) {
-	return { category: part.category, brand: part.brand, model: part.model, slug: part.slug, specs: part.specs };
+	return {
+		category: part.category,
+		brand: part.brand,
+		model: part.model,
+		slug: part.slug,
+		specs: part.specs
+	};
 }
 
 /** Drops a stored upload without writing anything. */
@@ -473,7 +651,10 @@ export async function discard(editorId: string, importId: string): Promise<boole
 // ---------------------------------------------------------------- export
 
 function csvLines(rows: string[][]): string {
-	return stringify(rows.map((r) => r.map(neutraliseCell)), { record_delimiter: '\r\n' });
+	return stringify(
+		rows.map((r) => r.map(neutraliseCell)),
+		{ record_delimiter: '\r\n' }
+	);
 }
 
 /** Rows read from the database per batch while exporting. */
@@ -504,7 +685,13 @@ export function exportCatalogCsv(): ReadableStream<Uint8Array> {
 			});
 			if (parts.length > 0) {
 				lastId = parts[parts.length - 1]?.id ?? lastId;
-				controller.enqueue(encoder.encode(csvLines(parts.map((p) => [p.category, p.brand, p.model, p.slug, JSON.stringify(p.specs)]))));
+				controller.enqueue(
+					encoder.encode(
+						csvLines(
+							parts.map((p) => [p.category, p.brand, p.model, p.slug, JSON.stringify(p.specs)])
+						)
+					)
+				);
 			}
 			if (parts.length < EXPORT_BATCH) {
 				done = true;
@@ -523,21 +710,52 @@ export function templateCsv(): string {
 			'Example Silicon',
 			'Vantage 6C',
 			'example-silicon-vantage-6c',
-			JSON.stringify({ socket: 'AM5', cores: 6, threads: 12, baseClockGhz: 3.8, boostClockGhz: 5.1, tdpW: 65, memoryTypes: ['DDR5'], integratedGraphics: true, bundledCooler: true })
+			JSON.stringify({
+				socket: 'AM5',
+				cores: 6,
+				threads: 12,
+				baseClockGhz: 3.8,
+				boostClockGhz: 5.1,
+				tdpW: 65,
+				memoryTypes: ['DDR5'],
+				integratedGraphics: true,
+				bundledCooler: true
+			})
 		],
 		[
 			'motherboard',
 			'Example Boards',
 			'B6 Compact',
 			'',
-			JSON.stringify({ socket: 'AM5', chipset: 'B650', formFactor: 'microATX', memoryType: 'DDR5', memorySlots: 4, maxMemoryGb: 192, m2Slots: [{ pcieGen: 4, maxLengthMm: 80 }, { pcieGen: 4, maxLengthMm: 80 }], sataPorts: 4, wifi: true })
+			JSON.stringify({
+				socket: 'AM5',
+				chipset: 'B650',
+				formFactor: 'microATX',
+				memoryType: 'DDR5',
+				memorySlots: 4,
+				maxMemoryGb: 192,
+				m2Slots: [
+					{ pcieGen: 4, maxLengthMm: 80 },
+					{ pcieGen: 4, maxLengthMm: 80 }
+				],
+				sataPorts: 4,
+				wifi: true
+			})
 		],
 		[
 			'gpu',
 			'Example Graphics',
 			'Lumen 60 Dual',
 			'example-graphics-lumen-60-dual',
-			JSON.stringify({ chip: 'Lumen 60', vramGb: 8, lengthMm: 242, slotWidth: 2, boardPowerW: 165, powerConnectors: { pin6: 0, pin8: 1, h12v2x6: 0 }, pcieGen: 4 })
+			JSON.stringify({
+				chip: 'Lumen 60',
+				vramGb: 8,
+				lengthMm: 242,
+				slotWidth: 2,
+				boardPowerW: 165,
+				powerConnectors: { pin6: 0, pin8: 1, h12v2x6: 0 },
+				pcieGen: 4
+			})
 		]
 	]);
 }

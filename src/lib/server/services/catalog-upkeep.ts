@@ -27,7 +27,6 @@ import type { Issues, Outcome } from './outcome';
 
 export type { Issues, Outcome } from './outcome';
 
-
 export interface PartRow {
 	id: number;
 	category: PartCategory;
@@ -59,9 +58,13 @@ function add(issues: Issues, key: string, message: string) {
  * database. Spec problems are keyed `spec.<path>`; problems of the specs object as a
  * whole (an unknown field) under `spec`. The CSV import uses the same check per row.
  */
-export function checkPart(raw: { category?: unknown; brand?: unknown; model?: unknown; slug?: unknown; specs?: unknown }):
-	| { ok: true; part: CheckedPart }
-	| { ok: false; issues: Issues } {
+export function checkPart(raw: {
+	category?: unknown;
+	brand?: unknown;
+	model?: unknown;
+	slug?: unknown;
+	specs?: unknown;
+}): { ok: true; part: CheckedPart } | { ok: false; issues: Issues } {
 	const fields = partFieldsInput.safeParse({
 		category: raw.category,
 		brand: raw.brand,
@@ -74,14 +77,22 @@ export function checkPart(raw: { category?: unknown; brand?: unknown; model?: un
 	if (category) {
 		const checked = validateSpecs(category, raw.specs);
 		if (checked.ok) specs = checked.specs;
-		else for (const issue of checked.issues) add(issues, issue.path ? `spec.${issue.path}` : 'spec', issue.message);
+		else
+			for (const issue of checked.issues)
+				add(issues, issue.path ? `spec.${issue.path}` : 'spec', issue.message);
 	}
 	if (!fields.success || !specs || !category) return { ok: false, issues };
 	const slug = fields.data.slug ?? slugify(fields.data.brand, fields.data.model);
 	if (slug === '' || (RESERVED_PART_SLUGS as readonly string[]).includes(slug)) {
-		return { ok: false, issues: { slug: ['Enter a slug: none can be made from this brand and model.'] } };
+		return {
+			ok: false,
+			issues: { slug: ['Enter a slug: none can be made from this brand and model.'] }
+		};
 	}
-	return { ok: true, part: { category, brand: fields.data.brand, model: fields.data.model, slug, specs } };
+	return {
+		ok: true,
+		part: { category, brand: fields.data.brand, model: fields.data.model, slug, specs }
+	};
 }
 
 function partCategoryOf(value: unknown): PartCategory | null {
@@ -100,18 +111,38 @@ function toPartRow(part: Part): PartRow {
 	};
 }
 
-function snapshot(part: { category: string; brand: string; model: string; slug: string; specs: Record<string, unknown> }) {
-	return { category: part.category, brand: part.brand, model: part.model, slug: part.slug, specs: part.specs };
+function snapshot(part: {
+	category: string;
+	brand: string;
+	model: string;
+	slug: string;
+	specs: Record<string, unknown>;
+}) {
+	return {
+		category: part.category,
+		brand: part.brand,
+		model: part.model,
+		slug: part.slug,
+		specs: part.specs
+	};
 }
 
 /** Parts whose brand, model or slug contains `q` (wildcards taken literally), optionally one category, A–Z. */
-export async function listParts(options: { q: string; category?: PartCategory; page: number }): Promise<Paged<PartRow>> {
+export async function listParts(options: {
+	q: string;
+	category?: PartCategory;
+	page: number;
+}): Promise<Paged<PartRow>> {
 	const conditions: WhereOptions<Part>[] = [];
 	const q = options.q.trim();
 	if (q !== '') {
 		const pattern = `%${escapeLike(q)}%`;
 		conditions.push({
-			[Op.or]: [{ brand: { [Op.like]: pattern } }, { model: { [Op.like]: pattern } }, { slug: { [Op.like]: pattern } }]
+			[Op.or]: [
+				{ brand: { [Op.like]: pattern } },
+				{ model: { [Op.like]: pattern } },
+				{ slug: { [Op.like]: pattern } }
+			]
 		});
 	}
 	if (options.category) conditions.push({ category: options.category });
@@ -129,7 +160,13 @@ export async function listParts(options: { q: string; category?: PartCategory; p
 		limit: EDITOR_PAGE_SIZE,
 		offset: window.offset
 	});
-	return { items: parts.map(toPartRow), total, page: window.page, perPage: EDITOR_PAGE_SIZE, pageCount: window.pageCount };
+	return {
+		items: parts.map(toPartRow),
+		total,
+		page: window.page,
+		perPage: EDITOR_PAGE_SIZE,
+		pageCount: window.pageCount
+	};
 }
 
 export async function getPart(slug: string): Promise<PartDetail | null> {
@@ -142,7 +179,10 @@ function slugTaken(slug: string): Issues {
 }
 
 /** Adds a part to the catalog on behalf of editor `actorId`. */
-export async function createPart(actorId: string, raw: Parameters<typeof checkPart>[0]): Promise<Outcome<{ part: PartDetail }>> {
+export async function createPart(
+	actorId: string,
+	raw: Parameters<typeof checkPart>[0]
+): Promise<Outcome<{ part: PartDetail }>> {
 	const checked = checkPart(raw);
 	if (!checked.ok) return { kind: 'invalid', issues: checked.issues };
 	const data = checked.part;
@@ -153,14 +193,21 @@ export async function createPart(actorId: string, raw: Parameters<typeof checkPa
 			}
 			const part = await Part.create({ ...data }, { transaction });
 			await audit.record(
-				{ actorId, action: 'part.created', subjectType: 'part', subjectId: part.id, after: snapshot(data) },
+				{
+					actorId,
+					action: 'part.created',
+					subjectType: 'part',
+					subjectId: part.id,
+					after: snapshot(data)
+				},
 				transaction
 			);
 			return { kind: 'ok', part: { ...toPartRow(part), specs: part.specs } } as const;
 		});
 	} catch (e) {
 		// Two editors adding the same slug at once: the unique index decides.
-		if (e instanceof UniqueConstraintError) return { kind: 'invalid', issues: slugTaken(data.slug) };
+		if (e instanceof UniqueConstraintError)
+			return { kind: 'invalid', issues: slugTaken(data.slug) };
 		throw e;
 	}
 }
@@ -175,17 +222,37 @@ export async function updatePart(
 	raw: { brand?: unknown; model?: unknown; specs?: unknown }
 ): Promise<Outcome<{ part: PartDetail; changed: boolean }>> {
 	return sequelize.transaction(async (transaction) => {
-		const part = await Part.findOne({ where: { slug }, transaction, lock: transaction.LOCK.UPDATE });
+		const part = await Part.findOne({
+			where: { slug },
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!part) return { kind: 'not_found' } as const;
-		const checked = checkPart({ category: part.category, brand: raw.brand, model: raw.model, slug: part.slug, specs: raw.specs });
+		const checked = checkPart({
+			category: part.category,
+			brand: raw.brand,
+			model: raw.model,
+			slug: part.slug,
+			specs: raw.specs
+		});
 		if (!checked.ok) return { kind: 'invalid', issues: checked.issues } as const;
 		const before = snapshot(part);
 		const after = snapshot({ ...checked.part, category: part.category, slug: part.slug });
 		if (stableJson(before) === stableJson(after)) {
-			return { kind: 'ok', part: { ...toPartRow(part), specs: part.specs }, changed: false } as const;
+			return {
+				kind: 'ok',
+				part: { ...toPartRow(part), specs: part.specs },
+				changed: false
+			} as const;
 		}
-		await part.update({ brand: after.brand, model: after.model, specs: after.specs }, { transaction });
-		await audit.record({ actorId, action: 'part.updated', subjectType: 'part', subjectId: part.id, before, after }, transaction);
+		await part.update(
+			{ brand: after.brand, model: after.model, specs: after.specs },
+			{ transaction }
+		);
+		await audit.record(
+			{ actorId, action: 'part.updated', subjectType: 'part', subjectId: part.id, before, after },
+			transaction
+		);
 		return { kind: 'ok', part: { ...toPartRow(part), specs: part.specs }, changed: true } as const;
 	});
 }
@@ -194,7 +261,11 @@ export async function updatePart(
 export function stableJson(value: unknown): string {
 	return JSON.stringify(value, (_key, v: unknown) =>
 		v && typeof v === 'object' && !Array.isArray(v)
-			? Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)))
+			? Object.fromEntries(
+					Object.entries(v as Record<string, unknown>).sort(([a], [b]) =>
+						a < b ? -1 : a > b ? 1 : 0
+					)
+				)
 			: v
 	);
 }
@@ -218,8 +289,16 @@ export interface RegionOption {
 
 /** Regions for the store and quote forms, by name. */
 export async function regionOptions(): Promise<RegionOption[]> {
-	const regions = await Region.findAll({ attributes: ['code', 'name', 'currency', 'taxMode'], order: [['name', 'ASC']] });
-	return regions.map((r) => ({ code: r.code, name: r.name, currency: r.currency, taxMode: r.taxMode }));
+	const regions = await Region.findAll({
+		attributes: ['code', 'name', 'currency', 'taxMode'],
+		order: [['name', 'ASC']]
+	});
+	return regions.map((r) => ({
+		code: r.code,
+		name: r.name,
+		currency: r.currency,
+		taxMode: r.taxMode
+	}));
 }
 
 /** Every store with its region and how many quotes it has, by name. */
@@ -229,14 +308,20 @@ export async function listStores(): Promise<StoreRow[]> {
 		order: [['name', 'ASC']]
 	});
 	const counts = await Quote.count({ group: ['storeId'] });
-	const byStore = new Map(counts.map((c) => [Number((c as unknown as { storeId: number }).storeId), Number(c.count)]));
+	const byStore = new Map(
+		counts.map((c) => [Number((c as unknown as { storeId: number }).storeId), Number(c.count)])
+	);
 	return stores.map((s) => {
 		const region = (s as Store & { region?: Region }).region;
 		return {
 			id: s.id,
 			name: s.name,
 			url: s.url,
-			region: { code: region?.code ?? '', name: region?.name ?? '', currency: region?.currency ?? '' },
+			region: {
+				code: region?.code ?? '',
+				name: region?.name ?? '',
+				currency: region?.currency ?? ''
+			},
 			quoteCount: byStore.get(s.id) ?? 0
 		};
 	});
@@ -255,20 +340,33 @@ function nameTaken(name: string): Issues {
 }
 
 /** Adds a store (name unique across regions, since quotes and guides name stores). */
-export async function createStore(actorId: string, raw: unknown): Promise<Outcome<{ storeId: number }>> {
+export async function createStore(
+	actorId: string,
+	raw: unknown
+): Promise<Outcome<{ storeId: number }>> {
 	const input = storeInput.safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const { name, url, regionCode } = input.data;
 	try {
 		return await sequelize.transaction(async (transaction) => {
 			const region = await regionByCode(regionCode, transaction);
-			if (!region) return { kind: 'invalid', issues: { regionCode: [`Unknown region "${regionCode}".`] } } as const;
+			if (!region)
+				return {
+					kind: 'invalid',
+					issues: { regionCode: [`Unknown region "${regionCode}".`] }
+				} as const;
 			if (await Store.findOne({ where: { name }, attributes: ['id'], transaction })) {
 				return { kind: 'invalid', issues: nameTaken(name) } as const;
 			}
 			const store = await Store.create({ name, url, regionId: region.id }, { transaction });
 			await audit.record(
-				{ actorId, action: 'store.created', subjectType: 'store', subjectId: store.id, after: storeSnapshot(store, region.code) },
+				{
+					actorId,
+					action: 'store.created',
+					subjectType: 'store',
+					subjectId: store.id,
+					after: storeSnapshot(store, region.code)
+				},
 				transaction
 			);
 			return { kind: 'ok', storeId: store.id } as const;
@@ -280,7 +378,11 @@ export async function createStore(actorId: string, raw: unknown): Promise<Outcom
 }
 
 /** Changes a store's name, region or address. */
-export async function updateStore(actorId: string, storeId: number, raw: unknown): Promise<Outcome<{ storeId: number }>> {
+export async function updateStore(
+	actorId: string,
+	storeId: number,
+	raw: unknown
+): Promise<Outcome<{ storeId: number }>> {
 	const input = storeInput.safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const { name, url, regionCode } = input.data;
@@ -289,14 +391,32 @@ export async function updateStore(actorId: string, storeId: number, raw: unknown
 			const store = await Store.findByPk(storeId, { transaction, lock: transaction.LOCK.UPDATE });
 			if (!store) return { kind: 'not_found' } as const;
 			const region = await regionByCode(regionCode, transaction);
-			if (!region) return { kind: 'invalid', issues: { regionCode: [`Unknown region "${regionCode}".`] } } as const;
-			const clash = await Store.findOne({ where: { name, id: { [Op.ne]: store.id } }, attributes: ['id'], transaction });
+			if (!region)
+				return {
+					kind: 'invalid',
+					issues: { regionCode: [`Unknown region "${regionCode}".`] }
+				} as const;
+			const clash = await Store.findOne({
+				where: { name, id: { [Op.ne]: store.id } },
+				attributes: ['id'],
+				transaction
+			});
 			if (clash) return { kind: 'invalid', issues: nameTaken(name) } as const;
-			const oldRegion = await Region.findByPk(store.regionId, { attributes: ['code'], transaction });
+			const oldRegion = await Region.findByPk(store.regionId, {
+				attributes: ['code'],
+				transaction
+			});
 			const before = storeSnapshot(store, oldRegion?.code ?? '');
 			await store.update({ name, url, regionId: region.id }, { transaction });
 			await audit.record(
-				{ actorId, action: 'store.updated', subjectType: 'store', subjectId: store.id, before, after: storeSnapshot(store, region.code) },
+				{
+					actorId,
+					action: 'store.updated',
+					subjectType: 'store',
+					subjectId: store.id,
+					before,
+					after: storeSnapshot(store, region.code)
+				},
 				transaction
 			);
 			return { kind: 'ok', storeId: store.id } as const;
@@ -322,7 +442,13 @@ export async function deleteStore(actorId: string, storeId: number): Promise<Out
 		const region = await Region.findByPk(store.regionId, { attributes: ['code'], transaction });
 		await store.destroy({ transaction });
 		await audit.record(
-			{ actorId, action: 'store.deleted', subjectType: 'store', subjectId: storeId, before: storeSnapshot(store, region?.code ?? '') },
+			{
+				actorId,
+				action: 'store.deleted',
+				subjectType: 'store',
+				subjectId: storeId,
+				before: storeSnapshot(store, region?.code ?? '')
+			},
 			transaction
 		);
 		return { kind: 'ok' } as const;
@@ -345,7 +471,9 @@ export interface QuoteRow {
 }
 
 /** The latest quotes, newest observation first; only one part's when `partSlug` is given. */
-export async function listRecentQuotes(options: { limit?: number; partSlug?: string } = {}): Promise<QuoteRow[]> {
+export async function listRecentQuotes(
+	options: { limit?: number; partSlug?: string } = {}
+): Promise<QuoteRow[]> {
 	const quotes = await Quote.findAll({
 		include: [
 			{
@@ -367,7 +495,11 @@ export async function listRecentQuotes(options: { limit?: number; partSlug?: str
 		const joined = q as Quote & { part?: Part; store?: Store; region?: Region };
 		return {
 			id: q.id,
-			part: { slug: joined.part?.slug ?? '', brand: joined.part?.brand ?? '', model: joined.part?.model ?? '' },
+			part: {
+				slug: joined.part?.slug ?? '',
+				brand: joined.part?.brand ?? '',
+				model: joined.part?.model ?? ''
+			},
 			store: joined.store?.name ?? '',
 			regionCode: joined.region?.code ?? '',
 			amountMinor: Number(q.amountMinor),
@@ -394,13 +526,21 @@ function knownDigits(currency: string): number | null {
  * refused, never rounded. Region and currency default to the store's region and its
  * currency; a region other than the store's is refused.
  */
-export async function addQuote(actorId: string, raw: unknown, now = new Date()): Promise<Outcome<{ quoteId: number }>> {
+export async function addQuote(
+	actorId: string,
+	raw: unknown,
+	now = new Date()
+): Promise<Outcome<{ quoteId: number }>> {
 	const input = quoteInput.safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const data = input.data;
 	return sequelize.transaction(async (transaction) => {
 		const issues: Issues = {};
-		const part = await Part.findOne({ where: { slug: data.partSlug }, attributes: ['id', 'slug'], transaction });
+		const part = await Part.findOne({
+			where: { slug: data.partSlug },
+			attributes: ['id', 'slug'],
+			transaction
+		});
 		if (!part) add(issues, 'partSlug', `No part has the slug "${data.partSlug}".`);
 		const store = await Store.findByPk(data.storeId, { transaction });
 		if (!store) add(issues, 'storeId', 'Choose a store from the list.');
@@ -410,12 +550,17 @@ export async function addQuote(actorId: string, raw: unknown, now = new Date()):
 			region = await regionByCode(data.regionCode, transaction);
 			if (!region) add(issues, 'regionCode', `Unknown region "${data.regionCode}".`);
 			else if (storeRegion && region.id !== storeRegion.id) {
-				add(issues, 'regionCode', `${store?.name} sells in ${storeRegion.name} (${storeRegion.code}); leave the region empty or choose that one.`);
+				add(
+					issues,
+					'regionCode',
+					`${store?.name} sells in ${storeRegion.name} (${storeRegion.code}); leave the region empty or choose that one.`
+				);
 			}
 		}
 		const currency = data.currency ?? region?.currency;
 		const digits = currency ? knownDigits(currency) : null;
-		if (data.currency !== undefined && digits === null) add(issues, 'currency', `Unknown currency code "${data.currency}".`);
+		if (data.currency !== undefined && digits === null)
+			add(issues, 'currency', `Unknown currency code "${data.currency}".`);
 		let amountMinor = 0;
 		let shippingMinor = 0;
 		if (currency && digits !== null) {
@@ -474,7 +619,17 @@ export async function addQuote(actorId: string, raw: unknown, now = new Date()):
 }
 
 /** Counts for the editor's landing page. */
-export async function catalogCounts(): Promise<{ parts: number; stores: number; quotes: number; regions: number }> {
-	const [parts, stores, quotes, regions] = await Promise.all([Part.count(), Store.count(), Quote.count(), Region.count()]);
+export async function catalogCounts(): Promise<{
+	parts: number;
+	stores: number;
+	quotes: number;
+	regions: number;
+}> {
+	const [parts, stores, quotes, regions] = await Promise.all([
+		Part.count(),
+		Store.count(),
+		Quote.count(),
+		Region.count()
+	]);
 	return { parts, stores, quotes, regions };
 }

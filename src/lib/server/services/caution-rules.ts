@@ -6,7 +6,10 @@
  */
 import { UniqueConstraintError } from 'sequelize';
 import type { Transaction } from 'sequelize';
-import type { CautionCondition, CautionRule as CautionRuleData } from '$lib/domain/pairing-cautions';
+import type {
+	CautionCondition,
+	CautionRule as CautionRuleData
+} from '$lib/domain/pairing-cautions';
 import { cautionRuleInput } from '$lib/schemas/caution-rules';
 import { fieldIssues } from '$lib/schemas/issues';
 import { CautionRule, User, sequelize } from '$lib/server/db';
@@ -14,7 +17,6 @@ import * as audit from './audit';
 import type { Issues, Outcome } from './outcome';
 
 export type { Issues, Outcome } from './outcome';
-
 
 export interface CautionRuleRow {
 	id: number;
@@ -45,8 +47,18 @@ function toRow(rule: Loaded): CautionRuleRow {
 	};
 }
 
-function snapshot(rule: { title: string; message: string; active: boolean; conditions: CautionCondition[] }) {
-	return { title: rule.title, message: rule.message, active: rule.active, conditions: rule.conditions };
+function snapshot(rule: {
+	title: string;
+	message: string;
+	active: boolean;
+	conditions: CautionCondition[];
+}) {
+	return {
+		title: rule.title,
+		message: rule.message,
+		active: rule.active,
+		conditions: rule.conditions
+	};
 }
 
 const authorInclude = [{ model: User, as: 'author', attributes: ['name'] }];
@@ -76,74 +88,131 @@ export async function activeRules(): Promise<CautionRuleData[]> {
 		include: authorInclude,
 		order: [['id', 'ASC']]
 	})) as Loaded[];
-	return rules.map((r) => ({ id: r.id, message: r.message, authorName: r.author?.name ?? FORMER_EDITOR, conditions: r.conditions }));
+	return rules.map((r) => ({
+		id: r.id,
+		message: r.message,
+		authorName: r.author?.name ?? FORMER_EDITOR,
+		conditions: r.conditions
+	}));
 }
 
 function titleTaken(title: string): Issues {
 	return { title: [`A rule titled "${title}" already exists; choose another title.`] };
 }
 
-async function titleInUse(title: string, exceptId: number | null, transaction: Transaction): Promise<boolean> {
-	const other = await CautionRule.findOne({ where: { title }, attributes: ['id'], transaction, lock: transaction.LOCK.UPDATE });
+async function titleInUse(
+	title: string,
+	exceptId: number | null,
+	transaction: Transaction
+): Promise<boolean> {
+	const other = await CautionRule.findOne({
+		where: { title },
+		attributes: ['id'],
+		transaction,
+		lock: transaction.LOCK.UPDATE
+	});
 	return other !== null && other.id !== exceptId;
 }
 
 /** Adds a rule written by editor `actorId`. `raw` is the form's object (see ruleFromForm). */
-export async function createRule(actorId: string, raw: unknown): Promise<Outcome<{ rule: CautionRuleRow }>> {
+export async function createRule(
+	actorId: string,
+	raw: unknown
+): Promise<Outcome<{ rule: CautionRuleRow }>> {
 	const parsed = cautionRuleInput.safeParse(raw);
 	if (!parsed.success) return { kind: 'invalid', issues: fieldIssues(parsed.error) };
 	const input = parsed.data;
-	return uniqueTitle(input.title, () => sequelize.transaction(async (transaction) => {
-		if (await titleInUse(input.title, null, transaction)) return { kind: 'invalid' as const, issues: titleTaken(input.title) };
-		const rule = await CautionRule.create({ ...input, authorId: actorId }, { transaction });
-		await audit.record(
-			{ actorId, action: 'caution_rule.created', subjectType: 'caution_rule', subjectId: rule.id, after: snapshot(input) },
-			transaction
-		);
-		const author = await User.findByPk(actorId, { attributes: ['name'], transaction });
-		return { kind: 'ok' as const, rule: toRow(Object.assign(rule, { author })) };
-	}));
+	return uniqueTitle(input.title, () =>
+		sequelize.transaction(async (transaction) => {
+			if (await titleInUse(input.title, null, transaction))
+				return { kind: 'invalid' as const, issues: titleTaken(input.title) };
+			const rule = await CautionRule.create({ ...input, authorId: actorId }, { transaction });
+			await audit.record(
+				{
+					actorId,
+					action: 'caution_rule.created',
+					subjectType: 'caution_rule',
+					subjectId: rule.id,
+					after: snapshot(input)
+				},
+				transaction
+			);
+			const author = await User.findByPk(actorId, { attributes: ['name'], transaction });
+			return { kind: 'ok' as const, rule: toRow(Object.assign(rule, { author })) };
+		})
+	);
 }
 
 /**
  * Saves a changed rule if nobody saved it since `expectedVersion` was read; the author
  * stays the editor who wrote it (the audit trail names who changed it).
  */
-export async function updateRule(actorId: string, id: number, expectedVersion: number, raw: unknown): Promise<Outcome<{ rule: CautionRuleRow }>> {
+export async function updateRule(
+	actorId: string,
+	id: number,
+	expectedVersion: number,
+	raw: unknown
+): Promise<Outcome<{ rule: CautionRuleRow }>> {
 	const parsed = cautionRuleInput.safeParse(raw);
 	if (!parsed.success) return { kind: 'invalid', issues: fieldIssues(parsed.error) };
 	const input = parsed.data;
-	return uniqueTitle(input.title, () => sequelize.transaction(async (transaction) => {
-		const rule = (await CautionRule.findByPk(id, { include: authorInclude, transaction, lock: transaction.LOCK.UPDATE })) as Loaded | null;
-		if (!rule) return { kind: 'not_found' as const };
-		if (rule.version !== expectedVersion) return stale();
-		if (await titleInUse(input.title, id, transaction)) return { kind: 'invalid' as const, issues: titleTaken(input.title) };
-		const before = snapshot(rule);
-		await rule.update({ ...input, version: rule.version + 1 }, { transaction });
-		await audit.record(
-			{ actorId, action: 'caution_rule.updated', subjectType: 'caution_rule', subjectId: id, before, after: snapshot(input) },
-			transaction
-		);
-		return { kind: 'ok' as const, rule: toRow(rule) };
-	}));
+	return uniqueTitle(input.title, () =>
+		sequelize.transaction(async (transaction) => {
+			const rule = (await CautionRule.findByPk(id, {
+				include: authorInclude,
+				transaction,
+				lock: transaction.LOCK.UPDATE
+			})) as Loaded | null;
+			if (!rule) return { kind: 'not_found' as const };
+			if (rule.version !== expectedVersion) return stale();
+			if (await titleInUse(input.title, id, transaction))
+				return { kind: 'invalid' as const, issues: titleTaken(input.title) };
+			const before = snapshot(rule);
+			await rule.update({ ...input, version: rule.version + 1 }, { transaction });
+			await audit.record(
+				{
+					actorId,
+					action: 'caution_rule.updated',
+					subjectType: 'caution_rule',
+					subjectId: id,
+					before,
+					after: snapshot(input)
+				},
+				transaction
+			);
+			return { kind: 'ok' as const, rule: toRow(rule) };
+		})
+	);
 }
 
 /** Two editors saving the same new title at once: the unique key refuses the second. */
-async function uniqueTitle<T>(title: string, write: () => Promise<T>): Promise<T | { kind: 'invalid'; issues: Issues }> {
+async function uniqueTitle<T>(
+	title: string,
+	write: () => Promise<T>
+): Promise<T | { kind: 'invalid'; issues: Issues }> {
 	try {
 		return await write();
 	} catch (error) {
-		if (error instanceof UniqueConstraintError) return { kind: 'invalid', issues: titleTaken(title) };
+		if (error instanceof UniqueConstraintError)
+			return { kind: 'invalid', issues: titleTaken(title) };
 		throw error;
 	}
 }
 
 function stale() {
-	return { kind: 'conflict' as const, message: 'Someone changed this rule since you opened it. Reload the page to see their version.' };
+	return {
+		kind: 'conflict' as const,
+		message: 'Someone changed this rule since you opened it. Reload the page to see their version.'
+	};
 }
 
 /** Turns a rule off (it stays listed and can be turned on again) or on. */
-export async function setActive(actorId: string, id: number, expectedVersion: number, active: boolean): Promise<Outcome> {
+export async function setActive(
+	actorId: string,
+	id: number,
+	expectedVersion: number,
+	active: boolean
+): Promise<Outcome> {
 	return sequelize.transaction(async (transaction) => {
 		const rule = await CautionRule.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
 		if (!rule) return { kind: 'not_found' as const };
@@ -166,14 +235,27 @@ export async function setActive(actorId: string, id: number, expectedVersion: nu
 }
 
 /** Deletes a rule for good; the audit event keeps what it said. */
-export async function deleteRule(actorId: string, id: number, expectedVersion: number): Promise<Outcome> {
+export async function deleteRule(
+	actorId: string,
+	id: number,
+	expectedVersion: number
+): Promise<Outcome> {
 	return sequelize.transaction(async (transaction) => {
 		const rule = await CautionRule.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
 		if (!rule) return { kind: 'not_found' as const };
 		if (rule.version !== expectedVersion) return stale();
 		const before = snapshot(rule);
 		await rule.destroy({ transaction });
-		await audit.record({ actorId, action: 'caution_rule.deleted', subjectType: 'caution_rule', subjectId: id, before }, transaction);
+		await audit.record(
+			{
+				actorId,
+				action: 'caution_rule.deleted',
+				subjectType: 'caution_rule',
+				subjectId: id,
+				before
+			},
+			transaction
+		);
 		return { kind: 'ok' as const };
 	});
 }

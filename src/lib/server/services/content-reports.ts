@@ -80,17 +80,28 @@ interface SubjectHandler {
 	): Promise<{ id: string; ownerId: string | null } | null>;
 	summaries(ids: string[]): Promise<Map<string, SubjectSummary>>;
 	/** Hides the item if it is visible: 'ok', 'already' (hidden by someone else) or 'not_found'. */
-	hide(id: string, reason: string, actorId: string, transaction: Transaction): Promise<'ok' | 'already' | 'not_found'>;
+	hide(
+		id: string,
+		reason: string,
+		actorId: string,
+		transaction: Transaction
+	): Promise<'ok' | 'already' | 'not_found'>;
 	/** Shows the item again; returns the reason it had been hidden for. */
 	restore(
 		id: string,
 		transaction: Transaction
-	): Promise<{ kind: 'ok'; reason: string | null } | { kind: 'not_hidden' } | { kind: 'not_found' }>;
+	): Promise<
+		{ kind: 'ok'; reason: string | null } | { kind: 'not_hidden' } | { kind: 'not_found' }
+	>;
 }
 
 const guideSubject: SubjectHandler = {
 	async lock(id, transaction) {
-		const guide = await Guide.findByPk(Number(id), { attributes: ['id'], transaction, lock: transaction.LOCK.UPDATE });
+		const guide = await Guide.findByPk(Number(id), {
+			attributes: ['id'],
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		return guide !== null;
 	},
 
@@ -131,7 +142,9 @@ const guideSubject: SubjectHandler = {
 			{ where: { id: Number(id), hiddenAt: null }, transaction, silent: true }
 		);
 		if (changed === 1) return 'ok';
-		return (await Guide.count({ where: { id: Number(id) }, transaction })) > 0 ? 'already' : 'not_found';
+		return (await Guide.count({ where: { id: Number(id) }, transaction })) > 0
+			? 'already'
+			: 'not_found';
 	},
 
 	async restore(id, transaction) {
@@ -145,7 +158,9 @@ const guideSubject: SubjectHandler = {
 			{ hiddenAt: null, hiddenReason: null, hiddenById: null },
 			{ where: { id: guide.id, hiddenAt: { [Op.ne]: null } }, transaction, silent: true }
 		);
-		return changed === 1 ? { kind: 'ok', reason: guide.hiddenReason ?? null } : { kind: 'not_hidden' };
+		return changed === 1
+			? { kind: 'ok', reason: guide.hiddenReason ?? null }
+			: { kind: 'not_hidden' };
 	}
 };
 
@@ -166,7 +181,11 @@ function sameToken(stored: string, given: string | undefined): boolean {
  */
 const buildSubject: SubjectHandler = {
 	async lock(id, transaction) {
-		const build = await Build.findByPk(Number(id), { attributes: ['id'], transaction, lock: transaction.LOCK.UPDATE });
+		const build = await Build.findByPk(Number(id), {
+			attributes: ['id'],
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		return build !== null;
 	},
 
@@ -198,7 +217,10 @@ const buildSubject: SubjectHandler = {
 					type: 'build' as const,
 					id: String(b.id),
 					title: b.title,
-					url: b.visibility === 'unlisted' ? `/builds/${b.id}?key=${encodeURIComponent(b.shareToken)}` : `/builds/${b.id}`,
+					url:
+						b.visibility === 'unlisted'
+							? `/builds/${b.id}?key=${encodeURIComponent(b.shareToken)}`
+							: `/builds/${b.id}`,
 					ownerName: b.owner?.name ?? null,
 					hidden: b.hiddenAt ? { reason: b.hiddenReason ?? '', at: b.hiddenAt.toISOString() } : null
 				}
@@ -213,7 +235,9 @@ const buildSubject: SubjectHandler = {
 			{ where: { id: Number(id), hiddenAt: null }, transaction, silent: true }
 		);
 		if (changed === 1) return 'ok';
-		return (await Build.count({ where: { id: Number(id) }, transaction })) > 0 ? 'already' : 'not_found';
+		return (await Build.count({ where: { id: Number(id) }, transaction })) > 0
+			? 'already'
+			: 'not_found';
 	},
 
 	async restore(id, transaction) {
@@ -227,7 +251,9 @@ const buildSubject: SubjectHandler = {
 			{ hiddenAt: null, hiddenReason: null, hiddenById: null },
 			{ where: { id: build.id, hiddenAt: { [Op.ne]: null } }, transaction, silent: true }
 		);
-		return changed === 1 ? { kind: 'ok', reason: build.hiddenReason ?? null } : { kind: 'not_hidden' };
+		return changed === 1
+			? { kind: 'ok', reason: build.hiddenReason ?? null }
+			: { kind: 'not_hidden' };
 	}
 };
 
@@ -239,11 +265,16 @@ const SUBJECTS: Record<ReportSubjectType, SubjectHandler | null> = {
 };
 
 /** Whether an item has a report no editor has decided yet (editors may open it to decide). */
-export async function hasOpenReport(subjectType: ReportSubjectType, subjectId: string): Promise<boolean> {
+export async function hasOpenReport(
+	subjectType: ReportSubjectType,
+	subjectId: string
+): Promise<boolean> {
 	return (await ContentReport.count({ where: { subjectType, subjectId, state: 'open' } })) > 0;
 }
 
-function handlerFor(type: ReportSubjectType): SubjectHandler | { kind: 'conflict'; message: string } {
+function handlerFor(
+	type: ReportSubjectType
+): SubjectHandler | { kind: 'conflict'; message: string } {
 	return (
 		SUBJECTS[type] ?? {
 			kind: 'conflict',
@@ -270,11 +301,17 @@ export async function report(
 	let subjectId: string | null = null;
 	try {
 		return await sequelize.transaction(async (transaction) => {
-			const subject = await handler.findReportable(key, transaction, { id: reporterId, shareToken: access.shareToken });
+			const subject = await handler.findReportable(key, transaction, {
+				id: reporterId,
+				shareToken: access.shareToken
+			});
 			if (!subject) return { kind: 'not_found' } as const;
 			subjectId = subject.id;
 			if (subject.ownerId === reporterId) {
-				return { kind: 'conflict', message: 'This is your own content: edit it instead of reporting it.' } as const;
+				return {
+					kind: 'conflict',
+					message: 'This is your own content: edit it instead of reporting it.'
+				} as const;
 			}
 			const open = await ContentReport.findOne({
 				where: { reporterId, subjectType, subjectId: subject.id, state: 'open' },
@@ -283,7 +320,13 @@ export async function report(
 			});
 			if (open) return { kind: 'ok', created: false, reportId: open.id } as const;
 			const row = await ContentReport.create(
-				{ reporterId, subjectType, subjectId: subject.id, category: input.category, detail: input.detail },
+				{
+					reporterId,
+					subjectType,
+					subjectId: subject.id,
+					category: input.category,
+					detail: input.detail
+				},
 				{ transaction }
 			);
 			return { kind: 'ok', created: true, reportId: row.id } as const;
@@ -291,7 +334,9 @@ export async function report(
 	} catch (error) {
 		// Two submits at the same moment: the unique index lets one in; the other is the repeat.
 		if (error instanceof UniqueConstraintError && subjectId !== null) {
-			const open = await ContentReport.findOne({ where: { reporterId, subjectType, subjectId, state: 'open' } });
+			const open = await ContentReport.findOne({
+				where: { reporterId, subjectType, subjectId, state: 'open' }
+			});
 			if (open) return { kind: 'ok', created: false, reportId: open.id };
 		}
 		throw error;
@@ -315,7 +360,12 @@ export async function listQueue(options: {
 	);
 	const total = Number(countRow?.n ?? 0);
 	const window = audit.pageWindow(total, options.page, perPage);
-	const groups = await sequelize.query<{ subjectType: ReportSubjectType; subjectId: string; n: number; latest: Date }>(
+	const groups = await sequelize.query<{
+		subjectType: ReportSubjectType;
+		subjectId: string;
+		n: number;
+		latest: Date;
+	}>(
 		`SELECT subject_type AS subjectType, subject_id AS subjectId, COUNT(*) AS n, MAX(created_at) AS latest
 		 FROM content_reports WHERE ${stateSql}
 		 GROUP BY subject_type, subject_id
@@ -329,7 +379,8 @@ export async function listQueue(options: {
 		const handler = SUBJECTS[type];
 		if (!handler) continue;
 		const ids = groups.filter((g) => g.subjectType === type).map((g) => g.subjectId);
-		for (const [id, summary] of await handler.summaries(ids)) summaries.set(`${type}:${id}`, summary);
+		for (const [id, summary] of await handler.summaries(ids))
+			summaries.set(`${type}:${id}`, summary);
 	}
 
 	const items: ReportGroup[] = [];
@@ -410,7 +461,10 @@ export async function dismiss(
 		if (!(await handler.lock(subject.id, transaction))) return { kind: 'not_found' } as const;
 		const ids = await closeOpenReports(subject, 'dismissed', actorId, transaction);
 		if (ids.length === 0) {
-			return { kind: 'conflict', message: 'These reports were already decided (perhaps by another editor).' } as const;
+			return {
+				kind: 'conflict',
+				message: 'These reports were already decided (perhaps by another editor).'
+			} as const;
 		}
 		await audit.record(
 			{
@@ -443,7 +497,10 @@ export async function hide(
 		const hidden = await handler.hide(subject.id, reason, actorId, transaction);
 		if (hidden === 'not_found') return { kind: 'not_found' } as const;
 		if (hidden === 'already') {
-			return { kind: 'conflict', message: `This ${subject.type} is already hidden (perhaps by another editor).` } as const;
+			return {
+				kind: 'conflict',
+				message: `This ${subject.type} is already hidden (perhaps by another editor).`
+			} as const;
 		}
 		const ids = await closeOpenReports(subject, 'actioned', actorId, transaction);
 		await audit.record(
@@ -473,7 +530,10 @@ export async function restore(
 		const restored = await handler.restore(subject.id, transaction);
 		if (restored.kind === 'not_found') return { kind: 'not_found' } as const;
 		if (restored.kind === 'not_hidden') {
-			return { kind: 'conflict', message: `This ${subject.type} is not hidden (perhaps another editor restored it).` } as const;
+			return {
+				kind: 'conflict',
+				message: `This ${subject.type} is not hidden (perhaps another editor restored it).`
+			} as const;
 		}
 		await audit.record(
 			{

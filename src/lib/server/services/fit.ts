@@ -19,7 +19,8 @@ export interface FitResult {
 	power: PowerBudget;
 }
 
-export type FitOutcome = { kind: 'ok'; result: FitResult } | { kind: 'invalid'; issues: Record<string, string[]> };
+export type FitOutcome =
+	{ kind: 'ok'; result: FitResult } | { kind: 'invalid'; issues: Record<string, string[]> };
 
 export async function check(input: FitInput): Promise<FitOutcome> {
 	const ids = input.slots.flatMap((s) => ('partId' in s ? [s.partId] : []));
@@ -32,11 +33,22 @@ export async function check(input: FitInput): Promise<FitOutcome> {
 		const label = slot.label ?? CATEGORY_LABELS[slot.category];
 		if ('partId' in slot) {
 			const part = parts.get(slot.partId);
-			if (!part) return void (issues[`slots.${i}.partId`] = [`No part with id ${slot.partId} in the catalog.`]);
+			if (!part)
+				return void (issues[`slots.${i}.partId`] = [
+					`No part with id ${slot.partId} in the catalog.`
+				]);
 			if (part.category !== slot.category) {
-				return void (issues[`slots.${i}.category`] = [`Part ${slot.partId} is a ${part.category}, not a ${slot.category}.`]);
+				return void (issues[`slots.${i}.category`] = [
+					`Part ${slot.partId} is a ${part.category}, not a ${slot.category}.`
+				]);
 			}
-			build.push({ key, label, category: slot.category, quantity: slot.quantity, part: { brand: part.brand, model: part.model, specs: part.specs } } as BuildPart);
+			build.push({
+				key,
+				label,
+				category: slot.category,
+				quantity: slot.quantity,
+				part: { brand: part.brand, model: part.model, specs: part.specs }
+			} as BuildPart);
 			return;
 		}
 		const specs = SPEC_SCHEMAS[slot.category].safeParse(slot.specs);
@@ -47,11 +59,20 @@ export async function check(input: FitInput): Promise<FitOutcome> {
 			}
 			return;
 		}
-		build.push({ key, label, category: slot.category, quantity: slot.quantity, part: { brand: slot.brand, model: slot.model, specs: specs.data } } as BuildPart);
+		build.push({
+			key,
+			label,
+			category: slot.category,
+			quantity: slot.quantity,
+			part: { brand: slot.brand, model: slot.model, specs: specs.data }
+		} as BuildPart);
 	});
 
 	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	// Editors' pairing cautions follow the built-in checks (one query for all rules).
 	const findings = [...fitReport(build), ...pairingCautions(build, await activeRules())];
-	return { kind: 'ok', result: { findings, summary: summarize(findings), power: powerBudget(build) } };
+	return {
+		kind: 'ok',
+		result: { findings, summary: summarize(findings), power: powerBudget(build) }
+	};
 }

@@ -38,14 +38,19 @@ export interface BrowseResult {
 	tags: string[];
 }
 
-export type BrowseOutcome = { kind: 'ok'; result: BrowseResult } | { kind: 'unknown_region'; field: 'region' | 'base' };
+export type BrowseOutcome =
+	{ kind: 'ok'; result: BrowseResult } | { kind: 'unknown_region'; field: 'region' | 'base' };
 
 /** Published guides matching `query`, one page of them. */
-export async function browse(query: GuideBrowseQuery, perPage = GUIDES_PER_PAGE): Promise<BrowseOutcome> {
+export async function browse(
+	query: GuideBrowseQuery,
+	perPage = GUIDES_PER_PAGE
+): Promise<BrowseOutcome> {
 	const regions = await guides.listRegions();
 	const region = query.region ? (regions.find((r) => r.code === query.region) ?? null) : null;
 	if (query.region && !region) return { kind: 'unknown_region', field: 'region' };
-	if (query.base && !regions.some((r) => r.code === query.base)) return { kind: 'unknown_region', field: 'base' };
+	if (query.base && !regions.some((r) => r.code === query.base))
+		return { kind: 'unknown_region', field: 'base' };
 
 	const published = await guides.listPublished();
 	const tags = [...new Set(published.flatMap((g) => g.tags))].sort();
@@ -57,7 +62,9 @@ export async function browse(query: GuideBrowseQuery, perPage = GUIDES_PER_PAGE)
 	let items: BrowseItem[];
 	if (region) {
 		const priced = await Promise.all(wanted.map((g) => inRegion(g, region.code)));
-		items = priced.filter((g): g is BrowseItem => g !== null).filter((g) => withinBudget(g, query.min, query.max));
+		items = priced
+			.filter((g): g is BrowseItem => g !== null)
+			.filter((g) => withinBudget(g, query.min, query.max));
 		if (query.sort === 'total') items.sort(byTotal);
 		if (query.sort === 'value') items.sort(byValue);
 	} else {
@@ -69,13 +76,25 @@ export async function browse(query: GuideBrowseQuery, perPage = GUIDES_PER_PAGE)
 	const start = (query.page - 1) * perPage;
 	return {
 		kind: 'ok',
-		result: { items: items.slice(start, start + perPage), total, page: query.page, pageCount, region, regions, tags }
+		result: {
+			items: items.slice(start, start + perPage),
+			total,
+			page: query.page,
+			pageCount,
+			region,
+			regions,
+			tags
+		}
 	};
 }
 
 /** Home: the newest guides and the featured ones, in their base regions. */
-export async function homeLists(latestCount = 4): Promise<{ latest: BrowseItem[]; featured: BrowseItem[] }> {
-	const published = (await guides.listPublished()).sort(byNewest).map((g) => ({ ...g, pricedIn: g.baseRegion, fpsPer100: null }));
+export async function homeLists(
+	latestCount = 4
+): Promise<{ latest: BrowseItem[]; featured: BrowseItem[] }> {
+	const published = (await guides.listPublished())
+		.sort(byNewest)
+		.map((g) => ({ ...g, pricedIn: g.baseRegion, fpsPer100: null }));
 	return { latest: published.slice(0, latestCount), featured: published.filter((g) => g.featured) };
 }
 
@@ -85,7 +104,13 @@ async function inRegion(card: GuideCard, regionCode: string): Promise<BrowseItem
 	const g = outcome.guide;
 	// getPriced prices through the guide page, so the value is the one that page shows.
 	const fpsPer100 = g.value?.fpsPer100 ?? null;
-	return { ...card, picksTotal: g.picksTotal, unpricedSlots: g.unpricedSlots, pricedIn: g.region, fpsPer100 };
+	return {
+		...card,
+		picksTotal: g.picksTotal,
+		unpricedSlots: g.unpricedSlots,
+		pricedIn: g.region,
+		fpsPer100
+	};
 }
 
 /**

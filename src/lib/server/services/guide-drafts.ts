@@ -32,7 +32,20 @@ import {
 	type GuideTag,
 	type ThermalResultInput
 } from '$lib/schemas/guide-editor';
-import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User, sequelize } from '$lib/server/db';
+import {
+	FrameResult,
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	SlotAlternate,
+	Store,
+	ThermalResult,
+	User,
+	sequelize
+} from '$lib/server/db';
 import { renderMarkdown } from '$lib/server/markdown';
 import { sendToAuthor, submittedMail } from './review-mail';
 
@@ -100,7 +113,8 @@ export interface DraftView {
 }
 
 export type Issues = Record<string, string[]>;
-export type CreateOutcome = { kind: 'created'; slug: string; version: number } | { kind: 'invalid'; issues: Issues };
+export type CreateOutcome =
+	{ kind: 'created'; slug: string; version: number } | { kind: 'invalid'; issues: Issues };
 export type SaveOutcome =
 	| { kind: 'saved'; draft: DraftView }
 	| { kind: 'conflict'; current: DraftView }
@@ -141,18 +155,34 @@ function slugify(title: string): string {
 async function uniqueSlug(title: string, transaction: Transaction): Promise<string> {
 	const base = slugify(title);
 	const taken = new Set(
-		(await Guide.findAll({ where: { slug: { [Op.like]: `${base}%` } }, attributes: ['slug'], transaction })).map((g) => g.slug)
+		(
+			await Guide.findAll({
+				where: { slug: { [Op.like]: `${base}%` } },
+				attributes: ['slug'],
+				transaction
+			})
+		).map((g) => g.slug)
 	);
 	if (!taken.has(base)) return base;
 	for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
 }
 
 /** A new guide with an empty draft revision 1, owned by `authorId`. */
-export async function createGuide(authorId: string, input: CreateGuideInput): Promise<CreateOutcome> {
+export async function createGuide(
+	authorId: string,
+	input: CreateGuideInput
+): Promise<CreateOutcome> {
 	const region = await Region.findOne({ where: { code: input.baseRegion } });
-	if (!region) return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
+	if (!region)
+		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
 	const budget = toMinor(input.targetBudget, region.currency);
-	if (budget === null) return { kind: 'invalid', issues: { targetBudget: [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`] } };
+	if (budget === null)
+		return {
+			kind: 'invalid',
+			issues: {
+				targetBudget: [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`]
+			}
+		};
 	return sequelize.transaction(async (transaction) => {
 		const guide = await Guide.create(
 			{
@@ -171,7 +201,17 @@ export async function createGuide(authorId: string, input: CreateGuideInput): Pr
 			{ transaction }
 		);
 		await GuideRevision.create(
-			{ guideId: guide.id, number: 1, buildNotesMd: '', buildNotesHtml: '', submittedAt: null, reviewedAt: null, publishedAt: null, reviewerId: null, reviewNote: null },
+			{
+				guideId: guide.id,
+				number: 1,
+				buildNotesMd: '',
+				buildNotesHtml: '',
+				submittedAt: null,
+				reviewedAt: null,
+				publishedAt: null,
+				reviewerId: null,
+				reviewNote: null
+			},
 			{ transaction }
 		);
 		return { kind: 'created', slug: guide.slug, version: guide.version };
@@ -190,10 +230,18 @@ function partRef(p: Part): DraftPartRef {
 	return { id: p.id, slug: p.slug, brand: p.brand, model: p.model, category: p.category };
 }
 
-type LoadedSlot = GuideSlot & { pick: Part; priceQuote: Quote | null; alternates: (SlotAlternate & { part: Part })[] };
+type LoadedSlot = GuideSlot & {
+	pick: Part;
+	priceQuote: Quote | null;
+	alternates: (SlotAlternate & { part: Part })[];
+};
 
 /** The author's working copy of their guide, or null (unknown slug or someone else's). */
-export async function getDraft(authorId: string, slug: string, transaction?: Transaction): Promise<DraftView | null> {
+export async function getDraft(
+	authorId: string,
+	slug: string,
+	transaction?: Transaction
+): Promise<DraftView | null> {
 	const guide = await ownGuide(authorId, slug, transaction);
 	if (!guide) return null;
 	return viewOf(guide, transaction);
@@ -218,10 +266,19 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 				transaction
 			})) as LoadedSlot[])
 		: [];
-	const order: [string, string][] = [['position', 'ASC'], ['id', 'ASC']];
-	const frames = revision ? await FrameResult.findAll({ where: { revisionId: revision.id }, order, transaction }) : [];
-	const thermals = revision ? await ThermalResult.findAll({ where: { revisionId: revision.id }, order, transaction }) : [];
-	const published = guide.publishedRevisionId ? await GuideRevision.findByPk(guide.publishedRevisionId, { transaction }) : null;
+	const order: [string, string][] = [
+		['position', 'ASC'],
+		['id', 'ASC']
+	];
+	const frames = revision
+		? await FrameResult.findAll({ where: { revisionId: revision.id }, order, transaction })
+		: [];
+	const thermals = revision
+		? await ThermalResult.findAll({ where: { revisionId: revision.id }, order, transaction })
+		: [];
+	const published = guide.publishedRevisionId
+		? await GuideRevision.findByPk(guide.publishedRevisionId, { transaction })
+		: null;
 	const known = new Set<string>(GUIDE_TAGS);
 	return {
 		slug: guide.slug,
@@ -251,7 +308,12 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 						observedAt: s.priceQuote.observedAt.toISOString().slice(0, 10)
 					}
 				: null,
-			alternates: s.alternates.map((a) => ({ partId: a.part.id, part: partRef(a.part), reasonTag: a.reasonTag, note: a.note }))
+			alternates: s.alternates.map((a) => ({
+				partId: a.part.id,
+				part: partRef(a.part),
+				reasonTag: a.reasonTag,
+				note: a.note
+			}))
 		})),
 		frames: frames.map((f) => ({
 			workload: f.workload,
@@ -261,7 +323,13 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 			low1Fps: f.low1FpsTenths === null ? null : tenthsToFps(f.low1FpsTenths),
 			notes: f.notes
 		})),
-		thermals: thermals.map((t) => ({ loadName: t.loadName, cpuTempC: t.cpuTempC, gpuTempC: t.gpuTempC, cpuUtilPct: t.cpuUtilPct, gpuUtilPct: t.gpuUtilPct })),
+		thermals: thermals.map((t) => ({
+			loadName: t.loadName,
+			cpuTempC: t.cpuTempC,
+			gpuTempC: t.gpuTempC,
+			cpuUtilPct: t.cpuUtilPct,
+			gpuUtilPct: t.gpuUtilPct
+		})),
 		version: guide.version,
 		state: guide.state,
 		revisionNumber: revision?.number ?? 0,
@@ -283,19 +351,30 @@ async function checkReferences(input: DraftInput, region: Region): Promise<Issue
 		const wrong = (id: number) => {
 			const part = parts.get(id);
 			if (!part) return 'No such part in the catalog.';
-			return part.category === slot.category ? null : `That part is not a ${CATEGORY_LABELS[slot.category]}.`;
+			return part.category === slot.category
+				? null
+				: `That part is not a ${CATEGORY_LABELS[slot.category]}.`;
 		};
 		const pickProblem = wrong(slot.pickPartId);
 		if (pickProblem) add(`slots.${i}.pickPartId`, pickProblem);
 		slot.alternates.forEach((alt, j) => {
 			const problem = wrong(alt.partId);
 			if (problem) add(`slots.${i}.alternates.${j}.partId`, problem);
-			else if (alt.partId === slot.pickPartId) add(`slots.${i}.alternates.${j}.partId`, 'An alternate must differ from the pick.');
+			else if (alt.partId === slot.pickPartId)
+				add(`slots.${i}.alternates.${j}.partId`, 'An alternate must differ from the pick.');
 		});
 		if (slot.priceQuote) {
 			const store = stores.get(slot.priceQuote.storeId);
-			if (!store || store.regionId !== region.id) add(`slots.${i}.priceQuote.storeId`, `Choose a store in the guide's base region (${region.name}).`);
-			if (toMinor(slot.priceQuote.amount, region.currency) === null) add(`slots.${i}.priceQuote.amount`, `${region.currency} has ${minorUnitDigits(region.currency)} decimals.`);
+			if (!store || store.regionId !== region.id)
+				add(
+					`slots.${i}.priceQuote.storeId`,
+					`Choose a store in the guide's base region (${region.name}).`
+				);
+			if (toMinor(slot.priceQuote.amount, region.currency) === null)
+				add(
+					`slots.${i}.priceQuote.amount`,
+					`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`
+				);
 		}
 	});
 	return issues;
@@ -317,10 +396,12 @@ export async function saveDraft(
 	const closed = closedReason(guide);
 	if (closed) return { kind: 'invalid', issues: { _form: [closed] } };
 	const region = await Region.findOne({ where: { code: input.baseRegion } });
-	if (!region) return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
+	if (!region)
+		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
 	const budget = toMinor(input.targetBudget, region.currency);
 	const issues = await checkReferences(input, region);
-	if (budget === null) issues.targetBudget = [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`];
+	if (budget === null)
+		issues.targetBudget = [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`];
 	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	const buildNotesMd = joinBuildNotes(input.buildNotes);
 	const buildNotesHtml = renderMarkdown(buildNotesMd);
@@ -350,12 +431,28 @@ export async function saveDraft(
 			// The latest revision is frozen (submitted or published): the save starts N+1.
 			const frozen = revision;
 			revision = await GuideRevision.create(
-				{ guideId: guide.id, number: (frozen?.number ?? 0) + 1, buildNotesMd, buildNotesHtml, submittedAt: null, reviewedAt: null, publishedAt: null, reviewerId: null, reviewNote: null },
+				{
+					guideId: guide.id,
+					number: (frozen?.number ?? 0) + 1,
+					buildNotesMd,
+					buildNotesHtml,
+					submittedAt: null,
+					reviewedAt: null,
+					publishedAt: null,
+					reviewerId: null,
+					reviewNote: null
+				},
 				{ transaction }
 			);
 			// Results the input leaves out are measurements of the same build: N+1 starts with
 			// copies of the frozen revision's rows (new rows; the frozen ones stay untouched).
-			if (frozen) await copyResults(frozen.id, revision.id, { frames: input.frames === undefined, thermals: input.thermals === undefined }, transaction);
+			if (frozen)
+				await copyResults(
+					frozen.id,
+					revision.id,
+					{ frames: input.frames === undefined, thermals: input.thermals === undefined },
+					transaction
+				);
 		} else {
 			await revision.update({ buildNotesMd, buildNotesHtml }, { transaction });
 			// Alternates go with their slots (ON DELETE CASCADE).
@@ -363,14 +460,31 @@ export async function saveDraft(
 		}
 
 		for (const [i, slot] of input.slots.entries()) {
-			const priceQuoteId = slot.priceQuote ? await quoteFor(slot.pickPartId, slot.priceQuote, region, transaction) : null;
+			const priceQuoteId = slot.priceQuote
+				? await quoteFor(slot.pickPartId, slot.priceQuote, region, transaction)
+				: null;
 			const row = await GuideSlot.create(
-				{ revisionId: revision.id, category: slot.category, label: slot.label, position: i + 1, quantity: slot.quantity, pickPartId: slot.pickPartId, reason: slot.reason, priceQuoteId },
+				{
+					revisionId: revision.id,
+					category: slot.category,
+					label: slot.label,
+					position: i + 1,
+					quantity: slot.quantity,
+					pickPartId: slot.pickPartId,
+					reason: slot.reason,
+					priceQuoteId
+				},
 				{ transaction }
 			);
 			if (slot.alternates.length > 0) {
 				await SlotAlternate.bulkCreate(
-					slot.alternates.map((a, j) => ({ slotId: row.id, partId: a.partId, rank: j + 1, reasonTag: a.reasonTag, note: a.note })),
+					slot.alternates.map((a, j) => ({
+						slotId: row.id,
+						partId: a.partId,
+						rank: j + 1,
+						reasonTag: a.reasonTag,
+						note: a.note
+					})),
 					{ transaction }
 				);
 			}
@@ -383,7 +497,11 @@ export async function saveDraft(
 }
 
 /** Replaces the revision's frame results with the input's rows, in input order. */
-async function replaceFrames(revisionId: number, frames: FrameResultInput[], transaction: Transaction): Promise<void> {
+async function replaceFrames(
+	revisionId: number,
+	frames: FrameResultInput[],
+	transaction: Transaction
+): Promise<void> {
 	await FrameResult.destroy({ where: { revisionId }, transaction });
 	if (frames.length === 0) return;
 	await FrameResult.bulkCreate(
@@ -401,23 +519,52 @@ async function replaceFrames(revisionId: number, frames: FrameResultInput[], tra
 	);
 }
 
-async function replaceThermals(revisionId: number, thermals: ThermalResultInput[], transaction: Transaction): Promise<void> {
+async function replaceThermals(
+	revisionId: number,
+	thermals: ThermalResultInput[],
+	transaction: Transaction
+): Promise<void> {
 	await ThermalResult.destroy({ where: { revisionId }, transaction });
 	if (thermals.length === 0) return;
 	await ThermalResult.bulkCreate(
-		thermals.map((t, i) => ({ revisionId, position: i + 1, loadName: t.loadName, cpuTempC: t.cpuTempC, gpuTempC: t.gpuTempC, cpuUtilPct: t.cpuUtilPct, gpuUtilPct: t.gpuUtilPct })),
+		thermals.map((t, i) => ({
+			revisionId,
+			position: i + 1,
+			loadName: t.loadName,
+			cpuTempC: t.cpuTempC,
+			gpuTempC: t.gpuTempC,
+			cpuUtilPct: t.cpuUtilPct,
+			gpuUtilPct: t.gpuUtilPct
+		})),
 		{ transaction }
 	);
 }
 
 /** Copies a frozen revision's results into a new revision (fresh rows, same order). */
-async function copyResults(fromId: number, toId: number, which: { frames: boolean; thermals: boolean }, transaction: Transaction): Promise<void> {
-	const order: [string, string][] = [['position', 'ASC'], ['id', 'ASC']];
+async function copyResults(
+	fromId: number,
+	toId: number,
+	which: { frames: boolean; thermals: boolean },
+	transaction: Transaction
+): Promise<void> {
+	const order: [string, string][] = [
+		['position', 'ASC'],
+		['id', 'ASC']
+	];
 	if (which.frames) {
 		const rows = await FrameResult.findAll({ where: { revisionId: fromId }, order, transaction });
 		if (rows.length > 0) {
 			await FrameResult.bulkCreate(
-				rows.map((f) => ({ revisionId: toId, position: f.position, workload: f.workload, resolution: f.resolution, preset: f.preset, avgFpsTenths: f.avgFpsTenths, low1FpsTenths: f.low1FpsTenths, notes: f.notes })),
+				rows.map((f) => ({
+					revisionId: toId,
+					position: f.position,
+					workload: f.workload,
+					resolution: f.resolution,
+					preset: f.preset,
+					avgFpsTenths: f.avgFpsTenths,
+					low1FpsTenths: f.low1FpsTenths,
+					notes: f.notes
+				})),
 				{ transaction }
 			);
 		}
@@ -426,7 +573,15 @@ async function copyResults(fromId: number, toId: number, which: { frames: boolea
 		const rows = await ThermalResult.findAll({ where: { revisionId: fromId }, order, transaction });
 		if (rows.length > 0) {
 			await ThermalResult.bulkCreate(
-				rows.map((t) => ({ revisionId: toId, position: t.position, loadName: t.loadName, cpuTempC: t.cpuTempC, gpuTempC: t.gpuTempC, cpuUtilPct: t.cpuUtilPct, gpuUtilPct: t.gpuUtilPct })),
+				rows.map((t) => ({
+					revisionId: toId,
+					position: t.position,
+					loadName: t.loadName,
+					cpuTempC: t.cpuTempC,
+					gpuTempC: t.gpuTempC,
+					cpuUtilPct: t.cpuUtilPct,
+					gpuUtilPct: t.gpuUtilPct
+				})),
 				{ transaction }
 			);
 		}
@@ -444,28 +599,57 @@ async function quoteFor(
 	const observedAt = new Date(`${q.observedAt}T00:00:00Z`);
 	const next = new Date(observedAt.getTime() + 86_400_000);
 	const existing = await Quote.findOne({
-		where: { partId, storeId: q.storeId, regionId: region.id, amountMinor, observedAt: { [Op.gte]: observedAt, [Op.lt]: next } },
+		where: {
+			partId,
+			storeId: q.storeId,
+			regionId: region.id,
+			amountMinor,
+			observedAt: { [Op.gte]: observedAt, [Op.lt]: next }
+		},
 		transaction
 	});
 	if (existing) return existing.id;
 	const created = await Quote.create(
-		{ partId, storeId: q.storeId, regionId: region.id, amountMinor, currency: region.currency, taxIncluded: region.taxMode === 'inclusive', observedAt, url: null, source: 'author' },
+		{
+			partId,
+			storeId: q.storeId,
+			regionId: region.id,
+			amountMinor,
+			currency: region.currency,
+			taxIncluded: region.taxMode === 'inclusive',
+			observedAt,
+			url: null,
+			source: 'author'
+		},
 		{ transaction }
 	);
 	return created.id;
 }
 
 /** Freezes the working copy for review (submittedAt); guarded by the same version check. */
-export async function submit(authorId: string, slug: string, expectedVersion: number, links?: { guidesUrl: string }): Promise<SubmitOutcome> {
+export async function submit(
+	authorId: string,
+	slug: string,
+	expectedVersion: number,
+	links?: { guidesUrl: string }
+): Promise<SubmitOutcome> {
 	const guide = await ownGuide(authorId, slug);
 	if (!guide) return { kind: 'not_found' };
 	const closed = closedReason(guide);
 	if (closed) return { kind: 'invalid', issues: { _form: [closed] } };
 	const outcome = await sequelize.transaction(async (transaction): Promise<SubmitOutcome> => {
 		const revision = await latestRevision(guide.id, transaction);
-		if (!revision || revision.submittedAt) return { kind: 'invalid', issues: { _form: ['There is no draft to submit: save a change first.'] } };
+		if (!revision || revision.submittedAt)
+			return {
+				kind: 'invalid',
+				issues: { _form: ['There is no draft to submit: save a change first.'] }
+			};
 		const slotCount = await GuideSlot.count({ where: { revisionId: revision.id }, transaction });
-		if (slotCount === 0) return { kind: 'invalid', issues: { slots: ['Add at least one slot and save before submitting.'] } };
+		if (slotCount === 0)
+			return {
+				kind: 'invalid',
+				issues: { slots: ['Add at least one slot and save before submitting.'] }
+			};
 		// A live guide stays live while the new revision waits; anything else waits in review.
 		// Only an editor's decision publishes (services/guide-reviews).
 		const state = guide.state === 'published' ? 'published' : 'in_review';
@@ -480,15 +664,22 @@ export async function submit(authorId: string, slug: string, expectedVersion: nu
 	});
 	if (outcome.kind === 'submitted' && links) {
 		const author = await User.findByPk(authorId, { attributes: ['email', 'name'] });
-		if (author) await sendToAuthor(author, submittedMail(author, outcome.draft.title, outcome.draft.revisionNumber, links.guidesUrl), 'revision_submitted');
+		if (author)
+			await sendToAuthor(
+				author,
+				submittedMail(author, outcome.draft.title, outcome.draft.revisionNumber, links.guidesUrl),
+				'revision_submitted'
+			);
 	}
 	return outcome;
 }
 
 /** Declined and archived guides are closed: the author can read them but not edit or resubmit. */
 function closedReason(guide: Guide): string | null {
-	if (guide.state === 'archived') return 'This guide was archived by an editor and can no longer be edited.';
-	if (guide.state === 'declined') return 'This guide was declined by an editor and can no longer be edited. Start a new guide instead.';
+	if (guide.state === 'archived')
+		return 'This guide was archived by an editor and can no longer be edited.';
+	if (guide.state === 'declined')
+		return 'This guide was declined by an editor and can no longer be edited. Start a new guide instead.';
 	return null;
 }
 
@@ -509,7 +700,13 @@ export async function editorCatalog(): Promise<EditorCatalog> {
 	const regions = await Region.findAll({ order: [['name', 'ASC']] });
 	const byId = new Map(regions.map((r) => [r.id, r.code]));
 	const stores = await Store.findAll({ order: [['name', 'ASC']] });
-	const parts = await Part.findAll({ attributes: ['id', 'slug', 'brand', 'model', 'category'], order: [['brand', 'ASC'], ['model', 'ASC']] });
+	const parts = await Part.findAll({
+		attributes: ['id', 'slug', 'brand', 'model', 'category'],
+		order: [
+			['brand', 'ASC'],
+			['model', 'ASC']
+		]
+	});
 	return {
 		regions: regions.map((r) => ({ code: r.code, name: r.name, currency: r.currency })),
 		stores: stores.map((s) => ({ id: s.id, name: s.name, regionCode: byId.get(s.regionId) ?? '' })),

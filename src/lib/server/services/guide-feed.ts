@@ -9,20 +9,24 @@ const FEED_TITLE = 'Slotwise: new and revised PC build guides';
 
 /** Escapes text for XML element content and attribute values. */
 export function xmlEscape(text: string): string {
-	return text
-		.replace(/&/g, '&amp;')
-		.replace(/</g, '&lt;')
-		.replace(/>/g, '&gt;')
-		.replace(/"/g, '&quot;')
-		.replace(/'/g, '&apos;')
-		// Characters XML 1.0 forbids outright (control characters other than tab/CR/LF).
-		// eslint-disable-next-line no-control-regex
-		.replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '');
+	return (
+		text
+			.replace(/&/g, '&amp;')
+			.replace(/</g, '&lt;')
+			.replace(/>/g, '&gt;')
+			.replace(/"/g, '&quot;')
+			.replace(/'/g, '&apos;')
+			// Characters XML 1.0 forbids outright (control characters other than tab/CR/LF).
+			// eslint-disable-next-line no-control-regex
+			.replace(/[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g, '')
+	);
 }
 
 /** The feed document for the site at `origin` (e.g. https://slotwise.example). */
 export async function atomFeed(origin: string): Promise<string> {
-	const list = (await guides.listPublished()).sort((a, b) => b.publishedAt.localeCompare(a.publishedAt));
+	const list = (await guides.listPublished()).sort((a, b) =>
+		b.publishedAt.localeCompare(a.publishedAt)
+	);
 	// A feed with no entries still needs an <updated>; the epoch says "nothing yet".
 	const updated = list[0]?.publishedAt ?? new Date(0).toISOString();
 	const self = `${origin}/guides/feed.xml`;

@@ -19,7 +19,12 @@ import type { ReviewFlag } from '$lib/domain/review-flags';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import type { RevisionDiff } from '$lib/domain/revision-diff';
 import type { Role } from '$lib/domain/types';
-import type { DecisionInput, GuideStateQuery, ModerationInput, ReviewQueueQuery } from '$lib/schemas/review';
+import type {
+	DecisionInput,
+	GuideStateQuery,
+	ModerationInput,
+	ReviewQueueQuery
+} from '$lib/schemas/review';
 import { Guide, GuideRevision, Review, Store, User, sequelize } from '$lib/server/db';
 import type { ReviewDecision, SlotNote } from '$lib/server/db/models/Review';
 import * as audit from './audit';
@@ -27,7 +32,13 @@ import { activeRules } from './caution-rules';
 import type { Paged } from './audit';
 import { sendToAuthor, templates } from './review-mail';
 import { notifyForksOfRevision } from './build-notify';
-import { buildPartsOf, emptySnapshot, loadRevisionSlots, quoteText, snapshotOf } from './revision-snapshots';
+import {
+	buildPartsOf,
+	emptySnapshot,
+	loadRevisionSlots,
+	quoteText,
+	snapshotOf
+} from './revision-snapshots';
 
 export type { SlotNote } from '$lib/server/db/models/Review';
 
@@ -62,12 +73,21 @@ function pageWindow(total: number, page: number) {
 }
 
 /** Revisions waiting for a decision, oldest first by default (first come, first reviewed). */
-export async function listQueue(query: ReviewQueueQuery, now = new Date()): Promise<Paged<QueueItem>> {
+export async function listQueue(
+	query: ReviewQueueQuery,
+	now = new Date()
+): Promise<Paged<QueueItem>> {
 	const guideWhere: WhereOptions<Guide> = { state: { [Op.notIn]: ['archived', 'declined'] } };
 	if (query.kind === 'new') Object.assign(guideWhere, { publishedRevisionId: null });
-	if (query.kind === 'revision') Object.assign(guideWhere, { publishedRevisionId: { [Op.ne]: null } });
+	if (query.kind === 'revision')
+		Object.assign(guideWhere, { publishedRevisionId: { [Op.ne]: null } });
 	const authorWhere = query.author
-		? { [Op.or]: [{ name: { [Op.like]: `%${escapeLike(query.author)}%` } }, { email: { [Op.like]: `%${escapeLike(query.author)}%` } }] }
+		? {
+				[Op.or]: [
+					{ name: { [Op.like]: `%${escapeLike(query.author)}%` } },
+					{ email: { [Op.like]: `%${escapeLike(query.author)}%` } }
+				]
+			}
 		: undefined;
 	const include = [
 		{
@@ -75,7 +95,15 @@ export async function listQueue(query: ReviewQueueQuery, now = new Date()): Prom
 			as: 'guide',
 			where: guideWhere,
 			required: true,
-			include: [{ model: User, as: 'author', attributes: ['name', 'email'], required: Boolean(authorWhere), ...(authorWhere ? { where: authorWhere } : {}) }]
+			include: [
+				{
+					model: User,
+					as: 'author',
+					attributes: ['name', 'email'],
+					required: Boolean(authorWhere),
+					...(authorWhere ? { where: authorWhere } : {})
+				}
+			]
 		}
 	];
 	const where = { submittedAt: { [Op.ne]: null }, reviewedAt: null };
@@ -84,7 +112,10 @@ export async function listQueue(query: ReviewQueueQuery, now = new Date()): Prom
 	const rows = (await GuideRevision.findAll({
 		where,
 		include,
-		order: [['submittedAt', query.sort === 'oldest' ? 'ASC' : 'DESC'], ['id', 'ASC']],
+		order: [
+			['submittedAt', query.sort === 'oldest' ? 'ASC' : 'DESC'],
+			['id', 'ASC']
+		],
 		limit: PER_PAGE,
 		offset: window.offset
 	})) as RevisionWithGuide[];
@@ -142,7 +173,16 @@ export interface ReviewSlot {
 export interface ReviewPage {
 	revisionId: number;
 	revisionNumber: number;
-	guide: { slug: string; title: string; summary: string; state: string; authorName: string; live: boolean; disclosure: string; disclosureNote: string | null };
+	guide: {
+		slug: string;
+		title: string;
+		summary: string;
+		state: string;
+		authorName: string;
+		live: boolean;
+		disclosure: string;
+		disclosureNote: string | null;
+	};
 	/** This revision is the one the public sees. */
 	isLiveRevision: boolean;
 	submittedAt: string | null;
@@ -163,26 +203,47 @@ export interface ReviewPage {
 }
 
 /** Everything an editor needs to decide on one revision, or null when there is no such submitted revision. */
-export async function getReview(actor: Actor, revisionId: number, siteHost: string, now = new Date()): Promise<ReviewPage | null> {
+export async function getReview(
+	actor: Actor,
+	revisionId: number,
+	siteHost: string,
+	now = new Date()
+): Promise<ReviewPage | null> {
 	const revision = (await GuideRevision.findByPk(revisionId, {
-		include: [{ model: Guide, as: 'guide', include: [{ model: User, as: 'author', attributes: ['name', 'email'] }] }]
+		include: [
+			{
+				model: Guide,
+				as: 'guide',
+				include: [{ model: User, as: 'author', attributes: ['name', 'email'] }]
+			}
+		]
 	})) as RevisionWithGuide | null;
 	if (!revision || !revision.submittedAt) return null;
 	const guide = revision.guide;
-	const live = guide.publishedRevisionId && guide.publishedRevisionId !== revision.id ? await GuideRevision.findByPk(guide.publishedRevisionId) : null;
+	const live =
+		guide.publishedRevisionId && guide.publishedRevisionId !== revision.id
+			? await GuideRevision.findByPk(guide.publishedRevisionId)
+			: null;
 	const sentBack = await GuideRevision.findOne({
 		where: { guideId: guide.id, decision: 'request_changes', number: { [Op.lt]: revision.number } },
 		order: [['number', 'DESC']]
 	});
 	const compareSentBack = sentBack && (!live || sentBack.number > live.number) ? sentBack : null;
-	const slots = await loadRevisionSlots([revision.id, ...(live ? [live.id] : []), ...(compareSentBack ? [compareSentBack.id] : [])]);
+	const slots = await loadRevisionSlots([
+		revision.id,
+		...(live ? [live.id] : []),
+		...(compareSentBack ? [compareSentBack.id] : [])
+	]);
 	const own = slots.filter((s) => s.revisionId === revision.id);
 	const current = snapshotOf(revision, slots, true);
 	const build = buildPartsOf(own);
 	// The editors' pairing cautions count here as on the public page.
 	const findings = [...fitReport(build), ...pairingCautions(build, await activeRules())];
 	const stores = await Store.findAll({ attributes: ['url'] });
-	const knownHosts = [siteHost.split(':')[0] ?? siteHost, ...stores.flatMap((s) => (s.url ? [hostOf(s.url)] : [])).filter((h): h is string => h !== null)];
+	const knownHosts = [
+		siteHost.split(':')[0] ?? siteHost,
+		...stores.flatMap((s) => (s.url ? [hostOf(s.url)] : [])).filter((h): h is string => h !== null)
+	];
 
 	return {
 		revisionId: revision.id,
@@ -210,15 +271,31 @@ export async function getReview(actor: Actor, revisionId: number, siteHost: stri
 			alternates: s.alternates.map((a) => `${a.part.brand} ${a.part.model}`)
 		})),
 		diff: revisionDiff(live ? snapshotOf(live, slots, true) : emptySnapshot(), current),
-		sinceLastReview: compareSentBack ? revisionDiff(snapshotOf(compareSentBack, slots, true), current) : null,
-		fit: { findings, summary: summarize(findings), slotLabels: Object.fromEntries(build.map((b) => [b.key, b.label])) },
+		sinceLastReview: compareSentBack
+			? revisionDiff(snapshotOf(compareSentBack, slots, true), current)
+			: null,
+		fit: {
+			findings,
+			summary: summarize(findings),
+			slotLabels: Object.fromEntries(build.map((b) => [b.key, b.label]))
+		},
 		power: powerBudget(build),
 		flags: reviewFlags({
 			disclosure: { kind: guide.disclosure ?? null, note: guide.disclosureNote },
 			buildNotesMd: revision.buildNotesMd,
 			walkthroughUrl: guide.walkthroughUrl,
 			knownHosts,
-			quotes: own.flatMap((s) => (s.priceQuote ? [{ slotLabel: s.label, observedAt: s.priceQuote.observedAt.toISOString(), url: s.priceQuote.url }] : [])),
+			quotes: own.flatMap((s) =>
+				s.priceQuote
+					? [
+							{
+								slotLabel: s.label,
+								observedAt: s.priceQuote.observedAt.toISOString(),
+								url: s.priceQuote.url
+							}
+						]
+					: []
+			),
 			conflicts: findings.filter((f) => f.severity === 'conflict'),
 			now
 		}),
@@ -243,7 +320,10 @@ async function reviewLog(guideId: number, transaction?: Transaction): Promise<Re
 			{ model: User, as: 'reviewer', attributes: ['name'] },
 			{ model: GuideRevision, as: 'revision', attributes: ['number'] }
 		],
-		order: [['createdAt', 'DESC'], ['id', 'DESC']],
+		order: [
+			['createdAt', 'DESC'],
+			['id', 'DESC']
+		],
 		transaction
 	})) as (Review & { reviewer?: User | null; revision?: GuideRevision | null })[];
 	return rows.map((r) => ({
@@ -278,35 +358,73 @@ function stateAfter(decision: DecisionInput['decision'], current: string): Guide
 	return decision === 'request_changes' ? 'changes_requested' : 'declined';
 }
 
-export async function decide(actor: Actor, revisionId: number, input: DecisionInput, links: { guidesUrl: string }): Promise<DecideOutcome> {
+export async function decide(
+	actor: Actor,
+	revisionId: number,
+	input: DecisionInput,
+	links: { guidesUrl: string }
+): Promise<DecideOutcome> {
 	const result = await sequelize.transaction(async (transaction) => {
 		// Lock order: revision, then guide (unpublish/archive lock only the guide, so no cycle).
-		const revision = await GuideRevision.findByPk(revisionId, { transaction, lock: transaction.LOCK.UPDATE });
+		const revision = await GuideRevision.findByPk(revisionId, {
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!revision || !revision.submittedAt) return { kind: 'not_found' } as const;
-		const guide = await Guide.findByPk(revision.guideId, { transaction, lock: transaction.LOCK.UPDATE });
+		const guide = await Guide.findByPk(revision.guideId, {
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!guide) return { kind: 'not_found' } as const;
-		if (revision.reviewedAt) return { kind: 'conflict', message: await alreadyDecided(revision, transaction) } as const;
-		if (guide.state === 'archived') return { kind: 'conflict', message: 'This guide was archived meanwhile; nothing can be decided on it.' } as const;
+		if (revision.reviewedAt)
+			return { kind: 'conflict', message: await alreadyDecided(revision, transaction) } as const;
+		if (guide.state === 'archived')
+			return {
+				kind: 'conflict',
+				message: 'This guide was archived meanwhile; nothing can be decided on it.'
+			} as const;
 		const own = guide.authorId === actor.id;
 		if (own && actor.role !== 'admin') {
-			return { kind: 'forbidden', message: 'You wrote this guide, so another editor must review it.' } as const;
+			return {
+				kind: 'forbidden',
+				message: 'You wrote this guide, so another editor must review it.'
+			} as const;
 		}
 
 		const now = new Date();
 		const [affected] = await GuideRevision.update(
-			{ reviewedAt: now, reviewerId: actor.id, reviewNote: input.note || null, decision: input.decision, publishedAt: input.decision === 'approve' ? now : null },
+			{
+				reviewedAt: now,
+				reviewerId: actor.id,
+				reviewNote: input.note || null,
+				decision: input.decision,
+				publishedAt: input.decision === 'approve' ? now : null
+			},
 			{ where: { id: revision.id, reviewedAt: null }, transaction }
 		);
-		if (affected !== 1) return { kind: 'conflict', message: await alreadyDecided(revision, transaction) } as const;
+		if (affected !== 1)
+			return { kind: 'conflict', message: await alreadyDecided(revision, transaction) } as const;
 		const before = { state: guide.state, publishedRevisionId: guide.publishedRevisionId };
 		guide.state = stateAfter(input.decision, guide.state);
 		if (input.decision === 'approve') guide.publishedRevisionId = revision.id;
 		await guide.save({ transaction });
 		await Review.create(
-			{ guideId: guide.id, revisionId: revision.id, reviewerId: actor.id, decision: input.decision, note: input.note || null, slotNotes: input.slotNotes, selfReviewOverride: own },
+			{
+				guideId: guide.id,
+				revisionId: revision.id,
+				reviewerId: actor.id,
+				decision: input.decision,
+				note: input.note || null,
+				slotNotes: input.slotNotes,
+				selfReviewOverride: own
+			},
 			{ transaction }
 		);
-		const action = { approve: 'guide_revision.approved', request_changes: 'guide_revision.changes_requested', decline: 'guide_revision.declined' }[input.decision];
+		const action = {
+			approve: 'guide_revision.approved',
+			request_changes: 'guide_revision.changes_requested',
+			decline: 'guide_revision.declined'
+		}[input.decision];
 		await audit.record(
 			{
 				actorId: actor.id,
@@ -314,18 +432,44 @@ export async function decide(actor: Actor, revisionId: number, input: DecisionIn
 				subjectType: 'guide_revision',
 				subjectId: revision.id,
 				before: { ...before, revision: revision.number, revisionState: 'in_review' },
-				after: { state: guide.state, publishedRevisionId: guide.publishedRevisionId, revision: revision.number, decision: input.decision, note: input.note || null, slotNotes: input.slotNotes.length, selfReviewOverride: own }
+				after: {
+					state: guide.state,
+					publishedRevisionId: guide.publishedRevisionId,
+					revision: revision.number,
+					decision: input.decision,
+					note: input.note || null,
+					slotNotes: input.slotNotes.length,
+					selfReviewOverride: own
+				}
 			},
 			transaction
 		);
 		if (own) {
 			await audit.record(
-				{ actorId: actor.id, action: 'review.self_review_override', subjectType: 'guide', subjectId: guide.id, before: null, after: { slug: guide.slug, revision: revision.number, decision: input.decision } },
+				{
+					actorId: actor.id,
+					action: 'review.self_review_override',
+					subjectType: 'guide',
+					subjectId: guide.id,
+					before: null,
+					after: { slug: guide.slug, revision: revision.number, decision: input.decision }
+				},
 				transaction
 			);
 		}
-		const author = guide.authorId ? await User.findByPk(guide.authorId, { attributes: ['email', 'name', 'disabledAt'], transaction }) : null;
-		return { kind: 'ok', guideState: guide.state, title: guide.title, number: revision.number, author: author && !author.disabledAt ? author : null } as const;
+		const author = guide.authorId
+			? await User.findByPk(guide.authorId, {
+					attributes: ['email', 'name', 'disabledAt'],
+					transaction
+				})
+			: null;
+		return {
+			kind: 'ok',
+			guideState: guide.state,
+			title: guide.title,
+			number: revision.number,
+			author: author && !author.disabledAt ? author : null
+		} as const;
 	});
 	if (result.kind !== 'ok') return result;
 	const message = templates.reviewDecision({
@@ -338,17 +482,21 @@ export async function decide(actor: Actor, revisionId: number, input: DecisionIn
 		url: links.guidesUrl
 	});
 	const mailed = await sendToAuthor(result.author, message, 'review_decision');
-	if (input.decision === 'approve') await notifyForksOfRevision(revisionId, new URL(links.guidesUrl).origin);
+	if (input.decision === 'approve')
+		await notifyForksOfRevision(revisionId, new URL(links.guidesUrl).origin);
 	return { kind: 'ok', guideState: result.guideState, mailed };
 }
 
 async function alreadyDecided(revision: GuideRevision, transaction: Transaction): Promise<string> {
-	const fresh = (await GuideRevision.findByPk(revision.id, { include: [{ model: User, as: 'reviewer', attributes: ['name'] }], transaction })) as
-		| (GuideRevision & { reviewer?: User | null })
-		| null;
+	const fresh = (await GuideRevision.findByPk(revision.id, {
+		include: [{ model: User, as: 'reviewer', attributes: ['name'] }],
+		transaction
+	})) as (GuideRevision & { reviewer?: User | null }) | null;
 	const who = fresh?.reviewer?.name ?? 'another editor';
 	const what = DECISION_WORDS[(fresh?.decision ?? 'approve') as ReviewDecision];
-	const when = fresh?.reviewedAt ? ` at ${fresh.reviewedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '';
+	const when = fresh?.reviewedAt
+		? ` at ${fresh.reviewedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC`
+		: '';
 	return `Revision ${revision.number} was already ${what} by ${who}${when}. Nothing was changed.`;
 }
 
@@ -359,29 +507,84 @@ export type ModerateOutcome = DecideOutcome;
  * author (it waits in the queue again if a newer revision is pending); archive retires it
  * for good: not public, not editable, out of the queue.
  */
-export async function moderate(actor: Actor, slug: string, input: ModerationInput, links: { guidesUrl: string }): Promise<ModerateOutcome> {
+export async function moderate(
+	actor: Actor,
+	slug: string,
+	input: ModerationInput,
+	links: { guidesUrl: string }
+): Promise<ModerateOutcome> {
 	const result = await sequelize.transaction(async (transaction) => {
-		const guide = await Guide.findOne({ where: { slug }, transaction, lock: transaction.LOCK.UPDATE });
+		const guide = await Guide.findOne({
+			where: { slug },
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!guide) return { kind: 'not_found' } as const;
 		if (input.action === 'unpublish' && guide.state !== 'published') {
-			return { kind: 'conflict', message: 'Only a published guide can be unpublished; this one is not public.' } as const;
+			return {
+				kind: 'conflict',
+				message: 'Only a published guide can be unpublished; this one is not public.'
+			} as const;
 		}
-		if (guide.state === 'archived') return { kind: 'conflict', message: 'This guide is already archived.' } as const;
-		const pending = await GuideRevision.count({ where: { guideId: guide.id, submittedAt: { [Op.ne]: null }, reviewedAt: null }, transaction });
+		if (guide.state === 'archived')
+			return { kind: 'conflict', message: 'This guide is already archived.' } as const;
+		const pending = await GuideRevision.count({
+			where: { guideId: guide.id, submittedAt: { [Op.ne]: null }, reviewedAt: null },
+			transaction
+		});
 		const before = { state: guide.state };
-		guide.state = input.action === 'archive' ? 'archived' : pending > 0 ? 'in_review' : 'changes_requested';
+		guide.state =
+			input.action === 'archive' ? 'archived' : pending > 0 ? 'in_review' : 'changes_requested';
 		await guide.save({ transaction });
-		await Review.create({ guideId: guide.id, revisionId: null, reviewerId: actor.id, decision: input.action, note: input.reason, slotNotes: [] }, { transaction });
+		await Review.create(
+			{
+				guideId: guide.id,
+				revisionId: null,
+				reviewerId: actor.id,
+				decision: input.action,
+				note: input.reason,
+				slotNotes: []
+			},
+			{ transaction }
+		);
 		await audit.record(
-			{ actorId: actor.id, action: input.action === 'archive' ? 'guide.archived' : 'guide.unpublished', subjectType: 'guide', subjectId: guide.id, before, after: { state: guide.state, reason: input.reason } },
+			{
+				actorId: actor.id,
+				action: input.action === 'archive' ? 'guide.archived' : 'guide.unpublished',
+				subjectType: 'guide',
+				subjectId: guide.id,
+				before,
+				after: { state: guide.state, reason: input.reason }
+			},
 			transaction
 		);
-		const author = guide.authorId ? await User.findByPk(guide.authorId, { attributes: ['email', 'name', 'disabledAt'], transaction }) : null;
-		return { kind: 'ok', guideState: guide.state, title: guide.title, author: author && !author.disabledAt ? author : null } as const;
+		const author = guide.authorId
+			? await User.findByPk(guide.authorId, {
+					attributes: ['email', 'name', 'disabledAt'],
+					transaction
+				})
+			: null;
+		return {
+			kind: 'ok',
+			guideState: guide.state,
+			title: guide.title,
+			author: author && !author.disabledAt ? author : null
+		} as const;
 	});
 	if (result.kind !== 'ok') return result;
-	const message = templates.reviewDecision({ name: result.author?.name ?? '', title: result.title, revision: null, decision: input.action, note: input.reason, url: links.guidesUrl });
-	return { kind: 'ok', guideState: result.guideState, mailed: await sendToAuthor(result.author, message, 'guide_moderated') };
+	const message = templates.reviewDecision({
+		name: result.author?.name ?? '',
+		title: result.title,
+		revision: null,
+		decision: input.action,
+		note: input.reason,
+		url: links.guidesUrl
+	});
+	return {
+		kind: 'ok',
+		guideState: result.guideState,
+		mailed: await sendToAuthor(result.author, message, 'guide_moderated')
+	};
 }
 
 export interface ModeratedGuide {
@@ -403,7 +606,10 @@ export async function listGuides(query: GuideStateQuery): Promise<Paged<Moderate
 	const rows = (await Guide.findAll({
 		where,
 		include: [{ model: User, as: 'author', attributes: ['name'] }],
-		order: [['updatedAt', 'DESC'], ['id', 'DESC']],
+		order: [
+			['updatedAt', 'DESC'],
+			['id', 'DESC']
+		],
 		limit: PER_PAGE,
 		offset: window.offset
 	})) as GuideWithAuthor[];
@@ -433,15 +639,28 @@ export interface GuideModeration {
 	title: string;
 	state: string;
 	authorName: string;
-	revisions: { id: number; number: number; status: string; submittedAt: string | null; reviewedAt: string | null; live: boolean }[];
+	revisions: {
+		id: number;
+		number: number;
+		status: string;
+		submittedAt: string | null;
+		reviewedAt: string | null;
+		live: boolean;
+	}[];
 	log: ReviewLogEntry[];
 }
 
 /** One guide's revisions and decisions, for the editor's moderation page. */
 export async function getGuideModeration(slug: string): Promise<GuideModeration | null> {
-	const guide = (await Guide.findOne({ where: { slug }, include: [{ model: User, as: 'author', attributes: ['name'] }] })) as GuideWithAuthor | null;
+	const guide = (await Guide.findOne({
+		where: { slug },
+		include: [{ model: User, as: 'author', attributes: ['name'] }]
+	})) as GuideWithAuthor | null;
 	if (!guide) return null;
-	const revisions = await GuideRevision.findAll({ where: { guideId: guide.id }, order: [['number', 'DESC']] });
+	const revisions = await GuideRevision.findAll({
+		where: { guideId: guide.id },
+		order: [['number', 'DESC']]
+	});
 	return {
 		slug: guide.slug,
 		title: guide.title,
@@ -460,7 +679,9 @@ export async function getGuideModeration(slug: string): Promise<GuideModeration 
 }
 
 /** A revision's own state, read from its timestamps and decision. */
-export function revisionStatus(r: Pick<GuideRevision, 'submittedAt' | 'reviewedAt' | 'decision'>): 'draft' | 'in_review' | 'approve' | 'request_changes' | 'decline' {
+export function revisionStatus(
+	r: Pick<GuideRevision, 'submittedAt' | 'reviewedAt' | 'decision'>
+): 'draft' | 'in_review' | 'approve' | 'request_changes' | 'decline' {
 	if (!r.submittedAt) return 'draft';
 	if (!r.reviewedAt) return 'in_review';
 	return r.decision ?? 'approve';
@@ -485,14 +706,23 @@ export async function authorDashboard(authorId: string): Promise<DashboardGuide[
 	const guides = await Guide.findAll({ where: { authorId }, order: [['updatedAt', 'DESC']] });
 	const result: DashboardGuide[] = [];
 	for (const guide of guides) {
-		const latest = await GuideRevision.findOne({ where: { guideId: guide.id }, order: [['number', 'DESC']] });
+		const latest = await GuideRevision.findOne({
+			where: { guideId: guide.id },
+			order: [['number', 'DESC']]
+		});
 		const log = await reviewLog(guide.id);
 		const lastDecision = log[0] ?? null;
-		const decided = await GuideRevision.findOne({ where: { guideId: guide.id, reviewedAt: { [Op.ne]: null } }, order: [['number', 'DESC']] });
+		const decided = await GuideRevision.findOne({
+			where: { guideId: guide.id, reviewedAt: { [Op.ne]: null } },
+			order: [['number', 'DESC']]
+		});
 		let changedSinceDecision: RevisionDiff | null = null;
 		if (latest && decided && latest.id !== decided.id) {
 			const slots = await loadRevisionSlots([latest.id, decided.id]);
-			changedSinceDecision = revisionDiff(snapshotOf(decided, slots, true), snapshotOf(latest, slots, true));
+			changedSinceDecision = revisionDiff(
+				snapshotOf(decided, slots, true),
+				snapshotOf(latest, slots, true)
+			);
 		}
 		result.push({
 			slug: guide.slug,

@@ -16,13 +16,30 @@ import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import { valueOf } from '$lib/domain/value';
 import { adjustToRegion } from '$lib/domain/region';
-import type { OptionInput, PricedLine, QuoteInput, RatesPerEur, RegionPricing, SlotInput } from '$lib/domain/region';
+import type {
+	OptionInput,
+	PricedLine,
+	QuoteInput,
+	RatesPerEur,
+	RegionPricing,
+	SlotInput
+} from '$lib/domain/region';
 import type { AlternateReason, PartCategory, TaxMode } from '$lib/domain/types';
-import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User } from '$lib/server/db';
+import {
+	FrameResult,
+	Guide,
+	GuideRevision,
+	Part,
+	Quote,
+	Region,
+	Store,
+	ThermalResult,
+	User
+} from '$lib/server/db';
 import * as fx from './fx';
 import { activeRules } from './caution-rules';
 import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
-import type { LoadedRevisionSlot, QuoteWithStore } from './revision-snapshots';
+import type { QuoteWithStore } from './revision-snapshots';
 import type {
 	DropInView,
 	FrameResultView,
@@ -65,7 +82,8 @@ export async function getPublishedBySlug(slug: string): Promise<GuideDetail | nu
 	return (await price(guide, null, null))?.guide ?? null;
 }
 
-export type PricedOutcome = { kind: 'ok'; guide: PricedGuide } | { kind: 'not_found' } | { kind: 'unknown_region' };
+export type PricedOutcome =
+	{ kind: 'ok'; guide: PricedGuide } | { kind: 'not_found' } | { kind: 'unknown_region' };
 
 /**
  * The published guide priced in `regionCode` (its base region when null): the guide page
@@ -76,7 +94,8 @@ export async function getPriced(slug: string, regionCode: string | null): Promis
 	return outcome.kind === 'ok' ? { kind: 'ok', guide: outcome.page.guide } : outcome;
 }
 
-export type GuidePageOutcome = { kind: 'ok'; page: GuidePage } | { kind: 'not_found' } | { kind: 'unknown_region' };
+export type GuidePageOutcome =
+	{ kind: 'ok'; page: GuidePage } | { kind: 'not_found' } | { kind: 'unknown_region' };
 
 /**
  * The guide page: the priced guide (with value and reproducibility in the region) plus fit
@@ -99,8 +118,20 @@ export async function getGuidePage(
 	const revision = guide.publishedRevision;
 	if (!revision) return { kind: 'not_found' };
 	const [frames, thermals, revisions, cautionRules] = await Promise.all([
-		FrameResult.findAll({ where: { revisionId: revision.id }, order: [['position', 'ASC'], ['id', 'ASC']] }),
-		ThermalResult.findAll({ where: { revisionId: revision.id }, order: [['position', 'ASC'], ['id', 'ASC']] }),
+		FrameResult.findAll({
+			where: { revisionId: revision.id },
+			order: [
+				['position', 'ASC'],
+				['id', 'ASC']
+			]
+		}),
+		ThermalResult.findAll({
+			where: { revisionId: revision.id },
+			order: [
+				['position', 'ASC'],
+				['id', 'ASC']
+			]
+		}),
 		GuideRevision.findAll({
 			where: { guideId: guide.id, publishedAt: { [Op.ne]: null } },
 			attributes: ['number', 'publishedAt', 'submittedAt'],
@@ -123,7 +154,9 @@ export async function getGuidePage(
 	return {
 		kind: 'ok',
 		page: {
-			hidden: guide.hiddenAt ? { reason: guide.hiddenReason ?? '', hiddenAt: guide.hiddenAt.toISOString() } : null,
+			hidden: guide.hiddenAt
+				? { reason: guide.hiddenReason ?? '', hiddenAt: guide.hiddenAt.toISOString() }
+				: null,
 			guide: { ...pricedGuide, regions: await listRegions() },
 			extras: {
 				fit: { findings: drop.picks, summary: summarize(drop.picks), slotLabels },
@@ -183,7 +216,10 @@ export async function getRevisionDiff(
 	return { kind: 'ok', diff: revisionDiff(snapshotOf(a, slots), snapshotOf(b, slots)) };
 }
 
-async function findPublished(slug: string, viewer: GuideViewer | null = null): Promise<LoadedGuide | null> {
+async function findPublished(
+	slug: string,
+	viewer: GuideViewer | null = null
+): Promise<LoadedGuide | null> {
 	const guide = (await Guide.findOne({
 		where: { slug, state: 'published', publishedRevisionId: { [Op.ne]: null } },
 		include: guideIncludes()
@@ -212,7 +248,11 @@ function guideIncludes() {
 	];
 }
 
-type LoadedGuide = Guide & { author?: User | null; baseRegion?: Region; publishedRevision?: GuideRevision | null };
+type LoadedGuide = Guide & {
+	author?: User | null;
+	baseRegion?: Region;
+	publishedRevision?: GuideRevision | null;
+};
 
 interface Priced {
 	guide: PricedGuide;
@@ -246,7 +286,11 @@ async function price(
 
 	const option = (part: Part, chosen: QuoteWithStore | null): OptionInput => {
 		const basePrice = chosen ? quoteInput(chosen) : (baseQuotes.get(part.id) ?? null);
-		return { partId: part.id, basePrice, targetQuote: inBase ? basePrice : (targetQuotes.get(part.id) ?? null) };
+		return {
+			partId: part.id,
+			basePrice,
+			targetQuote: inBase ? basePrice : (targetQuotes.get(part.id) ?? null)
+		};
 	};
 	const inputs: SlotInput[] = slots.map((s) => ({
 		key: s.id,
@@ -255,7 +299,12 @@ async function price(
 		pick: option(s.pick, s.priceQuote),
 		alternates: s.alternates.map((a) => option(a.part, null))
 	}));
-	const adjusted = adjustToRegion({ base: pricingOf(base), target: pricingOf(region), slots: inputs, rates });
+	const adjusted = adjustToRegion({
+		base: pricingOf(base),
+		target: pricingOf(region),
+		slots: inputs,
+		rates
+	});
 
 	const dropSlots: DropInSlot[] = slots.map(
 		(s) =>
@@ -269,9 +318,18 @@ async function price(
 			}) as unknown as DropInSlot
 	);
 	const build = dropSlots.map(
-		(d) => ({ key: d.key, label: d.label, category: d.category, quantity: d.quantity, part: d.pick }) as unknown as BuildPart
+		(d) =>
+			({
+				key: d.key,
+				label: d.label,
+				category: d.category,
+				quantity: d.quantity,
+				part: d.pick
+			}) as unknown as BuildPart
 	);
-	const drop: DropInReport = detail ? dropIns(dropSlots, detail.cautionRules) : { picks: [], alternates: [] };
+	const drop: DropInReport = detail
+		? dropIns(dropSlots, detail.cautionRules)
+		: { picks: [], alternates: [] };
 	const dropByAlternate = new Map(drop.alternates.map((r) => [r.alternateId, r]));
 
 	const slotViews: SlotView[] = slots.map((slot, i) => {
@@ -347,15 +405,29 @@ function partInfo(p: Part) {
 
 function dropInView(result: DropInResult | undefined): DropInView | undefined {
 	if (!result) return undefined;
-	const changed = result.changed.map((f) => ({ severity: f.severity, before: f.before, message: f.message }));
-	const status = !result.fits ? 'no-fit' : changed.some((c) => c.severity === 'caution') ? 'caution' : 'fits';
+	const changed = result.changed.map((f) => ({
+		severity: f.severity,
+		before: f.before,
+		message: f.message
+	}));
+	const status = !result.fits
+		? 'no-fit'
+		: changed.some((c) => c.severity === 'caution')
+			? 'caution'
+			: 'fits';
 	return { status, changed, gone: result.gone.map((f) => f.message) };
 }
 
-
 function toCard(detail: GuideDetail): GuideCard {
 	const { slots: _slots, totalRange: _range, revisionNumber: _n, ...rest } = detail;
-	const { region: _r, regions: _rs, picks: _p, ratesAsOf: _a, ratesStale: _s, ...card } = rest as PricedGuide;
+	const {
+		region: _r,
+		regions: _rs,
+		picks: _p,
+		ratesAsOf: _a,
+		ratesStale: _s,
+		...card
+	} = rest as PricedGuide;
 	return card;
 }
 
@@ -410,7 +482,13 @@ function pricingOf(r: Region): RegionPricing {
 }
 
 function partRef(p: Part): PartRef {
-	return { id: p.id, slug: p.slug, brand: p.brand, model: p.model, category: p.category as PartCategory };
+	return {
+		id: p.id,
+		slug: p.slug,
+		brand: p.brand,
+		model: p.model,
+		category: p.category as PartCategory
+	};
 }
 
 function regionSummary(r: Region): RegionSummary {

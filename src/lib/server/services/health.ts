@@ -11,7 +11,10 @@ export interface HealthReport {
 	db: 'up' | 'down';
 }
 
-export async function check(sequelize: Sequelize = shared, timeoutMs = 1_500): Promise<HealthReport> {
+export async function check(
+	sequelize: Sequelize = shared,
+	timeoutMs = 1_500
+): Promise<HealthReport> {
 	let timer: NodeJS.Timeout | undefined;
 	const timeout = new Promise<false>((resolve) => {
 		timer = setTimeout(() => resolve(false), timeoutMs);

@@ -95,7 +95,11 @@ function escapeLike(text: string): string {
 }
 
 /** Whether `specs` passes one filter; a missing or mistyped field never passes. */
-function passes(specs: Record<string, unknown>, def: SpecFilterDef, value: string | number): boolean {
+function passes(
+	specs: Record<string, unknown>,
+	def: SpecFilterDef,
+	value: string | number
+): boolean {
 	const field = specs[def.field];
 	switch (def.op) {
 		case 'eq':
@@ -117,7 +121,8 @@ function activeFilters(category: PartCategory | undefined, specFilters: SpecFilt
 		if (value === undefined) continue;
 		const def = category ? SPEC_FILTERS[category]?.find((d) => d.key === key) : undefined;
 		// partSearchQuery refuses these; reaching here is a caller's bug, not bad input.
-		if (!def) throw new RangeError(`Spec filter ${key} does not apply to ${category ?? 'all categories'}`);
+		if (!def)
+			throw new RangeError(`Spec filter ${key} does not apply to ${category ?? 'all categories'}`);
 		active.push({ def, value });
 	}
 	return active;
@@ -162,7 +167,9 @@ export async function search(options: {
 	const words = options.q.trim().split(/\s+/).filter(Boolean).slice(0, 8);
 	for (const word of words) {
 		const pattern = `%${escapeLike(word)}%`;
-		conditions.push({ [Op.or]: [{ brand: { [Op.like]: pattern } }, { model: { [Op.like]: pattern } }] });
+		conditions.push({
+			[Op.or]: [{ brand: { [Op.like]: pattern } }, { model: { [Op.like]: pattern } }]
+		});
 	}
 	const where: WhereOptions<Part> = conditions.length > 0 ? { [Op.and]: conditions } : {};
 
@@ -186,8 +193,14 @@ export async function search(options: {
 	 * JSON_VALUE casts in SQL. Past that size, move the filtered fields to indexed generated
 	 * columns and filter in SQL.
 	 */
-	const rows = await Part.findAll({ where, attributes: [...SUMMARY_ATTRIBUTES], order: SUMMARY_ORDER });
-	const matching = rows.filter((row) => filters.every(({ def, value }) => passes(row.specs, def, value)));
+	const rows = await Part.findAll({
+		where,
+		attributes: [...SUMMARY_ATTRIBUTES],
+		order: SUMMARY_ORDER
+	});
+	const matching = rows.filter((row) =>
+		filters.every(({ def, value }) => passes(row.specs, def, value))
+	);
 	const window = pageWindow(matching.length, options.page, perPage);
 	return {
 		items: matching.slice(window.offset, window.offset + perPage).map(toSummary),
@@ -226,7 +239,13 @@ export async function getBySlug(slug: string): Promise<PartDetail | null> {
 }
 
 function regionOf(r: Region): PartRegion {
-	return { code: r.code, name: r.name, currency: r.currency, taxMode: r.taxMode, taxRateBp: r.taxRateBp };
+	return {
+		code: r.code,
+		name: r.name,
+		currency: r.currency,
+		taxMode: r.taxMode,
+		taxRateBp: r.taxRateBp
+	};
 }
 
 /** `quotes` must be oldest first, so the last one seen per store is its latest. */
@@ -276,7 +295,10 @@ function historyOf(quotes: LoadedQuote[]): PriceSeries[] {
 			};
 			series.set(key, line);
 		}
-		line.points.push({ observedAt: q.observedAt.toISOString(), amountMinor: Number(q.amountMinor) });
+		line.points.push({
+			observedAt: q.observedAt.toISOString(),
+			amountMinor: Number(q.amountMinor)
+		});
 	}
 	return [...series.values()].sort(
 		(a, b) =>
@@ -304,7 +326,10 @@ async function guidesUsing(partId: number): Promise<GuideUsingPart[]> {
 	})) as (SlotAlternate & { slot: SlotWithRevision })[];
 
 	const uses: { slot: SlotWithRevision; use: GuideUse }[] = [
-		...picks.map((slot) => ({ slot, use: { role: 'pick' as const, slotLabel: slot.label, rank: null } })),
+		...picks.map((slot) => ({
+			slot,
+			use: { role: 'pick' as const, slotLabel: slot.label, rank: null }
+		})),
 		...alternates.map((alt) => ({
 			slot: alt.slot,
 			use: { role: 'alternate' as const, slotLabel: alt.slot.label, rank: alt.rank }

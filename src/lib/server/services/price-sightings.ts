@@ -25,7 +25,16 @@ import { decimalToMinor } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
 import { SIGHTINGS_PER_PAGE, priceSightingInput } from '$lib/schemas/price-sightings';
 import type { PendingSightingsQuery } from '$lib/schemas/price-sightings';
-import { Part, PriceSighting, PriceSightingReport, Quote, Region, Store, User, sequelize } from '$lib/server/db';
+import {
+	Part,
+	PriceSighting,
+	PriceSightingReport,
+	Quote,
+	Region,
+	Store,
+	User,
+	sequelize
+} from '$lib/server/db';
 import type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 import * as audit from './audit';
 import type { Paged } from './audit';
@@ -98,8 +107,14 @@ function add(issues: Issues, key: string, message: string) {
 
 /** Regions with their stores, for the report form's choices. */
 export async function formOptions(): Promise<SightingRegionOption[]> {
-	const regions = await Region.findAll({ order: [['name', 'ASC']], attributes: ['id', 'code', 'name', 'currency'] });
-	const stores = await Store.findAll({ order: [['name', 'ASC']], attributes: ['id', 'name', 'regionId'] });
+	const regions = await Region.findAll({
+		order: [['name', 'ASC']],
+		attributes: ['id', 'code', 'name', 'currency']
+	});
+	const stores = await Store.findAll({
+		order: [['name', 'ASC']],
+		attributes: ['id', 'name', 'regionId']
+	});
 	return regions.map((r) => ({
 		code: r.code,
 		name: r.name,
@@ -119,13 +134,23 @@ function dayBounds(day: string): [Date, Date] {
  * Files a sighting by `userId` for the part with `partSlug`. `raw` is the form (see
  * priceSightingInput); `now` fixes "today" for the date checks.
  */
-export async function submit(userId: string, partSlug: string, raw: unknown, now = new Date()): Promise<SubmitOutcome> {
+export async function submit(
+	userId: string,
+	partSlug: string,
+	raw: unknown,
+	now = new Date()
+): Promise<SubmitOutcome> {
 	const input = priceSightingInput(now).safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const data = input.data;
 
 	return sequelize.transaction(async (transaction): Promise<SubmitOutcome> => {
-		const part = await Part.findOne({ where: { slug: partSlug }, attributes: ['id'], transaction, lock: transaction.LOCK.UPDATE });
+		const part = await Part.findOne({
+			where: { slug: partSlug },
+			attributes: ['id'],
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!part) return { kind: 'not_found' };
 
 		const issues: Issues = {};
@@ -134,7 +159,11 @@ export async function submit(userId: string, partSlug: string, raw: unknown, now
 		const store = await Store.findByPk(data.storeId, { transaction });
 		if (!store) add(issues, 'storeId', 'Choose a store from the list.');
 		else if (region && store.regionId !== region.id) {
-			add(issues, 'storeId', `${store.name} does not sell in ${region.name}: choose one of that region's stores.`);
+			add(
+				issues,
+				'storeId',
+				`${store.name} does not sell in ${region.name}: choose one of that region's stores.`
+			);
 		}
 		let amountMinor = 0;
 		if (region) {
@@ -145,17 +174,29 @@ export async function submit(userId: string, partSlug: string, raw: unknown, now
 		}
 		if (Object.keys(issues).length > 0 || !region || !store) return { kind: 'invalid', issues };
 
-		const same = { partId: part.id, storeId: store.id, regionId: region.id, amountMinor, observedOn: data.observedOn };
+		const same = {
+			partId: part.id,
+			storeId: store.id,
+			regionId: region.id,
+			amountMinor,
+			observedOn: data.observedOn
+		};
 		const existing = await PriceSighting.findAll({
 			where: { ...same, state: { [Op.in]: ['pending', 'verified'] } },
 			// Pending first, then verified: a report joins the one an editor still has to decide.
-			order: [['state', 'ASC'], ['id', 'ASC']],
+			order: [
+				['state', 'ASC'],
+				['id', 'ASC']
+			],
 			transaction,
 			lock: transaction.LOCK.UPDATE
 		});
 		const match = existing[0];
 		if (match) {
-			const mine = await PriceSightingReport.findOne({ where: { sightingId: match.id, userId }, transaction });
+			const mine = await PriceSightingReport.findOne({
+				where: { sightingId: match.id, userId },
+				transaction
+			});
 			if (mine) return { kind: 'already_reported', sightingId: match.id, state: match.state };
 			await PriceSightingReport.create({ sightingId: match.id, userId }, { transaction });
 			await match.update({ seenCount: match.seenCount + 1 }, { transaction });
@@ -228,7 +269,10 @@ export async function listPending(
 	query: PendingSightingsQuery,
 	perPage = SIGHTINGS_PER_PAGE
 ): Promise<Paged<PendingSighting> & { regions: { code: string; name: string }[] }> {
-	const regions = await Region.findAll({ order: [['name', 'ASC']], attributes: ['id', 'code', 'name'] });
+	const regions = await Region.findAll({
+		order: [['name', 'ASC']],
+		attributes: ['id', 'code', 'name']
+	});
 	const conditions: WhereOptions[] = [{ state: 'pending' }];
 	if (query.region) {
 		const region = regions.find((r) => r.code === query.region);
@@ -237,7 +281,12 @@ export async function listPending(
 	}
 	for (const word of query.q.split(/\s+/).filter(Boolean).slice(0, 8)) {
 		const pattern = `%${escapeLike(word)}%`;
-		conditions.push({ [Op.or]: [{ '$part.brand$': { [Op.like]: pattern } }, { '$part.model$': { [Op.like]: pattern } }] });
+		conditions.push({
+			[Op.or]: [
+				{ '$part.brand$': { [Op.like]: pattern } },
+				{ '$part.model$': { [Op.like]: pattern } }
+			]
+		});
 	}
 	const where = { [Op.and]: conditions };
 	const include = [
@@ -246,7 +295,10 @@ export async function listPending(
 		{ model: Region, as: 'region', attributes: ['code', 'name'] },
 		{ model: User, as: 'submittedBy', attributes: ['name', 'email'] }
 	];
-	const total = await PriceSighting.count({ where, include: [{ model: Part, as: 'part', attributes: [] }] });
+	const total = await PriceSighting.count({
+		where,
+		include: [{ model: Part, as: 'part', attributes: [] }]
+	});
 	const window = audit.pageWindow(total, query.page, perPage);
 	const rows = (await PriceSighting.findAll({
 		where,
@@ -286,14 +338,29 @@ export async function listPending(
  */
 async function claim(
 	sightingId: number,
-	changes: { state: PriceSightingState; decidedById: string; decidedAt: Date; rejectReason?: string },
+	changes: {
+		state: PriceSightingState;
+		decidedById: string;
+		decidedAt: Date;
+		rejectReason?: string;
+	},
 	transaction: Transaction
 ): Promise<PriceSighting | Exclude<DecideOutcome, { kind: 'ok' }>> {
-	const found = await PriceSighting.findByPk(sightingId, { attributes: ['id', 'partId'], transaction });
+	const found = await PriceSighting.findByPk(sightingId, {
+		attributes: ['id', 'partId'],
+		transaction
+	});
 	if (!found) return { kind: 'not_found' };
 	// Same lock order as submit (part, then sighting): no deadlock with a report merging in.
-	await Part.findByPk(found.partId, { attributes: ['id'], transaction, lock: transaction.LOCK.UPDATE });
-	const [changed] = await PriceSighting.update(changes, { where: { id: sightingId, state: 'pending' }, transaction });
+	await Part.findByPk(found.partId, {
+		attributes: ['id'],
+		transaction,
+		lock: transaction.LOCK.UPDATE
+	});
+	const [changed] = await PriceSighting.update(changes, {
+		where: { id: sightingId, state: 'pending' },
+		transaction
+	});
 	const sighting = await PriceSighting.findByPk(sightingId, { transaction });
 	if (!sighting) return { kind: 'not_found' };
 	if (changed === 0) {
@@ -320,9 +387,17 @@ function snapshot(s: PriceSighting, extra: Record<string, string | number | null
 }
 
 /** Verifies a pending sighting: it becomes a Quote (source 'sighting') in the price history. */
-export async function verify(editorId: string, sightingId: number, now = new Date()): Promise<DecideOutcome> {
+export async function verify(
+	editorId: string,
+	sightingId: number,
+	now = new Date()
+): Promise<DecideOutcome> {
 	return sequelize.transaction(async (transaction): Promise<DecideOutcome> => {
-		const claimed = await claim(sightingId, { state: 'verified', decidedById: editorId, decidedAt: now }, transaction);
+		const claimed = await claim(
+			sightingId,
+			{ state: 'verified', decidedById: editorId, decidedAt: now },
+			transaction
+		);
 		if (!(claimed instanceof PriceSighting)) return claimed;
 		const region = await Region.findByPk(claimed.regionId, { transaction });
 		if (!region) throw new Error(`Region ${claimed.regionId} of sighting ${claimed.id} vanished`);
@@ -359,10 +434,20 @@ export async function verify(editorId: string, sightingId: number, now = new Dat
 }
 
 /** Rejects a pending sighting with a reason its reporters see. */
-export async function reject(editorId: string, sightingId: number, reason: string, now = new Date()): Promise<DecideOutcome> {
+export async function reject(
+	editorId: string,
+	sightingId: number,
+	reason: string,
+	now = new Date()
+): Promise<DecideOutcome> {
 	const trimmed = reason.trim();
 	if (trimmed.length < 3) {
-		return { kind: 'invalid', issues: { reason: ['Say why the sighting is rejected: the people who reported it see this reason.'] } };
+		return {
+			kind: 'invalid',
+			issues: {
+				reason: ['Say why the sighting is rejected: the people who reported it see this reason.']
+			}
+		};
 	}
 	return sequelize.transaction(async (transaction): Promise<DecideOutcome> => {
 		const claimed = await claim(

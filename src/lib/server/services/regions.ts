@@ -1,6 +1,6 @@
 /**
  * Regions as editors keep them: currency, tax display mode, category factors, and tax
- * rates with the date each takes effect (VAT rates move; CHECK-VALUES note 9).
+ * rates with the date each takes effect (VAT rates move; docs/sources.md note 9).
  *
  * Where the rate lives: region_tax_rates holds the dated history; the rate in force on a
  * day is the row with the latest effective_from on or before it. regions.tax_rate_bp
@@ -60,8 +60,13 @@ export function utcDay(now = new Date()): string {
 	return now.toISOString().slice(0, 10);
 }
 
-function fullFactors(factors: Partial<Record<PartCategory, number>> | null | undefined): Record<PartCategory, number> {
-	return Object.fromEntries(PART_CATEGORIES.map((c) => [c, factors?.[c] ?? 10_000])) as Record<PartCategory, number>;
+function fullFactors(
+	factors: Partial<Record<PartCategory, number>> | null | undefined
+): Record<PartCategory, number> {
+	return Object.fromEntries(PART_CATEGORIES.map((c) => [c, factors?.[c] ?? 10_000])) as Record<
+		PartCategory,
+		number
+	>;
 }
 
 /** The history of one region, oldest first. */
@@ -101,7 +106,13 @@ export async function listRegions(now = new Date()): Promise<RegionSummary[]> {
 	const regions = await Region.findAll({ order: [['name', 'ASC']] });
 	const rates = await RegionTaxRate.findAll({ order: [['effectiveFrom', 'ASC']] });
 	const today = utcDay(now);
-	return regions.map((r) => summarise(r, rates.filter((t) => t.regionId === r.id), today));
+	return regions.map((r) =>
+		summarise(
+			r,
+			rates.filter((t) => t.regionId === r.id),
+			today
+		)
+	);
 }
 
 /** One region with its full rate history, or null. */
@@ -157,31 +168,67 @@ function knownCurrency(code: string): boolean {
 }
 
 function settingsSnapshot(region: Region) {
-	return { name: region.name, currency: region.currency, taxMode: region.taxMode, categoryFactorsBp: fullFactors(region.categoryFactorsBp) };
+	return {
+		name: region.name,
+		currency: region.currency,
+		taxMode: region.taxMode,
+		categoryFactorsBp: fullFactors(region.categoryFactorsBp)
+	};
 }
 
 /** Changes name, currency, tax display mode and category factors of region `code`. */
-export async function updateSettings(actorId: string, code: string, raw: unknown): Promise<Outcome<{ changed: boolean }>> {
+export async function updateSettings(
+	actorId: string,
+	code: string,
+	raw: unknown
+): Promise<Outcome<{ changed: boolean }>> {
 	const input = regionSettingsInput.safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const data = input.data;
 	if (!knownCurrency(data.currency)) {
-		return { kind: 'invalid', issues: { currency: [`Unknown currency code "${data.currency}" (ISO 4217).`] } };
+		return {
+			kind: 'invalid',
+			issues: { currency: [`Unknown currency code "${data.currency}" (ISO 4217).`] }
+		};
 	}
 	return sequelize.transaction(async (transaction) => {
-		const region = await Region.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+		const region = await Region.findOne({
+			where: { code },
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!region) return { kind: 'not_found' } as const;
 		const before = settingsSnapshot(region);
-		const after = { name: data.name, currency: data.currency, taxMode: data.taxMode, categoryFactorsBp: data.categoryFactorsBp };
-		if (JSON.stringify(before) === JSON.stringify(after)) return { kind: 'ok', changed: false } as const;
+		const after = {
+			name: data.name,
+			currency: data.currency,
+			taxMode: data.taxMode,
+			categoryFactorsBp: data.categoryFactorsBp
+		};
+		if (JSON.stringify(before) === JSON.stringify(after))
+			return { kind: 'ok', changed: false } as const;
 		await region.update(after, { transaction });
-		await audit.record({ actorId, action: 'region.updated', subjectType: 'region', subjectId: region.code, before, after }, transaction);
+		await audit.record(
+			{
+				actorId,
+				action: 'region.updated',
+				subjectType: 'region',
+				subjectId: region.code,
+				before,
+				after
+			},
+			transaction
+		);
 		return { kind: 'ok', changed: true } as const;
 	});
 }
 
 /** Rewrites regions.tax_rate_bp from the history for `day`; returns the new value. */
-async function refreshColumn(region: Region, day: string, transaction: Transaction): Promise<number> {
+async function refreshColumn(
+	region: Region,
+	day: string,
+	transaction: Transaction
+): Promise<number> {
 	const row = await RegionTaxRate.findOne({
 		where: { regionId: region.id, effectiveFrom: { [Op.lte]: day } },
 		order: [['effectiveFrom', 'DESC']],
@@ -196,17 +243,28 @@ async function refreshColumn(region: Region, day: string, transaction: Transacti
  * Records that region `code` charges `rate` from `effectiveFrom` on. One rate per day:
  * a second one for the same day is refused (remove the wrong one first).
  */
-export async function addTaxRate(actorId: string, code: string, raw: unknown, now = new Date()): Promise<Outcome<{ rateId: number }>> {
+export async function addTaxRate(
+	actorId: string,
+	code: string,
+	raw: unknown,
+	now = new Date()
+): Promise<Outcome<{ rateId: number }>> {
 	const input = taxRateInput.safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const { rate, effectiveFrom, note } = input.data;
 	const today = utcDay(now);
 	return sequelize.transaction(async (transaction) => {
-		const region = await Region.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+		const region = await Region.findOne({
+			where: { code },
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!region) return { kind: 'not_found' } as const;
 		const rows = await RegionTaxRate.findAll({ where: { regionId: region.id }, transaction });
 		if (rows.some((r) => r.effectiveFrom === effectiveFrom)) {
-			const issues: Issues = { effectiveFrom: [`A rate already starts on ${effectiveFrom}; remove it first to replace it.`] };
+			const issues: Issues = {
+				effectiveFrom: [`A rate already starts on ${effectiveFrom}; remove it first to replace it.`]
+			};
 			return { kind: 'invalid', issues } as const;
 		}
 		if (rows.length === 0) {
@@ -214,12 +272,21 @@ export async function addTaxRate(actorId: string, code: string, raw: unknown, no
 			const since = utcDay(region.createdAt);
 			if (since !== effectiveFrom) {
 				await RegionTaxRate.create(
-					{ regionId: region.id, rateBp: region.taxRateBp, effectiveFrom: since, note: 'Rate recorded when the region was set up', createdById: actorId },
+					{
+						regionId: region.id,
+						rateBp: region.taxRateBp,
+						effectiveFrom: since,
+						note: 'Rate recorded when the region was set up',
+						createdById: actorId
+					},
 					{ transaction }
 				);
 			}
 		}
-		const row = await RegionTaxRate.create({ regionId: region.id, rateBp: rate, effectiveFrom, note, createdById: actorId }, { transaction });
+		const row = await RegionTaxRate.create(
+			{ regionId: region.id, rateBp: rate, effectiveFrom, note, createdById: actorId },
+			{ transaction }
+		);
 		const before = { taxRateBp: region.taxRateBp };
 		const current = await refreshColumn(region, today, transaction);
 		await audit.record(
@@ -238,24 +305,59 @@ export async function addTaxRate(actorId: string, code: string, raw: unknown, no
 }
 
 /** Removes one dated rate of region `code` (a mistake); the last remaining one cannot go. */
-export async function removeTaxRate(actorId: string, code: string, rateId: number, now = new Date()): Promise<Outcome> {
+export async function removeTaxRate(
+	actorId: string,
+	code: string,
+	rateId: number,
+	now = new Date()
+): Promise<Outcome> {
 	return sequelize.transaction(async (transaction) => {
-		const region = await Region.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+		const region = await Region.findOne({
+			where: { code },
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
 		if (!region) return { kind: 'not_found' } as const;
-		const row = await RegionTaxRate.findOne({ where: { id: rateId, regionId: region.id }, transaction });
+		const row = await RegionTaxRate.findOne({
+			where: { id: rateId, regionId: region.id },
+			transaction
+		});
 		if (!row) return { kind: 'not_found' } as const;
-		const rows = await RegionTaxRate.findAll({ where: { regionId: region.id }, order: [['effectiveFrom', 'ASC']], transaction });
-		if (rows.length === 1) return { kind: 'conflict', message: 'This is the only rate on record; add the right one before removing it.' } as const;
+		const rows = await RegionTaxRate.findAll({
+			where: { regionId: region.id },
+			order: [['effectiveFrom', 'ASC']],
+			transaction
+		});
+		if (rows.length === 1)
+			return {
+				kind: 'conflict',
+				message: 'This is the only rate on record; add the right one before removing it.'
+			} as const;
 		const today = utcDay(now);
 		const remaining = rows.filter((r) => r.id !== row.id);
 		if (inForce(rows, today) && !inForce(remaining, today)) {
-			return { kind: 'conflict', message: 'Removing it would leave no rate in force today; add the right one first.' } as const;
+			return {
+				kind: 'conflict',
+				message: 'Removing it would leave no rate in force today; add the right one first.'
+			} as const;
 		}
-		const before = { rateBp: row.rateBp, effectiveFrom: row.effectiveFrom, note: row.note, taxRateBp: region.taxRateBp };
+		const before = {
+			rateBp: row.rateBp,
+			effectiveFrom: row.effectiveFrom,
+			note: row.note,
+			taxRateBp: region.taxRateBp
+		};
 		await row.destroy({ transaction });
 		const current = await refreshColumn(region, today, transaction);
 		await audit.record(
-			{ actorId, action: 'region.tax_rate_removed', subjectType: 'region', subjectId: region.code, before, after: { taxRateBp: current } },
+			{
+				actorId,
+				action: 'region.tax_rate_removed',
+				subjectType: 'region',
+				subjectId: region.code,
+				before,
+				after: { taxRateBp: current }
+			},
 			transaction
 		);
 		return { kind: 'ok' } as const;
@@ -280,7 +382,14 @@ export async function syncCurrentTaxRates(now = new Date()): Promise<string[]> {
 			if (before !== after) {
 				changed.push(region.code);
 				await audit.record(
-					{ actorId: null, action: 'region.tax_rate_in_force', subjectType: 'region', subjectId: region.code, before: { taxRateBp: before }, after: { taxRateBp: after, day } },
+					{
+						actorId: null,
+						action: 'region.tax_rate_in_force',
+						subjectType: 'region',
+						subjectId: region.code,
+						before: { taxRateBp: before },
+						after: { taxRateBp: after, day }
+					},
 					transaction
 				);
 			}

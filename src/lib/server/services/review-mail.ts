@@ -11,7 +11,11 @@ export interface Recipient {
 	name: string | null;
 }
 
-export async function sendToAuthor(recipient: Recipient | null, message: MailTemplate, kind: string): Promise<boolean> {
+export async function sendToAuthor(
+	recipient: Recipient | null,
+	message: MailTemplate,
+	kind: string
+): Promise<boolean> {
 	if (!recipient) return false;
 	try {
 		await mail.send(recipient.email, message);
@@ -30,7 +34,12 @@ export async function sendToAuthor(recipient: Recipient | null, message: MailTem
 	}
 }
 
-export function submittedMail(recipient: Recipient, title: string, revision: number, url: string): MailTemplate {
+export function submittedMail(
+	recipient: Recipient,
+	title: string,
+	revision: number,
+	url: string
+): MailTemplate {
 	return templates.revisionSubmitted({ name: recipient.name ?? '', title, revision, url });
 }
 

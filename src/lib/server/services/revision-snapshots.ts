@@ -44,7 +44,11 @@ export function quoteText(quote: QuoteWithStore | null): string | null {
  * slot, so a changed price shows in the diff (the review page wants it; the public
  * history compares what the author chose, not shelf prices).
  */
-export function snapshotOf(revision: GuideRevision, slots: LoadedRevisionSlot[], withPrices = false): RevisionSnapshot {
+export function snapshotOf(
+	revision: GuideRevision,
+	slots: LoadedRevisionSlot[],
+	withPrices = false
+): RevisionSnapshot {
 	return {
 		number: revision.number,
 		buildNotesMd: revision.buildNotesMd,

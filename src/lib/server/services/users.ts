@@ -26,9 +26,7 @@ export interface UserRow {
 
 /** What a change returns: routes map not_found to 404 and conflict to 409 with the message. */
 export type Outcome<T extends object = object> =
-	| ({ kind: 'ok' } & T)
-	| { kind: 'not_found' }
-	| { kind: 'conflict'; message: string };
+	({ kind: 'ok' } & T) | { kind: 'not_found' } | { kind: 'conflict'; message: string };
 
 // Listed explicitly so the password hash (and anything added to users later) never leaves.
 const ROW_ATTRIBUTES = ['id', 'email', 'name', 'role', 'disabledAt', 'createdAt'] as const;
@@ -97,7 +95,10 @@ export async function changeRole(
 		const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
 		if (!user) return { kind: 'not_found' } as const;
 		if (user.role === role) {
-			return { kind: 'conflict', message: `${displayName(user)} is already ${article(role)} ${role}.` } as const;
+			return {
+				kind: 'conflict',
+				message: `${displayName(user)} is already ${article(role)} ${role}.`
+			} as const;
 		}
 		if (user.id === actorId && user.role === 'admin') {
 			return {

@@ -1,5 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { changeEmailInput, changePasswordInput, deleteAccountInput, formFields, profileInput } from '$lib/schemas/account';
+import {
+	changeEmailInput,
+	changePasswordInput,
+	deleteAccountInput,
+	formFields,
+	profileInput
+} from '$lib/schemas/account';
 import { authorRequestInput } from '$lib/schemas/author-requests';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireUser } from '$lib/server/auth/guards';
@@ -32,14 +38,21 @@ export const actions: Actions = {
 		if (!input.success) return fail(400, { section: 'email', issues: fieldIssues(input.error) });
 		const outcome = await accounts.requestEmailChange(user.id, input.data, url.origin);
 		if (outcome.kind === 'wrong_password') {
-			return fail(400, { section: 'email', issues: { password: ['That is not your current password.'] } });
+			return fail(400, {
+				section: 'email',
+				issues: { password: ['That is not your current password.'] }
+			});
 		}
 		if (outcome.kind === 'same_address') {
-			return fail(400, { section: 'email', issues: { newEmail: ['That is already the address of this account.'] } });
+			return fail(400, {
+				section: 'email',
+				issues: { newEmail: ['That is already the address of this account.'] }
+			});
 		}
 		return {
 			section: 'email',
-			message: 'Check the new address: the account moves once you follow the link we sent there (within 60 minutes).'
+			message:
+				'Check the new address: the account moves once you follow the link we sent there (within 60 minutes).'
 		};
 	},
 
@@ -47,9 +60,16 @@ export const actions: Actions = {
 		const user = requireUser();
 		const input = changePasswordInput.safeParse(formFields(await request.formData()));
 		if (!input.success) return fail(400, { section: 'password', issues: fieldIssues(input.error) });
-		const outcome = await accounts.changePassword(user.id, input.data.currentPassword, input.data.newPassword);
+		const outcome = await accounts.changePassword(
+			user.id,
+			input.data.currentPassword,
+			input.data.newPassword
+		);
 		if (outcome.kind === 'wrong_password') {
-			return fail(400, { section: 'password', issues: { currentPassword: ['That is not your current password.'] } });
+			return fail(400, {
+				section: 'password',
+				issues: { currentPassword: ['That is not your current password.'] }
+			});
 		}
 		// Every session ended with the change, this one too: sign in again with the new password.
 		redirect(303, '/signin?changed');
@@ -60,16 +80,23 @@ export const actions: Actions = {
 		const input = authorRequestInput.safeParse(formFields(await request.formData()));
 		if (!input.success) return fail(400, { section: 'author', issues: fieldIssues(input.error) });
 		const outcome = await authorRequests.submit(user.id, input.data.pitch);
-		if (outcome.kind === 'conflict') return fail(409, { section: 'author', message: outcome.message });
+		if (outcome.kind === 'conflict')
+			return fail(409, { section: 'author', message: outcome.message });
 		if (outcome.kind !== 'ok') error(404, 'Account not found');
-		return { section: 'author', message: 'Thanks. An editor will read your request; you will get an e-mail either way.' };
+		return {
+			section: 'author',
+			message: 'Thanks. An editor will read your request; you will get an e-mail either way.'
+		};
 	},
 
 	delete: async (event) => {
 		const user = requireUser();
 		const input = deleteAccountInput.safeParse(formFields(await event.request.formData()));
 		if (!input.success || input.data.confirmEmail !== user.email) {
-			return fail(400, { section: 'delete', issues: { confirmEmail: ['Type the e-mail address of this account to confirm.'] } });
+			return fail(400, {
+				section: 'delete',
+				issues: { confirmEmail: ['Type the e-mail address of this account to confirm.'] }
+			});
 		}
 		await accounts.deleteAccount(user.id);
 		await signOut(event);

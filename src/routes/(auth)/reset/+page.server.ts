@@ -13,8 +13,11 @@ export const actions: Actions = {
 	default: async (event) => {
 		const fields = formFields(await event.request.formData());
 		const input = passwordResetRequestInput.safeParse(fields);
-		if (!input.success) return fail(400, { email: fields.email ?? '', issues: fieldIssues(input.error) });
-		const allowed = await limits.consumeAll(passwordResetChecks(event.getClientAddress(), input.data.email));
+		if (!input.success)
+			return fail(400, { email: fields.email ?? '', issues: fieldIssues(input.error) });
+		const allowed = await limits.consumeAll(
+			passwordResetChecks(event.getClientAddress(), input.data.email)
+		);
 		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);
 		await accounts.requestPasswordReset(input.data.email, event.url.origin);
 		redirect(303, '/reset?sent');

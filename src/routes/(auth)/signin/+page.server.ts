@@ -1,5 +1,10 @@
 import { fail, redirect } from '@sveltejs/kit';
-import { formFields, linkSignInInput, passwordSignInInput, redirectTarget } from '$lib/schemas/account';
+import {
+	formFields,
+	linkSignInInput,
+	passwordSignInInput,
+	redirectTarget
+} from '$lib/schemas/account';
 import { fieldIssues } from '$lib/schemas/issues';
 import { sendSignInLink, signInWithPassword } from '$lib/server/auth/sign-in';
 import * as limits from '$lib/server/rate-limit';
@@ -8,7 +13,8 @@ import { tooManyRequests } from '$lib/server/rate-limit-response';
 import type { Actions, PageServerLoad } from './$types';
 
 /** One message for unknown address, wrong password, unconfirmed or disabled account. */
-const REFUSED = 'That e-mail and password do not match an account we can sign in. Check both, or use a sign-in link.';
+const REFUSED =
+	'That e-mail and password do not match an account we can sign in. Check both, or use a sign-in link.';
 
 export const load: PageServerLoad = ({ locals, url }) => {
 	const redirectTo = redirectTarget.parse(url.searchParams.get('redirectTo') ?? '/');
@@ -22,7 +28,12 @@ export const actions: Actions = {
 	password: async (event) => {
 		const fields = formFields(await event.request.formData());
 		const input = passwordSignInInput.safeParse(fields);
-		if (!input.success) return fail(400, { form: 'password', email: fields.email ?? '', issues: fieldIssues(input.error) });
+		if (!input.success)
+			return fail(400, {
+				form: 'password',
+				email: fields.email ?? '',
+				issues: fieldIssues(input.error)
+			});
 		const { email, password, redirectTo = '/' } = input.data;
 
 		const checks = signInChecks(event.getClientAddress(), email);
@@ -41,13 +52,22 @@ export const actions: Actions = {
 	link: async (event) => {
 		const fields = formFields(await event.request.formData());
 		const input = linkSignInInput.safeParse(fields);
-		if (!input.success) return fail(400, { form: 'link', email: fields.email ?? '', issues: fieldIssues(input.error) });
+		if (!input.success)
+			return fail(400, {
+				form: 'link',
+				email: fields.email ?? '',
+				issues: fieldIssues(input.error)
+			});
 		const { email, redirectTo = '/' } = input.data;
 
 		const allowed = await limits.consumeAll(emailLinkChecks(event.getClientAddress(), email));
 		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);
 		if (!(await sendSignInLink(event, email, redirectTo))) {
-			return fail(503, { form: 'link', email, message: 'We could not send the e-mail just now. Please try again in a minute.' });
+			return fail(503, {
+				form: 'link',
+				email,
+				message: 'We could not send the e-mail just now. Please try again in a minute.'
+			});
 		}
 		redirect(303, '/signin/check-email');
 	}

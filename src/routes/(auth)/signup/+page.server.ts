@@ -17,7 +17,11 @@ export const actions: Actions = {
 		const fields = formFields(await event.request.formData());
 		const input = signUpInput.safeParse(fields);
 		if (!input.success) {
-			return fail(400, { name: fields.name ?? '', email: fields.email ?? '', issues: fieldIssues(input.error) });
+			return fail(400, {
+				name: fields.name ?? '',
+				email: fields.email ?? '',
+				issues: fieldIssues(input.error)
+			});
 		}
 		const allowed = await limits.consume('signUp', addressKey(event.getClientAddress()));
 		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);

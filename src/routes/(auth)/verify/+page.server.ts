@@ -12,10 +12,16 @@ export const load: PageServerLoad = ({ url }) => {
 export const actions: Actions = {
 	default: async ({ request }) => {
 		const input = tokenInput.safeParse(formFields(await request.formData()));
-		if (!input.success) return fail(400, { message: 'This confirmation link is incomplete. Copy the whole link from the e-mail.' });
+		if (!input.success)
+			return fail(400, {
+				message: 'This confirmation link is incomplete. Copy the whole link from the e-mail.'
+			});
 		const outcome = await accounts.verifyEmail(input.data.token);
 		if (outcome === 'invalid') {
-			return fail(400, { message: 'This link has expired or was already used. Sign in, or sign up again for a new one.' });
+			return fail(400, {
+				message:
+					'This link has expired or was already used. Sign in, or sign up again for a new one.'
+			});
 		}
 		return { verified: true };
 	}

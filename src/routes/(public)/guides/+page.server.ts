@@ -15,7 +15,8 @@ export const load: PageServerLoad = async ({ url }) => {
 				? { ...query, region: undefined, min: undefined, max: undefined, sort: 'newest' as const }
 				: { ...query, base: undefined };
 		outcome = await guideBrowse.browse(retry);
-		if (outcome.kind !== 'ok') outcome = await guideBrowse.browse({ ...retry, region: undefined, base: undefined });
+		if (outcome.kind !== 'ok')
+			outcome = await guideBrowse.browse({ ...retry, region: undefined, base: undefined });
 		if (outcome.kind === 'ok') return { query: retry, issues, result: outcome.result };
 	}
 	if (outcome.kind !== 'ok') throw new Error('guide browse without filters failed');

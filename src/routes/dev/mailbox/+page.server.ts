@@ -19,7 +19,8 @@ export const actions: Actions = {
 	clear: async () => {
 		mailboxBase();
 		const result = await callMailbox<null>('/messages', { method: 'DELETE' });
-		if (!result.ok) return fail(503, { message: 'The local mail fake did not answer.', problem: true });
+		if (!result.ok)
+			return fail(503, { message: 'The local mail fake did not answer.', problem: true });
 		return { message: 'Mailbox emptied.', problem: false };
 	}
 };

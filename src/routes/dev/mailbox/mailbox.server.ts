@@ -8,7 +8,10 @@ import { env } from '$env/dynamic/private';
 import type { StoredMessage } from '../../../../scripts/smtp-fake';
 
 /** The fields these pages show of a message the fake stores (type only: nothing of the script runs). */
-export type MailboxMessage = Pick<StoredMessage, 'id' | 'date' | 'to' | 'from' | 'subject' | 'text' | 'html' | 'headers'>;
+export type MailboxMessage = Pick<
+	StoredMessage,
+	'id' | 'date' | 'to' | 'from' | 'subject' | 'text' | 'html' | 'headers'
+>;
 
 export type Fetched<T> = { ok: true; data: T } | { ok: false; status: number | null };
 
@@ -22,7 +25,10 @@ export function mailboxBase(): string {
 /** One call to the fake; a fake that is down gives `ok: false` rather than a 500. */
 export async function callMailbox<T>(path: string, init?: RequestInit): Promise<Fetched<T>> {
 	try {
-		const response = await fetch(`${mailboxBase()}${path}`, { ...init, signal: AbortSignal.timeout(3_000) });
+		const response = await fetch(`${mailboxBase()}${path}`, {
+			...init,
+			signal: AbortSignal.timeout(3_000)
+		});
 		if (!response.ok) return { ok: false, status: response.status };
 		return { ok: true, data: (response.status === 204 ? null : await response.json()) as T };
 	} catch {

@@ -8,7 +8,9 @@ export const up: Migration = async ({ context: qi }) => {
 		identifier: { type: DataTypes.STRING(254), allowNull: false },
 		expires: { type: DataTypes.DATE, allowNull: false }
 	});
-	await qi.addIndex('verification_tokens', ['identifier'], { name: 'verification_tokens_identifier' });
+	await qi.addIndex('verification_tokens', ['identifier'], {
+		name: 'verification_tokens_identifier'
+	});
 };
 
 export const down: Migration = async ({ context: qi }) => {

@@ -26,7 +26,10 @@ export const up: Migration = async ({ context: qi }) => {
 		{
 			uniqueKeys: {
 				// customIndex: Sequelize only emits a UNIQUE clause for keys marked so.
-				region_tax_rates_region_effective: { fields: ['region_id', 'effective_from'], customIndex: true }
+				region_tax_rates_region_effective: {
+					fields: ['region_id', 'effective_from'],
+					customIndex: true
+				}
 			}
 		}
 	);

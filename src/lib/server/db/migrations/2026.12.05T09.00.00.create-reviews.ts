@@ -23,13 +23,20 @@ export const up: Migration = async ({ context: qi }) => {
 	});
 	await qi.addIndex('reviews', ['guide_id', 'created_at']);
 	await qi.addIndex('reviews', ['revision_id']);
-	await qi.addColumn('guide_revisions', 'decision', { type: DataTypes.STRING(20), allowNull: true });
-	await qi.addIndex('guide_revisions', ['submitted_at', 'reviewed_at'], { name: 'guide_revisions_review_queue' });
+	await qi.addColumn('guide_revisions', 'decision', {
+		type: DataTypes.STRING(20),
+		allowNull: true
+	});
+	await qi.addIndex('guide_revisions', ['submitted_at', 'reviewed_at'], {
+		name: 'guide_revisions_review_queue'
+	});
 };
 
 export const down: Migration = async ({ context: qi }) => {
 	// Raw statements: the driver rejects Sequelize's untyped removeIndex/removeColumn (see columns.ts).
-	await qi.sequelize.query('DROP INDEX `guide_revisions_review_queue` ON `guide_revisions`', { type: QueryTypes.RAW });
+	await qi.sequelize.query('DROP INDEX `guide_revisions_review_queue` ON `guide_revisions`', {
+		type: QueryTypes.RAW
+	});
 	await dropColumn(qi, 'guide_revisions', 'decision');
 	await qi.dropTable('reviews');
 };

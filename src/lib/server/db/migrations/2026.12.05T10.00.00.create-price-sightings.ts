@@ -31,7 +31,9 @@ export const up: Migration = async ({ context: qi }) => {
 	await qi.addIndex('price_sightings', ['part_id', 'store_id', 'observed_on', 'amount_minor'], {
 		name: 'price_sightings_same_price'
 	});
-	await qi.addIndex('price_sightings', ['state', 'created_at'], { name: 'price_sightings_state_created' });
+	await qi.addIndex('price_sightings', ['state', 'created_at'], {
+		name: 'price_sightings_state_created'
+	});
 };
 
 export const down: Migration = async ({ context: qi }) => {

@@ -23,12 +23,18 @@ export const up: Migration = async ({ context: qi }) => {
 		decided_at: { type: DataTypes.DATE, allowNull: true },
 		...timestamps
 	});
-	await qi.addIndex('content_reports', ['reporter_id', 'subject_type', 'subject_id', 'open_marker'], {
-		name: 'content_reports_one_open_per_reporter',
-		unique: true
-	});
+	await qi.addIndex(
+		'content_reports',
+		['reporter_id', 'subject_type', 'subject_id', 'open_marker'],
+		{
+			name: 'content_reports_one_open_per_reporter',
+			unique: true
+		}
+	);
 	// The editors' queue reads by state, grouped by subject.
-	await qi.addIndex('content_reports', ['state', 'subject_type', 'subject_id'], { name: 'content_reports_queue' });
+	await qi.addIndex('content_reports', ['state', 'subject_type', 'subject_id'], {
+		name: 'content_reports_queue'
+	});
 };
 
 export const down: Migration = async ({ context: qi }) => {

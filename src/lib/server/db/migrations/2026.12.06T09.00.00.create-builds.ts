@@ -3,7 +3,7 @@ import type { Migration } from '../umzug.js';
 import { idColumn, references, referencesUser, timestamps } from './columns.js';
 
 /*
- * Builds: a reader's fork of a guide revision (DESIGN.md "Build", "Drift", "Sync").
+ * Builds: a reader's fork of a guide revision (docs/architecture.md "Build", "Drift", "Sync").
  * build_slots keep the source slot's key (its label in the source revision) so drift and
  * sync can match slots across revisions; build_syncs keep what a sync replaced, for undo.
  */

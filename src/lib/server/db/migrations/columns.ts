@@ -47,5 +47,7 @@ export function referencesUser(onDelete: OnDelete, allowNull = true): ModelAttri
  * which the mariadb driver ≥ 3.1 rejects ("Cannot delete property 'meta'", STACK gotcha 3).
  */
 export async function dropColumn(qi: QueryInterface, table: string, column: string): Promise<void> {
-	await qi.sequelize.query(`ALTER TABLE \`${table}\` DROP COLUMN \`${column}\``, { type: QueryTypes.RAW });
+	await qi.sequelize.query(`ALTER TABLE \`${table}\` DROP COLUMN \`${column}\``, {
+		type: QueryTypes.RAW
+	});
 }

@@ -1,7 +1,8 @@
 /*
  * The ordered list of migrations. Listed by hand (not globbed) so the same list works
  * under Vite, vitest and tsx alike. Names are the file names, in timestamp order: add a
- * new one at the end (import and entry, each entry with its trailing comma).
+ * new one at the end (import and entry, each entry with its trailing comma);
+ * tests/unit/repository.spec.ts checks the list against the folder, in timestamp order.
  */
 import type { MigrationModule } from '../umzug.js';
 import * as m00 from './2026.12.01T10.00.00.create-users.js';
@@ -67,23 +68,23 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.02T09.07.00.create-rate-limits': m18,
 	'2026.12.02T09.08.00.create-email-tokens': m19,
 	'2026.12.02T09.09.00.add-email-tokens-new-email': mEmailChange,
-	'2026.12.03T14.00.00.create-catalog-imports': mCatalogImports,
-	'2026.12.03T14.01.00.create-region-tax-rates': mRegionTaxRates,
 	'2026.12.02T12.00.00.add-guides-disclosure': mGuidesDisclosure,
 	'2026.12.02T12.00.01.add-guides-disclosure-note': mGuidesDisclosureNote,
 	'2026.12.02T12.00.02.add-guides-walkthrough-url': mGuidesWalkthroughUrl,
+	'2026.12.03T14.00.00.create-catalog-imports': mCatalogImports,
+	'2026.12.03T14.01.00.create-region-tax-rates': mRegionTaxRates,
 	'2026.12.04T10.00.00.create-frame-results': mFrameResults,
 	'2026.12.04T10.01.00.create-thermal-results': mThermalResults,
 	'2026.12.05T09.00.00.create-reviews': mReviews,
+	'2026.12.05T10.00.00.create-price-sightings': mPriceSightings,
+	'2026.12.05T10.01.00.create-price-sighting-reports': mPriceSightingReports,
 	'2026.12.05T11.00.00.create-content-reports': mContentReports,
 	'2026.12.05T11.01.00.add-guides-hidden-at': mGuidesHiddenAt,
 	'2026.12.05T11.02.00.add-guides-hidden-reason': mGuidesHiddenReason,
 	'2026.12.05T11.03.00.add-guides-hidden-by': mGuidesHiddenBy,
-	'2026.12.05T10.00.00.create-price-sightings': mPriceSightings,
-	'2026.12.05T10.01.00.create-price-sighting-reports': mPriceSightingReports,
 	'2026.12.05T12.00.00.create-caution-rules': mCautionRules,
 	'2026.12.06T09.00.00.create-builds': mBuilds,
 	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
 	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
-	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
+	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy
 };

@@ -1,5 +1,10 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 
 /** Auth.js adapter model: a sign-in provider linked to a user. */
 export class Account extends Model<InferAttributes<Account>, InferCreationAttributes<Account>> {

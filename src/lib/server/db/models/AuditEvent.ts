@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { User } from './User.js';
 
 /**
@@ -13,7 +19,10 @@ export type AuditSnapshot = Record<string, unknown>;
  * before and after. Append-only: there is no updatedAt, and no code path edits a row.
  * actorId survives as NULL when the acting account is deleted, so the trail is kept.
  */
-export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {
+export class AuditEvent extends Model<
+	InferAttributes<AuditEvent>,
+	InferCreationAttributes<AuditEvent>
+> {
 	declare id: CreationOptional<number>;
 	declare actorId: ForeignKey<User['id']> | null;
 	/** Dotted `subject.verb`, e.g. 'user.role_changed' (see AUDIT_ACTIONS in services/audit). */

@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { User } from './User.js';
 
 export const AUTHOR_REQUEST_STATES = ['pending', 'approved', 'declined'] as const;

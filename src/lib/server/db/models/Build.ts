@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { Guide } from './Guide.js';
 import type { GuideRevision } from './GuideRevision.js';
 import type { Region } from './Region.js';

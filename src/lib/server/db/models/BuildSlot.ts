@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { PartCategory } from '../../../domain/types.js';
 import type { Build } from './Build.js';
 import type { Part } from './Part.js';
@@ -13,7 +19,10 @@ export type BuildSlotOrigin = (typeof BUILD_SLOT_ORIGINS)[number];
  * source revision (stable across revisions); null for slots the reader added.
  * Money columns carry their currency: the build's region may change after they were entered.
  */
-export class BuildSlot extends Model<InferAttributes<BuildSlot>, InferCreationAttributes<BuildSlot>> {
+export class BuildSlot extends Model<
+	InferAttributes<BuildSlot>,
+	InferCreationAttributes<BuildSlot>
+> {
 	declare id: CreationOptional<number>;
 	declare buildId: ForeignKey<Build['id']>;
 	declare sourceSlotKey: string | null;

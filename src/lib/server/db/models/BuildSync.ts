@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { Build } from './Build.js';
 
 /** A build slot as stored before a sync, so undo can put it back exactly. */
@@ -9,7 +15,10 @@ export type SlotRowSnapshot = Record<string, unknown>;
  * One sync of a build to a newer source revision: what the build's slots were before,
  * so the last sync can be undone. Written in the sync's own transaction.
  */
-export class BuildSync extends Model<InferAttributes<BuildSync>, InferCreationAttributes<BuildSync>> {
+export class BuildSync extends Model<
+	InferAttributes<BuildSync>,
+	InferCreationAttributes<BuildSync>
+> {
 	declare id: CreationOptional<number>;
 	declare buildId: ForeignKey<Build['id']>;
 	declare fromRevisionId: number | null;

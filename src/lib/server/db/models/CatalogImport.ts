@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { PartCategory } from '../../../domain/types.js';
 import type { User } from './User.js';
 
@@ -18,7 +24,10 @@ export interface ImportedPartRow {
  * A validated CSV upload waiting for its editor to confirm it (services/catalog-csv).
  * Lives in the database so any app instance can confirm it; expires after an hour.
  */
-export class CatalogImport extends Model<InferAttributes<CatalogImport>, InferCreationAttributes<CatalogImport>> {
+export class CatalogImport extends Model<
+	InferAttributes<CatalogImport>,
+	InferCreationAttributes<CatalogImport>
+> {
 	declare id: string;
 	declare editorId: ForeignKey<User['id']>;
 	declare fileName: string;

@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { CautionCondition } from '../../../domain/pairing-cautions.js';
 import type { User } from './User.js';
 
@@ -9,7 +15,10 @@ import type { User } from './User.js';
  * by $lib/schemas/caution-rules before they get here; `version` guards against two
  * editors saving over each other.
  */
-export class CautionRule extends Model<InferAttributes<CautionRule>, InferCreationAttributes<CautionRule>> {
+export class CautionRule extends Model<
+	InferAttributes<CautionRule>,
+	InferCreationAttributes<CautionRule>
+> {
 	declare id: CreationOptional<number>;
 	declare title: string;
 	declare message: string;

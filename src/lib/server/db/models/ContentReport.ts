@@ -1,6 +1,16 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
-import type { ReportCategory, ReportState, ReportSubjectType } from '../../../domain/content-reports.js';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
+import type {
+	ReportCategory,
+	ReportState,
+	ReportSubjectType
+} from '../../../domain/content-reports.js';
 import type { User } from './User.js';
 
 /**
@@ -8,7 +18,10 @@ import type { User } from './User.js';
  * `openMarker` is 1 while open and null once decided, so the unique index
  * (reporter, subject, openMarker) allows one open report per reporter and subject.
  */
-export class ContentReport extends Model<InferAttributes<ContentReport>, InferCreationAttributes<ContentReport>> {
+export class ContentReport extends Model<
+	InferAttributes<ContentReport>,
+	InferCreationAttributes<ContentReport>
+> {
 	declare id: CreationOptional<number>;
 	declare subjectType: ReportSubjectType;
 	/** A string so one column can hold any subject's key. */

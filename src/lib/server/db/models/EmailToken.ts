@@ -1,10 +1,18 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 
 export type EmailTokenPurpose = 'verify_email' | 'reset_password' | 'change_email';
 
 /** A single-use e-mailed token; only its sha256 is stored. */
-export class EmailToken extends Model<InferAttributes<EmailToken>, InferCreationAttributes<EmailToken>> {
+export class EmailToken extends Model<
+	InferAttributes<EmailToken>,
+	InferCreationAttributes<EmailToken>
+> {
 	declare id: CreationOptional<number>;
 	declare userId: string;
 	declare purpose: EmailTokenPurpose;

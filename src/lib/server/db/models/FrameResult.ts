@@ -1,9 +1,18 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { GuideRevision } from './GuideRevision.js';
 
 /** One measured benchmark of a revision's build; FPS stored in tenths (integer, exact). */
-export class FrameResult extends Model<InferAttributes<FrameResult>, InferCreationAttributes<FrameResult>> {
+export class FrameResult extends Model<
+	InferAttributes<FrameResult>,
+	InferCreationAttributes<FrameResult>
+> {
 	declare id: CreationOptional<number>;
 	declare revisionId: ForeignKey<GuideRevision['id']>;
 	declare position: CreationOptional<number>;

@@ -1,5 +1,10 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 
 /** Units of `currency` per 1 EUR on `asOf`, kept as the decimal string it was published as. */
 export class FxRate extends Model<InferAttributes<FxRate>, InferCreationAttributes<FxRate>> {

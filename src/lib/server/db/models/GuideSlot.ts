@@ -1,12 +1,21 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { PartCategory } from '../../../domain/types.js';
 import type { GuideRevision } from './GuideRevision.js';
 import type { Part } from './Part.js';
 import type { Quote } from './Quote.js';
 
 /** One role in a revision's build: the author's pick, why, and the quote it is priced at. */
-export class GuideSlot extends Model<InferAttributes<GuideSlot>, InferCreationAttributes<GuideSlot>> {
+export class GuideSlot extends Model<
+	InferAttributes<GuideSlot>,
+	InferCreationAttributes<GuideSlot>
+> {
 	declare id: CreationOptional<number>;
 	declare revisionId: ForeignKey<GuideRevision['id']>;
 	declare category: PartCategory;

@@ -1,5 +1,10 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { PartCategory } from '../../../domain/types.js';
 
 /** A catalog item. specs is validated by the category's zod schema before every write. */

@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { Part } from './Part.js';
 import type { Quote } from './Quote.js';
 import type { Region } from './Region.js';
@@ -15,7 +21,10 @@ export type PriceSightingState = (typeof PRICE_SIGHTING_STATES)[number];
  * same part, store, region, amount and UTC day are merged into one row: `seenCount` people
  * saw it (see PriceSightingReport), `submittedById` is the first of them.
  */
-export class PriceSighting extends Model<InferAttributes<PriceSighting>, InferCreationAttributes<PriceSighting>> {
+export class PriceSighting extends Model<
+	InferAttributes<PriceSighting>,
+	InferCreationAttributes<PriceSighting>
+> {
 	declare id: CreationOptional<number>;
 	declare partId: ForeignKey<Part['id']>;
 	declare storeId: ForeignKey<Store['id']>;

@@ -1,5 +1,11 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { Region } from './Region.js';
 import type { User } from './User.js';
 
@@ -8,7 +14,10 @@ import type { User } from './User.js';
  * force on a day is the row with the latest effectiveFrom on or before that day.
  * Rows are added or removed, never edited, so the history reads as it was recorded.
  */
-export class RegionTaxRate extends Model<InferAttributes<RegionTaxRate>, InferCreationAttributes<RegionTaxRate>> {
+export class RegionTaxRate extends Model<
+	InferAttributes<RegionTaxRate>,
+	InferCreationAttributes<RegionTaxRate>
+> {
 	declare id: CreationOptional<number>;
 	declare regionId: ForeignKey<Region['id']>;
 	declare rateBp: number;

@@ -1,10 +1,22 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { Guide } from './Guide.js';
 import type { GuideRevision } from './GuideRevision.js';
 import type { User } from './User.js';
 
-export const REVIEW_DECISIONS = ['approve', 'request_changes', 'decline', 'unpublish', 'archive'] as const;
+export const REVIEW_DECISIONS = [
+	'approve',
+	'request_changes',
+	'decline',
+	'unpublish',
+	'archive'
+] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
 
 /** An editor's note on one slot of the revision, matched by the slot's label. */

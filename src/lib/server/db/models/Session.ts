@@ -1,5 +1,10 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 
 /** Auth.js adapter model; unused with JWT sessions but part of the adapter's contract. */
 export class Session extends Model<InferAttributes<Session>, InferCreationAttributes<Session>> {

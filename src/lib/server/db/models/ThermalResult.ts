@@ -1,9 +1,18 @@
 import { DataTypes, Model } from 'sequelize';
-import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize';
+import type {
+	CreationOptional,
+	ForeignKey,
+	InferAttributes,
+	InferCreationAttributes,
+	Sequelize
+} from 'sequelize';
 import type { GuideRevision } from './GuideRevision.js';
 
 /** Temperatures (°C) and utilisation (%) of a revision's build under a named load. */
-export class ThermalResult extends Model<InferAttributes<ThermalResult>, InferCreationAttributes<ThermalResult>> {
+export class ThermalResult extends Model<
+	InferAttributes<ThermalResult>,
+	InferCreationAttributes<ThermalResult>
+> {
 	declare id: CreationOptional<number>;
 	declare revisionId: ForeignKey<GuideRevision['id']>;
 	declare position: CreationOptional<number>;

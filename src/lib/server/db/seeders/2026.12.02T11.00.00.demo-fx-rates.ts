@@ -1,7 +1,7 @@
 /*
  * Demo exchange rates: the real euro reference rates the European Central Bank published for
  * 2 January 2024 (source: ECB, "Euro foreign exchange reference rates", eurofxref-hist.csv row
- * 2024-01-02; two independent mirrors agree; CHECK-VALUES.md 10c, status V). The same values
+ * 2024-01-02; two independent mirrors agree; docs/sources.md 10c, status V). The same values
  * as the local ECB fake's file (tests/fixtures/ecb/eurofxref-2024-01-02.xml); a unit test
  * keeps the two equal.
  *

@@ -13,7 +13,11 @@ import { CautionRule, User } from '../models/index.js';
 
 export const DEMO_CAUTION_EDITOR = 'editor@slotwise.test';
 
-export const DEMO_CAUTION_RULES: ReadonlyArray<{ title: string; message: string; conditions: CautionCondition[] }> = [
+export const DEMO_CAUTION_RULES: ReadonlyArray<{
+	title: string;
+	message: string;
+	conditions: CautionCondition[];
+}> = [
 	{
 		title: 'Top Cobalt or Auric card with a CPU of fewer than six cores',
 		message:
@@ -38,7 +42,10 @@ export const DEMO_CAUTION_RULES: ReadonlyArray<{ title: string; message: string;
 export const up: Seeder = async ({ context: sequelize }) => {
 	await sequelize.transaction(async (transaction) => {
 		const editor = await User.findOne({ where: { email: DEMO_CAUTION_EDITOR }, transaction });
-		if (!editor) throw new Error(`Demo caution rules: no user ${DEMO_CAUTION_EDITOR} (run the demo community seeder first)`);
+		if (!editor)
+			throw new Error(
+				`Demo caution rules: no user ${DEMO_CAUTION_EDITOR} (run the demo community seeder first)`
+			);
 		for (const rule of DEMO_CAUTION_RULES) {
 			await CautionRule.findOrCreate({
 				where: { title: rule.title },
@@ -51,6 +58,9 @@ export const up: Seeder = async ({ context: sequelize }) => {
 
 export const down: Seeder = async ({ context: sequelize }) => {
 	await sequelize.transaction(async (transaction) => {
-		await CautionRule.destroy({ where: { title: DEMO_CAUTION_RULES.map((r) => r.title) }, transaction });
+		await CautionRule.destroy({
+			where: { title: DEMO_CAUTION_RULES.map((r) => r.title) },
+			transaction
+		});
 	});
 };

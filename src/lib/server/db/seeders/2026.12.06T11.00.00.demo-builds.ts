@@ -50,12 +50,28 @@ async function forkDemo(d: DemoBuild, transaction: Transaction): Promise<void> {
 	const owner = await User.findOne({ where: { email: d.owner }, transaction });
 	const guide = await Guide.findOne({ where: { slug: d.guide }, transaction });
 	const region = await Region.findOne({ where: { code: d.region }, transaction });
-	if (!owner || !guide?.publishedRevisionId || !region) throw new Error(`Demo builds: missing ${d.owner}, ${d.guide} or region ${d.region} (run the demo community seeder first)`);
+	if (!owner || !guide?.publishedRevisionId || !region)
+		throw new Error(
+			`Demo builds: missing ${d.owner}, ${d.guide} or region ${d.region} (run the demo community seeder first)`
+		);
 	if (await Build.findOne({ where: { ownerId: owner.id, title: d.title }, transaction })) return;
-	const slots = await GuideSlot.findAll({ where: { revisionId: guide.publishedRevisionId }, order: [['position', 'ASC']], transaction });
+	const slots = await GuideSlot.findAll({
+		where: { revisionId: guide.publishedRevisionId },
+		order: [['position', 'ASC']],
+		transaction
+	});
 	const keys = slotKeys(slots.map((s) => s.label));
 	const build = await Build.create(
-		{ ownerId: owner.id, sourceGuideId: guide.id, baseRevisionId: guide.publishedRevisionId, title: d.title, regionId: region.id, visibility: d.visibility, shareToken: randomBytes(32).toString('base64url'), notes: d.notes },
+		{
+			ownerId: owner.id,
+			sourceGuideId: guide.id,
+			baseRevisionId: guide.publishedRevisionId,
+			title: d.title,
+			regionId: region.id,
+			visibility: d.visibility,
+			shareToken: randomBytes(32).toString('base64url'),
+			notes: d.notes
+		},
 		{ transaction }
 	);
 	const today = new Date().toISOString().slice(0, 10);

@@ -8,8 +8,27 @@ import type { Sequelize, Transaction } from 'sequelize';
 import { SPEC_SCHEMAS } from '../../../schemas/part-specs.js';
 import { hashPassword } from '../../auth/password.js';
 import { renderMarkdown } from '../../markdown.js';
-import { FrameResult, Guide, GuideRevision, GuideSlot, Part, Quote, Region, SlotAlternate, Store, ThermalResult, User } from '../models/index.js';
-import { demoGuides, demoParts, demoQuotes, demoRegions, demoStores, demoUsers } from './demo-data/index.js';
+import {
+	FrameResult,
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	SlotAlternate,
+	Store,
+	ThermalResult,
+	User
+} from '../models/index.js';
+import {
+	demoGuides,
+	demoParts,
+	demoQuotes,
+	demoRegions,
+	demoStores,
+	demoUsers
+} from './demo-data/index.js';
 import { demoResults } from './demo-data/results.js';
 import type { DemoGuide } from './demo-data/types.js';
 
@@ -83,14 +102,27 @@ export async function seedDemoCommunity(sequelize: Sequelize, now = new Date()):
 async function backfillDemoExtras(transaction: Transaction) {
 	const unrendered = await GuideRevision.findAll({ where: { buildNotesHtml: null }, transaction });
 	for (const revision of unrendered) {
-		await revision.update({ buildNotesHtml: renderMarkdown(revision.buildNotesMd) }, { transaction });
+		await revision.update(
+			{ buildNotesHtml: renderMarkdown(revision.buildNotesMd) },
+			{ transaction }
+		);
 	}
-	const guides = await Guide.findAll({ where: { slug: demoGuides.map((g) => g.slug) }, transaction });
+	const guides = await Guide.findAll({
+		where: { slug: demoGuides.map((g) => g.slug) },
+		transaction
+	});
 	for (const guide of guides) {
 		if (!guide.publishedRevisionId) continue;
-		const has = await FrameResult.count({ where: { revisionId: guide.publishedRevisionId }, transaction });
-		const hasThermals = await ThermalResult.count({ where: { revisionId: guide.publishedRevisionId }, transaction });
-		if (has === 0 && hasThermals === 0) await createResults(guide.slug, guide.publishedRevisionId, transaction);
+		const has = await FrameResult.count({
+			where: { revisionId: guide.publishedRevisionId },
+			transaction
+		});
+		const hasThermals = await ThermalResult.count({
+			where: { revisionId: guide.publishedRevisionId },
+			transaction
+		});
+		if (has === 0 && hasThermals === 0)
+			await createResults(guide.slug, guide.publishedRevisionId, transaction);
 	}
 }
 
@@ -119,11 +151,15 @@ async function seedQuotes(
 	for (const q of demoQuotes) {
 		const part = parts.get(q.partSlug);
 		const store = stores.get(q.storeName);
-		if (!part || !store) throw new Error(`Demo quote ${q.partSlug}@${q.storeName}: unknown part or store`);
+		if (!part || !store)
+			throw new Error(`Demo quote ${q.partSlug}@${q.storeName}: unknown part or store`);
 		const pair = `${part.id}:${store.id}`;
 		// A pair that already has prices was seeded before: skip all of its history.
 		if (!seededPairs.has(pair)) {
-			const existing = await Quote.count({ where: { partId: part.id, storeId: store.id }, transaction });
+			const existing = await Quote.count({
+				where: { partId: part.id, storeId: store.id },
+				transaction
+			});
 			if (existing > 0) continue;
 			seededPairs.add(pair);
 		}
@@ -240,7 +276,9 @@ export async function removeDemoCommunity(sequelize: Sequelize): Promise<void> {
 			await guide.update({ publishedRevisionId: null }, { transaction });
 			await guide.destroy({ transaction }); // revisions, slots, alternates cascade
 		}
-		const partIds = (await Part.findAll({ where: { slug: demoParts.map((p) => p.slug) }, transaction })).map((p) => p.id);
+		const partIds = (
+			await Part.findAll({ where: { slug: demoParts.map((p) => p.slug) }, transaction })
+		).map((p) => p.id);
 		await Quote.destroy({ where: { partId: partIds }, transaction });
 		await Part.destroy({ where: { id: partIds }, transaction });
 		await Store.destroy({ where: { name: demoStores.map((s) => s.name) }, transaction });

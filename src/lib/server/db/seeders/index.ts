@@ -20,7 +20,11 @@ export function seeder(sequelize: Sequelize) {
 		context: sequelize,
 		// Own model name: umzug reuses a model already defined under the default name
 		// ('SequelizeMeta', the migrator's), which would log seeders into schema_migrations.
-		storage: new SequelizeStorage({ sequelize, tableName: 'schema_seeders', modelName: 'SeederMeta' }),
+		storage: new SequelizeStorage({
+			sequelize,
+			tableName: 'schema_seeders',
+			modelName: 'SeederMeta'
+		}),
 		logger: undefined
 	});
 }

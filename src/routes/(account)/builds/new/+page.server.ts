@@ -4,7 +4,12 @@ import { requireUser } from '$lib/server/auth/guards';
 import * as builds from '$lib/server/services/builds';
 import type { Actions, PageServerLoad } from './$types';
 
-const forkForm = z.object({ guide: z.string().regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Unknown guide.').max(140) });
+const forkForm = z.object({
+	guide: z
+		.string()
+		.regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'Unknown guide.')
+		.max(140)
+});
 
 // Forking happens from a guide page's button; this address has nothing to show on its own.
 export const load: PageServerLoad = () => redirect(303, '/builds');

@@ -12,7 +12,9 @@ function parseFilters(url: URL): { query: AuditQuery; issues: Record<string, str
 	if (parsed.success) return { query: parsed.data, issues: {} };
 	const issues = fieldIssues(parsed.error);
 	const keys = ['action', 'actor', 'subject', 'from', 'to', 'page'];
-	const kept = Object.fromEntries(Object.entries(raw).filter(([key]) => keys.includes(key) && !(key in issues)));
+	const kept = Object.fromEntries(
+		Object.entries(raw).filter(([key]) => keys.includes(key) && !(key in issues))
+	);
 	const retry = auditQuery.safeParse(kept);
 	return { query: retry.success ? retry.data : auditQuery.parse({}), issues };
 }

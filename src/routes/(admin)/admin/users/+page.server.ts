@@ -32,8 +32,10 @@ export const load: PageServerLoad = async ({ url }) => {
 
 /** The answer for a refused change; null when the change went through. */
 function refusal(outcome: users.Outcome, userId: string) {
-	if (outcome.kind === 'not_found') return fail(404, { problem: true, message: 'That account no longer exists.' });
-	if (outcome.kind === 'conflict') return fail(409, { problem: true, userId, message: outcome.message });
+	if (outcome.kind === 'not_found')
+		return fail(404, { problem: true, message: 'That account no longer exists.' });
+	if (outcome.kind === 'conflict')
+		return fail(409, { problem: true, userId, message: outcome.message });
 	return null;
 }
 

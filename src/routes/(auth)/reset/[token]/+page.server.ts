@@ -14,8 +14,13 @@ export const actions: Actions = {
 		const token = tokenInput.safeParse({ token: params.token });
 		const input = passwordResetInput.safeParse(formFields(await request.formData()));
 		if (!input.success) return fail(400, { issues: fieldIssues(input.error) });
-		if (!token.success || (await accounts.resetPassword(token.data.token, input.data.password)) === 'invalid') {
-			return fail(400, { message: 'This reset link has expired or was already used. Ask for a new one.' });
+		if (
+			!token.success ||
+			(await accounts.resetPassword(token.data.token, input.data.password)) === 'invalid'
+		) {
+			return fail(400, {
+				message: 'This reset link has expired or was already used. Ask for a new one.'
+			});
 		}
 		redirect(303, '/signin?changed');
 	}

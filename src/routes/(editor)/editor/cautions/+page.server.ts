@@ -7,7 +7,10 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole('editor');
-	const rules = (await cautions.listRules()).map((r) => ({ ...r, conditionsText: r.conditions.map(describeCondition) }));
+	const rules = (await cautions.listRules()).map((r) => ({
+		...r,
+		conditionsText: r.conditions.map(describeCondition)
+	}));
 	return { rules, done: url.searchParams.get('done') };
 };
 
@@ -19,14 +22,17 @@ async function change(request: Request, action: Change) {
 	const fields = formFields(await request.formData());
 	const id = ruleIdInput.safeParse(fields);
 	const version = ruleVersionInput.safeParse(fields.version);
-	if (!id.success || !version.success) return fail(400, { action, message: 'Unknown rule; reload the page and try again.' });
+	if (!id.success || !version.success)
+		return fail(400, { action, message: 'Unknown rule; reload the page and try again.' });
 	const outcome =
 		action === 'delete'
 			? await cautions.deleteRule(me.id, id.data.ruleId, version.data)
 			: await cautions.setActive(me.id, id.data.ruleId, version.data, action === 'activate');
-	if (outcome.kind === 'not_found') return fail(404, { action, message: 'That rule no longer exists.' });
+	if (outcome.kind === 'not_found')
+		return fail(404, { action, message: 'That rule no longer exists.' });
 	if (outcome.kind === 'conflict') return fail(409, { action, message: outcome.message });
-	if (outcome.kind !== 'ok') return fail(400, { action, message: 'The rule could not be changed.' });
+	if (outcome.kind !== 'ok')
+		return fail(400, { action, message: 'The rule could not be changed.' });
 	const done = { deactivate: 'deactivated', activate: 'activated', delete: 'deleted' }[action];
 	redirect(303, `/editor/cautions?done=${done}`);
 }

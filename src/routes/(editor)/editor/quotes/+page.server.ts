@@ -6,7 +6,11 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole('editor');
-	const [stores, regions, quotes] = await Promise.all([upkeep.listStores(), upkeep.regionOptions(), upkeep.listRecentQuotes({ limit: 25 })]);
+	const [stores, regions, quotes] = await Promise.all([
+		upkeep.listStores(),
+		upkeep.regionOptions(),
+		upkeep.listRecentQuotes({ limit: 25 })
+	]);
 	return {
 		stores,
 		regions,
@@ -24,7 +28,11 @@ export const actions: Actions = {
 		const fields = formFields(await request.formData());
 		const outcome = await upkeep.addQuote(me.id, fields);
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values: fields });
-		if (outcome.kind !== 'ok') return fail(409, { issues: { _form: ['The quote could not be added.'] } as Record<string, string[]>, values: fields });
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				issues: { _form: ['The quote could not be added.'] } as Record<string, string[]>,
+				values: fields
+			});
 		redirect(303, '/editor/quotes?added=1');
 	}
 };

@@ -16,13 +16,17 @@ export const actions: Actions = {
 			const result = await fx.refresh();
 			const changed = result.created.length + result.updated.length;
 			return {
-				message: changed > 0
-					? `Stored the rates of ${result.asOf}: ${result.created.length} new, ${result.updated.length} changed.`
-					: `The rates of ${result.asOf} were already stored.`
+				message:
+					changed > 0
+						? `Stored the rates of ${result.asOf}: ${result.created.length} new, ${result.updated.length} changed.`
+						: `The rates of ${result.asOf} were already stored.`
 			};
 		} catch (e) {
 			// The feed being down is expected now and then: say so, keep the stored rates.
-			if (e instanceof EcbRatesError) return fail(502, { problem: `Could not fetch the rates (${e.message}). The stored rates stay in use.` });
+			if (e instanceof EcbRatesError)
+				return fail(502, {
+					problem: `Could not fetch the rates (${e.message}). The stored rates stay in use.`
+				});
 			throw e;
 		}
 	}

@@ -21,8 +21,10 @@ export const load: PageServerLoad = async ({ url }) => {
 
 /** The answer for a refused decision; null when it went through. */
 function refusal(outcome: Outcome, subjectKey: string) {
-	if (outcome.kind === 'not_found') return fail(404, { problem: true, subjectKey, message: 'That content no longer exists.' });
-	if (outcome.kind === 'conflict') return fail(409, { problem: true, subjectKey, message: outcome.message });
+	if (outcome.kind === 'not_found')
+		return fail(404, { problem: true, subjectKey, message: 'That content no longer exists.' });
+	if (outcome.kind === 'conflict')
+		return fail(409, { problem: true, subjectKey, message: outcome.message });
 	return null;
 }
 
@@ -31,11 +33,19 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
 		const input = reportSubjectInput.safeParse(fields);
-		if (!input.success) return fail(400, { problem: true, issues: fieldIssues(input.error), message: 'Pick a reported item.' });
+		if (!input.success)
+			return fail(400, {
+				problem: true,
+				issues: fieldIssues(input.error),
+				message: 'Pick a reported item.'
+			});
 		const subject = { type: input.data.subjectType, id: input.data.subjectId };
 		const outcome = await contentReports.dismiss(me.id, subject);
 		if (outcome.kind !== 'ok') return refusal(outcome, `${subject.type}:${subject.id}`);
-		return { message: outcome.dismissed === 1 ? 'Report dismissed.' : `${outcome.dismissed} reports dismissed.` };
+		return {
+			message:
+				outcome.dismissed === 1 ? 'Report dismissed.' : `${outcome.dismissed} reports dismissed.`
+		};
 	},
 
 	hide: async ({ request }) => {
@@ -53,14 +63,21 @@ export const actions: Actions = {
 		const subject = { type: input.data.subjectType, id: input.data.subjectId };
 		const outcome = await contentReports.hide(me.id, subject, input.data.reason);
 		if (outcome.kind !== 'ok') return refusal(outcome, `${subject.type}:${subject.id}`);
-		return { message: `Hidden from the public; its author sees your reason. ${outcome.closedReports} open report(s) closed.` };
+		return {
+			message: `Hidden from the public; its author sees your reason. ${outcome.closedReports} open report(s) closed.`
+		};
 	},
 
 	restore: async ({ request }) => {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
 		const input = reportSubjectInput.safeParse(fields);
-		if (!input.success) return fail(400, { problem: true, issues: fieldIssues(input.error), message: 'Pick a hidden item.' });
+		if (!input.success)
+			return fail(400, {
+				problem: true,
+				issues: fieldIssues(input.error),
+				message: 'Pick a hidden item.'
+			});
 		const subject = { type: input.data.subjectType, id: input.data.subjectId };
 		const outcome = await contentReports.restore(me.id, subject);
 		if (outcome.kind !== 'ok') return refusal(outcome, `${subject.type}:${subject.id}`);

@@ -1,7 +1,11 @@
 import { fail } from '@sveltejs/kit';
 import { formFields } from '$lib/schemas/account';
 import { fieldIssues } from '$lib/schemas/issues';
-import { pendingSightingsQuery, rejectSightingInput, verifySightingInput } from '$lib/schemas/price-sightings';
+import {
+	pendingSightingsQuery,
+	rejectSightingInput,
+	verifySightingInput
+} from '$lib/schemas/price-sightings';
 import { requireRole } from '$lib/server/auth/guards';
 import * as priceSightings from '$lib/server/services/price-sightings';
 import type { Actions, PageServerLoad } from './$types';
@@ -39,18 +43,31 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
 		const input = verifySightingInput.safeParse(fields);
-		if (!input.success) return fail(400, { sightingId: Number(fields.sightingId), issues: fieldIssues(input.error) });
+		if (!input.success)
+			return fail(400, { sightingId: Number(fields.sightingId), issues: fieldIssues(input.error) });
 		const outcome = await priceSightings.verify(me.id, input.data.sightingId);
-		return answer(outcome, input.data.sightingId, 'Verified: the price is now a quote in the part’s price history.');
+		return answer(
+			outcome,
+			input.data.sightingId,
+			'Verified: the price is now a quote in the part’s price history.'
+		);
 	},
 	reject: async ({ request }) => {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
 		const input = rejectSightingInput.safeParse(fields);
 		if (!input.success) {
-			return fail(400, { sightingId: Number(fields.sightingId), reason: fields.reason ?? '', issues: fieldIssues(input.error) });
+			return fail(400, {
+				sightingId: Number(fields.sightingId),
+				reason: fields.reason ?? '',
+				issues: fieldIssues(input.error)
+			});
 		}
 		const outcome = await priceSightings.reject(me.id, input.data.sightingId, input.data.reason);
-		return answer(outcome, input.data.sightingId, 'Rejected: the people who reported it can see your reason.');
+		return answer(
+			outcome,
+			input.data.sightingId,
+			'Rejected: the people who reported it can see your reason.'
+		);
 	}
 };

@@ -21,8 +21,14 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
 		const outcome = await upkeep.createStore(me.id, fields);
-		if (outcome.kind === 'invalid') return fail(400, { action: 'create' as const, issues: outcome.issues, values: fields });
-		if (outcome.kind !== 'ok') return fail(409, { action: 'create' as const, issues: { _form: ['The store could not be added.'] } as Issues, values: fields });
+		if (outcome.kind === 'invalid')
+			return fail(400, { action: 'create' as const, issues: outcome.issues, values: fields });
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				action: 'create' as const,
+				issues: { _form: ['The store could not be added.'] } as Issues,
+				values: fields
+			});
 		redirect(303, '/editor/stores?done=added');
 	},
 
@@ -30,11 +36,32 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const { storeId: rawId, ...fields } = formFields(await request.formData());
 		const id = storeIdInput.safeParse({ storeId: rawId });
-		if (!id.success) return fail(400, { action: 'update' as const, issues: fieldIssues(id.error), values: fields });
+		if (!id.success)
+			return fail(400, {
+				action: 'update' as const,
+				issues: fieldIssues(id.error),
+				values: fields
+			});
 		const outcome = await upkeep.updateStore(me.id, id.data.storeId, fields);
-		if (outcome.kind === 'invalid') return fail(400, { action: 'update' as const, storeId: id.data.storeId, issues: outcome.issues, values: fields });
-		if (outcome.kind === 'not_found') return fail(404, { action: 'update' as const, issues: { _form: ['That store no longer exists.'] } as Issues, values: fields });
-		if (outcome.kind !== 'ok') return fail(409, { action: 'update' as const, issues: { _form: ['The store could not be saved.'] } as Issues, values: fields });
+		if (outcome.kind === 'invalid')
+			return fail(400, {
+				action: 'update' as const,
+				storeId: id.data.storeId,
+				issues: outcome.issues,
+				values: fields
+			});
+		if (outcome.kind === 'not_found')
+			return fail(404, {
+				action: 'update' as const,
+				issues: { _form: ['That store no longer exists.'] } as Issues,
+				values: fields
+			});
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				action: 'update' as const,
+				issues: { _form: ['The store could not be saved.'] } as Issues,
+				values: fields
+			});
 		redirect(303, '/editor/stores?done=saved');
 	},
 
@@ -43,8 +70,10 @@ export const actions: Actions = {
 		const id = storeIdInput.safeParse(formFields(await request.formData()));
 		if (!id.success) return fail(400, { action: 'delete' as const, message: 'Unknown store.' });
 		const outcome = await upkeep.deleteStore(me.id, id.data.storeId);
-		if (outcome.kind === 'not_found') return fail(404, { action: 'delete' as const, message: 'That store no longer exists.' });
-		if (outcome.kind === 'conflict') return fail(409, { action: 'delete' as const, message: outcome.message });
+		if (outcome.kind === 'not_found')
+			return fail(404, { action: 'delete' as const, message: 'That store no longer exists.' });
+		if (outcome.kind === 'conflict')
+			return fail(409, { action: 'delete' as const, message: outcome.message });
 		redirect(303, '/editor/stores?done=removed');
 	}
 };

@@ -30,12 +30,22 @@ export const actions: Actions = {
 		const input = decisionInput.safeParse(fields);
 		const echo = { note: String(fields.note ?? ''), slotNotes: fields.slotNotes };
 		if (!input.success) return fail(400, { ...echo, issues: fieldIssues(input.error) });
-		const outcome = await reviews.decide(me, Number(params.id), input.data, { guidesUrl: new URL('/my/guides', url.origin).href });
+		const outcome = await reviews.decide(me, Number(params.id), input.data, {
+			guidesUrl: new URL('/my/guides', url.origin).href
+		});
 		if (outcome.kind === 'not_found') error(404, 'No submitted revision with that number');
-		if (outcome.kind === 'forbidden') return fail(403, { ...echo, problem: true, message: outcome.message });
-		if (outcome.kind === 'conflict') return fail(409, { ...echo, problem: true, message: outcome.message });
-		const done = { approve: 'Approved: this revision is now live.', request_changes: 'Sent back to the author with your notes.', decline: 'Declined.' }[input.data.decision];
-		const mailed = outcome.mailed ? 'The author has been told by e-mail.' : 'The e-mail to the author could not be sent; the decision is saved.';
+		if (outcome.kind === 'forbidden')
+			return fail(403, { ...echo, problem: true, message: outcome.message });
+		if (outcome.kind === 'conflict')
+			return fail(409, { ...echo, problem: true, message: outcome.message });
+		const done = {
+			approve: 'Approved: this revision is now live.',
+			request_changes: 'Sent back to the author with your notes.',
+			decline: 'Declined.'
+		}[input.data.decision];
+		const mailed = outcome.mailed
+			? 'The author has been told by e-mail.'
+			: 'The e-mail to the author could not be sent; the decision is saved.';
 		return { problem: !outcome.mailed, message: `${done} ${mailed}` };
 	}
 };

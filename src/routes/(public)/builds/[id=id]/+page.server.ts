@@ -2,7 +2,19 @@ import { error, fail } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { formFields } from '$lib/schemas/account';
 import { reportInput } from '$lib/schemas/content-reports';
-import { addSlotForm, applyBudgetForm, overrideForm, proposeBudgetForm, purchaseForm, quantityForm, settingsForm, slotForm, swapForm, syncForm, versionForm } from '$lib/schemas/build-forms';
+import {
+	addSlotForm,
+	applyBudgetForm,
+	overrideForm,
+	proposeBudgetForm,
+	purchaseForm,
+	quantityForm,
+	settingsForm,
+	slotForm,
+	swapForm,
+	syncForm,
+	versionForm
+} from '$lib/schemas/build-forms';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as builds from '$lib/server/services/builds';
@@ -20,7 +32,11 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	const viewer = currentUser();
 	// The role lets editors open a hidden or reported build (services/builds.ts editorAccess).
 	const shareKey = url.searchParams.get('key') ?? undefined;
-	const build = await builds.getBuild(viewer ? { id: viewer.id, role: viewer.role } : null, Number(params.id), { shareToken: shareKey });
+	const build = await builds.getBuild(
+		viewer ? { id: viewer.id, role: viewer.role } : null,
+		Number(params.id),
+		{ shareToken: shareKey }
+	);
 	if (!build) error(404, 'Build not found');
 	const sync = build.isOwner ? await buildSync.syncPlan(viewer?.id ?? '', build.id) : null;
 	// The owner's choices for adding or swapping to any catalog part, and for the region select.
@@ -39,14 +55,32 @@ type Outcome = Awaited<ReturnType<typeof builds.updateSlot>>;
 /** One answer shape for every edit: saved, changed elsewhere (409), invalid (400) or gone (404). */
 function answer(outcome: Outcome, done: string) {
 	if (outcome.kind === 'not_found') error(404, 'Build not found');
-	if (outcome.kind === 'conflict') return fail(409, { problem: true, message: 'This build was changed in another tab or window. The page now shows the stored version; make your change again.' });
-	if (outcome.kind === 'invalid') return fail(400, { problem: true, issues: outcome.issues, message: Object.values(outcome.issues).flat().join(' ') });
+	if (outcome.kind === 'conflict')
+		return fail(409, {
+			problem: true,
+			message:
+				'This build was changed in another tab or window. The page now shows the stored version; make your change again.'
+		});
+	if (outcome.kind === 'invalid')
+		return fail(400, {
+			problem: true,
+			issues: outcome.issues,
+			message: Object.values(outcome.issues).flat().join(' ')
+		});
 	return { problem: false, message: done };
 }
 
 async function parse<S extends z.ZodType>(request: Request, schema: S) {
 	const parsed = schema.safeParse(formFields(await request.formData()));
-	if (!parsed.success) return { ok: false as const, failure: fail(400, { problem: true, issues: fieldIssues(parsed.error), message: Object.values(fieldIssues(parsed.error)).flat().join(' ') }) };
+	if (!parsed.success)
+		return {
+			ok: false as const,
+			failure: fail(400, {
+				problem: true,
+				issues: fieldIssues(parsed.error),
+				message: Object.values(fieldIssues(parsed.error)).flat().join(' ')
+			})
+		};
 	return { ok: true as const, data: parsed.data as z.output<S> };
 }
 
@@ -57,11 +91,21 @@ export const actions: Actions = {
 		const fields = formFields(await request.formData());
 		const input = reportInput.safeParse(fields);
 		if (!input.success) {
-			return fail(400, { report: { issues: fieldIssues(input.error), category: fields.category ?? '', detail: fields.detail ?? '' } });
+			return fail(400, {
+				report: {
+					issues: fieldIssues(input.error),
+					category: fields.category ?? '',
+					detail: fields.detail ?? ''
+				}
+			});
 		}
-		const outcome = await contentReports.report(me.id, 'build', params.id, input.data, { shareToken: url.searchParams.get('key') ?? undefined });
-		if (outcome.kind === 'not_found') return fail(404, { report: { problem: true, message: 'This build is not available.' } });
-		if (outcome.kind === 'conflict') return fail(409, { report: { problem: true, message: outcome.message } });
+		const outcome = await contentReports.report(me.id, 'build', params.id, input.data, {
+			shareToken: url.searchParams.get('key') ?? undefined
+		});
+		if (outcome.kind === 'not_found')
+			return fail(404, { report: { problem: true, message: 'This build is not available.' } });
+		if (outcome.kind === 'conflict')
+			return fail(409, { report: { problem: true, message: outcome.message } });
 		return {
 			report: {
 				problem: false,
@@ -75,39 +119,86 @@ export const actions: Actions = {
 		const me = requireUser();
 		const input = await parse(request, swapForm);
 		if (!input.ok) return input.failure;
-		return answer(await builds.updateSlot(me.id, Number(params.id), input.data.slotId, { partId: input.data.partId }, input.data.version), 'Swapped.');
+		return answer(
+			await builds.updateSlot(
+				me.id,
+				Number(params.id),
+				input.data.slotId,
+				{ partId: input.data.partId },
+				input.data.version
+			),
+			'Swapped.'
+		);
 	},
 	quantity: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, quantityForm);
 		if (!input.ok) return input.failure;
-		return answer(await builds.updateSlot(me.id, Number(params.id), input.data.slotId, { quantity: input.data.quantity }, input.data.version), 'Quantity saved.');
+		return answer(
+			await builds.updateSlot(
+				me.id,
+				Number(params.id),
+				input.data.slotId,
+				{ quantity: input.data.quantity },
+				input.data.version
+			),
+			'Quantity saved.'
+		);
 	},
 	override: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, overrideForm);
 		if (!input.ok) return input.failure;
-		return answer(await builds.updateSlot(me.id, Number(params.id), input.data.slotId, { priceOverride: input.data.priceOverride }, input.data.version), 'Price saved.');
+		return answer(
+			await builds.updateSlot(
+				me.id,
+				Number(params.id),
+				input.data.slotId,
+				{ priceOverride: input.data.priceOverride },
+				input.data.version
+			),
+			'Price saved.'
+		);
 	},
 	purchase: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, purchaseForm);
 		if (!input.ok) return input.failure;
 		const done = input.data.purchase.purchased ? 'Marked bought.' : 'Marked not bought.';
-		return answer(await builds.updateSlot(me.id, Number(params.id), input.data.slotId, { purchase: input.data.purchase }, input.data.version), done);
+		return answer(
+			await builds.updateSlot(
+				me.id,
+				Number(params.id),
+				input.data.slotId,
+				{ purchase: input.data.purchase },
+				input.data.version
+			),
+			done
+		);
 	},
 	removeSlot: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, slotForm);
 		if (!input.ok) return input.failure;
-		return answer(await builds.removeSlot(me.id, Number(params.id), input.data.slotId, input.data.version), 'Slot removed.');
+		return answer(
+			await builds.removeSlot(me.id, Number(params.id), input.data.slotId, input.data.version),
+			'Slot removed.'
+		);
 	},
 	addSlot: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, addSlotForm);
 		if (!input.ok) return input.failure;
 		const { version, ...slot } = input.data;
-		return answer(await builds.addSlot(me.id, Number(params.id), slot as Parameters<typeof builds.addSlot>[2], version), 'Slot added.');
+		return answer(
+			await builds.addSlot(
+				me.id,
+				Number(params.id),
+				slot as Parameters<typeof builds.addSlot>[2],
+				version
+			),
+			'Slot added.'
+		);
 	},
 	settings: async ({ params, request }) => {
 		const me = requireUser();
@@ -119,13 +210,31 @@ export const actions: Actions = {
 	sync: async ({ params, request }) => {
 		const me = requireUser();
 		const input = syncForm.safeParse(await request.formData());
-		if (!input.success) return fail(400, { problem: true, syncIssues: fieldIssues(input.error), message: 'Check the sync choices.' });
+		if (!input.success)
+			return fail(400, {
+				problem: true,
+				syncIssues: fieldIssues(input.error),
+				message: 'Check the sync choices.'
+			});
 		const { version, ...choices } = input.data;
 		const outcome = await buildSync.applySync(me.id, Number(params.id), choices, version);
 		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		if (outcome.kind === 'conflict') return fail(409, { problem: true, message: 'This build or its guide changed meanwhile. Look at the new table and choose again.' });
-		if (outcome.kind === 'invalid') return fail(400, { problem: true, syncIssues: outcome.issues, message: Object.values(outcome.issues).flat().join(' ') });
-		return { problem: false, message: `Synced: ${outcome.changedSlots} changed, ${outcome.addedSlots} added, ${outcome.removedSlots} removed. You can undo it.` };
+		if (outcome.kind === 'conflict')
+			return fail(409, {
+				problem: true,
+				message:
+					'This build or its guide changed meanwhile. Look at the new table and choose again.'
+			});
+		if (outcome.kind === 'invalid')
+			return fail(400, {
+				problem: true,
+				syncIssues: outcome.issues,
+				message: Object.values(outcome.issues).flat().join(' ')
+			});
+		return {
+			problem: false,
+			message: `Synced: ${outcome.changedSlots} changed, ${outcome.addedSlots} added, ${outcome.removedSlots} removed. You can undo it.`
+		};
 	},
 	undoSync: async ({ params, request }) => {
 		const me = requireUser();
@@ -133,18 +242,28 @@ export const actions: Actions = {
 		if (!input.ok) return input.failure;
 		const outcome = await buildSync.undoLastSync(me.id, Number(params.id), input.data.version);
 		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		if (outcome.kind === 'conflict') return fail(409, { problem: true, message: 'This build changed meanwhile; reload and try again.' });
-		if (outcome.kind === 'invalid') return fail(400, { problem: true, message: Object.values(outcome.issues).flat().join(' ') });
+		if (outcome.kind === 'conflict')
+			return fail(409, {
+				problem: true,
+				message: 'This build changed meanwhile; reload and try again.'
+			});
+		if (outcome.kind === 'invalid')
+			return fail(400, { problem: true, message: Object.values(outcome.issues).flat().join(' ') });
 		return { problem: false, message: 'The last sync was undone.' };
 	},
 	proposeBudget: async ({ params, request }) => {
 		const me = requireUser();
 		const input = await parse(request, proposeBudgetForm);
-		if (!input.ok) return fail(400, { problem: true, budgetIssues: ['Write an amount like 1200 or 1199.99.'] });
+		if (!input.ok)
+			return fail(400, { problem: true, budgetIssues: ['Write an amount like 1200 or 1199.99.'] });
 		const build = await builds.getBuild({ id: me.id }, Number(params.id));
 		if (!build?.isOwner) error(404, 'Build not found');
 		const minor = drafts.toMinor(input.data.budget, build.region.currency);
-		if (minor === null) return fail(400, { problem: true, budgetIssues: [`Too many decimals for ${build.region.currency}.`] });
+		if (minor === null)
+			return fail(400, {
+				problem: true,
+				budgetIssues: [`Too many decimals for ${build.region.currency}.`]
+			});
 		const outcome = await buildBudget.proposeWithinBudget(me.id, build.id, minor);
 		if (outcome.kind === 'not_found') error(404, 'Build not found');
 		return { budgetResult: outcome };
@@ -153,10 +272,23 @@ export const actions: Actions = {
 		const me = requireUser();
 		const input = await parse(request, applyBudgetForm);
 		if (!input.ok) return input.failure;
-		const outcome = await buildBudget.applyWithinBudget(me.id, Number(params.id), input.data.budgetMinor, input.data.version);
+		const outcome = await buildBudget.applyWithinBudget(
+			me.id,
+			Number(params.id),
+			input.data.budgetMinor,
+			input.data.version
+		);
 		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		if (outcome.kind === 'conflict') return fail(409, { problem: true, message: 'This build changed meanwhile; find swaps again.' });
-		if (outcome.kind === 'no_fit') return fail(422, { problem: true, budgetResult: outcome, message: outcome.reason });
-		return { problem: false, message: `Applied ${outcome.changes} ${outcome.changes === 1 ? 'swap' : 'swaps'}; the build is within your budget.` };
+		if (outcome.kind === 'conflict')
+			return fail(409, {
+				problem: true,
+				message: 'This build changed meanwhile; find swaps again.'
+			});
+		if (outcome.kind === 'no_fit')
+			return fail(422, { problem: true, budgetResult: outcome, message: outcome.reason });
+		return {
+			problem: false,
+			message: `Applied ${outcome.changes} ${outcome.changes === 1 ? 'swap' : 'swaps'}; the build is within your budget.`
+		};
 	}
 };

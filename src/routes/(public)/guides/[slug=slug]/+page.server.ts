@@ -32,17 +32,34 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	let diff: RevisionDiff | null = null;
 	let compareProblem: string | null = null;
 	if (url.searchParams.has('from') || url.searchParams.has('to')) {
-		const parsed = revisionCompareQuery.safeParse({ from: url.searchParams.get('from'), to: url.searchParams.get('to') });
+		const parsed = revisionCompareQuery.safeParse({
+			from: url.searchParams.get('from'),
+			to: url.searchParams.get('to')
+		});
 		if (!parsed.success) {
 			compareProblem = parsed.error.issues[0]?.message ?? 'Pick two revisions.';
 		} else {
 			compare = parsed.data;
-			const result = await guides.getRevisionDiff(params.slug, parsed.data.from, parsed.data.to, viewer);
+			const result = await guides.getRevisionDiff(
+				params.slug,
+				parsed.data.from,
+				parsed.data.to,
+				viewer
+			);
 			if (result.kind === 'ok') diff = result.diff;
 			else compareProblem = 'This guide has no such published revision.';
 		}
 	}
-	return { guide, extras, hidden: hidden ?? null, regionProblem, compare, diff, compareProblem, lineage: await builds.lineage(params.slug) };
+	return {
+		guide,
+		extras,
+		hidden: hidden ?? null,
+		regionProblem,
+		compare,
+		diff,
+		compareProblem,
+		lineage: await builds.lineage(params.slug)
+	};
 };
 
 export const actions: Actions = {
@@ -52,11 +69,21 @@ export const actions: Actions = {
 		const fields = formFields(await request.formData());
 		const input = reportInput.safeParse(fields);
 		if (!input.success) {
-			return fail(400, { report: { issues: fieldIssues(input.error), category: fields.category ?? '', detail: fields.detail ?? '' } });
+			return fail(400, {
+				report: {
+					issues: fieldIssues(input.error),
+					category: fields.category ?? '',
+					detail: fields.detail ?? ''
+				}
+			});
 		}
 		const outcome = await contentReports.report(me.id, 'guide', params.slug, input.data);
-		if (outcome.kind === 'not_found') return fail(404, { report: { problem: true, message: 'This guide is no longer available.' } });
-		if (outcome.kind === 'conflict') return fail(409, { report: { problem: true, message: outcome.message } });
+		if (outcome.kind === 'not_found')
+			return fail(404, {
+				report: { problem: true, message: 'This guide is no longer available.' }
+			});
+		if (outcome.kind === 'conflict')
+			return fail(409, { report: { problem: true, message: outcome.message } });
 		return {
 			report: {
 				problem: false,

@@ -25,7 +25,8 @@ export const load: PageServerLoad = async ({ params }) => {
 
 const SUBMITTED = {
 	created: 'Thank you: your price is waiting for an editor to check it.',
-	merged: 'Someone reported the same price for that day already; yours was merged into it, so it counts as seen by more people.',
+	merged:
+		'Someone reported the same price for that day already; yours was merged into it, so it counts as seen by more people.',
 	merged_verified:
 		'An editor already confirmed that price for that day, so it is in the price history; we counted you as seeing it too.',
 	already_quoted: 'That price for that day is already in the price history. Thank you all the same.'
@@ -42,7 +43,7 @@ export const actions: Actions = {
 			case 'invalid':
 				return fail(400, { sighting: { values: fields, issues: outcome.issues } });
 			case 'not_found':
-				error(404, 'Part not found');
+				return error(404, 'Part not found');
 			case 'already_reported':
 				return { sighting: { message: 'You already reported that price for that day.' } };
 			default:

@@ -13,8 +13,10 @@ export const POST: RequestHandler = async ({ request }) => {
 		return json({ message: 'The body is not valid JSON.' }, { status: 400 });
 	}
 	const input = fitInput.safeParse(body);
-	if (!input.success) return json({ message: 'Check the slots.', issues: fieldIssues(input.error) }, { status: 400 });
+	if (!input.success)
+		return json({ message: 'Check the slots.', issues: fieldIssues(input.error) }, { status: 400 });
 	const outcome = await fit.check(input.data);
-	if (outcome.kind === 'invalid') return json({ message: 'Check the slots.', issues: outcome.issues }, { status: 400 });
+	if (outcome.kind === 'invalid')
+		return json({ message: 'Check the slots.', issues: outcome.issues }, { status: 400 });
 	return json(outcome.result);
 };

@@ -12,11 +12,18 @@ import type { RequestHandler } from './$types';
  */
 export const GET: RequestHandler = async ({ url }) => {
 	const parsed = parseGuideBrowseStrict(url.searchParams);
-	if (!parsed.ok) return json({ message: 'The browse parameters are not valid.', issues: parsed.issues }, { status: 400 });
+	if (!parsed.ok)
+		return json(
+			{ message: 'The browse parameters are not valid.', issues: parsed.issues },
+			{ status: 400 }
+		);
 	const outcome = await guideBrowse.browse(parsed.query);
 	if (outcome.kind === 'unknown_region') {
 		const code = parsed.query[outcome.field];
-		return json({ message: 'Unknown region', issues: { [outcome.field]: [`No region "${code}".`] } }, { status: 400 });
+		return json(
+			{ message: 'Unknown region', issues: { [outcome.field]: [`No region "${code}".`] } },
+			{ status: 400 }
+		);
 	}
 	const { items, total, page, pageCount, region } = outcome.result;
 	return json({ items, total, page, pageCount, region });

@@ -8,7 +8,10 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ url }) => {
 	const parsed = parsePartSearchStrict(url.searchParams);
 	if (!parsed.ok) {
-		return json({ message: 'The search parameters are not valid.', issues: parsed.issues }, { status: 400 });
+		return json(
+			{ message: 'The search parameters are not valid.', issues: parsed.issues },
+			{ status: 400 }
+		);
 	}
 	const result: PartSearchResult = await parts.search({ ...parsed.query, perPage: PARTS_PER_PAGE });
 	return json(result);

@@ -12,8 +12,13 @@ export const load: PageServerLoad = async ({ params }) => {
 	const id = messageId.safeParse(params.id);
 	if (!id.success) error(404, 'That message is not in the local mailbox');
 	const result = await callMailbox<MailboxMessage>(`/messages/${id.data}`);
-	if (!result.ok && result.status === 404) error(404, 'That message is no longer in the local mailbox');
-	if (!result.ok) error(503, 'The local mail fake did not answer. Start it with: bash scripts/smtp-fake.sh start');
+	if (!result.ok && result.status === 404)
+		error(404, 'That message is no longer in the local mailbox');
+	if (!result.ok)
+		error(
+			503,
+			'The local mail fake did not answer. Start it with: bash scripts/smtp-fake.sh start'
+		);
 	const m = result.data;
 	return {
 		message: {

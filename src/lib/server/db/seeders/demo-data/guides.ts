@@ -178,11 +178,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU',
 				quantity: 1,
 				pickSlug: 'halvard-strata-406',
-				reason: 'Six cores are plenty for 1080p, and the boxed cooler handles its 65 W without extra spend.',
+				reason:
+					'Six cores are plenty for 1080p, and the boxed cooler handles its 65 W without extra spend.',
 				quoteStore: STORE.kestrel,
 				alternates: [
-					{ partSlug: 'halvard-strata-406g', reasonTag: 'easier_to_find', note: 'Often in stock when the 406 is not; its built-in graphics also let you test the build before the card arrives.' },
-					{ partSlug: 'halvard-strata-408', reasonTag: 'upgrade_path', note: 'Two more cores for streaming or compiling, same board and boxed cooler.' }
+					{
+						partSlug: 'halvard-strata-406g',
+						reasonTag: 'easier_to_find',
+						note: 'Often in stock when the 406 is not; its built-in graphics also let you test the build before the card arrives.'
+					},
+					{
+						partSlug: 'halvard-strata-408',
+						reasonTag: 'upgrade_path',
+						note: 'Two more cores for streaming or compiling, same board and boxed cooler.'
+					}
 				]
 			},
 			{
@@ -190,11 +199,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Motherboard',
 				quantity: 1,
 				pickSlug: 'arkwell-s550m-daily',
-				reason: 'Four memory slots and a PCIe 4.0 M.2 slot at a fair price, with nothing I would not use.',
+				reason:
+					'Four memory slots and a PCIe 4.0 M.2 slot at a fair price, with nothing I would not use.',
 				quoteStore: STORE.kestrel,
 				alternates: [
-					{ partSlug: 'arkwell-s450m-basic', reasonTag: 'lower_price', note: 'Two memory slots and one Gen3 M.2 slot; enough for this exact build.' },
-					{ partSlug: 'vantor-s550-atx-wifi', reasonTag: 'upgrade_path', note: 'Adds Wi-Fi, but it is full ATX: it needs an ATX case such as the Basis ATX.' }
+					{
+						partSlug: 'arkwell-s450m-basic',
+						reasonTag: 'lower_price',
+						note: 'Two memory slots and one Gen3 M.2 slot; enough for this exact build.'
+					},
+					{
+						partSlug: 'vantor-s550-atx-wifi',
+						reasonTag: 'upgrade_path',
+						note: 'Adds Wi-Fi, but it is full ATX: it needs an ATX case such as the Basis ATX.'
+					}
 				]
 			},
 			{
@@ -202,11 +220,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Memory',
 				quantity: 1,
 				pickSlug: 'aldmere-pulse-ddr4-3600-32gb',
-				reason: '32 GB means no closing the browser before a game, and 3600 MT/s is where this platform is happiest.',
+				reason:
+					'32 GB means no closing the browser before a game, and 3600 MT/s is where this platform is happiest.',
 				quoteStore: STORE.bayline,
 				alternates: [
-					{ partSlug: 'brisk-ddr4-3200-32gb', reasonTag: 'easier_to_find', note: 'Same capacity, slightly slower; stocked almost everywhere.' },
-					{ partSlug: 'aldmere-pulse-ddr4-3200-16gb', reasonTag: 'lower_price', note: 'Enough for most games today; later you replace the kit rather than add to it.' }
+					{
+						partSlug: 'brisk-ddr4-3200-32gb',
+						reasonTag: 'easier_to_find',
+						note: 'Same capacity, slightly slower; stocked almost everywhere.'
+					},
+					{
+						partSlug: 'aldmere-pulse-ddr4-3200-16gb',
+						reasonTag: 'lower_price',
+						note: 'Enough for most games today; later you replace the kit rather than add to it.'
+					}
 				]
 			},
 			{
@@ -214,11 +241,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Storage',
 				quantity: 1,
 				pickSlug: 'cindral-c3-1tb',
-				reason: 'A Gen3 drive loads games as fast as you will notice at this budget, and 1 TB holds a handful of big titles.',
+				reason:
+					'A Gen3 drive loads games as fast as you will notice at this budget, and 1 TB holds a handful of big titles.',
 				quoteStore: STORE.kestrel,
 				alternates: [
-					{ partSlug: 'verrow-v4-lite-1tb', reasonTag: 'easier_to_find', note: 'A Gen4 drive at nearly the same price when the C3 is out of stock.' },
-					{ partSlug: 'cindral-c4-2tb', reasonTag: 'upgrade_path', note: 'Twice the space; worth it if your game library is large.' }
+					{
+						partSlug: 'verrow-v4-lite-1tb',
+						reasonTag: 'easier_to_find',
+						note: 'A Gen4 drive at nearly the same price when the C3 is out of stock.'
+					},
+					{
+						partSlug: 'cindral-c4-2tb',
+						reasonTag: 'upgrade_path',
+						note: 'Twice the space; worth it if your game library is large.'
+					}
 				]
 			},
 			{
@@ -226,11 +262,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Graphics card',
 				quantity: 1,
 				pickSlug: 'solenne-cobalt-c6-8g',
-				reason: 'The best frames per dollar I measured at 1080p high, and it needs a single 8-pin lead.',
+				reason:
+					'The best frames per dollar I measured at 1080p high, and it needs a single 8-pin lead.',
 				quoteStore: STORE.kestrel,
 				alternates: [
-					{ partSlug: 'ironvale-auric-a52-8g', reasonTag: 'lower_price', note: 'About 15 % slower, but cool and frugal at 115 W.' },
-					{ partSlug: 'solenne-auric-a64-12g', reasonTag: 'upgrade_path', note: '12 GB of memory for higher texture settings; still one 8-pin lead.' }
+					{
+						partSlug: 'ironvale-auric-a52-8g',
+						reasonTag: 'lower_price',
+						note: 'About 15 % slower, but cool and frugal at 115 W.'
+					},
+					{
+						partSlug: 'solenne-auric-a64-12g',
+						reasonTag: 'upgrade_path',
+						note: '12 GB of memory for higher texture settings; still one 8-pin lead.'
+					}
 				]
 			},
 			{
@@ -238,10 +283,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Power supply',
 				quantity: 1,
 				pickSlug: 'voltren-vp550-bronze',
-				reason: 'The system draws around 350 W at most, so 550 W leaves comfortable headroom; it has the two 8-pin leads this build could ever need.',
+				reason:
+					'The system draws around 350 W at most, so 550 W leaves comfortable headroom; it has the two 8-pin leads this build could ever need.',
 				quoteStore: STORE.bayline,
 				alternates: [
-					{ partSlug: 'voltren-vp650-gold', reasonTag: 'quieter', note: 'Gold efficiency and fully modular; its fan stays slow at this load.' }
+					{
+						partSlug: 'voltren-vp650-gold',
+						reasonTag: 'quieter',
+						note: 'Gold efficiency and fully modular; its fan stays slow at this load.'
+					}
 				]
 			},
 			{
@@ -249,11 +299,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Case',
 				quantity: 1,
 				pickSlug: 'cairnhouse-m-mesh',
-				reason: 'A mesh front keeps the card cool, and it comes with two fans and a dust filter under the power supply.',
+				reason:
+					'A mesh front keeps the card cool, and it comes with two fans and a dust filter under the power supply.',
 				quoteStore: STORE.kestrel,
 				alternates: [
-					{ partSlug: 'norrow-glassline-m', reasonTag: 'looks', note: 'Glass on two sides; no fans included, so keep the fan pack.' },
-					{ partSlug: 'cairnhouse-basis-atx', reasonTag: 'easier_to_find', note: 'A larger ATX tower that also takes the ATX board alternate.' }
+					{
+						partSlug: 'norrow-glassline-m',
+						reasonTag: 'looks',
+						note: 'Glass on two sides; no fans included, so keep the fan pack.'
+					},
+					{
+						partSlug: 'cairnhouse-basis-atx',
+						reasonTag: 'easier_to_find',
+						note: 'A larger ATX tower that also takes the ATX board alternate.'
+					}
 				]
 			},
 			{
@@ -264,7 +323,11 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'Three more 120 mm fans fill the front and rear so the card breathes fresh air.',
 				quoteStore: STORE.bayline,
 				alternates: [
-					{ partSlug: 'kelda-quietwing-120-2pack', reasonTag: 'quieter', note: 'Two slower fans; enough airflow for this build at a lower hum.' }
+					{
+						partSlug: 'kelda-quietwing-120-2pack',
+						reasonTag: 'quieter',
+						note: 'Two slower fans; enough airflow for this build at a lower hum.'
+					}
 				]
 			},
 			{
@@ -272,10 +335,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Operating system',
 				quantity: 1,
 				pickSlug: 'larkspur-os-24-lts',
-				reason: 'Free to use and it ran every game I tested; the price is the boxed USB installer, which you can skip if you make your own.',
+				reason:
+					'Free to use and it ran every game I tested; the price is the boxed USB installer, which you can skip if you make your own.',
 				quoteStore: STORE.bayline,
 				alternates: [
-					{ partSlug: 'orchard-os-12-home', reasonTag: 'upgrade_path', note: 'Pick this if a game or tool you need only runs on Orchard OS; it adds about $120.' }
+					{
+						partSlug: 'orchard-os-12-home',
+						reasonTag: 'upgrade_path',
+						note: 'Pick this if a game or tool you need only runs on Orchard OS; it adds about $120.'
+					}
 				]
 			}
 		]
@@ -297,11 +365,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU',
 				quantity: 1,
 				pickSlug: 'halvard-strata-606x',
-				reason: 'At 1440p the graphics card sets the pace; six quick cores are all it needs, and the socket takes eight or sixteen later.',
+				reason:
+					'At 1440p the graphics card sets the pace; six quick cores are all it needs, and the socket takes eight or sixteen later.',
 				quoteStore: STORE.lindenhof,
 				alternates: [
-					{ partSlug: 'halvard-strata-606', reasonTag: 'lower_price', note: 'A few percent slower and it includes a cooler, though I would still fit the tower.' },
-					{ partSlug: 'halvard-strata-708x', reasonTag: 'upgrade_path', note: 'Eight cores if you stream or edit as well as play.' }
+					{
+						partSlug: 'halvard-strata-606',
+						reasonTag: 'lower_price',
+						note: 'A few percent slower and it includes a cooler, though I would still fit the tower.'
+					},
+					{
+						partSlug: 'halvard-strata-708x',
+						reasonTag: 'upgrade_path',
+						note: 'Eight cores if you stream or edit as well as play.'
+					}
 				]
 			},
 			{
@@ -309,11 +386,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU cooler',
 				quantity: 1,
 				pickSlug: 'tessel-frostline-120',
-				reason: 'A 120 mm tower keeps this CPU in the 70s °C under long loads and costs less than a fancy one.',
+				reason:
+					'A 120 mm tower keeps this CPU in the 70s °C under long loads and costs less than a fancy one.',
 				quoteStore: STORE.brueckner,
 				alternates: [
-					{ partSlug: 'kelda-slimtower-135', reasonTag: 'lower_price', note: 'Enough for the 606X; AM sockets only.' },
-					{ partSlug: 'tessel-frostline-dual-140', reasonTag: 'quieter', note: 'Two 140 mm fans turning slower; 165 mm tall, which this case takes.' }
+					{
+						partSlug: 'kelda-slimtower-135',
+						reasonTag: 'lower_price',
+						note: 'Enough for the 606X; AM sockets only.'
+					},
+					{
+						partSlug: 'tessel-frostline-dual-140',
+						reasonTag: 'quieter',
+						note: 'Two 140 mm fans turning slower; 165 mm tall, which this case takes.'
+					}
 				]
 			},
 			{
@@ -321,11 +407,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Motherboard',
 				quantity: 1,
 				pickSlug: 'vantor-s650-atx-wifi',
-				reason: 'Wi-Fi, a PCIe 5.0 M.2 slot for a later drive, and a power stage that will carry a bigger CPU.',
+				reason:
+					'Wi-Fi, a PCIe 5.0 M.2 slot for a later drive, and a power stage that will carry a bigger CPU.',
 				quoteStore: STORE.lindenhof,
 				alternates: [
-					{ partSlug: 'vantor-s650m-base', reasonTag: 'lower_price', note: 'microATX without Wi-Fi; fits the same case.' },
-					{ partSlug: 'vantor-s670e-atx-pro', reasonTag: 'upgrade_path', note: 'Two Gen5 M.2 slots and more USB; only worth it if you will use them.' }
+					{
+						partSlug: 'vantor-s650m-base',
+						reasonTag: 'lower_price',
+						note: 'microATX without Wi-Fi; fits the same case.'
+					},
+					{
+						partSlug: 'vantor-s670e-atx-pro',
+						reasonTag: 'upgrade_path',
+						note: 'Two Gen5 M.2 slots and more USB; only worth it if you will use them.'
+					}
 				]
 			},
 			{
@@ -333,11 +428,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Memory',
 				quantity: 1,
 				pickSlug: 'aldmere-flux-ddr5-6000-32gb',
-				reason: 'DDR5-6000 CL30 is the sweet spot for this platform: 10 ns first-word latency and stable on every board I tried.',
+				reason:
+					'DDR5-6000 CL30 is the sweet spot for this platform: 10 ns first-word latency and stable on every board I tried.',
 				quoteStore: STORE.brueckner,
 				alternates: [
-					{ partSlug: 'aldmere-flux-ddr5-5600-32gb', reasonTag: 'lower_price', note: 'A little slower; the difference is hard to see at 1440p.' },
-					{ partSlug: 'brisk-ddr5-6000-64gb', reasonTag: 'upgrade_path', note: '64 GB for large projects or many browser tabs next to a game.' }
+					{
+						partSlug: 'aldmere-flux-ddr5-5600-32gb',
+						reasonTag: 'lower_price',
+						note: 'A little slower; the difference is hard to see at 1440p.'
+					},
+					{
+						partSlug: 'brisk-ddr5-6000-64gb',
+						reasonTag: 'upgrade_path',
+						note: '64 GB for large projects or many browser tabs next to a game.'
+					}
 				]
 			},
 			{
@@ -348,8 +452,16 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'Modern games are large; 2 TB on a fast Gen4 drive avoids juggling installs.',
 				quoteStore: STORE.lindenhof,
 				alternates: [
-					{ partSlug: 'cindral-c4-1tb', reasonTag: 'lower_price', note: 'Half the space; add a second drive later in the free M.2 slot.' },
-					{ partSlug: 'verrow-v4-4tb', reasonTag: 'upgrade_path', note: 'One drive for everything, for years.' }
+					{
+						partSlug: 'cindral-c4-1tb',
+						reasonTag: 'lower_price',
+						note: 'Half the space; add a second drive later in the free M.2 slot.'
+					},
+					{
+						partSlug: 'verrow-v4-4tb',
+						reasonTag: 'upgrade_path',
+						note: 'One drive for everything, for years.'
+					}
 				]
 			},
 			{
@@ -357,11 +469,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Graphics card',
 				quantity: 1,
 				pickSlug: 'ironvale-cobalt-c7-16g',
-				reason: '16 GB and strong 1440p results in everything I tested; this triple-fan model stayed under 70 °C.',
+				reason:
+					'16 GB and strong 1440p results in everything I tested; this triple-fan model stayed under 70 °C.',
 				quoteStore: STORE.lindenhof,
 				alternates: [
-					{ partSlug: 'solenne-auric-a64-12g', reasonTag: 'lower_price', note: 'Saves about €200; drop one or two settings at 1440p.' },
-					{ partSlug: 'ironvale-auric-a78-16g', reasonTag: 'upgrade_path', note: 'Faster and 336 mm long; it uses the 12V-2x6 lead this power supply has.' }
+					{
+						partSlug: 'solenne-auric-a64-12g',
+						reasonTag: 'lower_price',
+						note: 'Saves about €200; drop one or two settings at 1440p.'
+					},
+					{
+						partSlug: 'ironvale-auric-a78-16g',
+						reasonTag: 'upgrade_path',
+						note: 'Faster and 336 mm long; it uses the 12V-2x6 lead this power supply has.'
+					}
 				]
 			},
 			{
@@ -369,11 +490,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Power supply',
 				quantity: 1,
 				pickSlug: 'voltren-vp750-gold',
-				reason: 'About 500 W of load on a 750 W unit keeps it efficient and quiet, and its 12V-2x6 lead covers the faster card alternate.',
+				reason:
+					'About 500 W of load on a 750 W unit keeps it efficient and quiet, and its 12V-2x6 lead covers the faster card alternate.',
 				quoteStore: STORE.brueckner,
 				alternates: [
-					{ partSlug: 'voltren-vp650-gold', reasonTag: 'lower_price', note: 'Enough for the picked card with less headroom; no 12V-2x6 lead.' },
-					{ partSlug: 'voltren-vp850-gold', reasonTag: 'upgrade_path', note: 'Room for the eight-core CPU and the faster card together.' }
+					{
+						partSlug: 'voltren-vp650-gold',
+						reasonTag: 'lower_price',
+						note: 'Enough for the picked card with less headroom; no 12V-2x6 lead.'
+					},
+					{
+						partSlug: 'voltren-vp850-gold',
+						reasonTag: 'upgrade_path',
+						note: 'Room for the eight-core CPU and the faster card together.'
+					}
 				]
 			},
 			{
@@ -381,11 +511,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Case',
 				quantity: 1,
 				pickSlug: 'cairnhouse-atrium-atx',
-				reason: 'Three intake fans included, 400 mm of card clearance and a clean cable area behind the board.',
+				reason:
+					'Three intake fans included, 400 mm of card clearance and a clean cable area behind the board.',
 				quoteStore: STORE.lindenhof,
 				alternates: [
-					{ partSlug: 'cairnhouse-basis-atx', reasonTag: 'lower_price', note: 'One fan included, so keep the fan pack; 345 mm card clearance.' },
-					{ partSlug: 'norrow-atlas-silent', reasonTag: 'quieter', note: 'Sound-damped panels, at the cost of some airflow.' }
+					{
+						partSlug: 'cairnhouse-basis-atx',
+						reasonTag: 'lower_price',
+						note: 'One fan included, so keep the fan pack; 345 mm card clearance.'
+					},
+					{
+						partSlug: 'norrow-atlas-silent',
+						reasonTag: 'quieter',
+						note: 'Sound-damped panels, at the cost of some airflow.'
+					}
 				]
 			},
 			{
@@ -393,10 +532,14 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Case fans',
 				quantity: 1,
 				pickSlug: 'tessel-breeze-140-2pack',
-				reason: 'Two top exhaust fans take the card\'s heat straight out.',
+				reason: "Two top exhaust fans take the card's heat straight out.",
 				quoteStore: STORE.brueckner,
 				alternates: [
-					{ partSlug: 'kelda-quietwing-140-3pack', reasonTag: 'quieter', note: 'Three slower fans; use the third as a rear exhaust.' }
+					{
+						partSlug: 'kelda-quietwing-140-3pack',
+						reasonTag: 'quieter',
+						note: 'Three slower fans; use the third as a rear exhaust.'
+					}
 				]
 			}
 		]
@@ -418,11 +561,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU',
 				quantity: 1,
 				pickSlug: 'orrin-labs-meridian-765kf',
-				reason: 'Twenty cores for exports and compiles; the built-in graphics would go unused next to this card, so I skipped paying for them.',
+				reason:
+					'Twenty cores for exports and compiles; the built-in graphics would go unused next to this card, so I skipped paying for them.',
 				quoteStore: STORE.ashgrove,
 				alternates: [
-					{ partSlug: 'orrin-labs-meridian-745k', reasonTag: 'lower_price', note: 'Fourteen cores; gaming at 4K is the same, exports take longer.' },
-					{ partSlug: 'orrin-labs-meridian-785k', reasonTag: 'upgrade_path', note: 'Twenty-four cores for heavy rendering; same board and cooler.' }
+					{
+						partSlug: 'orrin-labs-meridian-745k',
+						reasonTag: 'lower_price',
+						note: 'Fourteen cores; gaming at 4K is the same, exports take longer.'
+					},
+					{
+						partSlug: 'orrin-labs-meridian-785k',
+						reasonTag: 'upgrade_path',
+						note: 'Twenty-four cores for heavy rendering; same board and cooler.'
+					}
 				]
 			},
 			{
@@ -430,11 +582,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU cooler',
 				quantity: 1,
 				pickSlug: 'brightwater-aqualoop-360',
-				reason: 'A 360 mm radiator lets the fans idle along under long exports, which is where the quiet comes from.',
+				reason:
+					'A 360 mm radiator lets the fans idle along under long exports, which is where the quiet comes from.',
 				quoteStore: STORE.tidewell,
 				alternates: [
-					{ partSlug: 'tessel-frostline-dual-140', reasonTag: 'quieter', note: 'No pump noise at all; 165 mm tall, and the Atlas takes 170 mm.' },
-					{ partSlug: 'brightwater-aqualoop-240', reasonTag: 'lower_price', note: 'Fine for gaming; its fans spin up during long all-core loads.' }
+					{
+						partSlug: 'tessel-frostline-dual-140',
+						reasonTag: 'quieter',
+						note: 'No pump noise at all; 165 mm tall, and the Atlas takes 170 mm.'
+					},
+					{
+						partSlug: 'brightwater-aqualoop-240',
+						reasonTag: 'lower_price',
+						note: 'Fine for gaming; its fans spin up during long all-core loads.'
+					}
 				]
 			},
 			{
@@ -445,7 +606,11 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'Four M.2 slots, one of them PCIe 5.0, and a strong power stage for twenty cores.',
 				quoteStore: STORE.ashgrove,
 				alternates: [
-					{ partSlug: 'pellworth-m860m-plus', reasonTag: 'lower_price', note: 'microATX with two Gen4 M.2 slots; the Gen5 drive runs at Gen4 speed there.' }
+					{
+						partSlug: 'pellworth-m860m-plus',
+						reasonTag: 'lower_price',
+						note: 'microATX with two Gen4 M.2 slots; the Gen5 drive runs at Gen4 speed there.'
+					}
 				]
 			},
 			{
@@ -453,10 +618,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Memory',
 				quantity: 1,
 				pickSlug: 'brisk-ddr5-6000-64gb',
-				reason: '64 GB keeps 4K timelines and big photo sets in memory; two modules are easier on the memory controller than four.',
+				reason:
+					'64 GB keeps 4K timelines and big photo sets in memory; two modules are easier on the memory controller than four.',
 				quoteStore: STORE.tidewell,
 				alternates: [
-					{ partSlug: 'aldmere-flux-ddr5-6000-32gb', reasonTag: 'lower_price', note: 'Enough if you mostly game; reaching 64 GB later means replacing the kit.' }
+					{
+						partSlug: 'aldmere-flux-ddr5-6000-32gb',
+						reasonTag: 'lower_price',
+						note: 'Enough if you mostly game; reaching 64 GB later means replacing the kit.'
+					}
 				]
 			},
 			{
@@ -464,10 +634,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'System drive',
 				quantity: 1,
 				pickSlug: 'cindral-c5-2tb',
-				reason: 'A PCIe 5.0 drive for the operating system and active projects, where scrubbing through footage benefits from it.',
+				reason:
+					'A PCIe 5.0 drive for the operating system and active projects, where scrubbing through footage benefits from it.',
 				quoteStore: STORE.ashgrove,
 				alternates: [
-					{ partSlug: 'cindral-c4-2tb', reasonTag: 'lower_price', note: 'Gen4 speed; you will only notice it in large file copies.' }
+					{
+						partSlug: 'cindral-c4-2tb',
+						reasonTag: 'lower_price',
+						note: 'Gen4 speed; you will only notice it in large file copies.'
+					}
 				]
 			},
 			{
@@ -475,10 +650,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Game and archive drive',
 				quantity: 1,
 				pickSlug: 'verrow-v4-4tb',
-				reason: 'Four terabytes for the game library and finished projects, on a second M.2 slot with no cables.',
+				reason:
+					'Four terabytes for the game library and finished projects, on a second M.2 slot with no cables.',
 				quoteStore: STORE.tidewell,
 				alternates: [
-					{ partSlug: 'verrow-s2-2tb', reasonTag: 'lower_price', note: 'Half the space on SATA; goes in a 2.5-inch bay and needs a data cable.' }
+					{
+						partSlug: 'verrow-s2-2tb',
+						reasonTag: 'lower_price',
+						note: 'Half the space on SATA; goes in a 2.5-inch bay and needs a data cable.'
+					}
 				]
 			},
 			{
@@ -486,11 +666,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Graphics card',
 				quantity: 1,
 				pickSlug: 'ironvale-auric-a78-16g',
-				reason: 'The first card I tested that holds 4K high settings without upscaling in most games, and its large cooler keeps fan noise low.',
+				reason:
+					'The first card I tested that holds 4K high settings without upscaling in most games, and its large cooler keeps fan noise low.',
 				quoteStore: STORE.ashgrove,
 				alternates: [
-					{ partSlug: 'solenne-cobalt-c8-20g', reasonTag: 'lower_price', note: 'Close at 4K and 20 GB of memory; uses two 8-pin leads.' },
-					{ partSlug: 'solenne-auric-a90-24g', reasonTag: 'upgrade_path', note: 'The fastest option; at 450 W check the power budget, as it leaves the 1000 W unit less headroom.' }
+					{
+						partSlug: 'solenne-cobalt-c8-20g',
+						reasonTag: 'lower_price',
+						note: 'Close at 4K and 20 GB of memory; uses two 8-pin leads.'
+					},
+					{
+						partSlug: 'solenne-auric-a90-24g',
+						reasonTag: 'upgrade_path',
+						note: 'The fastest option; at 450 W check the power budget, as it leaves the 1000 W unit less headroom.'
+					}
 				]
 			},
 			{
@@ -498,10 +687,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Power supply',
 				quantity: 1,
 				pickSlug: 'stillwater-sw1000-platinum',
-				reason: 'The build peaks around 650 W; a 1000 W Platinum unit runs that with its fan barely moving and has a native 12V-2x6 cable.',
+				reason:
+					'The build peaks around 650 W; a 1000 W Platinum unit runs that with its fan barely moving and has a native 12V-2x6 cable.',
 				quoteStore: STORE.ashgrove,
 				alternates: [
-					{ partSlug: 'voltren-vp1000-gold', reasonTag: 'lower_price', note: 'Same capacity and 12V-2x6 cable, slightly less efficient and a little louder.' }
+					{
+						partSlug: 'voltren-vp1000-gold',
+						reasonTag: 'lower_price',
+						note: 'Same capacity and 12V-2x6 cable, slightly less efficient and a little louder.'
+					}
 				]
 			},
 			{
@@ -512,7 +706,11 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'Sound-damped panels, room for the 360 mm radiator on top and 365 mm for the card.',
 				quoteStore: STORE.tidewell,
 				alternates: [
-					{ partSlug: 'cairnhouse-atrium-atx', reasonTag: 'easier_to_find', note: 'More airflow, more noise; takes every part in this list.' }
+					{
+						partSlug: 'cairnhouse-atrium-atx',
+						reasonTag: 'easier_to_find',
+						note: 'More airflow, more noise; takes every part in this list.'
+					}
 				]
 			},
 			{
@@ -520,10 +718,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Case fans',
 				quantity: 1,
 				pickSlug: 'kelda-quietwing-140-3pack',
-				reason: 'Three slow 140 mm fans move the same air as faster small ones at a much lower pitch.',
+				reason:
+					'Three slow 140 mm fans move the same air as faster small ones at a much lower pitch.',
 				quoteStore: STORE.tidewell,
 				alternates: [
-					{ partSlug: 'tessel-breeze-140-2pack', reasonTag: 'lower_price', note: 'Two fans, a little louder at the same airflow.' }
+					{
+						partSlug: 'tessel-breeze-140-2pack',
+						reasonTag: 'lower_price',
+						note: 'Two fans, a little louder at the same airflow.'
+					}
 				]
 			},
 			{
@@ -534,7 +737,11 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'A 336 mm card sags over time; a bracket takes the load off the slot.',
 				quoteStore: STORE.tidewell,
 				alternates: [
-					{ partSlug: 'cairnhouse-sag-stand', reasonTag: 'lower_price', note: 'A simple adjustable stand on the case floor does the same job.' }
+					{
+						partSlug: 'cairnhouse-sag-stand',
+						reasonTag: 'lower_price',
+						note: 'A simple adjustable stand on the case floor does the same job.'
+					}
 				]
 			}
 		]
@@ -556,10 +763,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU',
 				quantity: 1,
 				pickSlug: 'halvard-strata-606',
-				reason: 'At 65 W it suits a low-profile cooler, and its built-in graphics help when you troubleshoot a riser.',
+				reason:
+					'At 65 W it suits a low-profile cooler, and its built-in graphics help when you troubleshoot a riser.',
 				quoteStore: STORE.kairo,
 				alternates: [
-					{ partSlug: 'halvard-strata-708x', reasonTag: 'upgrade_path', note: 'Eight cores, but at 120 W it outruns the Lowrise 47; pair it with a bigger case and cooler.' }
+					{
+						partSlug: 'halvard-strata-708x',
+						reasonTag: 'upgrade_path',
+						note: 'Eight cores, but at 120 W it outruns the Lowrise 47; pair it with a bigger case and cooler.'
+					}
 				]
 			},
 			{
@@ -567,10 +779,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'CPU cooler',
 				quantity: 1,
 				pickSlug: 'tessel-lowrise-47',
-				reason: 'The boxed cooler is too tall for this case; this one is 47 mm high and rated just above the CPU\'s sustained power.',
+				reason:
+					"The boxed cooler is too tall for this case; this one is 47 mm high and rated just above the CPU's sustained power.",
 				quoteStore: STORE.sakuragi,
 				alternates: [
-					{ partSlug: 'kelda-flatline-58', reasonTag: 'quieter', note: 'Exactly 58 mm, the case limit; a larger fan at lower speed.' }
+					{
+						partSlug: 'kelda-flatline-58',
+						reasonTag: 'quieter',
+						note: 'Exactly 58 mm, the case limit; a larger fan at lower speed.'
+					}
 				]
 			},
 			{
@@ -578,10 +795,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Motherboard',
 				quantity: 1,
 				pickSlug: 'vantor-s650i-wifi',
-				reason: 'Wi-Fi on board and two M.2 slots, which matters in a case with a single 2.5-inch bay.',
+				reason:
+					'Wi-Fi on board and two M.2 slots, which matters in a case with a single 2.5-inch bay.',
 				quoteStore: STORE.kairo,
 				alternates: [
-					{ partSlug: 'vantor-s670e-itx', reasonTag: 'upgrade_path', note: 'A PCIe 5.0 M.2 slot and stronger power delivery for an eight-core CPU.' }
+					{
+						partSlug: 'vantor-s670e-itx',
+						reasonTag: 'upgrade_path',
+						note: 'A PCIe 5.0 M.2 slot and stronger power delivery for an eight-core CPU.'
+					}
 				]
 			},
 			{
@@ -589,11 +811,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Memory',
 				quantity: 1,
 				pickSlug: 'aldmere-flux-ddr5-5600-32gb',
-				reason: 'Low-profile modules that clear the cooler fan, at a speed that trains reliably on this small board.',
+				reason:
+					'Low-profile modules that clear the cooler fan, at a speed that trains reliably on this small board.',
 				quoteStore: STORE.sakuragi,
 				alternates: [
-					{ partSlug: 'brisk-ddr5-4800-32gb', reasonTag: 'lower_price', note: 'Standard JEDEC speed, no profile to enable; a little slower.' },
-					{ partSlug: 'aldmere-flux-ddr5-6000-32gb', reasonTag: 'upgrade_path', note: 'Faster kit; check the module height against the cooler fan.' }
+					{
+						partSlug: 'brisk-ddr5-4800-32gb',
+						reasonTag: 'lower_price',
+						note: 'Standard JEDEC speed, no profile to enable; a little slower.'
+					},
+					{
+						partSlug: 'aldmere-flux-ddr5-6000-32gb',
+						reasonTag: 'upgrade_path',
+						note: 'Faster kit; check the module height against the cooler fan.'
+					}
 				]
 			},
 			{
@@ -604,8 +835,16 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'A fast Gen4 drive with a second M.2 slot free for later.',
 				quoteStore: STORE.kairo,
 				alternates: [
-					{ partSlug: 'verrow-v4-lite-1tb', reasonTag: 'lower_price', note: 'A little slower in long copies; the same in games.' },
-					{ partSlug: 'cindral-c4-2tb', reasonTag: 'upgrade_path', note: 'Twice the space if you keep many games installed.' }
+					{
+						partSlug: 'verrow-v4-lite-1tb',
+						reasonTag: 'lower_price',
+						note: 'A little slower in long copies; the same in games.'
+					},
+					{
+						partSlug: 'cindral-c4-2tb',
+						reasonTag: 'upgrade_path',
+						note: 'Twice the space if you keep many games installed.'
+					}
 				]
 			},
 			{
@@ -613,11 +852,20 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Graphics card',
 				quantity: 1,
 				pickSlug: 'ironvale-auric-a64-mini-12g',
-				reason: 'At 182 mm it is one of the few 12 GB cards that fits the 220 mm limit of this case, with a single 8-pin lead.',
+				reason:
+					'At 182 mm it is one of the few 12 GB cards that fits the 220 mm limit of this case, with a single 8-pin lead.',
 				quoteStore: STORE.kairo,
 				alternates: [
-					{ partSlug: 'ironvale-auric-a52-8g', reasonTag: 'lower_price', note: '199 mm and 115 W; runs cooler, aim for 1080p.' },
-					{ partSlug: 'solenne-cobalt-c6-8g', reasonTag: 'easier_to_find', note: '204 mm, fits; similar speed at 1080p, less memory for 1440p textures.' }
+					{
+						partSlug: 'ironvale-auric-a52-8g',
+						reasonTag: 'lower_price',
+						note: '199 mm and 115 W; runs cooler, aim for 1080p.'
+					},
+					{
+						partSlug: 'solenne-cobalt-c6-8g',
+						reasonTag: 'easier_to_find',
+						note: '204 mm, fits; similar speed at 1080p, less memory for 1440p textures.'
+					}
 				]
 			},
 			{
@@ -625,10 +873,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Power supply',
 				quantity: 1,
 				pickSlug: 'stillwater-sfx600-gold',
-				reason: 'SFX is the only size the case takes; 600 W covers the roughly 390 W peak with room to spare.',
+				reason:
+					'SFX is the only size the case takes; 600 W covers the roughly 390 W peak with room to spare.',
 				quoteStore: STORE.sakuragi,
 				alternates: [
-					{ partSlug: 'stillwater-sfx750-gold', reasonTag: 'upgrade_path', note: 'Adds a 12V-2x6 cable for a future card in a larger case.' }
+					{
+						partSlug: 'stillwater-sfx750-gold',
+						reasonTag: 'upgrade_path',
+						note: 'Adds a 12V-2x6 cable for a future card in a larger case.'
+					}
 				]
 			},
 			{
@@ -639,8 +892,16 @@ export const demoGuides: DemoGuide[] = [
 				reason: 'About ten litres, fits beside a monitor, and the riser is rated for PCIe 4.0.',
 				quoteStore: STORE.kairo,
 				alternates: [
-					{ partSlug: 'norrow-shoebox-itx', reasonTag: 'upgrade_path', note: 'Takes cards up to 325 mm and SFX-L power supplies, at a few litres more.' },
-					{ partSlug: 'cairnhouse-cube-itx', reasonTag: 'looks', note: 'A cube with a glass side and two fans included.' }
+					{
+						partSlug: 'norrow-shoebox-itx',
+						reasonTag: 'upgrade_path',
+						note: 'Takes cards up to 325 mm and SFX-L power supplies, at a few litres more.'
+					},
+					{
+						partSlug: 'cairnhouse-cube-itx',
+						reasonTag: 'looks',
+						note: 'A cube with a glass side and two fans included.'
+					}
 				]
 			},
 			{
@@ -648,10 +909,15 @@ export const demoGuides: DemoGuide[] = [
 				label: 'Case fan',
 				quantity: 1,
 				pickSlug: 'tessel-breeze-92',
-				reason: 'One 92 mm exhaust above the cooler clears the warm air the low-profile cooler pushes down.',
+				reason:
+					'One 92 mm exhaust above the cooler clears the warm air the low-profile cooler pushes down.',
 				quoteStore: STORE.sakuragi,
 				alternates: [
-					{ partSlug: 'kelda-quietwing-92', reasonTag: 'quieter', note: 'Lower top speed; enough for this build.' }
+					{
+						partSlug: 'kelda-quietwing-92',
+						reasonTag: 'quieter',
+						note: 'Lower top speed; enough for this build.'
+					}
 				]
 			}
 		]

@@ -8,14 +8,24 @@ import type { DemoQuote } from './types';
  * to estimate them, and a few carry a price history for the part page chart.
  */
 
-function q(partSlug: string, storeName: string, amountMinor: number, daysAgo: number, shippingMinor?: number): DemoQuote {
+function q(
+	partSlug: string,
+	storeName: string,
+	amountMinor: number,
+	daysAgo: number,
+	shippingMinor?: number
+): DemoQuote {
 	return shippingMinor === undefined
 		? { partSlug, storeName, amountMinor, daysAgo }
 		: { partSlug, storeName, amountMinor, daysAgo, shippingMinor };
 }
 
 /** Several observations of one part at one store, as [daysAgo, amountMinor] pairs. */
-function history(partSlug: string, storeName: string, points: Array<[number, number]>): DemoQuote[] {
+function history(
+	partSlug: string,
+	storeName: string,
+	points: Array<[number, number]>
+): DemoQuote[] {
 	return points.map(([daysAgo, amountMinor]) => q(partSlug, storeName, amountMinor, daysAgo));
 }
 
@@ -45,7 +55,11 @@ const us: DemoQuote[] = [
 	q('brightwater-aqualoop-240', kestrel, 9999, 4),
 	q('brightwater-aqualoop-360', kestrel, 12999, 4),
 
-	...history('arkwell-s550m-daily', kestrel, [[110, 10999], [60, 9999], [1, 9499]]),
+	...history('arkwell-s550m-daily', kestrel, [
+		[110, 10999],
+		[60, 9999],
+		[1, 9499]
+	]),
 	q('arkwell-s450m-basic', bayline, 6999, 2),
 	q('vantor-s550-atx-wifi', kestrel, 12999, 3),
 	q('vantor-s650m-base', bayline, 12999, 5),
@@ -60,7 +74,11 @@ const us: DemoQuote[] = [
 
 	q('aldmere-pulse-ddr4-3200-16gb', bayline, 3499, 1),
 	q('aldmere-pulse-ddr4-3200-16gb', kestrel, 3699, 2),
-	...history('aldmere-pulse-ddr4-3600-32gb', bayline, [[90, 6499], [45, 5799], [0, 5299]]),
+	...history('aldmere-pulse-ddr4-3600-32gb', bayline, [
+		[90, 6499],
+		[45, 5799],
+		[0, 5299]
+	]),
 	q('brisk-ddr4-3200-32gb', kestrel, 5499, 3),
 	q('aldmere-flux-ddr5-5600-32gb', bayline, 8499, 2),
 	q('aldmere-flux-ddr5-6000-32gb', kestrel, 9999, 1),
@@ -70,7 +88,12 @@ const us: DemoQuote[] = [
 
 	q('cindral-c3-1tb', kestrel, 5299, 1),
 	q('cindral-c4-1tb', bayline, 7499, 2),
-	...history('cindral-c4-2tb', kestrel, [[120, 14999], [70, 13999], [30, 13499], [5, 12999]]),
+	...history('cindral-c4-2tb', kestrel, [
+		[120, 14999],
+		[70, 13999],
+		[30, 13499],
+		[5, 12999]
+	]),
 	q('cindral-c4-2tb', bayline, 12799, 3),
 	q('cindral-c5-2tb', kestrel, 19999, 4),
 	q('verrow-v4-lite-1tb', bayline, 5499, 2),
@@ -78,7 +101,13 @@ const us: DemoQuote[] = [
 	q('verrow-s2-2tb', bayline, 10999, 3),
 
 	q('ironvale-auric-a52-8g', bayline, 21999, 1),
-	...history('solenne-cobalt-c6-8g', kestrel, [[110, 26999], [75, 25999], [40, 24999], [12, 23999], [2, 22999]]),
+	...history('solenne-cobalt-c6-8g', kestrel, [
+		[110, 26999],
+		[75, 25999],
+		[40, 24999],
+		[12, 23999],
+		[2, 22999]
+	]),
 	q('solenne-auric-a64-12g', kestrel, 31999, 3),
 	q('ironvale-auric-a64-mini-12g', bayline, 32999, 5),
 	q('ironvale-cobalt-c7-16g', kestrel, 49999, 2),
@@ -129,7 +158,12 @@ const de: DemoQuote[] = [
 	q('halvard-strata-408', lindenhof, 14990, 5),
 	q('halvard-strata-606', lindenhof, 18900, 2),
 	q('halvard-strata-606', brueckner, 18490, 4),
-	...history('halvard-strata-606x', lindenhof, [[100, 22900], [60, 21500], [25, 20500], [2, 19900]]),
+	...history('halvard-strata-606x', lindenhof, [
+		[100, 22900],
+		[60, 21500],
+		[25, 20500],
+		[2, 19900]
+	]),
 	q('halvard-strata-606x', brueckner, 20490, 3),
 	q('halvard-strata-708x', brueckner, 33900, 2),
 	q('halvard-strata-916x', lindenhof, 56900, 6),
@@ -181,7 +215,13 @@ const de: DemoQuote[] = [
 	q('solenne-cobalt-c6-8g', lindenhof, 25900, 5),
 	q('solenne-auric-a64-12g', brueckner, 33900, 2),
 	q('ironvale-auric-a64-mini-12g', lindenhof, 34900, 7),
-	...history('ironvale-cobalt-c7-16g', lindenhof, [[120, 59900], [90, 57900], [60, 56900], [30, 54900], [1, 53900]]),
+	...history('ironvale-cobalt-c7-16g', lindenhof, [
+		[120, 59900],
+		[90, 57900],
+		[60, 56900],
+		[30, 54900],
+		[1, 53900]
+	]),
 	q('solenne-cobalt-c8-20g', brueckner, 68900, 5),
 	q('ironvale-auric-a78-16g', lindenhof, 81900, 3),
 	q('solenne-auric-a90-24g', brueckner, 129900, 6),
@@ -237,7 +277,11 @@ const uk: DemoQuote[] = [
 	q('kelda-flatline-58', ashgrove, 5499, 7),
 	q('kelda-slimtower-135', tidewell, 2499, 5),
 	q('brightwater-aqualoop-240', ashgrove, 9499, 3),
-	...history('brightwater-aqualoop-360', tidewell, [[90, 12999], [50, 11999], [1, 10999]]),
+	...history('brightwater-aqualoop-360', tidewell, [
+		[90, 12999],
+		[50, 11999],
+		[1, 10999]
+	]),
 
 	q('arkwell-s550m-daily', ashgrove, 8999, 5),
 	q('vantor-s550-atx-wifi', tidewell, 12499, 6),
@@ -274,7 +318,13 @@ const uk: DemoQuote[] = [
 	q('ironvale-auric-a64-mini-12g', ashgrove, 30999, 8),
 	q('ironvale-cobalt-c7-16g', tidewell, 49999, 3),
 	q('solenne-cobalt-c8-20g', tidewell, 61999, 2),
-	...history('ironvale-auric-a78-16g', ashgrove, [[120, 77999], [80, 74999], [45, 72999], [20, 71999], [2, 69999]]),
+	...history('ironvale-auric-a78-16g', ashgrove, [
+		[120, 77999],
+		[80, 74999],
+		[45, 72999],
+		[20, 71999],
+		[2, 69999]
+	]),
 	q('solenne-auric-a90-24g', ashgrove, 114999, 3),
 
 	q('voltren-vp550-bronze', tidewell, 4999, 6),
@@ -349,7 +399,11 @@ const jp: DemoQuote[] = [
 	q('aldmere-pulse-ddr4-3200-16gb', kairo, 5980, 5),
 	q('aldmere-pulse-ddr4-3600-32gb', sakuragi, 10980, 6),
 	q('aldmere-flux-ddr5-5600-32gb', sakuragi, 13980, 1),
-	...history('aldmere-flux-ddr5-6000-32gb', kairo, [[90, 18980], [50, 17800], [10, 16800]]),
+	...history('aldmere-flux-ddr5-6000-32gb', kairo, [
+		[90, 18980],
+		[50, 17800],
+		[10, 16800]
+	]),
 	q('brisk-ddr5-6000-64gb', sakuragi, 29800, 5),
 	q('brisk-ddr5-4800-32gb', kairo, 11980, 3),
 
@@ -363,7 +417,12 @@ const jp: DemoQuote[] = [
 
 	q('ironvale-auric-a52-8g', sakuragi, 39800, 3),
 	q('solenne-cobalt-c6-8g', kairo, 42800, 4),
-	...history('ironvale-auric-a64-mini-12g', kairo, [[60, 64800], [30, 62800], [14, 60800], [2, 58800]]),
+	...history('ironvale-auric-a64-mini-12g', kairo, [
+		[60, 64800],
+		[30, 62800],
+		[14, 60800],
+		[2, 58800]
+	]),
 	q('ironvale-cobalt-c7-16g', sakuragi, 84800, 5),
 	q('solenne-cobalt-c8-20g', kairo, 109800, 6),
 	q('ironvale-auric-a78-16g', sakuragi, 129800, 7),

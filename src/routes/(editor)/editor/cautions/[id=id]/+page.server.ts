@@ -20,11 +20,14 @@ export const actions: Actions = {
 		const fields = formFields(await request.formData());
 		const values = ruleFromForm(fields);
 		const version = ruleVersionInput.safeParse(fields.version);
-		if (!version.success) return fail(400, { issues: { _form: ['Reload the page and try again.'] } as Issues, values });
+		if (!version.success)
+			return fail(400, { issues: { _form: ['Reload the page and try again.'] } as Issues, values });
 		const outcome = await cautions.updateRule(me.id, Number(params.id), version.data, values);
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values });
-		if (outcome.kind === 'not_found') return fail(404, { issues: { _form: ['That rule no longer exists.'] } as Issues, values });
-		if (outcome.kind === 'conflict') return fail(409, { issues: { _form: [outcome.message] } as Issues, values });
+		if (outcome.kind === 'not_found')
+			return fail(404, { issues: { _form: ['That rule no longer exists.'] } as Issues, values });
+		if (outcome.kind === 'conflict')
+			return fail(409, { issues: { _form: [outcome.message] } as Issues, values });
 		redirect(303, '/editor/cautions?done=saved');
 	}
 };

@@ -16,7 +16,11 @@ export const actions: Actions = {
 		const values = ruleFromForm(formFields(await request.formData()));
 		const outcome = await cautions.createRule(me.id, values);
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values });
-		if (outcome.kind !== 'ok') return fail(409, { issues: { _form: ['The rule could not be added.'] } as Record<string, string[]>, values });
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				issues: { _form: ['The rule could not be added.'] } as Record<string, string[]>,
+				values
+			});
 		redirect(303, '/editor/cautions?done=added');
 	}
 };

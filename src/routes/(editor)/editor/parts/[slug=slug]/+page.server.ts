@@ -23,12 +23,32 @@ export const actions: Actions = {
 	save: async ({ params, request }) => {
 		const me = requireRole('editor');
 		const part = await upkeep.getPart(params.slug);
-		if (!part) return fail(404, { issues: { _form: ['No part has this slug.'] } as Record<string, string[]>, values: null, saved: false });
+		if (!part)
+			return fail(404, {
+				issues: { _form: ['No part has this slug.'] } as Record<string, string[]>,
+				values: null,
+				saved: false
+			});
 		const values = readPartForm(await request.formData(), part.category);
 		const outcome = await upkeep.updatePart(me.id, params.slug, values);
-		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values: { ...values, slug: part.slug }, saved: false });
-		if (outcome.kind === 'not_found') return fail(404, { issues: { _form: ['No part has this slug.'] } as Record<string, string[]>, values: null, saved: false });
-		if (outcome.kind !== 'ok') return fail(409, { issues: { _form: ['The part could not be saved.'] } as Record<string, string[]>, values: null, saved: false });
+		if (outcome.kind === 'invalid')
+			return fail(400, {
+				issues: outcome.issues,
+				values: { ...values, slug: part.slug },
+				saved: false
+			});
+		if (outcome.kind === 'not_found')
+			return fail(404, {
+				issues: { _form: ['No part has this slug.'] } as Record<string, string[]>,
+				values: null,
+				saved: false
+			});
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				issues: { _form: ['The part could not be saved.'] } as Record<string, string[]>,
+				values: null,
+				saved: false
+			});
 		return { saved: true, changed: outcome.changed };
 	}
 };

@@ -26,13 +26,21 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const length = Number(request.headers.get('content-length') ?? 0);
 		if (length > MAX_REQUEST_BYTES) {
-			return fail(413, { issues: { file: [`Upload at most ${catalogCsv.MAX_UPLOAD_BYTES / 1024 / 1024} MB at a time.`] } });
+			return fail(413, {
+				issues: {
+					file: [`Upload at most ${catalogCsv.MAX_UPLOAD_BYTES / 1024 / 1024} MB at a time.`]
+				}
+			});
 		}
 		const file = (await request.formData()).get('file');
 		if (!(file instanceof File) || file.size === 0) {
 			return fail(400, { issues: { file: ['Choose a CSV file to upload.'] } });
 		}
-		const outcome = await catalogCsv.upload(me.id, new Uint8Array(await file.arrayBuffer()), file.name);
+		const outcome = await catalogCsv.upload(
+			me.id,
+			new Uint8Array(await file.arrayBuffer()),
+			file.name
+		);
 		if (outcome.kind === 'invalid') return fail(400, { report: outcome });
 		redirect(303, `/editor/parts/import?id=${outcome.importId}`);
 	},
@@ -43,12 +51,31 @@ export const actions: Actions = {
 		if (!input.success) return fail(400, { issues: fieldIssues(input.error) });
 		const outcome = await catalogCsv.commit(me.id, input.data.importId);
 		if (outcome.kind === 'not_found') {
-			return fail(404, { message: 'This upload has expired or was already imported. Upload the file again.' });
+			return fail(404, {
+				message: 'This upload has expired or was already imported. Upload the file again.'
+			});
 		}
 		if (outcome.kind === 'conflict') {
-			return fail(409, { message: outcome.message, report: { kind: 'invalid' as const, fileName: '', totalRows: 0, goodRows: 0, badRows: 0, problems: outcome.problems, moreProblems: 0 } });
+			return fail(409, {
+				message: outcome.message,
+				report: {
+					kind: 'invalid' as const,
+					fileName: '',
+					totalRows: 0,
+					goodRows: 0,
+					badRows: 0,
+					problems: outcome.problems,
+					moreProblems: 0
+				}
+			});
 		}
-		return { committed: { created: outcome.created, updated: outcome.updated, unchanged: outcome.unchanged } };
+		return {
+			committed: {
+				created: outcome.created,
+				updated: outcome.updated,
+				unchanged: outcome.unchanged
+			}
+		};
 	},
 
 	discard: async ({ request }) => {

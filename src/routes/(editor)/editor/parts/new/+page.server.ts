@@ -29,12 +29,19 @@ export const actions: Actions = {
 		const data = await request.formData();
 		const category = partCategory.safeParse(data.get('category'));
 		if (!category.success) {
-			return fail(400, { issues: { category: ['Choose a category first.'] } as Record<string, string[]>, values: null });
+			return fail(400, {
+				issues: { category: ['Choose a category first.'] } as Record<string, string[]>,
+				values: null
+			});
 		}
 		const values = readPartForm(data, category.data);
 		const outcome = await upkeep.createPart(me.id, { category: category.data, ...values });
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values });
-		if (outcome.kind !== 'ok') return fail(409, { issues: { _form: ['The part could not be added.'] } as Record<string, string[]>, values });
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				issues: { _form: ['The part could not be added.'] } as Record<string, string[]>,
+				values
+			});
 		redirect(303, `/editor/parts/${outcome.part.slug}?added=1`);
 	}
 };

@@ -15,8 +15,13 @@ export const load: PageServerLoad = async ({ params }) => {
 	const region = code.success ? await regions.getRegion(code.data) : null;
 	if (!region) error(404, 'No region has this code.');
 	// The form shows factors as percentages; the column holds basis points.
-	const settings: Record<string, string> = { name: region.name, currency: region.currency, taxMode: region.taxMode };
-	for (const c of PART_CATEGORIES) settings[`factor.${c}`] = bpToPercent(region.categoryFactorsBp[c]);
+	const settings: Record<string, string> = {
+		name: region.name,
+		currency: region.currency,
+		taxMode: region.taxMode
+	};
+	for (const c of PART_CATEGORIES)
+		settings[`factor.${c}`] = bpToPercent(region.categoryFactorsBp[c]);
 	return { region, settings };
 };
 
@@ -26,7 +31,10 @@ function codeOf(raw: string): string | null {
 	return code.success ? code.data : null;
 }
 
-const NOT_FOUND = { issues: { _form: ['No region has this code.'] } as Issues, values: {} as Record<string, string> };
+const NOT_FOUND = {
+	issues: { _form: ['No region has this code.'] } as Issues,
+	values: {} as Record<string, string>
+};
 
 export const actions: Actions = {
 	settings: async ({ params, request }) => {
@@ -35,10 +43,19 @@ export const actions: Actions = {
 		if (!code) return fail(404, { form: 'settings' as const, ...NOT_FOUND });
 		const fields = formFields(await request.formData());
 		const outcome = await regions.updateSettings(me.id, code, fields);
-		if (outcome.kind === 'invalid') return fail(400, { form: 'settings' as const, issues: outcome.issues, values: fields });
+		if (outcome.kind === 'invalid')
+			return fail(400, { form: 'settings' as const, issues: outcome.issues, values: fields });
 		if (outcome.kind === 'not_found') return fail(404, { form: 'settings' as const, ...NOT_FOUND });
-		if (outcome.kind !== 'ok') return fail(409, { form: 'settings' as const, issues: { _form: ['The region could not be saved.'] } as Issues, values: fields });
-		return { form: 'settings' as const, message: outcome.changed ? 'Region saved.' : 'Nothing changed, so nothing was saved.' };
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				form: 'settings' as const,
+				issues: { _form: ['The region could not be saved.'] } as Issues,
+				values: fields
+			});
+		return {
+			form: 'settings' as const,
+			message: outcome.changed ? 'Region saved.' : 'Nothing changed, so nothing was saved.'
+		};
 	},
 
 	addRate: async ({ params, request }) => {
@@ -47,9 +64,15 @@ export const actions: Actions = {
 		if (!code) return fail(404, { form: 'rate' as const, ...NOT_FOUND });
 		const fields = formFields(await request.formData());
 		const outcome = await regions.addTaxRate(me.id, code, fields);
-		if (outcome.kind === 'invalid') return fail(400, { form: 'rate' as const, issues: outcome.issues, values: fields });
+		if (outcome.kind === 'invalid')
+			return fail(400, { form: 'rate' as const, issues: outcome.issues, values: fields });
 		if (outcome.kind === 'not_found') return fail(404, { form: 'rate' as const, ...NOT_FOUND });
-		if (outcome.kind !== 'ok') return fail(409, { form: 'rate' as const, issues: { _form: ['The rate could not be added.'] } as Issues, values: fields });
+		if (outcome.kind !== 'ok')
+			return fail(409, {
+				form: 'rate' as const,
+				issues: { _form: ['The rate could not be added.'] } as Issues,
+				values: fields
+			});
 		return { form: 'rate' as const, message: 'Rate added.' };
 	},
 
@@ -58,10 +81,20 @@ export const actions: Actions = {
 		const code = codeOf(params.code);
 		if (!code) return fail(404, { form: 'rate' as const, ...NOT_FOUND });
 		const input = removeTaxRateInput.safeParse(formFields(await request.formData()));
-		if (!input.success) return fail(400, { form: 'rate' as const, issues: fieldIssues(input.error), values: {} as Record<string, string> });
+		if (!input.success)
+			return fail(400, {
+				form: 'rate' as const,
+				issues: fieldIssues(input.error),
+				values: {} as Record<string, string>
+			});
 		const outcome = await regions.removeTaxRate(me.id, code, input.data.rateId);
 		if (outcome.kind === 'not_found') return fail(404, { form: 'rate' as const, ...NOT_FOUND });
-		if (outcome.kind === 'conflict') return fail(409, { form: 'rate' as const, issues: { _form: [outcome.message] } as Issues, values: {} as Record<string, string> });
+		if (outcome.kind === 'conflict')
+			return fail(409, {
+				form: 'rate' as const,
+				issues: { _form: [outcome.message] } as Issues,
+				values: {} as Record<string, string>
+			});
 		return { form: 'rate' as const, message: 'Rate removed.' };
 	}
 };

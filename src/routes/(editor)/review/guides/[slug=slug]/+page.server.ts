@@ -18,13 +18,29 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
 		const input = moderationInput.safeParse(fields);
-		if (!input.success) return fail(400, { action: fields.action ?? '', reason: fields.reason ?? '', issues: fieldIssues(input.error) });
-		const outcome = await reviews.moderate(me, params.slug, input.data, { guidesUrl: new URL('/my/guides', url.origin).href });
+		if (!input.success)
+			return fail(400, {
+				action: fields.action ?? '',
+				reason: fields.reason ?? '',
+				issues: fieldIssues(input.error)
+			});
+		const outcome = await reviews.moderate(me, params.slug, input.data, {
+			guidesUrl: new URL('/my/guides', url.origin).href
+		});
 		if (outcome.kind === 'not_found') error(404, 'Guide not found');
 		if (outcome.kind === 'conflict' || outcome.kind === 'forbidden') {
-			return fail(409, { action: input.data.action, reason: input.data.reason, problem: true, message: outcome.message });
+			return fail(409, {
+				action: input.data.action,
+				reason: input.data.reason,
+				problem: true,
+				message: outcome.message
+			});
 		}
-		const done = input.data.action === 'archive' ? 'Archived.' : 'Unpublished: the guide is no longer public.';
-		return { problem: !outcome.mailed, message: `${done} ${outcome.mailed ? 'The author has been told by e-mail.' : 'The e-mail to the author could not be sent.'}` };
+		const done =
+			input.data.action === 'archive' ? 'Archived.' : 'Unpublished: the guide is no longer public.';
+		return {
+			problem: !outcome.mailed,
+			message: `${done} ${outcome.mailed ? 'The author has been told by e-mail.' : 'The e-mail to the author could not be sent.'}`
+		};
 	}
 };

@@ -6,7 +6,9 @@ import type { RequestHandler } from './$types';
 /** The build's shopping list as CSV, in its region and currency (same visibility rules as the page). */
 export const GET: RequestHandler = async ({ params, url }) => {
 	const viewer = currentUser();
-	const csv = await builds.exportCsv(viewer ? { id: viewer.id } : null, Number(params.id), { shareToken: url.searchParams.get('key') ?? undefined });
+	const csv = await builds.exportCsv(viewer ? { id: viewer.id } : null, Number(params.id), {
+		shareToken: url.searchParams.get('key') ?? undefined
+	});
 	if (csv === null) error(404, 'Build not found');
 	return new Response(csv, {
 		headers: {

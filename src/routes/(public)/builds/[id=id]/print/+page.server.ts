@@ -5,7 +5,9 @@ import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const viewer = currentUser();
-	const build = await builds.getBuild(viewer ? { id: viewer.id } : null, Number(params.id), { shareToken: url.searchParams.get('key') ?? undefined });
+	const build = await builds.getBuild(viewer ? { id: viewer.id } : null, Number(params.id), {
+		shareToken: url.searchParams.get('key') ?? undefined
+	});
 	if (!build) error(404, 'Build not found');
 	return { build };
 };

@@ -9,7 +9,10 @@ export const GET: RequestHandler = async ({ params, url }) => {
 	const unknown = [...new Set(url.searchParams.keys())];
 	if (unknown.length > 0) {
 		return json(
-			{ message: 'This address takes no query parameters.', issues: { _form: unknown.map((k) => `Unrecognized key: "${k}"`) } },
+			{
+				message: 'This address takes no query parameters.',
+				issues: { _form: unknown.map((k) => `Unrecognized key: "${k}"`) }
+			},
 			{ status: 400 }
 		);
 	}

@@ -15,7 +15,8 @@ export const GET: RequestHandler = async ({ params }) => {
 	const id = messageId.safeParse(params.id);
 	if (!id.success) error(404, 'That message is not in the local mailbox');
 	const result = await callMailbox<MailboxMessage>(`/messages/${id.data}`);
-	if (!result.ok && result.status === 404) error(404, 'That message is no longer in the local mailbox');
+	if (!result.ok && result.status === 404)
+		error(404, 'That message is no longer in the local mailbox');
 	if (!result.ok) error(503, 'The local mail fake did not answer');
 	if (!result.data.html) error(404, 'This message has no HTML version');
 	return new Response(result.data.html, {

@@ -25,23 +25,46 @@ async function save(userId: string, slug: string, data: FormData) {
 	const fields = fromForm(data);
 	const version = Number(data.get('version'));
 	const parsed = draftInput.safeParse(toInput(fields));
-	if (!parsed.success) return { ok: false as const, failure: fail(400, { fields, version, issues: fieldIssues(parsed.error) }) };
-	if (!Number.isInteger(version) || version < 1) return { ok: false as const, failure: fail(400, { fields, version, issues: { _form: ['Reload the editor: the form lost its version.'] } }) };
+	if (!parsed.success)
+		return {
+			ok: false as const,
+			failure: fail(400, { fields, version, issues: fieldIssues(parsed.error) })
+		};
+	if (!Number.isInteger(version) || version < 1)
+		return {
+			ok: false as const,
+			failure: fail(400, {
+				fields,
+				version,
+				issues: { _form: ['Reload the editor: the form lost its version.'] }
+			})
+		};
 	const outcome = await drafts.saveDraft(userId, slug, parsed.data, version);
 	switch (outcome.kind) {
 		case 'not_found':
 			error(404, 'Guide not found');
 		// falls through: error() throws
 		case 'invalid':
-			return { ok: false as const, failure: fail(400, { fields, version, issues: outcome.issues }) };
+			return {
+				ok: false as const,
+				failure: fail(400, { fields, version, issues: outcome.issues })
+			};
 		case 'conflict':
 			return {
 				ok: false as const,
 				// The next save is meant to go over the stored version the author has now seen.
-				failure: fail(409, { fields, version: outcome.current.version, conflict: { stored: fromDraft(outcome.current), version: outcome.current.version } })
+				failure: fail(409, {
+					fields,
+					version: outcome.current.version,
+					conflict: { stored: fromDraft(outcome.current), version: outcome.current.version }
+				})
 			};
 		case 'saved':
-			return { ok: true as const, version: outcome.draft.version, revisionNumber: outcome.draft.revisionNumber };
+			return {
+				ok: true as const,
+				version: outcome.draft.version,
+				revisionNumber: outcome.draft.revisionNumber
+			};
 	}
 }
 
@@ -51,15 +74,28 @@ export const actions: Actions = {
 		await owned(params.slug);
 		const data = await request.formData();
 		const op = data.get('op');
-		return { fields: applyOp(fromForm(data), typeof op === 'string' ? op : ''), version: Number(data.get('version')), edited: true };
+		return {
+			fields: applyOp(fromForm(data), typeof op === 'string' ? op : ''),
+			version: Number(data.get('version')),
+			edited: true
+		};
 	},
 	preview: async ({ params, request }) => {
 		await owned(params.slug);
 		const data = await request.formData();
 		const fields = fromForm(data);
 		const notes = buildNotesInput.safeParse(fields.buildNotes);
-		if (!notes.success) return fail(400, { fields, version: Number(data.get('version')), issues: fieldIssues(notes.error) });
-		return { fields, version: Number(data.get('version')), preview: drafts.previewNotes(notes.data) };
+		if (!notes.success)
+			return fail(400, {
+				fields,
+				version: Number(data.get('version')),
+				issues: fieldIssues(notes.error)
+			});
+		return {
+			fields,
+			version: Number(data.get('version')),
+			preview: drafts.previewNotes(notes.data)
+		};
 	},
 	save: async ({ params, request }) => {
 		const user = await owned(params.slug);
@@ -72,10 +108,18 @@ export const actions: Actions = {
 		const user = await owned(params.slug);
 		const result = await save(user.id, params.slug, await request.formData());
 		if (!result.ok) return result.failure;
-		const outcome = await drafts.submit(user.id, params.slug, result.version, { guidesUrl: new URL('/my/guides', url.origin).href });
+		const outcome = await drafts.submit(user.id, params.slug, result.version, {
+			guidesUrl: new URL('/my/guides', url.origin).href
+		});
 		if (outcome.kind === 'not_found') error(404, 'Guide not found');
 		if (outcome.kind === 'invalid' || outcome.kind === 'conflict') {
-			return fail(outcome.kind === 'conflict' ? 409 : 400, { version: result.version, issues: outcome.kind === 'invalid' ? outcome.issues : { _form: ['Changed elsewhere; reload and submit again.'] } });
+			return fail(outcome.kind === 'conflict' ? 409 : 400, {
+				version: result.version,
+				issues:
+					outcome.kind === 'invalid'
+						? outcome.issues
+						: { _form: ['Changed elsewhere; reload and submit again.'] }
+			});
 		}
 		redirect(303, `/my/guides?submitted=${encodeURIComponent(params.slug)}`);
 	}
