@@ -21,7 +21,7 @@ import { formatGBs, linkBandwidthGBs, pcieLabel } from './pcie';
 import {
 	cpuSustainedPower,
 	estimateLoad,
-	psuFeedsGpu,
+	psuFeedsGpus,
 	recommendedPsuW,
 	TARGET_LOAD_SHARE_PCT
 } from './power';
@@ -407,8 +407,9 @@ const psuRating: Rule = ({ build, psu }, out) => {
 };
 
 const gpuPowerConnectors: Rule = ({ gpus, psu }, out) => {
+	// One finding for all cards: the PSU's leads are a single budget (issue 13).
 	if (!psu) return;
-	for (const gpu of gpus) out.push(...psuFeedsGpu(psu, gpu));
+	out.push(...psuFeedsGpus(psu, gpus));
 };
 
 interface M2Drive {

@@ -332,24 +332,74 @@ function inletList(c: { pin6: number; pin8: number; h12v2x6: number }): string {
 	return parts.length ? parts.join(' + ') : 'no power connectors';
 }
 
+function leads(n: number, kind: string): string {
+	return `${n} ${kind} lead${n === 1 ? '' : 's'}`;
+}
+
+/** "Card A", "2 × Card A", "Card A and Card B": the cards a lead finding is about. */
+function cardsText(gpus: readonly BuildPartOf<'gpu'>[]): string {
+	const names = gpus.map((g) => (g.quantity > 1 ? `${g.quantity} × ${partName(g)}` : partName(g)));
+	return names.length <= 2
+		? names.join(' and ')
+		: `${names.slice(0, -1).join(', ')} and ${names.at(-1)}`;
+}
+
+/** One 12V-2x6 inlet of one card: the power it must carry and the 8-pin leads an adapter needs. */
+interface H12Inlet {
+	perInletW: number;
+	eightsEach: number;
+}
+
+function h12Inlets(gpu: BuildPartOf<'gpu'>): H12Inlet[] {
+	const s = gpu.part.specs;
+	const c = s.powerConnectors;
+	if (c.h12v2x6 === 0) return [];
+	// Power one 12V-2x6 inlet must carry: board power less the slot and the other inlets.
+	const connectorW = Math.max(
+		0,
+		s.boardPowerW - PCIE_SLOT_W - c.pin8 * CONNECTOR_W.pin8 - c.pin6 * CONNECTOR_W.pin6
+	);
+	const perInletW = Math.ceil(connectorW / c.h12v2x6);
+	// Adapters come with two to four 8-pin plugs (2 × 150 = 300 W up to 4 × 150 = 600 W).
+	const eightsEach = Math.min(4, Math.max(2, Math.ceil(perInletW / CONNECTOR_W.pin8)));
+	const one: H12Inlet = { perInletW, eightsEach };
+	return Array.from({ length: c.h12v2x6 * gpu.quantity }, () => one);
+}
+
 /**
- * Whether the PSU's leads can feed the card's power inlets. Rules, kept simple:
+ * Whether the PSU's leads can feed the power inlets of every graphics card in the build.
+ * The leads are one budget shared by all cards and all units of a quantity: a lead plugged
+ * into one card is not there for the next. Rules, kept simple:
  * 8-pin inlets need 8-pin leads; 6-pin inlets take 6-pin leads or spare 8-pin leads
  * (PSU 8-pin PCIe leads are usually 6+2); 12V-2x6 inlets want a native 12V-2x6 lead,
  * otherwise an adapter from 8-pin leads at 150 W each (2 × 8-pin = 300 W, up to
  * 4 × 8-pin = 600 W) is a caution: it works, but adds plugs that must be fully seated.
- * Anything short of that is a conflict.
+ * Anything short of that is a conflict. Whether the counts add up does not depend on the
+ * order the cards are taken in: each kind of inlet draws on its own kind of lead first
+ * and the spare 8-pin leads are counted once for everything that can use them.
  */
-export function psuFeedsGpu(psu: BuildPartOf<'psu'>, gpu: BuildPartOf<'gpu'>): Finding[] {
+export function psuFeedsGpus(
+	psu: BuildPartOf<'psu'>,
+	gpus: readonly BuildPartOf<'gpu'>[]
+): Finding[] {
+	if (gpus.length === 0) return [];
 	const rule = 'gpu-power-connectors';
-	const slots = [gpu.key, psu.key];
-	const cardName = partName(gpu);
+	const slots = [...gpus.map((g) => g.key), psu.key];
 	const psuName = partName(psu);
-	const q = gpu.quantity;
-	const inlets = gpu.part.specs.powerConnectors;
-	const leads = psu.part.specs.connectors;
-	const need = { pin6: inlets.pin6 * q, pin8: inlets.pin8 * q, h12v2x6: inlets.h12v2x6 * q };
-	const cards = q > 1 ? `${q} × ${cardName}` : cardName;
+	const cards = cardsText(gpus);
+	// One slot reads as one subject ("2 × Card needs"); several slots are several ("A and B need").
+	const many = gpus.length > 1;
+	const units = gpus.reduce((n, g) => n + g.quantity, 0);
+	const need1 = many ? 'need' : 'needs';
+	const inAll = units > 1 ? ' in all' : '';
+	const have = psu.part.specs.connectors;
+	const need = { pin6: 0, pin8: 0, h12v2x6: 0 };
+	for (const g of gpus) {
+		const c = g.part.specs.powerConnectors;
+		need.pin6 += c.pin6 * g.quantity;
+		need.pin8 += c.pin8 * g.quantity;
+		need.h12v2x6 += c.h12v2x6 * g.quantity;
+	}
 
 	if (need.pin6 + need.pin8 + need.h12v2x6 === 0) {
 		return [
@@ -357,24 +407,24 @@ export function psuFeedsGpu(psu: BuildPartOf<'psu'>, gpu: BuildPartOf<'gpu'>): F
 				rule,
 				severity: 'ok',
 				slots,
-				message: `${cards} draws only from its slot (${PCIE_SLOT_W} W); ${psuName} needs no graphics leads for it.`
+				message: `${cards} ${units > 1 ? 'draw' : 'draws'} only from the PCIe slot (${PCIE_SLOT_W} W per card); ${psuName} needs no graphics leads for ${units > 1 ? 'them' : 'it'}.`
 			}
 		];
 	}
 
 	const findings: Finding[] = [];
-	let spare8 = leads.pin8 - need.pin8;
+	let spare8 = have.pin8 - need.pin8;
 	if (spare8 < 0) {
 		findings.push({
 			rule,
 			severity: 'conflict',
 			slots,
-			message: `${cards} needs ${need.pin8} × 8-pin PCIe power; ${psuName} has ${leads.pin8} 8-pin lead${leads.pin8 === 1 ? '' : 's'}.`
+			message: `${cards} ${need1} ${need.pin8} × 8-pin PCIe power${inAll}; ${psuName} has ${leads(have.pin8, '8-pin')}.`
 		});
 		spare8 = 0;
 	}
 
-	const sixFromSix = Math.min(need.pin6, leads.pin6);
+	const sixFromSix = Math.min(need.pin6, have.pin6);
 	const sixFromEight = Math.min(need.pin6 - sixFromSix, spare8);
 	spare8 -= sixFromEight;
 	if (sixFromSix + sixFromEight < need.pin6) {
@@ -382,48 +432,44 @@ export function psuFeedsGpu(psu: BuildPartOf<'psu'>, gpu: BuildPartOf<'gpu'>): F
 			rule,
 			severity: 'conflict',
 			slots,
-			message: `${cards} needs ${need.pin6} × 6-pin PCIe power; ${psuName} has ${leads.pin6} 6-pin and not enough spare 8-pin (6+2) leads.`
+			message: `${cards} ${need1} ${need.pin6} × 6-pin PCIe power${inAll}; ${psuName} has ${leads(have.pin6, '6-pin')} and not enough spare 8-pin (6+2) leads.`
 		});
 	}
 
-	const native = Math.min(need.h12v2x6, leads.h12v2x6);
-	const viaAdapter = need.h12v2x6 - native;
-	if (viaAdapter > 0) {
-		// Power one 12V-2x6 inlet must carry: board power less the slot and other inlets.
-		const perCardConnectorW = Math.max(
-			0,
-			gpu.part.specs.boardPowerW -
-				PCIE_SLOT_W -
-				inlets.pin8 * CONNECTOR_W.pin8 -
-				inlets.pin6 * CONNECTOR_W.pin6
-		);
-		const perInletW = Math.ceil(perCardConnectorW / inlets.h12v2x6);
-		const eightsEach = Math.min(4, Math.max(2, Math.ceil(perInletW / CONNECTOR_W.pin8)));
-		const eightsNeeded = eightsEach * viaAdapter;
+	// Native 12V-2x6 leads go to the inlets that would need the most 8-pin leads otherwise.
+	const inlets = gpus.flatMap(h12Inlets).sort((a, b) => b.eightsEach - a.eightsEach);
+	const viaAdapter = inlets.slice(Math.min(inlets.length, have.h12v2x6));
+	if (viaAdapter.length > 0) {
+		const eightsNeeded = viaAdapter.reduce((n, i) => n + i.eightsEach, 0);
+		const perInletW = Math.max(...viaAdapter.map((i) => i.perInletW));
+		const eightsEach = Math.max(...viaAdapter.map((i) => i.eightsEach));
+		const nativeText =
+			have.h12v2x6 === 0 ? 'no 12V-2x6 lead' : `only ${leads(have.h12v2x6, '12V-2x6')}`;
 		if (spare8 >= eightsNeeded) {
-			const adapterNote = ` via an adapter from ${eightsEach} × 8-pin (${eightsEach} × ${CONNECTOR_W.pin8} W = ${eightsEach * CONNECTOR_W.pin8} W)`;
+			const adapters = viaAdapter.length === 1 ? 'an adapter' : `${viaAdapter.length} adapters`;
 			findings.push({
 				rule,
 				severity: 'caution',
 				slots,
-				message: `${cards} has a 12V-2x6 inlet and ${psuName} has ${leads.h12v2x6 === 0 ? 'no 12V-2x6 lead' : `only ${leads.h12v2x6} 12V-2x6 lead${leads.h12v2x6 === 1 ? '' : 's'}`}: it can be fed${adapterNote}, carrying about ${perInletW} W. Use the adapter supplied with the card, push every plug fully home, and do not bend the cable close to the plug.`
+				message: `${cards} ${need.h12v2x6 === 1 ? 'has a 12V-2x6 inlet' : `${many ? 'have' : 'has'} ${need.h12v2x6} 12V-2x6 inlets`} and ${psuName} has ${nativeText}: ${viaAdapter.length < need.h12v2x6 ? `${viaAdapter.length} of them` : viaAdapter.length === 1 ? 'it' : 'they'} can be fed via ${adapters} from ${eightsEach} × 8-pin (${eightsEach} × ${CONNECTOR_W.pin8} W = ${eightsEach * CONNECTOR_W.pin8} W)${viaAdapter.length === 1 ? '' : ' each'}, carrying about ${perInletW} W. Use the adapter supplied with the card, push every plug fully home, and do not bend the cable close to the plug.`
 			});
 		} else {
 			findings.push({
 				rule,
 				severity: 'conflict',
 				slots,
-				message: `${cards} needs ${need.h12v2x6} × 12V-2x6 (about ${perInletW} W each); ${psuName} has ${leads.h12v2x6} 12V-2x6 lead${leads.h12v2x6 === 1 ? '' : 's'} and only ${spare8} spare 8-pin lead${spare8 === 1 ? '' : 's'}, short of the ${eightsNeeded} an adapter needs.`
+				message: `${cards} ${need1} ${need.h12v2x6} × 12V-2x6${inAll} (about ${perInletW} W each); ${psuName} has ${leads(have.h12v2x6, '12V-2x6')} and only ${spare8} spare 8-pin lead${spare8 === 1 ? '' : 's'}, short of the ${eightsNeeded} ${viaAdapter.length === 1 ? 'an adapter needs' : 'the adapters need'}.`
 			});
 		}
 	}
 
 	if (findings.length === 0) {
+		const perCard = `${inletList(need)}${inAll}`;
 		findings.push({
 			rule,
 			severity: 'ok',
 			slots,
-			message: `${psuName} has native leads for every power inlet of ${cards} (${inletList(inlets)}).`
+			message: `${psuName} has native leads for every power inlet of ${cards} (${perCard}).`
 		});
 	}
 	return findings;
@@ -467,7 +513,9 @@ export function powerBudget(parts: BuildParts): PowerBudget {
 			withinDeliverable: gpu.part.specs.boardPowerW <= deliverableW
 		};
 		if (psu)
-			budget.gpu.connectorsOk = !psuFeedsGpu(psu, gpu).some((f) => f.severity === 'conflict');
+			budget.gpu.connectorsOk = !psuFeedsGpus(psu, slotsOf(parts, 'gpu')).some(
+				(f) => f.severity === 'conflict'
+			);
 	}
 	return budget;
 }

@@ -7,6 +7,7 @@ import {
 	summarize,
 	type Finding
 } from '$lib/domain/fit';
+import { powerBudget } from '$lib/domain/power';
 import {
 	boardAm5Atx,
 	caseAtx,
@@ -560,5 +561,56 @@ describe('fit report', () => {
 			)
 		);
 		expect(summarize(findings)).toEqual({ ok: 12, caution: 1, conflict: 1, worst: 'conflict' });
+	});
+});
+
+describe('issue 13: graphics-card leads are one budget for every card', () => {
+	// Two cards, each 2 × 8-pin, on a PSU with three 8-pin leads: 2 + 2 = 4 inlets, 3 leads,
+	// so one inlet has no lead (D). A lead feeds one inlet (docs/sources.md 2b, V: one 8-pin
+	// connector per 8-pin inlet).
+	const cardB = slot('gpu', 'gpu2', 'Ferrant', 'Kestrel 12G', {
+		chip: 'K60',
+		vramGb: 12,
+		lengthMm: 280,
+		slotWidth: 2,
+		boardPowerW: 220,
+		powerConnectors: { pin6: 0, pin8: 2, h12v2x6: 0 },
+		pcieGen: 4
+	});
+	const threeLeads = slot('psu', 'psu', 'Ostery', 'Current 1000', {
+		...psu850.part.specs,
+		ratedW: 1000,
+		connectors: { pin6: 0, pin8: 3, h12v2x6: 0, eps8: 2 }
+	});
+
+	it('two cards in separate slots share the leads: 4 × 8-pin needed, 3 there → one conflict', () => {
+		const findings = byRule(fitReport(withSlots(threeLeads, cardB)), 'gpu-power-connectors');
+		expect(findings.map((f) => f.severity)).toEqual(['conflict']);
+		expect(findings[0]!.slots).toEqual(['gpu', 'gpu2', 'psu']);
+		expect(findings[0]!.message).toBe(
+			'Ferrant Kestrel 16G and Ferrant Kestrel 12G need 4 × 8-pin PCIe power in all; Ostery Current 1000 has 3 8-pin leads.'
+		);
+	});
+
+	it('the power budget checks the leads against every card, not only the first', () => {
+		expect(powerBudget(withSlots(threeLeads, cardB)).gpu?.connectorsOk).toBe(false);
+	});
+
+	it('one card slot with quantity 2 counts the same way', () => {
+		const findings = byRule(
+			fitReport(withSlots(threeLeads, { ...gpu2x8, quantity: 2 })),
+			'gpu-power-connectors'
+		);
+		expect(findings.map((f) => f.severity)).toEqual(['conflict']);
+		expect(findings[0]!.message).toContain('2 × Ferrant Kestrel 16G needs 4 × 8-pin');
+	});
+
+	it('with four 8-pin leads both cards are fed', () => {
+		const four = slot('psu', 'psu', 'Ostery', 'Current 1000', {
+			...threeLeads.part.specs,
+			connectors: { pin6: 0, pin8: 4, h12v2x6: 0, eps8: 2 }
+		});
+		const findings = byRule(fitReport(withSlots(four, cardB)), 'gpu-power-connectors');
+		expect(findings.map((f) => f.severity)).toEqual(['ok']);
 	});
 });

@@ -12,7 +12,7 @@ import {
 	gpuDeliverableW,
 	PCIE_SLOT_W,
 	powerBudget,
-	psuFeedsGpu,
+	psuFeedsGpus,
 	recommendedPsuW
 } from '$lib/domain/power';
 import {
@@ -247,7 +247,7 @@ describe('PSU leads vs card inlets', () => {
 		});
 
 	it('native leads for every inlet: ok', () => {
-		const findings = psuFeedsGpu(psu850, gpu2x8);
+		const findings = psuFeedsGpus(psu850, [gpu2x8]);
 		expect(findings).toHaveLength(1);
 		expect(findings[0]).toMatchObject({
 			rule: 'gpu-power-connectors',
@@ -259,11 +259,11 @@ describe('PSU leads vs card inlets', () => {
 	});
 
 	it('a 12V-2x6 card with a native 12V-2x6 lead: ok', () => {
-		expect(psuFeedsGpu(psu850, card(450, 0, 0, 1)).map((f) => f.severity)).toEqual(['ok']);
+		expect(psuFeedsGpus(psu850, [card(450, 0, 0, 1)]).map((f) => f.severity)).toEqual(['ok']);
 	});
 
 	it('a 300 W 12V-2x6 card on 8-pin leads: caution, adapter from 2 × 8-pin = 300 W (2b, V: 150 W per 8-pin; D: 300 − 75 slot = 225 W → 2 leads)', () => {
-		const [f, ...rest] = psuFeedsGpu(supply(0, 3, 0), card(300, 0, 0, 1));
+		const [f, ...rest] = psuFeedsGpus(supply(0, 3, 0), [card(300, 0, 0, 1)]);
 		expect(rest).toEqual([]);
 		expect(f?.severity).toBe('caution');
 		expect(f?.message).toContain('2 × 8-pin (2 × 150 W = 300 W)');
@@ -271,16 +271,16 @@ describe('PSU leads vs card inlets', () => {
 	});
 
 	it('a 450 W 12V-2x6 card needs 3 × 8-pin through an adapter (D: 450 − 75 = 375 W → ⌈375 / 150⌉ = 3); two leads are a conflict', () => {
-		expect(psuFeedsGpu(supply(0, 3, 0), card(450, 0, 0, 1))[0]?.message).toContain(
+		expect(psuFeedsGpus(supply(0, 3, 0), [card(450, 0, 0, 1)])[0]?.message).toContain(
 			'3 × 8-pin (3 × 150 W = 450 W)'
 		);
-		const [f] = psuFeedsGpu(supply(0, 2, 0), card(450, 0, 0, 1));
+		const [f] = psuFeedsGpus(supply(0, 2, 0), [card(450, 0, 0, 1)]);
 		expect(f?.severity).toBe('conflict');
 		expect(f?.message).toMatch(/short of the 3 an adapter needs/);
 	});
 
 	it('too few 8-pin leads: conflict naming the counts', () => {
-		const [f] = psuFeedsGpu(supply(0, 1, 0), gpu2x8);
+		const [f] = psuFeedsGpus(supply(0, 1, 0), [gpu2x8]);
 		expect(f).toMatchObject({ severity: 'conflict' });
 		expect(f?.message).toBe(
 			'Ferrant Kestrel 16G needs 2 × 8-pin PCIe power; Ostery Leads 0/1/0 has 1 8-pin lead.'
@@ -288,14 +288,16 @@ describe('PSU leads vs card inlets', () => {
 	});
 
 	it('6-pin inlets take spare 6+2 leads; without any it is a conflict', () => {
-		expect(psuFeedsGpu(supply(0, 2, 0), card(225, 1, 1, 0)).map((f) => f.severity)).toEqual(['ok']);
-		expect(psuFeedsGpu(supply(0, 1, 0), card(225, 1, 1, 0)).map((f) => f.severity)).toEqual([
+		expect(psuFeedsGpus(supply(0, 2, 0), [card(225, 1, 1, 0)]).map((f) => f.severity)).toEqual([
+			'ok'
+		]);
+		expect(psuFeedsGpus(supply(0, 1, 0), [card(225, 1, 1, 0)]).map((f) => f.severity)).toEqual([
 			'conflict'
 		]);
 	});
 
 	it('a card without power inlets draws from the slot only (75 W, 2a)', () => {
-		const [f] = psuFeedsGpu(supply(0, 0, 0), card(70, 0, 0, 0));
+		const [f] = psuFeedsGpus(supply(0, 0, 0), [card(70, 0, 0, 0)]);
 		expect(f?.severity).toBe('ok');
 		expect(f?.message).toContain('75 W');
 	});
