@@ -21,6 +21,7 @@ import { formatGBs, linkBandwidthGBs, pcieLabel } from './pcie';
 import {
 	cpuSustainedPower,
 	estimateLoad,
+	gpuBoardPower,
 	psuFeedsGpus,
 	recommendedPsuW,
 	TARGET_LOAD_SHARE_PCT
@@ -406,6 +407,10 @@ const psuRating: Rule = ({ build, psu }, out) => {
 	out.push({ rule: 'psu-rating', severity, slots: [psu.key], message });
 };
 
+const gpuBoardPowerRule: Rule = ({ gpus }, out) => {
+	for (const gpu of gpus) out.push(gpuBoardPower(gpu));
+};
+
 const gpuPowerConnectors: Rule = ({ gpus, psu }, out) => {
 	// One finding for all cards: the PSU's leads are a single budget (issue 13).
 	if (!psu) return;
@@ -605,6 +610,7 @@ const RULES: readonly Rule[] = [
 	coolerClearanceCase,
 	psuFormFactorCase,
 	psuRating,
+	gpuBoardPowerRule,
 	gpuPowerConnectors,
 	cpuCooling,
 	cpuGraphics,

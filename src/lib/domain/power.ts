@@ -14,7 +14,15 @@
  * Everything called an *allowance* below is common practice, no published source.
  */
 import type { CpuSpecs, GpuSpecs } from '../schemas/part-specs';
-import { partName, slotsOf, type BuildPartOf, type BuildParts, type Finding } from './build-parts';
+import {
+	partName,
+	slotsOf,
+	worstSeverity,
+	type BuildPartOf,
+	type BuildParts,
+	type Finding,
+	type Severity
+} from './build-parts';
 
 /** PCIe CEM: an x16 graphics slot delivers 75 W (66 W on +12 V, 9.9 W on +3.3 V). */
 export const PCIE_SLOT_W = 75;
@@ -475,6 +483,53 @@ export function psuFeedsGpus(
 	return findings;
 }
 
+/** "slot 75 W + 2 × 8-pin at 150 W" (the terms of gpuDeliverable, for messages). */
+function deliverableTerms(gpu: Pick<GpuSpecs, 'powerConnectors'>): string {
+	const c = gpu.powerConnectors;
+	const terms = [`slot ${PCIE_SLOT_W} W`];
+	if (c.h12v2x6) terms.push(`${c.h12v2x6} × 12V-2x6 at ${CONNECTOR_W.h12v2x6} W`);
+	if (c.pin8) terms.push(`${c.pin8} × 8-pin at ${CONNECTOR_W.pin8} W`);
+	if (c.pin6) terms.push(`${c.pin6} × 6-pin at ${CONNECTOR_W.pin6} W`);
+	return terms.join(' + ');
+}
+
+/**
+ * Whether a card's stated board power is within what its slot and inlets may deliver by
+ * the PCIe CEM limits (docs/sources.md 2a, 2b, 2e). A card stating more is a conflict: the
+ * figure is wrong, or the card would run its leads beyond their rating.
+ */
+export function gpuBoardPower(gpu: BuildPartOf<'gpu'>): Finding {
+	const d = gpuDeliverable(gpu.part.specs);
+	const stated = gpu.part.specs.boardPowerW;
+	const name = partName(gpu);
+	const terms = `${deliverableTerms(gpu.part.specs)}${d.capped ? `, capped at the ${d.ceilingW} W card ceiling of CEM 5.1` : ''}`;
+	return stated <= d.totalW
+		? {
+				rule: 'gpu-board-power',
+				severity: 'ok',
+				slots: [gpu.key],
+				message: `${name} states ${stated} W board power; its slot and power inlets may deliver ${d.totalW} W by the PCIe CEM limits (${terms}).`
+			}
+		: {
+				rule: 'gpu-board-power',
+				severity: 'conflict',
+				slots: [gpu.key],
+				message: `${name} states ${stated} W board power, more than its slot and power inlets may deliver by the PCIe CEM limits: ${d.totalW} W (${terms}). Check the figure with the card maker: drawing ${stated - d.totalW} W more would run the leads beyond their rating.`
+			};
+}
+
+/** One graphics card slot in the power budget. */
+export interface GpuPower {
+	key: string;
+	name: string;
+	quantity: number;
+	boardPowerW: number;
+	/** Slot + connectors by the PCIe CEM limits, capped at the CEM 5.1 card ceiling. */
+	deliverableW: number;
+	/** The `gpu-board-power` finding's severity. */
+	severity: Severity;
+}
+
 export interface PowerBudget {
 	loadW: number;
 	breakdown: PowerLine[];
@@ -483,39 +538,35 @@ export interface PowerBudget {
 	psuRatedW?: number;
 	/** Share of the rating left unused at the estimated load, whole percent. */
 	headroomPct?: number;
-	/** Present when the build has a graphics card (the first one). */
-	gpu?: {
-		deliverableW: number;
-		boardPowerW: number;
-		/** Board power within what slot + connectors may deliver by the CEM limits. */
-		withinDeliverable: boolean;
-		/** Present when there is a PSU: no conflict in psuFeedsGpu. */
-		connectorsOk?: boolean;
-	};
+	/** Every graphics card slot, in build order. */
+	gpus: GpuPower[];
+	/** With a PSU and at least one card: the worst `gpu-power-connectors` severity for all cards together. */
+	gpuLeads?: Severity;
 }
 
-/** Load estimate, recommended rating, PSU headroom and the graphics card's power paths. */
+/** Load estimate, recommended rating, PSU headroom and every graphics card's power paths. */
 export function powerBudget(parts: BuildParts): PowerBudget {
 	const { loadW, breakdown } = estimateLoad(parts);
-	const budget: PowerBudget = { loadW, breakdown, recommendedW: recommendedPsuW(loadW) };
+	const gpus = slotsOf(parts, 'gpu');
+	const budget: PowerBudget = {
+		loadW,
+		breakdown,
+		recommendedW: recommendedPsuW(loadW),
+		gpus: gpus.map((g) => ({
+			key: g.key,
+			name: partName(g),
+			quantity: g.quantity,
+			boardPowerW: g.part.specs.boardPowerW,
+			deliverableW: gpuDeliverableW(g.part.specs),
+			severity: gpuBoardPower(g).severity
+		}))
+	};
 	const psu = slotsOf(parts, 'psu')[0];
 	if (psu) {
 		const rated = psu.part.specs.ratedW;
 		budget.psuRatedW = rated;
 		budget.headroomPct = Math.round(((rated - loadW) * 100) / rated);
-	}
-	const gpu = slotsOf(parts, 'gpu')[0];
-	if (gpu) {
-		const deliverableW = gpuDeliverableW(gpu.part.specs);
-		budget.gpu = {
-			deliverableW,
-			boardPowerW: gpu.part.specs.boardPowerW,
-			withinDeliverable: gpu.part.specs.boardPowerW <= deliverableW
-		};
-		if (psu)
-			budget.gpu.connectorsOk = !psuFeedsGpus(psu, slotsOf(parts, 'gpu')).some(
-				(f) => f.severity === 'conflict'
-			);
+		if (gpus.length > 0) budget.gpuLeads = worstSeverity(psuFeedsGpus(psu, gpus));
 	}
 	return budget;
 }

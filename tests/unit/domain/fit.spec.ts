@@ -85,6 +85,7 @@ describe('fit report', () => {
 			'cooler-height-case',
 			'psu-form-factor-case',
 			'psu-rating',
+			'gpu-board-power',
 			'gpu-power-connectors',
 			'cooler-heat'
 		]);
@@ -94,7 +95,7 @@ describe('fit report', () => {
 			expect(f.slots.length).toBeGreaterThan(0);
 			for (const key of f.slots) expect(keys.has(key), key).toBe(true);
 		}
-		expect(summarize(findings)).toEqual({ ok: 14, caution: 0, conflict: 0, worst: 'ok' });
+		expect(summarize(findings)).toEqual({ ok: 15, caution: 0, conflict: 0, worst: 'ok' });
 	});
 
 	// "Done when" cases of issue 4, at domain level.
@@ -545,7 +546,10 @@ describe('fit report', () => {
 				'cpu-cooler',
 				'cpu-graphics'
 			]);
-			expect(fitReport([gpu2x8, nvmeGen4, cooler150, ddr5Kit])).toEqual([]);
+			// Without board, CPU, case or PSU only the card's own power check can run.
+			expect(fitReport([gpu2x8, nvmeGen4, cooler150, ddr5Kit]).map((f) => f.rule)).toEqual([
+				'gpu-board-power'
+			]);
 		});
 	});
 
@@ -560,7 +564,7 @@ describe('fit report', () => {
 				})
 			)
 		);
-		expect(summarize(findings)).toEqual({ ok: 12, caution: 1, conflict: 1, worst: 'conflict' });
+		expect(summarize(findings)).toEqual({ ok: 13, caution: 1, conflict: 1, worst: 'conflict' });
 	});
 });
 
@@ -593,7 +597,7 @@ describe('issue 13: graphics-card leads are one budget for every card', () => {
 	});
 
 	it('the power budget checks the leads against every card, not only the first', () => {
-		expect(powerBudget(withSlots(threeLeads, cardB)).gpu?.connectorsOk).toBe(false);
+		expect(powerBudget(withSlots(threeLeads, cardB)).gpuLeads).toBe('conflict');
 	});
 
 	it('one card slot with quantity 2 counts the same way', () => {
@@ -612,5 +616,55 @@ describe('issue 13: graphics-card leads are one budget for every card', () => {
 		});
 		const findings = byRule(fitReport(withSlots(four, cardB)), 'gpu-power-connectors');
 		expect(findings.map((f) => f.severity)).toEqual(['ok']);
+	});
+});
+
+describe('issue 13: board power above what the slot and connectors may deliver', () => {
+	// PCIe CEM: slot 75 W (docs/sources.md 2a, V2); 8-pin 150 W (2b, V).
+	// A 2 × 8-pin card may draw 75 + 2 × 150 = 375 W (D).
+	const hungry = slot('gpu', 'gpu', 'Ferrant', 'Kestrel OC', {
+		...gpu2x8.part.specs,
+		boardPowerW: 400
+	});
+
+	it('a 2 × 8-pin card stating 400 W is a conflict: 400 W > 375 W deliverable', () => {
+		const f = only(fitReport(withSlots(hungry)), 'gpu-board-power');
+		expect(f).toEqual({
+			rule: 'gpu-board-power',
+			severity: 'conflict',
+			slots: ['gpu'],
+			message:
+				'Ferrant Kestrel OC states 400 W board power, more than its slot and power inlets may deliver by the PCIe CEM limits: 375 W (slot 75 W + 2 × 8-pin at 150 W). Check the figure with the card maker: drawing 25 W more would run the leads beyond their rating.'
+		});
+	});
+
+	it('the same card at 375 W (exactly what may be delivered) is ok', () => {
+		const exact = slot('gpu', 'gpu', 'Ferrant', 'Kestrel 375', {
+			...gpu2x8.part.specs,
+			boardPowerW: 375
+		});
+		const f = only(fitReport(withSlots(exact)), 'gpu-board-power');
+		expect(f.severity).toBe('ok');
+		expect(f.message).toBe(
+			'Ferrant Kestrel 375 states 375 W board power; its slot and power inlets may deliver 375 W by the PCIe CEM limits (slot 75 W + 2 × 8-pin at 150 W).'
+		);
+	});
+
+	it('every card gets its own line, and the power budget lists every card', () => {
+		const second = slot('gpu', 'gpu2', 'Ferrant', 'Kestrel OC', {
+			...gpu2x8.part.specs,
+			boardPowerW: 400
+		});
+		const findings = byRule(fitReport(withSlots(second)), 'gpu-board-power');
+		expect(findings.map((f) => [f.slots[0], f.severity])).toEqual([
+			['gpu', 'ok'],
+			['gpu2', 'conflict']
+		]);
+		const budget = powerBudget(withSlots(second));
+		// 263 W within 375 W; 400 W above 375 W (D, from 2a and 2b).
+		expect(budget.gpus.map((g) => [g.key, g.boardPowerW, g.deliverableW, g.severity])).toEqual([
+			['gpu', 263, 375, 'ok'],
+			['gpu2', 400, 375, 'conflict']
+		]);
 	});
 });

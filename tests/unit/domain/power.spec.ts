@@ -311,7 +311,17 @@ describe('power budget', () => {
 			recommendedW: 850,
 			psuRatedW: 850,
 			headroomPct: 41,
-			gpu: { deliverableW: 375, boardPowerW: 263, withinDeliverable: true, connectorsOk: true }
+			gpus: [
+				{
+					key: 'gpu',
+					name: 'Ferrant Kestrel 16G',
+					quantity: 1,
+					boardPowerW: 263,
+					deliverableW: 375,
+					severity: 'ok'
+				}
+			],
+			gpuLeads: 'ok'
 		});
 	});
 
@@ -324,10 +334,10 @@ describe('power budget', () => {
 			connectors: { pin6: 0, pin8: 1, h12v2x6: 0, eps8: 1 },
 			atx3: false
 		});
-		expect(powerBudget(withSlots(weak)).gpu?.connectorsOk).toBe(false);
+		expect(powerBudget(withSlots(weak)).gpuLeads).toBe('conflict');
 		const noPsu = powerBudget([cpuAm5, cooler150, boardAm5Atx, ddr5Kit, nvmeGen4, gpu2x8, caseAtx]);
 		expect(noPsu.psuRatedW).toBeUndefined();
 		expect(noPsu.headroomPct).toBeUndefined();
-		expect(noPsu.gpu?.connectorsOk).toBeUndefined();
+		expect(noPsu.gpuLeads).toBeUndefined();
 	});
 });
