@@ -473,7 +473,7 @@ describe('fit report', () => {
 			);
 		});
 
-		it('a drive longer than the free slots take is a conflict (docs/sources.md 7: 2280 = 80 mm)', () => {
+		it('a drive longer than every slot takes is a conflict; a 2242 drive fits (docs/sources.md 7: 2280 = 80 mm)', () => {
 			const shortSlots = slot('motherboard', 'board', 'Quellbrook', 'B6 Tiny', {
 				...boardAm5Atx.part.specs,
 				m2Slots: [{ pcieGen: 4, maxLengthMm: 42 }]
@@ -481,7 +481,7 @@ describe('fit report', () => {
 			const f = only(fitReport(withSlots(shortSlots)), 'm2-length');
 			expect(f.severity).toBe('conflict');
 			expect(f.message).toBe(
-				'Brightmoor N4 2 TB is 80 mm long (M.2 2280); the free M.2 slots of Quellbrook B6 Tiny take up to 42 mm.'
+				'Brightmoor N4 2 TB is 80 mm long (M.2 2280); the M.2 slots of Quellbrook B6 Tiny take up to 42 mm.'
 			);
 			expect(
 				only(
@@ -666,5 +666,87 @@ describe('issue 13: board power above what the slot and connectors may deliver',
 			['gpu', 263, 375, 'ok'],
 			['gpu2', 400, 375, 'conflict']
 		]);
+	});
+});
+
+describe('issue 13: M.2 drives', () => {
+	const nvme = (
+		key: string,
+		model: string,
+		formFactor: 'm2-2280' | 'm2-2242' | 'm2-2230',
+		pcieGen?: 3 | 4 | 5
+	) =>
+		slot('storage', key, 'Brightmoor', model, {
+			interface: 'nvme',
+			formFactor,
+			...(pcieGen ? { pcieGen } : {}),
+			capacityGb: 1000,
+			readMbs: 5000,
+			writeMbs: 4000
+		});
+
+	it('an NVMe drive without a stated PCIe generation is "unknown generation", never an M.2 SATA drive', () => {
+		const f = only(fitReport(withSlots(nvme('storage', 'N? 1 TB', 'm2-2280'))), 'm2-slot');
+		expect(f.severity).toBe('caution');
+		expect(f.message).not.toMatch(/SATA/);
+		expect(f.message).toBe(
+			'Brightmoor N? 1 TB is an NVMe drive of unstated PCIe generation in M.2 slot 1 of Quellbrook B6 ATX (PCIe 5.0, up to 80 mm): NVMe drives work in any PCIe M.2 slot, but whether this slot runs it at full speed cannot be checked. Look up the drive’s PCIe generation.'
+		);
+	});
+
+	it('places drives so that every drive fits when some assignment fits (5.0 2242 and 4.0 2280 on a 5.0 80 mm + 4.0 42 mm board)', () => {
+		// Taking the fast slot for the fast drive leaves the 2280 drive only the 42 mm slot.
+		// The only placement that fits both: the 2280 drive in slot 1 (80 mm), the 2242 drive
+		// in slot 2 (42 mm), where the PCIe 5.0 drive runs at 4.0 speed: one caution, no
+		// conflict (docs/sources.md 7: 2280 = 80 mm, 2242 = 42 mm).
+		const board = slot('motherboard', 'board', 'Quellbrook', 'B6 Mixed', {
+			...boardAm5Atx.part.specs,
+			m2Slots: [
+				{ pcieGen: 5, maxLengthMm: 80 },
+				{ pcieGen: 4, maxLengthMm: 42 }
+			]
+		});
+		const findings = fitReport(
+			withSlots(
+				board,
+				nvme('storage', 'N4 2280', 'm2-2280', 4),
+				nvme('short', 'N5 2242', 'm2-2242', 5)
+			)
+		);
+		expect(byRule(findings, 'm2-length')).toEqual([]);
+		expect(byRule(findings, 'm2-slot').map((f) => [f.slots[0], f.severity])).toEqual([
+			['short', 'caution'],
+			['storage', 'ok']
+		]);
+	});
+
+	it('a 2280 drive on a board whose only slot takes 2242 is a conflict (80 mm > 42 mm, docs/sources.md 7)', () => {
+		const board = slot('motherboard', 'board', 'Quellbrook', 'B6 Tiny', {
+			...boardAm5Atx.part.specs,
+			m2Slots: [{ pcieGen: 4, maxLengthMm: 42 }]
+		});
+		const f = only(fitReport(withSlots(board)), 'm2-length');
+		expect(f.severity).toBe('conflict');
+		expect(f.message).toBe(
+			'Brightmoor N4 2 TB is 80 mm long (M.2 2280); the M.2 slots of Quellbrook B6 Tiny take up to 42 mm.'
+		);
+	});
+
+	it('two 2280 drives for one 80 mm slot and one 42 mm slot: the second is a conflict naming the taken slot', () => {
+		// 2 drives ≤ 2 slots, so not a count problem; only slot 1 takes 80 mm (docs/sources.md 7).
+		const board = slot('motherboard', 'board', 'Quellbrook', 'B6 Mixed', {
+			...boardAm5Atx.part.specs,
+			m2Slots: [
+				{ pcieGen: 5, maxLengthMm: 80 },
+				{ pcieGen: 4, maxLengthMm: 42 }
+			]
+		});
+		const findings = fitReport(
+			withSlots(board, { ...nvme('storage', 'N4 2280', 'm2-2280', 4), quantity: 2 })
+		);
+		expect(byRule(findings, 'm2-count')).toEqual([]);
+		expect(only(findings, 'm2-length').message).toBe(
+			'Brightmoor N4 2280 is 80 mm long (M.2 2280); the M.2 slot of Quellbrook B6 Mixed long enough for it (slot 1) is taken by the other M.2 drives.'
+		);
 	});
 });
