@@ -23,6 +23,7 @@ import {
 	estimateLoad,
 	gpuBoardPower,
 	psuFeedsGpus,
+	radiatorFans,
 	recommendedPsuW,
 	TARGET_LOAD_SHARE_PCT
 } from './power';
@@ -101,6 +102,7 @@ interface Context {
 	gpus: BuildPartOf<'gpu'>[];
 	memory: BuildPartOf<'memory'>[];
 	storage: BuildPartOf<'storage'>[];
+	fans: BuildPartOf<'fan'>[];
 }
 
 type Rule = (ctx: Context, out: Finding[]) => void;
@@ -630,6 +632,131 @@ const sataPorts: Rule = ({ storage, board }, out) => {
 	);
 };
 
+/** "Name" or "3 × Name", for each slot, joined. */
+function countedNames(
+	slots: readonly { quantity: number; part: { brand: string; model: string } }[]
+) {
+	return listText(
+		slots.map((s) => (s.quantity > 1 ? `${s.quantity} × ${partName(s)}` : partName(s)))
+	);
+}
+
+/**
+ * Drive bays (common practice, no published source; docs/sources.md "Drive bays and fan
+ * mounts"): a 3.5-inch drive needs a 3.5-inch bay. A 2.5-inch drive takes a 2.5-inch bay,
+ * or else a 3.5-inch bay no 3.5-inch drive uses (many 3.5-inch trays take a 2.5-inch drive
+ * or do with an adapter bracket: a caution). M.2 drives sit on the board and need no bay.
+ */
+const driveBays: Rule = ({ storage, pcCase }, out) => {
+	if (!pcCase) return;
+	const c = pcCase.part.specs;
+	const big = storage.filter((s) => s.part.specs.formFactor === '3.5in');
+	const small = storage.filter((s) => s.part.specs.formFactor === '2.5in');
+	const count = (list: typeof storage) => list.reduce((n, s) => n + s.quantity, 0);
+	const caseName = partName(pcCase);
+	const n35 = count(big);
+	const n25 = count(small);
+	if (n35 > 0) {
+		const slots = [...big.map((s) => s.key), pcCase.key];
+		out.push(
+			n35 <= c.bays35
+				? {
+						rule: 'drive-bays',
+						severity: 'ok',
+						slots,
+						message: `${countedNames(big)}: ${plural(n35, '3.5-inch drive')} for the ${plural(c.bays35, '3.5-inch bay')} of ${caseName}.`
+					}
+				: {
+						rule: 'drive-bays',
+						severity: 'conflict',
+						slots,
+						message: `${countedNames(big)}: ${plural(n35, '3.5-inch drive')}, but ${caseName} has ${plural(c.bays35, '3.5-inch bay')}.`
+					}
+		);
+	}
+	if (n25 > 0) {
+		const slots = [...small.map((s) => s.key), pcCase.key];
+		const free35 = Math.max(0, c.bays35 - n35);
+		const overflow = Math.max(0, n25 - c.bays25);
+		const names = countedNames(small);
+		if (overflow === 0) {
+			out.push({
+				rule: 'drive-bays',
+				severity: 'ok',
+				slots,
+				message: `${names}: ${plural(n25, '2.5-inch drive')} for the ${plural(c.bays25, '2.5-inch bay')} of ${caseName}.`
+			});
+		} else if (overflow <= free35) {
+			out.push({
+				rule: 'drive-bays',
+				severity: 'caution',
+				slots,
+				message: `${names}: ${plural(n25, '2.5-inch drive')} for the ${plural(c.bays25, '2.5-inch bay')} of ${caseName}; ${overflow} go${overflow === 1 ? 'es' : ''} in free 3.5-inch bays, which often take a 2.5-inch drive on the same tray or with an adapter bracket: check the case manual.`
+			});
+		} else {
+			out.push({
+				rule: 'drive-bays',
+				severity: 'conflict',
+				slots,
+				message: `${names}: ${plural(n25, '2.5-inch drive')}, but ${caseName} has ${plural(c.bays25, '2.5-inch bay')} and ${plural(free35, 'free 3.5-inch bay')}.`
+			});
+		}
+	}
+};
+
+/**
+ * Fan mounts (common practice, no published source): the case's included fans, every added
+ * fan (a pack counts its fans, times the slot's quantity) and one mount per fan a liquid
+ * cooler's radiator carries (a 360 mm radiator covers three 120 mm mounts) must fit the
+ * case's mounts. When only the included fans are in the way, it is a caution: builders
+ * take them out or move them onto the radiator. More than the mounts even without them is
+ * a conflict.
+ */
+const fanMounts: Rule = ({ fans, coolers, pcCase }, out) => {
+	if (!pcCase) return;
+	const c = pcCase.part.specs;
+	const added = fans.reduce((n, f) => n + f.part.specs.count * f.quantity, 0);
+	const radiators = coolers.filter((x) => x.part.specs.type === 'liquid');
+	const radiatorMounts = radiators.reduce(
+		(n, x) => n + radiatorFans(x.part.specs.radiatorMm ?? 0) * x.quantity,
+		0
+	);
+	if (added === 0 && radiatorMounts === 0) return;
+	const parts: string[] = [];
+	if (c.includedFans > 0) parts.push(plural(c.includedFans, 'included fan'));
+	if (added > 0) parts.push(`${plural(added, 'added fan')} (${countedNames(fans)})`);
+	for (const r of radiators) {
+		const mm = r.part.specs.radiatorMm ?? 0;
+		const mounts = radiatorFans(mm) * r.quantity;
+		parts.push(
+			`the ${mm} mm radiator of ${r.quantity > 1 ? `${r.quantity} × ` : ''}${partName(r)} (${plural(mounts, 'mount')})`
+		);
+	}
+	const what = parts.length > 1 ? `${parts.slice(0, -1).join(', ')} and ${parts.at(-1)}` : parts[0];
+	const used = c.includedFans + added + radiatorMounts;
+	const without = added + radiatorMounts;
+	const slots = [...fans.map((f) => f.key), ...radiators.map((r) => r.key), pcCase.key];
+	const caseName = partName(pcCase);
+	const head = `${what} need ${plural(used, 'fan mount')}; ${caseName} has ${c.fanMounts}.`;
+	if (used <= c.fanMounts) {
+		out.push({ rule: 'fan-mounts', severity: 'ok', slots, message: head });
+	} else if (without <= c.fanMounts) {
+		out.push({
+			rule: 'fan-mounts',
+			severity: 'caution',
+			slots,
+			message: `${head} Without the included fans the rest need ${without}, so ${used - c.fanMounts} of the included fans must come out or move.`
+		});
+	} else {
+		out.push({
+			rule: 'fan-mounts',
+			severity: 'conflict',
+			slots,
+			message: `${head} Even without the included fans the rest need ${without}.`
+		});
+	}
+};
+
 const cpuCooling: Rule = ({ cpu, coolers }, out) => {
 	if (!cpu || coolers.length > 0) return;
 	out.push(
@@ -707,6 +834,8 @@ const RULES: readonly Rule[] = [
 	gpuLengthCase,
 	coolerClearanceCase,
 	psuFormFactorCase,
+	driveBays,
+	fanMounts,
 	psuRating,
 	gpuBoardPowerRule,
 	gpuPowerConnectors,
@@ -726,7 +855,8 @@ export function fitReport(build: BuildParts): Finding[] {
 		coolers: slotsOf(build, 'cooler'),
 		gpus: slotsOf(build, 'gpu'),
 		memory: slotsOf(build, 'memory'),
-		storage: slotsOf(build, 'storage')
+		storage: slotsOf(build, 'storage'),
+		fans: slotsOf(build, 'fan')
 	};
 	const out: Finding[] = [];
 	for (const rule of RULES) rule(ctx, out);

@@ -137,8 +137,11 @@ export interface LoadEstimate {
 
 const ALLOWANCE_NOTE = 'allowance, common practice (no published source)';
 
-/** Fans on a radiator: 140 mm fans on 140/280/420 mm radiators, 120 mm ones otherwise. */
-function radiatorFans(radiatorMm: number): number {
+/**
+ * Fans on a radiator, which is also the number of case fan mounts it covers: 140 mm fans on
+ * 140/280/420 mm radiators, 120 mm ones otherwise (common practice, no published source).
+ */
+export function radiatorFans(radiatorMm: number): number {
 	return radiatorMm % 140 === 0 ? radiatorMm / 140 : Math.round(radiatorMm / 120);
 }
 

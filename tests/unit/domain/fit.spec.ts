@@ -750,3 +750,89 @@ describe('issue 13: M.2 drives', () => {
 		);
 	});
 });
+
+describe('issue 13: drive bays and fan mounts (common practice, no published source)', () => {
+	// caseAtx: 2 × 2.5-inch bays, 2 × 3.5-inch bays, 9 fan mounts, 3 included fans.
+	const hdd = (quantity: number) =>
+		slot(
+			'storage',
+			'hdd',
+			'Brightmoor',
+			'Vault 8 TB',
+			{ interface: 'sata', formFactor: '3.5in', capacityGb: 8000, readMbs: 250, writeMbs: 250 },
+			quantity
+		);
+	const ssd = (quantity: number) =>
+		slot(
+			'storage',
+			'ssd',
+			'Brightmoor',
+			'S2 1 TB',
+			{ interface: 'sata', formFactor: '2.5in', capacityGb: 1000, readMbs: 550, writeMbs: 500 },
+			quantity
+		);
+	const fans = (count: number, quantity: number) =>
+		slot(
+			'fan',
+			'fans',
+			'Ostery',
+			`Draft 120 (${count}-pack)`,
+			{ sizeMm: 120, count, maxRpm: 1500 },
+			quantity
+		);
+	const sixMounts = slot('case', 'case', 'Halden', 'Compact', {
+		...caseAtx.part.specs,
+		fanMounts: 6,
+		includedFans: 2
+	});
+
+	it('three 3.5-inch drives in a case with two 3.5-inch bays: conflict (3 > 2)', () => {
+		const f = only(fitReport(withSlots(hdd(3))), 'drive-bays');
+		expect(f.severity).toBe('conflict');
+		expect(f.slots).toEqual(['hdd', 'case']);
+		expect(f.message).toBe(
+			'3 × Brightmoor Vault 8 TB: 3 3.5-inch drives, but Halden Atrium has 2 3.5-inch bays.'
+		);
+	});
+
+	it('two 3.5-inch drives for two bays: ok (2 = 2)', () => {
+		expect(only(fitReport(withSlots(hdd(2))), 'drive-bays').severity).toBe('ok');
+	});
+
+	it('2.5-inch drives use 2.5-inch bays, then free 3.5-inch bays (caution), then none (conflict)', () => {
+		// 2 ≤ 2 → ok; 4 = 2 + 2 free 3.5-inch bays → caution; 5 > 2 + 2 → conflict.
+		expect(only(fitReport(withSlots(ssd(2))), 'drive-bays').severity).toBe('ok');
+		const four = only(fitReport(withSlots(ssd(4))), 'drive-bays');
+		expect(four.severity).toBe('caution');
+		expect(four.message).toBe(
+			'4 × Brightmoor S2 1 TB: 4 2.5-inch drives for the 2 2.5-inch bays of Halden Atrium; 2 go in free 3.5-inch bays, which often take a 2.5-inch drive on the same tray or with an adapter bracket: check the case manual.'
+		);
+		expect(only(fitReport(withSlots(ssd(5))), 'drive-bays').severity).toBe('conflict');
+	});
+
+	it('eight fans for six mounts: 2 included + 2 × 3-pack = 8 > 6, but the 6 added fit once the included ones come out → caution', () => {
+		const f = only(fitReport(withSlots(sixMounts, fans(3, 2))), 'fan-mounts');
+		expect(f.severity).toBe('caution');
+		expect(f.message).toBe(
+			'2 included fans and 6 added fans (2 × Ostery Draft 120 (3-pack)) need 8 fan mounts; Halden Compact has 6. Without the included fans the rest need 6, so 2 of the included fans must come out or move.'
+		);
+	});
+
+	it('eight added fans for six mounts: conflict even without the included fans (8 > 6)', () => {
+		const f = only(fitReport(withSlots(sixMounts, fans(4, 2))), 'fan-mounts');
+		expect(f.severity).toBe('conflict');
+	});
+
+	it('a 360 mm radiator takes three 120 mm fan mounts: 2 included + 3 = 5 ≤ 6 → ok; with a 3-pack, 8 > 6 → caution', () => {
+		const loop = slot('cooler', 'cooler', 'Ostery', 'Loop 360', {
+			type: 'liquid',
+			radiatorMm: 360,
+			sockets: ['AM5'],
+			ratedHeatW: 300
+		});
+		expect(only(fitReport(withSlots(sixMounts, loop)), 'fan-mounts').severity).toBe('ok');
+		expect(only(fitReport(withSlots(sixMounts, loop, fans(3, 1))), 'fan-mounts').severity).toBe(
+			'caution'
+		);
+	});
+});
