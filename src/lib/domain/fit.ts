@@ -24,8 +24,8 @@ import {
 	gpuBoardPower,
 	psuFeedsGpus,
 	radiatorFans,
-	recommendedPsuW,
-	TARGET_LOAD_SHARE_PCT
+	MAX_LOAD_SHARE,
+	psuSizing
 } from './power';
 
 export type { BuildPart, BuildParts, Finding, Severity } from './build-parts';
@@ -388,25 +388,21 @@ const psuFormFactorCase: Rule = ({ psu, pcCase }, out) => {
 	);
 };
 
+/** PSU rating against the estimated load: one threshold for severity and recommendation. */
 const psuRating: Rule = ({ build, psu }, out) => {
 	if (!psu) return;
 	const { loadW } = estimateLoad(build);
 	const rated = psu.part.specs.ratedW;
-	const recommended = recommendedPsuW(loadW);
-	const sharePct = Math.round((loadW * 100) / rated);
-	const basis = `so the load stays at or below ${TARGET_LOAD_SHARE_PCT} % of the rating (common practice)`;
-	let severity: Severity = 'ok';
-	let message = `${partName(psu)} is rated ${rated} W; the estimated load of ${loadW} W is ${sharePct} % of it. Recommended: at least ${recommended} W, ${basis}.`;
-	if (rated < loadW) {
-		severity = 'conflict';
-		message = `${partName(psu)} is rated ${rated} W, below the estimated load of ${loadW} W. Recommended: ${recommended} W.`;
-	} else if (loadW * 3 > rated * 2) {
-		// docs/architecture.md: the load should sit near half to two-thirds of the rating. The
-		// recommendation aims at 60 %; only a load beyond two-thirds earns a caution.
-		severity = 'caution';
-		message = `${partName(psu)} is rated ${rated} W; the estimated load of ${loadW} W is ${sharePct} % of it. Recommended: ${recommended} W, ${basis}.`;
-	}
-	out.push({ rule: 'psu-rating', severity, slots: [psu.key], message });
+	const sizing = psuSizing(loadW, rated);
+	const share = MAX_LOAD_SHARE.words;
+	const atLeast = `at least ${sizing.minimumW} W${sizing.recommendedW === sizing.minimumW ? '' : ` (the next common size is ${sizing.recommendedW} W)`}`;
+	const name = partName(psu);
+	const message = {
+		ok: `${name} is rated ${rated} W; the estimated load of ${loadW} W is within ${share} of it (${sizing.maxLoadW} W). Common practice, no published source.`,
+		caution: `${name} is rated ${rated} W; the estimated load of ${loadW} W is above ${share} of it (${sizing.maxLoadW} W). Recommended: ${atLeast}, so the load stays within ${share} of the rating (common practice, no published source).`,
+		conflict: `${name} is rated ${rated} W, below the estimated load of ${loadW} W. Recommended: ${atLeast}.`
+	}[sizing.severity];
+	out.push({ rule: 'psu-rating', severity: sizing.severity, slots: [psu.key], message });
 };
 
 const gpuBoardPowerRule: Rule = ({ gpus }, out) => {

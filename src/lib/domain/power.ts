@@ -56,11 +56,12 @@ export const ALLOWANCE_W = {
 /** Common PSU ratings on the market, in W (common practice, no published source). */
 export const COMMON_PSU_SIZES_W = [450, 550, 650, 750, 850, 1000, 1200, 1300, 1500, 1600] as const;
 /**
- * Target: the estimated load at most 60 % of the rating, so it sits near half to
- * two-thirds after rounding up to a common size, where units run cool and quiet, with
- * room for short spikes (common practice, no published source; docs/sources.md 15).
+ * The one PSU sizing threshold (docs/sources.md "PSU sizing threshold"; common practice, no
+ * published source): the estimated sustained load at most two thirds of the rating. The
+ * severity of the `psu-rating` finding, the minimum and the recommended rating all come
+ * from it, so the report never calls a supply fine while recommending a larger one.
  */
-export const TARGET_LOAD_SHARE_PCT = 60;
+export const MAX_LOAD_SHARE = { numerator: 2, denominator: 3, words: 'two thirds' } as const;
 
 export type CpuPowerBasis = 'stated' | 'amd-ppt' | 'intel-base-power' | 'tdp';
 
@@ -289,17 +290,52 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 	return { loadW, breakdown: lines };
 }
 
+function checkLoad(loadW: number): void {
+	if (!Number.isFinite(loadW) || loadW < 0)
+		throw new RangeError(`Load must be a non-negative number of W, got ${loadW}`);
+}
+
+/** Smallest rating that keeps the load within two thirds: ⌈load × 3 / 2⌉ W, in integers. */
+export function minimumPsuW(loadW: number): number {
+	checkLoad(loadW);
+	const { numerator: n, denominator: d } = MAX_LOAD_SHARE;
+	return Math.ceil((loadW * d) / n);
+}
+
 /**
- * Recommended PSU rating: the smallest common size at which the load is at most 60 % of
- * the rating (minimum = ⌈load × 100 / 60⌉), so it sits near half to two-thirds; above the
+ * Recommended PSU rating: the smallest common size at or above minimumPsuW; above the
  * largest common size, the minimum rounded up to 100 W. Common practice, no published source.
  */
 export function recommendedPsuW(loadW: number): number {
-	if (!Number.isFinite(loadW) || loadW < 0)
-		throw new RangeError(`Load must be a non-negative number of W, got ${loadW}`);
-	const minimumW = Math.ceil((loadW * 100) / TARGET_LOAD_SHARE_PCT);
+	const minimumW = minimumPsuW(loadW);
 	for (const size of COMMON_PSU_SIZES_W) if (size >= minimumW) return size;
 	return Math.ceil(minimumW / 100) * 100;
+}
+
+export interface PsuSizing {
+	severity: Severity;
+	/** ⌈load × 3 / 2⌉: the smallest rating within the threshold. */
+	minimumW: number;
+	/** The smallest common size at or above minimumW. */
+	recommendedW: number;
+	/** ⌊rating × 2 / 3⌋: the largest whole-watt load within the threshold for this rating. */
+	maxLoadW: number;
+}
+
+/**
+ * The PSU verdict: conflict when the rating is below the load, caution when the load is
+ * above two thirds of the rating (load × 3 > rating × 2, in integers), ok otherwise.
+ */
+export function psuSizing(loadW: number, ratedW: number): PsuSizing {
+	const { numerator: n, denominator: d } = MAX_LOAD_SHARE;
+	const severity: Severity =
+		ratedW < loadW ? 'conflict' : loadW * d > ratedW * n ? 'caution' : 'ok';
+	return {
+		severity,
+		minimumW: minimumPsuW(loadW),
+		recommendedW: recommendedPsuW(loadW),
+		maxLoadW: Math.floor((ratedW * n) / d)
+	};
 }
 
 export interface GpuDeliverable {
@@ -536,9 +572,14 @@ export interface GpuPower {
 export interface PowerBudget {
 	loadW: number;
 	breakdown: PowerLine[];
+	/** Smallest rating that keeps the load within two thirds of it (psuSizing). */
+	minimumW: number;
+	/** Smallest common size at or above minimumW. */
 	recommendedW: number;
 	/** Present when the build has a PSU. */
 	psuRatedW?: number;
+	/** Present when the build has a PSU: the `psu-rating` finding's severity. */
+	psuSeverity?: Severity;
 	/** Share of the rating left unused at the estimated load, whole percent. */
 	headroomPct?: number;
 	/** Every graphics card slot, in build order. */
@@ -554,6 +595,7 @@ export function powerBudget(parts: BuildParts): PowerBudget {
 	const budget: PowerBudget = {
 		loadW,
 		breakdown,
+		minimumW: minimumPsuW(loadW),
 		recommendedW: recommendedPsuW(loadW),
 		gpus: gpus.map((g) => ({
 			key: g.key,
@@ -568,6 +610,7 @@ export function powerBudget(parts: BuildParts): PowerBudget {
 	if (psu) {
 		const rated = psu.part.specs.ratedW;
 		budget.psuRatedW = rated;
+		budget.psuSeverity = psuSizing(loadW, rated).severity;
 		budget.headroomPct = Math.round(((rated - loadW) * 100) / rated);
 		if (gpus.length > 0) budget.gpuLeads = worstSeverity(psuFeedsGpus(psu, gpus));
 	}

@@ -355,42 +355,19 @@ describe('fit report', () => {
 	});
 
 	describe('power', () => {
-		// Load of the good build is 500 W (see power.spec.ts); recommended 850 W
-		// (common practice, no published source: load ≤ 60 % of the rating).
-		it('a PSU below the recommended rating is a caution, below the estimated load a conflict', () => {
+		// Load of the good build is 500 W (see power.spec.ts); the PSU sizing cases are in
+		// 'issue 13: the PSU line takes its severity and its recommendation from one rule'.
+		it('a PSU of 650 W is a caution: 500 W is above two thirds of it (433 W) (common practice, no published source)', () => {
 			const psu650 = slot('psu', 'psu', 'Ostery', 'Current 650', {
 				...psu850.part.specs,
 				ratedW: 650
 			});
 			const caution = only(fitReport(withSlots(psu650)), 'psu-rating');
 			expect(caution.severity).toBe('caution');
-			// D: 500 / 650 = 76.9 % → 77 %
+			// D: 650 × 2 / 3 = 433.3 → 433 W; 500 × 3 / 2 = 750 W, itself a common size.
 			expect(caution.message).toBe(
-				'Ostery Current 650 is rated 650 W; the estimated load of 500 W is 77 % of it. Recommended: 850 W, so the load stays at or below 60 % of the rating (common practice).'
+				'Ostery Current 650 is rated 650 W; the estimated load of 500 W is above two thirds of it (433 W). Recommended: at least 750 W, so the load stays within two thirds of the rating (common practice, no published source).'
 			);
-			const psu450 = slot('psu', 'psu', 'Ostery', 'Current 450', {
-				...psu850.part.specs,
-				ratedW: 450
-			});
-			const conflict = only(fitReport(withSlots(psu450)), 'psu-rating');
-			expect(conflict.severity).toBe('conflict');
-			expect(conflict.message).toBe(
-				'Ostery Current 450 is rated 450 W, below the estimated load of 500 W. Recommended: 850 W.'
-			);
-		});
-
-		it('accepts a load up to two-thirds of the rating and cautions above (docs/architecture.md; common practice, no published source)', () => {
-			// D: 500 W on 750 W = 66.7 % (not above 2/3) → ok; on 740 W = 67.6 % → caution.
-			const psu750 = slot('psu', 'psu', 'Ostery', 'Current 750', {
-				...psu850.part.specs,
-				ratedW: 750
-			});
-			expect(only(fitReport(withSlots(psu750)), 'psu-rating').severity).toBe('ok');
-			const psu740 = slot('psu', 'psu', 'Ostery', 'Current 740', {
-				...psu850.part.specs,
-				ratedW: 740
-			});
-			expect(only(fitReport(withSlots(psu740)), 'psu-rating').severity).toBe('caution');
 		});
 
 		it('checks the card power connectors against the PSU leads (via the power budget rules)', () => {
@@ -834,5 +811,52 @@ describe('issue 13: drive bays and fan mounts (common practice, no published sou
 		expect(only(fitReport(withSlots(sixMounts, loop, fans(3, 1))), 'fan-mounts').severity).toBe(
 			'caution'
 		);
+	});
+});
+
+describe('issue 13: the PSU line takes its severity and its recommendation from one rule', () => {
+	// One threshold (docs/sources.md "PSU sizing threshold"; common practice, no published
+	// source): the estimated load at most two thirds of the rating. The good build's load is
+	// 500 W (power.spec.ts), so the smallest rating that keeps it is 500 × 3 / 2 = 750 W (D).
+	const rated = (w: number) =>
+		slot('psu', 'psu', 'Ostery', `Current ${w}`, { ...psu850.part.specs, ratedW: w });
+
+	it('750 W: 500 W is exactly two thirds (500 × 3 = 1500 = 750 × 2) → ok, and nothing larger is recommended', () => {
+		const build = withSlots(rated(750));
+		const f = only(fitReport(build), 'psu-rating');
+		expect(f).toMatchObject({ severity: 'ok', slots: ['psu'] });
+		expect(f.message).toBe(
+			'Ostery Current 750 is rated 750 W; the estimated load of 500 W is within two thirds of it (500 W). Common practice, no published source.'
+		);
+		expect(powerBudget(build)).toMatchObject({
+			loadW: 500,
+			minimumW: 750,
+			recommendedW: 750,
+			psuSeverity: 'ok'
+		});
+	});
+
+	it('740 W: 500 W is above two thirds (740 × 2 / 3 = 493.3 → 493 W) → caution recommending at least 750 W', () => {
+		const build = withSlots(rated(740));
+		const f = only(fitReport(build), 'psu-rating');
+		expect(f.severity).toBe('caution');
+		expect(f.message).toBe(
+			'Ostery Current 740 is rated 740 W; the estimated load of 500 W is above two thirds of it (493 W). Recommended: at least 750 W, so the load stays within two thirds of the rating (common practice, no published source).'
+		);
+		expect(powerBudget(build).psuSeverity).toBe('caution');
+	});
+
+	it('700 W: caution; the minimum 750 W is itself a common size, so no second figure', () => {
+		expect(only(fitReport(withSlots(rated(700))), 'psu-rating').severity).toBe('caution');
+	});
+
+	it('450 W: below the 500 W load → conflict', () => {
+		const build = withSlots(rated(450));
+		const f = only(fitReport(build), 'psu-rating');
+		expect(f.severity).toBe('conflict');
+		expect(f.message).toBe(
+			'Ostery Current 450 is rated 450 W, below the estimated load of 500 W. Recommended: at least 750 W.'
+		);
+		expect(powerBudget(build).psuSeverity).toBe('conflict');
 	});
 });

@@ -13,6 +13,7 @@ import {
 	PCIE_SLOT_W,
 	powerBudget,
 	psuFeedsGpus,
+	psuSizing,
 	recommendedPsuW
 } from '$lib/domain/power';
 import {
@@ -121,29 +122,30 @@ describe('graphics card deliverable power (PCIe CEM limits)', () => {
 	});
 });
 
-describe('recommended PSU rating (common practice, no published source: load near 50–60 % of the rating)', () => {
+describe('recommended PSU rating (common practice, no published source: the load at most two thirds of the rating)', () => {
 	it('offers only common sizes', () => {
 		expect(COMMON_PSU_SIZES_W).toEqual([450, 550, 650, 750, 850, 1000, 1200, 1300, 1500, 1600]);
 	});
 
 	it.each([
-		// [load, recommended, arithmetic]
-		[0, 450, 'smallest common size'],
-		[200, 450, '⌈200 / 0.6⌉ = 334 → 450'],
-		[300, 550, '⌈300 / 0.6⌉ = 500 → 550 (load 55 %)'],
-		[390, 650, '⌈390 / 0.6⌉ = 650 → 650 (load 60 %)'],
-		[450, 750, '⌈450 / 0.6⌉ = 750 → 750 (load 60 %)'],
-		[451, 850, '⌈451 / 0.6⌉ = 752 → 850 (load 53 %)'],
-		[500, 850, '⌈500 / 0.6⌉ = 834 → 850 (load 59 %)'],
-		[700, 1200, '⌈700 / 0.6⌉ = 1167 → 1200 (load 58 %)'],
-		[1000, 1700, '⌈1000 / 0.6⌉ = 1667, above 1600 → next 100 W']
+		// [load, recommended, arithmetic: minimum = ⌈load × 3 / 2⌉, then the next common size]
+		[0, 450, 'minimum 0 → the smallest common size'],
+		[200, 450, '200 × 1.5 = 300 → 450'],
+		[300, 450, '300 × 1.5 = 450 → 450 (load exactly two thirds)'],
+		[301, 550, '⌈301 × 1.5⌉ = ⌈451.5⌉ = 452 → 550'],
+		[390, 650, '390 × 1.5 = 585 → 650'],
+		[433, 650, '⌈649.5⌉ = 650 → 650'],
+		[434, 750, '434 × 1.5 = 651 → 750'],
+		[500, 750, '500 × 1.5 = 750 → 750'],
+		[700, 1200, '700 × 1.5 = 1050 → 1200'],
+		[1067, 1700, '⌈1600.5⌉ = 1601, above 1600 → next 100 W: 1700']
 	])('load %i W → %i W (common practice, no published source; D: %s)', (load, recommended) => {
 		expect(recommendedPsuW(load)).toBe(recommended);
 	});
 
-	it('keeps every load up to 960 W at or below 60 % of the recommendation (common practice, no published source)', () => {
-		for (let load = 1; load <= 960; load++) {
-			expect(load * 100, `load ${load}`).toBeLessThanOrEqual(recommendedPsuW(load) * 60);
+	it('keeps every load from 1 to 1066 W within two thirds of the recommendation (load × 3 ≤ rating × 2)', () => {
+		for (let load = 1; load <= 1066; load++) {
+			expect(load * 3, `load ${load}`).toBeLessThanOrEqual(recommendedPsuW(load) * 2);
 		}
 	});
 
@@ -304,11 +306,13 @@ describe('PSU leads vs card inlets', () => {
 });
 
 describe('power budget', () => {
-	it('combines load, recommendation, PSU headroom and the card power paths (D: 850 − 500 = 350 W = 41 % of 850)', () => {
+	it('combines load, recommendation, PSU headroom and the card power paths (D: 850 − 500 = 350 W = 41 % of 850; 500 × 1.5 = 750)', () => {
 		const budget = powerBudget(goodBuild());
 		expect(budget).toMatchObject({
 			loadW: 500,
-			recommendedW: 850,
+			minimumW: 750,
+			recommendedW: 750,
+			psuSeverity: 'ok',
 			psuRatedW: 850,
 			headroomPct: 41,
 			gpus: [
@@ -340,4 +344,41 @@ describe('power budget', () => {
 		expect(noPsu.headroomPct).toBeUndefined();
 		expect(noPsu.gpuLeads).toBeUndefined();
 	});
+});
+
+describe('issue 13: PSU sizing, one threshold (two thirds; common practice, no published source)', () => {
+	it.each([
+		// [load, rated, severity, minimum, recommended, arithmetic (D)]
+		[
+			430,
+			700,
+			'ok',
+			645,
+			650,
+			'430 × 3 = 1290 ≤ 700 × 2 = 1400; 430 × 3 / 2 = 645 → next common size 650'
+		],
+		[467, 700, 'caution', 701, 750, '467 × 3 = 1401 > 1400; ⌈467 × 1.5⌉ = ⌈700.5⌉ = 701 → 750'],
+		[
+			466,
+			700,
+			'ok',
+			699,
+			750,
+			'466 × 3 = 1398 ≤ 1400; 699 → 750 (700 W itself is within: 699 ≤ 700)'
+		],
+		[
+			700,
+			700,
+			'caution',
+			1050,
+			1200,
+			'700 × 3 = 2100 > 1400; not below the load, so not a conflict'
+		],
+		[701, 700, 'conflict', 1052, 1200, '701 > 700; ⌈1051.5⌉ = 1052 → 1200']
+	] as const)(
+		'load %i W on %i W → %s, minimum %i W, recommended %i W (D: %s)',
+		(load, ratedW, severity, minimumW, recommendedW, _arithmetic) => {
+			expect(psuSizing(load, ratedW)).toMatchObject({ severity, minimumW, recommendedW });
+		}
+	);
 });
