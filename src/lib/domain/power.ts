@@ -32,6 +32,13 @@ export const CONNECTOR_W = { pin6: 75, pin8: 150, h12v2x6: 600 } as const;
 export const CARD_CEILING_W = { cem50: 600, cem51: 675 } as const;
 
 /**
+ * What one 8-pin EPS12V CPU lead carries by its pin ratings (docs/sources.md 3d): Intel
+ * 336521 §2.2.1 gives 6–8 A per pin with 18 AWG wire, so four +12 V pins carry
+ * 4 × 12 V × 6 A = 288 W to 4 × 12 V × 8 A = 384 W.
+ */
+export const EPS8_PIN_W = { low: 288, high: 384 } as const;
+
+/**
  * Allowances for parts without a stated draw. Common practice, no published source:
  * round, slightly generous figures so the estimate errs towards a larger PSU.
  */
@@ -153,6 +160,7 @@ export function radiatorFans(radiatorMm: number): number {
 export function estimateLoad(parts: BuildParts): LoadEstimate {
 	const lines: PowerLine[] = [];
 	let boardSeen = false;
+	const hasCooler = parts.some((s) => s.category === 'cooler');
 	for (const slot of parts) {
 		const name = partName(slot);
 		const q = slot.quantity;
@@ -165,6 +173,15 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 					watts: p.watts * q,
 					basis: p.note
 				});
+				// A cooler that comes in the CPU's box has a fan too, when no cooler slot replaces it.
+				if (slot.part.specs.bundledCooler && !hasCooler) {
+					lines.push({
+						key: 'allowance:bundled-cooler',
+						label: `Cooler bundled with ${name}`,
+						watts: ALLOWANCE_W.fan * q,
+						basis: `one fan × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+					});
+				}
 				break;
 			}
 			case 'gpu': {
@@ -182,8 +199,8 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 				lines.push({
 					key: slot.key,
 					label: `${slot.label}: ${name}`,
-					watts: ALLOWANCE_W.motherboard,
-					basis: ALLOWANCE_NOTE
+					watts: ALLOWANCE_W.motherboard * q,
+					basis: q > 1 ? `${q} × ${ALLOWANCE_W.motherboard} W, ${ALLOWANCE_NOTE}` : ALLOWANCE_NOTE
 				});
 				break;
 			case 'memory': {

@@ -87,6 +87,7 @@ describe('fit report', () => {
 			'psu-rating',
 			'gpu-board-power',
 			'gpu-power-connectors',
+			'cpu-power-leads',
 			'cooler-heat'
 		]);
 		const keys = new Set(goodBuild().map((s) => s.key));
@@ -95,7 +96,7 @@ describe('fit report', () => {
 			expect(f.slots.length).toBeGreaterThan(0);
 			for (const key of f.slots) expect(keys.has(key), key).toBe(true);
 		}
-		expect(summarize(findings)).toEqual({ ok: 15, caution: 0, conflict: 0, worst: 'ok' });
+		expect(summarize(findings)).toEqual({ ok: 16, caution: 0, conflict: 0, worst: 'ok' });
 	});
 
 	// "Done when" cases of issue 4, at domain level.
@@ -541,7 +542,7 @@ describe('fit report', () => {
 				})
 			)
 		);
-		expect(summarize(findings)).toEqual({ ok: 13, caution: 1, conflict: 1, worst: 'conflict' });
+		expect(summarize(findings)).toEqual({ ok: 14, caution: 1, conflict: 1, worst: 'conflict' });
 	});
 });
 
@@ -858,5 +859,99 @@ describe('issue 13: the PSU line takes its severity and its recommendation from 
 			'Ostery Current 450 is rated 450 W, below the estimated load of 500 W. Recommended: at least 750 W.'
 		);
 		expect(powerBudget(build).psuSeverity).toBe('conflict');
+	});
+});
+
+describe('issue 13: the same kind of gap in other rules', () => {
+	it('CPU power leads: one 8-pin EPS12V lead carries 288–384 W (docs/sources.md 3d: 4 pins × 12 V × 6–8 A, V + D)', () => {
+		// The good build: 142 W (AM5 105 W TDP × 1.35, 8a) on 2 leads: 142 ≤ 2 × 288 = 576 → ok.
+		expect(only(fitReport(goodBuild()), 'cpu-power-leads')).toEqual({
+			rule: 'cpu-power-leads',
+			severity: 'ok',
+			slots: ['cpu', 'psu'],
+			message:
+				'Ostery Current 850 has 2 8-pin EPS12V CPU leads (288–384 W each by their pin ratings); Tarnwick Vela 65X sustains about 142 W.'
+		});
+		// A CPU stating 320 W sustained on one lead: 320 > 288 → caution.
+		const hot = slot('cpu', 'cpu', 'Tarnwick', 'Vela 99X', {
+			...cpuAm5.part.specs,
+			packagePowerW: 320
+		});
+		const oneLead = slot('psu', 'psu', 'Ostery', 'Current 850 S', {
+			...psu850.part.specs,
+			connectors: { ...psu850.part.specs.connectors, eps8: 1 }
+		});
+		const f = only(fitReport(withSlots(hot, oneLead)), 'cpu-power-leads');
+		expect(f.severity).toBe('caution');
+		expect(f.message).toBe(
+			'Tarnwick Vela 99X sustains about 320 W; Ostery Current 850 S has 1 8-pin EPS12V CPU lead, which carries 288–384 W by its pin ratings (4 × 12 V × 6–8 A). Connect every CPU power inlet the board has, and check the board manual.'
+		);
+		// No EPS lead listed at all → caution (common practice, no published source).
+		const none = slot('psu', 'psu', 'Ostery', 'Current 850 N', {
+			...psu850.part.specs,
+			connectors: { ...psu850.part.specs.connectors, eps8: 0 }
+		});
+		expect(only(fitReport(withSlots(none)), 'cpu-power-leads').severity).toBe('caution');
+	});
+
+	it('two graphics cards: a Mini-ITX board has one expansion slot (conflict); on ATX the slot layout is not recorded (caution)', () => {
+		const itx = slot('motherboard', 'board', 'Quellbrook', 'B6I', {
+			...boardAm5Atx.part.specs,
+			formFactor: 'Mini-ITX',
+			memorySlots: 2
+		});
+		const itxCase = slot('case', 'case', 'Halden', 'Atrium', {
+			...caseAtx.part.specs,
+			boardFormFactors: ['Mini-ITX']
+		});
+		const two = { ...gpu2x8, quantity: 2 };
+		expect(only(fitReport(withSlots(itx, itxCase, two)), 'gpu-slots-board')).toMatchObject({
+			severity: 'conflict',
+			message:
+				'Quellbrook B6I is Mini-ITX, which has one expansion slot; the build has 2 graphics cards (2 × Ferrant Kestrel 16G).'
+		});
+		// ATX: 7 slot positions (docs/sources.md 1e, M); 2 cards × ⌈2.5⌉ = 6 ≤ 7 → caution.
+		const atx = only(fitReport(withSlots(two)), 'gpu-slots-board');
+		expect(atx.severity).toBe('caution');
+		expect(atx.message).toBe(
+			'2 graphics cards (2 × Ferrant Kestrel 16G) take 6 expansion slot positions (3 each for 2.5-slot cards); an ATX board has up to 7. The catalog does not record how many x16 slots Quellbrook B6 ATX has or how far apart they are: check the board manual.'
+		);
+		// Three such cards: 3 × 3 = 9 > 7 → conflict.
+		expect(only(fitReport(withSlots({ ...gpu2x8, quantity: 3 })), 'gpu-slots-board').severity).toBe(
+			'conflict'
+		);
+		// One card: no finding.
+		expect(byRule(fitReport(goodBuild()), 'gpu-slots-board')).toEqual([]);
+	});
+
+	it('more than one CPU, board, case or PSU: a caution that the checks use the first only', () => {
+		const f = only(fitReport(withSlots({ ...psu850, quantity: 2 })), 'part-count');
+		expect(f).toEqual({
+			rule: 'part-count',
+			severity: 'caution',
+			slots: ['psu'],
+			message:
+				'The build lists 2 power supplies (2 × Ostery Current 850); the fit report and the power budget check the first one only.'
+		});
+	});
+
+	it('a 2.5-inch NVMe drive connects to neither an M.2 slot nor a SATA port: caution', () => {
+		const u2 = slot('storage', 'u2', 'Brightmoor', 'U2 4 TB', {
+			interface: 'nvme',
+			formFactor: '2.5in',
+			pcieGen: 4,
+			capacityGb: 4000,
+			readMbs: 6000,
+			writeMbs: 4000
+		});
+		const findings = fitReport(withSlots(u2));
+		expect(only(findings, 'drive-interface')).toEqual({
+			rule: 'drive-interface',
+			severity: 'caution',
+			slots: ['u2', 'board'],
+			message:
+				'Brightmoor U2 4 TB is a 2.5-inch NVMe drive (U.2 or similar): it plugs into neither an M.2 slot nor a SATA port of Quellbrook B6 ATX, so it needs a U.2 port or an adapter card. Check the board manual.'
+		});
+		expect(byRule(findings, 'sata-ports')).toEqual([]);
 	});
 });

@@ -382,3 +382,27 @@ describe('issue 13: PSU sizing, one threshold (two thirds; common practice, no p
 		}
 	);
 });
+
+describe('issue 13: load estimate gaps', () => {
+	it('a bundled cooler has a fan too: 3 W when the CPU brings its cooler and the build has no cooler slot (allowance, common practice, no published source)', () => {
+		const boxed = slot('cpu', 'cpu', 'Tarnwick', 'Vela 65', {
+			...cpuAm5.part.specs,
+			tdpW: 65,
+			bundledCooler: true
+		});
+		const { loadW, breakdown } = estimateLoad([boxed, boardAm5Atx]);
+		// 88 (65 W × 1.35 = 87.75 → 88, 8a) + 3 (bundled cooler fan) + 50 (board) + 15 (USB) = 156 W
+		expect(breakdown.map((l) => [l.key, l.watts])).toEqual([
+			['cpu', 88],
+			['allowance:bundled-cooler', 3],
+			['board', 50],
+			['allowance:usb', 15]
+		]);
+		expect(loadW).toBe(156);
+	});
+
+	it('counts the board allowance per board (quantity 2 → 2 × 50 = 100 W; common practice)', () => {
+		const { breakdown } = estimateLoad([{ ...boardAm5Atx, quantity: 2 }]);
+		expect(breakdown.find((l) => l.key === 'board')?.watts).toBe(100);
+	});
+});
