@@ -6,7 +6,8 @@
  * changes the fewest slots from the current picks. Ties: lower total, then a fixed
  * preference (see `preferenceOrder`): slot by slot in the order given, the current part
  * before the alternates and cheaper alternates before dearer ones. Branch and bound;
- * `bruteForce` is the reference the tests and the benchmark compare it with.
+ * `bruteForce` is the baseline the benchmark times it against; the tests check the solver
+ * against an independent oracle in tests/ that shares no code with this module.
  *
  * Prices are line prices (unit price × quantity) in integer minor units of the reader's
  * currency, already adjusted to the reader's region by the caller.
@@ -398,9 +399,10 @@ export function withinBudget(input: WithinBudgetInput): WithinBudgetResult {
 }
 
 /**
- * Reference implementation: every combination, checked pair by pair with the caller's
- * callbacks (answers cached in a plain table), the same objective and tie-breaks.
- * Exponential: for tests and the benchmark only.
+ * Every combination, checked pair by pair with the caller's callbacks (answers cached in a
+ * plain table), the same objective and tie-breaks. Exponential: the benchmark's baseline.
+ * It reuses this module's ordering and validation, so it is no independent check; the
+ * tests use tests/unit/domain/within-budget-oracle.ts for that.
  */
 export function bruteForce(input: WithinBudgetInput): WithinBudgetResult {
 	validate(input);
