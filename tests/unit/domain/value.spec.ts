@@ -12,8 +12,11 @@ import {
  * Sources:
  * - Geometric mean as the summary of benchmark results: P. J. Fleming and J. J. Wallace,
  *   "How not to lie with statistics: the correct way to summarize benchmark results",
- *   Communications of the ACM 29(3), March 1986, pp. 218–221; SPEC CPU reports the geometric
- *   mean of its per-benchmark ratios. Both from memory, not re-read here: status M.
+ *   Communications of the ACM 29(3), March 1986, pp. 218–221 (docs/sources.md s3); SPEC CPU
+ *   reports the geometric mean of its per-benchmark ratios. Both from memory, not re-read
+ *   here: status M.
+ * - The expected means are worked by hand (products and roots written out beside each
+ *   check), never taken from geometricMean itself.
  * - Every expected number below is a worked example (status D) with its arithmetic shown.
  */
 
@@ -31,25 +34,34 @@ describe('geometric mean of average FPS (Fleming & Wallace 1986 / SPEC CPU pract
 		expect(geometricMean([75, 75, 75, 75])).toBeCloseTo(75, 10);
 	});
 
-	it('normalising to any reference machine keeps the comparison (the property Fleming & Wallace argue for)', () => {
-		// Build A and B on three titles; reference machines R1 and R2. The geometric mean of the
-		// ratios A/R equals GM(A)/GM(R), so A/B is the same whichever reference is used.
-		const a = [120, 45, 300];
-		const b = [100, 60, 240];
+	it('√(144 × 81) = √11664 = 108; ⁴√(30 × 60 × 90 × 120) = ⁴√19440000 ≈ 66.4009 (worked by hand, D)', () => {
+		expect(geometricMean([144, 81])).toBeCloseTo(108, 10);
+		expect(geometricMean([30, 60, 90, 120])).toBeCloseTo(66.4009, 4);
+	});
+
+	it('normalising to any reference machine keeps the comparison, which the arithmetic mean does not (Fleming & Wallace 1986, M; numbers worked by hand, D)', () => {
+		// Builds A and B on three titles; the per-title ratios A/B are 240/60 = 4, 30/60 = 0.5
+		// and 360/90 = 4, whose product is 8, so GM(A) / GM(B) = ∛8 = 2 exactly.
+		const a = [240, 30, 360];
+		const b = [60, 60, 90];
+		const normalised = (x: number[], r: number[]) => x.map((v, i) => v / (r[i] as number));
+		// Reference R1 = [60, 30, 150]: A/R1 = [4, 1, 2.4] (product 9.6), B/R1 = [1, 2, 0.6]
+		// (product 1.2): ∛9.6 ≈ 2.1253 and ∛1.2 ≈ 1.0627, ratio ∛(9.6 / 1.2) = ∛8 = 2.
 		const r1 = [60, 30, 150];
-		const r2 = [200, 20, 90];
-		const ratio = (x: number[], r: number[]) =>
-			geometricMean(x.map((v, i) => v / (r[i] as number)));
-		const viaR1 = ratio(a, r1) / ratio(b, r1);
-		const viaR2 = ratio(a, r2) / ratio(b, r2);
-		expect(viaR1).toBeCloseTo(viaR2, 12);
-		expect(viaR1).toBeCloseTo(geometricMean(a) / geometricMean(b), 12);
-		// The arithmetic mean of ratios does not have that property (Fleming & Wallace's point):
-		const arith = (x: number[], r: number[]) =>
-			x.reduce((s, v, i) => s + v / (r[i] as number), 0) / x.length;
-		expect(Math.abs(arith(a, r1) / arith(b, r1) - arith(a, r2) / arith(b, r2))).toBeGreaterThan(
-			0.01
-		);
+		expect(geometricMean(normalised(a, r1))).toBeCloseTo(2.1253, 4);
+		expect(geometricMean(normalised(b, r1))).toBeCloseTo(1.0627, 4);
+		expect(geometricMean(normalised(a, r1)) / geometricMean(normalised(b, r1))).toBeCloseTo(2, 10);
+		// Reference R2 = [1000, 1, 1000]: A/R2 = [0.24, 30, 0.36] (product 2.592), B/R2 =
+		// [0.06, 60, 0.09] (product 0.324): ratio ∛(2.592 / 0.324) = ∛8 = 2 again.
+		const r2 = [1000, 1, 1000];
+		expect(geometricMean(normalised(a, r2)) / geometricMean(normalised(b, r2))).toBeCloseTo(2, 10);
+		expect(geometricMean(a) / geometricMean(b)).toBeCloseTo(2, 10);
+		// The arithmetic mean of the same ratios ranks them both ways: via R1 (4 + 1 + 2.4) /
+		// (1 + 2 + 0.6) = 7.4 / 3.6 ≈ 2.056, A ahead; via R2 (0.24 + 30 + 0.36) / (0.06 + 60 +
+		// 0.09) = 30.6 / 60.15 ≈ 0.509, B ahead.
+		const mean = (x: number[]) => x.reduce((t, v) => t + v, 0) / x.length;
+		expect(mean(normalised(a, r1)) / mean(normalised(b, r1))).toBeCloseTo(2.0556, 4);
+		expect(mean(normalised(a, r2)) / mean(normalised(b, r2))).toBeCloseTo(0.5087, 4);
 	});
 
 	it('reads averageFps from frame results; null without results', () => {
