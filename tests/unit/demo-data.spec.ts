@@ -10,6 +10,8 @@ import type {
 	PsuSpecs,
 	StorageSpecs
 } from '../../src/lib/schemas/part-specs';
+import type { BuildPart } from '../../src/lib/domain/build-parts';
+import { fitReport } from '../../src/lib/domain/fit';
 import {
 	ALTERNATE_REASONS,
 	PART_CATEGORIES,
@@ -390,6 +392,48 @@ describe('demo data is internally consistent (invented data, checked against the
 			});
 		});
 	}
+
+	/*
+	 * Each guide's fit report, reviewed by hand: no conflict, and exactly these cautions,
+	 * each deserved by the invented specs (allowances and the two-thirds threshold: common
+	 * practice, no published source; docs/sources.md "PSU sizing threshold").
+	 */
+	const REVIEWED_CAUTIONS: Record<string, string[]> = {
+		'steady-1080p-starter': [],
+		// 142 (105 W TDP × 1.35, 8a) + 3 cooler fan + 50 board + 2 × 5 DDR5 + 8 NVMe + 263 card
+		// + 3 × 3 case fans + 2 × 3 added fans + 15 USB = 506 W; 506 × 3 = 1518 > 750 × 2 = 1500.
+		// The guide lists an 850 W alternate.
+		'balanced-1440p-am5': ['psu-rating'],
+		// 250 (stated) + 14 (pump 5 + 3 × 3) + 50 + 2 × 5 + 2 × 8 + 300 + 3 × 3 + 3 × 3 + 15
+		// = 673 W; 673 × 3 = 2019 > 1000 × 2 = 2000.
+		'quiet-4k-play-and-work': ['psu-rating'],
+		'pocket-itx-1440p': []
+	};
+
+	it('gives each guide a fit report without conflicts and with only the cautions reviewed by hand', () => {
+		expect(Object.keys(REVIEWED_CAUTIONS).sort()).toEqual(demoGuides.map((g) => g.slug).sort());
+		for (const guide of demoGuides) {
+			const build = guide.slots.map((slot, i) => {
+				const part = partsBySlug.get(slot.pickSlug)!;
+				return {
+					key: `slot-${i}`,
+					label: slot.label,
+					category: slot.category,
+					quantity: slot.quantity,
+					part: { brand: part.brand, model: part.model, specs: part.specs }
+				} as BuildPart;
+			});
+			const findings = fitReport(build);
+			expect(
+				findings.filter((f) => f.severity === 'conflict').map((f) => f.message),
+				guide.slug
+			).toEqual([]);
+			expect(
+				findings.filter((f) => f.severity === 'caution').map((f) => f.rule),
+				guide.slug
+			).toEqual(REVIEWED_CAUTIONS[guide.slug]);
+		}
+	});
 
 	it('names no real brand or product line anywhere in the demo data', () => {
 		const text = JSON.stringify({

@@ -248,7 +248,7 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 						key: slot.key,
 						label: `${slot.label}: ${name}`,
 						watts: w,
-						basis: `pump ${ALLOWANCE_W.pump} W + ${fans} radiator fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+						basis: `pump ${ALLOWANCE_W.pump} W + ${fans} radiator fan${fans === 1 ? '' : 's'} × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
 					});
 				} else {
 					lines.push({
@@ -266,7 +266,7 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 					key: slot.key,
 					label: `${slot.label}: ${name}`,
 					watts: fans * ALLOWANCE_W.fan,
-					basis: `${fans} fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+					basis: `${fans} fan${fans === 1 ? '' : 's'} × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
 				});
 				break;
 			}
@@ -277,7 +277,7 @@ export function estimateLoad(parts: BuildParts): LoadEstimate {
 						key: slot.key,
 						label: `${slot.label}: ${name} (included fans)`,
 						watts: fans * ALLOWANCE_W.fan,
-						basis: `${fans} fans × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
+						basis: `${fans} fan${fans === 1 ? '' : 's'} × ${ALLOWANCE_W.fan} W, ${ALLOWANCE_NOTE}`
 					});
 				}
 				break;

@@ -708,6 +708,8 @@ const cases: DemoPart[] = [
 		bays25: 2,
 		bays35: 0
 	}),
+	// Nine fan mounts (three front, three top, one rear, two bottom): the quiet guide fills
+	// them with the three included fans, a 3-pack and its 360 mm radiator on top.
 	part('case', 'norrow-atlas-silent', 'Norrow Works', 'Atlas Silent', {
 		boardFormFactors: ['E-ATX', 'ATX', 'microATX', 'Mini-ITX'],
 		maxGpuLengthMm: 365,
@@ -715,7 +717,7 @@ const cases: DemoPart[] = [
 		psuFormFactors: ['ATX'],
 		radiatorMm: 360,
 		includedFans: 3,
-		fanMounts: 7,
+		fanMounts: 9,
 		bays25: 3,
 		bays35: 2
 	}),
