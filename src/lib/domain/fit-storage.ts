@@ -4,7 +4,7 @@
  * neither (docs/architecture.md "Computations" §3).
  */
 import { partName, type BuildPartOf } from './build-parts';
-import { listText, plural, type FitRule } from './fit-context';
+import { countedNames, listText, plural, type FitRule } from './fit-context';
 import { formatGBs, linkBandwidthGBs, pcieLabel } from './pcie';
 
 /** M.2 module length in mm from its name: 22 mm wide + length, 2280 → 80 (docs/sources.md 7). */
@@ -208,7 +208,7 @@ export const sataPorts: FitRule = ({ storage, board }, out) => {
 	for (const s of sata) count += s.quantity;
 	const ports = board.part.specs.sataPorts;
 	const slots = [...sata.map((s) => s.key), board.key];
-	const names = listText(sata.map((s) => partName(s)));
+	const names = countedNames(sata);
 	out.push(
 		count <= ports
 			? {
