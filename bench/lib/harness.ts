@@ -198,9 +198,7 @@ export async function startBare(
 }
 
 /** The production build (`node build`) on a free port against `dbName`. */
-export async function startApp(
-	env: Record<string, string>
-): Promise<{
+export async function startApp(env: Record<string, string>): Promise<{
 	origin: string;
 	process: ChildProcess;
 	stop: () => Promise<void>;
