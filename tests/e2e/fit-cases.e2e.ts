@@ -29,6 +29,6 @@ for (const c of FIT_CASES) {
 			power: Record<string, unknown>;
 		};
 		const builtIn = body.findings.filter((f) => f.cautionRuleId === undefined);
-		expect(caseMismatches(c, builtIn, body.power), c.arithmetic).toEqual([]);
+		expect(caseMismatches(c, builtIn, body.power), `${c.arithmetic} (${c.source})`).toEqual([]);
 	});
 }

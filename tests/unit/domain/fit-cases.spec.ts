@@ -28,15 +28,21 @@ function toBuild(slots: CaseSlot[]): BuildPart[] {
 }
 
 describe('hand-worked fit and power cases (tests/fixtures/fit-cases.ts)', () => {
-	it('has at least 40 cases with unique names, each showing its arithmetic', () => {
+	it('has at least 40 cases with unique names, each showing its arithmetic and naming its source', () => {
 		expect(FIT_CASES.length).toBeGreaterThanOrEqual(40);
 		expect(new Set(FIT_CASES.map((c) => c.name)).size).toBe(FIT_CASES.length);
-		for (const c of FIT_CASES) expect(c.arithmetic.length, c.name).toBeGreaterThan(5);
+		for (const c of FIT_CASES) {
+			expect(c.arithmetic.length, c.name).toBeGreaterThan(10);
+			// A docs/sources.md row, the design's own rule, or the rule-of-thumb label.
+			expect(c.source, c.name).toMatch(
+				/docs\/sources\.md|docs\/architecture\.md|common practice, no published source|the design/
+			);
+		}
 	});
 
 	it.each(FIT_CASES.map((c) => [c.name, c] as const))('%s', (_name, c) => {
 		const build = toBuild(c.slots);
 		const power = powerBudget(build) as unknown as Record<string, unknown>;
-		expect(caseMismatches(c, fitReport(build), power), c.arithmetic).toEqual([]);
+		expect(caseMismatches(c, fitReport(build), power), `${c.arithmetic} (${c.source})`).toEqual([]);
 	});
 });
