@@ -100,3 +100,37 @@ test('a body over 512 KB is refused with 413 outside the catalog import', async 
 	});
 	expect(response.status()).toBe(413);
 });
+
+/* Issue 12: the holes an outside probe found. Each test below failed before its fix. */
+
+test('sign-in never sends anyone to another origin, and odd targets give the home page, not a 500 (item 4)', async ({
+	page
+}) => {
+	await signInWithPassword(page, 'reader@slotwise.test');
+	for (const target of [
+		'/\t/evil.example',
+		'/\n/evil.example',
+		'/\\evil.example',
+		'//evil.example',
+		'https://evil.example/',
+		'/guides/\u00e9t\u00e9',
+		'/guides/\u{1F600}',
+		'/guides\u0000',
+		'/guides\u007f',
+		'/\u2028'
+	]) {
+		const response = await page.request.get(`/signin?redirectTo=${encodeURIComponent(target)}`, {
+			maxRedirects: 0
+		});
+		const where = JSON.stringify(target);
+		expect(response.status(), where).toBe(303);
+		const location = response.headers()['location'] ?? '';
+		expect(new URL(location, BASE_URL).origin, where).toBe(BASE_URL);
+		expect(location.startsWith('/') && !location.startsWith('//'), where).toBe(true);
+	}
+	// A plain local path is kept.
+	const kept = await page.request.get(`/signin?redirectTo=${encodeURIComponent('/guides')}`, {
+		maxRedirects: 0
+	});
+	expect(kept.headers()['location']).toBe('/guides');
+});
