@@ -4,6 +4,7 @@ import { authHandle } from '$lib/server/auth/config';
 import {
 	capBodies,
 	closeAuthEndpoints,
+	formBodiesOnly,
 	guardAreas,
 	jsonOnlyApi,
 	resolveUser,
@@ -35,6 +36,7 @@ export const handle = sequence(
 	capBodies,
 	jsonOnlyApi,
 	closeAuthEndpoints,
+	formBodiesOnly,
 	authHandle,
 	resolveUser,
 	guardAreas

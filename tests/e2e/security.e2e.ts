@@ -1,6 +1,7 @@
-import { expect, test } from '@playwright/test';
+import { expect, request as playwrightRequest, test } from '@playwright/test';
 import { BASE_URL } from '../playwright.config';
-import { signInWithPassword } from './support';
+import { discoverActions, urlOf } from './routes';
+import { DEMO_PASSWORD, signInWithPassword } from './support';
 
 /* docs/security.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
 
@@ -133,4 +134,45 @@ test('sign-in never sends anyone to another origin, and odd targets give the hom
 		maxRedirects: 0
 	});
 	expect(kept.headers()['location']).toBe('/guides');
+});
+
+test('a form action posted with a body type no form sends answers 415, never 500 (item 11)', async ({
+	request
+}) => {
+	const admin = await playwrightRequest.newContext({ baseURL: BASE_URL });
+	const signedIn = await admin.post('/signin?/password', {
+		form: { email: 'admin@slotwise.test', password: DEMO_PASSWORD },
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		maxRedirects: 0
+	});
+	expect(signedIn.status()).toBe(303);
+	const wrong: string[] = [];
+	const actions = discoverActions();
+	expect(actions.length).toBeGreaterThan(30);
+	for (const [who, context] of [
+		['visitor', request],
+		['admin', admin]
+	] as const) {
+		for (const entry of actions) {
+			if (entry === 'POST /(auth)/signout?/default') continue; // would end the admin's session
+			const { url } = urlOf(entry);
+			for (const [type, body] of [
+				['text/plain', 'email=a@b.test'],
+				['application/json', '{"email":"a@b.test"}'],
+				['application/xml', '<a/>'],
+				['multipart/form-data', 'no boundary at all'],
+				['', 'email=a@b.test']
+			]) {
+				const headers: Record<string, string> = { origin: BASE_URL, accept: 'application/json' };
+				if (type) headers['content-type'] = type;
+				const response = await context.post(url, { data: body, headers, maxRedirects: 0 });
+				const status = response.status();
+				const text = await response.text();
+				if (![400, 415].includes(status) || !/message|error/i.test(text))
+					wrong.push(`${who} ${entry} [${type || 'no type'}] → ${status} ${text.slice(0, 80)}`);
+			}
+		}
+	}
+	await admin.dispose();
+	expect(wrong).toEqual([]);
 });

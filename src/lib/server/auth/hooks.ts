@@ -115,6 +115,44 @@ export const jsonOnlyApi: Handle = ({ event, resolve }) => {
 	return resolve(event);
 };
 
+const FORM_BODY_TYPES = /^(?:application\/x-www-form-urlencoded|multipart\/form-data)\s*(?:;|$)/i;
+
+/** A refused body, in the shape `use:enhance` reads (JSON) or as plain text for anything else. */
+function refusedBody(request: Request, status: 400 | 415, message: string): Response {
+	const accept = request.headers.get('accept') ?? '';
+	if (request.headers.has('x-sveltekit-action') || /application\/json/i.test(accept))
+		return json({ type: 'error', status, error: { message } }, { status });
+	return new Response(message, {
+		status,
+		headers: { 'content-type': 'text/plain; charset=utf-8' }
+	});
+}
+
+/**
+ * Form actions read `request.formData()`, which throws for any other body type, and
+ * SvelteKit answered that with a 500 (issue 12, item 11). So every POST outside /api/ (only
+ * form actions take one) must be form data that parses: any other type is a 415, a form body
+ * that cannot be read a 400, before an action runs. The parse works on a copy, so the action
+ * still reads the body itself.
+ */
+export const formBodiesOnly: Handle = async ({ event, resolve }) => {
+	const { request, url } = event;
+	if (request.method !== 'POST' || url.pathname.startsWith('/api/')) return resolve(event);
+	if (!FORM_BODY_TYPES.test(request.headers.get('content-type') ?? '')) {
+		return refusedBody(
+			request,
+			415,
+			'Send the form as application/x-www-form-urlencoded or multipart/form-data.'
+		);
+	}
+	try {
+		await request.clone().formData();
+	} catch {
+		return refusedBody(request, 400, 'The form data could not be read.');
+	}
+	return resolve(event);
+};
+
 /** Response headers for every page; HSTS only when the site is served over https. */
 export const securityHeaders: Handle = async ({ event, resolve }) => {
 	let response = await resolve(event);
