@@ -176,3 +176,104 @@ test('a form action posted with a body type no form sends answers 415, never 500
 	await admin.dispose();
 	expect(wrong).toEqual([]);
 });
+
+/** The headers every answer carries, pages or not (docs/security.md §1, 3.4.x). */
+function expectHardened(headers: Record<string, string>, what: string) {
+	expect(headers['x-content-type-options'], what).toBe('nosniff');
+	expect(headers['x-frame-options'], what).toBe('DENY');
+	expect(headers['referrer-policy'], what).toBe('strict-origin-when-cross-origin');
+	expect(headers['cross-origin-opener-policy'], what).toBe('same-origin');
+	expect(headers['permissions-policy'], what).toContain('camera=()');
+	const csp = headers['content-security-policy'] ?? '';
+	expect(csp, what).toContain("frame-ancestors 'none'");
+	expect(csp, what).toContain("object-src 'none'");
+	expect(csp, what).toContain("base-uri 'none'");
+}
+
+test('redirects and errors from the hooks, static files and API answers carry the same security headers (item 13)', async ({
+	request
+}) => {
+	const home = await request.get('/');
+	expectHardened(home.headers(), 'a page');
+	const asset = /\/_app\/immutable\/[^"']+\.(?:js|css)/.exec(await home.text())?.[0];
+	expect(asset, 'the home page links a built asset').toBeTruthy();
+
+	const answers: [
+		string,
+		() => Promise<{ status(): number; headers(): Record<string, string> }>
+	][] = [
+		// The area guard in hooks.server.ts redirects visitors…
+		['hook redirect', () => request.get('/account', { maxRedirects: 0 })],
+		// …and answers 401 to a visitor's post there.
+		[
+			'hook 401',
+			() =>
+				request.post('/account?/profile', {
+					form: { name: 'x' },
+					headers: { origin: BASE_URL },
+					maxRedirects: 0
+				})
+		],
+		// Auth.js's own POST endpoints are closed with a 404 thrown in a hook.
+		[
+			'hook 404',
+			() => request.post('/auth/signout', { headers: { origin: BASE_URL }, maxRedirects: 0 })
+		],
+		['static file', () => request.get('/favicon.svg')],
+		['robots.txt', () => request.get('/robots.txt')],
+		['built asset', () => request.get(asset ?? '/')],
+		['missing static file', () => request.get('/_app/immutable/nothing-here.js')],
+		['JSON API', () => request.get('/api/v1/guides')],
+		['JSON API error', () => request.get('/api/v1/guides/no-such-guide-here')]
+	];
+	for (const [what, fetchIt] of answers) {
+		const response = await fetchIt();
+		expect(response.status(), what).toBeLessThan(500);
+		expectHardened(response.headers(), what);
+	}
+});
+
+test('the session cookie has the same flags at sign-in and on every refresh, decided by the configured origin (item 13)', async () => {
+	// ORIGIN is plain http here, so the cookie is not Secure and has no __Secure- prefix;
+	// deployment.e2e.ts checks an https origin. A forged X-Forwarded-Proto changes nothing.
+	const signIn = await fetch(`${BASE_URL}/signin?/password`, {
+		method: 'POST',
+		body: new URLSearchParams({ email: 'reader@slotwise.test', password: DEMO_PASSWORD }),
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		redirect: 'manual'
+	});
+	expect(signIn.status).toBe(303);
+	const issued = sessionCookie(signIn.headers.getSetCookie());
+	expect(issued.name).toBe('authjs.session-token');
+	expect(issued.attributes).not.toContain('secure');
+	expect(issued.attributes).toEqual(expect.arrayContaining(['httponly', 'samesite=lax', 'path=/']));
+
+	for (const extra of [{}, { 'x-forwarded-proto': 'https' }] as Record<string, string>[]) {
+		const refresh = await fetch(`${BASE_URL}/`, {
+			headers: { cookie: `${issued.name}=${issued.value}`, ...extra }
+		});
+		expect(refresh.status).toBe(200);
+		const refreshed = sessionCookie(refresh.headers.getSetCookie());
+		expect(refreshed.name, JSON.stringify(extra)).toBe(issued.name);
+		expect(refreshed.attributes.filter((a) => !a.startsWith('expires=')).sort()).toEqual(
+			issued.attributes.filter((a) => !a.startsWith('expires=')).sort()
+		);
+	}
+});
+
+function sessionCookie(setCookies: string[]): {
+	name: string;
+	value: string;
+	attributes: string[];
+} {
+	const line = setCookies.find((c) => /^(__Secure-)?authjs\.session-token=/.test(c));
+	if (!line) throw new Error(`no session cookie in ${JSON.stringify(setCookies)}`);
+	const [pair = '', ...attributes] = line.split(';').map((p) => p.trim());
+	const eq = pair.indexOf('=');
+	return {
+		name: pair.slice(0, eq),
+		value: pair.slice(eq + 1),
+		attributes: attributes.map((a) => a.toLowerCase())
+	};
+}
+

@@ -17,6 +17,7 @@ import { Account, Session, User, VerificationToken, sequelize } from '$lib/serve
 import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import * as accounts from '$lib/server/services/accounts';
+import { secureCookies } from './cookies';
 import './types';
 
 /** Sign-in links work once and expire after 10 minutes (ASVS 6.5.1, 6.5.5). */
@@ -36,6 +37,8 @@ export const authConfig: SvelteKitAuthConfig = {
 	basePath: '/auth',
 	secret: env.AUTH_SECRET,
 	trustHost: true,
+	// One decision from the configured origin, never from the request (cookies.ts).
+	useSecureCookies: secureCookies(),
 	// SvelteKit's own origin check guards every form post (STACK gotcha 6); Auth.js's
 	// endpoints for posts are closed in the hook and reached only through our actions.
 	skipCSRFCheck,

@@ -3,6 +3,9 @@
  */
 import { error, json, redirect } from '@sveltejs/kit';
 import type { Handle } from '@sveltejs/kit';
+import { baselineHeaders } from '$lib/server/http/security-headers.js';
+import { secureCookies } from './cookies';
+import { readSession } from './sign-in';
 
 /**
  * Auth.js answers every /auth/* path itself. Only what a browser needs directly stays
@@ -28,7 +31,7 @@ export const closeAuthEndpoints: Handle = ({ event, resolve }) => {
 /** Fills locals.user from the session; the jwt callback has re-checked it against the database. */
 export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
-	const session = await event.locals.auth();
+	const session = await readSession(event);
 	const user = session?.user;
 	if (user?.id)
 		event.locals.user = {
@@ -153,7 +156,11 @@ export const formBodiesOnly: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-/** Response headers for every page; HSTS only when the site is served over https. */
+/**
+ * The security headers on everything that passes through the hooks (the server entry sets
+ * the same ones on what does not: src/lib/server/http/security-headers.js). A page keeps the
+ * nonce-based CSP SvelteKit gave it; HSTS follows the configured origin, like the cookies.
+ */
 export const securityHeaders: Handle = async ({ event, resolve }) => {
 	let response = await resolve(event);
 	// Redirects made with Response.redirect() (Auth.js does) have immutable headers.
@@ -163,13 +170,9 @@ export const securityHeaders: Handle = async ({ event, resolve }) => {
 		response = new Response(response.body, response);
 	}
 	const headers = response.headers;
-	headers.set('x-content-type-options', 'nosniff');
-	headers.set('referrer-policy', 'strict-origin-when-cross-origin');
-	headers.set('x-frame-options', 'DENY');
-	headers.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), interest-cohort=()');
-	headers.set('cross-origin-opener-policy', 'same-origin');
-	if (event.url.protocol === 'https:') {
-		headers.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
+	for (const [name, value] of Object.entries(baselineHeaders({ https: secureCookies() }))) {
+		if (name === 'content-security-policy' && headers.has(name)) continue;
+		headers.set(name, value);
 	}
 	if (event.locals.user && !headers.has('cache-control')) headers.set('cache-control', 'no-store');
 	return response;

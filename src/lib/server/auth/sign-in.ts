@@ -5,26 +5,40 @@
  */
 import { Auth, raw } from '@auth/core';
 import { CredentialsSignin } from '@auth/core/errors';
+import type { Session } from '@auth/core/types';
 import type { RequestEvent } from '@sveltejs/kit';
 import { authConfig } from './config';
+import { setAuthCookies } from './cookies';
+
+/** One Auth.js call in-process, as a POST of `fields` to /auth/`path` on `origin`. */
+function authRequest(
+	origin: string,
+	path: string,
+	fields: Record<string, string>,
+	cookie?: string
+) {
+	const headers = new Headers({ 'content-type': 'application/x-www-form-urlencoded' });
+	if (cookie) headers.set('cookie', cookie);
+	const request = new Request(`${origin}/auth/${path}`, {
+		method: 'POST',
+		headers,
+		body: new URLSearchParams(fields)
+	});
+	return Auth(request, { ...authConfig, raw });
+}
 
 async function callAuth(
 	event: RequestEvent,
 	path: string,
 	fields: Record<string, string>
 ): Promise<string> {
-	const headers = new Headers({ 'content-type': 'application/x-www-form-urlencoded' });
-	const cookie = event.request.headers.get('cookie');
-	if (cookie) headers.set('cookie', cookie);
-	const request = new Request(`${event.url.origin}/auth/${path}`, {
-		method: 'POST',
-		headers,
-		body: new URLSearchParams(fields)
-	});
-	const response = await Auth(request, { ...authConfig, raw });
-	for (const c of response.cookies ?? []) {
-		event.cookies.set(c.name, c.value, { path: '/', ...c.options });
-	}
+	const response = await authRequest(
+		event.url.origin,
+		path,
+		fields,
+		event.request.headers.get('cookie') ?? undefined
+	);
+	setAuthCookies(event.cookies, response.cookies);
 	return response.redirect ?? '';
 }
 
@@ -64,4 +78,20 @@ export async function sendSignInLink(
 
 export async function signOut(event: RequestEvent): Promise<void> {
 	await callAuth(event, 'signout', { callbackUrl: '/' });
+}
+
+/**
+ * The session of this request, read in-process like the actions above (rather than through
+ * @auth/sveltekit's `locals.auth()`, which builds its URL from Host and X-Forwarded-Proto
+ * headers and leaves the refreshed cookie's flags to SvelteKit's defaults), so the refreshed
+ * cookie gets the same flags as at sign-in. Null for visitors and ended sessions.
+ */
+export async function readSession(event: RequestEvent): Promise<Session | null> {
+	const request = new Request(`${event.url.origin}/auth/session`, {
+		headers: { cookie: event.request.headers.get('cookie') ?? '' }
+	});
+	const response = await Auth(request, { ...authConfig, raw });
+	setAuthCookies(event.cookies, response.cookies);
+	const session = response.body as Session | null | undefined;
+	return session && typeof session === 'object' && 'user' in session ? session : null;
 }
