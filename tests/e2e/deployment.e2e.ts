@@ -65,3 +65,38 @@ test('behind an https origin the session cookie is Secure and prefixed at sign-i
 	}
 });
 
+test('a refused password is one structured log line, not a stack trace (item 14)', async () => {
+	const before = server.output().length;
+	const refused = await fetch(`${server.url}/signin?/password`, {
+		method: 'POST',
+		body: new URLSearchParams({
+			email: `nobody-${Date.now()}@example.test`,
+			password: 'not the password at all'
+		}),
+		headers: { origin: server.origin, accept: 'text/html' },
+		redirect: 'manual'
+	});
+	expect(refused.status).toBe(400);
+	// The request line is written after the answer; give the log a moment.
+	await expect
+		.poll(() => server.output().slice(before), { timeout: 5_000 })
+		.toContain('"kind":"request"');
+	const lines = server
+		.output()
+		.slice(before)
+		.split('\n')
+		.filter((l) => l.trim() !== '');
+	expect(
+		lines.filter((l) => /^\s+at /.test(l)),
+		'stack frames'
+	).toEqual([]);
+	expect(lines.filter((l) => l.includes('[auth][error]'))).toEqual([]);
+	const refusals = lines.filter((l) => l.includes('"sign-in-refused"'));
+	expect(refusals).toHaveLength(1);
+	const entry = JSON.parse(refusals[0] ?? '{}') as Record<string, unknown>;
+	expect(entry).toMatchObject({ kind: 'sign-in-refused', method: 'credentials' });
+	// The address typed is not logged.
+	expect(refusals[0]).not.toContain('example.test');
+	for (const line of lines) expect(() => JSON.parse(line), line).not.toThrow();
+});
+

@@ -4,6 +4,7 @@
  * stays in $lib/server/auth, because @auth/sveltekit is still marked experimental.
  */
 import { skipCSRFCheck } from '@auth/core';
+import { AccessDenied, CredentialsSignin } from '@auth/core/errors';
 import SequelizeAdapter from '@auth/sequelize-adapter';
 import { SvelteKitAuth } from '@auth/sveltekit';
 import type { SvelteKitAuthConfig } from '@auth/sveltekit';
@@ -14,6 +15,7 @@ import { env } from '$env/dynamic/private';
 import { emailAddress } from '$lib/schemas/email';
 import { existingPassword } from '$lib/schemas/password';
 import { Account, Session, User, VerificationToken, sequelize } from '$lib/server/db';
+import { logEvent, logFailure } from '$lib/server/log';
 import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import * as accounts from '$lib/server/services/accounts';
@@ -43,6 +45,23 @@ export const authConfig: SvelteKitAuthConfig = {
 	// endpoints for posts are closed in the hook and reached only through our actions.
 	skipCSRFCheck,
 	session: { strategy: 'jwt', maxAge: SESSION_IDLE_SECONDS },
+	logger: {
+		/*
+		 * Auth.js logs every refused password as an error with its full stack trace. A refusal
+		 * is an expected event: one structured line, without the address (issue 12, item 14).
+		 * Anything else stays an error, as one JSON line with its stack.
+		 */
+		error(error) {
+			if (error instanceof CredentialsSignin)
+				logEvent('sign-in-refused', { method: 'credentials' });
+			else if (error instanceof AccessDenied) logEvent('sign-in-refused', { method: 'link' });
+			else logFailure('auth-error', error);
+		},
+		warn(code) {
+			logEvent('auth-warning', { code });
+		},
+		debug() {}
+	},
 	pages: { signIn: '/signin', error: '/signin', verifyRequest: '/signin/check-email' },
 	providers: [
 		Credentials({
