@@ -213,7 +213,8 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	},
 	'GET /(account)/builds': signedIn,
 	'POST /(account)/builds/new?/default': signedIn,
-	// The development mailbox exists only while the local SMTP fake is in use (as here).
+	// The development mailbox exists only on a loopback-only server using the local SMTP fake (as
+	// here); deployment.e2e.ts checks the 404 elsewhere.
 	'GET /dev/mailbox': everyone('ok'),
 	'POST /dev/mailbox?/clear': everyone('ok'),
 	'GET /dev/mailbox/[id]': everyone('notfound'),

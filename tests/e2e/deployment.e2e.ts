@@ -100,3 +100,16 @@ test('a refused password is one structured log line, not a stack trace (item 14)
 	for (const line of lines) expect(() => JSON.parse(line), line).not.toThrow();
 });
 
+test('the development mailbox does not exist on a server that is not loopback-only (item 10)', async () => {
+	expect(process.env.MAILBOX_URL, 'the local SMTP fake is configured for this server').toBeTruthy();
+	const page = await fetch(`${server.url}/dev/mailbox`);
+	expect(page.status).toBe(404);
+	const clear = await fetch(`${server.url}/dev/mailbox?/clear`, {
+		method: 'POST',
+		body: new URLSearchParams({}),
+		headers: { origin: server.origin, accept: 'application/json' }
+	});
+	expect(clear.status).toBe(404);
+	const one = await fetch(`${server.url}/dev/mailbox/00000000-0000-4000-8000-000000000000`);
+	expect(one.status).toBe(404);
+});

@@ -277,3 +277,14 @@ function sessionCookie(setCookies: string[]): {
 	};
 }
 
+test('the development mailbox says it exists only for a loopback demo (item 10)', async ({
+	request
+}) => {
+	// The e2e server listens on 127.0.0.1 with the local SMTP fake, as npm start does;
+	// deployment.e2e.ts checks that it is gone on any other address.
+	const response = await request.get('/dev/mailbox');
+	expect(response.status()).toBe(200);
+	expect(await response.text()).toMatch(
+		/only because this server\s+listens\s+on\s+a\s+loopback\s+address/i
+	);
+});
