@@ -208,4 +208,31 @@ describe('accounts service', () => {
 			/No e-mail/
 		);
 	});
+
+	it('a password change cancels outstanding reset and e-mail-change links (issue 12, item 5)', async () => {
+		const email = `links-${Date.now()}@example.test`;
+		const next = `links-next-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const user = await User.findOne({ where: { email } });
+		if (!user) throw new Error('user missing');
+
+		await accounts.requestPasswordReset(email, ORIGIN);
+		const reset = tokenFrom(
+			firstLink(await waitForMessage({ to: email, subject: /reset/i }), '/reset/')
+		);
+		await accounts.requestEmailChange(user.id, { newEmail: next, password: PASSWORD }, ORIGIN);
+		const change = tokenFrom(
+			firstLink(await waitForMessage({ to: next, subject: /new e-mail/i }), '/verify/email')
+		);
+		expect(await accounts.isResetTokenUsable(reset)).toBe(true);
+
+		expect(await accounts.changePassword(user.id, PASSWORD, 'brand new long password')).toEqual({
+			kind: 'ok'
+		});
+		expect(await accounts.isResetTokenUsable(reset)).toBe(false);
+		expect(await accounts.resetPassword(reset, 'someone else took over')).toBe('invalid');
+		expect(await accounts.confirmEmailChange(change)).toBe('invalid');
+		expect((await User.findByPk(user.id))?.email).toBe(email);
+		expect(await accounts.authenticate(email, 'brand new long password')).not.toBeNull();
+	});
 });

@@ -215,7 +215,11 @@ export async function resetPassword(token: string, password: string): Promise<'r
 
 export type ChangePasswordOutcome = { kind: 'ok' } | { kind: 'wrong_password' };
 
-/** Changes the password after checking the current one; ends every session. */
+/**
+ * Changes the password after checking the current one. Every session ends (session version
+ * bump), and so do links still waiting in someone's inbox: reset links and a pending change
+ * of address (issue 12, item 5), since whoever holds one may be the reason for the change.
+ */
 export async function changePassword(
 	userId: string,
 	current: string,
@@ -225,12 +229,28 @@ export async function changePassword(
 	if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, current)))
 		return { kind: 'wrong_password' };
 	const passwordHash = await hashPassword(next);
-	await User.update(
-		{ passwordHash, sessionVersion: user.sessionVersion + 1 },
-		{ where: { id: userId, sessionVersion: user.sessionVersion } }
-	);
+	await sequelize.transaction(async (transaction) => {
+		await User.update(
+			{ passwordHash, sessionVersion: user.sessionVersion + 1 },
+			{ where: { id: userId, sessionVersion: user.sessionVersion }, transaction }
+		);
+		await EmailToken.update(
+			{ usedAt: new Date() },
+			{ where: { userId, purpose: ['reset_password', 'change_email'], usedAt: null }, transaction }
+		);
+	});
 	await mail.send(user.email, templates.passwordChanged({}));
 	return { kind: 'ok' };
+}
+
+/**
+ * Ends every session of the account at once, this one included: sign-out must invalidate a
+ * session token on the server, not only delete the cookie, or a copied token lives on until
+ * it expires (issue 12, item 5). It bumps the session version the jwt callback compares on
+ * every request, so it signs the account out on every device.
+ */
+export async function endSessions(userId: string): Promise<void> {
+	await User.increment('sessionVersion', { by: 1, where: { id: userId } });
 }
 
 export type EmailChangeOutcome =

@@ -1,0 +1,62 @@
+import { expect, test } from '@playwright/test';
+import type { APIRequestContext, Page } from '@playwright/test';
+import { BASE_URL } from '../playwright.config';
+import { firstLink, listMessages, waitForMessage } from '../support/mailbox';
+import {
+	DEMO_PASSWORD,
+	sessionOf,
+	signInWithPassword,
+	signUpConfirmed,
+	uniqueEmail
+} from './support';
+
+/*
+ * What an attacker or a careless user tried (issue 12, items 5, 7, 8 and 12), against the
+ * production build. Limits are "common practice, no published source" (docs/security.md §4).
+ */
+test.describe.configure({ mode: 'serial' });
+
+const form = (fields: Record<string, string>) => ({
+	form: fields,
+	headers: { origin: BASE_URL, accept: 'text/html' },
+	maxRedirects: 0
+});
+
+test('signing out ends the session on the server: a copied session cookie stops working (item 5)', async () => {
+	const signIn = await fetch(`${BASE_URL}/signin?/password`, {
+		method: 'POST',
+		body: new URLSearchParams({ email: 'reader@slotwise.test', password: DEMO_PASSWORD }),
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		redirect: 'manual'
+	});
+	expect(signIn.status).toBe(303);
+	const cookie = signIn.headers
+		.getSetCookie()
+		.map((c) => c.split(';')[0] ?? '')
+		.filter((c) => c.includes('session-token'))
+		.join('; ');
+	expect(cookie).not.toBe('');
+	const sessionWith = async (c: string) =>
+		(await (await fetch(`${BASE_URL}/auth/session`, { headers: { cookie: c } })).json()) as {
+			user?: { email: string };
+		} | null;
+	expect((await sessionWith(cookie))?.user?.email).toBe('reader@slotwise.test');
+
+	// Someone copied the cookie before the owner signed out.
+	const copied = cookie;
+	const signOut = await fetch(`${BASE_URL}/signout`, {
+		method: 'POST',
+		body: new URLSearchParams({}),
+		headers: { origin: BASE_URL, accept: 'text/html', cookie },
+		redirect: 'manual'
+	});
+	expect(signOut.status).toBe(303);
+
+	expect((await sessionWith(copied))?.user).toBeUndefined();
+	const account = await fetch(`${BASE_URL}/account`, {
+		headers: { cookie: copied },
+		redirect: 'manual'
+	});
+	expect(account.status).toBe(303);
+	expect(account.headers.get('location')).toMatch(/^\/signin\?/);
+});
