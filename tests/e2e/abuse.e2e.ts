@@ -60,3 +60,28 @@ test('signing out ends the session on the server: a copied session cookie stops 
 	expect(account.status).toBe(303);
 	expect(account.headers.get('location')).toMatch(/^\/signin\?/);
 });
+
+test('30 wrong passwords sent at once get at most 10 checks; the rest are refused (item 7)', async () => {
+	const email = uniqueEmail('race');
+	const answers = await Promise.all(
+		Array.from({ length: 30 }, (_, i) =>
+			fetch(`${BASE_URL}/signin?/password`, {
+				method: 'POST',
+				body: new URLSearchParams({ email, password: `wrong guess in parallel ${i}` }),
+				headers: { origin: BASE_URL, accept: 'text/html' },
+				redirect: 'manual'
+			}).then((r) => ({ status: r.status, retryAfter: r.headers.get('retry-after') }))
+		)
+	);
+	// 400 means the password was checked (and was wrong).
+	const checked = answers.filter((a) => a.status === 400).length;
+	// docs/security.md §4: 10 failed sign-ins per account and address per 15 minutes.
+	expect(checked).toBeLessThanOrEqual(10);
+	// Everyone else is refused with Retry-After: 429 over the limit, or 503 when the limit's
+	// store could not answer in time under the burst (it fails closed, §4).
+	const refused = answers.filter((a) => a.status !== 400);
+	expect(refused.filter((a) => a.status !== 429 && a.status !== 503)).toEqual([]);
+	expect(refused.filter((a) => a.status === 429).length).toBeGreaterThan(0);
+	expect(refused.every((a) => Number(a.retryAfter) > 0)).toBe(true);
+});
+

@@ -6,10 +6,16 @@
 import type { LimiterName } from './rate-limit';
 import { addressKey, joinKey } from './rate-limit';
 
+/**
+ * Sign-in attempts are counted before the password is checked (so parallel guesses cannot
+ * slip past the count) and given back when it was right. The account+address pair comes
+ * first: when it refuses, a burst of guesses at one account spends nothing of the address's
+ * budget over all accounts.
+ */
 export function signInChecks(ip: string, email: string): [LimiterName, string][] {
 	return [
-		['signInByAddress', addressKey(ip)],
-		['signInByAccountAndAddress', joinKey(addressKey(ip), email)]
+		['signInByAccountAndAddress', joinKey(addressKey(ip), email)],
+		['signInByAddress', addressKey(ip)]
 	];
 }
 

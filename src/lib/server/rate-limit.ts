@@ -112,7 +112,14 @@ export function policyOf(limiter: LimiterName): Readonly<LimitPolicy> {
 	return POLICIES[limiter];
 }
 
-export type ConsumeResult = { ok: true } | { ok: false; retryAfterSeconds: number };
+export type ConsumeResult =
+	| { ok: true }
+	| {
+			ok: false;
+			retryAfterSeconds: number;
+			/** Refused because the store is down or slow (fail closed), not because of the limit. */
+			storeDown?: true;
+	  };
 export interface PeekResult {
 	blocked: boolean;
 	retryAfterSeconds: number;
@@ -191,7 +198,7 @@ export interface RateLimitConfig extends DbConfig {
 export interface StoreErrorLog {
 	kind: 'rate-limit-store-down' | 'rate-limit-store-up';
 	limiter: LimiterName;
-	operation: 'consume' | 'peek' | 'reset';
+	operation: 'consume' | 'peek' | 'reset' | 'refund';
 	error?: string;
 }
 
@@ -200,6 +207,7 @@ export interface RateLimits {
 	consumeAll(checks: ReadonlyArray<readonly [LimiterName, string]>): Promise<ConsumeResult>;
 	peek(limiter: LimiterName, key: string): Promise<PeekResult>;
 	reset(limiter: LimiterName, key: string): Promise<void>;
+	refund(limiter: LimiterName, key: string): Promise<void>;
 	close(): Promise<void>;
 }
 
@@ -324,7 +332,7 @@ export function createRateLimits(config: RateLimitConfig = dbConfigFromEnv()): R
 				return { ok: false, retryAfterSeconds: seconds(e.msBeforeNext) };
 			}
 			failed(name, 'consume', e);
-			return { ok: false, retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS };
+			return { ok: false, retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS, storeDown: true };
 		}
 	}
 
@@ -361,6 +369,15 @@ export function createRateLimits(config: RateLimitConfig = dbConfigFromEnv()): R
 			} catch (e) {
 				// A sign-in that already succeeded must not fail because its counter stayed.
 				failed(name, 'reset', e);
+			}
+		},
+
+		async refund(name, key) {
+			try {
+				await withTimeout(limiter(name).reward(normaliseKey(key), 1), operationTimeoutMs);
+				succeeded(name, 'refund');
+			} catch (e) {
+				failed(name, 'refund', e);
 			}
 		},
 
@@ -405,6 +422,14 @@ export async function peek(limiter: LimiterName, key: string): Promise<PeekResul
 /** Forgets a key's count (e.g. after a successful sign-in). Never throws; errors are logged. */
 export async function reset(limiter: LimiterName, key: string): Promise<void> {
 	return rateLimits().reset(limiter, key);
+}
+
+/**
+ * Gives back one point counted by `consume` (e.g. the attempt turned out to be a successful
+ * sign-in, which a limit on failures must not count). Never throws; errors are logged.
+ */
+export async function refund(limiter: LimiterName, key: string): Promise<void> {
+	return rateLimits().refund(limiter, key);
 }
 
 /** Closes the process-wide pool (shutdown, tests); the next call opens a new one. */
