@@ -10,6 +10,7 @@ import {
 	resolveUser,
 	securityHeaders
 } from '$lib/server/auth/hooks';
+import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
 import { logRequest, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
@@ -50,8 +51,11 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 	return { message: 'Something went wrong on our side.', errorId };
 };
 
-// adapter-node emits this on SIGINT/SIGTERM after in-flight requests finish.
+// adapter-node emits this on SIGINT/SIGTERM after in-flight requests finish; mail and other
+// work left running after an answer (server/background.ts) finishes before the pools close.
 process.once('sveltekit:shutdown' as never, () => {
-	void closeDb();
-	void closeRateLimits();
+	void settled().finally(() => {
+		void closeDb();
+		void closeRateLimits();
+	});
 });

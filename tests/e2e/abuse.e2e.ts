@@ -85,3 +85,30 @@ test('30 wrong passwords sent at once get at most 10 checks; the rest are refuse
 	expect(refused.every((a) => Number(a.retryAfter) > 0)).toBe(true);
 });
 
+test('password reset and sign-up answer known and unknown addresses the same way (item 8)', async ({
+	request
+}) => {
+	const answer = async (path: string, fields: Record<string, string>) => {
+		const response = await request.post(path, form(fields));
+		return {
+			status: response.status(),
+			location: response.headers()['location'],
+			body: await response.text()
+		};
+	};
+	const known = await answer('/reset', { email: 'editor@slotwise.test' });
+	const unknown = await answer('/reset', { email: uniqueEmail('nobody') });
+	expect(known).toEqual(unknown);
+	expect(known).toMatchObject({ status: 303, location: '/reset?sent' });
+
+	const password = 'willow gravel thunder pocket';
+	const existing = await answer('/signup', {
+		name: 'Someone',
+		email: 'author@slotwise.test',
+		password
+	});
+	const fresh = await answer('/signup', { name: 'Someone', email: uniqueEmail('new'), password });
+	expect(existing).toEqual(fresh);
+	expect(existing).toMatchObject({ status: 303, location: '/signup?sent' });
+});
+
