@@ -112,3 +112,121 @@ test('password reset and sign-up answer known and unknown addresses the same way
 	expect(existing).toMatchObject({ status: 303, location: '/signup?sent' });
 });
 
+async function signedInContext(page: Page, label: string): Promise<APIRequestContext> {
+	await signUpConfirmed(page, `Flood ${label}`, uniqueEmail(label), 'copper meadow lantern swift');
+	return page.request;
+}
+
+test('e-mail change requests are limited per account, with Retry-After (item 12)', async ({
+	page
+}) => {
+	const request = await signedInContext(page, 'mover');
+	const statuses: number[] = [];
+	let retryAfter = '';
+	const targets: string[] = [];
+	for (let i = 0; i < 7; i++) {
+		const newEmail = uniqueEmail(`target${i}`);
+		targets.push(newEmail);
+		const response = await request.post('/account?/email', {
+			...form({ newEmail, password: 'copper meadow lantern swift' })
+		});
+		statuses.push(response.status());
+		if (response.status() === 429) retryAfter = response.headers()['retry-after'] ?? '';
+	}
+	// docs/security.md §4: 5 e-mail change requests per account per hour.
+	expect(statuses.slice(0, 5)).toEqual([200, 200, 200, 200, 200]);
+	expect(statuses.slice(5)).toEqual([429, 429]);
+	expect(Number(retryAfter)).toBeGreaterThan(0);
+	await waitForMessage({ to: targets[4] ?? '', subject: /confirm/i });
+	const sentTo = new Set((await listMessages()).flatMap((m) => m.to.map((t) => t.toLowerCase())));
+	expect(sentTo.has(targets[5] ?? '')).toBe(false);
+	expect(sentTo.has(targets[6] ?? '')).toBe(false);
+});
+
+test('forks are limited per account, with Retry-After (item 12)', async ({ page }) => {
+	const request = await signedInContext(page, 'forker');
+	const statuses: number[] = [];
+	let retryAfter = '';
+	for (let i = 0; i < 21; i++) {
+		const response = await request.post('/api/v1/guides/pocket-itx-1440p/fork', {
+			data: {},
+			headers: { origin: BASE_URL }
+		});
+		statuses.push(response.status());
+		if (response.status() === 429) {
+			retryAfter = response.headers()['retry-after'] ?? '';
+			expect(await response.json()).toMatchObject({ message: expect.any(String) });
+		}
+	}
+	// docs/security.md §4: 20 forks per account per hour.
+	expect(statuses.slice(0, 20).every((s) => s === 201)).toBe(true);
+	expect(statuses[20]).toBe(429);
+	expect(Number(retryAfter)).toBeGreaterThan(0);
+});
+
+test('guide creation is limited per account, with Retry-After (item 12)', async ({
+	page,
+	browser
+}) => {
+	const request = await signedInContext(page, 'writer');
+	const me = (await sessionOf(page)) as { user?: { id?: string } } | null;
+	const userId = me?.user?.id ?? '';
+	expect(userId).not.toBe('');
+
+	// An admin makes the new account an author (the admin page's own action).
+	const adminContext = await browser.newContext();
+	const admin = await adminContext.newPage();
+	await signInWithPassword(admin, 'admin@slotwise.test');
+	const promoted = await admin.request.post('/admin/users?/changeRole', {
+		...form({ userId, role: 'author' })
+	});
+	expect(promoted.status()).toBe(200);
+	await adminContext.close();
+
+	const statuses: number[] = [];
+	let retryAfter = '';
+	for (let i = 0; i < 11; i++) {
+		const response = await request.post('/api/v1/guides', {
+			data: {
+				title: `Flood guide number ${i}`,
+				summary: 'A draft made to test the limit.',
+				targetBudget: '900.00',
+				baseRegion: 'us',
+				tags: [],
+				disclosure: 'none',
+				disclosureNote: '',
+				walkthroughUrl: ''
+			},
+			headers: { origin: BASE_URL }
+		});
+		statuses.push(response.status());
+		if (response.status() === 429) retryAfter = response.headers()['retry-after'] ?? '';
+	}
+	// docs/security.md §4: 10 new guides per account per hour.
+	expect(statuses.slice(0, 10).every((s) => s === 201)).toBe(true);
+	expect(statuses[10]).toBe(429);
+	expect(Number(retryAfter)).toBeGreaterThan(0);
+});
+
+test('a sign-in link is sent only for an existing account: an unknown address gets the same answer and no link (item 12)', async ({
+	request
+}) => {
+	const unknown = uniqueEmail('stranger');
+	const first = await request.post('/signin?/link', form({ email: unknown }));
+	const second = await request.post('/signin?/link', form({ email: 'author@slotwise.test' }));
+	expect(first.status()).toBe(303);
+	expect(second.status()).toBe(first.status());
+	expect(first.headers()['location']).toBe(second.headers()['location']);
+
+	// The link for the existing account arrives; the stranger's never does.
+	const link = firstLink(
+		await waitForMessage({ to: 'author@slotwise.test', subject: /sign-in link/i }),
+		'/auth/callback/nodemailer'
+	);
+	expect(link).toContain('/auth/callback/nodemailer');
+	await new Promise((r) => setTimeout(r, 3_000));
+	const strangerMail = (await listMessages()).filter((m) =>
+		m.to.some((t) => t.toLowerCase() === unknown)
+	);
+	expect(strangerMail).toEqual([]);
+});

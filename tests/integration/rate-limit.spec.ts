@@ -88,7 +88,12 @@ describe('thresholds', () => {
 			'emailLinkByEmail',
 			'emailLinkByAddress',
 			'passwordResetByEmail',
-			'passwordResetByAddress'
+			'passwordResetByAddress',
+			// Issue 12, item 12: floods of address changes, forks and new guides.
+			'emailChangeByUser',
+			'emailChangeByEmail',
+			'forkByUser',
+			'guideCreateByUser'
 		];
 		for (const name of names) {
 			const { points } = policyOf(name);

@@ -37,3 +37,21 @@ export function passwordResetChecks(ip: string, email: string): [LimiterName, st
 export function priceSightingChecks(userId: string): [LimiterName, string][] {
 	return [['priceSightingByUser', userId]];
 }
+
+/** A change of address: per account, and per new address (several accounts, one victim). */
+export function emailChangeChecks(userId: string, newEmail: string): [LimiterName, string][] {
+	return [
+		['emailChangeByUser', userId],
+		['emailChangeByEmail', newEmail]
+	];
+}
+
+/** Forks count per account (the form action and the JSON API alike). */
+export function forkChecks(userId: string): [LimiterName, string][] {
+	return [['forkByUser', userId]];
+}
+
+/** New guides count per author (the form action and the JSON API alike). */
+export function guideCreateChecks(userId: string): [LimiterName, string][] {
+	return [['guideCreateByUser', userId]];
+}

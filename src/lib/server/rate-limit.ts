@@ -101,6 +101,37 @@ const POLICIES = {
 		points: 30,
 		durationSeconds: 60 * 60,
 		blockSeconds: 0
+	},
+	/**
+	 * Changes of address asked for by one account: 5 per hour. Each one mails a confirmation
+	 * link to an address the account typed, so without a limit the form mails anyone.
+	 */
+	emailChangeByUser: {
+		keyPrefix: 'email_change_user',
+		points: 5,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Confirmation links mailed to one new address, from any number of accounts: 5 per hour. */
+	emailChangeByEmail: {
+		keyPrefix: 'email_change_to',
+		points: 5,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Builds forked by one account: 20 per hour (an afternoon of trying guides, not a script). */
+	forkByUser: {
+		keyPrefix: 'fork_user',
+		points: 20,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Guides created by one author: 10 per hour (each is a draft an editor may have to read). */
+	guideCreateByUser: {
+		keyPrefix: 'guide_create_user',
+		points: 10,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
 	}
 } as const satisfies Record<string, LimitPolicy>;
 

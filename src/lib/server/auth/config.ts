@@ -91,6 +91,15 @@ export const authConfig: SvelteKitAuthConfig = {
 	],
 	callbacks: {
 		/**
+		 * Sign-in links are for existing, enabled accounts only: for an unknown address no link
+		 * is mailed (the answer is the same), and a link can never create an account, let alone
+		 * a verified one that skipped sign-up and its limits (issue 12, item 12).
+		 */
+		async signIn({ user, account }) {
+			if (account?.provider !== 'nodemailer') return true;
+			return accounts.canSignInByLink(user.email ?? '');
+		},
+		/**
 		 * Runs on sign-in and on every session read. Re-reading the account each time makes a
 		 * role change, a disabled account or a password change apply on the next request,
 		 * though a JWT itself cannot be revoked. Returning null ends the session.

@@ -4,9 +4,10 @@
  * messages instead of Auth.js's redirects.
  */
 import { Auth, raw } from '@auth/core';
-import { CredentialsSignin } from '@auth/core/errors';
 import type { Session } from '@auth/core/types';
+import { AccessDenied, CredentialsSignin } from '@auth/core/errors';
 import type { RequestEvent } from '@sveltejs/kit';
+import { runLater } from '$lib/server/background';
 import { authConfig } from './config';
 import { setAuthCookies } from './cookies';
 
@@ -66,14 +67,21 @@ export async function signInWithPassword(
 	}
 }
 
-/** Mails a single-use sign-in link; false when Auth.js could not send it. */
-export async function sendSignInLink(
-	event: RequestEvent,
-	email: string,
-	redirectTo: string
-): Promise<boolean> {
-	const target = await callAuth(event, 'signin/nodemailer', { email, callbackUrl: redirectTo });
-	return !failed(target);
+/**
+ * Mails a single-use sign-in link, after the answer has gone out. Auth.js sends it only to
+ * an existing account (the signIn callback in config.ts), so whether the address has an
+ * account shows neither in the answer nor in its timing (issue 12, items 8 and 12). A
+ * refusal is logged by Auth.js's logger as a "sign-in-refused" line; nothing else happens.
+ */
+export function sendSignInLinkLater(origin: string, email: string, redirectTo: string): void {
+	runLater('sign-in-link', async () => {
+		try {
+			await authRequest(origin, 'signin/nodemailer', { email, callbackUrl: redirectTo });
+		} catch (e) {
+			if (e instanceof AccessDenied) return;
+			throw e;
+		}
+	});
 }
 
 export async function signOut(event: RequestEvent): Promise<void> {

@@ -365,6 +365,12 @@ export async function deleteAccount(userId: string): Promise<void> {
 	});
 }
 
+/** Whether a sign-in link may be sent to, or used for, this address: an enabled account has it. */
+export async function canSignInByLink(email: string): Promise<boolean> {
+	const user = await User.findOne({ where: { email, disabledAt: null }, attributes: ['id'] });
+	return user !== null;
+}
+
 /** Session check on every request: the user's current role, or null to end the session. */
 export async function sessionUser(id: string, sessionVersion: number) {
 	const user = await User.findByPk(id, {

@@ -6,7 +6,7 @@ import {
 	redirectTarget
 } from '$lib/schemas/account';
 import { fieldIssues } from '$lib/schemas/issues';
-import { sendSignInLink, signInWithPassword } from '$lib/server/auth/sign-in';
+import { sendSignInLinkLater, signInWithPassword } from '$lib/server/auth/sign-in';
 import * as limits from '$lib/server/rate-limit';
 import { emailLinkChecks, signInChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
@@ -66,14 +66,10 @@ export const actions: Actions = {
 		const { email, redirectTo = '/' } = input.data;
 
 		const allowed = await limits.consumeAll(emailLinkChecks(event.getClientAddress(), email));
-		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);
-		if (!(await sendSignInLink(event, email, redirectTo))) {
-			return fail(503, {
-				form: 'link',
-				email,
-				message: 'We could not send the e-mail just now. Please try again in a minute.'
-			});
-		}
+		if (!allowed.ok) return tooManyRequests(allowed, undefined, { form: 'link', email });
+		// The same answer, at once, for every address: the link goes out afterwards, and only
+		// to an existing account.
+		sendSignInLinkLater(event.url.origin, email, redirectTo);
 		redirect(303, '/signin/check-email');
 	}
 };
