@@ -7,12 +7,15 @@ import {
 	formBodiesOnly,
 	guardAreas,
 	jsonOnlyApi,
+	outageAs503,
 	resolveUser,
 	securityHeaders
 } from '$lib/server/auth/hooks';
 import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
-import { logRequest, logUnexpectedError } from '$lib/server/log';
+import { isDatabaseUnavailable } from '$lib/server/db/availability';
+import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
+import { logFailure, logRequest, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
 
 const log: Handle = async ({ event, resolve }) => {
@@ -34,6 +37,7 @@ export const init: ServerInit = () => {
 export const handle = sequence(
 	log,
 	securityHeaders,
+	outageAs503,
 	capBodies,
 	jsonOnlyApi,
 	closeAuthEndpoints,
@@ -45,6 +49,12 @@ export const handle = sequence(
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {
 	if (status === 404) return { message };
+	if (isDatabaseUnavailable(error)) {
+		// Expected during an outage: one line, a calm message, and a 503 (outageAs503).
+		event.locals.databaseUnavailable = true;
+		logFailure('database-unavailable', error, { path: event.url.pathname });
+		return { message: UNAVAILABLE_MESSAGE, unavailable: true };
+	}
 	const errorId = crypto.randomUUID();
 	logUnexpectedError(errorId, event, error);
 	// Never the stack or SQL: only a generic message and the reference.

@@ -20,6 +20,7 @@ import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import * as accounts from '$lib/server/services/accounts';
 import { secureCookies } from './cookies';
+import { sessionReadFailed } from './session-read';
 import './types';
 
 /** Sign-in links work once and expire after 10 minutes (ASVS 6.5.1, 6.5.5). */
@@ -115,7 +116,16 @@ export const authConfig: SvelteKitAuthConfig = {
 			if (!token.uid || typeof token.sv !== 'number') return null;
 			if (typeof token.authAt !== 'number' || now - token.authAt > SESSION_ABSOLUTE_SECONDS)
 				return null;
-			const current = await accounts.sessionUser(token.uid, token.sv);
+			let current: Awaited<ReturnType<typeof accounts.sessionUser>>;
+			try {
+				current = await accounts.sessionUser(token.uid, token.sv);
+			} catch (e) {
+				// The account could not be read (the database is away): that is not "no session".
+				// Keep the token as it is, so the cookie survives, and let the hook answer 503
+				// for this request (issue 12, item 6).
+				sessionReadFailed(e);
+				return token;
+			}
 			if (!current) return null;
 			token.role = current.role;
 			token.name = current.name;

@@ -4,6 +4,7 @@
 import { error, json, redirect } from '@sveltejs/kit';
 import type { Handle } from '@sveltejs/kit';
 import { baselineHeaders } from '$lib/server/http/security-headers.js';
+import { UNAVAILABLE_HEADERS, unavailableResponse, wantsJson } from '$lib/server/http/unavailable';
 import { secureCookies } from './cookies';
 import { readSession } from './sign-in';
 
@@ -32,6 +33,9 @@ export const closeAuthEndpoints: Handle = ({ event, resolve }) => {
 export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	const session = await readSession(event);
+	// The database could not confirm the session: answer 503 and leave the cookie alone,
+	// rather than go on as a visitor (issue 12, item 6).
+	if (event.locals.sessionUnavailable) return unavailableResponse(event);
 	const user = session?.user;
 	if (user?.id)
 		event.locals.user = {
@@ -176,4 +180,19 @@ export const securityHeaders: Handle = async ({ event, resolve }) => {
 	}
 	if (event.locals.user && !headers.has('cache-control')) headers.set('cache-control', 'no-store');
 	return response;
+};
+
+/**
+ * A request that failed because the database could not be reached (handleError marks it)
+ * answers 503 with Retry-After instead of 500: the page or JSON body is the calm one
+ * handleError gave it (issue 12, item 6; docs/security.md §7).
+ */
+export const outageAs503: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	if (!event.locals.databaseUnavailable || response.status !== 500) return response;
+	// The API answers JSON whatever the client accepts; pages keep the error page rendered.
+	if (wantsJson(event)) return unavailableResponse(event);
+	const headers = new Headers(response.headers);
+	for (const [name, value] of Object.entries(UNAVAILABLE_HEADERS)) headers.set(name, value);
+	return new Response(response.body, { status: 503, headers });
 };
