@@ -2,10 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { redirectTarget } from '../../src/lib/schemas/account';
 
 /*
- * Where sign-in may send someone afterwards (issue 12, item 4; docs/security.md §1, ASVS
- * 3.7.2 "redirects only to allow-listed destinations"). The WHATWG URL Standard's parser
- * removes ASCII tab and newline anywhere in the input and treats "\" like "/" in http(s)
- * URLs (URL Standard, "basic URL parser", steps for special schemes), which is how
+ * Where sign-in may send someone afterwards (issue 12, item 4; docs/security.md §1; OWASP
+ * ASVS v5.0.0 3.7.2, redirects only to allow-listed destinations: the number from memory).
+ * The WHATWG URL Standard's parser removes ASCII tab and newline anywhere in the input and
+ * treats "\" like "/" in http(s) URLs ("basic URL parser", special schemes; from memory,
+ * and what Node's URL does), which is how
  * "/<TAB>/evil.example" and "/\evil.example" become the network-path reference
  * "//evil.example" in a browser. Expected targets below are worked out by hand from those
  * two rules.

@@ -2,7 +2,7 @@ import { z } from 'zod';
 
 /*
  * Where sign-in may send someone afterwards: a path on this site, never another origin
- * (issue 12, item 4; docs/security.md §1, ASVS 3.7.2).
+ * (issue 12, item 4; docs/security.md §1; ASVS v5.0.0 3.7.2).
  *
  * Checking the text ("starts with / but not //") is not enough: the URL parser that the
  * browser applies to the Location header drops tabs and newlines and reads "\" as "/", so
