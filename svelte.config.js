@@ -1,14 +1,69 @@
-import adapter from '@sveltejs/adapter-node';
+import { copyFileSync, existsSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import nodeAdapter from '@sveltejs/adapter-node';
 import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 import { mdsvex } from 'mdsvex';
 import mdsvexConfig from './mdsvex.config.js';
+
+const OUT = 'build';
+const base = nodeAdapter({ out: OUT, precompress: false });
+
+/*
+ * adapter-node serves static files (and SvelteKit answers redirects and errors thrown in
+ * hooks) without passing through our hooks, and it has no option to add headers. So its
+ * server entry is kept as build/server.js and build/index.js becomes a small wrapper that
+ * sets the baseline security headers on every response before anything else writes one
+ * (src/lib/server/http/security-headers.js; docs/security.md §1). `node build` still starts
+ * the same server, with the same environment variables and graceful shutdown.
+ */
+/**
+ * @param {import('@sveltejs/kit').Adapter} adapter
+ * @returns {import('@sveltejs/kit').Adapter}
+ */
+function withSecurityHeaders(adapter) {
+	return {
+		...adapter,
+		name: `${adapter.name} + security headers`,
+		async adapt(builder) {
+			await adapter.adapt(builder);
+			renameSync(join(OUT, 'index.js'), join(OUT, 'server.js'));
+			if (existsSync(join(OUT, 'index.js.map'))) {
+				renameSync(join(OUT, 'index.js.map'), join(OUT, 'server.js.map'));
+				const server = readFileSync(join(OUT, 'server.js'), 'utf8');
+				writeFileSync(
+					join(OUT, 'server.js'),
+					server.replace('sourceMappingURL=index.js.map', 'sourceMappingURL=server.js.map')
+				);
+			}
+			copyFileSync('src/lib/server/http/security-headers.js', join(OUT, 'security-headers.js'));
+			writeFileSync(
+				join(OUT, 'index.js'),
+				[
+					"// Written by svelte.config.js: adapter-node's server with the security headers on every response.",
+					"import { baselineHeaders, originIsHttps } from './security-headers.js';",
+					"import { server } from './server.js';",
+					'',
+					'const headers = Object.entries(baselineHeaders({ https: originIsHttps(process.env.ORIGIN) }));',
+					'// First listener: runs before polka hands the request to sirv or SvelteKit, whose own',
+					"// headers (a page's CSP with nonces) replace these where they set the same name.",
+					"server.server.prependListener('request', (_request, response) => {",
+					'\tfor (const [name, value] of headers) response.setHeader(name, value);',
+					'});',
+					'',
+					"export * from './server.js';",
+					''
+				].join('\n')
+			);
+		}
+	};
+}
 
 /** @type {import('@sveltejs/kit').Config} */
 const config = {
 	extensions: ['.svelte', ...mdsvexConfig.extensions],
 	preprocess: [vitePreprocess(), mdsvex(mdsvexConfig)],
 	kit: {
-		adapter: adapter({ out: 'build', precompress: false }),
+		adapter: withSecurityHeaders(base),
 		alias: {
 			$tests: 'tests'
 		},

@@ -7,10 +7,16 @@ declare global {
 			message: string;
 			/** Reference shown to the user and written to the log for unexpected errors. */
 			errorId?: string;
+			/** Set when the database could not be reached: the page says so calmly (503). */
+			unavailable?: boolean;
 		}
 		interface Locals {
 			/** Set by the auth hook on every request: null for visitors and refused sessions. */
 			user: SessionUser | null;
+			/** The session could not be checked because the database is away (the hook answers 503). */
+			sessionUnavailable?: boolean;
+			/** Something in this request failed to reach the database (handleError); answered as 503. */
+			databaseUnavailable?: boolean;
 		}
 		// interface PageData {}
 		// interface PageState {}

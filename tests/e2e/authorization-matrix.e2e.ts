@@ -1,8 +1,7 @@
 import { expect, request as playwrightRequest, test } from '@playwright/test';
 import type { APIRequestContext } from '@playwright/test';
-import { readFileSync, readdirSync, statSync } from 'node:fs';
-import { join, relative, resolve } from 'node:path';
 import { BASE_URL } from '../playwright.config';
+import { discoverRoutes, urlOf } from './routes';
 import { DEMO_PASSWORD } from './support';
 
 /*
@@ -214,7 +213,8 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	},
 	'GET /(account)/builds': signedIn,
 	'POST /(account)/builds/new?/default': signedIn,
-	// The development mailbox exists only while the local SMTP fake is in use (as here).
+	// The development mailbox exists only on a loopback-only server using the local SMTP fake (as
+	// here); deployment.e2e.ts checks the 404 elsewhere.
 	'GET /dev/mailbox': everyone('ok'),
 	'POST /dev/mailbox?/clear': everyone('ok'),
 	'GET /dev/mailbox/[id]': everyone('notfound'),
@@ -260,83 +260,6 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /api/v1/builds/[id=id]/export.csv': everyone('notfound')
 };
 
-/*
- * Per-route samples where SAMPLE_PARAMS would name the wrong kind of record: its slug is a
- * guide's, which a part route answers with 404. A demo part's slug makes "ok" mean
- * "authorized and found" for the public part page and API (the seeded e2e database has it).
- */
-const ROUTE_PARAMS: Record<string, Record<string, string>> = {
-	'/(public)/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
-	'/api/v1/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
-	'/(editor)/editor/parts/[slug=slug]': { slug: 'solenne-cobalt-c6-8g' },
-	'/(editor)/editor/regions/[code]': { code: 'us' },
-	'/(editor)/editor/cautions/[id=id]': { id: '1' },
-	'/(editor)/review/[id=id]': { id: '1' },
-	'/(public)/builds/[id=id]': { id: '999999' },
-	'/(public)/builds/[id=id]/print': { id: '999999' },
-	'/(public)/builds/[id=id]/export.csv': { id: '999999' },
-	// No build has this id in the seeded database (the id matcher refuses the UUID sample).
-	'/api/v1/builds/[id=id]/sync': { id: '999999' },
-	'/api/v1/builds/[id=id]': { id: '999999' },
-	'/api/v1/builds/[id=id]/slots': { id: '999999' },
-	'/api/v1/builds/[id=id]/slots/[slotId=id]': { id: '999999', slotId: '999999' },
-	'/api/v1/builds/[id=id]/export.csv': { id: '999999' }
-};
-
-const SAMPLE_PARAMS: Record<string, string> = {
-	slug: 'steady-1080p-starter',
-	token: 'a'.repeat(43),
-	id: '00000000-0000-0000-0000-000000000000'
-};
-
-const ROUTES_DIR = resolve(import.meta.dirname, '../../src/routes');
-
-function walk(dir: string): string[] {
-	return readdirSync(dir).flatMap((name) => {
-		const path = join(dir, name);
-		return statSync(path).isDirectory() ? walk(path) : [path];
-	});
-}
-
-/** Every page (GET), form action (POST ?/name) and endpoint method under src/routes. */
-function discoverRoutes(): string[] {
-	const found = new Set<string>();
-	for (const file of walk(ROUTES_DIR)) {
-		const routeId = '/' + relative(ROUTES_DIR, join(file, '..')).split('\\').join('/');
-		const id = routeId === '/' ? '/' : routeId.replace(/\/$/, '');
-		const name = file.split('/').pop() ?? '';
-		const source = readFileSync(file, 'utf8');
-		if (name === '+page.svelte' || name === '+page.svx') found.add(`GET ${id}`);
-		if (name === '+page.server.ts') {
-			const block = /export const actions[^=]*=\s*\{([\s\S]*?)\n\};/.exec(source)?.[1] ?? '';
-			for (const m of block.matchAll(/^\t(\w+):/gm)) found.add(`POST ${id}?/${m[1]}`);
-		}
-		if (name === '+server.ts') {
-			for (const m of source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g))
-				found.add(`${m[1]} ${id}`);
-		}
-	}
-	return [...found].sort();
-}
-
-function urlOf(entry: string): { method: string; url: string } {
-	const [method = 'GET', target = '/'] = entry.split(' ');
-	const [routeId = '/', action] = target.split('?/');
-	const path =
-		routeId
-			.split('/')
-			.filter((segment) => segment && !/^\(.+\)$/.test(segment))
-			.map((segment) =>
-				segment.replace(
-					/^\[(\w+)(=\w+)?\]$/,
-					(_, p: string) => ROUTE_PARAMS[routeId]?.[p] ?? SAMPLE_PARAMS[p] ?? 'x'
-				)
-			)
-			.join('/') || '';
-	const url = `/${path}` + (action ? (action === 'default' ? '' : `?/${action}`) : '');
-	return { method, url };
-}
-
 function classify(status: number, location: string | undefined): Outcome {
 	if (status === 401) return 'signin';
 	if ((status === 302 || status === 303) && location && /\/signin(\?|$)/.test(location))
@@ -362,13 +285,15 @@ test('every route under src/routes is in the authorization table, and nothing st
 	expect(discoverRoutes()).toEqual(Object.keys(EXPECTED).sort());
 });
 
+const SIGN_OUT = 'POST /(auth)/signout?/default';
+
 for (const role of ROLES) {
 	test(`authorization matrix for the ${role}`, async () => {
-		const signedInState = await (await contextFor(role)).storageState();
+		let signedInState = await (await contextFor(role)).storageState();
 		const mismatches: string[] = [];
 		for (const entry of discoverRoutes()) {
 			const expected = EXPECTED[entry]?.[role];
-			// A fresh context per request: signing out in one entry cannot leak into the next.
+			// A fresh context per request, so no cookie one entry changes reaches the next.
 			const context = await playwrightRequest.newContext({
 				baseURL: BASE_URL,
 				storageState: signedInState
@@ -386,6 +311,10 @@ for (const role of ROLES) {
 					`${entry} (${method} ${url}): expected ${expected}, got ${got} (${response.status()})`
 				);
 			await context.dispose();
+			// Signing out ends every session of the account on the server (docs/security.md §3),
+			// the one the following entries share too: sign in afresh.
+			if (entry === SIGN_OUT && role !== 'visitor')
+				signedInState = await (await contextFor(role)).storageState();
 		}
 		expect(mismatches).toEqual([]);
 	});

@@ -1,6 +1,7 @@
-import { expect, test } from '@playwright/test';
+import { expect, request as playwrightRequest, test } from '@playwright/test';
 import { BASE_URL } from '../playwright.config';
-import { signInWithPassword } from './support';
+import { discoverActions, urlOf } from './routes';
+import { DEMO_PASSWORD, signInWithPassword } from './support';
 
 /* docs/security.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
 
@@ -99,4 +100,191 @@ test('a body over 512 KB is refused with 413 outside the catalog import', async 
 		headers: { origin: BASE_URL, accept: 'text/html' }
 	});
 	expect(response.status()).toBe(413);
+});
+
+/* Issue 12: the holes an outside probe found. Each test below failed before its fix. */
+
+test('sign-in never sends anyone to another origin, and odd targets give the home page, not a 500 (item 4)', async ({
+	page
+}) => {
+	await signInWithPassword(page, 'reader@slotwise.test');
+	for (const target of [
+		'/\t/evil.example',
+		'/\n/evil.example',
+		'/\\evil.example',
+		'//evil.example',
+		'https://evil.example/',
+		'/guides/\u00e9t\u00e9',
+		'/guides/\u{1F600}',
+		'/guides\u0000',
+		'/guides\u007f',
+		'/\u2028'
+	]) {
+		const response = await page.request.get(`/signin?redirectTo=${encodeURIComponent(target)}`, {
+			maxRedirects: 0
+		});
+		const where = JSON.stringify(target);
+		expect(response.status(), where).toBe(303);
+		const location = response.headers()['location'] ?? '';
+		expect(new URL(location, BASE_URL).origin, where).toBe(BASE_URL);
+		expect(location.startsWith('/') && !location.startsWith('//'), where).toBe(true);
+	}
+	// A plain local path is kept.
+	const kept = await page.request.get(`/signin?redirectTo=${encodeURIComponent('/guides')}`, {
+		maxRedirects: 0
+	});
+	expect(kept.headers()['location']).toBe('/guides');
+});
+
+test('a form action posted with a body type no form sends answers 415, never 500 (item 11)', async ({
+	request
+}) => {
+	const admin = await playwrightRequest.newContext({ baseURL: BASE_URL });
+	const signedIn = await admin.post('/signin?/password', {
+		form: { email: 'admin@slotwise.test', password: DEMO_PASSWORD },
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		maxRedirects: 0
+	});
+	expect(signedIn.status()).toBe(303);
+	const wrong: string[] = [];
+	const actions = discoverActions();
+	expect(actions.length).toBeGreaterThan(30);
+	for (const [who, context] of [
+		['visitor', request],
+		['admin', admin]
+	] as const) {
+		for (const entry of actions) {
+			if (entry === 'POST /(auth)/signout?/default') continue; // would end the admin's session
+			const { url } = urlOf(entry);
+			for (const [type, body] of [
+				['text/plain', 'email=a@b.test'],
+				['application/json', '{"email":"a@b.test"}'],
+				['application/xml', '<a/>'],
+				['multipart/form-data', 'no boundary at all'],
+				['', 'email=a@b.test']
+			]) {
+				const headers: Record<string, string> = { origin: BASE_URL, accept: 'application/json' };
+				if (type) headers['content-type'] = type;
+				const response = await context.post(url, { data: body, headers, maxRedirects: 0 });
+				const status = response.status();
+				const text = await response.text();
+				if (![400, 415].includes(status) || !/message|error/i.test(text))
+					wrong.push(`${who} ${entry} [${type || 'no type'}] → ${status} ${text.slice(0, 80)}`);
+			}
+		}
+	}
+	await admin.dispose();
+	expect(wrong).toEqual([]);
+});
+
+/** The headers every answer carries, pages or not (docs/security.md §1, 3.4.x). */
+function expectHardened(headers: Record<string, string>, what: string) {
+	expect(headers['x-content-type-options'], what).toBe('nosniff');
+	expect(headers['x-frame-options'], what).toBe('DENY');
+	expect(headers['referrer-policy'], what).toBe('strict-origin-when-cross-origin');
+	expect(headers['cross-origin-opener-policy'], what).toBe('same-origin');
+	expect(headers['permissions-policy'], what).toContain('camera=()');
+	const csp = headers['content-security-policy'] ?? '';
+	expect(csp, what).toContain("frame-ancestors 'none'");
+	expect(csp, what).toContain("object-src 'none'");
+	expect(csp, what).toContain("base-uri 'none'");
+}
+
+test('redirects and errors from the hooks, static files and API answers carry the same security headers (item 13)', async ({
+	request
+}) => {
+	const home = await request.get('/');
+	expectHardened(home.headers(), 'a page');
+	const asset = /\/_app\/immutable\/[^"']+\.(?:js|css)/.exec(await home.text())?.[0];
+	expect(asset, 'the home page links a built asset').toBeTruthy();
+
+	const answers: [
+		string,
+		() => Promise<{ status(): number; headers(): Record<string, string> }>
+	][] = [
+		// The area guard in hooks.server.ts redirects visitors…
+		['hook redirect', () => request.get('/account', { maxRedirects: 0 })],
+		// …and answers 401 to a visitor's post there.
+		[
+			'hook 401',
+			() =>
+				request.post('/account?/profile', {
+					form: { name: 'x' },
+					headers: { origin: BASE_URL },
+					maxRedirects: 0
+				})
+		],
+		// Auth.js's own POST endpoints are closed with a 404 thrown in a hook.
+		[
+			'hook 404',
+			() => request.post('/auth/signout', { headers: { origin: BASE_URL }, maxRedirects: 0 })
+		],
+		['static file', () => request.get('/favicon.svg')],
+		['robots.txt', () => request.get('/robots.txt')],
+		['built asset', () => request.get(asset ?? '/')],
+		['missing static file', () => request.get('/_app/immutable/nothing-here.js')],
+		['JSON API', () => request.get('/api/v1/guides')],
+		['JSON API error', () => request.get('/api/v1/guides/no-such-guide-here')]
+	];
+	for (const [what, fetchIt] of answers) {
+		const response = await fetchIt();
+		expect(response.status(), what).toBeLessThan(500);
+		expectHardened(response.headers(), what);
+	}
+});
+
+test('the session cookie has the same flags at sign-in and on every refresh, decided by the configured origin (item 13)', async () => {
+	// ORIGIN is plain http here, so the cookie is not Secure and has no __Secure- prefix;
+	// deployment.e2e.ts checks an https origin. A forged X-Forwarded-Proto changes nothing.
+	const signIn = await fetch(`${BASE_URL}/signin?/password`, {
+		method: 'POST',
+		body: new URLSearchParams({ email: 'reader@slotwise.test', password: DEMO_PASSWORD }),
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		redirect: 'manual'
+	});
+	expect(signIn.status).toBe(303);
+	const issued = sessionCookie(signIn.headers.getSetCookie());
+	expect(issued.name).toBe('authjs.session-token');
+	expect(issued.attributes).not.toContain('secure');
+	expect(issued.attributes).toEqual(expect.arrayContaining(['httponly', 'samesite=lax', 'path=/']));
+
+	for (const extra of [{}, { 'x-forwarded-proto': 'https' }] as Record<string, string>[]) {
+		const refresh = await fetch(`${BASE_URL}/`, {
+			headers: { cookie: `${issued.name}=${issued.value}`, ...extra }
+		});
+		expect(refresh.status).toBe(200);
+		const refreshed = sessionCookie(refresh.headers.getSetCookie());
+		expect(refreshed.name, JSON.stringify(extra)).toBe(issued.name);
+		expect(refreshed.attributes.filter((a) => !a.startsWith('expires=')).sort()).toEqual(
+			issued.attributes.filter((a) => !a.startsWith('expires=')).sort()
+		);
+	}
+});
+
+function sessionCookie(setCookies: string[]): {
+	name: string;
+	value: string;
+	attributes: string[];
+} {
+	const line = setCookies.find((c) => /^(__Secure-)?authjs\.session-token=/.test(c));
+	if (!line) throw new Error(`no session cookie in ${JSON.stringify(setCookies)}`);
+	const [pair = '', ...attributes] = line.split(';').map((p) => p.trim());
+	const eq = pair.indexOf('=');
+	return {
+		name: pair.slice(0, eq),
+		value: pair.slice(eq + 1),
+		attributes: attributes.map((a) => a.toLowerCase())
+	};
+}
+
+test('the development mailbox says it exists only for a loopback demo (item 10)', async ({
+	request
+}) => {
+	// The e2e server listens on 127.0.0.1 with the local SMTP fake, as npm start does;
+	// deployment.e2e.ts checks that it is gone on any other address.
+	const response = await request.get('/dev/mailbox');
+	expect(response.status()).toBe(200);
+	expect(await response.text()).toMatch(
+		/only because this server\s+listens\s+on\s+a\s+loopback\s+address/i
+	);
 });

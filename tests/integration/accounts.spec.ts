@@ -1,7 +1,11 @@
-import { beforeEach, describe, expect, it } from 'vitest';
+import { createServer, type AddressInfo, type Socket } from 'node:net';
+import { QueryTypes } from 'sequelize';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { settled } from '../../src/lib/server/background';
 import { EmailToken, Guide, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import * as guides from '../../src/lib/server/services/guides';
+import { closeTransport } from '../../src/lib/server/mail';
 import * as accounts from '../../src/lib/server/services/accounts';
 import { resetDatabase } from '../support/db';
 import { firstLink, waitForMessage } from '../support/mailbox';
@@ -26,10 +30,13 @@ async function signUpAndVerify(email: string) {
 
 describe('accounts service', () => {
 	beforeEach(resetDatabase);
+	// Accounts answer first and write rows and send mail afterwards (issue 12, item 8).
+	afterEach(settled);
 
 	it('signs up an unverified reader with an argon2id hash, and only verification opens sign-in', async () => {
 		const email = `new-${Date.now()}@example.test`;
 		await accounts.signUp({ name: 'Nell', email, password: PASSWORD }, ORIGIN);
+		await settled();
 		const user = await User.findOne({ where: { email } });
 		expect(user?.role).toBe('reader');
 		expect(user?.passwordHash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
@@ -64,6 +71,7 @@ describe('accounts service', () => {
 				ORIGIN
 			)
 		).toEqual({ kind: 'ok' });
+		await settled();
 		expect(await User.count()).toBe(before);
 		await waitForMessage({ to: email, subject: /already|account/i });
 		// The owner's password is unchanged.
@@ -115,6 +123,7 @@ describe('accounts service', () => {
 		await signUpAndVerify(email);
 		const before = Date.now();
 		await accounts.requestPasswordReset(email, ORIGIN);
+		await settled();
 		const row = await EmailToken.findOne({ where: { purpose: 'reset_password' } });
 		const minutes = ((row?.expiresAt.getTime() ?? 0) - before) / 60_000;
 		expect(minutes).toBeGreaterThan(9.9);
@@ -125,6 +134,8 @@ describe('accounts service', () => {
 		await expect(
 			accounts.requestPasswordReset('nobody-here@example.test', ORIGIN)
 		).resolves.toBeUndefined();
+		await settled();
+		expect(await EmailToken.count()).toBe(0);
 		await expect(
 			waitForMessage({ to: 'nobody-here@example.test', timeoutMs: 500 })
 		).rejects.toThrow(/No e-mail/);
@@ -204,8 +215,155 @@ describe('accounts service', () => {
 		expect(
 			await accounts.requestEmailChange(user.id, { newEmail: b, password: PASSWORD }, ORIGIN)
 		).toEqual({ kind: 'ok' });
+		await settled();
+		expect(await EmailToken.count({ where: { purpose: 'change_email' } })).toBe(0);
 		await expect(waitForMessage({ to: b, subject: /new e-mail/i, timeoutMs: 500 })).rejects.toThrow(
 			/No e-mail/
 		);
 	});
+
+	it('a password change cancels outstanding reset and e-mail-change links (issue 12, item 5)', async () => {
+		const email = `links-${Date.now()}@example.test`;
+		const next = `links-next-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		const user = await User.findOne({ where: { email } });
+		if (!user) throw new Error('user missing');
+
+		await accounts.requestPasswordReset(email, ORIGIN);
+		const reset = tokenFrom(
+			firstLink(await waitForMessage({ to: email, subject: /reset/i }), '/reset/')
+		);
+		await accounts.requestEmailChange(user.id, { newEmail: next, password: PASSWORD }, ORIGIN);
+		const change = tokenFrom(
+			firstLink(await waitForMessage({ to: next, subject: /new e-mail/i }), '/verify/email')
+		);
+		expect(await accounts.isResetTokenUsable(reset)).toBe(true);
+
+		expect(await accounts.changePassword(user.id, PASSWORD, 'brand new long password')).toEqual({
+			kind: 'ok'
+		});
+		expect(await accounts.isResetTokenUsable(reset)).toBe(false);
+		expect(await accounts.resetPassword(reset, 'someone else took over')).toBe('invalid');
+		expect(await accounts.confirmEmailChange(change)).toBe('invalid');
+		expect((await User.findByPk(user.id))?.email).toBe(email);
+		expect(await accounts.authenticate(email, 'brand new long password')).not.toBeNull();
+	});
+
+	it('answers without waiting for the mail server, even one that never replies (issue 12, item 8)', async () => {
+		const email = `hang-${Date.now()}@example.test`;
+		await signUpAndVerify(email);
+		await settled();
+		const user = await User.findOne({ where: { email } });
+		if (!user) throw new Error('user missing');
+		// A real TCP server that accepts the connection and never sends the SMTP greeting.
+		const sockets = new Set<Socket>();
+		const hanging = createServer((socket) => sockets.add(socket));
+		await new Promise<void>((done) => hanging.listen(0, '127.0.0.1', done));
+		const saved = process.env.SMTP_PORT;
+		process.env.SMTP_PORT = String((hanging.address() as AddressInfo).port);
+		closeTransport();
+		try {
+			const started = Date.now();
+			expect(await accounts.changePassword(user.id, PASSWORD, 'brand new long password')).toEqual({
+				kind: 'ok'
+			});
+			await accounts.requestPasswordReset(email, ORIGIN);
+			expect(Date.now() - started).toBeLessThan(2_000);
+		} finally {
+			for (const socket of sockets) socket.destroy();
+			hanging.close();
+			process.env.SMTP_PORT = saved;
+			await settled();
+			closeTransport();
+		}
+	});
+
+	it('runs the same database statements before answering for known and unknown addresses (issue 12, item 8)', async () => {
+		// The database's own statement counters (SHOW GLOBAL STATUS), read around each call:
+		// only this test talks to this MariaDB while it runs.
+		const known = `known-${Date.now()}@example.test`;
+		await signUpAndVerify(known);
+		await drain();
+
+		const resetKnown = await statementsDuring(() => accounts.requestPasswordReset(known, ORIGIN));
+		const resetUnknown = await statementsDuring(() =>
+			accounts.requestPasswordReset(`unknown-${Date.now()}@example.test`, ORIGIN)
+		);
+		expect(resetKnown).toEqual(resetUnknown);
+
+		const input = { name: 'Same Work', password: 'other long passphrase here' };
+		const signUpExisting = await statementsDuring(() =>
+			accounts.signUp({ ...input, email: known }, ORIGIN)
+		);
+		const signUpNew = await statementsDuring(() =>
+			accounts.signUp({ ...input, email: `fresh-${Date.now()}@example.test` }, ORIGIN)
+		);
+		expect(signUpExisting).toEqual(signUpNew);
+	});
+
+	it('hashes the password on sign-up whether or not the address has an account (issue 12, item 8)', async () => {
+		// An argon2id hash (m = 19 MiB, t = 2) is most of a sign-up's work; if only new addresses
+		// paid for it, the answer time would tell which addresses have accounts. Measured as
+		// this process's CPU time (argon2 runs on libuv's threads, which count too), so a slow
+		// mail server or a busy machine does not blur it. Medians of runs taken in turns, with
+		// a generous bound (common practice, no published source).
+		const known = `timed-${Date.now()}@example.test`;
+		await signUpAndVerify(known);
+		const input = { name: 'Timed', password: 'other long passphrase here' };
+		const existing: number[] = [];
+		const fresh: number[] = [];
+		for (let i = 0; i < 5; i++) {
+			await drain();
+			existing.push(await cpuTime(() => accounts.signUp({ ...input, email: known }, ORIGIN)));
+			await drain();
+			fresh.push(
+				await cpuTime(() =>
+					accounts.signUp({ ...input, email: `timed-new-${i}-${Date.now()}@example.test` }, ORIGIN)
+				)
+			);
+		}
+		await drain();
+		const ratio = median(existing) / median(fresh);
+		expect(
+			ratio,
+			`CPU ms: existing ${existing.map(Math.round).join(', ')}; new ${fresh.map(Math.round).join(', ')}`
+		).toBeGreaterThan(0.5);
+		expect(ratio).toBeLessThan(2);
+	});
 });
+
+const COUNTED = ['Com_select', 'Com_insert', 'Com_update', 'Com_delete', 'Com_begin', 'Com_commit'];
+
+async function statementCounters(): Promise<Record<string, number>> {
+	const rows = await sequelize.query<{ Variable_name: string; Value: string }>(
+		`SHOW GLOBAL STATUS WHERE Variable_name IN (${COUNTED.map(() => '?').join(', ')})`,
+		{ replacements: COUNTED, type: QueryTypes.SELECT }
+	);
+	return Object.fromEntries(rows.map((r) => [r.Variable_name, Number(r.Value)]));
+}
+
+async function statementsDuring(work: () => Promise<unknown>): Promise<Record<string, number>> {
+	const before = await statementCounters();
+	await work();
+	const after = await statementCounters();
+	await drain();
+	return Object.fromEntries(
+		COUNTED.map((name) => [name, (after[name] ?? 0) - (before[name] ?? 0)])
+	);
+}
+
+/** Milliseconds of CPU (user + system, every thread of this process) spent during `work`. */
+async function cpuTime(work: () => Promise<unknown>): Promise<number> {
+	const started = process.cpuUsage();
+	await work();
+	const spent = process.cpuUsage(started);
+	return (spent.user + spent.system) / 1000;
+}
+
+function median(values: number[]): number {
+	const sorted = [...values].sort((a, b) => a - b);
+	return sorted[Math.floor(sorted.length / 2)] ?? 0;
+}
+
+/** Waits for work the services left running after answering (mail, account rows). */
+const drain = settled;

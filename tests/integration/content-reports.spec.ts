@@ -1,12 +1,23 @@
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { reportInput, hideInput } from '../../src/lib/schemas/content-reports';
-import { AuditEvent, ContentReport, Guide, User, sequelize } from '../../src/lib/server/db';
+import {
+	AuditEvent,
+	Build,
+	ContentReport,
+	Guide,
+	GuideSlot,
+	Part,
+	User,
+	sequelize
+} from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import type { GuideBrowseQuery } from '../../src/lib/schemas/guide-browse';
+import * as builds from '../../src/lib/server/services/builds';
 import * as contentReports from '../../src/lib/server/services/content-reports';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import { atomFeed } from '../../src/lib/server/services/guide-feed';
 import * as guides from '../../src/lib/server/services/guides';
+import * as parts from '../../src/lib/server/services/parts';
 import { countRows, resetDatabase } from '../support/db';
 
 /*
@@ -213,6 +224,49 @@ describe('content reports on the real MariaDB', () => {
 		expect(event).toMatchObject({ actorId: editor.id, subjectType: 'guide', subjectId: guideId });
 		expect(event?.after).toMatchObject({ hidden: true, hiddenReason: REASON, reportsClosed: 1 });
 		expect(await auditActions()).toEqual(['guide.hidden']);
+	});
+
+	it('a hidden guide leaves no title or link on part pages, the parts API or builds forked from it (issue 12, item 9)', async () => {
+		const guide = await Guide.findByPk(Number(guideId));
+		const pick = await GuideSlot.findOne({
+			where: { revisionId: guide?.publishedRevisionId ?? 0 },
+			order: [['position', 'ASC']]
+		});
+		const part = await Part.findByPk(pick?.pickPartId ?? 0);
+		if (!guide || !part) throw new Error('demo guide or its first pick missing');
+		// A reader's public build forked from the guide, as anyone may see it.
+		const forked = await builds.fork(reader.id, SLUG);
+		if (forked.kind !== 'created') throw new Error('fork failed');
+		await Build.update({ visibility: 'public' }, { where: { id: forked.id } });
+
+		const usingBefore = (await parts.getBySlug(part.slug))?.guides.map((g) => g.slug);
+		expect(usingBefore).toContain(SLUG);
+		expect((await builds.getBuild(null, forked.id))?.source).toMatchObject({
+			slug: SLUG,
+			title: guide.title
+		});
+
+		await contentReports.report(admin.id, 'guide', SLUG, input);
+		await contentReports.hide(editor.id, subject(), REASON);
+
+		// The part page and /api/v1/parts/[slug] both read getBySlug.
+		const usingAfter = (await parts.getBySlug(part.slug))?.guides ?? [];
+		expect(usingAfter.map((g) => g.slug)).not.toContain(SLUG);
+		expect(JSON.stringify(usingAfter)).not.toContain(guide.title);
+		for (const viewer of [null, { id: admin.id, role: 'admin' }]) {
+			const view = await builds.getBuild(viewer, forked.id);
+			expect(view, 'the build itself stays visible').not.toBeNull();
+			expect(view?.source ?? null).toBeNull();
+			expect(JSON.stringify(view)).not.toContain(`/guides/${SLUG}`);
+		}
+		const mine = await builds.listMine(reader.id);
+		expect(mine.find((b) => b.id === forked.id)?.source ?? null).toBeNull();
+
+		// Restored, it is credited again.
+		await contentReports.restore(editor.id, subject());
+		expect((await parts.getBySlug(part.slug))?.guides.map((g) => g.slug)).toContain(SLUG);
+		expect((await builds.getBuild(null, forked.id))?.source?.slug).toBe(SLUG);
+		await Build.destroy({ where: { id: forked.id } });
 	});
 
 	it('restores a hidden guide, records it, and refuses a second restore', async () => {

@@ -19,6 +19,7 @@ import {
 	normaliseKey,
 	peek,
 	policyOf,
+	refund,
 	reset,
 	type LimiterName,
 	type RateLimits,
@@ -87,7 +88,12 @@ describe('thresholds', () => {
 			'emailLinkByEmail',
 			'emailLinkByAddress',
 			'passwordResetByEmail',
-			'passwordResetByAddress'
+			'passwordResetByAddress',
+			// Issue 12, item 12: floods of address changes, forks and new guides.
+			'emailChangeByUser',
+			'emailChangeByEmail',
+			'forkByUser',
+			'guideCreateByUser'
 		];
 		for (const name of names) {
 			const { points } = policyOf(name);
@@ -213,6 +219,16 @@ describe('peek and reset', () => {
 		expect((await peek('signInByAccountAndAddress', other)).blocked).toBe(true);
 	});
 
+	it('refund gives one point back, so a successful sign-in does not count against the address', async () => {
+		const { points } = policyOf('signInByAddress');
+		await spend('signInByAddress', IP, points - 1);
+		await refund('signInByAddress', IP);
+		await refund('signInByAddress', IP);
+		// points - 1 spent, 2 given back: 3 more fit before the limit.
+		expect((await spend('signInByAddress', IP, 3)).every((r) => r.ok)).toBe(true);
+		expect((await consume('signInByAddress', IP)).ok).toBe(false);
+	});
+
 	it('consumeAll stops at the first refusal, so a blocked address spends no e-mail budget', async () => {
 		const { points } = policyOf('emailLinkByAddress');
 		await spend('emailLinkByAddress', IP, points);
@@ -274,9 +290,11 @@ describe('when the store is unreachable', () => {
 		});
 		try {
 			const started = Date.now();
+			// Refused, and marked as an outage so the answer is a 503, not "too many attempts".
 			expect(await down.consume('signUp', IP)).toEqual({
 				ok: false,
-				retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS
+				retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS,
+				storeDown: true
 			});
 			expect(Date.now() - started).toBeLessThan(3_000);
 
@@ -312,7 +330,8 @@ describe('when the store is unreachable', () => {
 			const started = Date.now();
 			expect(await hung.consume('signInByAddress', IP)).toEqual({
 				ok: false,
-				retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS
+				retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS,
+				storeDown: true
 			});
 			expect(Date.now() - started).toBeLessThan(3_000);
 		} finally {

@@ -1,16 +1,9 @@
 import { z } from 'zod';
 import { emailAddress } from './email';
 import { existingPassword, newPassword } from './password';
+import { redirectTarget } from './redirect-target';
 
-/** A same-site path to return to after signing in; anything else falls back to home. */
-export const redirectTarget = z
-	.string()
-	.max(500)
-	.refine(
-		(p) => p.startsWith('/') && !p.startsWith('//') && !p.startsWith('/\\'),
-		'Not a local path'
-	)
-	.catch('/');
+export { redirectTarget } from './redirect-target';
 
 const displayName = z
 	.string()

@@ -36,3 +36,27 @@ export function logUnexpectedError(errorId: string, event: RequestEvent, error: 
 		})
 	);
 }
+
+/**
+ * One line for an expected event worth counting, such as a refused password: no stack
+ * trace, no personal data (docs/security.md §1, 16.3.x).
+ */
+export function logEvent(kind: string, fields: Record<string, string | number | boolean> = {}) {
+	if (quiet) return;
+	console.log(JSON.stringify({ t: new Date().toISOString(), kind, ...fields }));
+}
+
+/** One line for a failure outside a request (a mail sent after the answer, an Auth.js error). */
+export function logFailure(kind: string, error: unknown, fields: Record<string, string> = {}) {
+	console.error(
+		JSON.stringify({
+			t: new Date().toISOString(),
+			kind,
+			...fields,
+			error:
+				error instanceof Error
+					? { name: error.name, message: error.message, stack: error.stack }
+					: String(error)
+		})
+	);
+}

@@ -6,10 +6,16 @@
 import type { LimiterName } from './rate-limit';
 import { addressKey, joinKey } from './rate-limit';
 
+/**
+ * Sign-in attempts are counted before the password is checked (so parallel guesses cannot
+ * slip past the count) and given back when it was right. The account+address pair comes
+ * first: when it refuses, a burst of guesses at one account spends nothing of the address's
+ * budget over all accounts.
+ */
 export function signInChecks(ip: string, email: string): [LimiterName, string][] {
 	return [
-		['signInByAddress', addressKey(ip)],
-		['signInByAccountAndAddress', joinKey(addressKey(ip), email)]
+		['signInByAccountAndAddress', joinKey(addressKey(ip), email)],
+		['signInByAddress', addressKey(ip)]
 	];
 }
 
@@ -30,4 +36,22 @@ export function passwordResetChecks(ip: string, email: string): [LimiterName, st
 /** Price sightings count per account: signed-in only, so the account is the key. */
 export function priceSightingChecks(userId: string): [LimiterName, string][] {
 	return [['priceSightingByUser', userId]];
+}
+
+/** A change of address: per account, and per new address (several accounts, one victim). */
+export function emailChangeChecks(userId: string, newEmail: string): [LimiterName, string][] {
+	return [
+		['emailChangeByUser', userId],
+		['emailChangeByEmail', newEmail]
+	];
+}
+
+/** Forks count per account (the form action and the JSON API alike). */
+export function forkChecks(userId: string): [LimiterName, string][] {
+	return [['forkByUser', userId]];
+}
+
+/** New guides count per author (the form action and the JSON API alike). */
+export function guideCreateChecks(userId: string): [LimiterName, string][] {
+	return [['guideCreateByUser', userId]];
 }

@@ -101,6 +101,37 @@ const POLICIES = {
 		points: 30,
 		durationSeconds: 60 * 60,
 		blockSeconds: 0
+	},
+	/**
+	 * Changes of address asked for by one account: 5 per hour. Each one mails a confirmation
+	 * link to an address the account typed, so without a limit the form mails anyone.
+	 */
+	emailChangeByUser: {
+		keyPrefix: 'email_change_user',
+		points: 5,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Confirmation links mailed to one new address, from any number of accounts: 5 per hour. */
+	emailChangeByEmail: {
+		keyPrefix: 'email_change_to',
+		points: 5,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Builds forked by one account: 20 per hour (an afternoon of trying guides, not a script). */
+	forkByUser: {
+		keyPrefix: 'fork_user',
+		points: 20,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Guides created by one author: 10 per hour (each is a draft an editor may have to read). */
+	guideCreateByUser: {
+		keyPrefix: 'guide_create_user',
+		points: 10,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
 	}
 } as const satisfies Record<string, LimitPolicy>;
 
@@ -112,7 +143,14 @@ export function policyOf(limiter: LimiterName): Readonly<LimitPolicy> {
 	return POLICIES[limiter];
 }
 
-export type ConsumeResult = { ok: true } | { ok: false; retryAfterSeconds: number };
+export type ConsumeResult =
+	| { ok: true }
+	| {
+			ok: false;
+			retryAfterSeconds: number;
+			/** Refused because the store is down or slow (fail closed), not because of the limit. */
+			storeDown?: true;
+	  };
 export interface PeekResult {
 	blocked: boolean;
 	retryAfterSeconds: number;
@@ -191,7 +229,7 @@ export interface RateLimitConfig extends DbConfig {
 export interface StoreErrorLog {
 	kind: 'rate-limit-store-down' | 'rate-limit-store-up';
 	limiter: LimiterName;
-	operation: 'consume' | 'peek' | 'reset';
+	operation: 'consume' | 'peek' | 'reset' | 'refund';
 	error?: string;
 }
 
@@ -200,6 +238,7 @@ export interface RateLimits {
 	consumeAll(checks: ReadonlyArray<readonly [LimiterName, string]>): Promise<ConsumeResult>;
 	peek(limiter: LimiterName, key: string): Promise<PeekResult>;
 	reset(limiter: LimiterName, key: string): Promise<void>;
+	refund(limiter: LimiterName, key: string): Promise<void>;
 	close(): Promise<void>;
 }
 
@@ -324,7 +363,7 @@ export function createRateLimits(config: RateLimitConfig = dbConfigFromEnv()): R
 				return { ok: false, retryAfterSeconds: seconds(e.msBeforeNext) };
 			}
 			failed(name, 'consume', e);
-			return { ok: false, retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS };
+			return { ok: false, retryAfterSeconds: FAIL_CLOSED_RETRY_AFTER_SECONDS, storeDown: true };
 		}
 	}
 
@@ -361,6 +400,15 @@ export function createRateLimits(config: RateLimitConfig = dbConfigFromEnv()): R
 			} catch (e) {
 				// A sign-in that already succeeded must not fail because its counter stayed.
 				failed(name, 'reset', e);
+			}
+		},
+
+		async refund(name, key) {
+			try {
+				await withTimeout(limiter(name).reward(normaliseKey(key), 1), operationTimeoutMs);
+				succeeded(name, 'refund');
+			} catch (e) {
+				failed(name, 'refund', e);
 			}
 		},
 
@@ -405,6 +453,14 @@ export async function peek(limiter: LimiterName, key: string): Promise<PeekResul
 /** Forgets a key's count (e.g. after a successful sign-in). Never throws; errors are logged. */
 export async function reset(limiter: LimiterName, key: string): Promise<void> {
 	return rateLimits().reset(limiter, key);
+}
+
+/**
+ * Gives back one point counted by `consume` (e.g. the attempt turned out to be a successful
+ * sign-in, which a limit on failures must not count). Never throws; errors are logged.
+ */
+export async function refund(limiter: LimiterName, key: string): Promise<void> {
+	return rateLimits().refund(limiter, key);
 }
 
 /** Closes the process-wide pool (shutdown, tests); the next call opens a new one. */

@@ -16,6 +16,9 @@ import {
 } from '$lib/schemas/build';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
+import * as limits from '$lib/server/rate-limit';
+import { forkChecks } from '$lib/server/rate-limit-keys';
+import { tooManyRequestsJson } from '$lib/server/rate-limit-response';
 import * as builds from '$lib/server/services/builds';
 import type { MutationOutcome } from '$lib/server/services/builds';
 import { invalid, notFound as notFoundAnswer, readJson, stale } from './json';
@@ -73,6 +76,8 @@ export async function forkGuide({ params, request }: RequestEvent): Promise<Resp
 			return invalid({ _form: ['Send an empty JSON object: a fork takes no fields.'] });
 		}
 	}
+	const allowed = await limits.consumeAll(forkChecks(user.id));
+	if (!allowed.ok) return tooManyRequestsJson(allowed);
 	const outcome = await builds.fork(user.id, params.slug ?? '');
 	if (outcome.kind === 'not_found') return json({ message: 'Guide not found' }, { status: 404 });
 	return json(

@@ -7,6 +7,9 @@ import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
 import { createGuideInput, saveDraftInput, submitInput } from '$lib/schemas/guide-editor';
 import { requireRole } from '$lib/server/auth/guards';
+import * as limits from '$lib/server/rate-limit';
+import { guideCreateChecks } from '$lib/server/rate-limit-keys';
+import { tooManyRequestsJson } from '$lib/server/rate-limit-response';
 import * as drafts from '$lib/server/services/guide-drafts';
 import { invalid, notFound as notFoundAnswer, readJson } from './json';
 
@@ -17,6 +20,8 @@ export async function createGuide({ request }: RequestEvent): Promise<Response> 
 	const user = requireRole('author', 'editor');
 	const input = await readJson(request, createGuideInput);
 	if (!input.ok) return input.response;
+	const allowed = await limits.consumeAll(guideCreateChecks(user.id));
+	if (!allowed.ok) return tooManyRequestsJson(allowed);
 	const outcome = await drafts.createGuide(user.id, input.data);
 	if (outcome.kind === 'invalid') return invalid(outcome.issues);
 	return json(

@@ -4,6 +4,7 @@
  * stays in $lib/server/auth, because @auth/sveltekit is still marked experimental.
  */
 import { skipCSRFCheck } from '@auth/core';
+import { AccessDenied, CredentialsSignin } from '@auth/core/errors';
 import SequelizeAdapter from '@auth/sequelize-adapter';
 import { SvelteKitAuth } from '@auth/sveltekit';
 import type { SvelteKitAuthConfig } from '@auth/sveltekit';
@@ -14,9 +15,12 @@ import { env } from '$env/dynamic/private';
 import { emailAddress } from '$lib/schemas/email';
 import { existingPassword } from '$lib/schemas/password';
 import { Account, Session, User, VerificationToken, sequelize } from '$lib/server/db';
+import { logEvent, logFailure } from '$lib/server/log';
 import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import * as accounts from '$lib/server/services/accounts';
+import { secureCookies } from './cookies';
+import { sessionReadFailed } from './session-read';
 import './types';
 
 /** Sign-in links work once and expire after 10 minutes (ASVS 6.5.1, 6.5.5). */
@@ -36,10 +40,29 @@ export const authConfig: SvelteKitAuthConfig = {
 	basePath: '/auth',
 	secret: env.AUTH_SECRET,
 	trustHost: true,
+	// One decision from the configured origin, never from the request (cookies.ts).
+	useSecureCookies: secureCookies(),
 	// SvelteKit's own origin check guards every form post (STACK gotcha 6); Auth.js's
 	// endpoints for posts are closed in the hook and reached only through our actions.
 	skipCSRFCheck,
 	session: { strategy: 'jwt', maxAge: SESSION_IDLE_SECONDS },
+	logger: {
+		/*
+		 * Auth.js logs every refused password as an error with its full stack trace. A refusal
+		 * is an expected event: one structured line, without the address (issue 12, item 14).
+		 * Anything else stays an error, as one JSON line with its stack.
+		 */
+		error(error) {
+			if (error instanceof CredentialsSignin)
+				logEvent('sign-in-refused', { method: 'credentials' });
+			else if (error instanceof AccessDenied) logEvent('sign-in-refused', { method: 'link' });
+			else logFailure('auth-error', error);
+		},
+		warn(code) {
+			logEvent('auth-warning', { code });
+		},
+		debug() {}
+	},
 	pages: { signIn: '/signin', error: '/signin', verifyRequest: '/signin/check-email' },
 	providers: [
 		Credentials({
@@ -69,6 +92,15 @@ export const authConfig: SvelteKitAuthConfig = {
 	],
 	callbacks: {
 		/**
+		 * Sign-in links are for existing, enabled accounts only: for an unknown address no link
+		 * is mailed (the answer is the same), and a link can never create an account, let alone
+		 * a verified one that skipped sign-up and its limits (issue 12, item 12).
+		 */
+		async signIn({ user, account }) {
+			if (account?.provider !== 'nodemailer') return true;
+			return accounts.canSignInByLink(user.email ?? '');
+		},
+		/**
 		 * Runs on sign-in and on every session read. Re-reading the account each time makes a
 		 * role change, a disabled account or a password change apply on the next request,
 		 * though a JWT itself cannot be revoked. Returning null ends the session.
@@ -84,7 +116,16 @@ export const authConfig: SvelteKitAuthConfig = {
 			if (!token.uid || typeof token.sv !== 'number') return null;
 			if (typeof token.authAt !== 'number' || now - token.authAt > SESSION_ABSOLUTE_SECONDS)
 				return null;
-			const current = await accounts.sessionUser(token.uid, token.sv);
+			let current: Awaited<ReturnType<typeof accounts.sessionUser>>;
+			try {
+				current = await accounts.sessionUser(token.uid, token.sv);
+			} catch (e) {
+				// The account could not be read (the database is away): that is not "no session".
+				// Keep the token as it is, so the cookie survives, and let the hook answer 503
+				// for this request (issue 12, item 6).
+				sessionReadFailed(e);
+				return token;
+			}
 			if (!current) return null;
 			token.role = current.role;
 			token.name = current.name;

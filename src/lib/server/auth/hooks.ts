@@ -3,6 +3,10 @@
  */
 import { error, json, redirect } from '@sveltejs/kit';
 import type { Handle } from '@sveltejs/kit';
+import { baselineHeaders } from '$lib/server/http/security-headers.js';
+import { UNAVAILABLE_HEADERS, unavailableResponse, wantsJson } from '$lib/server/http/unavailable';
+import { secureCookies } from './cookies';
+import { readSession } from './sign-in';
 
 /**
  * Auth.js answers every /auth/* path itself. Only what a browser needs directly stays
@@ -28,7 +32,10 @@ export const closeAuthEndpoints: Handle = ({ event, resolve }) => {
 /** Fills locals.user from the session; the jwt callback has re-checked it against the database. */
 export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
-	const session = await event.locals.auth();
+	const session = await readSession(event);
+	// The database could not confirm the session: answer 503 and leave the cookie alone,
+	// rather than go on as a visitor (issue 12, item 6).
+	if (event.locals.sessionUnavailable) return unavailableResponse(event);
 	const user = session?.user;
 	if (user?.id)
 		event.locals.user = {
@@ -115,7 +122,49 @@ export const jsonOnlyApi: Handle = ({ event, resolve }) => {
 	return resolve(event);
 };
 
-/** Response headers for every page; HSTS only when the site is served over https. */
+const FORM_BODY_TYPES = /^(?:application\/x-www-form-urlencoded|multipart\/form-data)\s*(?:;|$)/i;
+
+/** A refused body, in the shape `use:enhance` reads (JSON) or as plain text for anything else. */
+function refusedBody(request: Request, status: 400 | 415, message: string): Response {
+	const accept = request.headers.get('accept') ?? '';
+	if (request.headers.has('x-sveltekit-action') || /application\/json/i.test(accept))
+		return json({ type: 'error', status, error: { message } }, { status });
+	return new Response(message, {
+		status,
+		headers: { 'content-type': 'text/plain; charset=utf-8' }
+	});
+}
+
+/**
+ * Form actions read `request.formData()`, which throws for any other body type, and
+ * SvelteKit answered that with a 500 (issue 12, item 11). So every POST outside /api/ (only
+ * form actions take one) must be form data that parses: any other type is a 415, a form body
+ * that cannot be read a 400, before an action runs. The parse works on a copy, so the action
+ * still reads the body itself.
+ */
+export const formBodiesOnly: Handle = async ({ event, resolve }) => {
+	const { request, url } = event;
+	if (request.method !== 'POST' || url.pathname.startsWith('/api/')) return resolve(event);
+	if (!FORM_BODY_TYPES.test(request.headers.get('content-type') ?? '')) {
+		return refusedBody(
+			request,
+			415,
+			'Send the form as application/x-www-form-urlencoded or multipart/form-data.'
+		);
+	}
+	try {
+		await request.clone().formData();
+	} catch {
+		return refusedBody(request, 400, 'The form data could not be read.');
+	}
+	return resolve(event);
+};
+
+/**
+ * The security headers on everything that passes through the hooks (the server entry sets
+ * the same ones on what does not: src/lib/server/http/security-headers.js). A page keeps the
+ * nonce-based CSP SvelteKit gave it; HSTS follows the configured origin, like the cookies.
+ */
 export const securityHeaders: Handle = async ({ event, resolve }) => {
 	let response = await resolve(event);
 	// Redirects made with Response.redirect() (Auth.js does) have immutable headers.
@@ -125,14 +174,25 @@ export const securityHeaders: Handle = async ({ event, resolve }) => {
 		response = new Response(response.body, response);
 	}
 	const headers = response.headers;
-	headers.set('x-content-type-options', 'nosniff');
-	headers.set('referrer-policy', 'strict-origin-when-cross-origin');
-	headers.set('x-frame-options', 'DENY');
-	headers.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), interest-cohort=()');
-	headers.set('cross-origin-opener-policy', 'same-origin');
-	if (event.url.protocol === 'https:') {
-		headers.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
+	for (const [name, value] of Object.entries(baselineHeaders({ https: secureCookies() }))) {
+		if (name === 'content-security-policy' && headers.has(name)) continue;
+		headers.set(name, value);
 	}
 	if (event.locals.user && !headers.has('cache-control')) headers.set('cache-control', 'no-store');
 	return response;
+};
+
+/**
+ * A request that failed because the database could not be reached (handleError marks it)
+ * answers 503 with Retry-After instead of 500: the page or JSON body is the calm one
+ * handleError gave it (issue 12, item 6; docs/security.md §7).
+ */
+export const outageAs503: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	if (!event.locals.databaseUnavailable || response.status !== 500) return response;
+	// The API answers JSON whatever the client accepts; pages keep the error page rendered.
+	if (wantsJson(event)) return unavailableResponse(event);
+	const headers = new Headers(response.headers);
+	for (const [name, value] of Object.entries(UNAVAILABLE_HEADERS)) headers.set(name, value);
+	return new Response(response.body, { status: 503, headers });
 };

@@ -4,27 +4,42 @@
  * messages instead of Auth.js's redirects.
  */
 import { Auth, raw } from '@auth/core';
-import { CredentialsSignin } from '@auth/core/errors';
+import type { Session } from '@auth/core/types';
+import { AccessDenied, CredentialsSignin } from '@auth/core/errors';
 import type { RequestEvent } from '@sveltejs/kit';
+import { runLater } from '$lib/server/background';
 import { authConfig } from './config';
+import { setAuthCookies } from './cookies';
+
+/** One Auth.js call in-process, as a POST of `fields` to /auth/`path` on `origin`. */
+function authRequest(
+	origin: string,
+	path: string,
+	fields: Record<string, string>,
+	cookie?: string
+) {
+	const headers = new Headers({ 'content-type': 'application/x-www-form-urlencoded' });
+	if (cookie) headers.set('cookie', cookie);
+	const request = new Request(`${origin}/auth/${path}`, {
+		method: 'POST',
+		headers,
+		body: new URLSearchParams(fields)
+	});
+	return Auth(request, { ...authConfig, raw });
+}
 
 async function callAuth(
 	event: RequestEvent,
 	path: string,
 	fields: Record<string, string>
 ): Promise<string> {
-	const headers = new Headers({ 'content-type': 'application/x-www-form-urlencoded' });
-	const cookie = event.request.headers.get('cookie');
-	if (cookie) headers.set('cookie', cookie);
-	const request = new Request(`${event.url.origin}/auth/${path}`, {
-		method: 'POST',
-		headers,
-		body: new URLSearchParams(fields)
-	});
-	const response = await Auth(request, { ...authConfig, raw });
-	for (const c of response.cookies ?? []) {
-		event.cookies.set(c.name, c.value, { path: '/', ...c.options });
-	}
+	const response = await authRequest(
+		event.url.origin,
+		path,
+		fields,
+		event.request.headers.get('cookie') ?? undefined
+	);
+	setAuthCookies(event.cookies, response.cookies);
 	return response.redirect ?? '';
 }
 
@@ -52,16 +67,39 @@ export async function signInWithPassword(
 	}
 }
 
-/** Mails a single-use sign-in link; false when Auth.js could not send it. */
-export async function sendSignInLink(
-	event: RequestEvent,
-	email: string,
-	redirectTo: string
-): Promise<boolean> {
-	const target = await callAuth(event, 'signin/nodemailer', { email, callbackUrl: redirectTo });
-	return !failed(target);
+/**
+ * Mails a single-use sign-in link, after the answer has gone out. Auth.js sends it only to
+ * an existing account (the signIn callback in config.ts), so whether the address has an
+ * account shows neither in the answer nor in its timing (issue 12, items 8 and 12). A
+ * refusal is logged by Auth.js's logger as a "sign-in-refused" line; nothing else happens.
+ */
+export function sendSignInLinkLater(origin: string, email: string, redirectTo: string): void {
+	runLater('sign-in-link', async () => {
+		try {
+			await authRequest(origin, 'signin/nodemailer', { email, callbackUrl: redirectTo });
+		} catch (e) {
+			if (e instanceof AccessDenied) return;
+			throw e;
+		}
+	});
 }
 
 export async function signOut(event: RequestEvent): Promise<void> {
 	await callAuth(event, 'signout', { callbackUrl: '/' });
+}
+
+/**
+ * The session of this request, read in-process like the actions above (rather than through
+ * @auth/sveltekit's `locals.auth()`, which builds its URL from Host and X-Forwarded-Proto
+ * headers and leaves the refreshed cookie's flags to SvelteKit's defaults), so the refreshed
+ * cookie gets the same flags as at sign-in. Null for visitors and ended sessions.
+ */
+export async function readSession(event: RequestEvent): Promise<Session | null> {
+	const request = new Request(`${event.url.origin}/auth/session`, {
+		headers: { cookie: event.request.headers.get('cookie') ?? '' }
+	});
+	const response = await Auth(request, { ...authConfig, raw });
+	setAuthCookies(event.cookies, response.cookies);
+	const session = response.body as Session | null | undefined;
+	return session && typeof session === 'object' && 'user' in session ? session : null;
 }

@@ -9,6 +9,7 @@
  * refused unless they are plain single-line ASCII under a name we do not manage ourselves.
  */
 import { emailAddress } from '../../schemas/email.js';
+import { runLater } from '../background.js';
 import type { MailTemplate } from './templates.js';
 import { getTransport } from './transport.js';
 
@@ -103,4 +104,18 @@ export async function send(
 		html: message.html,
 		headers: extraHeaders
 	});
+}
+
+/**
+ * Sends like `send`, but after the current request has been answered: a slow or hanging mail
+ * server never holds a request, and the time an answer takes does not depend on whether a
+ * message went out (issue 12, item 8). Failures are logged. The one function a persistent
+ * mail queue replaces.
+ */
+export function sendLater(
+	to: string,
+	message: MailTemplate,
+	headers?: Record<string, string>
+): void {
+	runLater('mail', () => send(to, message, headers));
 }

@@ -3,11 +3,12 @@
  * deletion. Answers never reveal whether an e-mail address has an account.
  */
 import { createHash, randomBytes } from 'node:crypto';
-import { Op } from 'sequelize';
+import { Op, UniqueConstraintError } from 'sequelize';
 import type { Transaction } from 'sequelize';
 import { EmailToken, Guide, User, sequelize } from '$lib/server/db';
 import type { EmailTokenPurpose } from '$lib/server/db/models/EmailToken';
 import { hashPassword, verifyPassword } from '$lib/server/auth/password';
+import { runLater } from '$lib/server/background';
 import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import type { Role } from '$lib/domain/types';
@@ -85,35 +86,50 @@ async function redeemToken(
 export type SignUpOutcome = { kind: 'ok' };
 
 /**
- * Creates an unverified reader account and mails a verification link. When the address is
- * taken, the owner gets a note instead and the caller sees the same outcome.
+ * Signs up: an unverified reader account and a verification link, or, when the address is
+ * taken, a note to its owner; the caller sees the same outcome either way.
+ *
+ * Answering must not tell the two apart, by content or by time (issue 12, item 8). So the
+ * expensive part, the argon2 hash, is done for every sign-up before answering, and
+ * everything that depends on the address (the look-up, the new row or the note, the e-mail)
+ * runs after the answer.
  */
 export async function signUp(
 	input: { name: string; email: string; password: string },
 	origin: string
 ): Promise<SignUpOutcome> {
-	const existing = await User.findOne({ where: { email: input.email } });
-	if (existing) {
-		const message = templates.signUpWithExistingEmail({
-			signInUrl: `${origin}/signin`,
-			resetUrl: `${origin}/reset`
-		});
-		await mail.send(existing.email, message);
-		return { kind: 'ok' };
-	}
 	const passwordHash = await hashPassword(input.password);
-	const token = await sequelize.transaction(async (transaction) => {
-		const user = await User.create(
-			{ email: input.email, name: input.name, passwordHash, role: 'reader', emailVerified: null },
-			{ transaction }
-		);
-		return issueToken(user.id, 'verify_email', VERIFY_EMAIL_MINUTES, transaction);
-	});
-	await mail.send(
-		input.email,
-		templates.verifyEmail({ name: input.name, url: `${origin}/verify?token=${token}` })
-	);
+	runLater('sign-up', () => completeSignUp(input.name, input.email, passwordHash, origin));
 	return { kind: 'ok' };
+}
+
+async function completeSignUp(name: string, email: string, passwordHash: string, origin: string) {
+	const existing = await User.findOne({ where: { email } });
+	if (existing) {
+		mail.sendLater(
+			existing.email,
+			templates.signUpWithExistingEmail({
+				signInUrl: `${origin}/signin`,
+				resetUrl: `${origin}/reset`
+			})
+		);
+		return;
+	}
+	let token: string;
+	try {
+		token = await sequelize.transaction(async (transaction) => {
+			const user = await User.create(
+				{ email, name, passwordHash, role: 'reader', emailVerified: null },
+				{ transaction }
+			);
+			return issueToken(user.id, 'verify_email', VERIFY_EMAIL_MINUTES, transaction);
+		});
+	} catch (e) {
+		// Two sign-ups for one new address at once: the first one made the account.
+		if (e instanceof UniqueConstraintError) return;
+		throw e;
+	}
+	mail.sendLater(email, templates.verifyEmail({ name, url: `${origin}/verify?token=${token}` }));
 }
 
 /** Confirms an address from its link. */
@@ -162,15 +178,21 @@ export async function authenticate(
 	};
 }
 
-/** Mails a reset link when the address has an active account; silent otherwise. */
+/**
+ * Mails a reset link when the address has an active account; silent otherwise. Everything
+ * that depends on the address runs after the answer, so known and unknown addresses take
+ * the same time to answer (issue 12, item 8).
+ */
 export async function requestPasswordReset(email: string, origin: string): Promise<void> {
-	const user = await User.findOne({ where: { email, disabledAt: null } });
-	if (!user) return;
-	const token = await issueToken(user.id, 'reset_password', RESET_PASSWORD_MINUTES);
-	await mail.send(
-		user.email,
-		templates.resetPassword({ url: `${origin}/reset/${token}`, minutes: RESET_PASSWORD_MINUTES })
-	);
+	runLater('password-reset', async () => {
+		const user = await User.findOne({ where: { email, disabledAt: null } });
+		if (!user) return;
+		const token = await issueToken(user.id, 'reset_password', RESET_PASSWORD_MINUTES);
+		mail.sendLater(
+			user.email,
+			templates.resetPassword({ url: `${origin}/reset/${token}`, minutes: RESET_PASSWORD_MINUTES })
+		);
+	});
 }
 
 /** Whether a reset token can still be used (for showing the form). */
@@ -209,13 +231,17 @@ export async function resetPassword(token: string, password: string): Promise<'r
 		return user.email;
 	});
 	if (!email) return 'invalid';
-	await mail.send(email, templates.passwordChanged({}));
+	mail.sendLater(email, templates.passwordChanged({}));
 	return 'reset';
 }
 
 export type ChangePasswordOutcome = { kind: 'ok' } | { kind: 'wrong_password' };
 
-/** Changes the password after checking the current one; ends every session. */
+/**
+ * Changes the password after checking the current one. Every session ends (session version
+ * bump), and so do links still waiting in someone's inbox: reset links and a pending change
+ * of address (issue 12, item 5), since whoever holds one may be the reason for the change.
+ */
 export async function changePassword(
 	userId: string,
 	current: string,
@@ -225,12 +251,28 @@ export async function changePassword(
 	if (!user?.passwordHash || !(await verifyPassword(user.passwordHash, current)))
 		return { kind: 'wrong_password' };
 	const passwordHash = await hashPassword(next);
-	await User.update(
-		{ passwordHash, sessionVersion: user.sessionVersion + 1 },
-		{ where: { id: userId, sessionVersion: user.sessionVersion } }
-	);
-	await mail.send(user.email, templates.passwordChanged({}));
+	await sequelize.transaction(async (transaction) => {
+		await User.update(
+			{ passwordHash, sessionVersion: user.sessionVersion + 1 },
+			{ where: { id: userId, sessionVersion: user.sessionVersion }, transaction }
+		);
+		await EmailToken.update(
+			{ usedAt: new Date() },
+			{ where: { userId, purpose: ['reset_password', 'change_email'], usedAt: null }, transaction }
+		);
+	});
+	mail.sendLater(user.email, templates.passwordChanged({}));
 	return { kind: 'ok' };
+}
+
+/**
+ * Ends every session of the account at once, this one included: sign-out must invalidate a
+ * session token on the server, not only delete the cookie, or a copied token lives on until
+ * it expires (issue 12, item 5). It bumps the session version the jwt callback compares on
+ * every request, so it signs the account out on every device.
+ */
+export async function endSessions(userId: string): Promise<void> {
+	await User.increment('sessionVersion', { by: 1, where: { id: userId } });
 }
 
 export type EmailChangeOutcome =
@@ -239,7 +281,8 @@ export type EmailChangeOutcome =
 /**
  * Starts moving an account to a new address: a confirmation link goes to the new address
  * and a notice to the old one. A taken address gets the same answer and no link, so the
- * form cannot be used to find out who has an account.
+ * form cannot be used to find out who has an account; that check, the link and the mail
+ * run after the answer, so the time it takes tells nothing either.
  */
 export async function requestEmailChange(
 	userId: string,
@@ -252,22 +295,25 @@ export async function requestEmailChange(
 		return { kind: 'wrong_password' };
 	}
 	if (input.newEmail === user.email) return { kind: 'same_address' };
-	if (await User.findOne({ where: { email: input.newEmail } })) return { kind: 'ok' };
-	const token = await issueToken(
-		user.id,
-		'change_email',
-		CHANGE_EMAIL_MINUTES,
-		undefined,
-		input.newEmail
-	);
-	await mail.send(
-		input.newEmail,
-		templates.confirmEmailChange({
-			url: `${origin}/verify/email?token=${token}`,
-			minutes: CHANGE_EMAIL_MINUTES
-		})
-	);
-	await mail.send(user.email, templates.emailChangeRequested({ resetUrl: `${origin}/reset` }));
+	const oldEmail = user.email;
+	runLater('email-change', async () => {
+		if (await User.findOne({ where: { email: input.newEmail } })) return;
+		const token = await issueToken(
+			userId,
+			'change_email',
+			CHANGE_EMAIL_MINUTES,
+			undefined,
+			input.newEmail
+		);
+		mail.sendLater(
+			input.newEmail,
+			templates.confirmEmailChange({
+				url: `${origin}/verify/email?token=${token}`,
+				minutes: CHANGE_EMAIL_MINUTES
+			})
+		);
+		mail.sendLater(oldEmail, templates.emailChangeRequested({ resetUrl: `${origin}/reset` }));
+	});
 	return { kind: 'ok' };
 }
 
@@ -317,6 +363,12 @@ export async function deleteAccount(userId: string): Promise<void> {
 		});
 		await User.destroy({ where: { id: userId }, transaction });
 	});
+}
+
+/** Whether a sign-in link may be sent to, or used for, this address: an enabled account has it. */
+export async function canSignInByLink(email: string): Promise<boolean> {
+	const user = await User.findOne({ where: { email, disabledAt: null }, attributes: ['id'] });
+	return user !== null;
 }
 
 /** Session check on every request: the user's current role, or null to end the session. */

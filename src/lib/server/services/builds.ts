@@ -743,9 +743,14 @@ function paidInRegion(slot: BuildSlotView, currency: string, rates: RatesPerEur)
 	}
 }
 
+/**
+ * The guide a build was forked from, or null when there is none to show: a guide an editor
+ * has hidden is a 404 for readers, so a build (public ones included) names and links it no
+ * more than any other page does (issue 12, item 9).
+ */
 function sourceView(build: LoadedBuild): BuildSourceView | null {
 	const guide = build.sourceGuide;
-	if (!guide) return null;
+	if (!guide || guide.hiddenAt) return null;
 	const published =
 		guide.state === 'published' && !guide.hiddenAt ? (guide.publishedRevision ?? null) : null;
 	const baseNumber = build.baseRevision?.number ?? null;
@@ -788,7 +793,7 @@ export async function listMine(ownerId: string): Promise<BuildCard[]> {
 			title: b.title,
 			visibility: b.visibility as BuildVisibility,
 			region: regionSummary(b.region),
-			source: b.sourceGuide ? { slug: b.sourceGuide.slug, title: b.sourceGuide.title } : null,
+			source: source ? { slug: source.slug, title: source.title } : null,
 			slotCount: mine.length,
 			boughtCount: mine.filter((s) => s.purchased).length,
 			newerRevisionAvailable: source?.newerRevisionAvailable ?? false,

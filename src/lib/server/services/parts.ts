@@ -312,7 +312,9 @@ type SlotWithRevision = Pick<GuideSlot, 'revisionId' | 'label' | 'position'>;
 
 /**
  * Published guides whose published revision has the part as a pick or an alternate.
- * Drafts, guides in review and older revisions of a published guide do not count.
+ * Drafts, guides in review, older revisions of a published guide and guides an editor has
+ * hidden do not count: a hidden guide's title and link appear nowhere public (issue 12,
+ * item 9).
  */
 async function guidesUsing(partId: number): Promise<GuideUsingPart[]> {
 	const picks = await GuideSlot.findAll({
@@ -339,7 +341,7 @@ async function guidesUsing(partId: number): Promise<GuideUsingPart[]> {
 	if (revisionIds.length === 0) return [];
 
 	const guides = await Guide.findAll({
-		where: { state: 'published', publishedRevisionId: revisionIds },
+		where: { state: 'published', publishedRevisionId: revisionIds, hiddenAt: null },
 		attributes: ['slug', 'title', 'publishedRevisionId']
 	});
 	return guides

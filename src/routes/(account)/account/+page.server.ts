@@ -10,6 +10,9 @@ import { authorRequestInput } from '$lib/schemas/author-requests';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireUser } from '$lib/server/auth/guards';
 import { signOut } from '$lib/server/auth/sign-in';
+import * as limits from '$lib/server/rate-limit';
+import { emailChangeChecks } from '$lib/server/rate-limit-keys';
+import { tooManyRequests } from '$lib/server/rate-limit-response';
 import * as accounts from '$lib/server/services/accounts';
 import * as authorRequests from '$lib/server/services/author-requests';
 import type { Actions, PageServerLoad } from './$types';
@@ -36,6 +39,9 @@ export const actions: Actions = {
 		if (fields.password === '') delete fields.password;
 		const input = changeEmailInput.safeParse(fields);
 		if (!input.success) return fail(400, { section: 'email', issues: fieldIssues(input.error) });
+		// Each request may mail a link to an address of the asker's choosing (issue 12, item 12).
+		const allowed = await limits.consumeAll(emailChangeChecks(user.id, input.data.newEmail));
+		if (!allowed.ok) return tooManyRequests(allowed, undefined, { section: 'email' });
 		const outcome = await accounts.requestEmailChange(user.id, input.data, url.origin);
 		if (outcome.kind === 'wrong_password') {
 			return fail(400, {

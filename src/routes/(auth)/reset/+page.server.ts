@@ -18,7 +18,7 @@ export const actions: Actions = {
 		const allowed = await limits.consumeAll(
 			passwordResetChecks(event.getClientAddress(), input.data.email)
 		);
-		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);
+		if (!allowed.ok) return tooManyRequests(allowed);
 		await accounts.requestPasswordReset(input.data.email, event.url.origin);
 		redirect(303, '/reset?sent');
 	}

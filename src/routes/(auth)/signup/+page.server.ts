@@ -24,7 +24,7 @@ export const actions: Actions = {
 			});
 		}
 		const allowed = await limits.consume('signUp', addressKey(event.getClientAddress()));
-		if (!allowed.ok) return tooManyRequests(allowed.retryAfterSeconds);
+		if (!allowed.ok) return tooManyRequests(allowed);
 		// The same answer whether or not the address already has an account.
 		await accounts.signUp(input.data, event.url.origin);
 		redirect(303, '/signup?sent');

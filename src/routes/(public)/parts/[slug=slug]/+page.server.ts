@@ -37,7 +37,7 @@ export const actions: Actions = {
 		const user = requireUser();
 		const fields = formFields(await request.formData());
 		const limited = await consumeAll(priceSightingChecks(user.id));
-		if (!limited.ok) return tooManyRequests(limited.retryAfterSeconds);
+		if (!limited.ok) return tooManyRequests(limited);
 		const outcome = await priceSightings.submit(user.id, params.slug, fields);
 		switch (outcome.kind) {
 			case 'invalid':

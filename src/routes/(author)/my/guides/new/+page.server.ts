@@ -2,6 +2,9 @@ import { fail, redirect } from '@sveltejs/kit';
 import { createGuideInput } from '$lib/schemas/guide-editor';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
+import * as limits from '$lib/server/rate-limit';
+import { guideCreateChecks } from '$lib/server/rate-limit-keys';
+import { tooManyRequests } from '$lib/server/rate-limit-response';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -34,6 +37,8 @@ export const actions: Actions = {
 		const fields = fieldsOf(await request.formData());
 		const input = createGuideInput.safeParse(fields);
 		if (!input.success) return fail(400, { fields, issues: fieldIssues(input.error) });
+		const allowed = await limits.consumeAll(guideCreateChecks(user.id));
+		if (!allowed.ok) return tooManyRequests(allowed, undefined, { fields, issues: {} });
 		const outcome = await drafts.createGuide(user.id, input.data);
 		if (outcome.kind === 'invalid') return fail(400, { fields, issues: outcome.issues });
 		redirect(303, `/my/guides/${outcome.slug}/edit`);
