@@ -10,7 +10,8 @@ import {
 	securityHeaders
 } from '$lib/server/auth/hooks';
 import { closeDb } from '$lib/server/db';
-import { logRequest, logUnexpectedError } from '$lib/server/log';
+import { readYourWrites } from '$lib/server/db/read-your-writes';
+import { logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
 
 const log: Handle = async ({ event, resolve }) => {
@@ -35,6 +36,8 @@ export const handle = sequence(
 	capBodies,
 	jsonOnlyApi,
 	closeAuthEndpoints,
+	// Before authHandle: the session check re-reads the account, from the primary after a write.
+	readYourWrites,
 	authHandle,
 	resolveUser,
 	guardAreas
@@ -48,8 +51,11 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 	return { message: 'Something went wrong on our side.', errorId };
 };
 
-// adapter-node emits this on SIGINT/SIGTERM after in-flight requests finish.
-process.once('sveltekit:shutdown' as never, () => {
-	void closeDb();
-	void closeRateLimits();
+// adapter-node emits this on SIGINT/SIGTERM after in-flight requests finish. With the pools
+// closed nothing holds the event loop open, so the process ends with exit code 0.
+process.once('sveltekit:shutdown' as never, (reason: string) => {
+	void Promise.all([closeDb(), closeRateLimits()]).then(
+		() => logShutdown(String(reason), 'closed'),
+		() => logShutdown(String(reason), 'failed to close')
+	);
 });
