@@ -52,6 +52,7 @@ export async function scratchDb(label: string, databases: string[]): Promise<Scr
 				'--no-defaults',
 				`--socket=${join(dataDir, 'mariadb.sock')}`,
 				'-uroot',
+				'--default-character-set=utf8mb4',
 				'-N',
 				'-B',
 				...(database ? [database] : []),
