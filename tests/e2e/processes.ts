@@ -5,7 +5,7 @@
  * project's scripts, and `node build` processes on free ports. HTTP helpers sign in and post
  * forms the way a browser does.
  */
-import { execFileSync, spawn } from 'node:child_process';
+import { execFile, execFileSync, spawn } from 'node:child_process';
 import type { ChildProcess } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -26,6 +26,8 @@ export interface ScratchDb {
 	sql(query: string, database?: string): string[][];
 	/** scripts/db.sh start (also after a crash: InnoDB recovers on start). */
 	start(): void;
+	/** The same without blocking this process's event loop (clients keep running meanwhile). */
+	startInBackground(): Promise<void>;
 	stop(): void;
 	/** SIGKILL to mariadbd, as a power cut or OOM kill would; returns its pid. */
 	kill9(): number;
@@ -70,6 +72,12 @@ export async function scratchDb(label: string, databases: string[]): Promise<Scr
 		env,
 		sql,
 		start: () => void script('db.sh', 'start'),
+		startInBackground: () =>
+			new Promise<void>((done, fail) =>
+				execFile('bash', [join(ROOT, 'scripts/db.sh'), 'start'], { env }, (error) =>
+					error ? fail(error) : done()
+				)
+			),
 		stop: () => void script('db.sh', 'stop'),
 		kill9: () => {
 			const pid = Number(readFileSync(join(dataDir, 'mariadb.pid'), 'utf8').trim());
