@@ -1,5 +1,6 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
+import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth/config';
 import {
 	capBodies,
@@ -13,6 +14,7 @@ import { closeDb } from '$lib/server/db';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
+import { closeConnectionsWhenStopping, watchForShutdown } from '$lib/server/shutdown';
 
 const log: Handle = async ({ event, resolve }) => {
 	const started = performance.now();
@@ -28,10 +30,12 @@ export const init: ServerInit = () => {
 			'AUTH_SECRET must be set to at least 32 random characters (npm start makes one for development).'
 		);
 	}
+	if (!dev) watchForShutdown();
 };
 
 export const handle = sequence(
 	log,
+	closeConnectionsWhenStopping,
 	securityHeaders,
 	capBodies,
 	jsonOnlyApi,
