@@ -280,6 +280,43 @@ async function run(
 	return { result, tally };
 }
 
+/** CPU seconds (user + system) a process and its children have used so far, from /proc; 0 when gone. */
+const TICKS_PER_SECOND =
+	Number(execFileSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).trim()) || 100;
+function cpuSeconds(pid: number): number {
+	return ownCpuSeconds(pid) + childrenOf(pid).reduce((sum, child) => sum + cpuSeconds(child), 0);
+}
+/** Child processes (nginx's workers do the proxying, not its master). */
+function childrenOf(pid: number): number[] {
+	try {
+		return readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8')
+			.split(' ')
+			.filter(Boolean)
+			.map(Number);
+	} catch {
+		return [];
+	}
+}
+function ownCpuSeconds(pid: number): number {
+	try {
+		// The fields after the command name (which may hold spaces): utime and stime are 14 and 15.
+		const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+		const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+		return (Number(fields[11]) + Number(fields[12])) / TICKS_PER_SECOND;
+	} catch {
+		return 0;
+	}
+}
+
+/** mariadbd of this checkout (scripts/db.sh writes its pid), for its share of the CPU. */
+function mariadbPid(): number {
+	try {
+		return Number(readFileSync(resolve(ROOT, '.data/mariadb.pid'), 'utf8').trim());
+	} catch {
+		return 0;
+	}
+}
+
 const percentile = (xs: number[], p: number) => {
 	const sorted = [...xs].sort((a, b) => a - b);
 	return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? 0;
@@ -302,6 +339,8 @@ interface SideReport {
 	result: CannonResult;
 	tally: Tally;
 	memory: { name: string; samples: number[] }[];
+	/** CPU seconds used during the timed window, per process. */
+	cpu: { name: string; seconds: number }[];
 }
 
 async function oneSide(processes: 1 | 2): Promise<SideReport> {
@@ -335,15 +374,25 @@ async function oneSide(processes: 1 | 2): Promise<SideReport> {
 		await run(origin, WARM_UP_SECONDS);
 		await drain(`${origin}/api/health`);
 		const samplers = apps.map((a) => rssSampler(a.process.pid ?? 0));
+		const measured = [
+			...apps.map((a, n) => ({ name: `app process ${n + 1}`, pid: a.process.pid ?? 0 })),
+			{ name: 'MariaDB (mariadbd)', pid: mariadbPid() },
+			...(proxy?.pid ? [{ name: proxy.kind, pid: proxy.pid }] : [])
+		];
+		const cpuBefore = measured.map((m) => cpuSeconds(m.pid));
 		console.log(`timing ${label} for ${SECONDS} s at ${CONNECTIONS} connections`);
 		const { result, tally } = await run(origin, SECONDS);
-		const memory = samplers.map((s, i) => ({
-			name: `app process ${i + 1}`,
+		const cpu = measured.map((m, n) => ({
+			name: m.name,
+			seconds: cpuSeconds(m.pid) - cpuBefore[n]!
+		}));
+		const memory = samplers.map((s, n) => ({
+			name: `app process ${n + 1}`,
 			samples: s.stop().samplesMb
 		}));
 		await drain(`${origin}/api/health`);
 		ok = true;
-		return { label, result, tally, memory };
+		return { label, result, tally, memory, cpu };
 	} finally {
 		if (!ok) for (const a of apps) console.error(a.errors());
 		await proxy?.stop();
@@ -395,6 +444,13 @@ function sideLines(side: SideReport): { lines: string[]; unexpected: number; fla
 			'| request | sent | expected status: count | 429 (expected) | unexpected | p50 (ms) | p99 (ms) |',
 			'| --- | ---: | ---: | ---: | ---: | ---: | ---: |',
 			...kindRows,
+			'',
+			`| CPU in the timed window (${r.duration.toFixed(0)} s) | CPU seconds | share of one core |`,
+			'| --- | ---: | ---: |',
+			...side.cpu.map(
+				(c) =>
+					`| ${c.name} | ${c.seconds.toFixed(1)} | ${((100 * c.seconds) / r.duration).toFixed(0)} % |`
+			),
 			'',
 			'| resident memory (MB) | first quarter mean | last quarter mean | max | over the run |',
 			'| --- | ---: | ---: | ---: | --- |',

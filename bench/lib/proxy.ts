@@ -13,6 +13,8 @@ import { ROOT, waitFor200 } from './harness';
 export interface Proxy {
 	origin: string;
 	kind: 'nginx' | 'node round-robin';
+	/** The proxy's main process (nginx: the master; its worker does the proxying). */
+	pid?: number;
 	stop: () => Promise<void>;
 }
 
@@ -80,6 +82,7 @@ export async function startProxy(backends: string[], port: number): Promise<Prox
 		return {
 			origin,
 			kind: 'nginx',
+			pid: child.pid,
 			stop: () =>
 				new Promise((done) => {
 					child.once('exit', () => {
@@ -98,6 +101,7 @@ export async function startProxy(backends: string[], port: number): Promise<Prox
 	return {
 		origin,
 		kind: 'node round-robin',
+		pid: child.pid,
 		stop: () =>
 			new Promise((done) => {
 				child.once('exit', () => done());
