@@ -3,7 +3,7 @@
  *
  * With a replica configured (DB_REPLICA_PORT), plain SELECTs read from it, and it may trail
  * the primary by a moment. So a request that may write (any method but GET, HEAD and
- * OPTIONS, and every Auth.js request, whose sign-in link callback writes on a GET) runs all
+ * OPTIONS, and Auth.js's callbacks: a sign-in link's callback writes on a GET) runs all
  * its reads on the primary, and marks its client for a few seconds with a cookie holding
  * the time until which that client's reads stay on the primary: the page shown after a
  * form's redirect, the `use:enhance` reload and the next API call see the change just made.
@@ -32,7 +32,8 @@ export const readYourWrites: Handle = ({ event, resolve }) => {
 	if (!replicaConfigured) return resolve(event);
 
 	const writes =
-		!READ_ONLY_METHODS.has(event.request.method) || event.url.pathname.startsWith('/auth/');
+		!READ_ONLY_METHODS.has(event.request.method) ||
+		event.url.pathname.startsWith('/auth/callback/');
 	if (writes) {
 		const seconds = windowSeconds();
 		event.cookies.set(RECENT_WRITE_COOKIE, String(Date.now() + seconds * 1000), {
