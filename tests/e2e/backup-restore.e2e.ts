@@ -28,7 +28,7 @@ const checkoutSql = (query: string) =>
 		'mariadb',
 		[
 			'--no-defaults',
-			`--socket=${join(ROOT, '.data/mariadb.sock')}`,
+			`--socket=${join(process.env.SLOTWISE_DATA_DIR ?? join(ROOT, '.data'), 'mariadb.sock')}`,
 			'-uroot',
 			'--default-character-set=utf8mb4',
 			'-N',

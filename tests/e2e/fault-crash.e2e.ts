@@ -267,6 +267,14 @@ test('every write acknowledged before or after a SIGKILL of MariaDB is there, an
 	const times = acks.map((a) => a.at).sort((a, b) => a - b);
 	const longestGapMs = Math.max(...times.slice(1).map((t, i) => t - times[i]!));
 
+	// Every kind of write went through both before the kill and after the restart.
+	for (const kind of kinds) {
+		expect(acks.filter((a) => a.kind === kind && a.at < killedAt).length, kind).toBeGreaterThan(0);
+		expect(acks.filter((a) => a.kind === kind && a.at > restartedAt).length, kind).toBeGreaterThan(
+			0
+		);
+	}
+
 	// 1. Every acknowledged write is there.
 	const forkSet = new Set(
 		sql(`SELECT id FROM builds WHERE id > ${buildsBefore}`).map(([id]) => Number(id))

@@ -149,7 +149,7 @@ test('SIGTERM mid-request: the request completes and is saved, the pools close, 
 		'mariadb',
 		[
 			'--no-defaults',
-			`--socket=${join(ROOT, '.data/mariadb.sock')}`,
+			`--socket=${join(process.env.SLOTWISE_DATA_DIR ?? join(ROOT, '.data'), 'mariadb.sock')}`,
 			'-uroot',
 			'--default-character-set=utf8mb4',
 			'-N',
