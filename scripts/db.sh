@@ -11,6 +11,11 @@
 # crash test runs with the configuration a deployment uses. Why always rather than only with
 # a replica: see "Binary log" in docs/deployment.md (it costs an fsync per commit group,
 # measured by `npm run bench:binlog`). Old binlog files go after a day.
+# log_bin_trust_function_creators: with the binary log on, MariaDB refuses CREATE TRIGGER
+# from an account without SUPER, lest a non-deterministic trigger replay differently on a
+# replica. Row-format logging records the rows a trigger changed, not the statement, so
+# that cannot happen here; the app's account (and the tests that add a failing trigger to
+# prove a transaction rolls back) may create triggers as before.
 #
 # Environment (all optional):
 #   SLOTWISE_DATA_DIR   where the datadir, socket and logs go      (default: <repo>/.data)
@@ -113,6 +118,7 @@ start() {
 		--log-bin=slotwise-bin --server-id="${DB_SERVER_ID:-1}" --sync-binlog=1 \
 		--binlog-format=ROW --gtid-strict-mode=1 --binlog-expire-logs-seconds=86400 \
 		--max-binlog-size=64M --innodb-flush-log-at-trx-commit=1 \
+		--log-bin-trust-function-creators=1 \
 		--character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
 		</dev/null >/dev/null 2>&1 &
 	local i
