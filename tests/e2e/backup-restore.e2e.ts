@@ -5,7 +5,7 @@ import { cpSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } f
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { runNote, writeReliabilitySection } from '../support/reliability-report';
-import { type ScratchDb, ROOT, scratchDb, signIn, startApp } from './processes';
+import { type ScratchDb, ROOT, cleanUp, scratchDb, signIn, startApp } from './processes';
 
 /*
  * The restore drill (docs/security.md §9, test 3): `npm run backup` of a seeded database on
@@ -80,6 +80,8 @@ function fileHashes(dir: string): Record<string, string> {
 }
 
 test.beforeAll(async () => {
+	// Set-up starts real processes: minutes on a loaded machine, not the 30 s default.
+	test.setTimeout(180_000);
 	work = mkdtempSync(join(tmpdir(), 'slotwise-backup-'));
 	// A database of its own on the checkout's instance, so nothing else writes to it meanwhile.
 	execFileSync('bash', [join(ROOT, 'scripts/db.sh'), 'start'], { env: checkoutEnv, stdio: 'pipe' });
@@ -106,8 +108,8 @@ test.beforeAll(async () => {
 	target = await scratchDb('restore', [RESTORED]);
 });
 
-test.afterAll(() => {
-	target?.remove();
+test.afterAll(async () => {
+	await cleanUp();
 	try {
 		checkoutSql(`DROP DATABASE IF EXISTS \`${SOURCE}\``);
 	} finally {

@@ -4,6 +4,7 @@ import {
 	type AppProcess,
 	type ScratchDb,
 	api,
+	cleanUp,
 	postForm,
 	scratchDb,
 	signIn,
@@ -40,6 +41,8 @@ const sql = (query: string) => db.sql(query, DB);
 const one = (query: string) => sql(query)[0]?.[0] ?? '';
 
 test.beforeAll(async () => {
+	// Set-up starts real processes: minutes on a loaded machine, not the 30 s default.
+	test.setTimeout(180_000);
 	db = await scratchDb('crash', [DB]);
 	db.migrateAndSeed(DB);
 	// Pending price sightings for the editor to decide, copied from the seeded quotes.
@@ -51,10 +54,7 @@ test.beforeAll(async () => {
 	app = await startApp({ DB_PORT: String(db.port), DB_NAME: DB });
 });
 
-test.afterAll(async () => {
-	await app?.stop();
-	db?.remove();
-});
+test.afterAll(cleanUp);
 
 interface Ack {
 	kind: string;

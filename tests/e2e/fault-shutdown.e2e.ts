@@ -3,7 +3,7 @@ import { execFileSync } from 'node:child_process';
 import { Agent, request as httpRequest } from 'node:http';
 import { join } from 'node:path';
 import { runNote, writeReliabilitySection } from '../support/reliability-report';
-import { ROOT, api, signIn, startApp } from './processes';
+import { ROOT, api, cleanUp, signIn, startApp } from './processes';
 
 /*
  * SIGTERM to the app in the middle of a request. The request is made slow by its client, not
@@ -16,6 +16,7 @@ import { ROOT, api, signIn, startApp } from './processes';
  * connection holds the server open until Node's keep-alive timeout (server/shutdown.ts).
  */
 test.describe.configure({ timeout: 90_000 });
+test.afterAll(cleanUp);
 
 const sleep = (ms: number) => new Promise((done) => setTimeout(done, ms));
 

@@ -16,6 +16,21 @@ export const ROOT = resolve(import.meta.dirname, '../..');
 
 const sleep = (ms: number) => new Promise((done) => setTimeout(done, ms));
 
+/*
+ * Everything a test file starts is registered here as soon as it exists, so cleanUp() in its
+ * afterAll stops it even when a hook timed out half-way (before the test had a handle on it).
+ */
+const startedApps = new Set<AppProcess>();
+const startedDbs = new Set<ScratchDb>();
+
+/** Stops every app process and removes every scratch MariaDB this file started. */
+export async function cleanUp(): Promise<void> {
+	for (const app of startedApps) await app.stop();
+	startedApps.clear();
+	for (const db of startedDbs) db.remove();
+	startedDbs.clear();
+}
+
 /** A project-local MariaDB of its own, driven by the same scripts as the checkout's. */
 export interface ScratchDb {
 	port: number;
@@ -93,6 +108,7 @@ export async function scratchDb(label: string, databases: string[]): Promise<Scr
 				});
 		},
 		remove: () => {
+			startedDbs.delete(db);
 			try {
 				script('db-replica.sh', 'stop');
 			} catch {
@@ -105,6 +121,7 @@ export async function scratchDb(label: string, databases: string[]): Promise<Scr
 			}
 		}
 	};
+	startedDbs.add(db);
 	db.start();
 	return db;
 }
@@ -152,10 +169,12 @@ export async function startApp(
 		output: () => output,
 		exited,
 		stop: () => {
+			startedApps.delete(app);
 			if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
 			return exited;
 		}
 	};
+	startedApps.add(app);
 	const until = Date.now() + 60_000;
 	let exitedEarly = false;
 	void exited.then(() => (exitedEarly = true));

@@ -6,6 +6,7 @@ import {
 	type ScratchDb,
 	ROOT,
 	api,
+	cleanUp,
 	cookiesOf,
 	scratchDb,
 	signIn,
@@ -53,6 +54,8 @@ function caughtUp(): void {
 }
 
 test.beforeAll(async () => {
+	// Set-up starts real processes: minutes on a loaded machine, not the 30 s default.
+	test.setTimeout(180_000);
 	primary = await scratchDb('replica', [DB]);
 	primary.migrateAndSeed(DB);
 	replicaPort = await freePort();
@@ -69,10 +72,7 @@ test.beforeAll(async () => {
 	});
 });
 
-test.afterAll(async () => {
-	await app?.stop();
-	primary?.remove();
-});
+test.afterAll(cleanUp);
 
 test('the primary logs every commit for the replica, which is read-only and follows it', () => {
 	const variables = Object.fromEntries(

@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { BASE_URL } from '../playwright.config';
-import { type AppProcess, postForm, signIn, startApp } from './processes';
+import { type AppProcess, cleanUp, postForm, signIn, startApp } from './processes';
 import { signInWithPassword, uniqueEmail } from './support';
 
 /*
@@ -15,6 +15,8 @@ test.describe.configure({ mode: 'serial', timeout: 90_000 });
 let second: AppProcess;
 
 test.beforeAll(async () => {
+	// Set-up starts real processes: minutes on a loaded machine, not the 30 s default.
+	test.setTimeout(90_000);
 	second = await startApp({ DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e' }, [
 		'bash',
 		'scripts/serve.sh'
@@ -24,6 +26,7 @@ test.beforeAll(async () => {
 test.afterAll(async () => {
 	const exit = await second?.stop();
 	// npm run serve hands over to node build, which ends cleanly on SIGTERM.
+	await cleanUp();
 	expect(exit?.code, second?.output()).toBe(0);
 });
 
