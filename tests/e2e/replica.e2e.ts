@@ -177,3 +177,17 @@ test('plain reads come from the replica; a reader who just wrote reads from the 
 	caughtUp();
 	expect(await titleSeenBy(session)).toBe('Renamed by its reader');
 });
+
+test('health answers 503 when the primary is down, though the replica still answers', async () => {
+	const health = () =>
+		fetch(`${app.origin}/api/health`, { signal: AbortSignal.timeout(5_000) }).then(async (r) => ({
+			status: r.status,
+			body: await r.json()
+		}));
+	expect(await health()).toEqual({ status: 200, body: { status: 'ok', db: 'up' } });
+	primary.stop();
+	expect(replicaSql('SELECT 1')).toBe('1');
+	const started = Date.now();
+	expect(await health()).toEqual({ status: 503, body: { status: 'degraded', db: 'down' } });
+	expect(Date.now() - started, 'answered within 2 s').toBeLessThan(2_000);
+});
