@@ -6,11 +6,23 @@
 # and the app user exist. Debian's durable InnoDB defaults (flush at every commit,
 # doublewrite) are kept on purpose.
 #
+# The binary log is always on (GTID, row format, synced at every commit): a replica
+# (scripts/db-replica.sh) can attach at any time without restarting this server, and the
+# crash test runs with the configuration a deployment uses. Why always rather than only with
+# a replica: see "Binary log" in docs/deployment.md (it costs an fsync per commit group,
+# measured by `npm run bench:binlog`). Old binlog files go after a day.
+# log_bin_trust_function_creators: with the binary log on, MariaDB refuses CREATE TRIGGER
+# from an account without SUPER, lest a non-deterministic trigger replay differently on a
+# replica. Row-format logging records the rows a trigger changed, not the statement, so
+# that cannot happen here; the app's account (and the tests that add a failing trigger to
+# prove a transaction rolls back) may create triggers as before.
+#
 # Environment (all optional):
 #   SLOTWISE_DATA_DIR   where the datadir, socket and logs go      (default: <repo>/.data)
 #   DB_PORT             TCP port on 127.0.0.1                       (default: 3307)
 #   DB_USER / DB_PASSWORD  the application's account              (default: slotwise / slotwise-dev)
 #   DB_NAMES            databases to create                         (default: slotwise slotwise_test slotwise_e2e)
+#   DB_SERVER_ID        the binary log's server id                  (default: 1; a replica uses another)
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -102,7 +114,11 @@ start() {
 	# setsid: the server outlives the shell that started it and ignores its signals.
 	setsid "$(mariadbd_bin)" --no-defaults --user="$(id -un)" --datadir="$DATADIR" \
 		--bind-address=127.0.0.1 --port="$PORT" --socket="$SOCKET" --pid-file="$PIDFILE" \
-		--log-error="$ERRLOG" --skip-name-resolve --skip-log-bin \
+		--log-error="$ERRLOG" --skip-name-resolve \
+		--log-bin=slotwise-bin --server-id="${DB_SERVER_ID:-1}" --sync-binlog=1 \
+		--binlog-format=ROW --gtid-strict-mode=1 --binlog-expire-logs-seconds=86400 \
+		--max-binlog-size=64M --innodb-flush-log-at-trx-commit=1 \
+		--log-bin-trust-function-creators=1 \
 		--character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
 		</dev/null >/dev/null 2>&1 &
 	local i

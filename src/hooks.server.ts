@@ -1,5 +1,6 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
+import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth/config';
 import {
 	capBodies,
@@ -14,9 +15,11 @@ import {
 import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
+import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
-import { logFailure, logRequest, logUnexpectedError } from '$lib/server/log';
+import { logFailure, logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
+import { closeConnectionsWhenStopping, watchForShutdown } from '$lib/server/shutdown';
 
 const log: Handle = async ({ event, resolve }) => {
 	const started = performance.now();
@@ -32,16 +35,20 @@ export const init: ServerInit = () => {
 			'AUTH_SECRET must be set to at least 32 random characters (npm start makes one for development).'
 		);
 	}
+	if (!dev) watchForShutdown();
 };
 
 export const handle = sequence(
 	log,
+	closeConnectionsWhenStopping,
 	securityHeaders,
 	outageAs503,
 	capBodies,
 	jsonOnlyApi,
 	closeAuthEndpoints,
 	formBodiesOnly,
+	// Before authHandle: the session check re-reads the account, from the primary after a write.
+	readYourWrites,
 	authHandle,
 	resolveUser,
 	guardAreas
@@ -63,9 +70,12 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 
 // adapter-node emits this on SIGINT/SIGTERM after in-flight requests finish; mail and other
 // work left running after an answer (server/background.ts) finishes before the pools close.
-process.once('sveltekit:shutdown' as never, () => {
-	void settled().finally(() => {
-		void closeDb();
-		void closeRateLimits();
-	});
+// With the pools closed nothing holds the event loop open, so the process exits with 0.
+process.once('sveltekit:shutdown' as never, (reason: string) => {
+	void settled()
+		.then(() => Promise.all([closeDb(), closeRateLimits()]))
+		.then(
+			() => logShutdown(String(reason), 'closed'),
+			() => logShutdown(String(reason), 'failed to close')
+		);
 });

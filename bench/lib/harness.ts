@@ -240,15 +240,19 @@ export async function startApp(env: Record<string, string>): Promise<{
 }
 
 /** Samples a process's resident memory (VmRSS) every 250 ms until stopped. */
-export function rssSampler(pid: number): { stop: () => { maxMb: number; lastMb: number } } {
+export function rssSampler(pid: number): {
+	stop: () => { maxMb: number; lastMb: number; samplesMb: number[] };
+} {
 	let maxKb = 0;
 	let lastKb = 0;
+	const samplesKb: number[] = [];
 	const read = () => {
 		try {
 			const status = readFileSync(`/proc/${pid}/status`, 'utf8');
 			const kb = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0);
 			lastKb = kb;
 			maxKb = Math.max(maxKb, kb);
+			samplesKb.push(kb);
 		} catch {
 			// the process is gone
 		}
@@ -259,7 +263,11 @@ export function rssSampler(pid: number): { stop: () => { maxMb: number; lastMb: 
 		stop: () => {
 			clearInterval(timer);
 			read();
-			return { maxMb: maxKb / 1024, lastMb: lastKb / 1024 };
+			return {
+				maxMb: maxKb / 1024,
+				lastMb: lastKb / 1024,
+				samplesMb: samplesKb.map((kb) => kb / 1024)
+			};
 		}
 	};
 }

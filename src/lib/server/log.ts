@@ -60,3 +60,9 @@ export function logFailure(kind: string, error: unknown, fields: Record<string, 
 		})
 	);
 }
+
+/** The last line a process writes on SIGTERM/SIGINT: in-flight requests are done and its pools closed. */
+export function logShutdown(reason: string, pools: 'closed' | 'failed to close') {
+	if (quiet) return;
+	console.log(JSON.stringify({ t: new Date().toISOString(), kind: 'shutdown', reason, pools }));
+}

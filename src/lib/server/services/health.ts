@@ -19,8 +19,12 @@ export async function check(
 	const timeout = new Promise<false>((resolve) => {
 		timer = setTimeout(() => resolve(false), timeoutMs);
 	});
-	const ping = sequelize
-		.query('SELECT 1 AS ok', { type: QueryTypes.SELECT })
+	// With a read replica a plain SELECT asks only the replica; the primary, which takes
+	// every write, is asked as well (without a replica both go to the same server).
+	const ping = Promise.all([
+		sequelize.query('SELECT 1 AS ok', { type: QueryTypes.SELECT, useMaster: true }),
+		sequelize.query('SELECT 1 AS ok', { type: QueryTypes.SELECT })
+	])
 		.then(() => true)
 		.catch(() => false);
 	try {
