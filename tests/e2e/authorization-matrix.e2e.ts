@@ -241,7 +241,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /api/v1/builds/[id=id]/sync/undo': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/within-budget': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/within-budget/apply': everyone('ok'),
-	// Builds JSON API (services/builds.ts): the sample build id does not exist, so GET answers 401
+	// Builds JSON API (services/build-view.ts, build-edits.ts): the sample build id does not exist, so GET answers 401
 	// to visitors (requireUser) and 404 to everyone signed in; the CSV export follows the build's
 	// own visibility (visitors may export a public or linked build), so a missing build is 404 for
 	// all. The form bodies the matrix sends to PATCH/POST/DELETE are refused with 415 before auth.

@@ -194,7 +194,7 @@ describe('apply within budget', () => {
 	it('writes nothing on a stale version or when nothing fits', async () => {
 		const before = await slotRows(build.id);
 		const stale = await applyWithinBudget(owner.id, build.id, 68000, 7);
-		// The answer carries the build as it is now (services/builds.ts getBuild).
+		// The answer carries the build as it is now (services/build-view.ts getBuild).
 		expect(stale).toMatchObject({
 			kind: 'conflict',
 			current: { id: build.id, version: 1, budget: null }

@@ -1,9 +1,14 @@
 import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { AuditEvent, Build, ContentReport, User, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
-import * as builds from '../../src/lib/server/services/builds';
-import type { BuildView } from '../../src/lib/server/services/builds';
+import * as buildEdits from '../../src/lib/server/services/build-edits';
+import * as buildExport from '../../src/lib/server/services/build-export';
+import * as buildFork from '../../src/lib/server/services/build-fork';
+import * as buildLists from '../../src/lib/server/services/build-lists';
+import * as buildView from '../../src/lib/server/services/build-view';
+import type { BuildView } from '../../src/lib/views';
 import * as contentReports from '../../src/lib/server/services/content-reports';
+import * as reportQueue from '../../src/lib/server/services/content-report-queue';
 import { countRows, resetDatabase } from '../support/db';
 
 /*
@@ -30,12 +35,12 @@ async function user(email: string): Promise<User> {
 
 /** A fresh fork of the demo guide owned by the reader, with the given visibility. */
 async function buildWith(visibility: 'private' | 'unlisted' | 'public'): Promise<BuildView> {
-	const created = await builds.fork(reader.id, GUIDE);
+	const created = await buildFork.fork(reader.id, GUIDE);
 	if (created.kind !== 'created') throw new Error('fork failed');
-	const view = await builds.getBuild({ id: reader.id }, created.id);
+	const view = await buildView.getBuild({ id: reader.id }, created.id);
 	if (!view) throw new Error('own build not visible');
 	if (visibility === 'private') return view;
-	const saved = await builds.updateBuild(reader.id, view.id, { visibility }, view.version);
+	const saved = await buildEdits.updateBuild(reader.id, view.id, { visibility }, view.version);
 	if (saved.kind !== 'ok') throw new Error(`visibility not saved: ${saved.kind}`);
 	return saved.build;
 }
@@ -52,7 +57,7 @@ async function auditActions(b: { id: number }): Promise<string[]> {
 }
 
 async function lineageIds(): Promise<number[]> {
-	return (await builds.lineage(GUIDE)).publicBuilds.map((b) => b.id);
+	return (await buildLists.lineage(GUIDE)).publicBuilds.map((b) => b.id);
 }
 
 describe('content reports on builds, real MariaDB', () => {
@@ -84,7 +89,7 @@ describe('content reports on builds, real MariaDB', () => {
 			detail: 'Wrong parts in the title.'
 		});
 
-		const queue = await contentReports.listQueue({ state: 'open', page: 1 });
+		const queue = await reportQueue.listQueue({ state: 'open', page: 1 });
 		const group = queue.items.find(
 			(g) => g.subject.type === 'build' && g.subject.id === String(build.id)
 		);
@@ -138,7 +143,7 @@ describe('content reports on builds, real MariaDB', () => {
 				shareToken: token
 			})
 		).toMatchObject({ kind: 'ok', created: true });
-		const queue = await contentReports.listQueue({ state: 'open', page: 1 });
+		const queue = await reportQueue.listQueue({ state: 'open', page: 1 });
 		const group = queue.items.find(
 			(g) => g.subject.type === 'build' && g.subject.id === String(build.id)
 		);
@@ -156,15 +161,15 @@ describe('content reports on builds, real MariaDB', () => {
 			closedReports: 1
 		});
 
-		expect(await builds.getBuild(null, build.id)).toBeNull();
-		expect(await builds.getBuild(as(author), build.id)).toBeNull();
-		expect(await builds.exportCsv(null, build.id)).toBeNull();
+		expect(await buildView.getBuild(null, build.id)).toBeNull();
+		expect(await buildView.getBuild(as(author), build.id)).toBeNull();
+		expect(await buildExport.exportCsv(null, build.id)).toBeNull();
 		expect(await lineageIds()).not.toContain(build.id);
-		const own = await builds.getBuild({ id: reader.id }, build.id);
+		const own = await buildView.getBuild({ id: reader.id }, build.id);
 		expect(own?.isOwner).toBe(true);
 		expect(own?.hidden?.reason).toBe(REASON);
 		for (const moderator of [editor, admin]) {
-			const view = await builds.getBuild(as(moderator), build.id);
+			const view = await buildView.getBuild(as(moderator), build.id);
 			expect(view?.isOwner).toBe(false);
 			expect(view?.hidden?.reason).toBe(REASON);
 			expect(view?.shareToken).toBeNull();
@@ -201,10 +206,10 @@ describe('content reports on builds, real MariaDB', () => {
 	it('hides an unlisted build for its link too', async () => {
 		const build = await buildWith('unlisted');
 		const token = build.shareToken as string;
-		expect(await builds.getBuild(null, build.id, { shareToken: token })).not.toBeNull();
+		expect(await buildView.getBuild(null, build.id, { shareToken: token })).not.toBeNull();
 		await contentReports.hide(editor.id, subject(build), REASON);
-		expect(await builds.getBuild(null, build.id, { shareToken: token })).toBeNull();
-		expect(await builds.getBuild(as(author), build.id, { shareToken: token })).toBeNull();
+		expect(await buildView.getBuild(null, build.id, { shareToken: token })).toBeNull();
+		expect(await buildView.getBuild(as(author), build.id, { shareToken: token })).toBeNull();
 	});
 
 	it('restores a hidden build, records it, and refuses a second restore', async () => {
@@ -213,9 +218,9 @@ describe('content reports on builds, real MariaDB', () => {
 		await contentReports.hide(editor.id, subject(build), REASON);
 		expect(await contentReports.restore(admin.id, subject(build))).toEqual({ kind: 'ok' });
 
-		expect((await builds.getBuild(null, build.id))?.hidden).toBeNull();
+		expect((await buildView.getBuild(null, build.id))?.hidden).toBeNull();
 		expect(await lineageIds()).toContain(build.id);
-		expect((await builds.getBuild({ id: reader.id }, build.id))?.hidden).toBeNull();
+		expect((await buildView.getBuild({ id: reader.id }, build.id))?.hidden).toBeNull();
 		expect(await contentReports.restore(editor.id, subject(build))).toMatchObject({
 			kind: 'conflict'
 		});
@@ -235,8 +240,8 @@ describe('content reports on builds, real MariaDB', () => {
 	it('lets editors open a reported build made private meanwhile, until the reports are decided', async () => {
 		const build = await buildWith('public');
 		await contentReports.report(author.id, 'build', String(build.id), input);
-		const fresh = await builds.getBuild({ id: reader.id }, build.id);
-		const saved = await builds.updateBuild(
+		const fresh = await buildView.getBuild({ id: reader.id }, build.id);
+		const saved = await buildEdits.updateBuild(
 			reader.id,
 			build.id,
 			{ visibility: 'private' },
@@ -244,10 +249,10 @@ describe('content reports on builds, real MariaDB', () => {
 		);
 		expect(saved.kind).toBe('ok');
 
-		expect(await builds.getBuild(as(author), build.id)).toBeNull();
+		expect(await buildView.getBuild(as(author), build.id)).toBeNull();
 		// A reader role claimed without being an editor opens nothing.
-		expect(await builds.getBuild({ id: author.id, role: 'reader' }, build.id)).toBeNull();
-		const seen = await builds.getBuild(as(editor), build.id);
+		expect(await buildView.getBuild({ id: author.id, role: 'reader' }, build.id)).toBeNull();
+		const seen = await buildView.getBuild(as(editor), build.id);
 		expect(seen?.isOwner).toBe(false);
 		expect(seen?.notes).toBe('');
 
@@ -255,7 +260,7 @@ describe('content reports on builds, real MariaDB', () => {
 			kind: 'ok',
 			dismissed: 1
 		});
-		expect(await builds.getBuild(as(editor), build.id)).toBeNull();
+		expect(await buildView.getBuild(as(editor), build.id)).toBeNull();
 		expect(await auditActions(build)).toEqual(['content_report.dismissed']);
 	});
 });

@@ -16,8 +16,13 @@ import {
 } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
-import * as builds from '../../src/lib/server/services/builds';
-import type { BuildView } from '../../src/lib/server/services/builds';
+import * as buildEdits from '../../src/lib/server/services/build-edits';
+import * as buildExport from '../../src/lib/server/services/build-export';
+import * as buildFork from '../../src/lib/server/services/build-fork';
+import * as buildLists from '../../src/lib/server/services/build-lists';
+import { keyedRevisionSlots } from '../../src/lib/server/services/build-source';
+import * as buildView from '../../src/lib/server/services/build-view';
+import type { BuildView } from '../../src/lib/views';
 import * as guides from '../../src/lib/server/services/guides';
 import { countRows, resetDatabase } from '../support/db';
 
@@ -39,14 +44,14 @@ async function user(email: string): Promise<User> {
 }
 
 async function forked(owner: User = reader): Promise<BuildView> {
-	const outcome = await builds.fork(owner.id, GUIDE);
+	const outcome = await buildFork.fork(owner.id, GUIDE);
 	if (outcome.kind !== 'created') throw new Error('fork failed');
-	const view = await builds.getBuild({ id: owner.id }, outcome.id);
+	const view = await buildView.getBuild({ id: owner.id }, outcome.id);
 	if (!view) throw new Error('own build not visible');
 	return view;
 }
 
-function ok(outcome: builds.MutationOutcome): BuildView {
+function ok(outcome: buildEdits.MutationOutcome): BuildView {
 	if (outcome.kind !== 'ok')
 		throw new Error(`expected ok, got ${JSON.stringify(outcome).slice(0, 300)}`);
 	return outcome.build;
@@ -68,7 +73,7 @@ describe('builds on the real MariaDB', () => {
 
 	it('forks the published revision: every slot, pick, quantity and label, private, in the base region', async () => {
 		const guide = (await Guide.findOne({ where: { slug: GUIDE } })) as Guide;
-		const outcome = await builds.fork(reader.id, GUIDE);
+		const outcome = await buildFork.fork(reader.id, GUIDE);
 		if (outcome.kind !== 'created') throw new Error(outcome.kind);
 		const build = (await Build.findByPk(outcome.id)) as Build;
 		expect(build.ownerId).toBe(reader.id);
@@ -94,7 +99,7 @@ describe('builds on the real MariaDB', () => {
 			source.map((s) => [s.label, s.label, s.category, s.pickPartId, s.quantity, 'source'])
 		);
 
-		const view = await builds.getBuild({ id: reader.id }, build.id);
+		const view = await buildView.getBuild({ id: reader.id }, build.id);
 		if (!view) throw new Error('owner cannot see the fork');
 		expect(view.isOwner).toBe(true);
 		expect(view.source).toMatchObject({
@@ -118,39 +123,43 @@ describe('builds on the real MariaDB', () => {
 	});
 
 	it('refuses to fork an unknown or unpublished guide', async () => {
-		expect(await builds.fork(reader.id, 'no-such-guide')).toEqual({ kind: 'not_found' });
+		expect(await buildFork.fork(reader.id, 'no-such-guide')).toEqual({ kind: 'not_found' });
 	});
 
 	it('private: owner only; unlisted: with the link token; public: anyone, and listed in the lineage', async () => {
 		const view = await forked();
 		const token = view.shareToken as string;
-		expect(await builds.getBuild({ id: other.id }, view.id)).toBeNull();
-		expect(await builds.getBuild(null, view.id)).toBeNull();
-		expect(await builds.getBuild({ id: other.id }, view.id, { shareToken: token })).toBeNull();
-		const before = await builds.lineage(GUIDE);
+		expect(await buildView.getBuild({ id: other.id }, view.id)).toBeNull();
+		expect(await buildView.getBuild(null, view.id)).toBeNull();
+		expect(await buildView.getBuild({ id: other.id }, view.id, { shareToken: token })).toBeNull();
+		const before = await buildLists.lineage(GUIDE);
 
 		const unlisted = ok(
-			await builds.updateBuild(
+			await buildEdits.updateBuild(
 				reader.id,
 				view.id,
 				{ visibility: 'unlisted', notes: 'Ask Sam about the case.' },
 				view.version
 			)
 		);
-		expect(await builds.getBuild({ id: other.id }, view.id)).toBeNull();
-		expect(await builds.getBuild(null, view.id, { shareToken: 'x'.repeat(43) })).toBeNull();
-		const shared = await builds.getBuild(null, view.id, { shareToken: token });
+		expect(await buildView.getBuild({ id: other.id }, view.id)).toBeNull();
+		expect(await buildView.getBuild(null, view.id, { shareToken: 'x'.repeat(43) })).toBeNull();
+		const shared = await buildView.getBuild(null, view.id, { shareToken: token });
 		expect(shared?.isOwner).toBe(false);
 		// The owner's private data stays with the owner.
 		expect(shared?.shareToken).toBeNull();
 		expect(shared?.notes).toBe('');
 		expect(unlisted.notes).toBe('Ask Sam about the case.');
-		expect((await builds.lineage(GUIDE)).publicBuilds.some((b) => b.id === view.id)).toBe(false);
+		expect((await buildLists.lineage(GUIDE)).publicBuilds.some((b) => b.id === view.id)).toBe(
+			false
+		);
 
-		ok(await builds.updateBuild(reader.id, view.id, { visibility: 'public' }, unlisted.version));
-		expect((await builds.getBuild({ id: other.id }, view.id))?.title).toBe(view.title);
-		expect((await builds.getBuild(null, view.id))?.isOwner).toBe(false);
-		const after = await builds.lineage(GUIDE);
+		ok(
+			await buildEdits.updateBuild(reader.id, view.id, { visibility: 'public' }, unlisted.version)
+		);
+		expect((await buildView.getBuild({ id: other.id }, view.id))?.title).toBe(view.title);
+		expect((await buildView.getBuild(null, view.id))?.isOwner).toBe(false);
+		const after = await buildLists.lineage(GUIDE);
 		expect(after.forkCount).toBe(before.forkCount);
 		expect(after.publicBuilds.find((b) => b.id === view.id)).toMatchObject({
 			title: view.title,
@@ -158,7 +167,7 @@ describe('builds on the real MariaDB', () => {
 		});
 		// Private forks count in the total but are never listed.
 		await forked();
-		const later = await builds.lineage(GUIDE);
+		const later = await buildLists.lineage(GUIDE);
 		expect(later.forkCount).toBe(after.forkCount + 1);
 		expect(later.publicBuilds).toHaveLength(after.publicBuilds.length);
 	});
@@ -167,16 +176,16 @@ describe('builds on the real MariaDB', () => {
 		const view = await forked();
 		const gpu = slotOf(view, 'gpu');
 		expect(
-			await builds.updateBuild(other.id, view.id, { title: 'Mine now' }, view.version)
+			await buildEdits.updateBuild(other.id, view.id, { title: 'Mine now' }, view.version)
 		).toEqual({ kind: 'not_found' });
 		expect(
-			await builds.updateSlot(other.id, view.id, gpu.id, { quantity: 2 }, view.version)
+			await buildEdits.updateSlot(other.id, view.id, gpu.id, { quantity: 2 }, view.version)
 		).toEqual({ kind: 'not_found' });
-		expect(await builds.removeSlot(other.id, view.id, gpu.id, view.version)).toEqual({
+		expect(await buildEdits.removeSlot(other.id, view.id, gpu.id, view.version)).toEqual({
 			kind: 'not_found'
 		});
 		expect(
-			await builds.addSlot(
+			await buildEdits.addSlot(
 				other.id,
 				view.id,
 				{ category: 'extra', label: 'Cable', partId: gpu.part.id, quantity: 1 },
@@ -186,7 +195,7 @@ describe('builds on the real MariaDB', () => {
 		// A slot of another build is not found through this one.
 		const mine = await forked(other);
 		expect(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				slotOf(mine, 'gpu').id,
@@ -203,7 +212,7 @@ describe('builds on the real MariaDB', () => {
 		const alternate = gpu.options.find((o) => o.kind === 'alternate');
 		if (!alternate) throw new Error('the demo GPU slot has alternates');
 		const swapped = ok(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				gpu.id,
@@ -226,7 +235,13 @@ describe('builds on the real MariaDB', () => {
 		expect(swapped.value.sourceResultsDiffer).toBe(true);
 
 		const back = ok(
-			await builds.updateSlot(reader.id, view.id, gpu.id, { partId: gpu.part.id }, swapped.version)
+			await buildEdits.updateSlot(
+				reader.id,
+				view.id,
+				gpu.id,
+				{ partId: gpu.part.id },
+				swapped.version
+			)
 		);
 		expect(slotOf(back, 'gpu').origin).toBe('source');
 		expect(back.value.sourceResultsDiffer).toBe(false);
@@ -240,14 +255,14 @@ describe('builds on the real MariaDB', () => {
 		const custom = gpus.find((g) => !offered.has(g.id));
 		if (!custom) throw new Error('the demo catalog has a graphics card no slot offers');
 		const customView = ok(
-			await builds.updateSlot(reader.id, view.id, gpu.id, { partId: custom.id }, back.version)
+			await buildEdits.updateSlot(reader.id, view.id, gpu.id, { partId: custom.id }, back.version)
 		);
 		expect(slotOf(customView, 'gpu').origin).toBe('custom');
 
 		// Wrong category and unknown parts are refused by field; nothing is written.
 		const cpu = slotOf(customView, 'cpu');
 		expect(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				gpu.id,
@@ -256,7 +271,7 @@ describe('builds on the real MariaDB', () => {
 			)
 		).toMatchObject({ kind: 'invalid', issues: { partId: [expect.stringContaining('category')] } });
 		expect(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				gpu.id,
@@ -270,9 +285,9 @@ describe('builds on the real MariaDB', () => {
 	it('a stale version is a conflict with the build as it is now, and writes nothing', async () => {
 		const view = await forked();
 		const first = ok(
-			await builds.updateBuild(reader.id, view.id, { title: 'First tab' }, view.version)
+			await buildEdits.updateBuild(reader.id, view.id, { title: 'First tab' }, view.version)
 		);
-		const stale = await builds.updateBuild(
+		const stale = await buildEdits.updateBuild(
 			reader.id,
 			view.id,
 			{ title: 'Second tab' },
@@ -282,7 +297,7 @@ describe('builds on the real MariaDB', () => {
 		expect(stale.current.title).toBe('First tab');
 		expect(stale.current.version).toBe(first.version);
 		const slot = slotOf(view, 'memory');
-		const staleSlot = await builds.updateSlot(
+		const staleSlot = await buildEdits.updateSlot(
 			reader.id,
 			view.id,
 			slot.id,
@@ -297,7 +312,7 @@ describe('builds on the real MariaDB', () => {
 	it('adds and removes a slot of the reader’s own', async () => {
 		const view = await forked();
 		const psu = slotOf(view, 'psu');
-		const added = await builds.addSlot(
+		const added = await buildEdits.addSlot(
 			reader.id,
 			view.id,
 			{ category: 'psu', label: 'Spare PSU', partId: psu.part.id, quantity: 1 },
@@ -310,10 +325,12 @@ describe('builds on the real MariaDB', () => {
 		expect(withSlot.totals.planned.amountMinor).toBe(
 			view.totals.planned.amountMinor + (psu.lineTotal?.amountMinor ?? NaN)
 		);
-		const removed = ok(await builds.removeSlot(reader.id, view.id, extra!.id, withSlot.version));
+		const removed = ok(
+			await buildEdits.removeSlot(reader.id, view.id, extra!.id, withSlot.version)
+		);
 		expect(removed.slots).toHaveLength(view.slots.length);
 		expect(
-			await builds.addSlot(
+			await buildEdits.addSlot(
 				reader.id,
 				view.id,
 				{ category: 'gpu', label: 'Second card', partId: psu.part.id, quantity: 1 },
@@ -347,7 +364,7 @@ describe('builds on the real MariaDB', () => {
 			source: 'editor'
 		});
 		const added = ok(
-			await builds.addSlot(
+			await buildEdits.addSlot(
 				reader.id,
 				view.id,
 				{ category: 'extra', label: 'Cables', partId: kit.id, quantity: 2 },
@@ -355,7 +372,7 @@ describe('builds on the real MariaDB', () => {
 			)
 		);
 		const moved = ok(
-			await builds.updateBuild(reader.id, view.id, { regionCode: 'de' }, added.version)
+			await buildEdits.updateBuild(reader.id, view.id, { regionCode: 'de' }, added.version)
 		);
 		expect(moved.region.code).toBe('de');
 		expect(moved.totals.planned.currency).toBe('EUR');
@@ -389,28 +406,28 @@ describe('builds on the real MariaDB', () => {
 			moved.slots.reduce((t, s) => t + (s.lineTotal?.amountMinor ?? 0), 0)
 		);
 		// A region asked for in the query prices the view without changing the build.
-		const peek = await builds.getBuild({ id: reader.id }, view.id, { regionCode: 'us' });
+		const peek = await buildView.getBuild({ id: reader.id }, view.id, { regionCode: 'us' });
 		expect(peek?.region.code).toBe('us');
 		expect(peek?.totals.planned.amountMinor).toBe(added.totals.planned.amountMinor);
 		expect((await Build.findByPk(view.id))?.regionId).toBe(de.id);
 		expect(
-			await builds.updateBuild(reader.id, view.id, { regionCode: 'zz' }, moved.version)
+			await buildEdits.updateBuild(reader.id, view.id, { regionCode: 'zz' }, moved.version)
 		).toMatchObject({ kind: 'invalid', issues: { regionCode: expect.any(Array) } });
 	});
 
 	it('converts a kept budget when the region changes currency: $800.00 → €730.19 at 1.0956 (D)', async () => {
 		const view = await forked();
 		const budgeted = ok(
-			await builds.updateBuild(reader.id, view.id, { budget: '800.00' }, view.version)
+			await buildEdits.updateBuild(reader.id, view.id, { budget: '800.00' }, view.version)
 		);
 		expect(budgeted.budget).toEqual({ amountMinor: 80000, currency: 'USD' });
 		const moved = ok(
-			await builds.updateBuild(reader.id, view.id, { regionCode: 'de' }, budgeted.version)
+			await buildEdits.updateBuild(reader.id, view.id, { regionCode: 'de' }, budgeted.version)
 		);
 		// 80000 / 1.0956 = 73019.35… → 73019 cents (ECB 2 Jan 2024, docs/sources.md 10c, V).
 		expect(moved.budget).toEqual({ amountMinor: 73019, currency: 'EUR' });
 		expect(
-			await builds.updateBuild(reader.id, view.id, { budget: '10.001' }, moved.version)
+			await buildEdits.updateBuild(reader.id, view.id, { budget: '10.001' }, moved.version)
 		).toMatchObject({ kind: 'invalid', issues: { budget: ['EUR has 2 decimals.'] } });
 	});
 
@@ -428,9 +445,11 @@ describe('builds on the real MariaDB', () => {
 		const cpu = slotOf(view, 'cpu');
 		const gpu = slotOf(view, 'gpu');
 		const psu = slotOf(view, 'psu');
-		let v = ok(await builds.updateBuild(reader.id, view.id, { budget: '650.00' }, view.version));
+		let v = ok(
+			await buildEdits.updateBuild(reader.id, view.id, { budget: '650.00' }, view.version)
+		);
 		v = ok(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				cpu.id,
@@ -446,7 +465,7 @@ describe('builds on the real MariaDB', () => {
 			)
 		);
 		v = ok(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				gpu.id,
@@ -456,7 +475,7 @@ describe('builds on the real MariaDB', () => {
 		);
 		// An override on a slot not bought yet: the line becomes 2 × 49.99.
 		v = ok(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				psu.id,
@@ -499,7 +518,7 @@ describe('builds on the real MariaDB', () => {
 
 		// Bad amounts by field; dates in the future never reach the service.
 		expect(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				cpu.id,
@@ -515,8 +534,8 @@ describe('builds on the real MariaDB', () => {
 		expect(future.error?.issues.map((i) => i.path.join('.'))).toEqual(['purchase.purchasedAt']);
 
 		// Others never see what was paid, nor the budget.
-		v = ok(await builds.updateBuild(reader.id, view.id, { visibility: 'public' }, v.version));
-		const seen = await builds.getBuild({ id: other.id }, view.id);
+		v = ok(await buildEdits.updateBuild(reader.id, view.id, { visibility: 'public' }, v.version));
+		const seen = await buildView.getBuild({ id: other.id }, view.id);
 		expect(seen?.budget).toBeNull();
 		expect(seen?.totals.spent.amountMinor).toBe(0);
 		expect(seen?.totals.leftOfBudget).toBeNull();
@@ -526,7 +545,7 @@ describe('builds on the real MariaDB', () => {
 
 		// Un-marking clears what was paid.
 		ok(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				cpu.id,
@@ -546,7 +565,7 @@ describe('builds on the real MariaDB', () => {
 		const view = await forked();
 		const psu = slotOf(view, 'psu');
 		let v = ok(
-			await builds.addSlot(
+			await buildEdits.addSlot(
 				reader.id,
 				view.id,
 				{
@@ -559,7 +578,7 @@ describe('builds on the real MariaDB', () => {
 			)
 		);
 		v = ok(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				reader.id,
 				view.id,
 				psu.id,
@@ -567,7 +586,7 @@ describe('builds on the real MariaDB', () => {
 				v.version
 			)
 		);
-		const csv = await builds.exportCsv({ id: reader.id }, view.id);
+		const csv = await buildExport.exportCsv({ id: reader.id }, view.id);
 		if (csv === null) throw new Error('owner cannot export');
 		const rows = parse(csv) as string[][];
 		expect(rows[0]).toEqual([
@@ -589,26 +608,26 @@ describe('builds on the real MariaDB', () => {
 		const totalRow = rows.find((r) => r[0] === 'Planned total');
 		expect(cents(totalRow?.[4] ?? '')).toBe(sumLines);
 		expect(cents(totalRow?.[4] ?? '')).toBe(v.totals.planned.amountMinor);
-		expect(rows.find((r) => r[0] === 'Spent')?.[4]).toBe(builds.decimalOf(v.totals.spent));
+		expect(rows.find((r) => r[0] === 'Spent')?.[4]).toBe(buildExport.decimalOf(v.totals.spent));
 		expect(rows.find((r) => r[0] === 'Remaining to buy')?.[4]).toBe(
-			builds.decimalOf(v.totals.remainingToBuy)
+			buildExport.decimalOf(v.totals.remainingToBuy)
 		);
 		expect(lines.find((r) => r[0] === psu.label)?.slice(8)).toEqual(['yes', '60.00']);
 		// The formula-like label is neutralised with a leading quote (OWASP CSV injection).
 		expect(lines.some((r) => r[0] === `'=HYPERLINK("http://x.example")`)).toBe(true);
 		expect(lines.every((r) => r[5] === 'USD')).toBe(true);
 		// Others may not export a private build; a public one comes without purchases.
-		expect(await builds.exportCsv({ id: other.id }, view.id)).toBeNull();
-		ok(await builds.updateBuild(reader.id, view.id, { visibility: 'public' }, v.version));
-		const theirs = parse((await builds.exportCsv(null, view.id)) ?? '') as string[][];
+		expect(await buildExport.exportCsv({ id: other.id }, view.id)).toBeNull();
+		ok(await buildEdits.updateBuild(reader.id, view.id, { visibility: 'public' }, v.version));
+		const theirs = parse((await buildExport.exportCsv(null, view.id)) ?? '') as string[][];
 		expect(theirs.slice(1, 1 + v.slots.length).every((r) => r[8] === '' && r[9] === '')).toBe(true);
 		expect(theirs.some((r) => r[0] === 'Spent')).toBe(false);
-		expect(builds.decimalOf({ amountMinor: -1250, currency: 'USD' })).toBe('-12.50');
-		expect(builds.decimalOf({ amountMinor: 180000, currency: 'JPY' })).toBe('180000');
+		expect(buildExport.decimalOf({ amountMinor: -1250, currency: 'USD' })).toBe('-12.50');
+		expect(buildExport.decimalOf({ amountMinor: 180000, currency: 'JPY' })).toBe('180000');
 	});
 
 	it('lists the reader’s own builds only', async () => {
-		const mine = await builds.listMine(reader.id);
+		const mine = await buildLists.listMine(reader.id);
 		expect(mine.length).toBeGreaterThan(0);
 		const ids = new Set((await Build.findAll({ where: { ownerId: reader.id } })).map((b) => b.id));
 		expect(new Set(mine.map((b) => b.id))).toEqual(ids);
@@ -621,9 +640,13 @@ describe('slot keys and input (no database)', () => {
 		const slot = (label: string) =>
 			({ label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
 		const long = 'L'.repeat(80);
-		const keys = builds
-			.keyedRevisionSlots([slot('Storage'), slot('CPU'), slot('Storage'), slot(long), slot(long)])
-			.map((k) => k.key);
+		const keys = keyedRevisionSlots([
+			slot('Storage'),
+			slot('CPU'),
+			slot('Storage'),
+			slot(long),
+			slot(long)
+		]).map((k) => k.key);
 		expect(keys).toEqual(['Storage', 'CPU', 'Storage (2)', long, `${'L'.repeat(76)} (2)`]);
 		expect(keys.every((k) => k.length <= 80)).toBe(true);
 	});
@@ -656,14 +679,14 @@ describe('a fork that fails half-way (real MariaDB failure)', () => {
 			{ type: QueryTypes.RAW }
 		);
 		try {
-			await expect(builds.fork(reader.id, GUIDE)).rejects.toThrow(/injected failure/);
+			await expect(buildFork.fork(reader.id, GUIDE)).rejects.toThrow(/injected failure/);
 		} finally {
 			await sequelize.query('DROP TRIGGER IF EXISTS fail_mid_fork', { type: QueryTypes.RAW });
 		}
 		expect(await countRows('builds')).toBe(0);
 		expect(await countRows('build_slots')).toBe(0);
 		// With the cause gone the same fork succeeds.
-		expect((await builds.fork(reader.id, GUIDE)).kind).toBe('created');
+		expect((await buildFork.fork(reader.id, GUIDE)).kind).toBe('created');
 		expect(await countRows('builds')).toBe(1);
 	});
 });

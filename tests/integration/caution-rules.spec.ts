@@ -7,6 +7,7 @@ import {
 import { ruleFromForm } from '../../src/lib/schemas/caution-rules';
 import * as cautions from '../../src/lib/server/services/caution-rules';
 import * as fit from '../../src/lib/server/services/fit';
+import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import * as guides from '../../src/lib/server/services/guides';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { countRows, resetDatabase } from '../support/db';
@@ -324,7 +325,7 @@ describe('caution rules service', () => {
 		await seedDemoCautionRules({ context: sequelize } as never);
 		expect(await cautions.activeRules()).toHaveLength(DEMO_CAUTION_RULES.length);
 		const messages = new Set(DEMO_CAUTION_RULES.map((r) => r.message));
-		const cards = await guides.listPublished();
+		const cards = await guideBrowse.listPublished();
 		expect(cards.length).toBeGreaterThan(0);
 		for (const card of cards) {
 			const outcome = await guides.getGuidePage(card.slug, null);

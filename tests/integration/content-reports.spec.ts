@@ -14,6 +14,7 @@ import { seeder } from '../../src/lib/server/db/seeders';
 import type { GuideBrowseQuery } from '../../src/lib/schemas/guide-browse';
 import * as builds from '../../src/lib/server/services/builds';
 import * as contentReports from '../../src/lib/server/services/content-reports';
+import * as reportQueue from '../../src/lib/server/services/content-report-queue';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import { atomFeed } from '../../src/lib/server/services/guide-feed';
 import * as guides from '../../src/lib/server/services/guides';
@@ -55,7 +56,7 @@ async function publicSlugs(): Promise<{
 	if (browse.kind !== 'ok') throw new Error(browse.kind);
 	const home = await guideBrowse.homeLists(10);
 	return {
-		list: (await guides.listPublished()).map((g) => g.slug),
+		list: (await guideBrowse.listPublished()).map((g) => g.slug),
 		browse: browse.result.items.map((g) => g.slug),
 		feed: await atomFeed('https://slotwise.example'),
 		home: [...home.latest, ...home.featured].map((g) => g.slug)
@@ -158,16 +159,16 @@ describe('content reports on the real MariaDB', () => {
 			detail: 'Wrong RAM speed listed.'
 		});
 		await contentReports.report(reader.id, 'guide', 'pocket-itx-1440p', input);
-		const queue = await contentReports.listQueue({ state: 'open', page: 1 });
+		const queue = await reportQueue.listQueue({ state: 'open', page: 1 });
 		expect(queue.total).toBe(2);
 		const group = queue.items.find((g) => g.subject.id === guideId);
 		expect(group?.reportCount).toBe(2);
 		expect(group?.subject).toMatchObject({ type: 'guide', url: `/guides/${SLUG}`, hidden: null });
 		expect(group?.reports.map((r) => r.category).sort()).toEqual(['misleading', 'unsafe']);
-		expect((await contentReports.listQueue({ state: 'closed', page: 1 })).total).toBe(0);
+		expect((await reportQueue.listQueue({ state: 'closed', page: 1 })).total).toBe(0);
 		// One group per page: two pages.
 		expect(
-			(await contentReports.listQueue({ state: 'open', page: 2, perPage: 1 })).items
+			(await reportQueue.listQueue({ state: 'open', page: 2, perPage: 1 })).items
 		).toHaveLength(1);
 	});
 
@@ -274,7 +275,7 @@ describe('content reports on the real MariaDB', () => {
 		await contentReports.hide(editor.id, subject(), REASON);
 		expect(await contentReports.restore(admin.id, subject())).toEqual({ kind: 'ok' });
 
-		expect((await guides.listPublished()).map((g) => g.slug)).toContain(SLUG);
+		expect((await guideBrowse.listPublished()).map((g) => g.slug)).toContain(SLUG);
 		const page = await guides.getGuidePage(SLUG, null);
 		expect(page.kind === 'ok' && page.page.hidden).toBeNull();
 		expect(
@@ -311,8 +312,8 @@ describe('content reports on the real MariaDB', () => {
 		expect(await ContentReport.count({ where: { state: 'dismissed' } })).toBe(2);
 		expect(await auditActions()).toEqual(['content_report.dismissed']);
 		// Dismissing hides nothing.
-		expect((await guides.listPublished()).map((g) => g.slug)).toContain(SLUG);
-		const closed = await contentReports.listQueue({ state: 'closed', page: 1 });
+		expect((await guideBrowse.listPublished()).map((g) => g.slug)).toContain(SLUG);
+		const closed = await reportQueue.listQueue({ state: 'closed', page: 1 });
 		expect(closed.items[0]).toMatchObject({ reportCount: 2 });
 		expect(
 			closed.items[0]?.reports.every((r) => r.state === 'dismissed' && r.decidedBy !== null)

@@ -267,7 +267,7 @@ describe('Atom feed of published guides', () => {
 		expect(feed.title).toContain('Slotwise');
 		expect(feed.self).toBe('http://slotwise.test/guides/feed.xml');
 		expect(feed.url).toBe('http://slotwise.test/guides');
-		const published = await guides.listPublished();
+		const published = await guideBrowse.listPublished();
 		expect(feed.items.map((i) => i.url).sort()).toEqual(
 			published.map((g) => `http://slotwise.test/guides/${g.slug}`).sort()
 		);

@@ -4,6 +4,7 @@ import { Guide, Quote, Region, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
+import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import * as guides from '../../src/lib/server/services/guides';
 import { resetDatabase } from '../support/db';
 
@@ -14,7 +15,7 @@ describe('guides service on the real MariaDB', () => {
 	});
 
 	it('lists every published demo guide with its base region and budget', async () => {
-		const list = await guides.listPublished();
+		const list = await guideBrowse.listPublished();
 		expect(list.map((g) => g.slug).sort()).toEqual(demoGuides.map((g) => g.slug).sort());
 		for (const card of list) {
 			const demo = demoGuides.find((g) => g.slug === card.slug);
@@ -25,7 +26,7 @@ describe('guides service on the real MariaDB', () => {
 	});
 
 	it('totals the picks exactly as SQL sums quantity × quoted amount', async () => {
-		for (const card of await guides.listPublished()) {
+		for (const card of await guideBrowse.listPublished()) {
 			const [row] = await sequelize.query<{ total: string | number }>(
 				`SELECT SUM(s.quantity * q.amount_minor) AS total
 				   FROM guides g
@@ -66,7 +67,7 @@ describe('guides service on the real MariaDB', () => {
 		if (!demo) throw new Error('no demo guide');
 		await Guide.update({ state: 'archived' }, { where: { slug: demo.slug } });
 		expect(await guides.getPublishedBySlug(demo.slug)).toBeNull();
-		expect((await guides.listPublished()).some((g) => g.slug === demo.slug)).toBe(false);
+		expect((await guideBrowse.listPublished()).some((g) => g.slug === demo.slug)).toBe(false);
 		await Guide.update({ state: 'published' }, { where: { slug: demo.slug } });
 	});
 });

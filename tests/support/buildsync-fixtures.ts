@@ -1,6 +1,6 @@
 /*
  * Builds and guide revisions for the build sync / within-budget / notify tests, made with
- * the models and services/builds.ts fork on the real MariaDB (the demo community seeded first).
+ * the models and services/build-fork.ts fork on the real MariaDB (the demo community seeded first).
  */
 import { randomBytes } from 'node:crypto';
 import {
@@ -13,7 +13,7 @@ import {
 	SlotAlternate,
 	User
 } from '../../src/lib/server/db';
-import { fork } from '../../src/lib/server/services/builds';
+import { fork } from '../../src/lib/server/services/build-fork';
 
 export const DEMO_SLUG = 'steady-1080p-starter';
 
@@ -40,7 +40,7 @@ export async function newReader(tag: string): Promise<User> {
 	});
 }
 
-/** A fork of the guide's published revision (services/builds.ts fork), with optional settings. */
+/** A fork of the guide's published revision (services/build-fork.ts fork), with optional settings. */
 export async function forkBuild(
 	owner: User,
 	guide: Guide,

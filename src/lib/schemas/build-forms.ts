@@ -1,7 +1,7 @@
 import { z } from 'zod';
 
 /*
- * The build page's form posts, parsed into the shapes services/builds.ts takes. Every form
+ * The build page's form posts, parsed into the shapes services/build-edits.ts takes. Every form
  * carries the build's `version` (optimistic locking) and, for slot edits, the slot id.
  * Amounts stay decimal text here: the service checks them against the region's currency.
  */

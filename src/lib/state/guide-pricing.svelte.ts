@@ -3,7 +3,7 @@
  * source of truth: a fetched pricing only replaces it until the data changes (a real
  * navigation), so the no-JavaScript GET form and this enhancement never disagree.
  */
-import type { PricedGuide } from '$lib/server/services/guide-views';
+import type { PricedGuide } from '$lib/views';
 
 export class GuidePricing {
 	#source: () => PricedGuide;

@@ -3,7 +3,7 @@
  * tick at its 1 % low, on one shared linear scale from zero so bar lengths compare.
  */
 import { scaleLinear } from 'd3-scale';
-import type { FrameResultView } from '$lib/server/services/guide-views';
+import type { FrameResultView } from '$lib/views';
 
 export const CHART_WIDTH = 640;
 const LABEL_H = 20;

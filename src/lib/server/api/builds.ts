@@ -19,8 +19,11 @@ import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as limits from '$lib/server/rate-limit';
 import { forkChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequestsJson } from '$lib/server/rate-limit-response';
-import * as builds from '$lib/server/services/builds';
-import type { MutationOutcome } from '$lib/server/services/builds';
+import * as buildEdits from '$lib/server/services/build-edits';
+import * as buildExport from '$lib/server/services/build-export';
+import * as buildFork from '$lib/server/services/build-fork';
+import * as buildView from '$lib/server/services/build-view';
+import type { MutationOutcome } from '$lib/server/services/build-edits';
 import { invalid, notFound as notFoundAnswer, readJson, stale } from './json';
 
 const notFound = () => notFoundAnswer('Build not found');
@@ -78,7 +81,7 @@ export async function forkGuide({ params, request }: RequestEvent): Promise<Resp
 	}
 	const allowed = await limits.consumeAll(forkChecks(user.id));
 	if (!allowed.ok) return tooManyRequestsJson(allowed);
-	const outcome = await builds.fork(user.id, params.slug ?? '');
+	const outcome = await buildFork.fork(user.id, params.slug ?? '');
 	if (outcome.kind === 'not_found') return json({ message: 'Guide not found' }, { status: 404 });
 	return json(
 		{ id: outcome.id },
@@ -91,7 +94,7 @@ export async function getBuild({ params, url }: RequestEvent): Promise<Response>
 	const user = requireUser();
 	const query = queryOf(url);
 	if (!query.ok) return query.response;
-	const view = await builds.getBuild({ id: user.id }, idOf(params.id), query.value);
+	const view = await buildView.getBuild({ id: user.id }, idOf(params.id), query.value);
 	if (!view) return notFound();
 	if (query.value.regionCode && view.region.code !== query.value.regionCode)
 		return invalid({ region: ['Choose a region from the list.'] });
@@ -103,44 +106,44 @@ export async function patchBuild({ params, request }: RequestEvent): Promise<Res
 	const user = requireUser();
 	const id = idOf(params.id);
 	// Ownership first, so another reader's build answers 404 whatever the body holds.
-	if (!(await builds.ownsBuild(user.id, id))) return notFound();
+	if (!(await buildEdits.ownsBuild(user.id, id))) return notFound();
 	const input = await readJson(request, updateBuildInput);
 	if (!input.ok) return input.response;
 	const { version, ...patch } = input.data;
-	return answer(await builds.updateBuild(user.id, id, patch, version));
+	return answer(await buildEdits.updateBuild(user.id, id, patch, version));
 }
 
 /** PATCH /api/v1/builds/[id]/slots/[slotId] { version, partId?, quantity?, priceOverride?, purchase? } */
 export async function patchSlot({ params, request }: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
+	if (!(await buildEdits.ownsBuild(user.id, idOf(params.id)))) return notFound();
 	const input = await readJson(request, updateSlotInput);
 	if (!input.ok) return input.response;
 	const { version, ...patch } = input.data;
 	return answer(
-		await builds.updateSlot(user.id, idOf(params.id), idOf(params.slotId), patch, version)
+		await buildEdits.updateSlot(user.id, idOf(params.id), idOf(params.slotId), patch, version)
 	);
 }
 
 /** POST /api/v1/builds/[id]/slots { version, category, label, partId, quantity } → 201 build */
 export async function postSlot({ params, request }: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
+	if (!(await buildEdits.ownsBuild(user.id, idOf(params.id)))) return notFound();
 	const input = await readJson(request, addSlotInput);
 	if (!input.ok) return input.response;
 	const { version, ...slot } = input.data;
-	const outcome = await builds.addSlot(user.id, idOf(params.id), slot, version);
+	const outcome = await buildEdits.addSlot(user.id, idOf(params.id), slot, version);
 	return outcome.kind === 'ok' ? json(outcome.build, { status: 201 }) : answer(outcome);
 }
 
 /** DELETE /api/v1/builds/[id]/slots/[slotId] { version } */
 export async function deleteSlot({ params, request }: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	if (!(await builds.ownsBuild(user.id, idOf(params.id)))) return notFound();
+	if (!(await buildEdits.ownsBuild(user.id, idOf(params.id)))) return notFound();
 	const input = await readJson(request, removeSlotInput);
 	if (!input.ok) return input.response;
 	return answer(
-		await builds.removeSlot(user.id, idOf(params.id), idOf(params.slotId), input.data.version)
+		await buildEdits.removeSlot(user.id, idOf(params.id), idOf(params.slotId), input.data.version)
 	);
 }
 
@@ -154,12 +157,12 @@ export async function exportCsv({ params, url }: RequestEvent): Promise<Response
 	const query = queryOf(url);
 	if (!query.ok) return query.response;
 	const id = idOf(params.id);
-	const csv = await builds.exportCsv(user ? { id: user.id } : null, id, query.value);
+	const csv = await buildExport.exportCsv(user ? { id: user.id } : null, id, query.value);
 	if (csv === null) return notFound();
 	return new Response(csv, {
 		headers: {
 			'content-type': 'text/csv; charset=utf-8',
-			'content-disposition': `attachment; filename="${builds.csvFilename(id)}"`,
+			'content-disposition': `attachment; filename="${buildExport.csvFilename(id)}"`,
 			'cache-control': 'no-store'
 		}
 	});

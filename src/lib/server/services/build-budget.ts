@@ -11,7 +11,7 @@
  * their current part (a bought part is not swapped; it still counts in the total).
  *
  * Prices (line = unit × quantity, integer minor units of the build region's currency) come
- * from services/builds.ts pricedOptions, so they are the prices the build page shows: the
+ * from build-pricing.ts pricedOptions, so they are the prices the build page shows: the
  * reader's override for the current part when it is in the region's currency, else a quote in
  * the build region, else an estimate from the source guide's base region (domain/region.ts).
  * A bought slot counts what was paid when that is in the region's currency. An option with
@@ -35,9 +35,10 @@ import type { Money, PartCategory } from '$lib/domain/types';
 import { withinBudget } from '$lib/domain/within-budget';
 import type { BudgetSlot, OptionRef, WithinBudgetResult } from '$lib/domain/within-budget';
 import { Build, BuildSlot, Region, sequelize } from '$lib/server/db';
-import { getBuild, pricedOptions } from './builds';
-import type { BuildView, PricedOption } from './builds';
-import type { PartRef } from './guide-views';
+import type { BuildView, PartRef } from '$lib/views';
+import { pricedOptions } from './build-pricing';
+import type { PricedOption } from './build-pricing';
+import { getBuild } from './build-view';
 
 export interface BudgetSwapView {
 	slotId: number;

@@ -29,8 +29,9 @@ import type {
 import type { PartCategory } from '$lib/domain/types';
 import { Build, BuildSlot, BuildSync, Guide, GuideRevision, Part, sequelize } from '$lib/server/db';
 import type { SlotRowSnapshot } from '$lib/server/db/models/BuildSync';
-import { keyedRevisionSlots, sourceSlotsOf } from './builds';
-import type { PartRef } from './guide-views';
+import type { PartRef } from '$lib/views';
+import { keyedRevisionSlots, sourceSlotsOf } from './build-source';
+import { partRef } from './mappers';
 import { loadRevisionSlots } from './revision-snapshots';
 
 /** One side of a sync row: the part, how many, and the slot's label on that side. */
@@ -187,7 +188,7 @@ async function loadState(
 		],
 		transaction
 	});
-	// Keys as fork gives them (builds.ts keyedRevisionSlots: the label, " (2)" for a repeat).
+	// Keys as fork gives them (build-source.ts keyedRevisionSlots: the label, " (2)" for a repeat).
 	const baseSlots = sourceSlotsOf(
 		keyedRevisionSlots(slots.filter((s) => s.revisionId === baseRevision.id))
 	);
@@ -233,16 +234,6 @@ async function lastSyncView(
 		fromRevisionNumber: numberOf(last.fromRevisionId),
 		toRevisionNumber: numberOf(last.toRevisionId),
 		createdAt: last.createdAt.toISOString()
-	};
-}
-
-function partRef(p: Part): PartRef {
-	return {
-		id: p.id,
-		slug: p.slug,
-		brand: p.brand,
-		model: p.model,
-		category: p.category as PartCategory
 	};
 }
 

@@ -1,41 +1,84 @@
 /**
- * Guide browse and the home lists: published guides filtered by tags, base region and a
- * budget in the reader's region, sorted and paged. Pricing goes through guides.getPriced,
- * so a browse total is the very figure the guide page shows for the same region.
+ * Lists of published guides: the cards of browse, the home page and the Atom feed. Guides
+ * browse filtered by tags, base region and a budget in the reader's region, sorted and paged.
  *
- * Cost: with a region chosen every guide left after the tag and base-region filters is
- * priced (a budget, a total or a value sort needs all of them); a guide's frame results
- * come with its pricing (getPriced goes through the guide page). Fine for a community's few hundred
- * guides; a batch pricing call in guides.ts is the next step when that grows.
+ * Every list is priced in one batched pass of the pricing service (services/pricing.ts), the
+ * same computation as the guide page, so a browse total is the very figure the guide page
+ * shows for the same region: a constant number of queries however many guides there are
+ * (tests/integration/pricing.spec.ts counts them). Every published guide is still priced on
+ * each request; stored totals per revision and region are the next step when that grows.
  */
+import { Op } from 'sequelize';
 import { minorUnitDigits } from '$lib/domain/money';
+import { valueOf } from '$lib/domain/value';
 import { GUIDES_PER_PAGE } from '$lib/schemas/guide-browse';
 import type { GuideBrowseQuery } from '$lib/schemas/guide-browse';
+import { FrameResult, Guide, Region } from '$lib/server/db';
+import type { BrowseItem, BrowseResult, GuideCard } from '$lib/views';
 import * as guides from './guides';
-import type { GuideCard, RegionSummary } from './guide-views';
+import type { LoadedGuide } from './guides';
+import { regionSummary } from './mappers';
+import { priceRevisionsIn } from './pricing';
 
-/** A guide on the browse page: its card, with the picks total in the shown region. */
-export interface BrowseItem extends GuideCard {
-	/** The region `picksTotal` is priced in (the base region when none was chosen). */
-	pricedIn: RegionSummary;
-	/**
-	 * FPS per 100 units of `pricedIn`'s currency, the guide page's own figure (domain/value.ts):
-	 * null without frame results, without a complete total, or when no region was chosen.
-	 */
-	fpsPer100: number | null;
+/** Published guides, featured first, newest first, priced in their base regions. */
+export async function listPublished(): Promise<GuideCard[]> {
+	return (await publishedIn(null)).map(({ pricedIn: _p, fpsPer100: _v, ...card }) => card);
 }
 
-export interface BrowseResult {
-	items: BrowseItem[];
-	total: number;
-	page: number;
-	pageCount: number;
-	/** The reader's region, when one was chosen. */
-	region: RegionSummary | null;
-	/** Every region, for the form. */
-	regions: RegionSummary[];
-	/** Every tag used by a published guide, for the form. */
-	tags: string[];
+/**
+ * Every published guide's card priced in `target` (null: each in its base region), with the
+ * value in that region when one was chosen. Featured first, then the most recently changed.
+ */
+async function publishedIn(target: Region | null): Promise<BrowseItem[]> {
+	const rows = (await Guide.findAll({
+		// Hidden guides (services/content-reports) are left out of every public list.
+		where: { state: 'published', publishedRevisionId: { [Op.ne]: null }, hiddenAt: null },
+		include: guides.guideIncludes(),
+		order: [
+			['featured', 'DESC'],
+			['updatedAt', 'DESC']
+		]
+	})) as LoadedGuide[];
+	const listed = rows.flatMap((guide) =>
+		guide.baseRegion && guide.publishedRevision
+			? [{ guide, base: guide.baseRegion, revision: guide.publishedRevision }]
+			: []
+	);
+	const revisionIds = listed.map((g) => g.revision.id);
+	const [pricing, frames] = await Promise.all([
+		priceRevisionsIn(
+			listed.map((g) => ({ revisionId: g.revision.id, base: g.base })),
+			target
+		),
+		// Value is shown only in a chosen region (the guide page's figure for that region).
+		target && revisionIds.length > 0
+			? FrameResult.findAll({
+					where: { revisionId: revisionIds },
+					attributes: ['revisionId', 'avgFpsTenths']
+				})
+			: Promise.resolve([])
+	]);
+	return listed.flatMap(({ guide, base, revision }) => {
+		const priced = pricing.revisions.get(revision.id);
+		if (!priced) return [];
+		const { adjustment, region } = priced;
+		let fpsPer100: number | null = null;
+		if (target) {
+			// As on the guide page: value only against a complete total.
+			const total = adjustment.unpricedSlots === 0 ? adjustment.picksTotal : null;
+			const results = frames
+				.filter((f) => f.revisionId === revision.id)
+				.map((f) => ({ averageFps: f.avgFpsTenths / 10 }));
+			fpsPer100 = valueOf(results, total).fpsPer100;
+		}
+		return [
+			{
+				...guides.cardOf(guide, base, revision, adjustment),
+				pricedIn: regionSummary(region),
+				fpsPer100
+			}
+		];
+	});
 }
 
 export type BrowseOutcome =
@@ -46,29 +89,23 @@ export async function browse(
 	query: GuideBrowseQuery,
 	perPage = GUIDES_PER_PAGE
 ): Promise<BrowseOutcome> {
-	const regions = await guides.listRegions();
-	const region = query.region ? (regions.find((r) => r.code === query.region) ?? null) : null;
-	if (query.region && !region) return { kind: 'unknown_region', field: 'region' };
-	if (query.base && !regions.some((r) => r.code === query.base))
+	const regionRows = await Region.findAll({ order: [['name', 'ASC']] });
+	const target = query.region ? (regionRows.find((r) => r.code === query.region) ?? null) : null;
+	if (query.region && !target) return { kind: 'unknown_region', field: 'region' };
+	if (query.base && !regionRows.some((r) => r.code === query.base))
 		return { kind: 'unknown_region', field: 'base' };
 
-	const published = await guides.listPublished();
+	const published = await publishedIn(target);
 	const tags = [...new Set(published.flatMap((g) => g.tags))].sort();
-	const wanted = published
+	let items = published
 		.filter((g) => !query.base || g.baseRegion.code === query.base)
 		.filter((g) => query.tag.every((t) => g.tags.includes(t)))
 		.sort(byNewest);
-
-	let items: BrowseItem[];
-	if (region) {
-		const priced = await Promise.all(wanted.map((g) => inRegion(g, region.code)));
-		items = priced
-			.filter((g): g is BrowseItem => g !== null)
-			.filter((g) => withinBudget(g, query.min, query.max));
+	if (target) {
+		// Budget bounds are in the chosen region's currency, so they apply only with a region.
+		items = items.filter((g) => withinBudget(g, query.min, query.max));
 		if (query.sort === 'total') items.sort(byTotal);
 		if (query.sort === 'value') items.sort(byValue);
-	} else {
-		items = wanted.map((g) => ({ ...g, pricedIn: g.baseRegion, fpsPer100: null }));
 	}
 
 	const total = items.length;
@@ -81,8 +118,8 @@ export async function browse(
 			total,
 			page: query.page,
 			pageCount,
-			region,
-			regions,
+			region: target ? regionSummary(target) : null,
+			regions: regionRows.map(regionSummary),
 			tags
 		}
 	};
@@ -92,25 +129,8 @@ export async function browse(
 export async function homeLists(
 	latestCount = 4
 ): Promise<{ latest: BrowseItem[]; featured: BrowseItem[] }> {
-	const published = (await guides.listPublished())
-		.sort(byNewest)
-		.map((g) => ({ ...g, pricedIn: g.baseRegion, fpsPer100: null }));
+	const published = (await publishedIn(null)).sort(byNewest);
 	return { latest: published.slice(0, latestCount), featured: published.filter((g) => g.featured) };
-}
-
-async function inRegion(card: GuideCard, regionCode: string): Promise<BrowseItem | null> {
-	const outcome = await guides.getPriced(card.slug, regionCode);
-	if (outcome.kind !== 'ok') return null;
-	const g = outcome.guide;
-	// getPriced prices through the guide page, so the value is the one that page shows.
-	const fpsPer100 = g.value?.fpsPer100 ?? null;
-	return {
-		...card,
-		picksTotal: g.picksTotal,
-		unpricedSlots: g.unpricedSlots,
-		pricedIn: g.region,
-		fpsPer100
-	};
 }
 
 /**

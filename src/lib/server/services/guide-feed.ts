@@ -2,8 +2,8 @@
  * The Atom feed (RFC 4287) of published guides. Entry ids are the guides' permanent URLs
  * (RFC 4287 §4.2.6 allows any IRI that never changes; a guide's slug never changes).
  */
-import * as guides from './guides';
-import type { GuideCard } from './guide-views';
+import type { GuideCard } from '$lib/views';
+import { listPublished } from './guide-browse';
 
 const FEED_TITLE = 'Slotwise: new and revised PC build guides';
 
@@ -24,9 +24,7 @@ export function xmlEscape(text: string): string {
 
 /** The feed document for the site at `origin` (e.g. https://slotwise.example). */
 export async function atomFeed(origin: string): Promise<string> {
-	const list = (await guides.listPublished()).sort((a, b) =>
-		b.publishedAt.localeCompare(a.publishedAt)
-	);
+	const list = (await listPublished()).sort((a, b) => b.publishedAt.localeCompare(a.publishedAt));
 	// A feed with no entries still needs an <updated>; the epoch says "nothing yet".
 	const updated = list[0]?.publishedAt ?? new Date(0).toISOString();
 	const self = `${origin}/guides/feed.xml`;

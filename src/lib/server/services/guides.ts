@@ -1,79 +1,39 @@
 /**
- * Published guides as plain objects for pages and the API. The only module that reads
- * guide models. Prices are shown in a region: the guide's base region by default, or any
- * region a reader picks, where lines are quoted (a store's price there) or estimated from
- * the base price (domain/region.ts).
+ * One published guide as plain objects for its page and the API: priced in a region through
+ * the pricing service (the guide's base region by default, or any region a reader picks,
+ * where lines are quoted or estimated from the base price), with fit report, drop-ins, power
+ * budget, value, reproducibility and revision history. Lists of guides are guide-browse.ts's.
  */
 import { Op } from 'sequelize';
 import type { BuildPart } from '$lib/domain/build-parts';
 import { dropIns } from '$lib/domain/dropins';
-import type { DropInResult, DropInReport, GuideSlot as DropInSlot } from '$lib/domain/dropins';
+import type { DropInResult, DropInReport } from '$lib/domain/dropins';
 import { summarize } from '$lib/domain/fit';
 import type { CautionRule } from '$lib/domain/pairing-cautions';
 import { money, subtract } from '$lib/domain/money';
 import { powerBudget } from '$lib/domain/power';
+import type { RegionAdjustment } from '$lib/domain/region';
 import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
+import type { AlternateReason } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
-import { adjustToRegion } from '$lib/domain/region';
-import type {
-	OptionInput,
-	PricedLine,
-	QuoteInput,
-	RatesPerEur,
-	RegionPricing,
-	SlotInput
-} from '$lib/domain/region';
-import type { AlternateReason, PartCategory, TaxMode } from '$lib/domain/types';
-import {
-	FrameResult,
-	Guide,
-	GuideRevision,
-	Part,
-	Quote,
-	Region,
-	Store,
-	ThermalResult,
-	User
-} from '$lib/server/db';
-import * as fx from './fx';
-import { activeRules } from './caution-rules';
-import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
-import type { QuoteWithStore } from './revision-snapshots';
+import { FrameResult, Guide, GuideRevision, Region, ThermalResult, User } from '$lib/server/db';
 import type {
 	DropInView,
 	FrameResultView,
 	GuideCard,
 	GuideDetail,
 	GuidePage,
-	PartRef,
-	PriceLine,
 	PricedGuide,
 	RegionSummary,
 	RevisionDiff,
 	SlotView
-} from './guide-views';
-
-export type { GuideCard, GuideDetail, GuidePage, PricedGuide } from './guide-views';
-
-/** Published guides, featured first, newest first, priced in their base regions. */
-export async function listPublished(): Promise<GuideCard[]> {
-	const guides = await Guide.findAll({
-		// Hidden guides (services/content-reports) are left out of every public list.
-		where: { state: 'published', publishedRevisionId: { [Op.ne]: null }, hiddenAt: null },
-		include: guideIncludes(),
-		order: [
-			['featured', 'DESC'],
-			['updatedAt', 'DESC']
-		]
-	});
-	const result: GuideCard[] = [];
-	for (const guide of guides) {
-		const priced = await price(guide as LoadedGuide, null, null);
-		if (priced) result.push(toCard(priced.guide));
-	}
-	return result;
-}
+} from '$lib/views';
+import { activeRules } from './caution-rules';
+import * as fx from './fx';
+import { dropInSlot, partRef, picksOf, regionSummary } from './mappers';
+import { priceRevisionsIn } from './pricing';
+import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
 
 /** The published guide in its base region, or null when there is none. */
 export async function getPublishedBySlug(slug: string): Promise<GuideDetail | null> {
@@ -240,7 +200,8 @@ function mayView(guide: Pick<Guide, 'hiddenAt' | 'authorId'>, viewer: GuideViewe
 	return viewer.role === 'editor' || viewer.role === 'admin' || viewer.id === guide.authorId;
 }
 
-function guideIncludes() {
+/** What every published-guide read loads with the guide: author, base region, published revision. */
+export function guideIncludes() {
 	return [
 		{ model: User, as: 'author', attributes: ['name'] },
 		{ model: Region, as: 'baseRegion' },
@@ -248,11 +209,33 @@ function guideIncludes() {
 	];
 }
 
-type LoadedGuide = Guide & {
+export type LoadedGuide = Guide & {
 	author?: User | null;
 	baseRegion?: Region;
 	publishedRevision?: GuideRevision | null;
 };
+
+/** A published guide's card from its pricing: what lists, browse and the feed show. */
+export function cardOf(
+	guide: LoadedGuide,
+	base: Region,
+	revision: GuideRevision,
+	adjustment: RegionAdjustment
+): GuideCard {
+	return {
+		slug: guide.slug,
+		title: guide.title,
+		summary: guide.summary,
+		authorName: guide.author?.name ?? 'Former member',
+		targetBudget: money(Number(guide.targetBudgetMinor), base.currency),
+		baseRegion: regionSummary(base),
+		tags: guide.tags,
+		featured: guide.featured,
+		picksTotal: adjustment.picksTotal,
+		unpricedSlots: adjustment.unpricedSlots,
+		publishedAt: (revision.publishedAt ?? guide.updatedAt).toISOString()
+	};
+}
 
 interface Priced {
 	guide: PricedGuide;
@@ -262,9 +245,9 @@ interface Priced {
 }
 
 /**
- * Prices the guide in `target` (null: its base region, using the author's chosen quotes).
- * With `detail` (the guide page and pricing API) it also works out drop-ins, value and
- * reproducibility in the region; cards skip them.
+ * Prices the guide in `target` (null: its base region, using the author's chosen quotes)
+ * through the pricing service. With `detail` (the guide page and pricing API) it also works
+ * out drop-ins, value and reproducibility in the region.
  */
 async function price(
 	guide: LoadedGuide,
@@ -274,67 +257,20 @@ async function price(
 	const base = guide.baseRegion;
 	const revision = guide.publishedRevision;
 	if (!base || !revision) return null;
-	const region = target ?? base;
-	const inBase = region.id === base.id;
+	const pricing = await priceRevisionsIn([{ revisionId: revision.id, base }], target);
+	const priced = pricing.revisions.get(revision.id);
+	if (!priced) return null;
+	const { slots, adjustment, prices, region } = priced;
 
-	const slots = await loadRevisionSlots([revision.id]);
-	const allPartIds = slots.flatMap((s) => [s.pick.id, ...s.alternates.map((a) => a.part.id)]);
-	const baseQuotes = await latestQuotes(allPartIds, base.id);
-	const targetQuotes = inBase ? baseQuotes : await latestQuotes(allPartIds, region.id);
-	// Rates matter only when prices cross a currency or tax regime.
-	const rates: RatesPerEur = inBase ? {} : await fx.ratesForPricing();
-
-	const option = (part: Part, chosen: QuoteWithStore | null): OptionInput => {
-		const basePrice = chosen ? quoteInput(chosen) : (baseQuotes.get(part.id) ?? null);
-		return {
-			partId: part.id,
-			basePrice,
-			targetQuote: inBase ? basePrice : (targetQuotes.get(part.id) ?? null)
-		};
-	};
-	const inputs: SlotInput[] = slots.map((s) => ({
-		key: s.id,
-		category: s.category,
-		quantity: s.quantity,
-		pick: option(s.pick, s.priceQuote),
-		alternates: s.alternates.map((a) => option(a.part, null))
-	}));
-	const adjusted = adjustToRegion({
-		base: pricingOf(base),
-		target: pricingOf(region),
-		slots: inputs,
-		rates
-	});
-
-	const dropSlots: DropInSlot[] = slots.map(
-		(s) =>
-			({
-				key: String(s.id),
-				label: s.label,
-				category: s.category,
-				quantity: s.quantity,
-				pick: partInfo(s.pick),
-				alternates: s.alternates.map((a) => ({ id: a.id, part: partInfo(a.part) }))
-			}) as unknown as DropInSlot
-	);
-	const build = dropSlots.map(
-		(d) =>
-			({
-				key: d.key,
-				label: d.label,
-				category: d.category,
-				quantity: d.quantity,
-				part: d.pick
-			}) as unknown as BuildPart
-	);
+	const dropSlots = slots.map((s) => dropInSlot(String(s.id), s, s.pick, s.alternates));
+	const build = picksOf(dropSlots);
 	const drop: DropInReport = detail
 		? dropIns(dropSlots, detail.cautionRules)
 		: { picks: [], alternates: [] };
 	const dropByAlternate = new Map(drop.alternates.map((r) => [r.alternateId, r]));
 
 	const slotViews: SlotView[] = slots.map((slot, i) => {
-		const line = adjusted.slots[i];
-		const pickPrice = line ? priceLine(line.pick, region) : null;
+		const pickPrice = prices[i]?.pick ?? null;
 		return {
 			id: slot.id,
 			category: slot.category,
@@ -344,9 +280,9 @@ async function price(
 			pick: partRef(slot.pick),
 			reason: slot.reason,
 			price: pickPrice,
-			lineTotal: line?.lineTotal ?? null,
+			lineTotal: adjustment.slots[i]?.lineTotal ?? null,
 			alternates: slot.alternates.map((alt, j) => {
-				const altPrice = line?.alternates[j] ? priceLine(line.alternates[j], region) : null;
+				const altPrice = prices[i]?.alternates[j] ?? null;
 				return {
 					rank: alt.rank,
 					part: partRef(alt.part),
@@ -360,35 +296,25 @@ async function price(
 		};
 	});
 
-	const ratesAsOf = adjusted.oldestRateAsOf;
+	const ratesAsOf = adjustment.oldestRateAsOf;
 	const pricedGuide: PricedGuide = {
-		slug: guide.slug,
-		title: guide.title,
-		summary: guide.summary,
-		authorName: guide.author?.name ?? 'Former member',
-		targetBudget: money(Number(guide.targetBudgetMinor), base.currency),
-		baseRegion: regionSummary(base),
-		tags: guide.tags,
-		featured: guide.featured,
-		picksTotal: adjusted.picksTotal,
-		unpricedSlots: adjusted.unpricedSlots,
-		publishedAt: (revision.publishedAt ?? guide.updatedAt).toISOString(),
+		...cardOf(guide, base, revision, adjustment),
 		revisionNumber: revision.number,
 		slots: slotViews,
-		totalRange: adjusted.range,
+		totalRange: adjustment.range,
 		region: regionSummary(region),
 		regions: [],
-		picks: adjusted.picks,
+		picks: adjustment.picks,
 		ratesAsOf,
 		ratesStale: ratesAsOf !== null && fx.rateAgeDays(ratesAsOf, new Date()) > fx.STALE_AFTER_DAYS
 	};
 	if (detail) {
 		// Value is only meaningful against a complete total.
-		const total = adjusted.unpricedSlots === 0 ? adjusted.picksTotal : null;
+		const total = adjustment.unpricedSlots === 0 ? adjustment.picksTotal : null;
 		pricedGuide.value = valueOf(detail.frames, total);
 		const reproSlots = slots.map((s) => ({
 			label: s.label,
-			latestQuoteAt: targetQuotes.get(s.pick.id)?.observedAt ?? null,
+			latestQuoteAt: pricing.latestQuote(s.pick.id, region.id)?.observedAt ?? null,
 			hasDropInAlternate: drop.alternates.some((r) => r.slotKey === String(s.id) && r.fits)
 		}));
 		pricedGuide.reproducibility = {
@@ -397,10 +323,6 @@ async function price(
 		};
 	}
 	return { guide: pricedGuide, build, drop };
-}
-
-function partInfo(p: Part) {
-	return { brand: p.brand, model: p.model, specs: p.specs };
 }
 
 function dropInView(result: DropInResult | undefined): DropInView | undefined {
@@ -418,87 +340,9 @@ function dropInView(result: DropInResult | undefined): DropInView | undefined {
 	return { status, changed, gone: result.gone.map((f) => f.message) };
 }
 
-function toCard(detail: GuideDetail): GuideCard {
-	const { slots: _slots, totalRange: _range, revisionNumber: _n, ...rest } = detail;
-	const {
-		region: _r,
-		regions: _rs,
-		picks: _p,
-		ratesAsOf: _a,
-		ratesStale: _s,
-		...card
-	} = rest as PricedGuide;
-	return card;
-}
-
 /** Every region, for the switcher. */
 export async function listRegions(): Promise<RegionSummary[]> {
 	return (await Region.findAll({ order: [['name', 'ASC']] })).map(regionSummary);
-}
-
-/** Latest active quote per part in a region (any store). */
-async function latestQuotes(partIds: number[], regionId: number): Promise<Map<number, QuoteInput>> {
-	const result = new Map<number, QuoteInput>();
-	if (partIds.length === 0) return result;
-	const quotes = (await Quote.findAll({
-		where: { partId: partIds, regionId, status: 'active' },
-		include: [{ model: Store, as: 'store' }],
-		order: [['observedAt', 'DESC']]
-	})) as QuoteWithStore[];
-	for (const q of quotes) if (!result.has(q.partId)) result.set(q.partId, quoteInput(q));
-	return result;
-}
-
-function quoteInput(q: QuoteWithStore): QuoteInput {
-	return {
-		unit: money(Number(q.amountMinor), q.currency),
-		taxIncluded: q.taxIncluded,
-		observedAt: q.observedAt.toISOString(),
-		storeName: q.store.name
-	};
-}
-
-function priceLine(line: PricedLine, region: Region): PriceLine | null {
-	if (line.status === 'unpriced' || !line.unit) return null;
-	return {
-		unit: line.unit,
-		status: line.status,
-		storeName: line.storeName,
-		observedAt: line.date,
-		// Region adjust puts every line in the region's display convention (a quote with the
-		// other treatment is converted and says so in its note).
-		taxIncluded: region.taxMode === 'inclusive'
-	};
-}
-
-function pricingOf(r: Region): RegionPricing {
-	return {
-		code: r.code,
-		currency: r.currency,
-		taxMode: r.taxMode as TaxMode,
-		taxRateBp: r.taxRateBp,
-		categoryFactorsBp: r.categoryFactorsBp ?? {}
-	};
-}
-
-function partRef(p: Part): PartRef {
-	return {
-		id: p.id,
-		slug: p.slug,
-		brand: p.brand,
-		model: p.model,
-		category: p.category as PartCategory
-	};
-}
-
-function regionSummary(r: Region): RegionSummary {
-	return {
-		code: r.code,
-		name: r.name,
-		currency: r.currency,
-		taxMode: r.taxMode as TaxMode,
-		taxRateBp: r.taxRateBp
-	};
 }
 
 export interface AuthoredGuide {

@@ -1,8 +1,8 @@
 import { requireUser } from '$lib/server/auth/guards';
-import * as builds from '$lib/server/services/builds';
+import * as buildLists from '$lib/server/services/build-lists';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const me = requireUser();
-	return { builds: await builds.listMine(me.id) };
+	return { builds: await buildLists.listMine(me.id) };
 };

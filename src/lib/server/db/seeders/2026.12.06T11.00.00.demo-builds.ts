@@ -1,6 +1,6 @@
 /*
  * Demo builds: readers' forks of the demo guides, so guide pages show a lineage and the
- * demo reader has builds to open. Forked the way services/builds.ts fork() does it (slots
+ * demo reader has builds to open. Forked the way services/build-fork.ts fork() does it (slots
  * of the published revision, keyed with domain/sync slotKeys), then changed a little.
  * Idempotent by the natural key (owner and title): an existing build is left alone.
  */

@@ -4,7 +4,7 @@ import { requireUser } from '$lib/server/auth/guards';
 import * as limits from '$lib/server/rate-limit';
 import { forkChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
-import * as builds from '$lib/server/services/builds';
+import * as buildFork from '$lib/server/services/build-fork';
 import type { Actions, PageServerLoad } from './$types';
 
 const forkForm = z.object({
@@ -30,7 +30,7 @@ export const actions: Actions = {
 			const refused = tooManyRequests(allowed);
 			error(refused.status, refused.data.message);
 		}
-		const outcome = await builds.fork(me.id, input.data.guide);
+		const outcome = await buildFork.fork(me.id, input.data.guide);
 		if (outcome.kind === 'not_found') error(404, 'Guide not found');
 		redirect(303, `/builds/${outcome.id}`);
 	}

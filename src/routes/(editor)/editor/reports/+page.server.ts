@@ -4,6 +4,7 @@ import { hideInput, reportQueueQuery, reportSubjectInput } from '$lib/schemas/co
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import * as contentReports from '$lib/server/services/content-reports';
+import * as reportQueue from '$lib/server/services/content-report-queue';
 import type { Outcome } from '$lib/server/services/users';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -15,7 +16,7 @@ export const load: PageServerLoad = async ({ url }) => {
 	// A bad filter shows the first page of open reports with a note rather than an error page.
 	const query = parsed.success ? parsed.data : reportQueueQuery.parse({});
 	const queryIssues = parsed.success ? {} : fieldIssues(parsed.error);
-	const queue = await contentReports.listQueue({ state: query.state, page: query.page });
+	const queue = await reportQueue.listQueue({ state: query.state, page: query.page });
 	return { query, queryIssues, queue };
 };
 

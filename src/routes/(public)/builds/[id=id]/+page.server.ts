@@ -17,7 +17,8 @@ import {
 } from '$lib/schemas/build-forms';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
-import * as builds from '$lib/server/services/builds';
+import * as buildEdits from '$lib/server/services/build-edits';
+import * as buildView from '$lib/server/services/build-view';
 import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
 import * as contentReports from '$lib/server/services/content-reports';
@@ -30,9 +31,9 @@ import type { Actions, PageServerLoad } from './$types';
  */
 export const load: PageServerLoad = async ({ params, url }) => {
 	const viewer = currentUser();
-	// The role lets editors open a hidden or reported build (services/builds.ts editorAccess).
+	// The role lets editors open a hidden or reported build (services/build-access.ts).
 	const shareKey = url.searchParams.get('key') ?? undefined;
-	const build = await builds.getBuild(
+	const build = await buildView.getBuild(
 		viewer ? { id: viewer.id, role: viewer.role } : null,
 		Number(params.id),
 		{ shareToken: shareKey }
@@ -50,7 +51,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	};
 };
 
-type Outcome = Awaited<ReturnType<typeof builds.updateSlot>>;
+type Outcome = Awaited<ReturnType<typeof buildEdits.updateSlot>>;
 
 /** One answer shape for every edit: saved, changed elsewhere (409), invalid (400) or gone (404). */
 function answer(outcome: Outcome, done: string) {
@@ -120,7 +121,7 @@ export const actions: Actions = {
 		const input = await parse(request, swapForm);
 		if (!input.ok) return input.failure;
 		return answer(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				me.id,
 				Number(params.id),
 				input.data.slotId,
@@ -135,7 +136,7 @@ export const actions: Actions = {
 		const input = await parse(request, quantityForm);
 		if (!input.ok) return input.failure;
 		return answer(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				me.id,
 				Number(params.id),
 				input.data.slotId,
@@ -150,7 +151,7 @@ export const actions: Actions = {
 		const input = await parse(request, overrideForm);
 		if (!input.ok) return input.failure;
 		return answer(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				me.id,
 				Number(params.id),
 				input.data.slotId,
@@ -166,7 +167,7 @@ export const actions: Actions = {
 		if (!input.ok) return input.failure;
 		const done = input.data.purchase.purchased ? 'Marked bought.' : 'Marked not bought.';
 		return answer(
-			await builds.updateSlot(
+			await buildEdits.updateSlot(
 				me.id,
 				Number(params.id),
 				input.data.slotId,
@@ -181,7 +182,7 @@ export const actions: Actions = {
 		const input = await parse(request, slotForm);
 		if (!input.ok) return input.failure;
 		return answer(
-			await builds.removeSlot(me.id, Number(params.id), input.data.slotId, input.data.version),
+			await buildEdits.removeSlot(me.id, Number(params.id), input.data.slotId, input.data.version),
 			'Slot removed.'
 		);
 	},
@@ -191,10 +192,10 @@ export const actions: Actions = {
 		if (!input.ok) return input.failure;
 		const { version, ...slot } = input.data;
 		return answer(
-			await builds.addSlot(
+			await buildEdits.addSlot(
 				me.id,
 				Number(params.id),
-				slot as Parameters<typeof builds.addSlot>[2],
+				slot as Parameters<typeof buildEdits.addSlot>[2],
 				version
 			),
 			'Slot added.'
@@ -205,7 +206,7 @@ export const actions: Actions = {
 		const input = await parse(request, settingsForm);
 		if (!input.ok) return input.failure;
 		const { version, ...patch } = input.data;
-		return answer(await builds.updateBuild(me.id, Number(params.id), patch, version), 'Saved.');
+		return answer(await buildEdits.updateBuild(me.id, Number(params.id), patch, version), 'Saved.');
 	},
 	sync: async ({ params, request }) => {
 		const me = requireUser();
@@ -256,7 +257,7 @@ export const actions: Actions = {
 		const input = await parse(request, proposeBudgetForm);
 		if (!input.ok)
 			return fail(400, { problem: true, budgetIssues: ['Write an amount like 1200 or 1199.99.'] });
-		const build = await builds.getBuild({ id: me.id }, Number(params.id));
+		const build = await buildView.getBuild({ id: me.id }, Number(params.id));
 		if (!build?.isOwner) error(404, 'Build not found');
 		const minor = drafts.toMinor(input.data.budget, build.region.currency);
 		if (minor === null)

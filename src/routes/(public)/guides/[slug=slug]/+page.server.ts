@@ -1,14 +1,14 @@
 import { error, fail } from '@sveltejs/kit';
 import { revisionCompareQuery } from '$lib/schemas/guide-page';
 import { regionQuery } from '$lib/schemas/guides';
-import * as builds from '$lib/server/services/builds';
+import * as buildLists from '$lib/server/services/build-lists';
 import * as guides from '$lib/server/services/guides';
 import { formFields } from '$lib/schemas/account';
 import { reportInput } from '$lib/schemas/content-reports';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as contentReports from '$lib/server/services/content-reports';
-import type { RevisionDiff } from '$lib/server/services/guide-views';
+import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
@@ -58,7 +58,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await builds.lineage(params.slug)
+		lineage: await buildLists.lineage(params.slug)
 	};
 };
 

@@ -1,12 +1,12 @@
 import { error } from '@sveltejs/kit';
 import { currentUser } from '$lib/server/auth/guards';
-import * as builds from '$lib/server/services/builds';
+import * as buildExport from '$lib/server/services/build-export';
 import type { RequestHandler } from './$types';
 
 /** The build's shopping list as CSV, in its region and currency (same visibility rules as the page). */
 export const GET: RequestHandler = async ({ params, url }) => {
 	const viewer = currentUser();
-	const csv = await builds.exportCsv(viewer ? { id: viewer.id } : null, Number(params.id), {
+	const csv = await buildExport.exportCsv(viewer ? { id: viewer.id } : null, Number(params.id), {
 		shareToken: url.searchParams.get('key') ?? undefined
 	});
 	if (csv === null) error(404, 'Build not found');

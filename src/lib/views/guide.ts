@@ -1,5 +1,6 @@
 /*
- * Plain shapes the guide service returns to routes (model instances never leave services).
+ * Guides, as the guide services return them and the guide pages, cards and browse show them.
+ * Types only: components import them with `import type` (model instances never leave services).
  */
 import type { Finding, FindingCounts, Severity } from '$lib/domain/fit';
 import type { PowerBudget } from '$lib/domain/power';
@@ -163,3 +164,27 @@ export interface GuidePage {
 }
 
 export type { RevisionDiff };
+
+/** A guide on the browse page: its card, with the picks total in the shown region. */
+export interface BrowseItem extends GuideCard {
+	/** The region `picksTotal` is priced in (the base region when none was chosen). */
+	pricedIn: RegionSummary;
+	/**
+	 * FPS per 100 units of `pricedIn`'s currency, the guide page's own figure (domain/value.ts):
+	 * null without frame results, without a complete total, or when no region was chosen.
+	 */
+	fpsPer100: number | null;
+}
+
+export interface BrowseResult {
+	items: BrowseItem[];
+	total: number;
+	page: number;
+	pageCount: number;
+	/** The reader's region, when one was chosen. */
+	region: RegionSummary | null;
+	/** Every region, for the form. */
+	regions: RegionSummary[];
+	/** Every tag used by a published guide, for the form. */
+	tags: string[];
+}

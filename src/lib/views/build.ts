@@ -1,15 +1,12 @@
 /*
- * Plain shapes the build service returns to routes and to the other build services
- * (build-sync, build-budget). Model instances never leave services.
+ * Builds, as the build services return them and the build pages show them. Types only:
+ * components import them with `import type` (model instances never leave services).
  */
-import type { PartInfo } from '$lib/domain/build-parts';
 import type { Finding, FindingCounts } from '$lib/domain/fit';
 import type { PowerBudget } from '$lib/domain/power';
 import type { ValueSummary } from '$lib/domain/value';
 import type { Money, PartCategory } from '$lib/domain/types';
-import type { PartRef, PriceLine, RegionSummary } from './guide-views';
-
-export type { PartRef, PriceLine, RegionSummary } from './guide-views';
+import type { PartRef, PriceLine, RegionSummary } from './guide';
 
 export type BuildVisibility = 'private' | 'unlisted' | 'public';
 export type BuildSlotOrigin = 'source' | 'alternate' | 'custom';
@@ -146,31 +143,4 @@ export interface LineageView {
 	forkCount: number;
 	/** Public forks only, most recently changed first. */
 	publicBuilds: { id: number; title: string; ownerName: string; updatedAt: string }[];
-}
-
-/** One option of a slot priced in a region, with what the fit report needs about its part. */
-export interface PricedOption {
-	part: PartRef;
-	info: PartInfo;
-	kind: 'current' | 'source_pick' | 'alternate';
-	/** 0 for the current part and the source pick; the alternate's rank otherwise. */
-	rank: number;
-	/** Unit price; the current part's carries the reader's override when it applies. */
-	price: BuildPriceLine | null;
-	/** price × the slot's quantity. */
-	lineTotal: Money | null;
-}
-
-/** A build slot with its current part and every option the base revision offers for it. */
-export interface PricedSlotOptions {
-	slotId: number;
-	/** String(slotId): the key the build's fit report uses for this slot. */
-	key: string;
-	sourceSlotKey: string | null;
-	label: string;
-	category: PartCategory;
-	quantity: number;
-	current: PricedOption;
-	/** The base revision's pick (unless it is the current part) and its alternates (except the current part), by rank. */
-	options: PricedOption[];
 }

@@ -1,0 +1,8 @@
+/*
+ * The plain shapes services return and pages, components and the JSON API show, one file
+ * per area. Types only: components import them with `import type`, so client code never
+ * depends on a server module. Model instances never leave services.
+ */
+export type * from './build';
+export type * from './guide';
+export type * from './reports';
