@@ -168,8 +168,8 @@ export interface RevisionPricing {
 
 /**
  * Published revisions priced in `target` (null: each in its guide's base region), in one
- * pass: their base regions, their slots, the quotes, and the rates when needed: four
- * queries at most, however many revisions.
+ * pass: one query for their base regions, one for their slots, one for the quotes, and the
+ * rates when needed; the same few queries however many revisions.
  */
 export async function priceRevisions(
 	revisionIds: readonly number[],

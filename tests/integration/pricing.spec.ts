@@ -1,0 +1,376 @@
+/*
+ * The pricing service (services/pricing.ts) on the real MariaDB: several revisions priced in
+ * one call with a fixed number of queries, and the same totals the guide page and browse show.
+ *
+ * Fixture (all invented): a US guide and a Japanese guide, priced at home and in Germany.
+ * Rates: ECB 2 January 2024, 1 EUR = 1.0956 USD = 155.68 JPY (docs/sources.md 10c, V).
+ * Taxes: Germany VAT 19 % (docs/sources.md 11a, V2), shown in prices; Japan consumption tax
+ * 10 % (docs/sources.md s1, value from memory), shown in prices; US prices before tax
+ * (docs/sources.md 11c, M). Germany's storage factor 1.04 is the fixture's own. Every
+ * expected amount below is worked by hand, rounded half-even to the cent once (D).
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import {
+	FxRate,
+	Guide,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	SlotAlternate,
+	Store,
+	User,
+	sequelize
+} from '../../src/lib/server/db';
+import type { PartCategory } from '../../src/lib/domain/types';
+import * as guideBrowse from '../../src/lib/server/services/guide-browse';
+import * as guides from '../../src/lib/server/services/guides';
+import { priceRevisions } from '../../src/lib/server/services/pricing';
+import { resetDatabase } from '../support/db';
+
+/** Runs `fn` and returns the SQL statements it sent (Sequelize's `beforeQuery` hook). */
+async function countQueries<T>(fn: () => Promise<T>): Promise<{ result: T; queries: string[] }> {
+	const queries: string[] = [];
+	sequelize.addHook('beforeQuery', 'count-pricing-queries', (_options, query) => {
+		queries.push(String((query as unknown as { sql?: string }).sql ?? 'query'));
+	});
+	try {
+		return { result: await fn(), queries };
+	} finally {
+		sequelize.removeHook('beforeQuery', 'count-pricing-queries');
+	}
+}
+
+const eur = (amountMinor: number) => ({ amountMinor, currency: 'EUR' });
+const usd = (amountMinor: number) => ({ amountMinor, currency: 'USD' });
+const jpy = (amountMinor: number) => ({ amountMinor, currency: 'JPY' });
+
+interface Fixture {
+	regions: Record<'us' | 'de' | 'jp', Region>;
+	revisions: { office: number; compact: number };
+}
+
+let fx: Fixture;
+
+async function part(category: PartCategory, brand: string, model: string, specs: object) {
+	const slug = `${brand}-${model}`.toLowerCase().replace(/[^a-z0-9]+/g, '-');
+	return Part.create({ category, brand, model, slug, specs: specs as Record<string, unknown> });
+}
+
+async function quote(
+	partId: number,
+	store: Store,
+	amountMinor: number,
+	currency: string,
+	taxIncluded: boolean,
+	day: string
+) {
+	return Quote.create({
+		partId,
+		storeId: store.id,
+		regionId: store.regionId,
+		amountMinor,
+		currency,
+		taxIncluded,
+		observedAt: new Date(`${day}T12:00:00Z`),
+		url: null,
+		source: 'editor'
+	});
+}
+
+/** A published guide whose one revision has `slots` (pick, its chosen quote, alternates). */
+async function publishedGuide(
+	slug: string,
+	authorId: string,
+	base: Region,
+	slots: {
+		category: PartCategory;
+		label: string;
+		quantity: number;
+		pick: Part;
+		chosen: Quote | null;
+		alternates: Part[];
+	}[]
+): Promise<number> {
+	const guide = await Guide.create({
+		slug,
+		authorId,
+		title: slug,
+		summary: 'Pricing service check.',
+		targetBudgetMinor: 100000,
+		baseRegionId: base.id,
+		state: 'published',
+		publishedRevisionId: null
+	});
+	const revision = await GuideRevision.create({
+		guideId: guide.id,
+		number: 1,
+		buildNotesMd: '',
+		buildNotesHtml: '',
+		submittedAt: new Date(),
+		reviewedAt: new Date(),
+		publishedAt: new Date(),
+		reviewerId: null,
+		reviewNote: null
+	});
+	for (const [i, s] of slots.entries()) {
+		const slot = await GuideSlot.create({
+			revisionId: revision.id,
+			category: s.category,
+			label: s.label,
+			position: i + 1,
+			quantity: s.quantity,
+			pickPartId: s.pick.id,
+			reason: 'Fixture pick.',
+			priceQuoteId: s.chosen?.id ?? null
+		});
+		for (const [j, alt] of s.alternates.entries())
+			await SlotAlternate.create({
+				slotId: slot.id,
+				partId: alt.id,
+				rank: j + 1,
+				reasonTag: 'lower_price',
+				note: ''
+			});
+	}
+	await guide.update({ publishedRevisionId: revision.id });
+	return revision.id;
+}
+
+async function createFixture(): Promise<Fixture> {
+	const us = await Region.create({
+		code: 'us',
+		name: 'United States',
+		currency: 'USD',
+		taxMode: 'exclusive',
+		taxRateBp: 0
+	});
+	const de = await Region.create({
+		code: 'de',
+		name: 'Germany',
+		currency: 'EUR',
+		taxMode: 'inclusive',
+		taxRateBp: 1900,
+		categoryFactorsBp: { storage: 10400 }
+	});
+	const jp = await Region.create({
+		code: 'jp',
+		name: 'Japan',
+		currency: 'JPY',
+		taxMode: 'inclusive',
+		taxRateBp: 1000
+	});
+	for (const [currency, ratePerEur] of [
+		['USD', '1.0956'],
+		['JPY', '155.68']
+	] as const)
+		await FxRate.create({ currency, ratePerEur, asOf: '2024-01-02', source: 'fixture' });
+	const store = (name: string, region: Region) =>
+		Store.create({ name, regionId: region.id, url: 'https://shop.example' });
+	const harborline = await store('Harborline Components', us);
+	const lindenwerk = await store('Lindenwerk Technik', de);
+	const sakuragawa = await store('Sakuragawa Parts', jp);
+
+	const nvme = { interface: 'nvme', formFactor: 'm2-2280', pcieGen: 4, readMbs: 5000 };
+	const small = await part('storage', 'Veltrane', 'Drift 1TB', {
+		...nvme,
+		capacityGb: 1000,
+		writeMbs: 4000
+	});
+	const large = await part('storage', 'Veltrane', 'Drift 2TB', {
+		...nvme,
+		capacityGb: 2000,
+		writeMbs: 4500
+	});
+	const fan = await part('fan', 'Quillwind', 'Breeze 120', { sizeMm: 120, count: 1, maxRpm: 1800 });
+	const os = await part('os', 'Orchard', 'OS Home', { edition: 'Home', licence: 'retail' });
+	const comb = await part('extra', 'Tidewell', 'Cable comb set', { kind: 'cable combs' });
+
+	// United States, before tax. The author chose $79.99 for the small drive; a later $74.99
+	// quote exists, but the author's choice is the guide's base price.
+	const chosenUs = await quote(small.id, harborline, 7999, 'USD', false, '2024-05-01');
+	await quote(small.id, harborline, 7499, 'USD', false, '2024-06-01');
+	await quote(large.id, harborline, 13999, 'USD', false, '2024-05-01');
+	await quote(fan.id, harborline, 1250, 'USD', false, '2024-05-01');
+	// Germany, with VAT: only the small drive is quoted.
+	await quote(small.id, lindenwerk, 6990, 'EUR', true, '2024-05-02');
+	// Japan, with consumption tax.
+	const chosenJp = await quote(large.id, sakuragawa, 16500, 'JPY', true, '2024-05-03');
+	await quote(small.id, sakuragawa, 9800, 'JPY', true, '2024-05-03');
+	await quote(os.id, sakuragawa, 14800, 'JPY', true, '2024-05-03');
+
+	const author = await User.create({ email: 'pricing-author@example.test', name: 'Ines Varga' });
+	const office = await publishedGuide('quiet-office-tower', author.id, us, [
+		{
+			category: 'storage',
+			label: 'Storage',
+			quantity: 1,
+			pick: small,
+			chosen: chosenUs,
+			alternates: [large]
+		},
+		{ category: 'fan', label: 'Case fans', quantity: 2, pick: fan, chosen: null, alternates: [] },
+		// Quoted nowhere: unpriced everywhere, counted and left out of the totals.
+		{ category: 'extra', label: 'Extras', quantity: 1, pick: comb, chosen: null, alternates: [] }
+	]);
+	const compact = await publishedGuide('compact-home-desk', author.id, jp, [
+		{
+			category: 'storage',
+			label: 'Storage',
+			quantity: 1,
+			pick: large,
+			chosen: chosenJp,
+			alternates: [small]
+		},
+		{
+			category: 'os',
+			label: 'Operating system',
+			quantity: 1,
+			pick: os,
+			chosen: null,
+			alternates: []
+		}
+	]);
+	return { regions: { us, de, jp }, revisions: { office, compact } };
+}
+
+describe('the pricing service on the real MariaDB', () => {
+	beforeAll(async () => {
+		await resetDatabase();
+		fx = await createFixture();
+	});
+
+	it('prices several revisions in their base regions in one call, by hand', async () => {
+		const { revisions } = await priceRevisions([fx.revisions.office, fx.revisions.compact], null);
+		const office = revisions.get(fx.revisions.office);
+		const compact = revisions.get(fx.revisions.compact);
+		// Office (US): the author's $79.99 (not the later $74.99) + 2 × $12.50 = $104.99; the
+		// cable combs have no price anywhere. Range: $79.99 or $139.99 for storage, + $25.00.
+		expect(office?.region.code).toBe('us');
+		expect(office?.adjustment.picksTotal).toEqual(usd(10499));
+		expect(office?.adjustment.unpricedSlots).toBe(1);
+		expect(office?.adjustment.range).toEqual({ min: usd(10499), max: usd(16499) });
+		expect(office?.prices[0]?.pick).toMatchObject({ unit: usd(7999), status: 'quoted' });
+		// Compact (Japan): the author's ¥16,500 + ¥14,800 = ¥31,300; the ¥9,800 alternate
+		// makes the cheapest ¥24,600.
+		expect(compact?.region.code).toBe('jp');
+		expect(compact?.adjustment.picksTotal).toEqual(jpy(31300));
+		expect(compact?.adjustment.unpricedSlots).toBe(0);
+		expect(compact?.adjustment.range).toEqual({ min: jpy(24600), max: jpy(31300) });
+	});
+
+	it('prices several revisions in Germany in one call, quoted or estimated, by hand', async () => {
+		const { revisions } = await priceRevisions(
+			[fx.revisions.office, fx.revisions.compact],
+			fx.regions.de
+		);
+		const office = revisions.get(fx.revisions.office);
+		const compact = revisions.get(fx.revisions.compact);
+		// Office: small drive quoted €69.90. Large drive estimated from $139.99:
+		// 139.99 / 1.0956 × 1.04 × 1.19 = 158.1340… → €158.13. Fan from $12.50:
+		// 12.50 / 1.0956 × 1.19 = 13.5770… → €13.58, × 2 = €27.16. Total €69.90 + €27.16 = €97.06;
+		// range €97.06 to €158.13 + €27.16 = €185.29.
+		expect(office?.prices[0]?.pick).toMatchObject({ unit: eur(6990), status: 'quoted' });
+		expect(office?.prices[0]?.alternates[0]).toMatchObject({
+			unit: eur(15813),
+			status: 'estimated',
+			observedAt: '2024-01-02'
+		});
+		expect(office?.prices[1]?.pick).toMatchObject({ unit: eur(1358), status: 'estimated' });
+		expect(office?.adjustment.picksTotal).toEqual(eur(9706));
+		expect(office?.adjustment.unpricedSlots).toBe(1);
+		expect(office?.adjustment.range).toEqual({ min: eur(9706), max: eur(18529) });
+		// Compact: large drive from ¥16,500 with tax: 16500 / 1.10 / 155.68 × 1.04 × 1.19
+		// = 119.2446… → €119.24; OS from ¥14,800: 14800 / 1.10 / 155.68 × 1.19 = 102.8449… →
+		// €102.84. Total €222.08; with the small drive quoted €69.90: €172.74 to €222.08.
+		expect(compact?.prices[0]?.pick).toMatchObject({ unit: eur(11924), status: 'estimated' });
+		expect(compact?.prices[1]?.pick).toMatchObject({ unit: eur(10284), status: 'estimated' });
+		expect(compact?.adjustment.picksTotal).toEqual(eur(22208));
+		expect(compact?.adjustment.range).toEqual({ min: eur(17274), max: eur(22208) });
+	});
+
+	it('sends the same few queries for one revision as for two', async () => {
+		for (const target of [null, fx.regions.de]) {
+			const one = await countQueries(() => priceRevisions([fx.revisions.office], target));
+			const two = await countQueries(() =>
+				priceRevisions([fx.revisions.office, fx.revisions.compact], target)
+			);
+			expect(two.result.revisions.size).toBe(2);
+			expect(two.queries.length).toBe(one.queries.length);
+			// Revisions and base regions, slots, quotes, and (across regions) the rates.
+			expect(two.queries.length).toBeLessThanOrEqual(5);
+		}
+	});
+
+	it('gives the guide page and browse the very same totals', async () => {
+		for (const [slug, total, range] of [
+			['quiet-office-tower', eur(9706), { min: eur(9706), max: eur(18529) }],
+			['compact-home-desk', eur(22208), { min: eur(17274), max: eur(22208) }]
+		] as const) {
+			const page = await guides.getPriced(slug, 'de');
+			if (page.kind !== 'ok') throw new Error(page.kind);
+			expect(page.guide.picksTotal).toEqual(total);
+			expect(page.guide.totalRange).toEqual(range);
+		}
+		const browse = await guideBrowse.browse({ region: 'de', tag: [], sort: 'total', page: 1 });
+		if (browse.kind !== 'ok') throw new Error(browse.kind);
+		expect(browse.result.items.map((g) => [g.slug, g.picksTotal])).toEqual([
+			['quiet-office-tower', eur(9706)],
+			['compact-home-desk', eur(22208)]
+		]);
+		const base = await guideBrowse.listPublished();
+		expect(Object.fromEntries(base.map((g) => [g.slug, g.picksTotal]))).toEqual({
+			'quiet-office-tower': usd(10499),
+			'compact-home-desk': jpy(31300)
+		});
+	});
+
+	it('browses in a region with the same queries for two guides as for three', async () => {
+		const query = { region: 'de', tag: [], sort: 'total', page: 1 } as const;
+		const two = await countQueries(() => guideBrowse.browse(query));
+		const source = await Guide.findOne({ where: { slug: 'compact-home-desk' } });
+		const third = await Guide.create({
+			slug: 'compact-home-desk-copy',
+			authorId: source?.authorId ?? null,
+			title: 'Copy',
+			summary: 'Same revision as the compact guide.',
+			targetBudgetMinor: 100000,
+			baseRegionId: fx.regions.jp.id,
+			state: 'published',
+			publishedRevisionId: fx.revisions.compact
+		});
+		try {
+			const three = await countQueries(() => guideBrowse.browse(query));
+			const items = three.result.kind === 'ok' ? three.result.result.items : [];
+			expect(items).toHaveLength(3);
+			expect(three.queries.length).toBe(two.queries.length);
+		} finally {
+			await third.destroy();
+		}
+	});
+
+	it('still prices a guide whose author has since moved its base region: the old region’s chosen quote is no base price', async () => {
+		// Saving a draft changes the guide's base region at once, while the published revision
+		// keeps the quote its author chose in the old region (US dollars). That quote must not
+		// be read as a price in the new base region.
+		await Guide.update(
+			{ baseRegionId: fx.regions.de.id },
+			{ where: { slug: 'quiet-office-tower' } }
+		);
+		try {
+			const outcome = await guides.getPriced('quiet-office-tower', null);
+			if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+			expect(outcome.guide.region.code).toBe('de');
+			// The small drive's latest German quote; nothing else has a German price.
+			expect(outcome.guide.slots[0]?.price).toMatchObject({ unit: eur(6990), status: 'quoted' });
+			expect(outcome.guide.picksTotal).toEqual(eur(6990));
+			expect(outcome.guide.unpricedSlots).toBe(2);
+		} finally {
+			await Guide.update(
+				{ baseRegionId: fx.regions.us.id },
+				{ where: { slug: 'quiet-office-tower' } }
+			);
+		}
+	});
+});
