@@ -4,6 +4,7 @@ import { decisionInput } from '../../src/lib/schemas/review';
 import { Build, Guide, GuideRevision, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { notifyForks } from '../../src/lib/server/services/build-notify';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import * as reviews from '../../src/lib/server/services/guide-reviews';
 import { DEMO_SLUG, demoGuide, forkBuild, newReader } from '../support/buildsync-fixtures';
@@ -55,9 +56,9 @@ async function submitRevision2(): Promise<number> {
 			}))
 		}))
 	});
-	const saved = await drafts.saveDraft(author.id, DEMO_SLUG, input, view.version);
+	const saved = await draftEdits.saveDraft(author.id, DEMO_SLUG, input, view.version);
 	if (saved.kind !== 'saved') throw new Error(JSON.stringify(saved));
-	const sent = await drafts.submit(author.id, DEMO_SLUG, saved.draft.version, LINKS);
+	const sent = await draftEdits.submit(author.id, DEMO_SLUG, saved.draft.version, LINKS);
 	if (sent.kind !== 'submitted') throw new Error(sent.kind);
 	const guide = (await Guide.findOne({ where: { slug: DEMO_SLUG } }))!;
 	return (await GuideRevision.findOne({

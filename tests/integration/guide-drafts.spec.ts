@@ -16,6 +16,7 @@ import {
 	User,
 	sequelize
 } from '../../src/lib/server/db';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import { countRows, resetDatabase } from '../support/db';
 
@@ -101,7 +102,7 @@ function draft(overrides: Partial<DraftFields> = {}): DraftInput {
 }
 
 async function created(): Promise<{ slug: string; version: number }> {
-	const outcome = await drafts.createGuide(
+	const outcome = await draftEdits.createGuide(
 		author.id,
 		createGuideInput.parse({
 			title: 'Quiet 1440p box',
@@ -140,7 +141,7 @@ describe('guide drafts on the real MariaDB', () => {
 
 	it('saves slots, ranked alternates, an author quote and rendered build notes', async () => {
 		const { slug, version } = await created();
-		const outcome = await drafts.saveDraft(author.id, slug, draft(), version);
+		const outcome = await draftEdits.saveDraft(author.id, slug, draft(), version);
 		expect(outcome.kind).toBe('saved');
 		const view = await drafts.getDraft(author.id, slug);
 		expect(view?.version).toBe(version + 1);
@@ -162,7 +163,7 @@ describe('guide drafts on the real MariaDB', () => {
 		expect(view?.buildNotesHtml).not.toContain('Cable routing'); // empty sections are left out
 
 		// Saving again with the same quote reuses it; slots are replaced, not appended.
-		await drafts.saveDraft(author.id, slug, draft(), version + 1);
+		await draftEdits.saveDraft(author.id, slug, draft(), version + 1);
 		expect(await countRows('quotes')).toBe(1);
 		expect(await countRows('guide_slots')).toBe(2);
 		expect(await countRows('slot_alternates')).toBe(2);
@@ -171,9 +172,10 @@ describe('guide drafts on the real MariaDB', () => {
 	it('answers a stale save with a conflict carrying the stored copy, and writes nothing', async () => {
 		const { slug, version } = await created();
 		expect(
-			(await drafts.saveDraft(author.id, slug, draft({ title: 'Saved in tab one' }), version)).kind
+			(await draftEdits.saveDraft(author.id, slug, draft({ title: 'Saved in tab one' }), version))
+				.kind
 		).toBe('saved');
-		const stale = await drafts.saveDraft(
+		const stale = await draftEdits.saveDraft(
 			author.id,
 			slug,
 			draft({ title: 'Saved in tab two' }),
@@ -189,8 +191,8 @@ describe('guide drafts on the real MariaDB', () => {
 	it('lets two saves with the same version race: exactly one wins', async () => {
 		const { slug, version } = await created();
 		const results = await Promise.all([
-			drafts.saveDraft(author.id, slug, draft({ title: 'Racer A' }), version),
-			drafts.saveDraft(author.id, slug, draft({ title: 'Racer B' }), version)
+			draftEdits.saveDraft(author.id, slug, draft({ title: 'Racer A' }), version),
+			draftEdits.saveDraft(author.id, slug, draft({ title: 'Racer B' }), version)
 		]);
 		expect(results.map((r) => r.kind).sort()).toEqual(['conflict', 'saved']);
 		expect(await countRows('guide_slots')).toBe(2);
@@ -199,17 +201,19 @@ describe('guide drafts on the real MariaDB', () => {
 	it("gives another author's guide as null / not_found, and leaves it untouched", async () => {
 		const { slug, version } = await created();
 		expect(await drafts.getDraft(other.id, slug)).toBeNull();
-		expect(await drafts.saveDraft(other.id, slug, draft({ title: 'Hijacked' }), version)).toEqual({
+		expect(
+			await draftEdits.saveDraft(other.id, slug, draft({ title: 'Hijacked' }), version)
+		).toEqual({
 			kind: 'not_found'
 		});
-		expect(await drafts.submit(other.id, slug, version)).toEqual({ kind: 'not_found' });
+		expect(await draftEdits.submit(other.id, slug, version)).toEqual({ kind: 'not_found' });
 		expect((await Guide.findOne({ where: { slug } }))?.title).toBe('Quiet 1440p box');
 	});
 
 	it('freezes the submitted revision; the next save starts revision N+1', async () => {
 		const { slug, version } = await created();
-		await drafts.saveDraft(author.id, slug, draft(), version);
-		const submitted = await drafts.submit(author.id, slug, version + 1);
+		await draftEdits.saveDraft(author.id, slug, draft(), version);
+		const submitted = await draftEdits.submit(author.id, slug, version + 1);
 		expect(submitted.kind).toBe('submitted');
 		if (submitted.kind !== 'submitted') return;
 		expect(submitted.draft).toMatchObject({
@@ -224,7 +228,7 @@ describe('guide drafts on the real MariaDB', () => {
 		});
 		expect(frozen?.submittedAt).toBeInstanceOf(Date);
 
-		const later = await drafts.saveDraft(
+		const later = await draftEdits.saveDraft(
 			author.id,
 			slug,
 			draft({ title: 'Revised', slots: draft().slots.slice(0, 1) }),
@@ -247,13 +251,15 @@ describe('guide drafts on the real MariaDB', () => {
 		);
 		expect(await SlotAlternate.count({ where: { slotId: frozenSlots.map((s) => s.id) } })).toBe(2);
 		// Revision 2 can be submitted; submitting again with no new draft is refused.
-		expect((await drafts.submit(author.id, slug, later.draft.version)).kind).toBe('submitted');
-		expect((await drafts.submit(author.id, slug, later.draft.version + 1)).kind).toBe('invalid');
+		expect((await draftEdits.submit(author.id, slug, later.draft.version)).kind).toBe('submitted');
+		expect((await draftEdits.submit(author.id, slug, later.draft.version + 1)).kind).toBe(
+			'invalid'
+		);
 	});
 
 	it('keeps a published guide live while a new revision is drafted and submitted', async () => {
 		const { slug, version } = await created();
-		await drafts.saveDraft(author.id, slug, draft(), version);
+		await draftEdits.saveDraft(author.id, slug, draft(), version);
 		const rev1 = await GuideRevision.findOne({ where: { number: 1 } });
 		// Stand-in for the editor's approval (the moderation issue): revision 1 goes live.
 		await rev1?.update({
@@ -265,14 +271,14 @@ describe('guide drafts on the real MariaDB', () => {
 			{ state: 'published', publishedRevisionId: rev1?.id ?? null },
 			{ where: { slug } }
 		);
-		const saved = await drafts.saveDraft(
+		const saved = await draftEdits.saveDraft(
 			author.id,
 			slug,
 			draft({ title: 'Second pass' }),
 			version + 1
 		);
 		if (saved.kind !== 'saved') throw new Error(saved.kind);
-		const sent = await drafts.submit(author.id, slug, saved.draft.version);
+		const sent = await draftEdits.submit(author.id, slug, saved.draft.version);
 		expect(sent.kind === 'submitted' && sent.draft).toMatchObject({
 			state: 'published',
 			revisionNumber: 2,
@@ -337,7 +343,7 @@ describe('guide drafts on the real MariaDB', () => {
 		const input = draft();
 		const [cpu, board] = input.slots;
 		if (!cpu || !board) throw new Error('fixture');
-		const outcome = await drafts.saveDraft(
+		const outcome = await draftEdits.saveDraft(
 			author.id,
 			slug,
 			{
@@ -366,7 +372,7 @@ describe('guide drafts on the real MariaDB', () => {
 
 	it('writes nothing when the database fails mid-save (one transaction)', async () => {
 		const { slug, version } = await created();
-		await drafts.saveDraft(author.id, slug, draft(), version);
+		await draftEdits.saveDraft(author.id, slug, draft(), version);
 		const before = await drafts.getDraft(author.id, slug);
 		// A real failure raised by MariaDB itself after the guide row, the revision and the
 		// first slot were written: a trigger refuses the second slot's alternates.
@@ -391,7 +397,7 @@ describe('guide drafts on the real MariaDB', () => {
 					}
 				]
 			};
-			await expect(drafts.saveDraft(author.id, slug, failing, version + 1)).rejects.toThrow(
+			await expect(draftEdits.saveDraft(author.id, slug, failing, version + 1)).rejects.toThrow(
 				/injected failure/
 			);
 		} finally {
@@ -420,7 +426,7 @@ describe('guide drafts on the real MariaDB', () => {
 
 	it('saves frame and thermal results as exact tenths, and replaces them on the next save', async () => {
 		const { slug, version } = await created();
-		const saved = await drafts.saveDraft(author.id, slug, draft(results), version);
+		const saved = await draftEdits.saveDraft(author.id, slug, draft(results), version);
 		expect(saved.kind).toBe('saved');
 		const view = await drafts.getDraft(author.id, slug);
 		expect(view?.frames).toEqual([
@@ -451,7 +457,7 @@ describe('guide drafts on the real MariaDB', () => {
 		]);
 
 		// The editor sends its full list: one row left means one row stored; none means none.
-		await drafts.saveDraft(
+		await draftEdits.saveDraft(
 			author.id,
 			slug,
 			draft({ frames: results.frames.slice(1), thermals: [] }),
@@ -460,7 +466,7 @@ describe('guide drafts on the real MariaDB', () => {
 		expect(await countRows('frame_results')).toBe(1);
 		expect(await countRows('thermal_results')).toBe(0);
 		// An API client that leaves results out keeps the stored ones.
-		await drafts.saveDraft(author.id, slug, draft(), version + 2);
+		await draftEdits.saveDraft(author.id, slug, draft(), version + 2);
 		expect((await drafts.getDraft(author.id, slug))?.frames.map((f) => f.workload)).toEqual([
 			'Tidewalk'
 		]);
@@ -468,7 +474,7 @@ describe('guide drafts on the real MariaDB', () => {
 
 	it('refuses a 1 % low above the average with a field message, and writes nothing', async () => {
 		const { slug, version } = await created();
-		await drafts.saveDraft(author.id, slug, draft(results), version);
+		await draftEdits.saveDraft(author.id, slug, draft(results), version);
 		const before = await drafts.getDraft(author.id, slug);
 		const body = {
 			version: version + 1,
@@ -489,8 +495,8 @@ describe('guide drafts on the real MariaDB', () => {
 
 	it('copies results into revision N+1 and leaves the submitted revision as it was', async () => {
 		const { slug, version } = await created();
-		await drafts.saveDraft(author.id, slug, draft(results), version);
-		const submitted = await drafts.submit(author.id, slug, version + 1);
+		await draftEdits.saveDraft(author.id, slug, draft(results), version);
+		const submitted = await draftEdits.submit(author.id, slug, version + 1);
 		if (submitted.kind !== 'submitted') throw new Error(submitted.kind);
 		const rev1 = await GuideRevision.findOne({ where: { number: 1 } });
 		const frozenFrames = (
@@ -501,7 +507,7 @@ describe('guide drafts on the real MariaDB', () => {
 		);
 
 		// A save that leaves results out (an older API client) starts N+1 with copies.
-		const later = await drafts.saveDraft(
+		const later = await draftEdits.saveDraft(
 			author.id,
 			slug,
 			draft({ title: 'Revised' }),
@@ -522,7 +528,7 @@ describe('guide drafts on the real MariaDB', () => {
 		expect(copied.some((r) => frozenFrames.some((f) => f.id === r.id))).toBe(false); // new rows, not moved ones
 
 		// Editing the copy in N+1 (as the editor does) never touches revision 1.
-		await drafts.saveDraft(
+		await draftEdits.saveDraft(
 			author.id,
 			slug,
 			draft({
@@ -552,7 +558,7 @@ describe('guide drafts on the real MariaDB', () => {
 
 	it('rolls results back with the rest of a save that fails in the database', async () => {
 		const { slug, version } = await created();
-		await drafts.saveDraft(author.id, slug, draft(results), version);
+		await draftEdits.saveDraft(author.id, slug, draft(results), version);
 		const before = await drafts.getDraft(author.id, slug);
 		await sequelize.query(
 			`CREATE TRIGGER fail_thermal BEFORE INSERT ON thermal_results FOR EACH ROW
@@ -567,7 +573,7 @@ describe('guide drafts on the real MariaDB', () => {
 					{ loadName: 'fail here', cpuTempC: 1, gpuTempC: 1, cpuUtilPct: 1, gpuUtilPct: 1 }
 				]
 			});
-			await expect(drafts.saveDraft(author.id, slug, failing, version + 1)).rejects.toThrow(
+			await expect(draftEdits.saveDraft(author.id, slug, failing, version + 1)).rejects.toThrow(
 				/injected failure/
 			);
 		} finally {

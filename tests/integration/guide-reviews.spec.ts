@@ -4,8 +4,11 @@ import type { DraftInput } from '../../src/lib/schemas/guide-editor';
 import { decisionInput, moderationInput, reviewQueueQuery } from '../../src/lib/schemas/review';
 import { AuditEvent, Guide, GuideRevision, Review, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import * as reviews from '../../src/lib/server/services/guide-reviews';
+import * as reviewPage from '../../src/lib/server/services/review-page';
+import * as reviewQueue from '../../src/lib/server/services/review-queue';
 import * as guides from '../../src/lib/server/services/guides';
 import { resetDatabase } from '../support/db';
 import { clearMailbox, waitForMessage } from '../support/mailbox';
@@ -22,7 +25,7 @@ let admin: User;
 let slotsOfDemo: DraftInput['slots'];
 const LINKS = { guidesUrl: 'http://127.0.0.1/my/guides' };
 const queue = (q: Partial<Record<string, unknown>> = {}) =>
-	reviews.listQueue(reviewQueueQuery.parse(q));
+	reviewQueue.listQueue(reviewQueueQuery.parse(q));
 const decision = (d: Record<string, unknown>) => decisionInput.parse(d);
 
 async function freshDemo() {
@@ -75,7 +78,7 @@ async function submitted(
 	owner: User,
 	title = 'Review me'
 ): Promise<{ slug: string; revisionId: number }> {
-	const made = await drafts.createGuide(
+	const made = await draftEdits.createGuide(
 		owner.id,
 		createGuideInput.parse({
 			title,
@@ -87,9 +90,9 @@ async function submitted(
 		})
 	);
 	if (made.kind !== 'created') throw new Error(JSON.stringify(made));
-	const saved = await drafts.saveDraft(owner.id, made.slug, input({ title }), made.version);
+	const saved = await draftEdits.saveDraft(owner.id, made.slug, input({ title }), made.version);
 	if (saved.kind !== 'saved') throw new Error(JSON.stringify(saved));
-	const sent = await drafts.submit(owner.id, made.slug, saved.draft.version, LINKS);
+	const sent = await draftEdits.submit(owner.id, made.slug, saved.draft.version, LINKS);
 	if (sent.kind !== 'submitted') throw new Error(JSON.stringify(sent));
 	return { slug: made.slug, revisionId: await pendingId(made.slug) };
 }
@@ -141,14 +144,14 @@ describe('review workflow', () => {
 		const changedSlots = slotsOfDemo.map((s, i) =>
 			i === 0 ? { ...s, reason: 'Six cores run every game in the list.' } : s
 		);
-		const saved = await drafts.saveDraft(
+		const saved = await draftEdits.saveDraft(
 			author.id,
 			slug,
 			input({ slots: changedSlots }),
 			editable?.version ?? 0
 		);
 		if (saved.kind !== 'saved') throw new Error(saved.kind);
-		const [card] = await reviews
+		const [card] = await reviewQueue
 			.authorDashboard(author.id)
 			.then((all) => all.filter((g) => g.slug === slug));
 		expect(card?.lastDecision).toMatchObject({
@@ -171,7 +174,7 @@ describe('review workflow', () => {
 			}
 		]);
 
-		const again = await drafts.submit(author.id, slug, saved.draft.version, LINKS);
+		const again = await draftEdits.submit(author.id, slug, saved.draft.version, LINKS);
 		expect(again.kind).toBe('submitted');
 		expect(await guideState(slug)).toBe('in_review');
 		const second = await pendingId(slug);
@@ -180,7 +183,7 @@ describe('review workflow', () => {
 			revisionNumber: 2,
 			resubmitted: true
 		});
-		const page = await reviews.getReview(editor, second, '127.0.0.1:4173');
+		const page = await reviewPage.getReview(editor, second, '127.0.0.1:4173');
 		expect(page?.sinceLastReview?.slots.map((s) => s.label)).toEqual(['CPU']);
 		expect(page?.diff.from).toBe(0); // a new guide: compared against nothing
 
@@ -253,7 +256,7 @@ describe('review workflow', () => {
 		expect(await guideState(mine.slug)).toBe('in_review');
 
 		const adminsOwn = await submitted(admin, 'Admin wrote this');
-		const page = await reviews.getReview(admin, adminsOwn.revisionId, 'localhost');
+		const page = await reviewPage.getReview(admin, adminsOwn.revisionId, 'localhost');
 		expect(page).toMatchObject({ ownGuide: true, canDecide: true });
 		const override = await reviews.decide(
 			admin,
@@ -278,14 +281,14 @@ describe('review workflow', () => {
 	it('keeps a live revision up while a newer one is reviewed, declined or approved', async () => {
 		const live = (await Guide.findOne({ where: { slug: 'steady-1080p-starter' } })) as Guide;
 		const view = await drafts.getDraft(author.id, live.slug);
-		const saved = await drafts.saveDraft(
+		const saved = await draftEdits.saveDraft(
 			author.id,
 			live.slug,
 			input({ title: live.title, slots: slotsOfDemo.slice(0, -1) }),
 			view?.version ?? 0
 		);
 		if (saved.kind !== 'saved') throw new Error(saved.kind);
-		await drafts.submit(author.id, live.slug, saved.draft.version, LINKS);
+		await draftEdits.submit(author.id, live.slug, saved.draft.version, LINKS);
 		// Submitting never publishes: the live revision is unchanged and the guide stays published.
 		expect(await Guide.findByPk(live.id)).toMatchObject({
 			state: 'published',
@@ -295,7 +298,7 @@ describe('review workflow', () => {
 		expect((await queue({ kind: 'revision' })).items.map((i) => i.revisionId)).toEqual([pending]);
 		expect((await queue({ kind: 'new' })).total).toBe(0);
 
-		const page = await reviews.getReview(editor, pending, 'localhost');
+		const page = await reviewPage.getReview(editor, pending, 'localhost');
 		expect(page?.diff.slots.filter((s) => s.kind === 'removed')).toHaveLength(1);
 
 		await reviews.decide(
@@ -341,7 +344,7 @@ describe('review workflow', () => {
 		);
 		expect(await guideState(slug)).toBe('archived');
 		const view = await drafts.getDraft(author.id, slug);
-		const refused = await drafts.saveDraft(author.id, slug, input(), view?.version ?? 0);
+		const refused = await draftEdits.saveDraft(author.id, slug, input(), view?.version ?? 0);
 		expect(refused).toEqual({
 			kind: 'invalid',
 			issues: { _form: ['This guide was archived by an editor and can no longer be edited.'] }
@@ -359,7 +362,7 @@ describe('review workflow', () => {
 				? { ...s, priceQuote: { ...s.priceQuote, observedAt: '2026-09-01' } }
 				: s
 		);
-		const page = await reviews.getReview(
+		const page = await reviewPage.getReview(
 			editor,
 			revisionId,
 			'127.0.0.1:4173',
@@ -375,7 +378,7 @@ describe('review workflow', () => {
 			decision({ decision: 'request_changes', note: 'Fix it.' }),
 			LINKS
 		);
-		const saved = await drafts.saveDraft(
+		const saved = await draftEdits.saveDraft(
 			author.id,
 			'review-me',
 			input({
@@ -390,8 +393,8 @@ describe('review workflow', () => {
 			(await drafts.getDraft(author.id, 'review-me'))?.version ?? view?.version ?? 0
 		);
 		if (saved.kind !== 'saved') throw new Error(JSON.stringify(saved));
-		await drafts.submit(author.id, 'review-me', saved.draft.version, LINKS);
-		const flagged = await reviews.getReview(
+		await draftEdits.submit(author.id, 'review-me', saved.draft.version, LINKS);
+		const flagged = await reviewPage.getReview(
 			editor,
 			await pendingId('review-me'),
 			'127.0.0.1:4173',

@@ -327,7 +327,7 @@ describe('the pricing service on the real MariaDB', () => {
 	});
 
 	it('browses in a region with the same queries for two guides as for three', async () => {
-		const query = { region: 'de', tag: [], sort: 'total', page: 1 } as const;
+		const query = { region: 'de', tag: [], sort: 'total' as const, page: 1 };
 		const two = await countQueries(() => guideBrowse.browse(query));
 		const source = await Guide.findOne({ where: { slug: 'compact-home-desk' } });
 		const third = await Guide.create({

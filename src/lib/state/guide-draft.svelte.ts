@@ -1,13 +1,7 @@
 import { getContext, setContext } from 'svelte';
 import { applyOp, moveSlot } from '$lib/schemas/guide-editor-form';
 import type { EditorDraft } from '$lib/schemas/guide-editor-form';
-
-/** Catalog choices the editor's selects and the live part search need. */
-export interface EditorCatalogView {
-	regions: { code: string; name: string; currency: string }[];
-	stores: { id: number; name: string; regionCode: string }[];
-	parts: { id: number; slug: string; brand: string; model: string; category: string }[];
-}
+import type { EditorCatalog } from '$lib/views';
 
 /**
  * The guide editor's working copy, shared by its section components through context.
@@ -16,13 +10,9 @@ export interface EditorCatalogView {
 export class GuideDraftState {
 	draft = $state() as EditorDraft;
 	issues = $state<Record<string, string[]>>({});
-	readonly catalog: EditorCatalogView;
+	readonly catalog: EditorCatalog;
 
-	constructor(
-		initial: EditorDraft,
-		catalog: EditorCatalogView,
-		issues: Record<string, string[]> = {}
-	) {
+	constructor(initial: EditorDraft, catalog: EditorCatalog, issues: Record<string, string[]> = {}) {
 		this.draft = initial;
 		this.catalog = catalog;
 		this.issues = issues;

@@ -6,3 +6,5 @@
 export type * from './build';
 export type * from './guide';
 export type * from './reports';
+export type * from './review';
+export type * from './guide-editor';

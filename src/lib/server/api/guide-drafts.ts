@@ -10,6 +10,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import * as limits from '$lib/server/rate-limit';
 import { guideCreateChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequestsJson } from '$lib/server/rate-limit-response';
+import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
 import { invalid, notFound as notFoundAnswer, readJson } from './json';
 
@@ -22,7 +23,7 @@ export async function createGuide({ request }: RequestEvent): Promise<Response> 
 	if (!input.ok) return input.response;
 	const allowed = await limits.consumeAll(guideCreateChecks(user.id));
 	if (!allowed.ok) return tooManyRequestsJson(allowed);
-	const outcome = await drafts.createGuide(user.id, input.data);
+	const outcome = await draftEdits.createGuide(user.id, input.data);
 	if (outcome.kind === 'invalid') return invalid(outcome.issues);
 	return json(
 		{ slug: outcome.slug, version: outcome.version },
@@ -45,7 +46,7 @@ export async function saveDraft({ params, request }: RequestEvent): Promise<Resp
 	const input = await readJson(request, saveDraftInput);
 	if (!input.ok) return input.response;
 	const { version, ...draft } = input.data;
-	const outcome = await drafts.saveDraft(user.id, params.slug ?? '', draft, version);
+	const outcome = await draftEdits.saveDraft(user.id, params.slug ?? '', draft, version);
 	switch (outcome.kind) {
 		case 'not_found':
 			return notFound();
@@ -70,7 +71,7 @@ export async function submitDraft({ params, request, url }: RequestEvent): Promi
 	if (!(await drafts.getDraft(user.id, params.slug ?? ''))) return notFound();
 	const input = await readJson(request, submitInput);
 	if (!input.ok) return input.response;
-	const outcome = await drafts.submit(user.id, params.slug ?? '', input.data.version, {
+	const outcome = await draftEdits.submit(user.id, params.slug ?? '', input.data.version, {
 		guidesUrl: new URL('/my/guides', url.origin).href
 	});
 	switch (outcome.kind) {

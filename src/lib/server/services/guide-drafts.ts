@@ -1,7 +1,8 @@
 /**
- * Authoring guides: create, load the working copy, save it with optimistic locking, and
- * submit it for review. Authors reach only their own guides: another author's slug gives
- * null / not_found, exactly like a slug that does not exist.
+ * Authoring guides, reading: the author's working copy, the editor's choices and the preview
+ * of build notes. Creating, saving and submitting are guide-draft-edits.ts's. Authors reach
+ * only their own guides: another author's slug gives null / not_found, exactly like a slug
+ * that does not exist.
  *
  * Revisions and states (decided here, see the report to the lead):
  * - The working copy is the guide's latest revision while its `submittedAt` is null.
@@ -13,24 +14,15 @@
  *   waits for review; the newest revision's own state is read from its timestamps
  *   (`revisionState`: draft / submitted). A guide never published goes draft → in_review.
  */
-import { Op } from 'sequelize';
 import type { Transaction } from 'sequelize';
 import { minorUnitDigits } from '$lib/domain/money';
-import { CATEGORY_LABELS } from '$lib/domain/types';
-import type { AlternateReason, PartCategory } from '$lib/domain/types';
 import {
 	GUIDE_TAGS,
-	fpsToTenths,
 	joinBuildNotes,
 	tenthsToFps,
 	splitBuildNotes,
 	type BuildNotesInput,
-	type CreateGuideInput,
-	type DraftInput,
-	type FrameResultInput,
-	type GuideDisclosure,
-	type GuideTag,
-	type ThermalResultInput
+	type GuideTag
 } from '$lib/schemas/guide-editor';
 import {
 	FrameResult,
@@ -42,89 +34,11 @@ import {
 	Region,
 	SlotAlternate,
 	Store,
-	ThermalResult,
-	User,
-	sequelize
+	ThermalResult
 } from '$lib/server/db';
 import { renderMarkdown } from '$lib/server/markdown';
-import { sendToAuthor, submittedMail } from './review-mail';
-
-export interface DraftPartRef {
-	id: number;
-	slug: string;
-	brand: string;
-	model: string;
-	category: PartCategory;
-}
-
-export interface DraftSlotView {
-	category: PartCategory;
-	label: string;
-	quantity: number;
-	pickPartId: number;
-	pick: DraftPartRef;
-	reason: string;
-	priceQuote: { storeId: number; amount: string; observedAt: string } | null;
-	alternates: { partId: number; part: DraftPartRef; reasonTag: AlternateReason; note: string }[];
-}
-
-/** A benchmark row as the editor shows it: FPS as decimal text ("143.5"), stored as tenths. */
-export interface DraftFrameView {
-	workload: string;
-	resolution: string;
-	preset: string;
-	avgFps: string;
-	low1Fps: string | null;
-	notes: string;
-}
-
-export interface DraftThermalView {
-	loadName: string;
-	cpuTempC: number | null;
-	gpuTempC: number | null;
-	cpuUtilPct: number | null;
-	gpuUtilPct: number | null;
-}
-
-/** The working copy as the editor and GET …/draft show it; `version` goes back with a save. */
-export interface DraftView {
-	slug: string;
-	title: string;
-	summary: string;
-	targetBudget: string;
-	currency: string;
-	baseRegion: string;
-	tags: GuideTag[];
-	disclosure: GuideDisclosure;
-	disclosureNote: string | null;
-	walkthroughUrl: string | null;
-	buildNotes: BuildNotesInput;
-	buildNotesHtml: string;
-	slots: DraftSlotView[];
-	frames: DraftFrameView[];
-	thermals: DraftThermalView[];
-	version: number;
-	state: string;
-	revisionNumber: number;
-	/** 'draft' while editable; 'submitted' once frozen (the next save starts a new revision). */
-	revisionState: 'draft' | 'submitted';
-	submittedAt: string | null;
-	publishedRevisionNumber: number | null;
-}
-
-export type Issues = Record<string, string[]>;
-export type CreateOutcome =
-	{ kind: 'created'; slug: string; version: number } | { kind: 'invalid'; issues: Issues };
-export type SaveOutcome =
-	| { kind: 'saved'; draft: DraftView }
-	| { kind: 'conflict'; current: DraftView }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
-export type SubmitOutcome =
-	| { kind: 'submitted'; draft: DraftView }
-	| { kind: 'conflict'; current: DraftView }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
+import type { DraftView, EditorCatalog } from '$lib/views';
+import { partRef } from './mappers';
 
 /** "700.5" in a currency with 2 digits → 70050; too many digits for the currency → null. */
 export function toMinor(amount: string, currency: string): number | null {
@@ -141,93 +55,14 @@ export function fromMinor(minor: number, currency: string): string {
 	return `${s.slice(0, -digits)}.${s.slice(-digits)}`;
 }
 
-function slugify(title: string): string {
-	const base = title
-		.toLowerCase()
-		.normalize('NFKD')
-		.replace(/[^a-z0-9]+/g, '-')
-		.replace(/^-+|-+$/g, '')
-		.slice(0, 120)
-		.replace(/-+$/, '');
-	return base || 'guide';
-}
-
-async function uniqueSlug(title: string, transaction: Transaction): Promise<string> {
-	const base = slugify(title);
-	const taken = new Set(
-		(
-			await Guide.findAll({
-				where: { slug: { [Op.like]: `${base}%` } },
-				attributes: ['slug'],
-				transaction
-			})
-		).map((g) => g.slug)
-	);
-	if (!taken.has(base)) return base;
-	for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
-}
-
-/** A new guide with an empty draft revision 1, owned by `authorId`. */
-export async function createGuide(
-	authorId: string,
-	input: CreateGuideInput
-): Promise<CreateOutcome> {
-	const region = await Region.findOne({ where: { code: input.baseRegion } });
-	if (!region)
-		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
-	const budget = toMinor(input.targetBudget, region.currency);
-	if (budget === null)
-		return {
-			kind: 'invalid',
-			issues: {
-				targetBudget: [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`]
-			}
-		};
-	return sequelize.transaction(async (transaction) => {
-		const guide = await Guide.create(
-			{
-				slug: await uniqueSlug(input.title, transaction),
-				authorId,
-				title: input.title,
-				summary: input.summary,
-				targetBudgetMinor: budget,
-				baseRegionId: region.id,
-				tags: input.tags,
-				disclosure: input.disclosure,
-				disclosureNote: input.disclosureNote,
-				walkthroughUrl: input.walkthroughUrl,
-				publishedRevisionId: null
-			},
-			{ transaction }
-		);
-		await GuideRevision.create(
-			{
-				guideId: guide.id,
-				number: 1,
-				buildNotesMd: '',
-				buildNotesHtml: '',
-				submittedAt: null,
-				reviewedAt: null,
-				publishedAt: null,
-				reviewerId: null,
-				reviewNote: null
-			},
-			{ transaction }
-		);
-		return { kind: 'created', slug: guide.slug, version: guide.version };
-	});
-}
-
-async function ownGuide(authorId: string, slug: string, transaction?: Transaction) {
+/** The author's own guide by slug, or null. */
+export async function ownGuide(authorId: string, slug: string, transaction?: Transaction) {
 	return Guide.findOne({ where: { slug, authorId }, transaction });
 }
 
-async function latestRevision(guideId: number, transaction?: Transaction) {
+/** The newest revision of a guide, frozen or not. */
+export async function latestRevision(guideId: number, transaction?: Transaction) {
 	return GuideRevision.findOne({ where: { guideId }, order: [['number', 'DESC']], transaction });
-}
-
-function partRef(p: Part): DraftPartRef {
-	return { id: p.id, slug: p.slug, brand: p.brand, model: p.model, category: p.category };
 }
 
 type LoadedSlot = GuideSlot & {
@@ -247,7 +82,8 @@ export async function getDraft(
 	return viewOf(guide, transaction);
 }
 
-async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftView> {
+/** The working copy of `guide` as the editor shows it. */
+export async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftView> {
 	const region = await Region.findByPk(guide.baseRegionId, { transaction });
 	const currency = region?.currency ?? 'USD';
 	const revision = await latestRevision(guide.id, transaction);
@@ -339,360 +175,9 @@ async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftVie
 	};
 }
 
-/** Catalog and store references the schema cannot check: parts exist in the slot's category, stores sit in the base region. */
-async function checkReferences(input: DraftInput, region: Region): Promise<Issues> {
-	const issues: Issues = {};
-	const partIds = input.slots.flatMap((s) => [s.pickPartId, ...s.alternates.map((a) => a.partId)]);
-	const parts = new Map((await Part.findAll({ where: { id: partIds } })).map((p) => [p.id, p]));
-	const storeIds = input.slots.flatMap((s) => (s.priceQuote ? [s.priceQuote.storeId] : []));
-	const stores = new Map((await Store.findAll({ where: { id: storeIds } })).map((s) => [s.id, s]));
-	const add = (key: string, message: string) => (issues[key] ??= []).push(message);
-	input.slots.forEach((slot, i) => {
-		const wrong = (id: number) => {
-			const part = parts.get(id);
-			if (!part) return 'No such part in the catalog.';
-			return part.category === slot.category
-				? null
-				: `That part is not a ${CATEGORY_LABELS[slot.category]}.`;
-		};
-		const pickProblem = wrong(slot.pickPartId);
-		if (pickProblem) add(`slots.${i}.pickPartId`, pickProblem);
-		slot.alternates.forEach((alt, j) => {
-			const problem = wrong(alt.partId);
-			if (problem) add(`slots.${i}.alternates.${j}.partId`, problem);
-			else if (alt.partId === slot.pickPartId)
-				add(`slots.${i}.alternates.${j}.partId`, 'An alternate must differ from the pick.');
-		});
-		if (slot.priceQuote) {
-			const store = stores.get(slot.priceQuote.storeId);
-			if (!store || store.regionId !== region.id)
-				add(
-					`slots.${i}.priceQuote.storeId`,
-					`Choose a store in the guide's base region (${region.name}).`
-				);
-			if (toMinor(slot.priceQuote.amount, region.currency) === null)
-				add(
-					`slots.${i}.priceQuote.amount`,
-					`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`
-				);
-		}
-	});
-	return issues;
-}
-
-/**
- * Replaces the working copy (metadata, build notes, slots, alternates) in one transaction.
- * The guide row is updated first with `WHERE id AND version = expectedVersion`: no affected
- * row means someone saved in between, and the stored copy comes back as `current`.
- */
-export async function saveDraft(
-	authorId: string,
-	slug: string,
-	input: DraftInput,
-	expectedVersion: number
-): Promise<SaveOutcome> {
-	const guide = await ownGuide(authorId, slug);
-	if (!guide) return { kind: 'not_found' };
-	const closed = closedReason(guide);
-	if (closed) return { kind: 'invalid', issues: { _form: [closed] } };
-	const region = await Region.findOne({ where: { code: input.baseRegion } });
-	if (!region)
-		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
-	const budget = toMinor(input.targetBudget, region.currency);
-	const issues = await checkReferences(input, region);
-	if (budget === null)
-		issues.targetBudget = [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`];
-	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
-	const buildNotesMd = joinBuildNotes(input.buildNotes);
-	const buildNotesHtml = renderMarkdown(buildNotesMd);
-
-	return sequelize.transaction(async (transaction): Promise<SaveOutcome> => {
-		const [affected] = await Guide.update(
-			{
-				title: input.title,
-				summary: input.summary,
-				targetBudgetMinor: budget ?? 0,
-				baseRegionId: region.id,
-				tags: input.tags,
-				disclosure: input.disclosure,
-				disclosureNote: input.disclosureNote,
-				walkthroughUrl: input.walkthroughUrl,
-				version: expectedVersion + 1
-			},
-			{ where: { id: guide.id, version: expectedVersion }, transaction }
-		);
-		if (affected !== 1) {
-			const current = await viewOf(guide, transaction);
-			return { kind: 'conflict', current };
-		}
-
-		let revision = await latestRevision(guide.id, transaction);
-		if (!revision || revision.submittedAt) {
-			// The latest revision is frozen (submitted or published): the save starts N+1.
-			const frozen = revision;
-			revision = await GuideRevision.create(
-				{
-					guideId: guide.id,
-					number: (frozen?.number ?? 0) + 1,
-					buildNotesMd,
-					buildNotesHtml,
-					submittedAt: null,
-					reviewedAt: null,
-					publishedAt: null,
-					reviewerId: null,
-					reviewNote: null
-				},
-				{ transaction }
-			);
-			// Results the input leaves out are measurements of the same build: N+1 starts with
-			// copies of the frozen revision's rows (new rows; the frozen ones stay untouched).
-			if (frozen)
-				await copyResults(
-					frozen.id,
-					revision.id,
-					{ frames: input.frames === undefined, thermals: input.thermals === undefined },
-					transaction
-				);
-		} else {
-			await revision.update({ buildNotesMd, buildNotesHtml }, { transaction });
-			// Alternates go with their slots (ON DELETE CASCADE).
-			await GuideSlot.destroy({ where: { revisionId: revision.id }, transaction });
-		}
-
-		for (const [i, slot] of input.slots.entries()) {
-			const priceQuoteId = slot.priceQuote
-				? await quoteFor(slot.pickPartId, slot.priceQuote, region, transaction)
-				: null;
-			const row = await GuideSlot.create(
-				{
-					revisionId: revision.id,
-					category: slot.category,
-					label: slot.label,
-					position: i + 1,
-					quantity: slot.quantity,
-					pickPartId: slot.pickPartId,
-					reason: slot.reason,
-					priceQuoteId
-				},
-				{ transaction }
-			);
-			if (slot.alternates.length > 0) {
-				await SlotAlternate.bulkCreate(
-					slot.alternates.map((a, j) => ({
-						slotId: row.id,
-						partId: a.partId,
-						rank: j + 1,
-						reasonTag: a.reasonTag,
-						note: a.note
-					})),
-					{ transaction }
-				);
-			}
-		}
-		if (input.frames) await replaceFrames(revision.id, input.frames, transaction);
-		if (input.thermals) await replaceThermals(revision.id, input.thermals, transaction);
-		const fresh = await Guide.findByPk(guide.id, { transaction });
-		return { kind: 'saved', draft: await viewOf(fresh ?? guide, transaction) };
-	});
-}
-
-/** Replaces the revision's frame results with the input's rows, in input order. */
-async function replaceFrames(
-	revisionId: number,
-	frames: FrameResultInput[],
-	transaction: Transaction
-): Promise<void> {
-	await FrameResult.destroy({ where: { revisionId }, transaction });
-	if (frames.length === 0) return;
-	await FrameResult.bulkCreate(
-		frames.map((f, i) => ({
-			revisionId,
-			position: i + 1,
-			workload: f.workload,
-			resolution: f.resolution,
-			preset: f.preset,
-			avgFpsTenths: fpsToTenths(f.avgFps),
-			low1FpsTenths: f.low1Fps === null ? null : fpsToTenths(f.low1Fps),
-			notes: f.notes
-		})),
-		{ transaction }
-	);
-}
-
-async function replaceThermals(
-	revisionId: number,
-	thermals: ThermalResultInput[],
-	transaction: Transaction
-): Promise<void> {
-	await ThermalResult.destroy({ where: { revisionId }, transaction });
-	if (thermals.length === 0) return;
-	await ThermalResult.bulkCreate(
-		thermals.map((t, i) => ({
-			revisionId,
-			position: i + 1,
-			loadName: t.loadName,
-			cpuTempC: t.cpuTempC,
-			gpuTempC: t.gpuTempC,
-			cpuUtilPct: t.cpuUtilPct,
-			gpuUtilPct: t.gpuUtilPct
-		})),
-		{ transaction }
-	);
-}
-
-/** Copies a frozen revision's results into a new revision (fresh rows, same order). */
-async function copyResults(
-	fromId: number,
-	toId: number,
-	which: { frames: boolean; thermals: boolean },
-	transaction: Transaction
-): Promise<void> {
-	const order: [string, string][] = [
-		['position', 'ASC'],
-		['id', 'ASC']
-	];
-	if (which.frames) {
-		const rows = await FrameResult.findAll({ where: { revisionId: fromId }, order, transaction });
-		if (rows.length > 0) {
-			await FrameResult.bulkCreate(
-				rows.map((f) => ({
-					revisionId: toId,
-					position: f.position,
-					workload: f.workload,
-					resolution: f.resolution,
-					preset: f.preset,
-					avgFpsTenths: f.avgFpsTenths,
-					low1FpsTenths: f.low1FpsTenths,
-					notes: f.notes
-				})),
-				{ transaction }
-			);
-		}
-	}
-	if (which.thermals) {
-		const rows = await ThermalResult.findAll({ where: { revisionId: fromId }, order, transaction });
-		if (rows.length > 0) {
-			await ThermalResult.bulkCreate(
-				rows.map((t) => ({
-					revisionId: toId,
-					position: t.position,
-					loadName: t.loadName,
-					cpuTempC: t.cpuTempC,
-					gpuTempC: t.gpuTempC,
-					cpuUtilPct: t.cpuUtilPct,
-					gpuUtilPct: t.gpuUtilPct
-				})),
-				{ transaction }
-			);
-		}
-	}
-}
-
-/** The author's quote for a pick: an identical existing quote is reused, else one is recorded (source 'author'). */
-async function quoteFor(
-	partId: number,
-	q: { storeId: number; amount: string; observedAt: string },
-	region: Region,
-	transaction: Transaction
-): Promise<number> {
-	const amountMinor = toMinor(q.amount, region.currency) ?? 0;
-	const observedAt = new Date(`${q.observedAt}T00:00:00Z`);
-	const next = new Date(observedAt.getTime() + 86_400_000);
-	const existing = await Quote.findOne({
-		where: {
-			partId,
-			storeId: q.storeId,
-			regionId: region.id,
-			amountMinor,
-			observedAt: { [Op.gte]: observedAt, [Op.lt]: next }
-		},
-		transaction
-	});
-	if (existing) return existing.id;
-	const created = await Quote.create(
-		{
-			partId,
-			storeId: q.storeId,
-			regionId: region.id,
-			amountMinor,
-			currency: region.currency,
-			taxIncluded: region.taxMode === 'inclusive',
-			observedAt,
-			url: null,
-			source: 'author'
-		},
-		{ transaction }
-	);
-	return created.id;
-}
-
-/** Freezes the working copy for review (submittedAt); guarded by the same version check. */
-export async function submit(
-	authorId: string,
-	slug: string,
-	expectedVersion: number,
-	links?: { guidesUrl: string }
-): Promise<SubmitOutcome> {
-	const guide = await ownGuide(authorId, slug);
-	if (!guide) return { kind: 'not_found' };
-	const closed = closedReason(guide);
-	if (closed) return { kind: 'invalid', issues: { _form: [closed] } };
-	const outcome = await sequelize.transaction(async (transaction): Promise<SubmitOutcome> => {
-		const revision = await latestRevision(guide.id, transaction);
-		if (!revision || revision.submittedAt)
-			return {
-				kind: 'invalid',
-				issues: { _form: ['There is no draft to submit: save a change first.'] }
-			};
-		const slotCount = await GuideSlot.count({ where: { revisionId: revision.id }, transaction });
-		if (slotCount === 0)
-			return {
-				kind: 'invalid',
-				issues: { slots: ['Add at least one slot and save before submitting.'] }
-			};
-		// A live guide stays live while the new revision waits; anything else waits in review.
-		// Only an editor's decision publishes (services/guide-reviews).
-		const state = guide.state === 'published' ? 'published' : 'in_review';
-		const [affected] = await Guide.update(
-			{ state, version: expectedVersion + 1 },
-			{ where: { id: guide.id, version: expectedVersion }, transaction }
-		);
-		if (affected !== 1) return { kind: 'conflict', current: await viewOf(guide, transaction) };
-		await revision.update({ submittedAt: new Date() }, { transaction });
-		const fresh = await Guide.findByPk(guide.id, { transaction });
-		return { kind: 'submitted', draft: await viewOf(fresh ?? guide, transaction) };
-	});
-	if (outcome.kind === 'submitted' && links) {
-		const author = await User.findByPk(authorId, { attributes: ['email', 'name'] });
-		if (author)
-			await sendToAuthor(
-				author,
-				submittedMail(author, outcome.draft.title, outcome.draft.revisionNumber, links.guidesUrl),
-				'revision_submitted'
-			);
-	}
-	return outcome;
-}
-
-/** Declined and archived guides are closed: the author can read them but not edit or resubmit. */
-function closedReason(guide: Guide): string | null {
-	if (guide.state === 'archived')
-		return 'This guide was archived by an editor and can no longer be edited.';
-	if (guide.state === 'declined')
-		return 'This guide was declined by an editor and can no longer be edited. Start a new guide instead.';
-	return null;
-}
-
 /** Sanitised HTML for the editor's preview; nothing is stored. */
 export function previewNotes(notes: BuildNotesInput): string {
 	return renderMarkdown(joinBuildNotes(notes));
-}
-
-export interface EditorCatalog {
-	regions: { code: string; name: string; currency: string }[];
-	stores: { id: number; name: string; regionCode: string }[];
-	/** Every catalog part by category: the no-JS pick list and the live search's id lookup. */
-	parts: DraftPartRef[];
 }
 
 /** Choices for the editor's selects. */

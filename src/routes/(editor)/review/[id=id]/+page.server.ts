@@ -3,11 +3,12 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { decisionInput } from '$lib/schemas/review';
 import { requireRole } from '$lib/server/auth/guards';
 import * as reviews from '$lib/server/services/guide-reviews';
+import * as reviewPage from '$lib/server/services/review-page';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const me = requireRole('editor');
-	const review = await reviews.getReview(me, Number(params.id), url.host);
+	const review = await reviewPage.getReview(me, Number(params.id), url.host);
 	if (!review) error(404, 'No submitted revision with that number');
 	return { review };
 };

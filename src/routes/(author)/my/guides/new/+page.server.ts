@@ -5,6 +5,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import * as limits from '$lib/server/rate-limit';
 import { guideCreateChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
+import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -39,7 +40,7 @@ export const actions: Actions = {
 		if (!input.success) return fail(400, { fields, issues: fieldIssues(input.error) });
 		const allowed = await limits.consumeAll(guideCreateChecks(user.id));
 		if (!allowed.ok) return tooManyRequests(allowed, undefined, { fields, issues: {} });
-		const outcome = await drafts.createGuide(user.id, input.data);
+		const outcome = await draftEdits.createGuide(user.id, input.data);
 		if (outcome.kind === 'invalid') return fail(400, { fields, issues: outcome.issues });
 		redirect(303, `/my/guides/${outcome.slug}/edit`);
 	}

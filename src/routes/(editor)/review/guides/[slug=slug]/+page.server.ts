@@ -4,11 +4,12 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { moderationInput } from '$lib/schemas/review';
 import { requireRole } from '$lib/server/auth/guards';
 import * as reviews from '$lib/server/services/guide-reviews';
+import * as reviewQueue from '$lib/server/services/review-queue';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
 	requireRole('editor');
-	const guide = await reviews.getGuideModeration(params.slug);
+	const guide = await reviewQueue.getGuideModeration(params.slug);
 	if (!guide) error(404, 'Guide not found');
 	return { guide };
 };

@@ -3,6 +3,7 @@ import { buildNotesInput, draftInput } from '$lib/schemas/guide-editor';
 import { applyOp, fromDraft, fromForm, toInput } from '$lib/schemas/guide-editor-form';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
+import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -39,7 +40,7 @@ async function save(userId: string, slug: string, data: FormData) {
 				issues: { _form: ['Reload the editor: the form lost its version.'] }
 			})
 		};
-	const outcome = await drafts.saveDraft(userId, slug, parsed.data, version);
+	const outcome = await draftEdits.saveDraft(userId, slug, parsed.data, version);
 	switch (outcome.kind) {
 		case 'not_found':
 			error(404, 'Guide not found');
@@ -108,7 +109,7 @@ export const actions: Actions = {
 		const user = await owned(params.slug);
 		const result = await save(user.id, params.slug, await request.formData());
 		if (!result.ok) return result.failure;
-		const outcome = await drafts.submit(user.id, params.slug, result.version, {
+		const outcome = await draftEdits.submit(user.id, params.slug, result.version, {
 			guidesUrl: new URL('/my/guides', url.origin).href
 		});
 		if (outcome.kind === 'not_found') error(404, 'Guide not found');

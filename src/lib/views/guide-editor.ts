@@ -1,0 +1,71 @@
+/*
+ * The guide editor's working copy and choices, as the authoring services return them. Types only.
+ */
+import type { AlternateReason, PartCategory } from '$lib/domain/types';
+import type { BuildNotesInput, GuideDisclosure, GuideTag } from '$lib/schemas/guide-editor';
+import type { PartRef } from './guide';
+
+/** A part as the editor shows it: the same reference every page uses. */
+export type DraftPartRef = PartRef;
+
+export interface DraftSlotView {
+	category: PartCategory;
+	label: string;
+	quantity: number;
+	pickPartId: number;
+	pick: DraftPartRef;
+	reason: string;
+	priceQuote: { storeId: number; amount: string; observedAt: string } | null;
+	alternates: { partId: number; part: DraftPartRef; reasonTag: AlternateReason; note: string }[];
+}
+
+/** A benchmark row as the editor shows it: FPS as decimal text ("143.5"), stored as tenths. */
+export interface DraftFrameView {
+	workload: string;
+	resolution: string;
+	preset: string;
+	avgFps: string;
+	low1Fps: string | null;
+	notes: string;
+}
+
+export interface DraftThermalView {
+	loadName: string;
+	cpuTempC: number | null;
+	gpuTempC: number | null;
+	cpuUtilPct: number | null;
+	gpuUtilPct: number | null;
+}
+
+/** The working copy as the editor and GET …/draft show it; `version` goes back with a save. */
+export interface DraftView {
+	slug: string;
+	title: string;
+	summary: string;
+	targetBudget: string;
+	currency: string;
+	baseRegion: string;
+	tags: GuideTag[];
+	disclosure: GuideDisclosure;
+	disclosureNote: string | null;
+	walkthroughUrl: string | null;
+	buildNotes: BuildNotesInput;
+	buildNotesHtml: string;
+	slots: DraftSlotView[];
+	frames: DraftFrameView[];
+	thermals: DraftThermalView[];
+	version: number;
+	state: string;
+	revisionNumber: number;
+	/** 'draft' while editable; 'submitted' once frozen (the next save starts a new revision). */
+	revisionState: 'draft' | 'submitted';
+	submittedAt: string | null;
+	publishedRevisionNumber: number | null;
+}
+
+export interface EditorCatalog {
+	regions: { code: string; name: string; currency: string }[];
+	stores: { id: number; name: string; regionCode: string }[];
+	/** Every catalog part by category: the no-JS pick list and the live search's id lookup. */
+	parts: DraftPartRef[];
+}
