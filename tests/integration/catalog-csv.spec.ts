@@ -2,7 +2,8 @@ import { QueryTypes } from 'sequelize';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { AuditEvent, CatalogImport, Part, User, sequelize } from '../../src/lib/server/db';
 import * as csv from '../../src/lib/server/services/catalog-csv';
-import * as upkeep from '../../src/lib/server/services/catalog-upkeep';
+import * as csvExport from '../../src/lib/server/services/catalog-csv-export';
+import * as catalogParts from '../../src/lib/server/services/catalog-parts';
 import { countRows, resetDatabase } from '../support/db';
 import {
 	CSV_HEADER,
@@ -213,7 +214,7 @@ describe('CSV import', () => {
 
 	it('reports bad JSON, wrong cell counts, duplicate slugs in the file, and a slug of another category in the catalog', async () => {
 		const me = await editor();
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Lumenforge',
 			model: 'Existing',
@@ -333,7 +334,7 @@ describe('CSV export', () => {
 
 	/** The exported bytes as text, BOM kept (Response.text() would drop it). */
 	async function exported(): Promise<string> {
-		const raw = new Uint8Array(await new Response(csv.exportCatalogCsv()).arrayBuffer());
+		const raw = new Uint8Array(await new Response(csvExport.exportCatalogCsv()).arrayBuffer());
 		return new TextDecoder('utf-8', { ignoreBOM: true }).decode(raw);
 	}
 
@@ -382,7 +383,7 @@ describe('CSV export', () => {
 
 	it('offers a template that imports cleanly', async () => {
 		const me = await editor();
-		const importId = await ready(me.id, csv.templateCsv());
+		const importId = await ready(me.id, csvExport.templateCsv());
 		expect(await csv.commit(me.id, importId)).toEqual({
 			kind: 'ok',
 			created: 3,

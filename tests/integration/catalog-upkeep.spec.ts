@@ -1,6 +1,8 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { AuditEvent, Part, Quote, Region, Store, User } from '../../src/lib/server/db';
-import * as upkeep from '../../src/lib/server/services/catalog-upkeep';
+import * as catalogParts from '../../src/lib/server/services/catalog-parts';
+import * as catalogReads from '../../src/lib/server/services/catalog-reads';
+import * as catalogStores from '../../src/lib/server/services/catalog-stores';
 import { countRows, resetDatabase } from '../support/db';
 
 /*
@@ -71,7 +73,7 @@ describe('parts', () => {
 
 	it('creates a part with valid specs, derives the slug, and audits it', async () => {
 		const me = await editor();
-		const outcome = await upkeep.createPart(me.id, {
+		const outcome = await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Example Graphics',
 			model: 'Lumen 60 Dual',
@@ -99,7 +101,7 @@ describe('parts', () => {
 
 	it('refuses bad specs with a message per field and writes nothing', async () => {
 		const me = await editor();
-		const outcome = await upkeep.createPart(me.id, {
+		const outcome = await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: '=HYPERLINK("x")',
 			model: '',
@@ -139,7 +141,7 @@ describe('parts', () => {
 
 	it('refuses an unknown category and a duplicate slug, writing nothing', async () => {
 		const me = await editor();
-		const unknown = await upkeep.createPart(me.id, {
+		const unknown = await catalogParts.createPart(me.id, {
 			category: 'toaster',
 			brand: 'A',
 			model: 'B',
@@ -150,7 +152,7 @@ describe('parts', () => {
 			issues: { category: [expect.stringMatching(/Choose one of: cpu/)] }
 		});
 		// An absurd size: a 5-metre graphics card (the spec schema caps lengthMm).
-		const huge = await upkeep.createPart(me.id, {
+		const huge = await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'A',
 			model: 'B',
@@ -162,14 +164,14 @@ describe('parts', () => {
 		});
 		expect(await countRows('parts')).toBe(0);
 
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Example Graphics',
 			model: 'Lumen 60',
 			slug: 'lumen-60',
 			specs: GPU_SPECS
 		});
-		const again = await upkeep.createPart(me.id, {
+		const again = await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Other',
 			model: 'Card',
@@ -186,14 +188,14 @@ describe('parts', () => {
 
 	it('updates brand, model and specs (not category or slug), audits before and after, and skips no-op saves', async () => {
 		const me = await editor();
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Example Graphics',
 			model: 'Lumen 60',
 			slug: 'lumen-60',
 			specs: GPU_SPECS
 		});
-		const bad = await upkeep.updatePart(me.id, 'lumen-60', {
+		const bad = await catalogParts.updatePart(me.id, 'lumen-60', {
 			brand: 'Example Graphics',
 			model: 'Lumen 60',
 			specs: { ...GPU_SPECS, lengthMm: 0 }
@@ -204,7 +206,7 @@ describe('parts', () => {
 		});
 		expect((await Part.findOne({ where: { slug: 'lumen-60' } }))?.specs).toEqual(GPU_SPECS);
 
-		const good = await upkeep.updatePart(me.id, 'lumen-60', {
+		const good = await catalogParts.updatePart(me.id, 'lumen-60', {
 			brand: 'Example Graphics',
 			model: 'Lumen 60 OC',
 			specs: { ...GPU_SPECS, lengthMm: 250 }
@@ -218,7 +220,7 @@ describe('parts', () => {
 		expect(event?.before).toMatchObject({ model: 'Lumen 60', specs: { lengthMm: 242 } });
 		expect(event?.after).toMatchObject({ model: 'Lumen 60 OC', specs: { lengthMm: 250 } });
 
-		const same = await upkeep.updatePart(me.id, 'lumen-60', {
+		const same = await catalogParts.updatePart(me.id, 'lumen-60', {
 			brand: 'Example Graphics',
 			model: 'Lumen 60 OC',
 			specs: { ...GPU_SPECS, lengthMm: 250 }
@@ -226,31 +228,31 @@ describe('parts', () => {
 		expect(same).toMatchObject({ kind: 'ok', changed: false });
 		expect(await AuditEvent.count({ where: { action: 'part.updated' } })).toBe(1);
 		expect(
-			await upkeep.updatePart(me.id, 'no-such-part', { brand: 'x', model: 'y', specs: {} })
+			await catalogParts.updatePart(me.id, 'no-such-part', { brand: 'x', model: 'y', specs: {} })
 		).toEqual({ kind: 'not_found' });
 	});
 
 	it('lists and searches parts, with LIKE wildcards taken literally', async () => {
 		const me = await editor();
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Example Graphics',
 			model: 'Lumen 60',
 			specs: GPU_SPECS
 		});
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Other_Brand',
 			model: '100% Card',
 			specs: GPU_SPECS
 		});
-		expect((await upkeep.listParts({ q: 'lumen', page: 1 })).items.map((p) => p.slug)).toEqual([
-			'example-graphics-lumen-60'
-		]);
-		expect((await upkeep.listParts({ q: '%', page: 1 })).items.map((p) => p.model)).toEqual([
+		expect(
+			(await catalogReads.listParts({ q: 'lumen', page: 1 })).items.map((p) => p.slug)
+		).toEqual(['example-graphics-lumen-60']);
+		expect((await catalogReads.listParts({ q: '%', page: 1 })).items.map((p) => p.model)).toEqual([
 			'100% Card'
 		]);
-		expect((await upkeep.listParts({ q: '', category: 'cpu', page: 1 })).total).toBe(0);
+		expect((await catalogReads.listParts({ q: '', category: 'cpu', page: 1 })).total).toBe(0);
 	});
 });
 
@@ -262,14 +264,14 @@ describe('stores', () => {
 		const { usStore } = await regionsAndStore();
 		const before = await countRows('stores');
 
-		const bad = await upkeep.createStore(me.id, {
+		const bad = await catalogStores.createStore(me.id, {
 			name: '',
 			regionCode: 'zz',
 			url: 'javascript:alert(1)'
 		});
 		expect(bad).toMatchObject({ kind: 'invalid' });
 		if (bad.kind === 'invalid') expect(Object.keys(bad.issues).sort()).toEqual(['name', 'url']);
-		const unknownRegion = await upkeep.createStore(me.id, {
+		const unknownRegion = await catalogStores.createStore(me.id, {
 			name: 'New Shop',
 			regionCode: 'zz',
 			url: 'https://new.example'
@@ -278,7 +280,7 @@ describe('stores', () => {
 			kind: 'invalid',
 			issues: { regionCode: ['Unknown region "zz".'] }
 		});
-		const taken = await upkeep.createStore(me.id, {
+		const taken = await catalogStores.createStore(me.id, {
 			name: 'Kestrel Components',
 			regionCode: 'us',
 			url: 'https://k.example'
@@ -290,26 +292,26 @@ describe('stores', () => {
 		expect(await countRows('stores')).toBe(before);
 		expect(await countRows('audit_events')).toBe(0);
 
-		const created = await upkeep.createStore(me.id, {
+		const created = await catalogStores.createStore(me.id, {
 			name: 'New Shop',
 			regionCode: 'jp',
 			url: 'https://new.example'
 		});
 		expect(created.kind).toBe('ok');
 		if (created.kind !== 'ok') return;
-		const renamed = await upkeep.updateStore(me.id, created.storeId, {
+		const renamed = await catalogStores.updateStore(me.id, created.storeId, {
 			name: 'Newer Shop',
 			regionCode: 'us',
 			url: 'https://newer.example'
 		});
 		expect(renamed.kind).toBe('ok');
-		const clash = await upkeep.updateStore(me.id, created.storeId, {
+		const clash = await catalogStores.updateStore(me.id, created.storeId, {
 			name: 'Kestrel Components',
 			regionCode: 'us',
 			url: 'https://newer.example'
 		});
 		expect(clash.kind).toBe('invalid');
-		expect(await upkeep.deleteStore(me.id, created.storeId)).toEqual({ kind: 'ok' });
+		expect(await catalogStores.deleteStore(me.id, created.storeId)).toEqual({ kind: 'ok' });
 		expect(await Store.findByPk(created.storeId)).toBeNull();
 		expect((await AuditEvent.findAll({ order: [['id', 'ASC']] })).map((e) => e.action)).toEqual([
 			'store.created',
@@ -317,7 +319,7 @@ describe('stores', () => {
 			'store.deleted'
 		]);
 
-		const listed = await upkeep.listStores();
+		const listed = await catalogReads.listStores();
 		expect(listed.find((s) => s.id === usStore.id)).toMatchObject({
 			region: { code: 'us', currency: 'USD' },
 			quoteCount: 0
@@ -327,25 +329,25 @@ describe('stores', () => {
 	it('refuses to remove a store that has quotes', async () => {
 		const me = await editor();
 		const { usStore } = await regionsAndStore();
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Example Graphics',
 			model: 'Lumen 60',
 			slug: 'lumen-60',
 			specs: GPU_SPECS
 		});
-		await upkeep.addQuote(me.id, {
+		await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(usStore.id),
 			amount: '249.99',
 			observedOn: '2024-01-02'
 		});
-		expect(await upkeep.deleteStore(me.id, usStore.id)).toMatchObject({
+		expect(await catalogStores.deleteStore(me.id, usStore.id)).toMatchObject({
 			kind: 'conflict',
 			message: expect.stringMatching(/1 quote/)
 		});
 		expect(await Store.findByPk(usStore.id)).not.toBeNull();
-		expect((await upkeep.listStores()).find((s) => s.id === usStore.id)?.quoteCount).toBe(1);
+		expect((await catalogReads.listStores()).find((s) => s.id === usStore.id)?.quoteCount).toBe(1);
 	});
 });
 
@@ -355,7 +357,7 @@ describe('quotes', () => {
 	async function setup() {
 		const me = await editor();
 		const places = await regionsAndStore();
-		await upkeep.createPart(me.id, {
+		await catalogParts.createPart(me.id, {
 			category: 'gpu',
 			brand: 'Example Graphics',
 			model: 'Lumen 60',
@@ -369,7 +371,7 @@ describe('quotes', () => {
 	// Minor units per ISO 4217 List One (docs/sources.md 10a, status V): USD 2, JPY 0, KWD 3.
 	it('converts decimal amounts with the currency exponent (USD 2, JPY 0, KWD 3; ISO 4217, docs/sources.md 10a, V)', async () => {
 		const { me, usStore, jpStore, kwStore } = await setup();
-		const usd = await upkeep.addQuote(me.id, {
+		const usd = await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(usStore.id),
 			amount: '249.99',
@@ -377,14 +379,14 @@ describe('quotes', () => {
 			taxIncluded: '',
 			observedOn: '2024-01-02'
 		});
-		const jpy = await upkeep.addQuote(me.id, {
+		const jpy = await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(jpStore.id),
 			amount: '38980',
 			taxIncluded: 'on',
 			observedOn: '2024-01-02'
 		});
-		const kwd = await upkeep.addQuote(me.id, {
+		const kwd = await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(kwStore.id),
 			amount: '76.125',
@@ -407,13 +409,13 @@ describe('quotes', () => {
 		]);
 		expect(quotes[0]?.observedAt.toISOString()).toBe('2024-01-02T12:00:00.000Z');
 		expect(await AuditEvent.count({ where: { action: 'quote.created' } })).toBe(3);
-		const recent = await upkeep.listRecentQuotes({ partSlug: 'lumen-60' });
+		const recent = await catalogReads.listRecentQuotes({ partSlug: 'lumen-60' });
 		expect(recent).toHaveLength(3);
 	});
 
 	it('refuses a price with more decimals than the currency allows ("12.345" USD, "100.5" JPY) and writes nothing', async () => {
 		const { me, usStore, jpStore } = await setup();
-		const usd = await upkeep.addQuote(me.id, {
+		const usd = await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(usStore.id),
 			amount: '12.345',
@@ -423,7 +425,7 @@ describe('quotes', () => {
 			kind: 'invalid',
 			issues: { amount: ['USD allows at most 2 decimals, e.g. 129.99.'] }
 		});
-		const jpy = await upkeep.addQuote(me.id, {
+		const jpy = await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(jpStore.id),
 			amount: '100.5',
@@ -433,7 +435,7 @@ describe('quotes', () => {
 			kind: 'invalid',
 			issues: { amount: ['JPY has no minor unit: enter a whole amount, e.g. 15800.'] }
 		});
-		const shipping = await upkeep.addQuote(me.id, {
+		const shipping = await catalogStores.addQuote(me.id, {
 			partSlug: 'lumen-60',
 			storeId: String(usStore.id),
 			amount: '12.34',
@@ -456,47 +458,53 @@ describe('quotes', () => {
 			amount: '249.99',
 			observedOn: '2024-01-02'
 		};
-		expect(await upkeep.addQuote(me.id, { ...base, currency: 'XYZ' })).toEqual({
+		expect(await catalogStores.addQuote(me.id, { ...base, currency: 'XYZ' })).toEqual({
 			kind: 'invalid',
 			issues: { currency: ['Unknown currency code "XYZ".'] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, currency: 'dollars' })).toMatchObject({
+		expect(await catalogStores.addQuote(me.id, { ...base, currency: 'dollars' })).toMatchObject({
 			kind: 'invalid',
 			issues: { currency: [expect.stringMatching(/three-letter/)] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, regionCode: 'zz' })).toEqual({
+		expect(await catalogStores.addQuote(me.id, { ...base, regionCode: 'zz' })).toEqual({
 			kind: 'invalid',
 			issues: { regionCode: ['Unknown region "zz".'] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, regionCode: 'jp' })).toMatchObject({
+		expect(await catalogStores.addQuote(me.id, { ...base, regionCode: 'jp' })).toMatchObject({
 			kind: 'invalid',
 			issues: { regionCode: [expect.stringMatching(/sells in United States/)] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, partSlug: 'no-such-part' })).toMatchObject({
+		expect(
+			await catalogStores.addQuote(me.id, { ...base, partSlug: 'no-such-part' })
+		).toMatchObject({
 			kind: 'invalid',
 			issues: { partSlug: [expect.stringMatching(/No part/)] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, amount: '-5' })).toMatchObject({
+		expect(await catalogStores.addQuote(me.id, { ...base, amount: '-5' })).toMatchObject({
 			kind: 'invalid',
 			issues: { amount: [expect.any(String)] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, amount: '0.00' })).toMatchObject({
+		expect(await catalogStores.addQuote(me.id, { ...base, amount: '0.00' })).toMatchObject({
 			kind: 'invalid',
 			issues: { amount: ['The price must be more than zero.'] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, observedOn: '2024-02-30' })).toMatchObject({
+		expect(
+			await catalogStores.addQuote(me.id, { ...base, observedOn: '2024-02-30' })
+		).toMatchObject({
 			kind: 'invalid',
 			issues: { observedOn: ['Enter a real date.'] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, observedOn: '2999-01-01' })).toMatchObject({
+		expect(
+			await catalogStores.addQuote(me.id, { ...base, observedOn: '2999-01-01' })
+		).toMatchObject({
 			kind: 'invalid',
 			issues: { observedOn: ['The day cannot be in the future.'] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, storeId: 'abc' })).toMatchObject({
+		expect(await catalogStores.addQuote(me.id, { ...base, storeId: 'abc' })).toMatchObject({
 			kind: 'invalid',
 			issues: { storeId: ['Unknown store.'] }
 		});
-		expect(await upkeep.addQuote(me.id, { ...base, sneaky: '1' })).toMatchObject({
+		expect(await catalogStores.addQuote(me.id, { ...base, sneaky: '1' })).toMatchObject({
 			kind: 'invalid',
 			issues: { _form: [expect.any(String)] }
 		});

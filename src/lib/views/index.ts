@@ -8,3 +8,4 @@ export type * from './guide';
 export type * from './reports';
 export type * from './review';
 export type * from './guide-editor';
+export type * from './catalog';

@@ -21,7 +21,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { regionSettingsInput, taxRateInput } from '$lib/schemas/regions';
 import { Region, RegionTaxRate, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
-import type { Issues, Outcome } from './catalog-upkeep';
+import type { Issues, Outcome } from './outcome';
 
 export interface TaxRateEntry {
 	id: number;

@@ -1,8 +1,8 @@
 import { requireRole } from '$lib/server/auth/guards';
-import * as upkeep from '$lib/server/services/catalog-upkeep';
+import * as catalogReads from '$lib/server/services/catalog-reads';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	requireRole('editor');
-	return { counts: await upkeep.catalogCounts() };
+	return { counts: await catalogReads.catalogCounts() };
 };

@@ -1,7 +1,7 @@
 import { partListQuery } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
-import * as upkeep from '$lib/server/services/catalog-upkeep';
+import * as catalogReads from '$lib/server/services/catalog-reads';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
@@ -14,6 +14,6 @@ export const load: PageServerLoad = async ({ url }) => {
 	const parsed = partListQuery.safeParse(raw);
 	// A bad filter shows everything with a note rather than an error page.
 	const query = parsed.success ? parsed.data : { q: '', category: undefined, page: 1 };
-	const result = await upkeep.listParts(query);
+	const result = await catalogReads.listParts(query);
 	return { result, query, issues: parsed.success ? {} : fieldIssues(parsed.error) };
 };

@@ -1,15 +1,16 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { formFields } from '$lib/schemas/account';
 import { requireRole } from '$lib/server/auth/guards';
-import * as upkeep from '$lib/server/services/catalog-upkeep';
+import * as catalogReads from '$lib/server/services/catalog-reads';
+import * as catalogStores from '$lib/server/services/catalog-stores';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole('editor');
 	const [stores, regions, quotes] = await Promise.all([
-		upkeep.listStores(),
-		upkeep.regionOptions(),
-		upkeep.listRecentQuotes({ limit: 25 })
+		catalogReads.listStores(),
+		catalogReads.regionOptions(),
+		catalogReads.listRecentQuotes({ limit: 25 })
 	]);
 	return {
 		stores,
@@ -26,7 +27,7 @@ export const actions: Actions = {
 	create: async ({ request }) => {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
-		const outcome = await upkeep.addQuote(me.id, fields);
+		const outcome = await catalogStores.addQuote(me.id, fields);
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values: fields });
 		if (outcome.kind !== 'ok')
 			return fail(409, {

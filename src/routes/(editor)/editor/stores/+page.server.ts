@@ -3,12 +3,16 @@ import { formFields } from '$lib/schemas/account';
 import { storeIdInput } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
-import * as upkeep from '$lib/server/services/catalog-upkeep';
+import * as catalogReads from '$lib/server/services/catalog-reads';
+import * as catalogStores from '$lib/server/services/catalog-stores';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole('editor');
-	const [stores, regions] = await Promise.all([upkeep.listStores(), upkeep.regionOptions()]);
+	const [stores, regions] = await Promise.all([
+		catalogReads.listStores(),
+		catalogReads.regionOptions()
+	]);
 	const editId = Number(url.searchParams.get('edit'));
 	const editing = stores.find((s) => s.id === editId) ?? null;
 	return { stores, regions, editing, done: url.searchParams.get('done') };
@@ -20,7 +24,7 @@ export const actions: Actions = {
 	create: async ({ request }) => {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());
-		const outcome = await upkeep.createStore(me.id, fields);
+		const outcome = await catalogStores.createStore(me.id, fields);
 		if (outcome.kind === 'invalid')
 			return fail(400, { action: 'create' as const, issues: outcome.issues, values: fields });
 		if (outcome.kind !== 'ok')
@@ -42,7 +46,7 @@ export const actions: Actions = {
 				issues: fieldIssues(id.error),
 				values: fields
 			});
-		const outcome = await upkeep.updateStore(me.id, id.data.storeId, fields);
+		const outcome = await catalogStores.updateStore(me.id, id.data.storeId, fields);
 		if (outcome.kind === 'invalid')
 			return fail(400, {
 				action: 'update' as const,
@@ -69,7 +73,7 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const id = storeIdInput.safeParse(formFields(await request.formData()));
 		if (!id.success) return fail(400, { action: 'delete' as const, message: 'Unknown store.' });
-		const outcome = await upkeep.deleteStore(me.id, id.data.storeId);
+		const outcome = await catalogStores.deleteStore(me.id, id.data.storeId);
 		if (outcome.kind === 'not_found')
 			return fail(404, { action: 'delete' as const, message: 'That store no longer exists.' });
 		if (outcome.kind === 'conflict')

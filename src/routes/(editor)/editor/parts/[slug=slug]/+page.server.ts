@@ -2,19 +2,20 @@ import { error, fail } from '@sveltejs/kit';
 import { CATEGORY_LABELS } from '$lib/domain/types';
 import { specFields } from '$lib/schemas/spec-form';
 import { requireRole } from '$lib/server/auth/guards';
-import * as upkeep from '$lib/server/services/catalog-upkeep';
+import * as catalogParts from '$lib/server/services/catalog-parts';
+import * as catalogReads from '$lib/server/services/catalog-reads';
 import { readPartForm } from '../part-form';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	requireRole('editor');
-	const part = await upkeep.getPart(params.slug);
+	const part = await catalogReads.getPart(params.slug);
 	if (!part) error(404, 'No part has this slug.');
 	return {
 		part,
 		categoryLabel: CATEGORY_LABELS[part.category],
 		fields: specFields(part.category),
-		quotes: await upkeep.listRecentQuotes({ partSlug: part.slug, limit: 10 }),
+		quotes: await catalogReads.listRecentQuotes({ partSlug: part.slug, limit: 10 }),
 		added: url.searchParams.get('added') === '1'
 	};
 };
@@ -22,7 +23,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 export const actions: Actions = {
 	save: async ({ params, request }) => {
 		const me = requireRole('editor');
-		const part = await upkeep.getPart(params.slug);
+		const part = await catalogReads.getPart(params.slug);
 		if (!part)
 			return fail(404, {
 				issues: { _form: ['No part has this slug.'] } as Record<string, string[]>,
@@ -30,7 +31,7 @@ export const actions: Actions = {
 				saved: false
 			});
 		const values = readPartForm(await request.formData(), part.category);
-		const outcome = await upkeep.updatePart(me.id, params.slug, values);
+		const outcome = await catalogParts.updatePart(me.id, params.slug, values);
 		if (outcome.kind === 'invalid')
 			return fail(400, {
 				issues: outcome.issues,

@@ -1,5 +1,5 @@
 import { requireRole } from '$lib/server/auth/guards';
-import { exportCatalogCsv } from '$lib/server/services/catalog-csv';
+import { exportCatalogCsv } from '$lib/server/services/catalog-csv-export';
 import type { RequestHandler } from './$types';
 
 /**

@@ -3,7 +3,7 @@ import { CATEGORY_LABELS } from '$lib/domain/types';
 import { partCategory } from '$lib/schemas/catalog-upkeep';
 import { specFields } from '$lib/schemas/spec-form';
 import { requireRole } from '$lib/server/auth/guards';
-import * as upkeep from '$lib/server/services/catalog-upkeep';
+import * as catalogParts from '$lib/server/services/catalog-parts';
 import { readPartForm } from '../part-form';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -35,7 +35,7 @@ export const actions: Actions = {
 			});
 		}
 		const values = readPartForm(data, category.data);
-		const outcome = await upkeep.createPart(me.id, { category: category.data, ...values });
+		const outcome = await catalogParts.createPart(me.id, { category: category.data, ...values });
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values });
 		if (outcome.kind !== 'ok')
 			return fail(409, {

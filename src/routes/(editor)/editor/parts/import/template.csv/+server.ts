@@ -1,5 +1,5 @@
 import { requireRole } from '$lib/server/auth/guards';
-import { templateCsv } from '$lib/server/services/catalog-csv';
+import { templateCsv } from '$lib/server/services/catalog-csv-export';
 import type { RequestHandler } from './$types';
 
 /** The import template: header plus three invented example parts. */

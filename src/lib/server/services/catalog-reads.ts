@@ -1,0 +1,179 @@
+/**
+ * The editor's catalog pages, reading: parts (searched and paged), one part with its specs,
+ * stores with their quote counts, the latest quotes, the region choices of the store and
+ * quote forms, and the landing page's counts. Changes are catalog-parts.ts's (parts) and
+ * catalog-stores.ts's (stores and quotes).
+ */
+import { Op } from 'sequelize';
+import type { WhereOptions } from 'sequelize';
+import type { PartCategory } from '$lib/domain/types';
+import { EDITOR_PAGE_SIZE } from '$lib/schemas/catalog-upkeep';
+import { Part, Quote, Region, Store } from '$lib/server/db';
+import type {
+	EditorPartDetail,
+	EditorPartRow,
+	EditorQuoteRow,
+	EditorRegionOption,
+	EditorStoreRow
+} from '$lib/views';
+import * as audit from './audit';
+import type { Paged } from './audit';
+import { escapeLike } from './users';
+
+/** Parts whose brand, model or slug contains `q` (wildcards taken literally), optionally one category, A–Z. */
+export async function listParts(options: {
+	q: string;
+	category?: PartCategory;
+	page: number;
+}): Promise<Paged<EditorPartRow>> {
+	const conditions: WhereOptions<Part>[] = [];
+	const q = options.q.trim();
+	if (q !== '') {
+		const pattern = `%${escapeLike(q)}%`;
+		conditions.push({
+			[Op.or]: [
+				{ brand: { [Op.like]: pattern } },
+				{ model: { [Op.like]: pattern } },
+				{ slug: { [Op.like]: pattern } }
+			]
+		});
+	}
+	if (options.category) conditions.push({ category: options.category });
+	const where: WhereOptions<Part> = conditions.length ? { [Op.and]: conditions } : {};
+	const total = await Part.count({ where });
+	const window = audit.pageWindow(total, options.page, EDITOR_PAGE_SIZE);
+	const parts = await Part.findAll({
+		where,
+		attributes: ['id', 'category', 'brand', 'model', 'slug', 'updatedAt'],
+		order: [
+			['brand', 'ASC'],
+			['model', 'ASC'],
+			['id', 'ASC']
+		],
+		limit: EDITOR_PAGE_SIZE,
+		offset: window.offset
+	});
+	return {
+		items: parts.map(toPartRow),
+		total,
+		page: window.page,
+		perPage: EDITOR_PAGE_SIZE,
+		pageCount: window.pageCount
+	};
+}
+
+/** One part with its specs, for the edit form; null when no part has that slug. */
+export async function getPart(slug: string): Promise<EditorPartDetail | null> {
+	const part = await Part.findOne({ where: { slug } });
+	return part ? { ...toPartRow(part), specs: part.specs } : null;
+}
+
+/** A part as the editor's lists show it. */
+export function toPartRow(part: Part): EditorPartRow {
+	return {
+		id: part.id,
+		category: part.category,
+		brand: part.brand,
+		model: part.model,
+		slug: part.slug,
+		updatedAt: part.updatedAt.toISOString()
+	};
+}
+
+/** Regions for the store and quote forms, by name. */
+export async function regionOptions(): Promise<EditorRegionOption[]> {
+	const regions = await Region.findAll({
+		attributes: ['code', 'name', 'currency', 'taxMode'],
+		order: [['name', 'ASC']]
+	});
+	return regions.map((r) => ({
+		code: r.code,
+		name: r.name,
+		currency: r.currency,
+		taxMode: r.taxMode
+	}));
+}
+
+/** Every store with its region and how many quotes it has, by name. */
+export async function listStores(): Promise<EditorStoreRow[]> {
+	const stores = await Store.findAll({
+		include: [{ model: Region, as: 'region', attributes: ['code', 'name', 'currency'] }],
+		order: [['name', 'ASC']]
+	});
+	const counts = await Quote.count({ group: ['storeId'] });
+	const byStore = new Map(
+		counts.map((c) => [Number((c as unknown as { storeId: number }).storeId), Number(c.count)])
+	);
+	return stores.map((s) => {
+		const region = (s as Store & { region?: Region }).region;
+		return {
+			id: s.id,
+			name: s.name,
+			url: s.url,
+			region: {
+				code: region?.code ?? '',
+				name: region?.name ?? '',
+				currency: region?.currency ?? ''
+			},
+			quoteCount: byStore.get(s.id) ?? 0
+		};
+	});
+}
+
+/** The latest quotes, newest observation first; only one part's when `partSlug` is given. */
+export async function listRecentQuotes(
+	options: { limit?: number; partSlug?: string } = {}
+): Promise<EditorQuoteRow[]> {
+	const quotes = await Quote.findAll({
+		include: [
+			{
+				model: Part,
+				as: 'part',
+				attributes: ['slug', 'brand', 'model'],
+				...(options.partSlug ? { where: { slug: options.partSlug } } : {})
+			},
+			{ model: Store, as: 'store', attributes: ['name'] },
+			{ model: Region, as: 'region', attributes: ['code'] }
+		],
+		order: [
+			['observedAt', 'DESC'],
+			['id', 'DESC']
+		],
+		limit: Math.min(Math.max(1, options.limit ?? 25), 100)
+	});
+	return quotes.map((q) => {
+		const joined = q as Quote & { part?: Part; store?: Store; region?: Region };
+		return {
+			id: q.id,
+			part: {
+				slug: joined.part?.slug ?? '',
+				brand: joined.part?.brand ?? '',
+				model: joined.part?.model ?? ''
+			},
+			store: joined.store?.name ?? '',
+			regionCode: joined.region?.code ?? '',
+			amountMinor: Number(q.amountMinor),
+			shippingMinor: Number(q.shippingMinor),
+			currency: q.currency,
+			taxIncluded: q.taxIncluded,
+			observedAt: q.observedAt.toISOString(),
+			source: q.source
+		};
+	});
+}
+
+/** Counts for the editor's landing page. */
+export async function catalogCounts(): Promise<{
+	parts: number;
+	stores: number;
+	quotes: number;
+	regions: number;
+}> {
+	const [parts, stores, quotes, regions] = await Promise.all([
+		Part.count(),
+		Store.count(),
+		Quote.count(),
+		Region.count()
+	]);
+	return { parts, stores, quotes, regions };
+}
