@@ -11,6 +11,7 @@ import {
 	User
 } from '../../src/lib/server/db';
 import * as parts from '../../src/lib/server/services/parts';
+import * as sightingReads from '../../src/lib/server/services/price-sighting-reads';
 import * as sightings from '../../src/lib/server/services/price-sightings';
 import { countRows, resetDatabase } from '../support/db';
 
@@ -186,10 +187,10 @@ describe('price sightings on the real MariaDB', () => {
 				['KWD', 76125]
 			]);
 
-			const mine = await sightings.listMine(w.reader.id, w.part.slug);
+			const mine = await sightingReads.listMine(w.reader.id, w.part.slug);
 			expect(mine).toHaveLength(3);
 			expect(mine.every((s) => s.state === 'pending')).toBe(true);
-			expect(await sightings.listMine(w.reader2.id, w.part.slug)).toEqual([]);
+			expect(await sightingReads.listMine(w.reader2.id, w.part.slug)).toEqual([]);
 		});
 
 		it('merges a report of the same price, store and day into the pending one, counting people', async () => {
@@ -215,7 +216,7 @@ describe('price sightings on the real MariaDB', () => {
 			});
 			expect(await countRows('price_sighting_reports')).toBe(2);
 			// The merged-in reporter sees it in their own list too.
-			expect(await sightings.listMine(w.reader2.id, w.part.slug)).toMatchObject([
+			expect(await sightingReads.listMine(w.reader2.id, w.part.slug)).toMatchObject([
 				{ seenCount: 2, state: 'pending' }
 			]);
 
@@ -376,7 +377,7 @@ describe('price sightings on the real MariaDB', () => {
 				quoteId: outcome.quoteId,
 				amountMinor: 38800
 			});
-			expect(await sightings.listMine(w.reader.id, w.part.slug)).toMatchObject([
+			expect(await sightingReads.listMine(w.reader.id, w.part.slug)).toMatchObject([
 				{ state: 'verified' }
 			]);
 
@@ -440,7 +441,7 @@ describe('price sightings on the real MariaDB', () => {
 			const events = await AuditEvent.findAll({ where: { action: 'price_sighting.rejected' } });
 			expect(events).toHaveLength(1);
 			expect(events[0]?.after).toMatchObject({ state: 'rejected', rejectReason: reason });
-			expect(await sightings.listMine(w.reader.id, w.part.slug)).toMatchObject([
+			expect(await sightingReads.listMine(w.reader.id, w.part.slug)).toMatchObject([
 				{ state: 'rejected', rejectReason: reason }
 			]);
 
@@ -492,7 +493,7 @@ describe('price sightings on the real MariaDB', () => {
 			const decided = await pendingId({ price: '150.00' });
 			await sightings.reject(w.editor.id, decided, 'Typo in the price.', NOW);
 
-			const all = await sightings.listPending({ page: 1, q: '' });
+			const all = await sightingReads.listPending({ page: 1, q: '' });
 			expect(all.total).toBe(3);
 			expect(all.items.map((s) => s.price)).toEqual([
 				{ amountMinor: 24999, currency: 'USD' },
@@ -505,12 +506,12 @@ describe('price sightings on the real MariaDB', () => {
 				submittedBy: { email: 'rosa@example.test' }
 			});
 
-			expect((await sightings.listPending({ page: 1, q: '', region: 'jp' })).total).toBe(1);
-			expect((await sightings.listPending({ page: 1, q: '', region: 'zz' })).total).toBe(0);
-			expect((await sightings.listPending({ page: 1, q: 'lumen dual' })).total).toBe(3);
-			expect((await sightings.listPending({ page: 1, q: 'aurora' })).total).toBe(0);
+			expect((await sightingReads.listPending({ page: 1, q: '', region: 'jp' })).total).toBe(1);
+			expect((await sightingReads.listPending({ page: 1, q: '', region: 'zz' })).total).toBe(0);
+			expect((await sightingReads.listPending({ page: 1, q: 'lumen dual' })).total).toBe(3);
+			expect((await sightingReads.listPending({ page: 1, q: 'aurora' })).total).toBe(0);
 
-			const page2 = await sightings.listPending({ page: 2, q: '' }, 2);
+			const page2 = await sightingReads.listPending({ page: 2, q: '' }, 2);
 			expect(page2).toMatchObject({ page: 2, pageCount: 2, total: 3 });
 			expect(page2.items).toHaveLength(1);
 		});

@@ -1,6 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { PART_CATEGORIES } from '../../src/lib/domain/types';
 import { AuditEvent, Region, RegionTaxRate, User } from '../../src/lib/server/db';
+import * as regionReads from '../../src/lib/server/services/region-reads';
 import * as regions from '../../src/lib/server/services/regions';
 import { countRows, resetDatabase } from '../support/db';
 
@@ -60,15 +61,15 @@ describe('tax rates with effective dates', () => {
 			)
 		).toMatchObject({ kind: 'ok' });
 
-		expect(await regions.taxRateOn('lu', '2022-12-31')).toBe(1700);
-		expect(await regions.taxRateOn('lu', '2023-01-01')).toBe(1600);
-		expect(await regions.taxRateOn('lu', '2023-12-31')).toBe(1600);
-		expect(await regions.taxRateOn('lu', '2024-01-01')).toBe(1700);
+		expect(await regionReads.taxRateOn('lu', '2022-12-31')).toBe(1700);
+		expect(await regionReads.taxRateOn('lu', '2023-01-01')).toBe(1600);
+		expect(await regionReads.taxRateOn('lu', '2023-12-31')).toBe(1600);
+		expect(await regionReads.taxRateOn('lu', '2024-01-01')).toBe(1700);
 		// Before the region was set up nothing is on record.
-		expect(await regions.taxRateOn('lu', '2022-05-31')).toBeNull();
-		expect(await regions.taxRateOn('xx', '2024-01-01')).toBeNull();
+		expect(await regionReads.taxRateOn('lu', '2022-05-31')).toBeNull();
+		expect(await regionReads.taxRateOn('xx', '2024-01-01')).toBeNull();
 
-		const detail = await regions.getRegion('lu', now);
+		const detail = await regionReads.getRegion('lu', now);
 		expect(detail?.taxRates.map((r) => [r.effectiveFrom, r.rateBp, r.current])).toEqual([
 			['2024-01-01', 1700, true],
 			['2023-01-01', 1600, false],
@@ -99,7 +100,7 @@ describe('tax rates with effective dates', () => {
 
 		await fi.reload();
 		expect(fi.taxRateBp).toBe(2400);
-		expect(await regions.getRegion('fi', before)).toMatchObject({
+		expect(await regionReads.getRegion('fi', before)).toMatchObject({
 			taxRateBp: 2400,
 			taxRateSince: '2022-06-01',
 			nextTaxRate: { rateBp: 2550, effectiveFrom: '2024-09-01' }
@@ -107,7 +108,7 @@ describe('tax rates with effective dates', () => {
 		expect(await regions.syncCurrentTaxRates(before)).toEqual([]);
 
 		const after = new Date('2024-09-01T00:00:01Z');
-		expect(await regions.getRegion('fi', after)).toMatchObject({
+		expect(await regionReads.getRegion('fi', after)).toMatchObject({
 			taxRateBp: 2550,
 			taxRateSince: '2024-09-01',
 			nextTaxRate: null
@@ -212,7 +213,7 @@ describe('region settings', () => {
 			'factor.case': '97.5'
 		});
 		expect(outcome).toEqual({ kind: 'ok', changed: true });
-		const de = await regions.getRegion('de');
+		const de = await regionReads.getRegion('de');
 		expect(de?.categoryFactorsBp.gpu).toBe(10400);
 		expect(de?.categoryFactorsBp.case).toBe(9750);
 		expect(de?.categoryFactorsBp.cpu).toBe(10000);
@@ -291,7 +292,7 @@ describe('region settings', () => {
 			taxRateBp: 0,
 			categoryFactorsBp: { gpu: 9800 }
 		});
-		const listed = await regions.publicRegions();
+		const listed = await regionReads.publicRegions();
 		expect(listed.map((r) => r.code)).toEqual(['de', 'us']);
 		expect(listed[1]).toEqual({
 			code: 'us',

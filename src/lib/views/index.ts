@@ -9,3 +9,5 @@ export type * from './reports';
 export type * from './review';
 export type * from './guide-editor';
 export type * from './catalog';
+export type * from './sightings';
+export type * from './regions';

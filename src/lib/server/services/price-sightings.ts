@@ -1,5 +1,6 @@
 /**
- * Price sightings: prices the community saw, verified or rejected by editors. Every write
+ * Price sightings: prices the community saw, verified or rejected by editors (the form's
+ * choices and the lists are price-sighting-reads.ts's). Every write
  * runs in one transaction; a verification creates the Quote and its audit event in the
  * same transaction, so a sighting is never verified without its quote or vice versa.
  *
@@ -18,13 +19,11 @@
  * once, one changes the row and the other changes nothing and gets a conflict.
  */
 import { Op } from 'sequelize';
-import type { Transaction, WhereOptions } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { minorUnitDigits } from '$lib/domain/money';
-import type { Money } from '$lib/domain/types';
 import { decimalToMinor } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
-import { SIGHTINGS_PER_PAGE, priceSightingInput } from '$lib/schemas/price-sightings';
-import type { PendingSightingsQuery } from '$lib/schemas/price-sightings';
+import { priceSightingInput } from '$lib/schemas/price-sightings';
 import {
 	Part,
 	PriceSighting,
@@ -32,53 +31,13 @@ import {
 	Quote,
 	Region,
 	Store,
-	User,
 	sequelize
 } from '$lib/server/db';
 import type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 import * as audit from './audit';
-import type { Paged } from './audit';
+import type { Issues } from './outcome';
 
 export type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
-
-export type Issues = Record<string, string[]>;
-
-/** A sighting as the people who reported it see it. */
-export interface MySighting {
-	id: number;
-	storeName: string;
-	regionName: string;
-	price: Money;
-	/** YYYY-MM-DD, UTC. */
-	observedOn: string;
-	seenCount: number;
-	state: PriceSightingState;
-	rejectReason: string | null;
-}
-
-/** A pending sighting as editors see it. */
-export interface PendingSighting {
-	id: number;
-	part: { slug: string; name: string };
-	storeName: string;
-	region: { code: string; name: string };
-	price: Money;
-	observedOn: string;
-	url: string;
-	seenCount: number;
-	submittedBy: { name: string | null; email: string } | null;
-	/** ISO 8601, UTC. */
-	createdAt: string;
-}
-
-export interface SightingRegionOption {
-	code: string;
-	name: string;
-	currency: string;
-	/** Minor-unit digits of the currency (ISO 4217 exponent), for the price hint. */
-	digits: number;
-	stores: { id: number; name: string }[];
-}
 
 export type SubmitOutcome =
 	| { kind: 'created'; sightingId: number }
@@ -99,29 +58,8 @@ export type DecideOutcome =
 	| { kind: 'not_found' }
 	| { kind: 'conflict'; message: string };
 
-const MY_SIGHTINGS_LIMIT = 20;
-
 function add(issues: Issues, key: string, message: string) {
 	(issues[key] ??= []).push(message);
-}
-
-/** Regions with their stores, for the report form's choices. */
-export async function formOptions(): Promise<SightingRegionOption[]> {
-	const regions = await Region.findAll({
-		order: [['name', 'ASC']],
-		attributes: ['id', 'code', 'name', 'currency']
-	});
-	const stores = await Store.findAll({
-		order: [['name', 'ASC']],
-		attributes: ['id', 'name', 'regionId']
-	});
-	return regions.map((r) => ({
-		code: r.code,
-		name: r.name,
-		currency: r.currency,
-		digits: minorUnitDigits(r.currency),
-		stores: stores.filter((s) => s.regionId === r.id).map((s) => ({ id: s.id, name: s.name }))
-	}));
 }
 
 /** Start and end (exclusive) of a UTC day given as YYYY-MM-DD. */
@@ -226,110 +164,6 @@ export async function submit(
 		await PriceSightingReport.create({ sightingId: sighting.id, userId }, { transaction });
 		return { kind: 'created', sightingId: sighting.id };
 	});
-}
-
-type LoadedSighting = PriceSighting & { store: Store; region: Region };
-
-/** The user's sightings of one part (any they reported, merged ones too), newest first. */
-export async function listMine(userId: string, partSlug: string): Promise<MySighting[]> {
-	const part = await Part.findOne({ where: { slug: partSlug }, attributes: ['id'] });
-	if (!part) return [];
-	const rows = (await PriceSighting.findAll({
-		where: { partId: part.id },
-		include: [
-			{ model: PriceSightingReport, as: 'reports', where: { userId }, attributes: [] },
-			{ model: Store, as: 'store', attributes: ['name'] },
-			{ model: Region, as: 'region', attributes: ['name'] }
-		],
-		order: [
-			['observedOn', 'DESC'],
-			['id', 'DESC']
-		],
-		limit: MY_SIGHTINGS_LIMIT,
-		subQuery: false
-	})) as LoadedSighting[];
-	return rows.map((s) => ({
-		id: s.id,
-		storeName: s.store.name,
-		regionName: s.region.name,
-		price: { amountMinor: Number(s.amountMinor), currency: s.currency },
-		observedOn: s.observedOn,
-		seenCount: s.seenCount,
-		state: s.state,
-		rejectReason: s.rejectReason
-	}));
-}
-
-function escapeLike(text: string): string {
-	return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
-}
-
-/** Pending sightings, oldest report first, optionally of one region and matching part words. */
-export async function listPending(
-	query: PendingSightingsQuery,
-	perPage = SIGHTINGS_PER_PAGE
-): Promise<Paged<PendingSighting> & { regions: { code: string; name: string }[] }> {
-	const regions = await Region.findAll({
-		order: [['name', 'ASC']],
-		attributes: ['id', 'code', 'name']
-	});
-	const conditions: WhereOptions[] = [{ state: 'pending' }];
-	if (query.region) {
-		const region = regions.find((r) => r.code === query.region);
-		// An unknown region matches nothing rather than everything.
-		conditions.push({ regionId: region ? region.id : 0 });
-	}
-	for (const word of query.q.split(/\s+/).filter(Boolean).slice(0, 8)) {
-		const pattern = `%${escapeLike(word)}%`;
-		conditions.push({
-			[Op.or]: [
-				{ '$part.brand$': { [Op.like]: pattern } },
-				{ '$part.model$': { [Op.like]: pattern } }
-			]
-		});
-	}
-	const where = { [Op.and]: conditions };
-	const include = [
-		{ model: Part, as: 'part', attributes: ['slug', 'brand', 'model'] },
-		{ model: Store, as: 'store', attributes: ['name'] },
-		{ model: Region, as: 'region', attributes: ['code', 'name'] },
-		{ model: User, as: 'submittedBy', attributes: ['name', 'email'] }
-	];
-	const total = await PriceSighting.count({
-		where,
-		include: [{ model: Part, as: 'part', attributes: [] }]
-	});
-	const window = audit.pageWindow(total, query.page, perPage);
-	const rows = (await PriceSighting.findAll({
-		where,
-		include,
-		order: [
-			['createdAt', 'ASC'],
-			['id', 'ASC']
-		],
-		limit: perPage,
-		offset: window.offset,
-		subQuery: false
-	})) as (LoadedSighting & { part: Part; submittedBy: User | null })[];
-	return {
-		items: rows.map((s) => ({
-			id: s.id,
-			part: { slug: s.part.slug, name: `${s.part.brand} ${s.part.model}` },
-			storeName: s.store.name,
-			region: { code: s.region.code, name: s.region.name },
-			price: { amountMinor: Number(s.amountMinor), currency: s.currency },
-			observedOn: s.observedOn,
-			url: s.url,
-			seenCount: s.seenCount,
-			submittedBy: s.submittedBy ? { name: s.submittedBy.name, email: s.submittedBy.email } : null,
-			createdAt: s.createdAt.toISOString()
-		})),
-		total,
-		page: window.page,
-		perPage,
-		pageCount: window.pageCount,
-		regions: regions.map((r) => ({ code: r.code, name: r.name }))
-	};
 }
 
 /**

@@ -1,13 +1,9 @@
 /**
- * Regions as editors keep them: currency, tax display mode, category factors, and tax
- * rates with the date each takes effect (VAT rates move; docs/sources.md note 9).
- *
- * Where the rate lives: region_tax_rates holds the dated history; the rate in force on a
- * day is the row with the latest effective_from on or before it. regions.tax_rate_bp
- * stays as a cache of the rate in force today, rewritten in the same transaction as every
- * change to the history and by syncCurrentTaxRates() (for rates dated in the future once
- * their day comes), so code that only needs today's rate can keep reading the column.
- * Days are UTC calendar days.
+ * Regions as editors keep them, changing: settings (name, currency, tax display mode,
+ * category factors) and the dated tax-rate history, every change audited in its transaction.
+ * regions.tax_rate_bp caches the rate in force today (see region-reads.ts); it is rewritten
+ * in the same transaction as every change to the history, and by syncCurrentTaxRates() for
+ * rates dated in the future once their day comes. Days are UTC calendar days.
  *
  * A region with no dated rows yet has only its column rate. Before its first dated rate
  * is recorded, that rate is written into the history from the day the region was set up,
@@ -16,147 +12,12 @@
 import { Op } from 'sequelize';
 import type { Transaction } from 'sequelize';
 import { minorUnitDigits } from '$lib/domain/money';
-import { PART_CATEGORIES, type PartCategory, type TaxMode } from '$lib/domain/types';
 import { fieldIssues } from '$lib/schemas/issues';
 import { regionSettingsInput, taxRateInput } from '$lib/schemas/regions';
-import { Region, RegionTaxRate, User, sequelize } from '$lib/server/db';
+import { Region, RegionTaxRate, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Issues, Outcome } from './outcome';
-
-export interface TaxRateEntry {
-	id: number;
-	rateBp: number;
-	/** 'YYYY-MM-DD' */
-	effectiveFrom: string;
-	note: string | null;
-	recordedBy: string | null;
-	/** Whether this is the rate in force today. */
-	current: boolean;
-	/** Whether it starts after today. */
-	upcoming: boolean;
-}
-
-export interface RegionSummary {
-	code: string;
-	name: string;
-	currency: string;
-	taxMode: TaxMode;
-	/** The rate in force today, from the history (or the column when there is none). */
-	taxRateBp: number;
-	/** When that rate took effect; null when the region has no dated history. */
-	taxRateSince: string | null;
-	/** The next dated change, if one is recorded. */
-	nextTaxRate: { rateBp: number; effectiveFrom: string } | null;
-	/** One factor per category in basis points (10000 = ×1.00); missing ones read as 10000. */
-	categoryFactorsBp: Record<PartCategory, number>;
-}
-
-export interface RegionDetail extends RegionSummary {
-	taxRates: TaxRateEntry[];
-}
-
-/** Today's UTC calendar day, 'YYYY-MM-DD'. */
-export function utcDay(now = new Date()): string {
-	return now.toISOString().slice(0, 10);
-}
-
-function fullFactors(
-	factors: Partial<Record<PartCategory, number>> | null | undefined
-): Record<PartCategory, number> {
-	return Object.fromEntries(PART_CATEGORIES.map((c) => [c, factors?.[c] ?? 10_000])) as Record<
-		PartCategory,
-		number
-	>;
-}
-
-/** The history of one region, oldest first. */
-async function history(regionId: number, transaction?: Transaction) {
-	return RegionTaxRate.findAll({
-		where: { regionId },
-		include: [{ model: User, as: 'createdBy', attributes: ['name', 'email'] }],
-		order: [['effectiveFrom', 'ASC']],
-		transaction
-	});
-}
-
-/** The row in force on `day` from an oldest-first history, or undefined before the first. */
-function inForce<T extends { effectiveFrom: string }>(rows: T[], day: string): T | undefined {
-	let found: T | undefined;
-	for (const row of rows) if (row.effectiveFrom <= day) found = row;
-	return found;
-}
-
-function summarise(region: Region, rows: RegionTaxRate[], today: string): RegionSummary {
-	const current = inForce(rows, today);
-	const next = rows.find((r) => r.effectiveFrom > today);
-	return {
-		code: region.code,
-		name: region.name,
-		currency: region.currency,
-		taxMode: region.taxMode,
-		taxRateBp: current ? current.rateBp : rows.length ? 0 : region.taxRateBp,
-		taxRateSince: current?.effectiveFrom ?? null,
-		nextTaxRate: next ? { rateBp: next.rateBp, effectiveFrom: next.effectiveFrom } : null,
-		categoryFactorsBp: fullFactors(region.categoryFactorsBp)
-	};
-}
-
-/** Every region with its rate in force today, by name. */
-export async function listRegions(now = new Date()): Promise<RegionSummary[]> {
-	const regions = await Region.findAll({ order: [['name', 'ASC']] });
-	const rates = await RegionTaxRate.findAll({ order: [['effectiveFrom', 'ASC']] });
-	const today = utcDay(now);
-	return regions.map((r) =>
-		summarise(
-			r,
-			rates.filter((t) => t.regionId === r.id),
-			today
-		)
-	);
-}
-
-/** One region with its full rate history, or null. */
-export async function getRegion(code: string, now = new Date()): Promise<RegionDetail | null> {
-	const region = await Region.findOne({ where: { code } });
-	if (!region) return null;
-	const rows = await history(region.id);
-	const today = utcDay(now);
-	const current = inForce(rows, today);
-	return {
-		...summarise(region, rows, today),
-		taxRates: rows
-			.map((r) => {
-				const by = (r as RegionTaxRate & { createdBy?: User | null }).createdBy;
-				return {
-					id: r.id,
-					rateBp: r.rateBp,
-					effectiveFrom: r.effectiveFrom,
-					note: r.note,
-					recordedBy: by ? by.name?.trim() || by.email : null,
-					current: r === current,
-					upcoming: r.effectiveFrom > today
-				};
-			})
-			.reverse()
-	};
-}
-
-/**
- * The rate of region `code` in force on `day` ('YYYY-MM-DD'): from the dated history, or
- * the region's column rate when it has no history. Null for an unknown region, or a day
- * before the first dated rate.
- */
-export async function taxRateOn(code: string, day: string): Promise<number | null> {
-	const region = await Region.findOne({ where: { code }, attributes: ['id', 'taxRateBp'] });
-	if (!region) return null;
-	const row = await RegionTaxRate.findOne({
-		where: { regionId: region.id, effectiveFrom: { [Op.lte]: day } },
-		order: [['effectiveFrom', 'DESC']]
-	});
-	if (row) return row.rateBp;
-	const any = await RegionTaxRate.count({ where: { regionId: region.id } });
-	return any === 0 ? region.taxRateBp : null;
-}
+import { fullFactors, inForce, utcDay } from './region-reads';
 
 function knownCurrency(code: string): boolean {
 	try {
@@ -396,29 +257,4 @@ export async function syncCurrentTaxRates(now = new Date()): Promise<string[]> {
 		}
 		return changed;
 	});
-}
-
-/** The public shape of GET /api/v1/regions. */
-export interface PublicRegion {
-	code: string;
-	name: string;
-	currency: string;
-	taxMode: TaxMode;
-	taxRateBp: number;
-	taxRateSince: string | null;
-	nextTaxRate: { rateBp: number; effectiveFrom: string } | null;
-	categoryFactorsBp: Record<PartCategory, number>;
-}
-
-export async function publicRegions(now = new Date()): Promise<PublicRegion[]> {
-	return (await listRegions(now)).map((r) => ({
-		code: r.code,
-		name: r.name,
-		currency: r.currency,
-		taxMode: r.taxMode,
-		taxRateBp: r.taxRateBp,
-		taxRateSince: r.taxRateSince,
-		nextTaxRate: r.nextTaxRate,
-		categoryFactorsBp: r.categoryFactorsBp
-	}));
 }

@@ -1,8 +1,8 @@
 import { requireRole } from '$lib/server/auth/guards';
-import * as regions from '$lib/server/services/regions';
+import * as regionReads from '$lib/server/services/region-reads';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	requireRole('editor');
-	return { regions: await regions.listRegions() };
+	return { regions: await regionReads.listRegions() };
 };

@@ -7,6 +7,7 @@ import {
 	verifySightingInput
 } from '$lib/schemas/price-sightings';
 import { requireRole } from '$lib/server/auth/guards';
+import * as sightingReads from '$lib/server/services/price-sighting-reads';
 import * as priceSightings from '$lib/server/services/price-sightings';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -21,7 +22,7 @@ export const load: PageServerLoad = async ({ url }) => {
 	// A bad filter shows the unfiltered first page with a note rather than an error page.
 	const queryIssues = query.success ? {} : fieldIssues(query.error);
 	const filters = query.success ? query.data : { page: 1, q: '', region: undefined };
-	const pending = await priceSightings.listPending(filters);
+	const pending = await sightingReads.listPending(filters);
 	return { pending, filters: { q: filters.q, region: filters.region ?? '' }, queryIssues };
 };
 

@@ -5,6 +5,7 @@ import { consumeAll } from '$lib/server/rate-limit';
 import { priceSightingChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
 import * as parts from '$lib/server/services/parts';
+import * as sightingReads from '$lib/server/services/price-sighting-reads';
 import * as priceSightings from '$lib/server/services/price-sightings';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -16,8 +17,8 @@ export const load: PageServerLoad = async ({ params }) => {
 	const sightings = user
 		? {
 				signedIn: true as const,
-				regions: await priceSightings.formOptions(),
-				mine: await priceSightings.listMine(user.id, params.slug)
+				regions: await sightingReads.formOptions(),
+				mine: await sightingReads.listMine(user.id, params.slug)
 			}
 		: { signedIn: false as const };
 	return { part, sightings };

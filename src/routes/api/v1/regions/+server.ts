@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
-import * as regions from '$lib/server/services/regions';
+import * as regionReads from '$lib/server/services/region-reads';
+import type { PublicRegion } from '$lib/views';
 import type { RequestHandler } from './$types';
 
 /**
@@ -8,6 +9,6 @@ import type { RequestHandler } from './$types';
  * next recorded change) and the market factor of each part category (basis points).
  */
 export const GET: RequestHandler = async () => {
-	const list: regions.PublicRegion[] = await regions.publicRegions();
+	const list: PublicRegion[] = await regionReads.publicRegions();
 	return json({ regions: list }, { headers: { 'cache-control': 'public, max-age=300' } });
 };

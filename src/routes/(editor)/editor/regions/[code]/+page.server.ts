@@ -4,6 +4,7 @@ import { formFields } from '$lib/schemas/account';
 import { fieldIssues } from '$lib/schemas/issues';
 import { bpToPercent, regionCodeParam, removeTaxRateInput } from '$lib/schemas/regions';
 import { requireRole } from '$lib/server/auth/guards';
+import * as regionReads from '$lib/server/services/region-reads';
 import * as regions from '$lib/server/services/regions';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -12,7 +13,7 @@ type Issues = Record<string, string[]>;
 export const load: PageServerLoad = async ({ params }) => {
 	requireRole('editor');
 	const code = regionCodeParam.safeParse(params.code);
-	const region = code.success ? await regions.getRegion(code.data) : null;
+	const region = code.success ? await regionReads.getRegion(code.data) : null;
 	if (!region) error(404, 'No region has this code.');
 	// The form shows factors as percentages; the column holds basis points.
 	const settings: Record<string, string> = {
