@@ -10,7 +10,8 @@ import {
 	sequelize
 } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
-import { applySync, syncPlan, undoLastSync } from '../../src/lib/server/services/build-sync';
+import { applySync, undoLastSync } from '../../src/lib/server/services/build-sync';
+import { syncPlan } from '../../src/lib/server/services/build-sync-plan';
 import { countRows, resetDatabase } from '../support/db';
 import {
 	demoGuide,

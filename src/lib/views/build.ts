@@ -5,6 +5,7 @@
 import type { Finding, FindingCounts } from '$lib/domain/fit';
 import type { PowerBudget } from '$lib/domain/power';
 import type { ValueSummary } from '$lib/domain/value';
+import type { ConflictKind, SyncChoice, SyncStatus } from '$lib/domain/sync';
 import type { Money, PartCategory } from '$lib/domain/types';
 import type { PartRef, PriceLine, RegionSummary } from './guide';
 
@@ -143,4 +144,83 @@ export interface LineageView {
 	forkCount: number;
 	/** Public forks only, most recently changed first. */
 	publicBuilds: { id: number; title: string; ownerName: string; updatedAt: string }[];
+}
+
+/** One side of a sync row: the part, how many, and the slot's label on that side. */
+export interface SyncSideView {
+	part: PartRef;
+	quantity: number;
+	label: string;
+}
+
+export interface SyncRowView {
+	/** Row id for choices (`source:<key>` or `local:<build slot id>`). */
+	id: string;
+	status: SyncStatus;
+	conflict: ConflictKind | null;
+	/** The label to show: the build's, else upstream's, else the base's. */
+	label: string;
+	category: PartCategory;
+	/** The build slot this row is about, if the build has one. */
+	slotId: number | null;
+	base: SyncSideView | null;
+	upstream: SyncSideView | null;
+	local: SyncSideView | null;
+	options: SyncChoice[];
+	defaultTakeAll: SyncChoice | null;
+	defaultKeep: SyncChoice | null;
+}
+
+export interface LastSyncView {
+	id: number;
+	fromRevisionNumber: number | null;
+	toRevisionNumber: number | null;
+	createdAt: string;
+}
+
+export interface SyncPlanView {
+	buildId: number;
+	version: number;
+	guide: { slug: string; title: string };
+	base: { revisionId: number; number: number };
+	upstream: { revisionId: number; number: number; publishedAt: string | null };
+	rows: SyncRowView[];
+	/** Row ids that need a choice. */
+	conflicts: string[];
+	/** Rows where taking upstream would change the build. */
+	offered: number;
+	/** The sync that undo would revert, if any. */
+	lastSync: LastSyncView | null;
+}
+
+export interface BudgetSwapView {
+	slotId: number;
+	label: string;
+	from: { part: PartRef; price: Money };
+	to: { part: PartRef; price: Money };
+	/** to − from, line prices (negative saves money). */
+	delta: Money;
+}
+
+export interface BudgetProposal {
+	kind: 'proposal';
+	budget: Money;
+	/** The build's total now, with the same prices. */
+	currentTotal: Money;
+	/** The total after the swaps (at most the budget). */
+	total: Money;
+	changes: number;
+	swaps: BudgetSwapView[];
+}
+
+export type NoFitCode = 'over_budget' | 'no_conflict_free_combination' | 'unpriced';
+
+export interface BudgetNoFit {
+	kind: 'no_fit';
+	code: NoFitCode;
+	/** A sentence for the reader. */
+	reason: string;
+	budget: Money;
+	/** Cheapest total without a conflict, when there is one. */
+	cheapestTotal?: Money;
 }

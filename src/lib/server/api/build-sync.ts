@@ -19,8 +19,9 @@ import {
 } from '$lib/schemas/build-sync';
 import { requireUser } from '$lib/server/auth/guards';
 import * as budget from '$lib/server/services/build-budget';
-import type { BudgetNoFit } from '$lib/server/services/build-budget';
+import type { BudgetNoFit } from '$lib/views';
 import * as sync from '$lib/server/services/build-sync';
+import * as syncPlan from '$lib/server/services/build-sync-plan';
 import { CHANGED_ELSEWHERE } from './builds';
 import { invalid, notFound as notFoundAnswer, readJson, stale as staleAnswer } from './json';
 
@@ -44,7 +45,7 @@ function buildId(event: RequestEvent): number {
 /** GET …/sync: the three-way table, or up to date. */
 export async function getSyncPlan(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
-	const outcome = await sync.syncPlan(user.id, buildId(event));
+	const outcome = await syncPlan.syncPlan(user.id, buildId(event));
 	switch (outcome.kind) {
 		case 'not_found':
 			return notFound();

@@ -35,42 +35,10 @@ import type { Money, PartCategory } from '$lib/domain/types';
 import { withinBudget } from '$lib/domain/within-budget';
 import type { BudgetSlot, OptionRef, WithinBudgetResult } from '$lib/domain/within-budget';
 import { Build, BuildSlot, Region, sequelize } from '$lib/server/db';
-import type { BuildView, PartRef } from '$lib/views';
+import type { BudgetNoFit, BudgetProposal, BudgetSwapView, BuildView } from '$lib/views';
 import { pricedOptions } from './build-pricing';
 import type { PricedOption } from './build-pricing';
 import { getBuild } from './build-view';
-
-export interface BudgetSwapView {
-	slotId: number;
-	label: string;
-	from: { part: PartRef; price: Money };
-	to: { part: PartRef; price: Money };
-	/** to − from, line prices (negative saves money). */
-	delta: Money;
-}
-
-export interface BudgetProposal {
-	kind: 'proposal';
-	budget: Money;
-	/** The build's total now, with the same prices. */
-	currentTotal: Money;
-	/** The total after the swaps (at most the budget). */
-	total: Money;
-	changes: number;
-	swaps: BudgetSwapView[];
-}
-
-export type NoFitCode = 'over_budget' | 'no_conflict_free_combination' | 'unpriced';
-
-export interface BudgetNoFit {
-	kind: 'no_fit';
-	code: NoFitCode;
-	/** A sentence for the reader. */
-	reason: string;
-	budget: Money;
-	/** Cheapest total without a conflict, when there is one. */
-	cheapestTotal?: Money;
-}
 
 export type ProposeOutcome = BudgetProposal | BudgetNoFit | { kind: 'not_found' };
 

@@ -1,8 +1,7 @@
 /**
- * Sync of a build with its source guide (docs/architecture.md "Computations" §9): the per-slot
- * three-way table between the build's base revision, the guide's current published
- * revision and the build's slots (domain/sync.ts planSync), applying the reader's choices
- * as one transaction, and undoing the last sync.
+ * Sync of a build with its source guide, changing (docs/architecture.md "Computations" §9):
+ * applying the reader's choices from the three-way table (build-sync-plan.ts) as one
+ * transaction, and undoing the last sync.
  *
  * Owner only: another person's build is `not_found` (the route answers 404, no data).
  * Optimistic locking: the caller sends the build version it saw; the build row is locked
@@ -17,76 +16,13 @@
  * says so before the reader confirms).
  */
 import type { InferCreationAttributes, Transaction } from 'sequelize';
-import { SyncInputError, applySync as applyDomainSync, planSync } from '$lib/domain/sync';
-import type {
-	BuildSlot as SyncBuildSlot,
-	ConflictKind,
-	SourceSlot,
-	SyncChoice,
-	SyncPlan,
-	SyncStatus
-} from '$lib/domain/sync';
+import { applySync as applyDomainSync } from '$lib/domain/sync';
+import type { SyncChoice } from '$lib/domain/sync';
 import type { PartCategory } from '$lib/domain/types';
-import { Build, BuildSlot, BuildSync, Guide, GuideRevision, Part, sequelize } from '$lib/server/db';
+import { Build, BuildSlot, BuildSync, sequelize } from '$lib/server/db';
 import type { SlotRowSnapshot } from '$lib/server/db/models/BuildSync';
-import type { PartRef } from '$lib/views';
-import { keyedRevisionSlots, sourceSlotsOf } from './build-source';
-import { partRef } from './mappers';
-import { loadRevisionSlots } from './revision-snapshots';
-
-/** One side of a sync row: the part, how many, and the slot's label on that side. */
-export interface SyncSideView {
-	part: PartRef;
-	quantity: number;
-	label: string;
-}
-
-export interface SyncRowView {
-	/** Row id for choices (`source:<key>` or `local:<build slot id>`). */
-	id: string;
-	status: SyncStatus;
-	conflict: ConflictKind | null;
-	/** The label to show: the build's, else upstream's, else the base's. */
-	label: string;
-	category: PartCategory;
-	/** The build slot this row is about, if the build has one. */
-	slotId: number | null;
-	base: SyncSideView | null;
-	upstream: SyncSideView | null;
-	local: SyncSideView | null;
-	options: SyncChoice[];
-	defaultTakeAll: SyncChoice | null;
-	defaultKeep: SyncChoice | null;
-}
-
-export interface LastSyncView {
-	id: number;
-	fromRevisionNumber: number | null;
-	toRevisionNumber: number | null;
-	createdAt: string;
-}
-
-export interface SyncPlanView {
-	buildId: number;
-	version: number;
-	guide: { slug: string; title: string };
-	base: { revisionId: number; number: number };
-	upstream: { revisionId: number; number: number; publishedAt: string | null };
-	rows: SyncRowView[];
-	/** Row ids that need a choice. */
-	conflicts: string[];
-	/** Rows where taking upstream would change the build. */
-	offered: number;
-	/** The sync that undo would revert, if any. */
-	lastSync: LastSyncView | null;
-}
-
-export type SyncPlanOutcome =
-	| { kind: 'plan'; plan: SyncPlanView }
-	/** No newer published revision (or no source left to sync with). */
-	| { kind: 'up_to_date'; version: number; lastSync: LastSyncView | null }
-	| { kind: 'invalid'; issues: Record<string, string[]> }
-	| { kind: 'not_found' };
+import { inputError, loadState, ownBuild, stateOf } from './build-sync-plan';
+import type { SyncState } from './build-sync-plan';
 
 export interface ApplySyncInput {
 	/** Row id → choice; conflicts need one. */
@@ -96,9 +32,6 @@ export interface ApplySyncInput {
 	/** The upstream revision the reader's table showed; a different one now means the table is stale. */
 	upstreamRevisionId?: number;
 }
-
-/** The current state of the sync, sent back with a stale-version answer. */
-export type SyncState = Exclude<SyncPlanOutcome, { kind: 'not_found' } | { kind: 'invalid' }>;
 
 export type ApplySyncOutcome =
 	| {
@@ -123,207 +56,6 @@ export type UndoSyncOutcome =
 const NOTHING_TO_UNDO = 'There is no sync to undo on this build.';
 const STALE_TABLE =
 	'A newer revision of the guide was published since this table was made. Review the new table and choose again.';
-
-interface SyncState0 {
-	build: Build;
-	guide: Guide;
-	baseRevision: GuideRevision;
-	upstreamRevision: GuideRevision;
-	baseSlots: SourceSlot[];
-	upstreamSlots: SourceSlot[];
-	localSlots: BuildSlot[];
-	plan: SyncPlan;
-}
-
-/** The build when it is the owner's, else null (locked when a transaction is given). */
-async function ownBuild(
-	ownerId: string,
-	buildId: number,
-	transaction?: Transaction
-): Promise<Build | null> {
-	return Build.findOne({
-		where: { id: buildId, ownerId },
-		...(transaction ? { transaction, lock: transaction.LOCK.UPDATE } : {})
-	});
-}
-
-function localOf(slots: BuildSlot[]): SyncBuildSlot[] {
-	return slots.map((s) => ({
-		id: s.id,
-		sourceKey: s.sourceSlotKey,
-		label: s.label,
-		category: s.category,
-		partId: s.partId,
-		quantity: s.quantity
-	}));
-}
-
-/**
- * Loads what a plan needs. Returns 'up_to_date' when the guide has no public revision other
- * than the build's base (or the build lost its source or base revision).
- */
-async function loadState(
-	build: Build,
-	transaction?: Transaction
-): Promise<SyncState0 | 'up_to_date'> {
-	if (!build.sourceGuideId || !build.baseRevisionId) return 'up_to_date';
-	const guide = await Guide.findByPk(build.sourceGuideId, { transaction });
-	if (!guide || guide.state !== 'published' || !guide.publishedRevisionId || guide.hiddenAt)
-		return 'up_to_date';
-	if (guide.publishedRevisionId === build.baseRevisionId) return 'up_to_date';
-	const revisions = await GuideRevision.findAll({
-		where: { id: [build.baseRevisionId, guide.publishedRevisionId] },
-		transaction
-	});
-	const baseRevision = revisions.find((r) => r.id === build.baseRevisionId);
-	const upstreamRevision = revisions.find((r) => r.id === guide.publishedRevisionId);
-	if (!baseRevision || !upstreamRevision) return 'up_to_date';
-	// Published revisions never change, so reading them outside the transaction is safe.
-	const slots = await loadRevisionSlots([baseRevision.id, upstreamRevision.id]);
-	const localSlots = await BuildSlot.findAll({
-		where: { buildId: build.id },
-		order: [
-			['position', 'ASC'],
-			['id', 'ASC']
-		],
-		transaction
-	});
-	// Keys as fork gives them (build-source.ts keyedRevisionSlots: the label, " (2)" for a repeat).
-	const baseSlots = sourceSlotsOf(
-		keyedRevisionSlots(slots.filter((s) => s.revisionId === baseRevision.id))
-	);
-	const upstreamSlots = sourceSlotsOf(
-		keyedRevisionSlots(slots.filter((s) => s.revisionId === upstreamRevision.id))
-	);
-	const plan = planSync(baseSlots, upstreamSlots, localOf(localSlots));
-	return {
-		build,
-		guide,
-		baseRevision,
-		upstreamRevision,
-		baseSlots,
-		upstreamSlots,
-		localSlots,
-		plan
-	};
-}
-
-async function lastSyncOf(buildId: number, transaction?: Transaction): Promise<BuildSync | null> {
-	return BuildSync.findOne({
-		where: { buildId, undoneAt: null },
-		order: [['id', 'DESC']],
-		transaction
-	});
-}
-
-async function lastSyncView(
-	buildId: number,
-	transaction?: Transaction
-): Promise<LastSyncView | null> {
-	const last = await lastSyncOf(buildId, transaction);
-	if (!last) return null;
-	const ids = [last.fromRevisionId, last.toRevisionId].filter((id): id is number => id !== null);
-	const revisions = await GuideRevision.findAll({
-		where: { id: ids },
-		attributes: ['id', 'number'],
-		transaction
-	});
-	const numberOf = (id: number | null) => revisions.find((r) => r.id === id)?.number ?? null;
-	return {
-		id: last.id,
-		fromRevisionNumber: numberOf(last.fromRevisionId),
-		toRevisionNumber: numberOf(last.toRevisionId),
-		createdAt: last.createdAt.toISOString()
-	};
-}
-
-async function planView(state: SyncState0, transaction?: Transaction): Promise<SyncPlanView> {
-	const { build, guide, plan } = state;
-	const partIds = new Set<number>();
-	for (const r of plan.rows)
-		for (const side of [r.base, r.upstream, r.local]) if (side) partIds.add(side.partId);
-	const parts = new Map(
-		(await Part.findAll({ where: { id: [...partIds] }, transaction })).map((p) => [
-			p.id,
-			partRef(p)
-		])
-	);
-	const side = (
-		s: { partId: number; quantity: number; label: string } | null
-	): SyncSideView | null => {
-		if (!s) return null;
-		const part = parts.get(s.partId) ?? {
-			id: s.partId,
-			slug: '',
-			brand: 'Unknown part',
-			model: `#${s.partId}`,
-			category: 'fan' as PartCategory
-		};
-		return { part, quantity: s.quantity, label: s.label };
-	};
-	const rows: SyncRowView[] = plan.rows.map((r) => {
-		const shown = r.local ?? r.upstream ?? r.base;
-		return {
-			id: r.id,
-			status: r.status,
-			conflict: r.conflict,
-			label: shown?.label ?? '',
-			category: (shown?.category ?? 'fan') as PartCategory,
-			slotId: r.local ? Number(r.local.id) : null,
-			base: side(r.base),
-			upstream: side(r.upstream),
-			local: side(r.local),
-			options: r.options,
-			defaultTakeAll: r.defaultTakeAll,
-			defaultKeep: r.defaultKeep
-		};
-	});
-	return {
-		buildId: build.id,
-		version: build.version,
-		guide: { slug: guide.slug, title: guide.title },
-		base: { revisionId: state.baseRevision.id, number: state.baseRevision.number },
-		upstream: {
-			revisionId: state.upstreamRevision.id,
-			number: state.upstreamRevision.number,
-			publishedAt: state.upstreamRevision.publishedAt?.toISOString() ?? null
-		},
-		rows,
-		conflicts: plan.conflicts,
-		offered: plan.offered,
-		lastSync: await lastSyncView(build.id, transaction)
-	};
-}
-
-function inputError(e: unknown): Record<string, string[]> | null {
-	if (e instanceof SyncInputError)
-		return { _form: [`This build cannot be synced automatically: ${e.message}.`] };
-	return null;
-}
-
-async function stateOf(build: Build, transaction?: Transaction): Promise<SyncState> {
-	const state = await loadState(build, transaction);
-	if (state === 'up_to_date')
-		return {
-			kind: 'up_to_date',
-			version: build.version,
-			lastSync: await lastSyncView(build.id, transaction)
-		};
-	return { kind: 'plan', plan: await planView(state, transaction) };
-}
-
-/** The three-way table for the owner's build, or `up_to_date` when there is nothing newer. */
-export async function syncPlan(ownerId: string, buildId: number): Promise<SyncPlanOutcome> {
-	const build = await ownBuild(ownerId, buildId);
-	if (!build) return { kind: 'not_found' };
-	try {
-		return await stateOf(build);
-	} catch (e) {
-		const issues = inputError(e);
-		if (issues) return { kind: 'invalid', issues };
-		throw e;
-	}
-}
 
 /** A build slot as stored, for BuildSync.slotsBefore (dates as ISO strings). */
 function snapshotOf(slot: BuildSlot): SlotRowSnapshot {

@@ -21,6 +21,7 @@ import * as buildEdits from '$lib/server/services/build-edits';
 import * as buildView from '$lib/server/services/build-view';
 import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
+import * as buildSyncPlan from '$lib/server/services/build-sync-plan';
 import * as contentReports from '$lib/server/services/content-reports';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
@@ -39,7 +40,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		{ shareToken: shareKey }
 	);
 	if (!build) error(404, 'Build not found');
-	const sync = build.isOwner ? await buildSync.syncPlan(viewer?.id ?? '', build.id) : null;
+	const sync = build.isOwner ? await buildSyncPlan.syncPlan(viewer?.id ?? '', build.id) : null;
 	// The owner's choices for adding or swapping to any catalog part, and for the region select.
 	return {
 		build,
