@@ -1,6 +1,8 @@
 /*
  * The guide editor's working copy and choices, as the authoring services return them. Types only.
  */
+import type { Finding, FindingCounts } from '$lib/domain/fit';
+import type { PowerBudget } from '$lib/domain/power';
 import type { AlternateReason, PartCategory } from '$lib/domain/types';
 import type { BuildNotesInput, GuideDisclosure, GuideTag } from '$lib/schemas/guide-editor';
 import type { PartRef } from './guide';
@@ -68,4 +70,11 @@ export interface EditorCatalog {
 	stores: { id: number; name: string; regionCode: string }[];
 	/** Every catalog part by category: the no-JS pick list and the live search's id lookup. */
 	parts: DraftPartRef[];
+}
+
+/** The live fit report and power budget while editing (POST /api/v1/fit). */
+export interface FitResult {
+	findings: Finding[];
+	summary: FindingCounts;
+	power: PowerBudget;
 }

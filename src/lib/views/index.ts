@@ -11,3 +11,5 @@ export type * from './guide-editor';
 export type * from './catalog';
 export type * from './sightings';
 export type * from './regions';
+export type * from './parts';
+export type * from './admin';

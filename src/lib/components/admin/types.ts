@@ -1,18 +1,6 @@
 /*
- * Shapes the admin components receive. Declared here rather than imported from
- * $lib/server so client code never depends on a server module, even for types.
+ * Helpers of the admin components. The shapes they show are in $lib/views.
  */
-import type { Role } from '$lib/domain/types';
-
-export interface AdminUserRow {
-	id: string;
-	email: string;
-	name: string | null;
-	role: Role;
-	state: 'active' | 'disabled';
-	disabledAt: string | null;
-	createdAt: string;
-}
 
 /** What the last action said about one row: its field messages, or nothing. */
 export interface RowFeedback {

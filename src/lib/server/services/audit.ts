@@ -7,6 +7,8 @@ import { Op, QueryTypes } from 'sequelize';
 import type { Transaction, WhereOptions } from 'sequelize';
 import { AuditEvent, User, sequelize } from '$lib/server/db';
 import type { AuditSnapshot } from '$lib/server/db/models/AuditEvent';
+import type { AuditEntry } from '$lib/views';
+import { escapeLike, pageWindow } from './list-query';
 
 export type { AuditSnapshot } from '$lib/server/db/models/AuditEvent';
 
@@ -49,18 +51,6 @@ export interface AuditEventInput {
 	after?: AuditSnapshot | null;
 }
 
-export interface AuditEntry {
-	id: number;
-	actor: { id: string; name: string | null; email: string } | null;
-	action: string;
-	subjectType: string;
-	subjectId: string;
-	before: AuditSnapshot | null;
-	after: AuditSnapshot | null;
-	/** ISO 8601, UTC. */
-	createdAt: string;
-}
-
 /** One page of a list plus what pagination links need. */
 export interface Paged<T> {
 	items: T[];
@@ -73,13 +63,6 @@ export interface Paged<T> {
 }
 
 const ACTION_PATTERN = /^[a-z][a-z_]*\.[a-z][a-z_]*$/;
-
-/** Page arithmetic shared by the account services: clamps `page` into 1..pageCount. */
-export function pageWindow(total: number, page: number, perPage: number) {
-	const pageCount = Math.max(1, Math.ceil(total / perPage));
-	const current = Math.min(Math.max(1, Math.trunc(page)), pageCount);
-	return { page: current, pageCount, offset: (current - 1) * perPage };
-}
 
 /**
  * Appends one event inside `transaction` (required: an audit row written outside the
@@ -179,11 +162,6 @@ function toEntry(row: AuditEvent, actor: User | null): AuditEntry {
 		after: row.after ?? null,
 		createdAt: row.createdAt.toISOString()
 	};
-}
-
-/** `%`, `_` and the escape character match literally in LIKE (MariaDB's default escape is `\`). */
-function escapeLike(text: string): string {
-	return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
 }
 
 /** The actions and subject types that occur in the trail (plus the known actions), for filter lists. */

@@ -11,41 +11,19 @@
  */
 import type { Role } from '$lib/domain/types';
 import { AuthorRequest, User, sequelize } from '$lib/server/db';
-import type { AuthorRequestState } from '$lib/server/db/models/AuthorRequest';
+import type { MyAuthorRequest, PendingAuthorRequest } from '$lib/views';
 import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import * as audit from './audit';
 import type { Paged } from './audit';
 import { wholeSecondNow } from './users';
 import type { Outcome } from './users';
+import { pageWindow } from './list-query';
 
 export type { AuthorRequestState } from '$lib/server/db/models/AuthorRequest';
 
 /** Pending requests listed per page for editors. */
 export const PENDING_PER_PAGE = 25;
-
-/** A request as its author sees it on the account page. */
-export interface MyAuthorRequest {
-	id: number;
-	state: AuthorRequestState;
-	pitch: string;
-	/** The editor's note, sent with the decision; null while pending or when none was given. */
-	decisionNote: string | null;
-	/** ISO 8601, UTC. */
-	createdAt: string;
-	decidedAt: string | null;
-}
-
-/** A pending request as editors see it. */
-export interface PendingAuthorRequest {
-	id: number;
-	pitch: string;
-	requester: { id: string; name: string | null; email: string; role: Role };
-	/** ISO 8601, UTC. */
-	createdAt: string;
-	/** Whole days since the request was made (0 on the first day). */
-	waitingDays: number;
-}
 
 const DAY_MS = 24 * 60 * 60 * 1000;
 
@@ -109,7 +87,7 @@ export async function listPending(options: {
 	const now = options.now ?? new Date();
 	const where = { state: 'pending' as const };
 	const total = await AuthorRequest.count({ where });
-	const window = audit.pageWindow(total, options.page, perPage);
+	const window = pageWindow(total, options.page, perPage);
 	const rows = (await AuthorRequest.findAll({
 		where,
 		include: [{ model: User, as: 'user', attributes: ['id', 'name', 'email', 'role'] }],

@@ -16,9 +16,8 @@ import type {
 	EditorRegionOption,
 	EditorStoreRow
 } from '$lib/views';
-import * as audit from './audit';
 import type { Paged } from './audit';
-import { escapeLike } from './users';
+import { escapeLike, pageWindow } from './list-query';
 
 /** Parts whose brand, model or slug contains `q` (wildcards taken literally), optionally one category, A–Z. */
 export async function listParts(options: {
@@ -41,7 +40,7 @@ export async function listParts(options: {
 	if (options.category) conditions.push({ category: options.category });
 	const where: WhereOptions<Part> = conditions.length ? { [Op.and]: conditions } : {};
 	const total = await Part.count({ where });
-	const window = audit.pageWindow(total, options.page, EDITOR_PAGE_SIZE);
+	const window = pageWindow(total, options.page, EDITOR_PAGE_SIZE);
 	const parts = await Part.findAll({
 		where,
 		attributes: ['id', 'category', 'brand', 'model', 'slug', 'updatedAt'],

@@ -6,9 +6,9 @@ import { Op, QueryTypes } from 'sequelize';
 import type { ReportSubjectType } from '$lib/domain/content-reports';
 import { ContentReport, User, sequelize } from '$lib/server/db';
 import type { ReportGroup, SubjectSummary } from '$lib/views';
-import * as audit from './audit';
 import type { Paged } from './audit';
 import { SUBJECTS } from './content-report-subjects';
+import { pageWindow } from './list-query';
 
 /** Subject groups per page in the editors' queue. */
 export const GROUPS_PER_PAGE = 20;
@@ -31,7 +31,7 @@ export async function listQueue(options: {
 		{ type: QueryTypes.SELECT }
 	);
 	const total = Number(countRow?.n ?? 0);
-	const window = audit.pageWindow(total, options.page, perPage);
+	const window = pageWindow(total, options.page, perPage);
 	const groups = await sequelize.query<{
 		subjectType: ReportSubjectType;
 		subjectId: string;

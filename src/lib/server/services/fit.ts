@@ -4,20 +4,14 @@
  */
 import { fitReport, summarize } from '$lib/domain/fit';
 import { pairingCautions } from '$lib/domain/pairing-cautions';
-import type { BuildPart, Finding, FindingCounts } from '$lib/domain/fit';
+import type { BuildPart } from '$lib/domain/fit';
 import { powerBudget } from '$lib/domain/power';
-import type { PowerBudget } from '$lib/domain/power';
 import { CATEGORY_LABELS } from '$lib/domain/types';
 import { SPEC_SCHEMAS } from '$lib/schemas/part-specs';
 import type { FitInput } from '$lib/schemas/fit';
 import { Part } from '$lib/server/db';
+import type { FitResult } from '$lib/views';
 import { activeRules } from './caution-rules';
-
-export interface FitResult {
-	findings: Finding[];
-	summary: FindingCounts;
-	power: PowerBudget;
-}
 
 export type FitOutcome =
 	{ kind: 'ok'; result: FitResult } | { kind: 'invalid'; issues: Record<string, string[]> };

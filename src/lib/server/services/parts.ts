@@ -5,94 +5,21 @@
  */
 import { Op } from 'sequelize';
 import type { WhereOptions } from 'sequelize';
-import type { Money, PartCategory, QuoteStatus, TaxMode } from '$lib/domain/types';
+import type { PartCategory } from '$lib/domain/types';
 import { PARTS_PER_PAGE, SPEC_FILTERS, SPEC_FILTER_KEYS } from '$lib/schemas/parts';
 import type { SpecFilterDef, SpecFilters } from '$lib/schemas/parts';
 import { Guide, GuideSlot, Part, Quote, Region, SlotAlternate, Store } from '$lib/server/db';
-
-export interface PartSummary {
-	slug: string;
-	category: PartCategory;
-	brand: string;
-	model: string;
-	/** As stored: validated against the category's spec schema on every write. */
-	specs: Record<string, unknown>;
-}
-
-/** GET /api/v1/parts */
-export interface PartSearchResult {
-	items: PartSummary[];
-	total: number;
-	/** The page shown: a page past the end gives the last page. */
-	page: number;
-	pageCount: number;
-}
-
-export interface PartRegion {
-	code: string;
-	name: string;
-	currency: string;
-	taxMode: TaxMode;
-	taxRateBp: number;
-}
-
-export interface StoreQuote {
-	storeName: string;
-	storeUrl: string;
-	/** Shelf price as the store showed it, in the quote's currency. */
-	price: Money;
-	shipping: Money;
-	taxIncluded: boolean;
-	observedAt: string; // ISO 8601
-	/** The product page, when the quote recorded one. */
-	url: string | null;
-	status: QuoteStatus;
-}
-
-export interface RegionQuotes {
-	region: PartRegion;
-	/** The latest quote of each store in the region, cheapest first. */
-	quotes: StoreQuote[];
-}
-
-export interface PricePoint {
-	observedAt: string; // ISO 8601
-	amountMinor: number;
-}
-
-/** Every quote of one store in one region, oldest first: one line of the history chart. */
-export interface PriceSeries {
-	regionCode: string;
-	regionName: string;
-	storeName: string;
-	currency: string;
-	points: PricePoint[];
-}
-
-export interface GuideUse {
-	role: 'pick' | 'alternate';
-	slotLabel: string;
-	/** The alternate's rank in its slot (1 = first fallback); null for a pick. */
-	rank: number | null;
-}
-
-export interface GuideUsingPart {
-	slug: string;
-	title: string;
-	uses: GuideUse[];
-}
-
-/** GET /api/v1/parts/[slug] */
-export interface PartDetail extends PartSummary {
-	quotesByRegion: RegionQuotes[];
-	history: PriceSeries[];
-	guides: GuideUsingPart[];
-}
-
-/** `%`, `_` and the escape character itself match literally (MariaDB's default escape is `\`). */
-function escapeLike(text: string): string {
-	return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
-}
+import type {
+	GuideUse,
+	GuideUsingPart,
+	PartDetail,
+	PartSearchResult,
+	PartSummary,
+	PriceSeries,
+	RegionQuotes
+} from '$lib/views';
+import { regionSummary } from './mappers';
+import { escapeLike, pageWindow } from './list-query';
 
 /** Whether `specs` passes one filter; a missing or mistyped field never passes. */
 function passes(
@@ -126,12 +53,6 @@ function activeFilters(category: PartCategory | undefined, specFilters: SpecFilt
 		active.push({ def, value });
 	}
 	return active;
-}
-
-function pageWindow(total: number, page: number, perPage: number) {
-	const pageCount = Math.max(1, Math.ceil(total / perPage));
-	const current = Math.min(Math.max(1, Math.trunc(page)), pageCount);
-	return { page: current, pageCount, offset: (current - 1) * perPage };
 }
 
 const SUMMARY_ATTRIBUTES = ['id', 'slug', 'category', 'brand', 'model', 'specs'] as const;
@@ -238,16 +159,6 @@ export async function getBySlug(slug: string): Promise<PartDetail | null> {
 	};
 }
 
-function regionOf(r: Region): PartRegion {
-	return {
-		code: r.code,
-		name: r.name,
-		currency: r.currency,
-		taxMode: r.taxMode,
-		taxRateBp: r.taxRateBp
-	};
-}
-
 /** `quotes` must be oldest first, so the last one seen per store is its latest. */
 function latestByRegion(quotes: LoadedQuote[]): RegionQuotes[] {
 	const latest = new Map<string, LoadedQuote>();
@@ -257,7 +168,7 @@ function latestByRegion(quotes: LoadedQuote[]): RegionQuotes[] {
 	for (const q of latest.values()) {
 		let group = groups.get(q.regionId);
 		if (!group) {
-			group = { region: regionOf(q.region), quotes: [] };
+			group = { region: regionSummary(q.region), quotes: [] };
 			groups.set(q.regionId, group);
 		}
 		group.quotes.push({

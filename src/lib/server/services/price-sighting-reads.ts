@@ -10,10 +10,9 @@ import { SIGHTINGS_PER_PAGE } from '$lib/schemas/price-sightings';
 import type { PendingSightingsQuery } from '$lib/schemas/price-sightings';
 import { Part, PriceSighting, PriceSightingReport, Region, Store, User } from '$lib/server/db';
 import type { MySighting, PendingSighting, SightingRegionOption } from '$lib/views';
-import * as audit from './audit';
 import type { Paged } from './audit';
 import { partName } from './mappers';
-import { escapeLike } from './users';
+import { escapeLike, pageWindow } from './list-query';
 
 const MY_SIGHTINGS_LIMIT = 20;
 
@@ -103,7 +102,7 @@ export async function listPending(
 		where,
 		include: [{ model: Part, as: 'part', attributes: [] }]
 	});
-	const window = audit.pageWindow(total, query.page, perPage);
+	const window = pageWindow(total, query.page, perPage);
 	const rows = (await PriceSighting.findAll({
 		where,
 		include,

@@ -17,10 +17,9 @@ import type {
 	QueueItem,
 	ReviewLogEntry
 } from '$lib/views';
-import { pageWindow } from './audit';
 import type { Paged } from './audit';
 import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
-import { escapeLike } from './users';
+import { escapeLike, pageWindow } from './list-query';
 
 const PER_PAGE = 20;
 const DAY_MS = 86_400_000;

@@ -11,18 +11,8 @@ import { USERS_PER_PAGE } from '$lib/schemas/users';
 import { User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Paged } from './audit';
-
-export interface UserRow {
-	id: string;
-	email: string;
-	name: string | null;
-	role: Role;
-	state: 'active' | 'disabled';
-	/** ISO 8601, UTC; null while active. */
-	disabledAt: string | null;
-	/** When the account was created (ISO 8601, UTC). */
-	createdAt: string;
-}
+import { escapeLike, pageWindow } from './list-query';
+import type { AdminUserRow } from '$lib/views';
 
 /** What a change returns: routes map not_found to 404 and conflict to 409 with the message. */
 export type Outcome<T extends object = object> =
@@ -30,11 +20,6 @@ export type Outcome<T extends object = object> =
 
 // Listed explicitly so the password hash (and anything added to users later) never leaves.
 const ROW_ATTRIBUTES = ['id', 'email', 'name', 'role', 'disabledAt', 'createdAt'] as const;
-
-/** `%`, `_` and the escape character itself match literally (MariaDB's default escape is `\`). */
-export function escapeLike(text: string): string {
-	return text.replace(/[\\%_]/g, (ch) => `\\${ch}`);
-}
 
 /**
  * Accounts whose name or e-mail contains `q` (case-insensitive, wildcards taken literally),
@@ -46,7 +31,7 @@ export async function search(options: {
 	role?: Role;
 	page: number;
 	perPage?: number;
-}): Promise<Paged<UserRow>> {
+}): Promise<Paged<AdminUserRow>> {
 	const perPage = Math.min(Math.max(1, Math.trunc(options.perPage ?? USERS_PER_PAGE)), 100);
 	const q = options.q.trim();
 	const conditions: WhereOptions<User>[] = [];
@@ -60,7 +45,7 @@ export async function search(options: {
 	const where: WhereOptions<User> = conditions.length > 0 ? { [Op.and]: conditions } : {};
 
 	const total = await User.count({ where });
-	const window = audit.pageWindow(total, options.page, perPage);
+	const window = pageWindow(total, options.page, perPage);
 	const users = await User.findAll({
 		where,
 		attributes: [...ROW_ATTRIBUTES],
@@ -90,7 +75,7 @@ export async function changeRole(
 	actorId: string,
 	userId: string,
 	role: Role
-): Promise<Outcome<{ user: UserRow }>> {
+): Promise<Outcome<{ user: AdminUserRow }>> {
 	return sequelize.transaction(async (transaction) => {
 		const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
 		if (!user) return { kind: 'not_found' } as const;
@@ -135,7 +120,7 @@ export async function setDisabled(
 	actorId: string,
 	userId: string,
 	disabled: boolean
-): Promise<Outcome<{ user: UserRow }>> {
+): Promise<Outcome<{ user: AdminUserRow }>> {
 	if (actorId === userId && disabled) {
 		return { kind: 'conflict', message: 'You cannot disable your own account.' };
 	}
@@ -167,7 +152,7 @@ export async function setDisabled(
 	});
 }
 
-function toRow(user: User): UserRow {
+function toRow(user: User): AdminUserRow {
 	return {
 		id: user.id,
 		email: user.email,

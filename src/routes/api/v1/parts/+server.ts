@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { parsePartSearchStrict, PARTS_PER_PAGE } from '$lib/schemas/parts';
 import * as parts from '$lib/server/services/parts';
-import type { PartSearchResult } from '$lib/server/services/parts';
+import type { PartSearchResult } from '$lib/views';
 import type { RequestHandler } from './$types';
 
 /** GET /api/v1/parts?q=&category=&page=&<spec filters> → PartSearchResult. */

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import * as parts from '$lib/server/services/parts';
-import type { PartDetail } from '$lib/server/services/parts';
+import type { PartDetail } from '$lib/views';
 import type { RequestHandler } from './$types';
 
 /** GET /api/v1/parts/[slug] → PartDetail, or 404 { message }. */
