@@ -12,7 +12,9 @@ import {
 } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import type { GuideBrowseQuery } from '../../src/lib/schemas/guide-browse';
-import * as builds from '../../src/lib/server/services/builds';
+import * as buildFork from '../../src/lib/server/services/build-fork';
+import * as buildLists from '../../src/lib/server/services/build-lists';
+import * as buildView from '../../src/lib/server/services/build-view';
 import * as contentReports from '../../src/lib/server/services/content-reports';
 import * as reportQueue from '../../src/lib/server/services/content-report-queue';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
@@ -236,13 +238,13 @@ describe('content reports on the real MariaDB', () => {
 		const part = await Part.findByPk(pick?.pickPartId ?? 0);
 		if (!guide || !part) throw new Error('demo guide or its first pick missing');
 		// A reader's public build forked from the guide, as anyone may see it.
-		const forked = await builds.fork(reader.id, SLUG);
+		const forked = await buildFork.fork(reader.id, SLUG);
 		if (forked.kind !== 'created') throw new Error('fork failed');
 		await Build.update({ visibility: 'public' }, { where: { id: forked.id } });
 
 		const usingBefore = (await parts.getBySlug(part.slug))?.guides.map((g) => g.slug);
 		expect(usingBefore).toContain(SLUG);
-		expect((await builds.getBuild(null, forked.id))?.source).toMatchObject({
+		expect((await buildView.getBuild(null, forked.id))?.source).toMatchObject({
 			slug: SLUG,
 			title: guide.title
 		});
@@ -255,18 +257,18 @@ describe('content reports on the real MariaDB', () => {
 		expect(usingAfter.map((g) => g.slug)).not.toContain(SLUG);
 		expect(JSON.stringify(usingAfter)).not.toContain(guide.title);
 		for (const viewer of [null, { id: admin.id, role: 'admin' }]) {
-			const view = await builds.getBuild(viewer, forked.id);
+			const view = await buildView.getBuild(viewer, forked.id);
 			expect(view, 'the build itself stays visible').not.toBeNull();
 			expect(view?.source ?? null).toBeNull();
 			expect(JSON.stringify(view)).not.toContain(`/guides/${SLUG}`);
 		}
-		const mine = await builds.listMine(reader.id);
+		const mine = await buildLists.listMine(reader.id);
 		expect(mine.find((b) => b.id === forked.id)?.source ?? null).toBeNull();
 
 		// Restored, it is credited again.
 		await contentReports.restore(editor.id, subject());
 		expect((await parts.getBySlug(part.slug))?.guides.map((g) => g.slug)).toContain(SLUG);
-		expect((await builds.getBuild(null, forked.id))?.source?.slug).toBe(SLUG);
+		expect((await buildView.getBuild(null, forked.id))?.source?.slug).toBe(SLUG);
 		await Build.destroy({ where: { id: forked.id } });
 	});
 
