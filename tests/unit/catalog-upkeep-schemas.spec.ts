@@ -1,15 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import {
-	decimalToMinor,
-	minorToDecimal,
-	slugify,
-	startsLikeFormula,
-	validateSpecs
-} from '../../src/lib/schemas/catalog-upkeep';
+import { minorToDecimal, parseAmount } from '../../src/lib/domain/money';
+import { slugify, startsLikeFormula, validateSpecs } from '../../src/lib/schemas/catalog-upkeep';
 import { bpToPercent, percentToBp } from '../../src/lib/schemas/regions';
 import { specFields, specLabel, specsFromForm } from '../../src/lib/schemas/spec-form';
 
-describe('decimalToMinor', () => {
+describe('amounts in minor units (domain/money.ts, read as a point region writes them)', () => {
 	// Exponents per ISO 4217 List One (docs/sources.md 10a, V): JPY 0, USD 2, KWD 3.
 	it.each([
 		['129.99', 2, 'USD', 12999],
@@ -19,8 +14,9 @@ describe('decimalToMinor', () => {
 		['77838', 0, 'JPY', 77838],
 		['1.234', 3, 'KWD', 1234],
 		['1.2', 3, 'KWD', 1200]
-	])('%s %s → %i minor units', (text, digits, currency, expected) => {
-		expect(decimalToMinor(text as string, digits as number, currency as string)).toEqual({
+	])('%s %s → %i minor units', (text, _digits, currency, expected) => {
+		// `digits` is the ISO exponent the expectation was worked out with (10a).
+		expect(parseAmount(text as string, currency as string)).toEqual({
 			ok: true,
 			amountMinor: expected
 		});
@@ -34,18 +30,18 @@ describe('decimalToMinor', () => {
 		['-5', 2, 'USD', 'Enter an amount in USD with digits and a point, e.g. 129.99.'],
 		['1e3', 2, 'USD', 'Enter an amount in USD with digits and a point, e.g. 129.99.'],
 		['', 2, 'USD', 'Enter an amount in USD with digits and a point, e.g. 129.99.']
-	])('refuses %j in %s', (text, digits, currency, message) => {
-		expect(decimalToMinor(text as string, digits as number, currency as string)).toEqual({
+	])('refuses %j in %s', (text, _digits, currency, message) => {
+		expect(parseAmount(text as string, currency as string)).toMatchObject({
 			ok: false,
 			message
 		});
 	});
 
 	it('goes back to the decimal text a form shows', () => {
-		expect(minorToDecimal(12999, 2)).toBe('129.99');
-		expect(minorToDecimal(5, 2)).toBe('0.05');
-		expect(minorToDecimal(77838, 0)).toBe('77838');
-		expect(minorToDecimal(1234, 3)).toBe('1.234');
+		expect(minorToDecimal(12999, 'USD')).toBe('129.99');
+		expect(minorToDecimal(5, 'USD')).toBe('0.05');
+		expect(minorToDecimal(77838, 'JPY')).toBe('77838');
+		expect(minorToDecimal(1234, 'KWD')).toBe('1.234');
 	});
 });
 

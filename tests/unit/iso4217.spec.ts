@@ -1,8 +1,7 @@
 import * as currencyCodes from 'currency-codes';
 import * as dineroCurrencies from 'dinero.js/currencies';
 import { describe, expect, it } from 'vitest';
-import { minorUnitDigits } from '$lib/domain/money';
-import { minorUnitsPerMajor } from '$lib/domain/region';
+import { minorUnitDigits, minorUnitsPerMajor } from '$lib/domain/money';
 
 /*
  * money.ts takes minor units from dinero.js 2.0.2's currency records. They are checked here

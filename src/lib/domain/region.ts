@@ -24,67 +24,19 @@
  * Tax rates and category factors are integers in basis points (1900 = 19 %, 10400 = ×1.04);
  * exchange rates are decimal strings as the ECB publishes them. No float touches money.
  */
-import { currencyOf, money, multiply } from './money';
+import {
+	divideHalfEven,
+	minorUnitsPerMajor,
+	money,
+	multiply,
+	parseDecimal,
+	ratioToDecimal
+} from './money';
+import type { ScaledDecimal } from './money';
 import { listTotals } from './totals';
 import type { Money, PartCategory, TaxMode } from './types';
 
 const BP = 10_000n;
-
-// ---------------------------------------------------------------------------------------------
-// Exact decimal helpers (big integers; shared with value.ts)
-// ---------------------------------------------------------------------------------------------
-
-/** A non-negative decimal as an integer and a power-of-ten scale: "1.0956" → 10956n / 10^4. */
-export interface ScaledDecimal {
-	units: bigint;
-	scale: number;
-}
-
-const DECIMAL = /^(\d{1,30})(?:\.(\d{1,30}))?$/;
-
-/** Parses a plain decimal string ("1.0956", "382.10", "155.68"); no signs, exponents or commas. */
-export function parseDecimal(text: string): ScaledDecimal {
-	const match = DECIMAL.exec(text.trim());
-	if (!match) throw new RangeError(`Not a plain decimal number: "${text}"`);
-	const fraction = match[2] ?? '';
-	return { units: BigInt(`${match[1]}${fraction}`), scale: fraction.length };
-}
-
-/**
- * numerator / denominator rounded half-even to an integer (exact halves go to the even
- * neighbour; everything else to the nearest). Works for negative numerators too.
- */
-export function divideHalfEven(numerator: bigint, denominator: bigint): bigint {
-	if (denominator === 0n) throw new RangeError('Division by zero');
-	if (denominator < 0n) return divideHalfEven(-numerator, -denominator);
-	const negative = numerator < 0n;
-	const n = negative ? -numerator : numerator;
-	let q = n / denominator;
-	const twiceRemainder = 2n * (n - q * denominator);
-	if (twiceRemainder > denominator || (twiceRemainder === denominator && q % 2n === 1n)) q += 1n;
-	return negative ? -q : q;
-}
-
-/** The exact value numerator / denominator as a decimal string with at most `digits` decimals (half-even). */
-export function ratioToDecimal(numerator: bigint, denominator: bigint, digits: number): string {
-	const scaled = divideHalfEven(numerator * 10n ** BigInt(digits), denominator);
-	const negative = scaled < 0n;
-	const text = (negative ? -scaled : scaled).toString().padStart(digits + 1, '0');
-	const whole = text.slice(0, text.length - digits);
-	const fraction = text.slice(text.length - digits).replace(/0+$/, '');
-	return `${negative ? '-' : ''}${whole}${fraction ? `.${fraction}` : ''}`;
-}
-
-/**
- * Minor units in one major unit: 100 for USD, 1 for JPY, 1000 for KWD. Taken as
- * base^exponent from dinero's ISO 4217 records, so the two non-decimal currencies (MGA, MRU:
- * base 5) are handled correctly too.
- */
-export function minorUnitsPerMajor(code: string): bigint {
-	const { base, exponent } = currencyOf(code);
-	if (typeof base !== 'number') throw new RangeError(`Currency ${code} has several bases`);
-	return BigInt(base) ** BigInt(exponent);
-}
 
 // ---------------------------------------------------------------------------------------------
 // Exchange rates through EUR

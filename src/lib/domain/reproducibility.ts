@@ -14,7 +14,7 @@
  *   Computed as one integer fraction and rounded half-even once.
  * - The score always comes with its reasons as sentences; a page never shows it bare.
  */
-import { divideHalfEven } from './region';
+import { divideHalfEven } from './money';
 
 /** Quotes older than this many days do not count as recent (common practice, no published source). */
 export const RECENT_DAYS = 30;

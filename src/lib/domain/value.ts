@@ -14,7 +14,7 @@
  * FPS are measurements, not money, so they are plain numbers; money stays integer minor units.
  */
 import { money } from './money';
-import { divideHalfEven, minorUnitsPerMajor } from './region';
+import { divideHalfEven, minorUnitsPerMajor } from './money';
 import type { Money } from './types';
 
 /** Geometric mean of positive finite numbers: exp(mean(ln x)). Throws on an empty list or a value ≤ 0. */

@@ -192,53 +192,6 @@ export function validateSpecs(
 	};
 }
 
-/**
- * A decimal amount as typed ("129.99", "77838") → integer minor units of a currency with
- * `digits` minor-unit digits (ISO 4217 exponent: JPY 0, USD 2, KWD 3). Refuses more
- * decimals than the currency has rather than rounding: a typo must not become a price.
- */
-export function decimalToMinor(
-	text: string,
-	digits: number,
-	currency: string
-): { ok: true; amountMinor: number } | { ok: false; message: string } {
-	const trimmed = text.trim();
-	const match = /^(\d{1,13})(?:\.(\d+))?$/.exec(trimmed);
-	if (!match) {
-		return {
-			ok: false,
-			message: `Enter an amount in ${currency} with digits and a point, e.g. ${example(digits)}.`
-		};
-	}
-	const whole = match[1] ?? '0';
-	const fraction = match[2] ?? '';
-	if (fraction.length > digits) {
-		return {
-			ok: false,
-			message:
-				digits === 0
-					? `${currency} has no minor unit: enter a whole amount, e.g. ${example(0)}.`
-					: `${currency} allows at most ${digits} decimal${digits === 1 ? '' : 's'}, e.g. ${example(digits)}.`
-		};
-	}
-	const amountMinor = Number(whole + fraction.padEnd(digits, '0'));
-	if (!Number.isSafeInteger(amountMinor))
-		return { ok: false, message: 'That amount is too large.' };
-	return { ok: true, amountMinor };
-}
-
-function example(digits: number): string {
-	return digits === 0 ? '15800' : `129.${'99'.padEnd(digits, '0').slice(0, digits)}`;
-}
-
-/** Integer minor units → the decimal text a form shows (12999, 2 → "129.99"). */
-export function minorToDecimal(amountMinor: number, digits: number): string {
-	if (digits === 0) return String(amountMinor);
-	const text = String(Math.abs(amountMinor)).padStart(digits + 1, '0');
-	const sign = amountMinor < 0 ? '-' : '';
-	return `${sign}${text.slice(0, -digits)}.${text.slice(-digits)}`;
-}
-
 const emptyAsUndefined = (value: unknown) =>
 	typeof value === 'string' && value.trim() === '' ? undefined : value;
 

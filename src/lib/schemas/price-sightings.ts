@@ -4,7 +4,8 @@ import { pageNumber } from './query-params';
 /*
  * Price sightings: what a signed-in user reports from a part page, and what editors post
  * when they verify or reject one. The amount stays text here: how many decimals it may have
- * depends on the region's currency, which the service looks up (decimalToMinor).
+ * depends on the region's currency and how the region writes decimals, which the service
+ * looks up (domain/money.ts parseAmount).
  */
 
 /** How far back a sighting may be dated. Common practice, no published source: older prices say little about today's. */

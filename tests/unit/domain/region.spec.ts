@@ -1,15 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { convertAt, money } from '$lib/domain/money';
+import { convertAt, divideHalfEven, money, parseDecimal, ratioToDecimal } from '$lib/domain/money';
 import {
 	MissingRateError,
 	addTax,
 	adjustToRegion,
 	convertThroughEur,
 	crossRate,
-	divideHalfEven,
-	parseDecimal,
 	priceOption,
-	ratioToDecimal,
 	stripTax,
 	type OptionInput,
 	type RatesPerEur,

@@ -10,7 +10,7 @@
  * and answers with the build as it is now.
  */
 import type { Transaction } from 'sequelize';
-import { minorUnitDigits, money } from '$lib/domain/money';
+import { decimalMarkOf, minorUnitDigits, money, parseAmount } from '$lib/domain/money';
 import { convertThroughEur, MissingRateError } from '$lib/domain/region';
 import type { PartCategory } from '$lib/domain/types';
 import { Build, BuildSlot, Part, Region, sequelize } from '$lib/server/db';
@@ -20,7 +20,6 @@ import type { LoadedBuild } from './build-pricing';
 import { loadBuildSource, originOf } from './build-source';
 import { getBuild } from './build-view';
 import * as fx from './fx';
-import { toMinor } from './guide-drafts';
 import type { Issues } from './outcome';
 
 export type MutationOutcome =
@@ -78,6 +77,20 @@ function digitsIssue(currency: string): string {
 	return digits === 0 ? `${currency} has no decimals.` : `${currency} has ${digits} decimals.`;
 }
 
+/**
+ * An amount the reader typed, in the region's currency and read the way the region writes
+ * amounts ("129,90" where it writes the decimal comma; domain/money.ts parseAmount). Too many
+ * decimals keep the short message the build page has always given.
+ */
+function amountIn(
+	text: string,
+	region: { code: string; currency: string }
+): { ok: true; amountMinor: number } | { ok: false; message: string } {
+	const parsed = parseAmount(text, region.currency, decimalMarkOf(region.code));
+	if (parsed.ok || parsed.reason !== 'digits') return parsed;
+	return { ok: false, message: digitsIssue(region.currency) };
+}
+
 export interface BuildPatch {
 	title?: string;
 	notes?: string;
@@ -120,10 +133,9 @@ export async function updateBuild(
 	if (patch.budget !== undefined) {
 		if (patch.budget === null) fields.budgetMinor = null;
 		else {
-			const minor = toMinor(patch.budget, region.currency);
-			if (minor === null || !Number.isSafeInteger(minor))
-				issues.budget = [digitsIssue(region.currency)];
-			else fields.budgetMinor = minor;
+			const budget = amountIn(patch.budget, region);
+			if (!budget.ok) issues.budget = [budget.message];
+			else fields.budgetMinor = budget.amountMinor;
 		}
 	} else if (
 		build.budgetMinor !== null &&
@@ -197,12 +209,11 @@ export async function updateSlot(
 	if (patch.quantity !== undefined) fields.quantity = patch.quantity;
 	if (patch.priceOverride === null) Object.assign(fields, clearedOverride());
 	else if (patch.priceOverride) {
-		const minor = toMinor(patch.priceOverride.amount, currency);
-		if (minor === null || !Number.isSafeInteger(minor))
-			issues['priceOverride.amount'] = [digitsIssue(currency)];
+		const amount = amountIn(patch.priceOverride.amount, build.region);
+		if (!amount.ok) issues['priceOverride.amount'] = [amount.message];
 		else
 			Object.assign(fields, {
-				priceOverrideMinor: minor,
+				priceOverrideMinor: amount.amountMinor,
 				priceOverrideCurrency: currency,
 				priceOverrideStore: patch.priceOverride.store,
 				priceOverrideDate: patch.priceOverride.date
@@ -222,10 +233,9 @@ export async function updateSlot(
 			fields.purchased = true;
 			if (p.paid === null) Object.assign(fields, { paidMinor: null, paidCurrency: null });
 			else if (p.paid !== undefined) {
-				const minor = toMinor(p.paid, currency);
-				if (minor === null || !Number.isSafeInteger(minor))
-					issues['purchase.paid'] = [digitsIssue(currency)];
-				else Object.assign(fields, { paidMinor: minor, paidCurrency: currency });
+				const paid = amountIn(p.paid, build.region);
+				if (!paid.ok) issues['purchase.paid'] = [paid.message];
+				else Object.assign(fields, { paidMinor: paid.amountMinor, paidCurrency: currency });
 			}
 			if (p.purchasedAt !== undefined) fields.purchasedAt = p.purchasedAt ?? null;
 			if (p.store !== undefined) fields.purchaseStore = p.store ? p.store : null;

@@ -3,7 +3,7 @@
  * the build view (build-view.ts) written out, with the same access rules.
  */
 import { stringify } from 'csv-stringify/sync';
-import { minorUnitDigits } from '$lib/domain/money';
+import { minorToDecimal } from '$lib/domain/money';
 import type { Money } from '$lib/domain/types';
 import { neutraliseCell } from '$lib/server/csv-cells';
 import type { Viewer } from './build-access';
@@ -24,11 +24,7 @@ export const BUILD_CSV_COLUMNS = [
 
 /** Minor units as a plain decimal in the currency's digits: 69999 USD → "699.99", −500 → "-5.00". */
 export function decimalOf(m: Money): string {
-	const digits = minorUnitDigits(m.currency);
-	const negative = m.amountMinor < 0;
-	const text = String(Math.abs(m.amountMinor)).padStart(digits + 1, '0');
-	const body = digits === 0 ? text : `${text.slice(0, -digits)}.${text.slice(-digits)}`;
-	return `${negative ? '-' : ''}${body}`;
+	return minorToDecimal(m.amountMinor, m.currency);
 }
 
 /**

@@ -6,8 +6,8 @@
  */
 import { Op, UniqueConstraintError } from 'sequelize';
 import type { Transaction } from 'sequelize';
-import { minorUnitDigits } from '$lib/domain/money';
-import { decimalToMinor, quoteInput, storeInput } from '$lib/schemas/catalog-upkeep';
+import { decimalMarkOf, minorUnitDigits, parseAmount } from '$lib/domain/money';
+import { quoteInput, storeInput } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
 import { Part, Quote, Region, Store, sequelize } from '$lib/server/db';
 import * as audit from './audit';
@@ -197,12 +197,14 @@ export async function addQuote(
 		let amountMinor = 0;
 		let shippingMinor = 0;
 		if (currency && digits !== null) {
-			const amount = decimalToMinor(data.amount, digits, currency);
+			// Read as the quote's region writes amounts ("129,90" where it writes the decimal comma).
+			const mark = region ? decimalMarkOf(region.code) : '.';
+			const amount = parseAmount(data.amount, currency, mark);
 			if (!amount.ok) add(issues, 'amount', amount.message);
 			else if (amount.amountMinor === 0) add(issues, 'amount', 'The price must be more than zero.');
 			else amountMinor = amount.amountMinor;
 			if (data.shipping !== undefined) {
-				const shipping = decimalToMinor(data.shipping, digits, currency);
+				const shipping = parseAmount(data.shipping, currency, mark);
 				if (!shipping.ok) add(issues, 'shipping', shipping.message);
 				else shippingMinor = shipping.amountMinor;
 			}

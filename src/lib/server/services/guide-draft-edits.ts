@@ -14,7 +14,7 @@
  */
 import { Op } from 'sequelize';
 import type { Transaction } from 'sequelize';
-import { minorUnitDigits } from '$lib/domain/money';
+import { decimalMarkOf, parseAmount } from '$lib/domain/money';
 import { CATEGORY_LABELS } from '$lib/domain/types';
 import { joinBuildNotes, type CreateGuideInput, type DraftInput } from '$lib/schemas/guide-editor';
 import {
@@ -32,7 +32,7 @@ import {
 import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView } from '$lib/views';
 import { copyResults, replaceFrames, replaceThermals } from './guide-draft-results';
-import { latestRevision, ownGuide, toMinor, viewOf } from './guide-drafts';
+import { latestRevision, ownGuide, viewOf } from './guide-drafts';
 import type { Issues } from './outcome';
 import { sendToAuthor, submittedMail } from './review-mail';
 
@@ -48,6 +48,14 @@ export type SubmitOutcome =
 	| { kind: 'conflict'; current: DraftView }
 	| { kind: 'invalid'; issues: Issues }
 	| { kind: 'not_found' };
+
+/**
+ * An amount the author typed, in the base region's currency and read the way that region
+ * writes amounts ("129,90" where it writes the decimal comma; domain/money.ts parseAmount).
+ */
+function amountIn(text: string, region: Region) {
+	return parseAmount(text, region.currency, decimalMarkOf(region.code));
+}
 
 function slugify(title: string): string {
 	const base = title
@@ -83,14 +91,8 @@ export async function createGuide(
 	const region = await Region.findOne({ where: { code: input.baseRegion } });
 	if (!region)
 		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
-	const budget = toMinor(input.targetBudget, region.currency);
-	if (budget === null)
-		return {
-			kind: 'invalid',
-			issues: {
-				targetBudget: [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`]
-			}
-		};
+	const budget = amountIn(input.targetBudget, region);
+	if (!budget.ok) return { kind: 'invalid', issues: { targetBudget: [budget.message] } };
 	return sequelize.transaction(async (transaction) => {
 		const guide = await Guide.create(
 			{
@@ -98,7 +100,7 @@ export async function createGuide(
 				authorId,
 				title: input.title,
 				summary: input.summary,
-				targetBudgetMinor: budget,
+				targetBudgetMinor: budget.amountMinor,
 				baseRegionId: region.id,
 				tags: input.tags,
 				disclosure: input.disclosure,
@@ -157,11 +159,8 @@ async function checkReferences(input: DraftInput, region: Region): Promise<Issue
 					`slots.${i}.priceQuote.storeId`,
 					`Choose a store in the guide's base region (${region.name}).`
 				);
-			if (toMinor(slot.priceQuote.amount, region.currency) === null)
-				add(
-					`slots.${i}.priceQuote.amount`,
-					`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`
-				);
+			const amount = amountIn(slot.priceQuote.amount, region);
+			if (!amount.ok) add(`slots.${i}.priceQuote.amount`, amount.message);
 		}
 	});
 	return issues;
@@ -185,11 +184,10 @@ export async function saveDraft(
 	const region = await Region.findOne({ where: { code: input.baseRegion } });
 	if (!region)
 		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
-	const budget = toMinor(input.targetBudget, region.currency);
+	const budget = amountIn(input.targetBudget, region);
 	const issues = await checkReferences(input, region);
-	if (budget === null)
-		issues.targetBudget = [`${region.currency} has ${minorUnitDigits(region.currency)} decimals.`];
-	if (Object.keys(issues).length > 0) return { kind: 'invalid', issues };
+	if (!budget.ok) issues.targetBudget = [budget.message];
+	if (!budget.ok || Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	const buildNotesMd = joinBuildNotes(input.buildNotes);
 	const buildNotesHtml = renderMarkdown(buildNotesMd);
 
@@ -198,7 +196,7 @@ export async function saveDraft(
 			{
 				title: input.title,
 				summary: input.summary,
-				targetBudgetMinor: budget ?? 0,
+				targetBudgetMinor: budget.amountMinor,
 				baseRegionId: region.id,
 				tags: input.tags,
 				disclosure: input.disclosure,
@@ -290,7 +288,9 @@ async function quoteFor(
 	region: Region,
 	transaction: Transaction
 ): Promise<number> {
-	const amountMinor = toMinor(q.amount, region.currency) ?? 0;
+	// checkReferences has refused amounts that do not parse.
+	const parsed = amountIn(q.amount, region);
+	const amountMinor = parsed.ok ? parsed.amountMinor : 0;
 	const observedAt = new Date(`${q.observedAt}T00:00:00Z`);
 	const next = new Date(observedAt.getTime() + 86_400_000);
 	const existing = await Quote.findOne({

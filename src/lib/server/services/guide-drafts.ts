@@ -15,7 +15,7 @@
  *   (`revisionState`: draft / submitted). A guide never published goes draft → in_review.
  */
 import type { Transaction } from 'sequelize';
-import { minorUnitDigits } from '$lib/domain/money';
+import { minorToDecimal } from '$lib/domain/money';
 import {
 	GUIDE_TAGS,
 	joinBuildNotes,
@@ -39,21 +39,6 @@ import {
 import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView, EditorCatalog } from '$lib/views';
 import { partRef } from './mappers';
-
-/** "700.5" in a currency with 2 digits → 70050; too many digits for the currency → null. */
-export function toMinor(amount: string, currency: string): number | null {
-	const digits = minorUnitDigits(currency);
-	const [whole = '0', fraction = ''] = amount.split('.');
-	if (fraction.length > digits) return null;
-	return Number(whole) * 10 ** digits + Number(fraction.padEnd(digits, '0') || '0');
-}
-
-export function fromMinor(minor: number, currency: string): string {
-	const digits = minorUnitDigits(currency);
-	if (digits === 0) return String(minor);
-	const s = String(minor).padStart(digits + 1, '0');
-	return `${s.slice(0, -digits)}.${s.slice(-digits)}`;
-}
 
 /** The author's own guide by slug, or null. */
 export async function ownGuide(authorId: string, slug: string, transaction?: Transaction) {
@@ -120,7 +105,7 @@ export async function viewOf(guide: Guide, transaction?: Transaction): Promise<D
 		slug: guide.slug,
 		title: guide.title,
 		summary: guide.summary,
-		targetBudget: fromMinor(Number(guide.targetBudgetMinor), currency),
+		targetBudget: minorToDecimal(Number(guide.targetBudgetMinor), currency),
 		currency,
 		baseRegion: region?.code ?? '',
 		// Tags outside the fixed list (older data) are dropped on the next save.
@@ -140,7 +125,7 @@ export async function viewOf(guide: Guide, transaction?: Transaction): Promise<D
 			priceQuote: s.priceQuote
 				? {
 						storeId: s.priceQuote.storeId,
-						amount: fromMinor(Number(s.priceQuote.amountMinor), s.priceQuote.currency),
+						amount: minorToDecimal(Number(s.priceQuote.amountMinor), s.priceQuote.currency),
 						observedAt: s.priceQuote.observedAt.toISOString().slice(0, 10)
 					}
 				: null,

@@ -20,8 +20,7 @@
  */
 import { Op } from 'sequelize';
 import type { Transaction } from 'sequelize';
-import { minorUnitDigits } from '$lib/domain/money';
-import { decimalToMinor } from '$lib/schemas/catalog-upkeep';
+import { decimalMarkOf, parseAmount } from '$lib/domain/money';
 import { fieldIssues } from '$lib/schemas/issues';
 import { priceSightingInput } from '$lib/schemas/price-sightings';
 import {
@@ -105,7 +104,8 @@ export async function submit(
 		}
 		let amountMinor = 0;
 		if (region) {
-			const amount = decimalToMinor(data.price, minorUnitDigits(region.currency), region.currency);
+			// Read as the region writes amounts: "129,90" where it writes the decimal comma.
+			const amount = parseAmount(data.price, region.currency, decimalMarkOf(region.code));
 			if (!amount.ok) add(issues, 'price', amount.message);
 			else if (amount.amountMinor <= 0) add(issues, 'price', 'The price must be more than zero.');
 			else amountMinor = amount.amountMinor;

@@ -1,5 +1,6 @@
 import { error, fail } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { decimalMarkOf, parseAmount } from '$lib/domain/money';
 import { formFields } from '$lib/schemas/account';
 import { reportInput } from '$lib/schemas/content-reports';
 import {
@@ -260,13 +261,13 @@ export const actions: Actions = {
 			return fail(400, { problem: true, budgetIssues: ['Write an amount like 1200 or 1199.99.'] });
 		const build = await buildView.getBuild({ id: me.id }, Number(params.id));
 		if (!build?.isOwner) error(404, 'Build not found');
-		const minor = drafts.toMinor(input.data.budget, build.region.currency);
-		if (minor === null)
-			return fail(400, {
-				problem: true,
-				budgetIssues: [`Too many decimals for ${build.region.currency}.`]
-			});
-		const outcome = await buildBudget.proposeWithinBudget(me.id, build.id, minor);
+		const minor = parseAmount(
+			input.data.budget,
+			build.region.currency,
+			decimalMarkOf(build.region.code)
+		);
+		if (!minor.ok) return fail(400, { problem: true, budgetIssues: [minor.message] });
+		const outcome = await buildBudget.proposeWithinBudget(me.id, build.id, minor.amountMinor);
 		if (outcome.kind === 'not_found') error(404, 'Build not found');
 		return { budgetResult: outcome };
 	},
