@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { isoDate } from './primitives';
 import { pageNumber } from './query-params';
 
 /*
@@ -9,12 +10,10 @@ export const AUDIT_EVENTS_PER_PAGE = 50;
 
 const emptyAsUndefined = (value: unknown) => (value === '' || value === null ? undefined : value);
 /** A real calendar day as YYYY-MM-DD (2026-02-30 is refused, not rolled over). */
-function isRealDay(value: string): boolean {
-	if (!/^\d{4}-\d{2}-\d{2}$/.test(value)) return false;
-	const time = Date.parse(`${value}T00:00:00Z`);
-	return !Number.isNaN(time) && new Date(time).toISOString().startsWith(value);
-}
-const isoDay = z.string().refine(isRealDay, 'Use a real date like 2026-12-01.');
+const isoDay = isoDate({
+	shape: 'Use a real date like 2026-12-01.',
+	real: 'Use a real date like 2026-12-01.'
+});
 
 export const auditQuery = z
 	.strictObject({

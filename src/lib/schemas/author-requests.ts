@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_ID, wholeNumberText } from './primitives';
 import { pageNumber } from './query-params';
 import {
 	DECISION_NOTE_MAX_CHARS,
@@ -41,10 +42,7 @@ export type AuthorRequestInput = z.infer<typeof authorRequestInput>;
  */
 export const decideAuthorRequestInput = z
 	.strictObject({
-		requestId: z.coerce
-			.number({ error: 'Unknown request.' })
-			.int('Unknown request.')
-			.positive('Unknown request.'),
+		requestId: wholeNumberText('Unknown request.', 1, MAX_ID),
 		decision: z.enum(['approve', 'decline'], { error: 'Choose approve or decline.' }),
 		note: z
 			.string()

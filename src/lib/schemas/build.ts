@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { PART_CATEGORIES } from '$lib/domain/types';
+import { amount, pastIsoDate, regionCode as regionCodeOf, version } from './primitives';
 
 /*
  * Input of the build editor (pages and the JSON API share it). Every object is strict:
@@ -11,35 +12,15 @@ import { PART_CATEGORIES } from '$lib/domain/types';
 
 export const BUILD_VISIBILITY_VALUES = ['private', 'unlisted', 'public'] as const;
 
-const version = z
-	.number({ message: 'Send the version you last saw.' })
-	.int()
-	.positive('Send the version you last saw.');
-
-/** A non-negative decimal amount as typed ("700", "699.99"). */
-export const buildAmount = z
-	.string()
-	.trim()
-	.regex(/^\d{1,9}(\.\d{1,3})?$/, 'Enter an amount like 699.99.');
+/** A non-negative amount as typed ("700", "699.99", "129,90" where the region writes the comma). */
+export const buildAmount = amount();
 
 /** A calendar date, YYYY-MM-DD, that exists and is not after today (UTC). */
-export const pastDate = z
-	.string()
-	.trim()
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
-	.refine((s) => {
-		const d = new Date(`${s}T00:00:00Z`);
-		return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
-	}, 'Enter a real date.')
-	.refine((s) => s <= new Date().toISOString().slice(0, 10), 'The date cannot be in the future.');
+export const pastDate = pastIsoDate();
 
 const storeName = z.string().trim().min(1, 'Name the store.').max(120, 'At most 120 characters.');
 
-export const regionCode = z
-	.string()
-	.trim()
-	.toLowerCase()
-	.regex(/^[a-z]{2,8}$/, 'Choose a region.');
+const regionCode = regionCodeOf();
 
 export const updateBuildInput = z.strictObject({
 	version,

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_ID, isoDate, wholeNumberText } from './primitives';
 import { pageNumber } from './query-params';
 import { PART_CATEGORIES, type PartCategory } from '$lib/domain/types';
 import { SPEC_SCHEMAS } from './part-specs';
@@ -222,12 +223,7 @@ export const storeInput = z.strictObject({
 });
 export type StoreInput = z.infer<typeof storeInput>;
 
-const id = (what: string) =>
-	z.coerce
-		.number({ error: `Unknown ${what}.` })
-		.int(`Unknown ${what}.`)
-		.positive(`Unknown ${what}.`)
-		.max(2 ** 32 - 1, `Unknown ${what}.`);
+const id = (what: string) => wholeNumberText(`Unknown ${what}.`, 1, MAX_ID);
 
 export const storeIdInput = z.strictObject({ storeId: id('store') });
 
@@ -265,15 +261,7 @@ export const quoteInput = z.strictObject({
 	),
 	// A checkbox posts "on" when ticked and nothing when not.
 	taxIncluded: z.preprocess((v) => v === 'on' || v === 'true', z.boolean()),
-	observedOn: z
-		.string({ error: 'Enter the day the price was seen.' })
-		.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
-		.refine(
-			(d) =>
-				!Number.isNaN(Date.parse(`${d}T00:00:00Z`)) &&
-				new Date(`${d}T00:00:00Z`).toISOString().startsWith(d),
-			'Enter a real date.'
-		)
+	observedOn: isoDate({ missing: 'Enter the day the price was seen.' })
 		.refine((d) => d >= '2000-01-01', 'Enter a date from 2000 on.')
 		.refine((d) => d <= todayIso(), 'The day cannot be in the future.'),
 	url: z.preprocess(emptyAsUndefined, webAddress.optional())

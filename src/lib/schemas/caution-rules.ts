@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_ID, wholeNumberText } from './primitives';
 import {
 	CAUTION_OPERATORS,
 	OPERATOR_LABELS,
@@ -229,8 +230,8 @@ export function valueText(value: ConditionValue): string {
 	return String(value);
 }
 
-export const ruleIdInput = z.object({ ruleId: z.coerce.number().int().positive('Unknown rule.') });
-export const ruleVersionInput = z.coerce.number().int().positive('Reload the page and try again.');
+export const ruleIdInput = z.object({ ruleId: wholeNumberText('Unknown rule.', 1, MAX_ID) });
+export const ruleVersionInput = wholeNumberText('Reload the page and try again.', 1);
 
 /** "Graphics card chip is one of Cobalt C8, Auric A90", for lists and the audit trail. */
 export function describeCondition(c: CautionCondition): string {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { wholeNumberFromText } from './primitives';
 import {
 	HIDE_REASON_MAX_CHARS,
 	HIDE_REASON_MIN_CHARS,
@@ -16,11 +17,15 @@ const normaliseLineBreaks = (value: string) => value.replace(/\r\n?/g, '\n').tri
 
 const pageNumber = z.preprocess(
 	(value) => (value === '' || value === null ? undefined : value),
-	z.coerce
-		.number({ error: 'The page must be a whole number.' })
-		.int('The page must be a whole number.')
-		.min(1, 'Pages start at 1.')
-		.max(100_000, 'There are not that many pages.')
+	z
+		.preprocess(
+			wholeNumberFromText,
+			z
+				.number({ error: 'The page must be a whole number.' })
+				.int('The page must be a whole number.')
+				.min(1, 'Pages start at 1.')
+				.max(100_000, 'There are not that many pages.')
+		)
 		.default(1)
 );
 

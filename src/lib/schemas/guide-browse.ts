@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { wholeNumberFromText } from './primitives';
 import { pageNumber } from './query-params';
 import { parseLenient, parseStrict, queryRecord, type Issues } from './query-params.js';
 
@@ -48,12 +49,16 @@ const regionCode = z.preprocess(
 function budget(which: string) {
 	return z.preprocess(
 		emptyAsUndefined,
-		z.coerce
-			.number({ error: `The ${which} budget must be a whole number.` })
-			.int(`The ${which} budget must be a whole number.`)
-			.min(0, `The ${which} budget cannot be negative.`)
-			// Far beyond any PC build in any currency we price (JPY included).
-			.max(100_000_000, `The ${which} budget is too large.`)
+		z
+			.preprocess(
+				wholeNumberFromText,
+				z
+					.number({ error: `The ${which} budget must be a whole number.` })
+					.int(`The ${which} budget must be a whole number.`)
+					.min(0, `The ${which} budget cannot be negative.`)
+					// Far beyond any PC build in any currency we price (JPY included).
+					.max(100_000_000, `The ${which} budget is too large.`)
+			)
 			.optional()
 	);
 }

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
+import { amount, id, pastIsoDate, regionCode, version } from './primitives';
 
 /*
  * The guide editor's input (pages and the author JSON API share it). Every object is strict:
@@ -32,21 +33,10 @@ export const BUILD_NOTE_SECTIONS = [
 ] as const;
 export type BuildNoteKey = (typeof BUILD_NOTE_SECTIONS)[number]['key'];
 
-/** A positive decimal amount as typed ("700", "699.99"); converted with the currency's digits. */
-const decimalAmount = z
-	.string()
-	.trim()
-	.regex(/^\d{1,9}(\.\d{1,3})?$/, 'Enter an amount like 699.99.');
+/** An amount as typed ("700", "699.99", "129,90" where the base region writes the comma). */
+const decimalAmount = amount();
 
-const isoDate = z
-	.string()
-	.trim()
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
-	.refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)), 'Enter a real date.')
-	.refine(
-		(s) => Date.parse(`${s}T00:00:00Z`) <= Date.now(),
-		'The price cannot be observed in the future.'
-	);
+const observedDate = pastIsoDate({ future: 'The price cannot be observed in the future.' });
 
 const optionalText = (max: number) =>
 	z
@@ -60,11 +50,7 @@ export const guideMetaFields = {
 	title: z.string().trim().min(3, 'Give the guide a title of at least 3 characters.').max(160),
 	summary: z.string().trim().min(1, 'Write a short summary.').max(2000),
 	targetBudget: decimalAmount,
-	baseRegion: z
-		.string()
-		.trim()
-		.toLowerCase()
-		.regex(/^[a-z]{2,8}$/, 'Choose a region.'),
+	baseRegion: regionCode(),
 	tags: z
 		.array(z.enum(GUIDE_TAGS as [GuideTag, ...GuideTag[]]))
 		.max(GUIDE_TAGS.length)
@@ -81,13 +67,13 @@ export const createGuideInput = z.strictObject(guideMetaFields);
 export type CreateGuideInput = z.infer<typeof createGuideInput>;
 
 export const priceQuoteInput = z.strictObject({
-	storeId: z.coerce.number().int().positive('Choose a store.'),
+	storeId: id('store'),
 	amount: decimalAmount,
-	observedAt: isoDate
+	observedAt: observedDate
 });
 
 export const alternateInput = z.strictObject({
-	partId: z.number().int().positive('Choose a part.'),
+	partId: id('part'),
 	reasonTag: z.enum(ALTERNATE_REASONS, { message: 'Choose a reason.' }),
 	note: z.string().trim().max(500).default('')
 });
@@ -96,7 +82,7 @@ export const slotInput = z.strictObject({
 	category: z.enum(PART_CATEGORIES, { message: 'Choose a category.' }),
 	label: z.string().trim().min(1, 'Give the slot a label.').max(80),
 	quantity: z.number().int().min(1, 'At least 1.').max(16, 'At most 16.'),
-	pickPartId: z.number().int().positive('Choose a part.'),
+	pickPartId: id('part'),
 	reason: z.string().trim().min(1, 'Say why you picked it.').max(2000),
 	priceQuote: priceQuoteInput.nullish().transform((q) => q ?? null),
 	/** In rank order: the first is the author's first fallback. */
@@ -204,12 +190,9 @@ export type DraftInput = z.infer<typeof draftInput>;
 export type DraftFields = z.input<typeof draftInput>;
 
 /** PUT /api/v1/guides/[slug]/draft and the editor's save: the draft plus the version it edits. */
-export const saveDraftInput = z.strictObject({
-	...draftInput.shape,
-	version: z.number().int().positive()
-});
+export const saveDraftInput = z.strictObject({ ...draftInput.shape, version });
 
-export const submitInput = z.strictObject({ version: z.number().int().positive() });
+export const submitInput = z.strictObject({ version });
 
 /** The preview action: the four sections only. */
 export const previewInput = buildNotesInput;

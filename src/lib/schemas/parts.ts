@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { wholeNumberFromText } from './primitives';
 import { pageNumber } from './query-params';
 import { CATEGORY_LABELS, PART_CATEGORIES } from '../domain/types.js';
 import type { PartCategory } from '../domain/types.js';
@@ -114,12 +115,16 @@ const choice = z.preprocess(
 function wholeNumber(what: string, max: number, unit: string) {
 	return z.preprocess(
 		emptyAsUndefined,
-		z.coerce
-			.number({ error: `${what} must be a whole number.` })
-			.int(`${what} must be a whole number.`)
-			.min(1, `${what} must be at least 1.`)
-			// Bounds far beyond any real part, so "a 5-metre card" is refused, not searched for.
-			.max(max, `${what} must be at most ${max.toLocaleString('en-GB')} ${unit}.`)
+		z
+			.preprocess(
+				wholeNumberFromText,
+				z
+					.number({ error: `${what} must be a whole number.` })
+					.int(`${what} must be a whole number.`)
+					.min(1, `${what} must be at least 1.`)
+					// Bounds far beyond any real part, so "a 5-metre card" is refused, not searched for.
+					.max(max, `${what} must be at most ${max.toLocaleString('en-GB')} ${unit}.`)
+			)
 			.optional()
 	);
 }

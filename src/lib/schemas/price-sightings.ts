@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_ID, isoDate, wholeNumberText } from './primitives';
 import { pageNumber } from './query-params';
 
 /*
@@ -23,12 +24,7 @@ export function utcDay(at: Date): string {
 const emptyAsUndefined = (value: unknown) =>
 	typeof value === 'string' && value.trim() === '' ? undefined : value;
 
-const id = (what: string) =>
-	z.coerce
-		.number({ error: `Unknown ${what}.` })
-		.int(`Unknown ${what}.`)
-		.positive(`Unknown ${what}.`)
-		.max(2 ** 32 - 1, `Unknown ${what}.`);
+const id = (what: string) => wholeNumberText(`Unknown ${what}.`, 1, MAX_ID);
 
 const regionCode = z
 	.string({ error: 'Choose a region.' })
@@ -65,15 +61,7 @@ export function priceSightingInput(now: Date = new Date()) {
 			.trim()
 			.min(1, 'Enter the price you saw.')
 			.max(20, 'That amount is too long.'),
-		observedOn: z
-			.string({ error: 'Enter the day you saw the price.' })
-			.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
-			.refine(
-				(d) =>
-					!Number.isNaN(Date.parse(`${d}T00:00:00Z`)) &&
-					new Date(`${d}T00:00:00Z`).toISOString().startsWith(d),
-				'Enter a real date.'
-			)
+		observedOn: isoDate({ missing: 'Enter the day you saw the price.' })
 			.refine((d) => d <= today, 'The day cannot be in the future (dates are UTC).')
 			.refine((d) => d >= oldest, `Report prices seen in the last ${SIGHTING_MAX_AGE_DAYS} days.`),
 		url: productLink

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { wholeNumberFromText } from './primitives';
 import { fieldIssues } from './issues.js';
 
 /*
@@ -77,10 +78,14 @@ export function parseLenient<S extends z.ZodType>(
 /** ?page=: a whole number from 1 (blank means 1), the same wording on every paged list. */
 export const pageNumber = z.preprocess(
 	(value) => (typeof value === 'string' && value.trim() === '' ? undefined : value),
-	z.coerce
-		.number({ error: 'The page must be a whole number.' })
-		.int('The page must be a whole number.')
-		.min(1, 'Pages start at 1.')
-		.max(100_000, 'There are not that many pages.')
+	z
+		.preprocess(
+			wholeNumberFromText,
+			z
+				.number({ error: 'The page must be a whole number.' })
+				.int('The page must be a whole number.')
+				.min(1, 'Pages start at 1.')
+				.max(100_000, 'There are not that many pages.')
+		)
 		.default(1)
 );

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_ID, isoDate, wholeNumberText } from './primitives';
 import { PART_CATEGORIES, TAX_MODES, type PartCategory } from '$lib/domain/types';
 
 /*
@@ -82,20 +83,15 @@ export const regionSettingsInput = z
 	}));
 export type RegionSettingsInput = z.output<typeof regionSettingsInput>;
 
-const isoDate = z
-	.string({ error: 'Enter the date the rate takes effect.' })
-	.trim()
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter a date as YYYY-MM-DD.')
-	.refine((d) => {
-		const t = new Date(`${d}T00:00:00Z`);
-		return !Number.isNaN(t.getTime()) && t.toISOString().startsWith(d);
-	}, 'Enter a real date.')
-	.refine((d) => d >= '1954-01-01' && d <= '2100-12-31', 'Enter a date between 1954 and 2100.');
+const effectiveDate = isoDate({ missing: 'Enter the date the rate takes effect.' }).refine(
+	(d) => d >= '1954-01-01' && d <= '2100-12-31',
+	'Enter a date between 1954 and 2100.'
+);
 
 /** POST ?/addRate: a rate that applies from `effectiveFrom` on (a future date is fine: announced changes). */
 export const taxRateInput = z.strictObject({
 	rate: percentField('the rate', 0, TAX_RATE_MAX_BP),
-	effectiveFrom: isoDate,
+	effectiveFrom: effectiveDate,
 	note: z
 		.string()
 		.trim()
@@ -108,11 +104,7 @@ export type TaxRateInput = z.output<typeof taxRateInput>;
 
 /** POST ?/removeRate */
 export const removeTaxRateInput = z.strictObject({
-	rateId: z.coerce
-		.number({ error: 'Unknown rate.' })
-		.int('Unknown rate.')
-		.positive('Unknown rate.')
-		.max(2 ** 32 - 1, 'Unknown rate.')
+	rateId: wholeNumberText('Unknown rate.', 1, MAX_ID)
 });
 
 /** The region code in /editor/regions/[code]. */

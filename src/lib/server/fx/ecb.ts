@@ -15,6 +15,7 @@
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { z } from 'zod';
+import { isoDate } from '../../schemas/primitives.js';
 
 export const ECB_DAILY_URL = 'https://www.ecb.europa.eu/stats/eurofxref/eurofxref-daily.xml';
 
@@ -50,17 +51,11 @@ export function ecbRatesUrl(env: NodeJS.ProcessEnv = process.env): string {
 	return env.ECB_RATES_URL?.trim() || ECB_DAILY_URL;
 }
 
-const isoDate = z
-	.string({ error: 'time is missing' })
-	.regex(/^\d{4}-\d{2}-\d{2}$/, 'time must be a date as YYYY-MM-DD')
-	.refine(
-		(s) =>
-			!Number.isNaN(Date.parse(`${s}T00:00:00Z`)) &&
-			new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-		{
-			message: 'time must be a real calendar date'
-		}
-	);
+const rateDate = isoDate({
+	missing: 'time is missing',
+	shape: 'time must be a date as YYYY-MM-DD',
+	real: 'time must be a real calendar date'
+});
 
 const rateCube = z.object({
 	currency: z
@@ -79,7 +74,7 @@ const rateCube = z.object({
 
 const dayCube = z.object(
 	{
-		time: isoDate,
+		time: rateDate,
 		Cube: z
 			.array(rateCube, { error: 'a day needs at least one rate' })
 			.min(1, 'a day needs at least one rate')
