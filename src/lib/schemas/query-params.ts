@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { wholeNumberFromText } from './primitives';
-import { fieldIssues } from './issues.js';
+import { fieldIssues, type Issues } from './issues.js';
 
 /*
  * Search queries from the URL, parsed two ways: strictly for the JSON API (anything wrong
@@ -8,7 +8,7 @@ import { fieldIssues } from './issues.js';
  * dropped, so one typo in an address does not lose the rest of the search).
  */
 
-export type Issues = Record<string, string[]>;
+export type { Issues } from './issues.js';
 
 /**
  * URL parameters as a record. Keys in `listKeys` collect every value (blank ones dropped);

@@ -1,6 +1,7 @@
 import { getContext, setContext } from 'svelte';
 import { applyOp, moveSlot } from '$lib/schemas/guide-editor-form';
 import type { EditorDraft } from '$lib/schemas/guide-editor-form';
+import type { Issues } from '$lib/schemas/issues';
 import type { EditorCatalog } from '$lib/views';
 
 /**
@@ -9,10 +10,10 @@ import type { EditorCatalog } from '$lib/views';
  */
 export class GuideDraftState {
 	draft = $state() as EditorDraft;
-	issues = $state<Record<string, string[]>>({});
+	issues = $state<Issues>({});
 	readonly catalog: EditorCatalog;
 
-	constructor(initial: EditorDraft, catalog: EditorCatalog, issues: Record<string, string[]> = {}) {
+	constructor(initial: EditorDraft, catalog: EditorCatalog, issues: Issues = {}) {
 		this.draft = initial;
 		this.catalog = catalog;
 		this.issues = issues;

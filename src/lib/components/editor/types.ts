@@ -3,7 +3,7 @@
  */
 
 /** Field name → messages, as the actions return them (`spec.<path>` for spec fields). */
-export type Issues = Record<string, string[]>;
+export type { Issues } from '$lib/schemas/issues';
 
 /** Messages for one field, and the ids that tie them to their control. */
 export function describedBy(

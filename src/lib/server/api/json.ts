@@ -5,6 +5,7 @@
 import { json } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { fieldIssues } from '$lib/schemas/issues';
+import type { Issues } from '$lib/schemas/issues';
 
 export type Read<T> = { ok: true; data: T } | { ok: false; response: Response };
 
@@ -27,7 +28,7 @@ export async function readJson<S extends z.ZodType>(
 	return { ok: true, data: parsed.data };
 }
 
-export const invalid = (issues: Record<string, string[]>) =>
+export const invalid = (issues: Issues) =>
 	json({ message: 'Check the highlighted fields.', issues }, { status: 400 });
 
 export const notFound = (message: string) => json({ message }, { status: 404 });

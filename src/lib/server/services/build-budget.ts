@@ -34,13 +34,14 @@ import { formatMoney, money } from '$lib/domain/money';
 import type { Money, PartCategory } from '$lib/domain/types';
 import { withinBudget } from '$lib/domain/within-budget';
 import type { BudgetSlot, OptionRef, WithinBudgetResult } from '$lib/domain/within-budget';
+import type { NotFound, Stale } from '$lib/schemas/issues';
 import { Build, BuildSlot, Region, sequelize } from '$lib/server/db';
 import type { BudgetNoFit, BudgetProposal, BudgetSwapView, BuildView } from '$lib/views';
 import { pricedOptions } from './build-pricing';
 import type { PricedOption } from './build-pricing';
 import { getBuild } from './build-view';
 
-export type ProposeOutcome = BudgetProposal | BudgetNoFit | { kind: 'not_found' };
+export type ProposeOutcome = BudgetProposal | BudgetNoFit | NotFound;
 
 export type ApplyBudgetOutcome =
 	| {
@@ -52,8 +53,8 @@ export type ApplyBudgetOutcome =
 			swaps: BudgetSwapView[];
 	  }
 	| BudgetNoFit
-	| { kind: 'conflict'; current: BuildView }
-	| { kind: 'not_found' };
+	| Stale<BuildView>
+	| NotFound;
 
 interface SlotOptions {
 	slotId: number;

@@ -20,13 +20,9 @@ import type { LoadedBuild } from './build-pricing';
 import { loadBuildSource, originOf } from './build-source';
 import { getBuild } from './build-view';
 import * as fx from './fx';
-import type { Issues } from './outcome';
+import type { Issues, VersionedOutcome } from '$lib/schemas/issues';
 
-export type MutationOutcome =
-	| { kind: 'ok'; build: BuildView }
-	| { kind: 'conflict'; current: BuildView }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
+export type MutationOutcome = VersionedOutcome<{ build: BuildView }, BuildView>;
 
 /** Most slots a build may have (a guide has a dozen; this leaves room for extras). */
 export const MAX_BUILD_SLOTS = 40;

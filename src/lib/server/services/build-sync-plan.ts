@@ -13,13 +13,14 @@ import type { LastSyncView, SyncPlanView, SyncRowView, SyncSideView } from '$lib
 import { keyedRevisionSlots, sourceSlotsOf } from './build-source';
 import { partRef } from './mappers';
 import { loadRevisionSlots } from './revision-snapshots';
+import type { Invalid, Issues, NotFound } from '$lib/schemas/issues';
 
 export type SyncPlanOutcome =
 	| { kind: 'plan'; plan: SyncPlanView }
 	/** No newer published revision (or no source left to sync with). */
 	| { kind: 'up_to_date'; version: number; lastSync: LastSyncView | null }
-	| { kind: 'invalid'; issues: Record<string, string[]> }
-	| { kind: 'not_found' };
+	| Invalid
+	| NotFound;
 
 /** The current state of the sync, sent back with a stale-version answer. */
 export type SyncState = Exclude<SyncPlanOutcome, { kind: 'not_found' } | { kind: 'invalid' }>;
@@ -197,7 +198,7 @@ async function planView(state: SyncState0, transaction?: Transaction): Promise<S
 }
 
 /** The form message for a build the domain cannot sync (a SyncInputError), else null. */
-export function inputError(e: unknown): Record<string, string[]> | null {
+export function inputError(e: unknown): Issues | null {
 	if (e instanceof SyncInputError)
 		return { _form: [`This build cannot be synced automatically: ${e.message}.`] };
 	return null;

@@ -23,6 +23,7 @@ import { Build, BuildSlot, BuildSync, sequelize } from '$lib/server/db';
 import type { SlotRowSnapshot } from '$lib/server/db/models/BuildSync';
 import { inputError, loadState, ownBuild, stateOf } from './build-sync-plan';
 import type { SyncState } from './build-sync-plan';
+import type { Invalid, Issues, NotFound, Stale, VersionedOutcome } from '$lib/schemas/issues';
 
 export interface ApplySyncInput {
 	/** Row id → choice; conflicts need one. */
@@ -43,15 +44,14 @@ export type ApplySyncOutcome =
 			removedSlots: number;
 			addedSlots: number;
 	  }
-	| { kind: 'conflict'; current: SyncState }
-	| { kind: 'invalid'; issues: Record<string, string[]> }
-	| { kind: 'not_found' };
+	| Stale<SyncState>
+	| Invalid
+	| NotFound;
 
-export type UndoSyncOutcome =
-	| { kind: 'ok'; version: number; baseRevisionId: number | null; restoredSlots: number }
-	| { kind: 'conflict'; current: SyncState }
-	| { kind: 'invalid'; issues: Record<string, string[]> }
-	| { kind: 'not_found' };
+export type UndoSyncOutcome = VersionedOutcome<
+	{ version: number; baseRevisionId: number | null; restoredSlots: number },
+	SyncState
+>;
 
 const NOTHING_TO_UNDO = 'There is no sync to undo on this build.';
 const STALE_TABLE =
@@ -119,7 +119,7 @@ export async function applySync(
 				takeAllNonConflicting: input.takeAllNonConflicting
 			});
 			if (!outcome.ok) {
-				const issues: Record<string, string[]> = {};
+				const issues: Issues = {};
 				const labelOf = (rowId: string) => state.plan.rows.find((r) => r.id === rowId);
 				for (const rowId of outcome.unresolved) {
 					const row = labelOf(rowId);

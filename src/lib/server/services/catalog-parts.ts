@@ -17,7 +17,7 @@ import { Part, sequelize } from '$lib/server/db';
 import type { EditorPartDetail } from '$lib/views';
 import * as audit from './audit';
 import { toPartRow } from './catalog-reads';
-import type { Issues, Outcome } from './outcome';
+import type { Issues, Outcome } from '$lib/schemas/issues';
 
 /** A part as checked before writing: what the row will hold. */
 export interface CheckedPart {

@@ -11,7 +11,7 @@ import { quoteInput, storeInput } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
 import { Part, Quote, Region, Store, sequelize } from '$lib/server/db';
 import * as audit from './audit';
-import type { Issues, Outcome } from './outcome';
+import type { Issues, Outcome } from '$lib/schemas/issues';
 
 function add(issues: Issues, key: string, message: string) {
 	(issues[key] ??= []).push(message);

@@ -14,9 +14,7 @@ import { cautionRuleInput } from '$lib/schemas/caution-rules';
 import { fieldIssues } from '$lib/schemas/issues';
 import { CautionRule, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
-import type { Issues, Outcome } from './outcome';
-
-export type { Issues, Outcome } from './outcome';
+import type { Issues, Outcome } from '$lib/schemas/issues';
 
 export interface CautionRuleRow {
 	id: number;

@@ -12,14 +12,14 @@ import type { FitInput } from '$lib/schemas/fit';
 import { Part } from '$lib/server/db';
 import type { FitResult } from '$lib/views';
 import { activeRules } from './caution-rules';
+import type { Invalid, Issues } from '$lib/schemas/issues';
 
-export type FitOutcome =
-	{ kind: 'ok'; result: FitResult } | { kind: 'invalid'; issues: Record<string, string[]> };
+export type FitOutcome = { kind: 'ok'; result: FitResult } | Invalid;
 
 export async function check(input: FitInput): Promise<FitOutcome> {
 	const ids = input.slots.flatMap((s) => ('partId' in s ? [s.partId] : []));
 	const parts = new Map((await Part.findAll({ where: { id: ids } })).map((p) => [p.id, p]));
-	const issues: Record<string, string[]> = {};
+	const issues: Issues = {};
 	const build: BuildPart[] = [];
 
 	input.slots.forEach((slot, i) => {

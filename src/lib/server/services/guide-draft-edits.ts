@@ -33,21 +33,14 @@ import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView } from '$lib/views';
 import { copyResults, replaceFrames, replaceThermals } from './guide-draft-results';
 import { latestRevision, ownGuide, viewOf } from './guide-drafts';
-import type { Issues } from './outcome';
+import type { Invalid, Issues, NotFound, Stale } from '$lib/schemas/issues';
 import { sendToAuthor, submittedMail } from './review-mail';
 
-export type CreateOutcome =
-	{ kind: 'created'; slug: string; version: number } | { kind: 'invalid'; issues: Issues };
+export type CreateOutcome = { kind: 'created'; slug: string; version: number } | Invalid;
 export type SaveOutcome =
-	| { kind: 'saved'; draft: DraftView }
-	| { kind: 'conflict'; current: DraftView }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
+	{ kind: 'saved'; draft: DraftView } | Stale<DraftView> | Invalid | NotFound;
 export type SubmitOutcome =
-	| { kind: 'submitted'; draft: DraftView }
-	| { kind: 'conflict'; current: DraftView }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
+	{ kind: 'submitted'; draft: DraftView } | Stale<DraftView> | Invalid | NotFound;
 
 /**
  * An amount the author typed, in the base region's currency and read the way that region

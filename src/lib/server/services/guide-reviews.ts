@@ -27,9 +27,9 @@ export interface Actor {
 
 export type DecideOutcome =
 	| { kind: 'ok'; guideState: string; mailed: boolean }
-	| { kind: 'not_found' }
+	| NotFound
 	| { kind: 'forbidden'; message: string }
-	| { kind: 'conflict'; message: string };
+	| Conflict;
 
 const DECISION_WORDS: Record<ReviewDecision, string> = {
 	approve: 'approved',

@@ -34,7 +34,7 @@ import {
 } from '$lib/server/db';
 import type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 import * as audit from './audit';
-import type { Issues } from './outcome';
+import type { Issues } from '$lib/schemas/issues';
 
 export type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 
@@ -48,14 +48,10 @@ export type SubmitOutcome =
 	| { kind: 'already_reported'; sightingId: number; state: PriceSightingState }
 	/** The same price for that day is already a quote from another source. */
 	| { kind: 'already_quoted' }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
+	| Invalid
+	| NotFound;
 
-export type DecideOutcome =
-	| { kind: 'ok'; quoteId: number | null }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' }
-	| { kind: 'conflict'; message: string };
+export type DecideOutcome = Outcome<{ quoteId: number | null }>;
 
 function add(issues: Issues, key: string, message: string) {
 	(issues[key] ??= []).push(message);

@@ -16,7 +16,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { regionSettingsInput, taxRateInput } from '$lib/schemas/regions';
 import { Region, RegionTaxRate, sequelize } from '$lib/server/db';
 import * as audit from './audit';
-import type { Issues, Outcome } from './outcome';
+import type { Issues, Outcome } from '$lib/schemas/issues';
 import { fullFactors, inForce, utcDay } from './region-reads';
 
 function knownCurrency(code: string): boolean {

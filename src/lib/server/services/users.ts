@@ -15,8 +15,7 @@ import { escapeLike, pageWindow } from './list-query';
 import type { AdminUserRow } from '$lib/views';
 
 /** What a change returns: routes map not_found to 404 and conflict to 409 with the message. */
-export type Outcome<T extends object = object> =
-	({ kind: 'ok' } & T) | { kind: 'not_found' } | { kind: 'conflict'; message: string };
+export type Outcome<T extends object = object> = Exclude<BaseOutcome<T>, Invalid>;
 
 // Listed explicitly so the password hash (and anything added to users later) never leaves.
 const ROW_ATTRIBUTES = ['id', 'email', 'name', 'role', 'disabledAt', 'createdAt'] as const;

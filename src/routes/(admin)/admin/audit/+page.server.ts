@@ -4,9 +4,10 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import * as audit from '$lib/server/services/audit';
 import type { PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 /** The filters from the URL; a bad value is reported and dropped, the rest still apply. */
-function parseFilters(url: URL): { query: AuditQuery; issues: Record<string, string[]> } {
+function parseFilters(url: URL): { query: AuditQuery; issues: Issues } {
 	const raw = Object.fromEntries(url.searchParams);
 	const parsed = auditQuery.safeParse(raw);
 	if (parsed.success) return { query: parsed.data, issues: {} };

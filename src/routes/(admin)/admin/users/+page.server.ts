@@ -6,13 +6,14 @@ import type { UserSearchQuery } from '$lib/schemas/users';
 import { requireRole } from '$lib/server/auth/guards';
 import * as users from '$lib/server/services/users';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 /**
  * The search from the URL. Keys starting with "/" name a form action (`?q=x&/changeRole`
  * keeps the search across a POST) and are not part of it. A bad value is reported and
  * dropped, so one typo in the address does not lose the rest of the search.
  */
-function parseSearch(url: URL): { query: UserSearchQuery; issues: Record<string, string[]> } {
+function parseSearch(url: URL): { query: UserSearchQuery; issues: Issues } {
 	const raw = Object.fromEntries([...url.searchParams].filter(([key]) => !key.startsWith('/')));
 	const parsed = userSearchQuery.safeParse(raw);
 	if (parsed.success) return { query: parsed.data, issues: {} };

@@ -4,6 +4,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import * as catalogReads from '$lib/server/services/catalog-reads';
 import * as catalogStores from '$lib/server/services/catalog-stores';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole('editor');
@@ -31,7 +32,7 @@ export const actions: Actions = {
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values: fields });
 		if (outcome.kind !== 'ok')
 			return fail(409, {
-				issues: { _form: ['The quote could not be added.'] } as Record<string, string[]>,
+				issues: { _form: ['The quote could not be added.'] } as Issues,
 				values: fields
 			});
 		redirect(303, '/editor/quotes?added=1');

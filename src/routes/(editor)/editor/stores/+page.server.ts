@@ -6,6 +6,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import * as catalogReads from '$lib/server/services/catalog-reads';
 import * as catalogStores from '$lib/server/services/catalog-stores';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = async ({ url }) => {
 	requireRole('editor');
@@ -17,8 +18,6 @@ export const load: PageServerLoad = async ({ url }) => {
 	const editing = stores.find((s) => s.id === editId) ?? null;
 	return { stores, regions, editing, done: url.searchParams.get('done') };
 };
-
-type Issues = Record<string, string[]>;
 
 export const actions: Actions = {
 	create: async ({ request }) => {

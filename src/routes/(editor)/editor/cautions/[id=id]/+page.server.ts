@@ -4,6 +4,7 @@ import { CONDITION_FIELDS, ruleFromForm, ruleVersionInput } from '$lib/schemas/c
 import { requireRole } from '$lib/server/auth/guards';
 import * as cautions from '$lib/server/services/caution-rules';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = async ({ params }) => {
 	requireRole('editor');
@@ -11,8 +12,6 @@ export const load: PageServerLoad = async ({ params }) => {
 	if (!rule) error(404, 'No such caution rule.');
 	return { rule, fields: CONDITION_FIELDS };
 };
-
-type Issues = Record<string, string[]>;
 
 export const actions: Actions = {
 	save: async ({ request, params }) => {

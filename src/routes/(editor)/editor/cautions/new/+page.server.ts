@@ -4,6 +4,7 @@ import { CONDITION_FIELDS, ruleFromForm } from '$lib/schemas/caution-rules';
 import { requireRole } from '$lib/server/auth/guards';
 import * as cautions from '$lib/server/services/caution-rules';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = () => {
 	requireRole('editor');
@@ -18,7 +19,7 @@ export const actions: Actions = {
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values });
 		if (outcome.kind !== 'ok')
 			return fail(409, {
-				issues: { _form: ['The rule could not be added.'] } as Record<string, string[]>,
+				issues: { _form: ['The rule could not be added.'] } as Issues,
 				values
 			});
 		redirect(303, '/editor/cautions?done=added');

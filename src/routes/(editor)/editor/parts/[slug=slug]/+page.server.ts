@@ -6,6 +6,7 @@ import * as catalogParts from '$lib/server/services/catalog-parts';
 import * as catalogReads from '$lib/server/services/catalog-reads';
 import { readPartForm } from '../part-form';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	requireRole('editor');
@@ -26,7 +27,7 @@ export const actions: Actions = {
 		const part = await catalogReads.getPart(params.slug);
 		if (!part)
 			return fail(404, {
-				issues: { _form: ['No part has this slug.'] } as Record<string, string[]>,
+				issues: { _form: ['No part has this slug.'] } as Issues,
 				values: null,
 				saved: false
 			});
@@ -40,13 +41,13 @@ export const actions: Actions = {
 			});
 		if (outcome.kind === 'not_found')
 			return fail(404, {
-				issues: { _form: ['No part has this slug.'] } as Record<string, string[]>,
+				issues: { _form: ['No part has this slug.'] } as Issues,
 				values: null,
 				saved: false
 			});
 		if (outcome.kind !== 'ok')
 			return fail(409, {
-				issues: { _form: ['The part could not be saved.'] } as Record<string, string[]>,
+				issues: { _form: ['The part could not be saved.'] } as Issues,
 				values: null,
 				saved: false
 			});

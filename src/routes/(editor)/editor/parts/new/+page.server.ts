@@ -6,6 +6,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import * as catalogParts from '$lib/server/services/catalog-parts';
 import { readPartForm } from '../part-form';
 import type { Actions, PageServerLoad } from './$types';
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = ({ url }) => {
 	requireRole('editor');
@@ -30,7 +31,7 @@ export const actions: Actions = {
 		const category = partCategory.safeParse(data.get('category'));
 		if (!category.success) {
 			return fail(400, {
-				issues: { category: ['Choose a category first.'] } as Record<string, string[]>,
+				issues: { category: ['Choose a category first.'] } as Issues,
 				values: null
 			});
 		}
@@ -39,7 +40,7 @@ export const actions: Actions = {
 		if (outcome.kind === 'invalid') return fail(400, { issues: outcome.issues, values });
 		if (outcome.kind !== 'ok')
 			return fail(409, {
-				issues: { _form: ['The part could not be added.'] } as Record<string, string[]>,
+				issues: { _form: ['The part could not be added.'] } as Issues,
 				values
 			});
 		redirect(303, `/editor/parts/${outcome.part.slug}?added=1`);

@@ -7,8 +7,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import * as regionReads from '$lib/server/services/region-reads';
 import * as regions from '$lib/server/services/regions';
 import type { Actions, PageServerLoad } from './$types';
-
-type Issues = Record<string, string[]>;
+import type { Issues } from '$lib/schemas/issues';
 
 export const load: PageServerLoad = async ({ params }) => {
 	requireRole('editor');
