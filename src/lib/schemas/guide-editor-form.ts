@@ -1,5 +1,8 @@
 import type { PartCategory } from '$lib/domain/types';
+import { DRAFT_LIMITS } from './guide-editor';
 import type { BuildNotesInput } from './guide-editor';
+import { FORM_ISSUES_KEY, type Issues } from './issues';
+import { wholeNumberFromText } from './primitives';
 
 /*
  * The guide editor's working state as the form holds it (strings as typed), and the
@@ -184,100 +187,199 @@ export function fromDraft(d: DraftLike): EditorDraft {
 	};
 }
 
-/** Reads the posted editor form; anything missing becomes empty (zod reports it later). */
-export function fromForm(data: FormData): EditorDraft {
-	const text = (name: string) => {
-		const v = data.get(name);
-		return typeof v === 'string' ? v : '';
-	};
-	const count = (prefix: string) => {
-		let max = -1;
-		for (const key of data.keys()) {
-			const m = new RegExp(`^${prefix.replace(/\./g, '\\.')}(\\d+)\\.`).exec(key);
-			if (m) max = Math.max(max, Math.min(Number(m[1]), 99));
+/**
+ * The most rows the editor sends, from draftInput's own limits, and the most fields a form
+ * of that size has (a slot is 9 fields plus 4 per alternate; a frame row 7, a thermal row 6;
+ * the rest about 30), with room to spare.
+ */
+export const EDITOR_FORM_LIMITS = {
+	slots: DRAFT_LIMITS.slots,
+	alternates: DRAFT_LIMITS.alternatesPerSlot,
+	frames: DRAFT_LIMITS.frames,
+	thermals: DRAFT_LIMITS.thermals,
+	fields: 3000
+} as const;
+
+const SLOT_FIELDS = [
+	'key',
+	'category',
+	'label',
+	'quantity',
+	'pickPartId',
+	'reason',
+	'quoteStoreId',
+	'quoteAmount',
+	'quoteObservedAt'
+] as const;
+const ALTERNATE_FIELDS = ['key', 'partId', 'reasonTag', 'note'] as const;
+const FRAME_FIELDS = [
+	'key',
+	'workload',
+	'resolution',
+	'preset',
+	'avgFps',
+	'low1Fps',
+	'notes'
+] as const;
+const THERMAL_FIELDS = [
+	'key',
+	'loadName',
+	'cpuTempC',
+	'gpuTempC',
+	'cpuUtilPct',
+	'gpuUtilPct'
+] as const;
+const META_FIELDS = [
+	'title',
+	'summary',
+	'targetBudget',
+	'baseRegion',
+	'disclosure',
+	'disclosureNote',
+	'walkthroughUrl'
+] as const;
+const NOTE_FIELDS = ['firmware', 'assembly', 'cabling', 'display'] as const;
+
+/** A row index as the editor writes it: plain digits, no leading zero ("0", "12"). */
+const INDEX = /^(?:0|[1-9][0-9]{0,3})$/;
+
+type Row = Record<string, string>;
+
+/** Rows by index, kept sparse while reading; `over` marks an index at or past the cap. */
+class Rows {
+	readonly byIndex = new Map<number, Row>();
+	over = false;
+	constructor(readonly cap: number) {}
+	/** The row at `index` (created on first use), or null when the index is past the cap. */
+	at(index: number): Row | null {
+		if (index >= this.cap) {
+			this.over = true;
+			return null;
 		}
-		return max + 1;
+		let row = this.byIndex.get(index);
+		if (!row) this.byIndex.set(index, (row = {}));
+		return row;
+	}
+	/** Rows that carry their required field, in index order: gaps left by removed rows close up. */
+	kept(required: string): [number, Row][] {
+		return [...this.byIndex.entries()]
+			.filter(([, row]) => required in row)
+			.sort(([a], [b]) => a - b);
+	}
+}
+
+/**
+ * Reads the posted editor form in one pass over its fields (issue 12: the old reader rescanned
+ * every key with a new regular expression inside its loop conditions, quadratic in the form's
+ * size). Anything missing becomes empty, and zod reports it later. A repeated field keeps its
+ * first value, as FormData.get does. Rows past the schema's caps and fields past the field
+ * cap are not read; each cap adds one message, under the same key and words as the schema's.
+ */
+export function readEditorForm(data: FormData): {
+	draft: EditorDraft;
+	issues: Issues;
+	/** The `version` field, a number when it is plain digits (else as posted, for the schema to refuse). */
+	version: unknown;
+	op: string;
+} {
+	const issues: Issues = {};
+	const top: Row = {};
+	const tags: string[] = [];
+	const slots = new Rows(EDITOR_FORM_LIMITS.slots);
+	const alternates = new Map<number, Rows>();
+	const frames = new Rows(EDITOR_FORM_LIMITS.frames);
+	const thermals = new Rows(EDITOR_FORM_LIMITS.thermals);
+	const set = (row: Row | null, field: string, value: string) => {
+		if (row && !(field in row)) row[field] = value;
 	};
-	const slots: EditorSlot[] = [];
-	for (let i = 0; i < count('slots.'); i++) {
-		const p = `slots.${i}.`;
-		if (!data.has(`${p}category`)) continue;
-		const alternates: EditorAlternate[] = [];
-		for (let j = 0; j < count(`${p}alternates.`); j++) {
-			const a = `${p}alternates.${j}.`;
-			if (!data.has(`${a}partId`)) continue;
-			alternates.push({
-				key: text(`${a}key`) || `s${i}a${j}`,
-				partId: text(`${a}partId`),
-				reasonTag: text(`${a}reasonTag`),
-				note: text(`${a}note`)
-			});
+
+	let fields = 0;
+	for (const [key, value] of data) {
+		if (++fields > EDITOR_FORM_LIMITS.fields) {
+			issues[FORM_ISSUES_KEY] = [
+				`The form has more fields than the editor sends (at most ${EDITOR_FORM_LIMITS.fields}). Reload the editor and try again.`
+			];
+			break;
 		}
-		slots.push({
-			key: text(`${p}key`) || `s${i}`,
-			category: text(`${p}category`) as PartCategory,
-			label: text(`${p}label`),
-			quantity: text(`${p}quantity`),
-			pickPartId: text(`${p}pickPartId`),
-			reason: text(`${p}reason`),
-			quoteStoreId: text(`${p}quoteStoreId`),
-			quoteAmount: text(`${p}quoteAmount`),
-			quoteObservedAt: text(`${p}quoteObservedAt`),
-			alternates
-		});
+		if (typeof value !== 'string') continue;
+		if (key === 'tags') {
+			tags.push(value);
+			continue;
+		}
+		const parts = key.split('.');
+		const [list, index, field, altIndex, altField] = parts;
+		if (parts.length === 1 || (parts.length === 2 && list === 'buildNotes')) {
+			set(top, key, value);
+			continue;
+		}
+		if (index === undefined || field === undefined || !INDEX.test(index)) continue;
+		const i = Number(index);
+		if (list === 'slots' && parts.length === 3) set(slots.at(i), field, value);
+		else if (list === 'slots' && parts.length === 5 && field === 'alternates') {
+			if (altIndex === undefined || altField === undefined || !INDEX.test(altIndex)) continue;
+			if (!slots.at(i)) continue;
+			let rows = alternates.get(i);
+			if (!rows) alternates.set(i, (rows = new Rows(EDITOR_FORM_LIMITS.alternates)));
+			set(rows.at(Number(altIndex)), altField, value);
+		} else if (list === 'frames' && parts.length === 3) set(frames.at(i), field, value);
+		else if (list === 'thermals' && parts.length === 3) set(thermals.at(i), field, value);
 	}
-	// Rows are kept by their required field's presence, like slots: gaps from removed rows close up.
-	const frames: EditorFrame[] = [];
-	for (let i = 0; i < count('frames.'); i++) {
-		const p = `frames.${i}.`;
-		if (!data.has(`${p}workload`)) continue;
-		frames.push({
-			key: text(`${p}key`) || `f${i}`,
-			workload: text(`${p}workload`),
-			resolution: text(`${p}resolution`),
-			preset: text(`${p}preset`),
-			avgFps: text(`${p}avgFps`),
-			low1Fps: text(`${p}low1Fps`),
-			notes: text(`${p}notes`)
-		});
-	}
-	const thermals: EditorThermal[] = [];
-	for (let i = 0; i < count('thermals.'); i++) {
-		const p = `thermals.${i}.`;
-		if (!data.has(`${p}loadName`)) continue;
-		thermals.push({
-			key: text(`${p}key`) || `t${i}`,
-			loadName: text(`${p}loadName`),
-			cpuTempC: text(`${p}cpuTempC`),
-			gpuTempC: text(`${p}gpuTempC`),
-			cpuUtilPct: text(`${p}cpuUtilPct`),
-			gpuUtilPct: text(`${p}gpuUtilPct`)
-		});
-	}
+
+	const pick = <F extends string>(row: Row, names: readonly F[]) =>
+		Object.fromEntries(names.map((n) => [n, row[n] ?? ''])) as Record<F, string>;
+
+	const slotRows = slots.kept('category');
+	if (slots.over) issues.slots = [`At most ${EDITOR_FORM_LIMITS.slots} slots.`];
+	const draftSlots: EditorSlot[] = slotRows.map(([i, row], n) => {
+		const alts = alternates.get(i);
+		if (alts?.over)
+			issues[`slots.${n}.alternates`] = [
+				`At most ${EDITOR_FORM_LIMITS.alternates} alternates per slot.`
+			];
+		return {
+			...pick(row, SLOT_FIELDS),
+			key: row.key || `s${i}`,
+			category: (row.category ?? '') as PartCategory,
+			alternates: (alts?.kept('partId') ?? []).map(([j, alt]) => ({
+				...pick(alt, ALTERNATE_FIELDS),
+				key: alt.key || `s${i}a${j}`
+			}))
+		};
+	});
+	if (frames.over) issues.frames = [`At most ${EDITOR_FORM_LIMITS.frames} frame results.`];
+	if (thermals.over) issues.thermals = [`At most ${EDITOR_FORM_LIMITS.thermals} thermal results.`];
+
+	const meta = pick(top, META_FIELDS);
 	return {
-		title: text('title'),
-		summary: text('summary'),
-		targetBudget: text('targetBudget'),
-		baseRegion: text('baseRegion'),
-		tags: data.getAll('tags').filter((t): t is string => typeof t === 'string'),
-		disclosure: text('disclosure'),
-		disclosureNote: text('disclosureNote'),
-		walkthroughUrl: text('walkthroughUrl'),
-		buildNotes: {
-			firmware: text('buildNotes.firmware'),
-			assembly: text('buildNotes.assembly'),
-			cabling: text('buildNotes.cabling'),
-			display: text('buildNotes.display')
+		draft: {
+			...meta,
+			tags,
+			buildNotes: Object.fromEntries(
+				NOTE_FIELDS.map((n) => [n, top[`buildNotes.${n}`] ?? ''])
+			) as BuildNotesInput,
+			slots: draftSlots,
+			frames: frames
+				.kept('workload')
+				.map(([i, row]) => ({ ...pick(row, FRAME_FIELDS), key: row.key || `f${i}` })),
+			thermals: thermals
+				.kept('loadName')
+				.map(([i, row]) => ({ ...pick(row, THERMAL_FIELDS), key: row.key || `t${i}` }))
 		},
-		slots,
-		frames,
-		thermals
+		issues,
+		version: wholeNumberFromText(top.version ?? ''),
+		op: top.op ?? ''
 	};
 }
 
-const num = (s: string) => (s.trim() === '' ? NaN : Number(s));
-/** Empty → null (not measured); anything else a number, NaN when not one (zod says so). */
-const optNum = (s: string) => (s.trim() === '' ? null : Number(s));
+/** The working copy a posted form holds (readEditorForm without its messages). */
+export function fromForm(data: FormData): EditorDraft {
+	return readEditorForm(data).draft;
+}
+
+/** Whole numbers as the shared rule reads them: digits only (schemas/primitives.ts). */
+const num = (s: string) => wholeNumberFromText(s);
+/** Empty → null (not measured); anything else as `num` reads it (zod refuses what is not a number). */
+const optNum = (s: string) => (s.trim() === '' ? null : wholeNumberFromText(s));
 
 /** The object draftInput parses: numbers where the schema wants numbers, empty quote → null. */
 export function toInput(d: EditorDraft): Record<string, unknown> {

@@ -33,6 +33,12 @@ export const BUILD_NOTE_SECTIONS = [
 ] as const;
 export type BuildNoteKey = (typeof BUILD_NOTE_SECTIONS)[number]['key'];
 
+/**
+ * How many rows a draft may hold. The editor's form reader (guide-editor-form.ts) stops at
+ * the same caps, so an oversized post is refused while it is read, not after.
+ */
+export const DRAFT_LIMITS = { slots: 40, alternatesPerSlot: 10, frames: 30, thermals: 20 } as const;
+
 /** An amount as typed ("700", "699.99", "129,90" where the base region writes the comma). */
 const decimalAmount = amount();
 
@@ -81,12 +87,19 @@ export const alternateInput = z.strictObject({
 export const slotInput = z.strictObject({
 	category: z.enum(PART_CATEGORIES, { message: 'Choose a category.' }),
 	label: z.string().trim().min(1, 'Give the slot a label.').max(80),
-	quantity: z.number().int().min(1, 'At least 1.').max(16, 'At most 16.'),
+	quantity: z
+		.number({ error: 'Enter the quantity as a whole number from 1 to 16.' })
+		.int('Enter the quantity as a whole number from 1 to 16.')
+		.min(1, 'At least 1.')
+		.max(16, 'At most 16.'),
 	pickPartId: id('part'),
 	reason: z.string().trim().min(1, 'Say why you picked it.').max(2000),
 	priceQuote: priceQuoteInput.nullish().transform((q) => q ?? null),
 	/** In rank order: the first is the author's first fallback. */
-	alternates: z.array(alternateInput).max(10, 'At most 10 alternates per slot.').default([])
+	alternates: z
+		.array(alternateInput)
+		.max(DRAFT_LIMITS.alternatesPerSlot, 'At most 10 alternates per slot.')
+		.default([])
 });
 export type SlotDraftInput = z.infer<typeof slotInput>;
 
@@ -177,13 +190,22 @@ export type ThermalResultInput = z.infer<typeof thermalResultInput>;
 export const draftInput = z.strictObject({
 	...guideMetaFields,
 	buildNotes: buildNotesInput,
-	slots: z.array(slotInput).min(1, 'Add at least one slot.').max(40, 'At most 40 slots.'),
+	slots: z
+		.array(slotInput)
+		.min(1, 'Add at least one slot.')
+		.max(DRAFT_LIMITS.slots, 'At most 40 slots.'),
 	/*
 	 * Left out (API clients that predate results) = keep the stored ones; a new revision then
 	 * copies them from the frozen one. Sent (the editor always sends them) = replace.
 	 */
-	frames: z.array(frameResultInput).max(30, 'At most 30 frame results.').optional(),
-	thermals: z.array(thermalResultInput).max(20, 'At most 20 thermal results.').optional()
+	frames: z
+		.array(frameResultInput)
+		.max(DRAFT_LIMITS.frames, 'At most 30 frame results.')
+		.optional(),
+	thermals: z
+		.array(thermalResultInput)
+		.max(DRAFT_LIMITS.thermals, 'At most 20 thermal results.')
+		.optional()
 });
 export type DraftInput = z.infer<typeof draftInput>;
 /** What the editor form and GET draft hand around before parsing (same shape). */

@@ -1,7 +1,13 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { buildNotesInput, draftInput } from '$lib/schemas/guide-editor';
-import { applyOp, fromDraft, fromForm, toInput } from '$lib/schemas/guide-editor-form';
-import { fieldIssues } from '$lib/schemas/issues';
+import {
+	applyOp,
+	fromDraft,
+	fromForm,
+	readEditorForm,
+	toInput
+} from '$lib/schemas/guide-editor-form';
+import { fieldIssues, mergeIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
@@ -23,13 +29,18 @@ async function owned(slug: string) {
 
 /** Validates and saves the posted form; the shape every failure returns keeps the author's text. */
 async function save(userId: string, slug: string, data: FormData) {
-	const fields = fromForm(data);
+	const form = readEditorForm(data);
+	const fields = form.draft;
 	const version = Number(data.get('version'));
 	const parsed = draftInput.safeParse(toInput(fields));
-	if (!parsed.success)
+	if (!parsed.success || Object.keys(form.issues).length > 0)
 		return {
 			ok: false as const,
-			failure: fail(400, { fields, version, issues: fieldIssues(parsed.error) })
+			failure: fail(400, {
+				fields,
+				version,
+				issues: mergeIssues(form.issues, parsed.success ? {} : fieldIssues(parsed.error))
+			})
 		};
 	if (!Number.isInteger(version) || version < 1)
 		return {
