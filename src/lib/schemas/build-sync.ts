@@ -1,23 +1,30 @@
 import { z } from 'zod';
+import type { FormReader } from './form-data';
+import { amount, version, wholeNumber } from './primitives';
 
 /*
- * JSON bodies of the build sync and within-budget API (src/lib/server/api/build-sync.ts).
+ * The build's sync and within-budget operations, one schema each, shared by the build page's
+ * form actions and the JSON API (src/lib/server/api/build-sync.ts). Each schema is the JSON
+ * body; each `…Form` function reads the page's form into that shape (schemas/form-data.ts).
  * Every body that changes a build carries the build's `version` (optimistic locking).
  */
 
-const version = z
-	.number({ error: 'Send the build’s version (a whole number).' })
-	.int('Send the build’s version (a whole number).')
-	.min(1, 'Send the build’s version (a whole number).');
+const BUDGET_MESSAGE =
+	'Send the budget as an amount in the build’s currency (e.g. "750.00") or a whole number of minor units (e.g. 75000 for USD 750.00).';
 
-/** Minor units of the build region's currency (cents for USD, yen for JPY). */
-const budget = z
-	.number({
-		error: 'Send the budget as a whole number of minor units (e.g. 75000 for USD 750.00).'
-	})
-	.int('Send the budget as a whole number of minor units (e.g. 75000 for USD 750.00).')
-	.min(0, 'A budget cannot be negative.')
-	.max(100_000_000_000, 'That budget is larger than Slotwise handles.');
+/**
+ * A budget in the build region's currency: an amount as typed ("750", "750.00", "750,00"
+ * where the region writes the decimal comma; what the page's field posts), or, as the API
+ * has always taken it, a whole number of minor units (75000 for USD 750.00). The service
+ * reads the text with the region's currency and decimal mark.
+ */
+const budget = z.union(
+	[
+		amount('Enter an amount like 1200 or 1199.99.'),
+		wholeNumber(BUDGET_MESSAGE, 0, 100_000_000_000)
+	],
+	{ error: BUDGET_MESSAGE }
+);
 
 /** Row ids as the sync table gives them: `source:<slot label>` or `local:<build slot id>`. */
 const rowId = z
@@ -37,8 +44,28 @@ export const syncApplyInput = z.object({
 });
 export type SyncApplyInput = z.infer<typeof syncApplyInput>;
 
+/** The sync table: `choice:<row id>` radios and the "take every change that is not a conflict" button. */
+export function syncApplyForm(f: FormReader) {
+	return {
+		version: f.number('version'),
+		upstreamRevisionId: f.number('upstreamRevisionId'),
+		takeAllNonConflicting: f.text('takeAll') === '1',
+		choices: f.withPrefix('choice:')
+	};
+}
+
 export const syncUndoInput = z.object({ version });
 
 export const withinBudgetInput = z.object({ budget });
 
+/** "Find swaps": the budget as the reader typed it. */
+export function withinBudgetForm(f: FormReader) {
+	return { budget: f.text('budget') };
+}
+
 export const withinBudgetApplyInput = z.object({ budget, version });
+
+/** "Apply these swaps": the proposal's budget in minor units (a hidden field) and the version. */
+export function withinBudgetApplyForm(f: FormReader) {
+	return { budget: f.number('budgetMinor'), version: f.number('version') };
+}

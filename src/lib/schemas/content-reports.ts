@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { FormReader } from './form-data';
 import { wholeNumberFromText } from './primitives';
 import {
 	HIDE_REASON_MAX_CHARS,
@@ -46,6 +47,11 @@ export const reportInput = z.strictObject({
 		)
 });
 export type ReportInput = z.infer<typeof reportInput>;
+
+/** The "Report this …" form on guide and build pages. */
+export function reportForm(f: FormReader) {
+	return { category: f.text('category'), detail: f.text('detail') };
+}
 
 const subjectFields = {
 	subjectType: z.enum(REPORT_SUBJECT_TYPES, { error: 'Unknown kind of content.' }),

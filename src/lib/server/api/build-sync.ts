@@ -7,7 +7,10 @@
  *   POST /api/v1/builds/[id]/within-budget/apply  { budget, version } → 200 applied | 422 | 409
  * Owner only (anyone else's build is a 404 with no data), visitors 401, JSON only (the hook
  * answers 415 to other bodies), stale version 409 { message, current }, bad input 400
- * { message, issues } with field paths.
+ * { message, issues } with field paths. `budget` is an amount in the build's currency
+ * ("750.00") or a whole number of minor units (75000).
+ *
+ * The schemas are the ones the build page's form actions use (schemas/build-sync.ts).
  */
 import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
@@ -18,15 +21,13 @@ import {
 	withinBudgetInput
 } from '$lib/schemas/build-sync';
 import { requireUser } from '$lib/server/auth/guards';
+import { jsonAnswer, jsonFailure, readJson } from '$lib/server/http/answers';
 import * as budget from '$lib/server/services/build-budget';
 import type { BudgetNoFit } from '$lib/views';
 import * as sync from '$lib/server/services/build-sync';
 import * as syncPlan from '$lib/server/services/build-sync-plan';
-import { CHANGED_ELSEWHERE } from './builds';
-import { invalid, notFound as notFoundAnswer, readJson, stale as staleAnswer } from './json';
+import { BUILD } from './builds';
 
-const notFound = () => notFoundAnswer('Build not found');
-const stale = (current: unknown) => staleAnswer(CHANGED_ELSEWHERE, current);
 const noFit = (n: BudgetNoFit) =>
 	json(
 		{
@@ -38,97 +39,72 @@ const noFit = (n: BudgetNoFit) =>
 		{ status: 422 }
 	);
 
+/** The changed counts and versions of a sync, an undo or an applied budget, without `kind`. */
+function withoutKind<T extends { kind: string }>({ kind: _kind, ...rest }: T) {
+	return rest;
+}
+
 function buildId(event: RequestEvent): number {
 	return Number(event.params.id);
 }
 
-/** GET …/sync: the three-way table, or up to date. */
+/** GET …/sync: the three-way table, or up to date. A build that cannot be synced is a 422. */
 export async function getSyncPlan(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	const outcome = await syncPlan.syncPlan(user.id, buildId(event));
-	switch (outcome.kind) {
-		case 'not_found':
-			return notFound();
-		case 'invalid':
-			return json(
-				{
-					message: outcome.issues._form?.[0] ?? 'This build cannot be synced.',
-					issues: outcome.issues
-				},
-				{ status: 422 }
-			);
-		default:
-			return json(outcome);
-	}
-}
-
-/** A sync or its undo: 404, 400 with issues, 409 with the current table, or what changed. */
-function changeAnswer(outcome: sync.ApplySyncOutcome | sync.UndoSyncOutcome): Response {
-	if (outcome.kind === 'not_found') return notFound();
-	if (outcome.kind === 'invalid') return invalid(outcome.issues);
-	if (outcome.kind === 'conflict') return stale(outcome.current);
-	const { kind: _kind, ...changed } = outcome;
-	return json(changed);
+	if (outcome.kind === 'invalid')
+		return json(
+			{
+				message: outcome.issues._form?.[0] ?? 'This build cannot be synced.',
+				issues: outcome.issues
+			},
+			{ status: 422 }
+		);
+	return jsonAnswer(outcome, BUILD, (ok) => json(ok));
 }
 
 /** POST …/sync: apply the reader's choices. */
 export async function postSync(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	const input = await readJson(event.request, syncApplyInput);
-	if (!input.ok) return input.response;
+	if (input.kind !== 'ok') return jsonFailure(input, BUILD);
 	const { version, ...choices } = input.data;
 	const outcome = await sync.applySync(user.id, buildId(event), choices, version);
-	return changeAnswer(outcome);
+	return jsonAnswer(outcome, BUILD, (ok) => json(withoutKind(ok)));
 }
 
 /** POST …/sync/undo: put back the slots and base revision of the last sync. */
 export async function postUndoSync(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	const input = await readJson(event.request, syncUndoInput);
-	if (!input.ok) return input.response;
+	if (input.kind !== 'ok') return jsonFailure(input, BUILD);
 	const outcome = await sync.undoLastSync(user.id, buildId(event), input.data.version);
-	return changeAnswer(outcome);
+	return jsonAnswer(outcome, BUILD, (ok) => json(withoutKind(ok)));
 }
 
 /** POST …/within-budget: the proposed swaps (nothing is changed). */
 export async function postWithinBudget(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	const input = await readJson(event.request, withinBudgetInput);
-	if (!input.ok) return input.response;
+	if (input.kind !== 'ok') return jsonFailure(input, BUILD);
 	const outcome = await budget.proposeWithinBudget(user.id, buildId(event), input.data.budget);
-	switch (outcome.kind) {
-		case 'not_found':
-			return notFound();
-		case 'no_fit':
-			return noFit(outcome);
-		case 'proposal': {
-			const { kind: _kind, ...proposal } = outcome;
-			return json(proposal);
-		}
-	}
+	return jsonAnswer(outcome, BUILD, (ok) =>
+		ok.kind === 'no_fit' ? noFit(ok) : json(withoutKind(ok))
+	);
 }
 
 /** POST …/within-budget/apply: solve again and apply the swaps as one change; sets the budget. */
 export async function postApplyWithinBudget(event: RequestEvent): Promise<Response> {
 	const user = requireUser();
 	const input = await readJson(event.request, withinBudgetApplyInput);
-	if (!input.ok) return input.response;
+	if (input.kind !== 'ok') return jsonFailure(input, BUILD);
 	const outcome = await budget.applyWithinBudget(
 		user.id,
 		buildId(event),
 		input.data.budget,
 		input.data.version
 	);
-	switch (outcome.kind) {
-		case 'not_found':
-			return notFound();
-		case 'no_fit':
-			return noFit(outcome);
-		case 'conflict':
-			return stale(outcome.current);
-		case 'ok': {
-			const { kind: _kind, ...applied } = outcome;
-			return json(applied);
-		}
-	}
+	return jsonAnswer(outcome, BUILD, (ok) =>
+		ok.kind === 'no_fit' ? noFit(ok) : json(withoutKind(ok))
+	);
 }

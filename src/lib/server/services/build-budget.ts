@@ -30,18 +30,18 @@
 import type { Transaction } from 'sequelize';
 import { fitReport } from '$lib/domain/fit';
 import type { BuildPart } from '$lib/domain/fit';
-import { formatMoney, money } from '$lib/domain/money';
+import { decimalMarkOf, formatMoney, money, parseAmount } from '$lib/domain/money';
 import type { Money, PartCategory } from '$lib/domain/types';
 import { withinBudget } from '$lib/domain/within-budget';
 import type { BudgetSlot, OptionRef, WithinBudgetResult } from '$lib/domain/within-budget';
-import type { NotFound, Stale } from '$lib/schemas/issues';
+import type { Invalid, NotFound, Stale } from '$lib/schemas/issues';
 import { Build, BuildSlot, Region, sequelize } from '$lib/server/db';
 import type { BudgetNoFit, BudgetProposal, BudgetSwapView, BuildView } from '$lib/views';
 import { pricedOptions } from './build-pricing';
 import type { PricedOption } from './build-pricing';
 import { getBuild } from './build-view';
 
-export type ProposeOutcome = BudgetProposal | BudgetNoFit | NotFound;
+export type ProposeOutcome = BudgetProposal | BudgetNoFit | Invalid | NotFound;
 
 export type ApplyBudgetOutcome =
 	| {
@@ -54,6 +54,7 @@ export type ApplyBudgetOutcome =
 	  }
 	| BudgetNoFit
 	| Stale<BuildView>
+	| Invalid
 	| NotFound;
 
 interface SlotOptions {
@@ -222,15 +223,29 @@ async function ownBuild(
 	});
 }
 
-/** The swaps that bring the owner's build within `budgetMinor` (minor units of its region's currency), or why none do. */
+/**
+ * A budget as the reader gave it: minor units of the region's currency, or an amount as typed
+ * in that currency, read the way the region writes amounts (domain/money.ts parseAmount).
+ */
+export type BudgetInput = number | string;
+
+function budgetInMinor(budget: BudgetInput, region: Region): number | Invalid {
+	if (typeof budget === 'number') return budget;
+	const parsed = parseAmount(budget, region.currency, decimalMarkOf(region.code));
+	return parsed.ok ? parsed.amountMinor : { kind: 'invalid', issues: { budget: [parsed.message] } };
+}
+
+/** The swaps that bring the owner's build within `budget` (in its region's currency), or why none do. */
 export async function proposeWithinBudget(
 	ownerId: string,
 	buildId: number,
-	budgetMinor: number
+	budget: BudgetInput
 ): Promise<ProposeOutcome> {
 	const build = await ownBuild(ownerId, buildId);
 	if (!build) return { kind: 'not_found' };
 	const region = (await Region.findByPk(build.regionId)) as Region;
+	const budgetMinor = budgetInMinor(budget, region);
+	if (typeof budgetMinor !== 'number') return budgetMinor;
 	const solved = solve(await loadProblem(build, region), budgetMinor);
 	if (!solved.ok) return solved.noFit;
 	const { result, problem } = solved;
@@ -253,7 +268,7 @@ export async function proposeWithinBudget(
 export async function applyWithinBudget(
 	ownerId: string,
 	buildId: number,
-	budgetMinor: number,
+	budget: BudgetInput,
 	expectedVersion: number
 ): Promise<ApplyBudgetOutcome> {
 	return sequelize.transaction(async (transaction): Promise<ApplyBudgetOutcome> => {
@@ -262,6 +277,8 @@ export async function applyWithinBudget(
 		if (build.version !== expectedVersion)
 			return { kind: 'conflict', current: await currentView(ownerId, build.id) };
 		const region = (await Region.findByPk(build.regionId, { transaction })) as Region;
+		const budgetMinor = budgetInMinor(budget, region);
+		if (typeof budgetMinor !== 'number') return budgetMinor;
 		const solved = solve(await loadProblem(build, region, transaction), budgetMinor);
 		if (!solved.ok) return solved.noFit;
 		const { result, problem } = solved;

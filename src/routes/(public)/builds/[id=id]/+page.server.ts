@@ -1,23 +1,31 @@
 import { error, fail } from '@sveltejs/kit';
-import type { z } from 'zod';
-import { decimalMarkOf, parseAmount } from '$lib/domain/money';
-import { formFields } from '$lib/schemas/account';
-import { reportInput } from '$lib/schemas/content-reports';
 import {
 	addSlotForm,
-	applyBudgetForm,
-	overrideForm,
-	proposeBudgetForm,
-	purchaseForm,
-	quantityForm,
-	settingsForm,
-	slotForm,
-	swapForm,
-	syncForm,
+	addSlotInput,
+	removeSlotInput,
+	slotAddress,
+	slotAddressForm,
+	updateBuildForm,
+	updateBuildInput,
+	updateSlotForms,
+	updateSlotInput,
 	versionForm
-} from '$lib/schemas/build-forms';
-import { fieldIssues } from '$lib/schemas/issues';
+} from '$lib/schemas/build';
+import {
+	syncApplyForm,
+	syncApplyInput,
+	syncUndoInput,
+	withinBudgetApplyForm,
+	withinBudgetApplyInput,
+	withinBudgetForm,
+	withinBudgetInput
+} from '$lib/schemas/build-sync';
+import { reportForm, reportInput } from '$lib/schemas/content-reports';
+import type { FormReader } from '$lib/schemas/form-data';
+import { issuesSentence, mergeIssues } from '$lib/schemas/issues';
+import type { Issues, Parsed } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
+import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as buildEdits from '$lib/server/services/build-edits';
 import * as buildView from '$lib/server/services/build-view';
 import * as buildBudget from '$lib/server/services/build-budget';
@@ -53,245 +61,200 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	};
 };
 
-type Outcome = Awaited<ReturnType<typeof buildEdits.updateSlot>>;
+/** How this page shows a failed change: one sentence (and the fields) at the top of the page. */
+function words(conflict: string) {
+	return formAnswers({
+		notFound: 'Build not found',
+		invalid: (issues: Issues) => ({ problem: true, issues, message: issuesSentence(issues) }),
+		conflict: () => ({ problem: true, message: conflict })
+	});
+}
+const page = words(
+	'This build was changed in another tab or window. The page now shows the stored version; make your change again.'
+);
+const sync = formAnswers({
+	notFound: 'Build not found',
+	invalid: (syncIssues: Issues) => ({
+		problem: true,
+		syncIssues,
+		message: issuesSentence(syncIssues)
+	}),
+	conflict: () => ({
+		problem: true,
+		message: 'This build or its guide changed meanwhile. Look at the new table and choose again.'
+	})
+});
+const undo = words('This build changed meanwhile; reload and try again.');
+const budget = formAnswers({
+	notFound: 'Build not found',
+	invalid: (issues: Issues) => ({ problem: true, budgetIssues: Object.values(issues).flat() }),
+	conflict: () => ({ problem: true, message: 'This build changed meanwhile; find swaps again.' })
+});
 
-/** One answer shape for every edit: saved, changed elsewhere (409), invalid (400) or gone (404). */
-function answer(outcome: Outcome, done: string) {
-	if (outcome.kind === 'not_found') error(404, 'Build not found');
-	if (outcome.kind === 'conflict')
-		return fail(409, {
-			problem: true,
-			message:
-				'This build was changed in another tab or window. The page now shows the stored version; make your change again.'
-		});
-	if (outcome.kind === 'invalid')
-		return fail(400, {
-			problem: true,
-			issues: outcome.issues,
-			message: Object.values(outcome.issues).flat().join(' ')
-		});
-	return { problem: false, message: done };
+/**
+ * A slot form: the slot it addresses (the API has it in the path) and the change, read with
+ * updateSlotInput, the schema PATCH …/slots/[slotId] uses. Both parsed, messages merged.
+ */
+function slotChange(
+	form: FormReader,
+	read: (f: FormReader) => unknown
+): Parsed<{ slotId: number; version: number; patch: buildEdits.SlotPatch }> {
+	const address = parseForm(form, slotAddress, slotAddressForm);
+	const change = parseForm(form, updateSlotInput, read);
+	if (address.kind !== 'ok' || change.kind !== 'ok')
+		return {
+			kind: 'invalid',
+			issues: mergeIssues(
+				address.kind === 'invalid' ? address.issues : {},
+				change.kind === 'invalid' ? change.issues : {}
+			)
+		};
+	const { version, ...patch } = change.data;
+	return { kind: 'ok', data: { slotId: address.data.slotId, version, patch } };
 }
 
-async function parse<S extends z.ZodType>(request: Request, schema: S) {
-	const parsed = schema.safeParse(formFields(await request.formData()));
-	if (!parsed.success)
-		return {
-			ok: false as const,
-			failure: fail(400, {
-				problem: true,
-				issues: fieldIssues(parsed.error),
-				message: Object.values(fieldIssues(parsed.error)).flat().join(' ')
-			})
-		};
-	return { ok: true as const, data: parsed.data as z.output<S> };
+async function editSlot(
+	buildId: number,
+	request: Request,
+	read: (f: FormReader) => unknown,
+	done: (patch: buildEdits.SlotPatch) => string
+) {
+	const me = requireUser();
+	const input = slotChange(await readFormData(request), read);
+	if (input.kind !== 'ok') return page.failure(input);
+	const { slotId, version, patch } = input.data;
+	return page.answer(await buildEdits.updateSlot(me.id, buildId, slotId, patch, version), () => ({
+		problem: false,
+		message: done(patch)
+	}));
 }
 
 export const actions: Actions = {
 	/** "Report this build": signed-in people who may read it (an unlisted one with ?key=); a repeat while the first is open changes nothing. */
 	report: async ({ params, request, url }) => {
 		const me = requireUser();
-		const fields = formFields(await request.formData());
-		const input = reportInput.safeParse(fields);
-		if (!input.success) {
-			return fail(400, {
-				report: {
-					issues: fieldIssues(input.error),
-					category: fields.category ?? '',
-					detail: fields.detail ?? ''
-				}
-			});
-		}
+		const form = await readFormData(request);
+		const reported = formAnswers({
+			notFound: () => ({ report: { problem: true, message: 'This build is not available.' } }),
+			// The reader's text comes back with the messages.
+			invalid: (issues: Issues) => ({
+				report: { issues, category: form.text('category') ?? '', detail: form.text('detail') ?? '' }
+			}),
+			conflict: (outcome) => ({
+				report: { problem: true, message: 'message' in outcome ? outcome.message : '' }
+			})
+		});
+		const input = parseForm(form, reportInput, reportForm);
+		if (input.kind !== 'ok') return reported.failure(input);
 		const outcome = await contentReports.report(me.id, 'build', params.id, input.data, {
 			shareToken: url.searchParams.get('key') ?? undefined
 		});
-		if (outcome.kind === 'not_found')
-			return fail(404, { report: { problem: true, message: 'This build is not available.' } });
-		if (outcome.kind === 'conflict')
-			return fail(409, { report: { problem: true, message: outcome.message } });
-		return {
+		return reported.answer(outcome, (ok) => ({
 			report: {
 				problem: false,
-				message: outcome.created
+				message: ok.created
 					? 'Thank you: your report is with the editors.'
 					: 'You have already reported this build and the editors have not decided yet; nothing new was filed.'
 			}
-		};
+		}));
 	},
-	swap: async ({ params, request }) => {
-		const me = requireUser();
-		const input = await parse(request, swapForm);
-		if (!input.ok) return input.failure;
-		return answer(
-			await buildEdits.updateSlot(
-				me.id,
-				Number(params.id),
-				input.data.slotId,
-				{ partId: input.data.partId },
-				input.data.version
-			),
-			'Swapped.'
-		);
-	},
-	quantity: async ({ params, request }) => {
-		const me = requireUser();
-		const input = await parse(request, quantityForm);
-		if (!input.ok) return input.failure;
-		return answer(
-			await buildEdits.updateSlot(
-				me.id,
-				Number(params.id),
-				input.data.slotId,
-				{ quantity: input.data.quantity },
-				input.data.version
-			),
-			'Quantity saved.'
-		);
-	},
-	override: async ({ params, request }) => {
-		const me = requireUser();
-		const input = await parse(request, overrideForm);
-		if (!input.ok) return input.failure;
-		return answer(
-			await buildEdits.updateSlot(
-				me.id,
-				Number(params.id),
-				input.data.slotId,
-				{ priceOverride: input.data.priceOverride },
-				input.data.version
-			),
-			'Price saved.'
-		);
-	},
-	purchase: async ({ params, request }) => {
-		const me = requireUser();
-		const input = await parse(request, purchaseForm);
-		if (!input.ok) return input.failure;
-		const done = input.data.purchase.purchased ? 'Marked bought.' : 'Marked not bought.';
-		return answer(
-			await buildEdits.updateSlot(
-				me.id,
-				Number(params.id),
-				input.data.slotId,
-				{ purchase: input.data.purchase },
-				input.data.version
-			),
-			done
-		);
-	},
+	swap: ({ params, request }) =>
+		editSlot(Number(params.id), request, updateSlotForms.swap, () => 'Swapped.'),
+	quantity: ({ params, request }) =>
+		editSlot(Number(params.id), request, updateSlotForms.quantity, () => 'Quantity saved.'),
+	override: ({ params, request }) =>
+		editSlot(Number(params.id), request, updateSlotForms.override, () => 'Price saved.'),
+	purchase: ({ params, request }) =>
+		editSlot(Number(params.id), request, updateSlotForms.purchase, (patch) =>
+			patch.purchase?.purchased ? 'Marked bought.' : 'Marked not bought.'
+		),
 	removeSlot: async ({ params, request }) => {
 		const me = requireUser();
-		const input = await parse(request, slotForm);
-		if (!input.ok) return input.failure;
-		return answer(
-			await buildEdits.removeSlot(me.id, Number(params.id), input.data.slotId, input.data.version),
-			'Slot removed.'
+		const form = await readFormData(request);
+		const address = parseForm(form, slotAddress, slotAddressForm);
+		const input = parseForm(form, removeSlotInput, versionForm);
+		if (address.kind !== 'ok' || input.kind !== 'ok')
+			return page.failure({
+				kind: 'invalid',
+				issues: mergeIssues(
+					address.kind === 'invalid' ? address.issues : {},
+					input.kind === 'invalid' ? input.issues : {}
+				)
+			});
+		const outcome = await buildEdits.removeSlot(
+			me.id,
+			Number(params.id),
+			address.data.slotId,
+			input.data.version
 		);
+		return page.answer(outcome, () => ({ problem: false, message: 'Slot removed.' }));
 	},
 	addSlot: async ({ params, request }) => {
 		const me = requireUser();
-		const input = await parse(request, addSlotForm);
-		if (!input.ok) return input.failure;
+		const input = parseForm(await readFormData(request), addSlotInput, addSlotForm);
+		if (input.kind !== 'ok') return page.failure(input);
 		const { version, ...slot } = input.data;
-		return answer(
-			await buildEdits.addSlot(
-				me.id,
-				Number(params.id),
-				slot as Parameters<typeof buildEdits.addSlot>[2],
-				version
-			),
-			'Slot added.'
-		);
+		const outcome = await buildEdits.addSlot(me.id, Number(params.id), slot, version);
+		return page.answer(outcome, () => ({ problem: false, message: 'Slot added.' }));
 	},
 	settings: async ({ params, request }) => {
 		const me = requireUser();
-		const input = await parse(request, settingsForm);
-		if (!input.ok) return input.failure;
+		const input = parseForm(await readFormData(request), updateBuildInput, updateBuildForm);
+		if (input.kind !== 'ok') return page.failure(input);
 		const { version, ...patch } = input.data;
-		return answer(await buildEdits.updateBuild(me.id, Number(params.id), patch, version), 'Saved.');
+		const outcome = await buildEdits.updateBuild(me.id, Number(params.id), patch, version);
+		return page.answer(outcome, () => ({ problem: false, message: 'Saved.' }));
 	},
 	sync: async ({ params, request }) => {
 		const me = requireUser();
-		const input = syncForm.safeParse(await request.formData());
-		if (!input.success)
-			return fail(400, {
-				problem: true,
-				syncIssues: fieldIssues(input.error),
-				message: 'Check the sync choices.'
-			});
+		const input = parseForm(await readFormData(request), syncApplyInput, syncApplyForm);
+		if (input.kind !== 'ok') return sync.failure(input);
 		const { version, ...choices } = input.data;
 		const outcome = await buildSync.applySync(me.id, Number(params.id), choices, version);
-		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		if (outcome.kind === 'conflict')
-			return fail(409, {
-				problem: true,
-				message:
-					'This build or its guide changed meanwhile. Look at the new table and choose again.'
-			});
-		if (outcome.kind === 'invalid')
-			return fail(400, {
-				problem: true,
-				syncIssues: outcome.issues,
-				message: Object.values(outcome.issues).flat().join(' ')
-			});
-		return {
+		return sync.answer(outcome, (ok) => ({
 			problem: false,
-			message: `Synced: ${outcome.changedSlots} changed, ${outcome.addedSlots} added, ${outcome.removedSlots} removed. You can undo it.`
-		};
+			message: `Synced: ${ok.changedSlots} changed, ${ok.addedSlots} added, ${ok.removedSlots} removed. You can undo it.`
+		}));
 	},
 	undoSync: async ({ params, request }) => {
 		const me = requireUser();
-		const input = await parse(request, versionForm);
-		if (!input.ok) return input.failure;
+		const input = parseForm(await readFormData(request), syncUndoInput, versionForm);
+		if (input.kind !== 'ok') return undo.failure(input);
 		const outcome = await buildSync.undoLastSync(me.id, Number(params.id), input.data.version);
-		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		if (outcome.kind === 'conflict')
-			return fail(409, {
-				problem: true,
-				message: 'This build changed meanwhile; reload and try again.'
-			});
-		if (outcome.kind === 'invalid')
-			return fail(400, { problem: true, message: Object.values(outcome.issues).flat().join(' ') });
-		return { problem: false, message: 'The last sync was undone.' };
+		return undo.answer(outcome, () => ({ problem: false, message: 'The last sync was undone.' }));
 	},
 	proposeBudget: async ({ params, request }) => {
 		const me = requireUser();
-		const input = await parse(request, proposeBudgetForm);
-		if (!input.ok)
-			return fail(400, { problem: true, budgetIssues: ['Write an amount like 1200 or 1199.99.'] });
-		const build = await buildView.getBuild({ id: me.id }, Number(params.id));
-		if (!build?.isOwner) error(404, 'Build not found');
-		const minor = parseAmount(
-			input.data.budget,
-			build.region.currency,
-			decimalMarkOf(build.region.code)
+		const input = parseForm(await readFormData(request), withinBudgetInput, withinBudgetForm);
+		if (input.kind !== 'ok') return budget.failure(input);
+		const outcome = await buildBudget.proposeWithinBudget(
+			me.id,
+			Number(params.id),
+			input.data.budget
 		);
-		if (!minor.ok) return fail(400, { problem: true, budgetIssues: [minor.message] });
-		const outcome = await buildBudget.proposeWithinBudget(me.id, build.id, minor.amountMinor);
-		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		return { budgetResult: outcome };
+		return budget.answer(outcome, (ok) => ({ budgetResult: ok }));
 	},
 	applyBudget: async ({ params, request }) => {
 		const me = requireUser();
-		const input = await parse(request, applyBudgetForm);
-		if (!input.ok) return input.failure;
+		const input = parseForm(
+			await readFormData(request),
+			withinBudgetApplyInput,
+			withinBudgetApplyForm
+		);
+		if (input.kind !== 'ok') return page.failure(input);
 		const outcome = await buildBudget.applyWithinBudget(
 			me.id,
 			Number(params.id),
-			input.data.budgetMinor,
+			input.data.budget,
 			input.data.version
 		);
-		if (outcome.kind === 'not_found') error(404, 'Build not found');
-		if (outcome.kind === 'conflict')
-			return fail(409, {
-				problem: true,
-				message: 'This build changed meanwhile; find swaps again.'
-			});
-		if (outcome.kind === 'no_fit')
-			return fail(422, { problem: true, budgetResult: outcome, message: outcome.reason });
-		return {
-			problem: false,
-			message: `Applied ${outcome.changes} ${outcome.changes === 1 ? 'swap' : 'swaps'}; the build is within your budget.`
-		};
+		return budget.answer(outcome, (ok) =>
+			ok.kind === 'no_fit'
+				? fail(422, { problem: true, budgetResult: ok, message: ok.reason })
+				: {
+						problem: false,
+						message: `Applied ${ok.changes} ${ok.changes === 1 ? 'swap' : 'swaps'}; the build is within your budget.`
+					}
+		);
 	}
 };

@@ -1,12 +1,12 @@
-import { error, fail } from '@sveltejs/kit';
+import { error } from '@sveltejs/kit';
 import { revisionCompareQuery } from '$lib/schemas/guide-page';
 import { regionQuery } from '$lib/schemas/guides';
 import * as buildLists from '$lib/server/services/build-lists';
 import * as guides from '$lib/server/services/guides';
-import { formFields } from '$lib/schemas/account';
-import { reportInput } from '$lib/schemas/content-reports';
-import { fieldIssues } from '$lib/schemas/issues';
+import { reportForm, reportInput } from '$lib/schemas/content-reports';
+import type { Issues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
+import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as contentReports from '$lib/server/services/content-reports';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
@@ -66,31 +66,29 @@ export const actions: Actions = {
 	/** "Report this guide": signed-in people only; a repeat while the first is open changes nothing. */
 	report: async ({ params, request }) => {
 		const me = requireUser();
-		const fields = formFields(await request.formData());
-		const input = reportInput.safeParse(fields);
-		if (!input.success) {
-			return fail(400, {
-				report: {
-					issues: fieldIssues(input.error),
-					category: fields.category ?? '',
-					detail: fields.detail ?? ''
-				}
-			});
-		}
-		const outcome = await contentReports.report(me.id, 'guide', params.slug, input.data);
-		if (outcome.kind === 'not_found')
-			return fail(404, {
+		const form = await readFormData(request);
+		const reported = formAnswers({
+			notFound: () => ({
 				report: { problem: true, message: 'This guide is no longer available.' }
-			});
-		if (outcome.kind === 'conflict')
-			return fail(409, { report: { problem: true, message: outcome.message } });
-		return {
+			}),
+			// The reader's text comes back with the messages.
+			invalid: (issues: Issues) => ({
+				report: { issues, category: form.text('category') ?? '', detail: form.text('detail') ?? '' }
+			}),
+			conflict: (outcome) => ({
+				report: { problem: true, message: 'message' in outcome ? outcome.message : '' }
+			})
+		});
+		const input = parseForm(form, reportInput, reportForm);
+		if (input.kind !== 'ok') return reported.failure(input);
+		const outcome = await contentReports.report(me.id, 'guide', params.slug, input.data);
+		return reported.answer(outcome, (ok) => ({
 			report: {
 				problem: false,
-				message: outcome.created
+				message: ok.created
 					? 'Thank you: your report is with the editors.'
 					: 'You have already reported this guide and the editors have not decided yet; nothing new was filed.'
 			}
-		};
+		}));
 	}
 };
