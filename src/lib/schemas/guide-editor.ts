@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
+import type { FormReader } from './form-data';
 import { amount, id, pastIsoDate, regionCode, version } from './primitives';
 
 /*
@@ -71,6 +72,21 @@ export const guideMetaFields = {
 
 export const createGuideInput = z.strictObject(guideMetaFields);
 export type CreateGuideInput = z.infer<typeof createGuideInput>;
+
+/** The new-guide form (/my/guides/new) in createGuideInput's shape; its text comes back on a failure. */
+export function createGuideForm(f: FormReader) {
+	const text = (name: string) => f.text(name) ?? '';
+	return {
+		title: text('title'),
+		summary: text('summary'),
+		targetBudget: text('targetBudget'),
+		baseRegion: text('baseRegion'),
+		tags: f.all('tags'),
+		disclosure: text('disclosure'),
+		disclosureNote: text('disclosureNote'),
+		walkthroughUrl: text('walkthroughUrl')
+	};
+}
 
 export const priceQuoteInput = z.strictObject({
 	storeId: id('store'),
@@ -213,8 +229,58 @@ export type DraftFields = z.input<typeof draftInput>;
 
 /** PUT /api/v1/guides/[slug]/draft and the editor's save: the draft plus the version it edits. */
 export const saveDraftInput = z.strictObject({ ...draftInput.shape, version });
+export type SaveDraftInput = z.infer<typeof saveDraftInput>;
 
 export const submitInput = z.strictObject({ version });
+
+/**
+ * What GET /api/v1/guides/[slug]/draft answers beside the draft itself: shown, never set
+ * (the guide's slug and state, the revision's number and state, what the server derives
+ * from the input: the currency of the base region, the notes as HTML, each part's summary).
+ * PUT takes a GET answer back as it came, so these are dropped before saveDraftInput parses
+ * the body. Nothing else is: an unknown field, or one only the workflow sets that GET does
+ * not show (authorId, featured), is still refused.
+ */
+export const DRAFT_READ_ONLY = {
+	draft: [
+		'slug',
+		'currency',
+		'buildNotesHtml',
+		'state',
+		'revisionNumber',
+		'revisionState',
+		'submittedAt',
+		'publishedRevisionNumber'
+	],
+	slot: ['pick'],
+	alternate: ['part']
+} as const;
+
+function isRecord(value: unknown): value is Record<string, unknown> {
+	return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function without(value: unknown, keys: readonly string[]): unknown {
+	if (!isRecord(value)) return value;
+	const kept = { ...value };
+	for (const key of keys) delete kept[key];
+	return kept;
+}
+
+/** A PUT body with the read-only fields a GET answer carries left out (see DRAFT_READ_ONLY). */
+export function withoutReadOnly(body: unknown): unknown {
+	const draft = without(body, DRAFT_READ_ONLY.draft);
+	if (!isRecord(draft) || !Array.isArray(draft.slots)) return draft;
+	return {
+		...draft,
+		slots: draft.slots.map((slot) => {
+			const kept = without(slot, DRAFT_READ_ONLY.slot);
+			return isRecord(kept) && Array.isArray(kept.alternates)
+				? { ...kept, alternates: kept.alternates.map((a) => without(a, DRAFT_READ_ONLY.alternate)) }
+				: kept;
+		})
+	};
+}
 
 /** The preview action: the four sections only. */
 export const previewInput = buildNotesInput;

@@ -1,7 +1,9 @@
-import { fail, redirect } from '@sveltejs/kit';
-import { createGuideInput } from '$lib/schemas/guide-editor';
-import { fieldIssues } from '$lib/schemas/issues';
+import { redirect } from '@sveltejs/kit';
+import { createGuideForm, createGuideInput } from '$lib/schemas/guide-editor';
+import { FormReader } from '$lib/schemas/form-data';
+import type { Issues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
+import { formAnswers, parseForm } from '$lib/server/http/answers';
 import * as limits from '$lib/server/rate-limit';
 import { guideCreateChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
@@ -14,34 +16,23 @@ export const load: PageServerLoad = async () => {
 	return { regions: (await drafts.editorCatalog()).regions };
 };
 
-function fieldsOf(data: FormData) {
-	const text = (name: string) => {
-		const v = data.get(name);
-		return typeof v === 'string' ? v : '';
-	};
-	return {
-		title: text('title'),
-		summary: text('summary'),
-		targetBudget: text('targetBudget'),
-		baseRegion: text('baseRegion'),
-		tags: data.getAll('tags').filter((t): t is string => typeof t === 'string'),
-		disclosure: text('disclosure'),
-		disclosureNote: text('disclosureNote'),
-		walkthroughUrl: text('walkthroughUrl')
-	};
-}
-
 export const actions: Actions = {
-	/** Creates the guide with an empty draft and opens it in the editor. */
+	/** Creates the guide with an empty draft and opens it in the editor (POST /api/v1/guides's schema). */
 	create: async ({ request }) => {
 		const user = requireRole('author', 'editor');
-		const fields = fieldsOf(await request.formData());
-		const input = createGuideInput.safeParse(fields);
-		if (!input.success) return fail(400, { fields, issues: fieldIssues(input.error) });
+		const form = new FormReader(await request.formData());
+		// What the author typed goes back with the messages.
+		const fields = createGuideForm(form);
+		const answers = formAnswers({
+			notFound: 'Guide not found',
+			invalid: (issues: Issues) => ({ fields, issues }),
+			conflict: () => ({ fields, issues: { _form: ['The guide could not be created.'] } })
+		});
+		const input = parseForm(form, createGuideInput, createGuideForm);
+		if (input.kind !== 'ok') return answers.failure(input);
 		const allowed = await limits.consumeAll(guideCreateChecks(user.id));
 		if (!allowed.ok) return tooManyRequests(allowed, undefined, { fields, issues: {} });
 		const outcome = await draftEdits.createGuide(user.id, input.data);
-		if (outcome.kind === 'invalid') return fail(400, { fields, issues: outcome.issues });
-		redirect(303, `/my/guides/${outcome.slug}/edit`);
+		return answers.answer(outcome, (ok) => redirect(303, `/my/guides/${ok.slug}/edit`));
 	}
 };

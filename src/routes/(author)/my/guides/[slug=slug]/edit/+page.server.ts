@@ -1,16 +1,14 @@
-import { error, fail, redirect } from '@sveltejs/kit';
-import { buildNotesInput, draftInput } from '$lib/schemas/guide-editor';
-import {
-	applyOp,
-	fromDraft,
-	fromForm,
-	readEditorForm,
-	toInput
-} from '$lib/schemas/guide-editor-form';
-import { fieldIssues, mergeIssues } from '$lib/schemas/issues';
+import { error, redirect } from '@sveltejs/kit';
+import { buildNotesInput, saveDraftInput } from '$lib/schemas/guide-editor';
+import { applyOp, fromDraft, readEditorForm, toInput } from '$lib/schemas/guide-editor-form';
+import type { EditorDraft } from '$lib/schemas/guide-editor-form';
+import { mergeIssues, parseInput } from '$lib/schemas/issues';
+import type { Issues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
+import { formAnswers } from '$lib/server/http/answers';
 import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
+import type { DraftView } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The guide editor: the author's own guides only (someone else's slug is a 404). */
@@ -27,85 +25,66 @@ async function owned(slug: string) {
 	return user;
 }
 
-/** Validates and saves the posted form; the shape every failure returns keeps the author's text. */
+/**
+ * How the editor shows a failure: every answer carries the author's text back (`fields`), so
+ * nothing typed is lost; a stale version brings the stored copy to compare with.
+ */
+function editorAnswers(fields: EditorDraft, version: unknown) {
+	const sent = typeof version === 'number' ? version : undefined;
+	return formAnswers({
+		notFound: 'Guide not found',
+		invalid: (issues: Issues) => ({ fields, version: sent, issues }),
+		conflict: (outcome) => {
+			if (!('current' in outcome))
+				return { fields, version: sent, issues: { _form: [outcome.message] } as Issues };
+			const current = outcome.current as DraftView;
+			// The next save is meant to go over the stored version the author has now seen.
+			return {
+				fields,
+				version: current.version,
+				conflict: { stored: fromDraft(current), version: current.version }
+			};
+		}
+	});
+}
+
+/**
+ * Reads the posted form in one pass (caps included), then parses it with saveDraftInput, the
+ * schema PUT /api/v1/guides/[slug]/draft uses, and saves it.
+ */
 async function save(userId: string, slug: string, data: FormData) {
 	const form = readEditorForm(data);
-	const fields = form.draft;
-	const version = Number(data.get('version'));
-	const parsed = draftInput.safeParse(toInput(fields));
-	if (!parsed.success || Object.keys(form.issues).length > 0)
-		return {
-			ok: false as const,
-			failure: fail(400, {
-				fields,
-				version,
-				issues: mergeIssues(form.issues, parsed.success ? {} : fieldIssues(parsed.error))
-			})
-		};
-	if (!Number.isInteger(version) || version < 1)
-		return {
-			ok: false as const,
-			failure: fail(400, {
-				fields,
-				version,
-				issues: { _form: ['Reload the editor: the form lost its version.'] }
-			})
-		};
-	const outcome = await draftEdits.saveDraft(userId, slug, parsed.data, version);
-	switch (outcome.kind) {
-		case 'not_found':
-			error(404, 'Guide not found');
-		// falls through: error() throws
-		case 'invalid':
-			return {
-				ok: false as const,
-				failure: fail(400, { fields, version, issues: outcome.issues })
-			};
-		case 'conflict':
-			return {
-				ok: false as const,
-				// The next save is meant to go over the stored version the author has now seen.
-				failure: fail(409, {
-					fields,
-					version: outcome.current.version,
-					conflict: { stored: fromDraft(outcome.current), version: outcome.current.version }
-				})
-			};
-		case 'saved':
-			return {
-				ok: true as const,
-				version: outcome.draft.version,
-				revisionNumber: outcome.draft.revisionNumber
-			};
-	}
+	const answers = editorAnswers(form.draft, form.version);
+	const parsed = parseInput(saveDraftInput, { ...toInput(form.draft), version: form.version });
+	const issues = mergeIssues(form.issues, parsed.kind === 'invalid' ? parsed.issues : {});
+	if (parsed.kind !== 'ok' || Object.keys(issues).length > 0)
+		return { ok: false as const, failure: answers.failure({ kind: 'invalid', issues }) };
+	const { version, ...draft } = parsed.data;
+	const outcome = await draftEdits.saveDraft(userId, slug, draft, version);
+	if (outcome.kind !== 'saved') return { ok: false as const, failure: answers.failure(outcome) };
+	return { ok: true as const, answers, draft: outcome.draft };
 }
 
 export const actions: Actions = {
 	/** No-JS add/remove/reorder: applies `op` to the posted form and shows it again, unsaved. */
 	edit: async ({ params, request }) => {
 		await owned(params.slug);
-		const data = await request.formData();
-		const op = data.get('op');
+		const form = readEditorForm(await request.formData());
 		return {
-			fields: applyOp(fromForm(data), typeof op === 'string' ? op : ''),
-			version: Number(data.get('version')),
+			fields: applyOp(form.draft, form.op),
+			version: typeof form.version === 'number' ? form.version : undefined,
+			issues: form.issues,
 			edited: true
 		};
 	},
 	preview: async ({ params, request }) => {
 		await owned(params.slug);
-		const data = await request.formData();
-		const fields = fromForm(data);
-		const notes = buildNotesInput.safeParse(fields.buildNotes);
-		if (!notes.success)
-			return fail(400, {
-				fields,
-				version: Number(data.get('version')),
-				issues: fieldIssues(notes.error)
-			});
+		const form = readEditorForm(await request.formData());
+		const notes = parseInput(buildNotesInput, form.draft.buildNotes);
+		if (notes.kind !== 'ok') return editorAnswers(form.draft, form.version).failure(notes);
 		return {
-			fields,
-			version: Number(data.get('version')),
+			fields: form.draft,
+			version: typeof form.version === 'number' ? form.version : undefined,
 			preview: drafts.previewNotes(notes.data)
 		};
 	},
@@ -113,26 +92,30 @@ export const actions: Actions = {
 		const user = await owned(params.slug);
 		const result = await save(user.id, params.slug, await request.formData());
 		if (!result.ok) return result.failure;
-		return { saved: true, version: result.version, revisionNumber: result.revisionNumber };
+		return {
+			saved: true,
+			version: result.draft.version,
+			revisionNumber: result.draft.revisionNumber
+		};
 	},
-	/** Saves what is in the form, then freezes it as a revision for review. */
+	/** Saves what is in the form, then freezes it as a revision for review (POST …/submit). */
 	submit: async ({ params, request, url }) => {
 		const user = await owned(params.slug);
 		const result = await save(user.id, params.slug, await request.formData());
 		if (!result.ok) return result.failure;
-		const outcome = await draftEdits.submit(user.id, params.slug, result.version, {
+		const outcome = await draftEdits.submit(user.id, params.slug, result.draft.version, {
 			guidesUrl: new URL('/my/guides', url.origin).href
 		});
-		if (outcome.kind === 'not_found') error(404, 'Guide not found');
-		if (outcome.kind === 'invalid' || outcome.kind === 'conflict') {
-			return fail(outcome.kind === 'conflict' ? 409 : 400, {
-				version: result.version,
-				issues:
-					outcome.kind === 'invalid'
-						? outcome.issues
-						: { _form: ['Changed elsewhere; reload and submit again.'] }
-			});
-		}
-		redirect(303, `/my/guides?submitted=${encodeURIComponent(params.slug)}`);
+		const submitted = formAnswers({
+			notFound: 'Guide not found',
+			invalid: (issues: Issues) => ({ version: result.draft.version, issues }),
+			conflict: () => ({
+				version: result.draft.version,
+				issues: { _form: ['Changed elsewhere; reload and submit again.'] } as Issues
+			})
+		});
+		return submitted.answer(outcome, () =>
+			redirect(303, `/my/guides?submitted=${encodeURIComponent(params.slug)}`)
+		);
 	}
 };
