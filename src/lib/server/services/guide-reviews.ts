@@ -17,6 +17,7 @@ import type { ReviewDecision } from '$lib/server/db/models/Review';
 import * as audit from './audit';
 import { notifyForksOfRevision } from './build-notify';
 import { sendToAuthor, templates } from './review-mail';
+import type { Conflict, NotFound } from '$lib/schemas/issues';
 
 export type { SlotNote } from '$lib/server/db/models/Review';
 

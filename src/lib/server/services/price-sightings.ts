@@ -34,7 +34,7 @@ import {
 } from '$lib/server/db';
 import type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 import * as audit from './audit';
-import type { Issues } from '$lib/schemas/issues';
+import type { Invalid, Issues, NotFound, Outcome } from '$lib/schemas/issues';
 
 export type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 

@@ -13,6 +13,7 @@ import * as audit from './audit';
 import type { Paged } from './audit';
 import { escapeLike, pageWindow } from './list-query';
 import type { AdminUserRow } from '$lib/views';
+import type { Invalid, Outcome as BaseOutcome } from '$lib/schemas/issues';
 
 /** What a change returns: routes map not_found to 404 and conflict to 409 with the message. */
 export type Outcome<T extends object = object> = Exclude<BaseOutcome<T>, Invalid>;
