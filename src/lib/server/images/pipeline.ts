@@ -114,7 +114,8 @@ export async function inspect(
 	lockDecoders();
 	let meta: Metadata;
 	try {
-		meta = await sharp(input, SHARP_INPUT).metadata();
+		// The header only: no pixel limit here, so the size can be judged and named below.
+		meta = await sharp(input, { failOn: 'warning', limitInputPixels: false }).metadata();
 	} catch {
 		throw new PhotoRejected(422, 'The image could not be read: the file is damaged or incomplete.');
 	}
