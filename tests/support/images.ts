@@ -87,6 +87,7 @@ export async function truncatedJpeg(): Promise<Buffer> {
 			width: 800,
 			height: 600,
 			channels: 3,
+			background: '#777777',
 			noise: { type: 'gaussian', mean: 120, sigma: 30 }
 		}
 	})

@@ -1,5 +1,7 @@
 import type { PartCategory } from '$lib/domain/types';
 import type { BuildNotesInput } from './guide-editor';
+import { applyGalleryOp, galleryFromDraft, galleryFromForm, galleryToInput } from './gallery-form';
+import type { EditorGalleryItem } from './gallery-form';
 
 /*
  * The guide editor's working state as the form holds it (strings as typed), and the
@@ -62,6 +64,8 @@ export interface EditorDraft {
 	slots: EditorSlot[];
 	frames: EditorFrame[];
 	thermals: EditorThermal[];
+	/** Photos in order (gallery-form.ts); undefined when the form had no gallery section. */
+	gallery?: EditorGalleryItem[];
 }
 
 /** The subset of the stored draft (services/guide-drafts DraftView) the editor starts from. */
@@ -99,6 +103,7 @@ export interface DraftLike {
 		cpuUtilPct: number | null;
 		gpuUtilPct: number | null;
 	}[];
+	gallery?: { photoId: number; stage: string; caption: string; altText: string }[];
 }
 
 let counter = 0;
@@ -180,7 +185,8 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			gpuTempC: reading(t.gpuTempC),
 			cpuUtilPct: reading(t.cpuUtilPct),
 			gpuUtilPct: reading(t.gpuUtilPct)
-		}))
+		})),
+		gallery: galleryFromDraft(d.gallery)
 	};
 }
 
@@ -271,7 +277,8 @@ export function fromForm(data: FormData): EditorDraft {
 		},
 		slots,
 		frames,
-		thermals
+		thermals,
+		gallery: galleryFromForm(data)
 	};
 }
 
@@ -321,7 +328,8 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 			gpuTempC: optNum(t.gpuTempC),
 			cpuUtilPct: optNum(t.cpuUtilPct),
 			gpuUtilPct: optNum(t.gpuUtilPct)
-		}))
+		})),
+		...(d.gallery ? { gallery: galleryToInput(d.gallery) } : {})
 	};
 }
 
@@ -334,6 +342,8 @@ function swap<T>(list: T[], i: number, j: number): T[] {
 
 /** Applies an editor operation (`slotUp:2`, `addAlt:0`, `altDown:1:0`…); unknown ops change nothing. */
 export function applyOp(d: EditorDraft, op: string): EditorDraft {
+	const gallery = applyGalleryOp(d.gallery ?? [], op);
+	if (gallery) return { ...d, gallery };
 	const [name, a = '-1', b = '-1'] = op.split(':');
 	const i = Number(a);
 	const j = Number(b);

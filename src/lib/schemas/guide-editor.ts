@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { galleryInput } from './photos';
 import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
 
 /*
@@ -197,7 +198,9 @@ export const draftInput = z.strictObject({
 	 * copies them from the frozen one. Sent (the editor always sends them) = replace.
 	 */
 	frames: z.array(frameResultInput).max(30, 'At most 30 frame results.').optional(),
-	thermals: z.array(thermalResultInput).max(20, 'At most 20 thermal results.').optional()
+	thermals: z.array(thermalResultInput).max(20, 'At most 20 thermal results.').optional(),
+	/** The photo gallery in order (schemas/photos.ts); left out = keep, like the results above. */
+	gallery: galleryInput.optional()
 });
 export type DraftInput = z.infer<typeof draftInput>;
 /** What the editor form and GET draft hand around before parsing (same shape). */

@@ -8,6 +8,7 @@ import { reportInput } from '$lib/schemas/content-reports';
 import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as contentReports from '$lib/server/services/content-reports';
+import { publishedGallery } from '$lib/server/services/gallery';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -58,7 +59,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await buildLists.lineage(params.slug)
+		lineage: await buildLists.lineage(params.slug),
+		gallery: await publishedGallery(params.slug)
 	};
 };
 

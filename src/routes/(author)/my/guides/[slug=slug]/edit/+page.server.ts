@@ -5,6 +5,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
+import { guidePhotos } from '$lib/server/services/gallery';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The guide editor: the author's own guides only (someone else's slug is a 404). */
@@ -12,7 +13,8 @@ export const load: PageServerLoad = async ({ params }) => {
 	const user = requireRole('author', 'editor');
 	const draft = await drafts.getDraft(user.id, params.slug);
 	if (!draft) error(404, 'Guide not found');
-	return { draft, catalog: await drafts.editorCatalog() };
+	const photos = (await guidePhotos(user.id, params.slug)) ?? {};
+	return { draft, catalog: await drafts.editorCatalog(), photos };
 };
 
 async function owned(slug: string) {
