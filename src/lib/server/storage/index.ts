@@ -1,6 +1,6 @@
 /*
  * The process-wide photo store, chosen by configuration (plain process.env so scripts and
- * the seed can use it): STORAGE_DRIVER=disk (default, UPLOADS_DIR or .data/uploads) or
+ * the seed can use it): STORAGE_DRIVER=disk (default, UPLOADS_DIR or .data/uploads/<DB_NAME>) or
  * STORAGE_DRIVER=s3 (S3_BUCKET, S3_ENDPOINT, S3_REGION, S3_FORCE_PATH_STYLE,
  * S3_ACCESS_KEY_ID, S3_SECRET_ACCESS_KEY; without keys the AWS SDK's default chain).
  */
@@ -27,7 +27,8 @@ export function storageFromEnv(env: NodeJS.ProcessEnv = process.env): ObjectStor
 		});
 	}
 	if (driver !== 'disk') throw new Error(`Unknown STORAGE_DRIVER "${driver}" (disk or s3).`);
-	return diskStorage(env.UPLOADS_DIR || resolve('.data/uploads'));
+	// One folder per database, so the test databases' photos never mix with the demo's.
+	return diskStorage(env.UPLOADS_DIR || resolve('.data/uploads', env.DB_NAME || 'slotwise'));
 }
 
 let shared: ObjectStorage | undefined;
