@@ -202,6 +202,15 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(public)/builds/[id=id]?/undoSync': ownBuild,
 	'POST /(public)/builds/[id=id]?/proposeBudget': ownBuild,
 	'POST /(public)/builds/[id=id]?/applyBudget': ownBuild,
+	'POST /(public)/builds/[id=id]?/tick': ownBuild,
+	// Report a photo of a finished build: like reporting the build (400 for the probe, then 404).
+	'POST /(public)/builds/[id=id]?/reportPhoto': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	// Report a build: visitors are sent to sign in. Signed in, the empty probe form is refused
 	// (400), then the page's load answers 404 for the sample id, which names no build.
 	'POST /(public)/builds/[id=id]?/report': {

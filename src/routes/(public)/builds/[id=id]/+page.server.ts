@@ -23,6 +23,9 @@ import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
 import * as buildSyncPlan from '$lib/server/services/build-sync-plan';
 import * as contentReports from '$lib/server/services/content-reports';
+import * as checklists from '$lib/server/services/build-checklist';
+import * as photos from '$lib/server/services/photos';
+import { stageTickInput } from '$lib/schemas/photos';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -46,6 +49,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		build,
 		sync: sync && (sync.kind === 'plan' || sync.kind === 'up_to_date') ? sync : null,
 		catalog: build.isOwner ? await drafts.editorCatalog() : null,
+		checklist: await checklists.getChecklist(build.id),
+		photos: await photos.buildPhotos(build.id),
 		// "Report this build": the form posts back with the link token the reader came with.
 		signedIn: viewer !== null,
 		shareKey: !build.isOwner && build.visibility === 'unlisted' ? (shareKey ?? null) : null
@@ -114,6 +119,53 @@ export const actions: Actions = {
 				message: outcome.created
 					? 'Thank you: your report is with the editors.'
 					: 'You have already reported this build and the editors have not decided yet; nothing new was filed.'
+			}
+		};
+	},
+	/** Ticks or unticks one assembly stage (owner only). */
+	tick: async ({ params, request }) => {
+		const me = requireUser();
+		const fields = formFields(await request.formData());
+		const input = stageTickInput.safeParse({ stage: fields.stage, done: fields.done === 'true' });
+		if (!input.success)
+			return fail(400, { problem: true, message: 'Choose a stage of this build.' });
+		const outcome = await checklists.tick(me.id, Number(params.id), input.data);
+		if (outcome.kind === 'not_found') error(404, 'Build not found');
+		if (outcome.kind !== 'ok')
+			return fail(400, { problem: true, message: 'This build has no such assembly stage.' });
+		return { problem: false, message: input.data.done ? 'Stage done.' : 'Stage not done.' };
+	},
+	/** "Report this photo" on a finished build's photo (?photo=<id>); the same path as any report. */
+	reportPhoto: async ({ request, url }) => {
+		const me = requireUser();
+		const photoId = Number(url.searchParams.get('photo') ?? 0);
+		const fields = formFields(await request.formData());
+		const input = reportInput.safeParse(fields);
+		if (!input.success)
+			return fail(400, {
+				photoReport: {
+					photoId,
+					issues: fieldIssues(input.error),
+					category: fields.category ?? '',
+					detail: fields.detail ?? ''
+				}
+			});
+		const outcome = await contentReports.report(me.id, 'photo', String(photoId), input.data, {
+			shareToken: url.searchParams.get('key') ?? undefined
+		});
+		if (outcome.kind === 'not_found')
+			return fail(404, {
+				photoReport: { photoId, problem: true, message: 'This photo is not available.' }
+			});
+		if (outcome.kind === 'conflict')
+			return fail(409, { photoReport: { photoId, problem: true, message: outcome.message } });
+		return {
+			photoReport: {
+				photoId,
+				problem: false,
+				message: outcome.created
+					? 'Thank you: your report is with the editors.'
+					: 'You have already reported this photo; nothing new was filed.'
 			}
 		};
 	},
