@@ -242,21 +242,35 @@ async function ownerIgnoringRefusal(
 	return null;
 }
 
-/** Photos of a part for its page and lists (small images), oldest first. */
-export async function partPhotos(partIds: number[]): Promise<Map<number, PhotoView[]>> {
-	const rows = partIds.length
-		? await Photo.findAll({
-				where: { partId: partIds, hiddenAt: null },
-				order: [['id', 'ASC']]
-			})
-		: [];
-	const map = new Map<number, PhotoView[]>();
+/** The first photo of each part, by part slug: the small image in lists and guide slots. */
+export async function partThumbs(slugs: string[]): Promise<Record<string, PhotoView>> {
+	if (slugs.length === 0) return {};
+	const parts = await Part.findAll({
+		where: { slug: [...new Set(slugs)] },
+		attributes: ['id', 'slug']
+	});
+	const slugOf = new Map(parts.map((p) => [p.id, p.slug]));
+	const thumbs: Record<string, PhotoView> = {};
+	const rows = await Photo.findAll({
+		where: { partId: [...slugOf.keys()], hiddenAt: null },
+		order: [['id', 'ASC']]
+	});
 	for (const row of rows) {
-		const list = map.get(row.partId ?? 0) ?? [];
-		list.push(photoView(row));
-		map.set(row.partId ?? 0, list);
+		const slug = slugOf.get(row.partId ?? 0);
+		if (slug && !thumbs[slug]) thumbs[slug] = photoView(row);
 	}
-	return map;
+	return thumbs;
+}
+
+/** A part's photos for its pages, oldest first (hidden ones left out). */
+export async function partPhotos(slug: string): Promise<PhotoView[]> {
+	const part = await Part.findOne({ where: { slug }, attributes: ['id'] });
+	if (!part) return [];
+	const rows = await Photo.findAll({
+		where: { partId: part.id, hiddenAt: null },
+		order: [['id', 'ASC']]
+	});
+	return rows.map((r) => photoView(r));
 }
 
 /** A finished build's photos; hidden ones are left out unless `includeHidden` (editors). */

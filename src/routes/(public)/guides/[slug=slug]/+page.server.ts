@@ -9,6 +9,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import * as contentReports from '$lib/server/services/content-reports';
 import { publishedGallery } from '$lib/server/services/gallery';
+import { partThumbs } from '$lib/server/services/photos';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -60,7 +61,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		diff,
 		compareProblem,
 		lineage: await buildLists.lineage(params.slug),
-		gallery: await publishedGallery(params.slug)
+		gallery: await publishedGallery(params.slug),
+		partThumbs: await partThumbs(guide.slots.map((s) => s.pick.slug))
 	};
 };
 
