@@ -124,6 +124,19 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 	await expect(items.nth(0).getByLabel('Caption')).toHaveValue('Caption 3');
 	const editorViolations = await severeViolations(author);
 	expect(editorViolations, editorViolations.join('\n')).toEqual([]);
+	// At a phone width (390 px) the gallery editor still fits: no sideways scrolling, and
+	// each photo's fields and buttons are on screen.
+	await author.setViewportSize({ width: 390, height: 900 });
+	const [scroll, inner] = await author.evaluate(() => [
+		document.documentElement.scrollWidth,
+		window.innerWidth
+	]);
+	expect(scroll, `editor ${scroll} px wide in a ${inner} px window`).toBeLessThanOrEqual(inner);
+	const earlier = items.nth(2).getByRole('button', { name: 'Move photo 3 earlier' });
+	await earlier.scrollIntoViewIfNeeded();
+	const button = await earlier.boundingBox();
+	expect((button?.x ?? -1) >= 0 && (button?.x ?? 0) + (button?.width ?? 0) <= 390).toBe(true);
+	await author.setViewportSize({ width: 1280, height: 900 });
 
 	await author.getByRole('button', { name: 'Save and submit for review' }).click();
 	await expect(author).toHaveURL(/\/my\/guides\?submitted=/);
