@@ -18,6 +18,7 @@ import {
 	User
 } from '../../src/lib/server/db';
 import * as checklists from '../../src/lib/server/services/build-checklist';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import * as gallery from '../../src/lib/server/services/gallery';
 import { resetDatabase } from '../support/db';
@@ -61,7 +62,7 @@ beforeEach(async () => {
 		slug: 'testa-c6',
 		specs: {}
 	});
-	await drafts.createGuide(
+	await draftEdits.createGuide(
 		author.id,
 		createGuideInput.parse({
 			title: 'Photo box',
@@ -108,7 +109,7 @@ function input(overrides: Partial<DraftFields> = {}) {
 
 async function save(fields: Partial<DraftFields>) {
 	const current = await drafts.getDraft(author.id, 'photo-box');
-	const outcome = await drafts.saveDraft(
+	const outcome = await draftEdits.saveDraft(
 		author.id,
 		'photo-box',
 		input(fields),
@@ -189,7 +190,7 @@ describe('a gallery is part of the revision', () => {
 	});
 
 	it("refuses another guide's photo and a missing alt text, saving nothing", async () => {
-		await drafts.createGuide(
+		await draftEdits.createGuide(
 			author.id,
 			createGuideInput.parse({
 				title: 'Other box',
@@ -202,7 +203,7 @@ describe('a gallery is part of the revision', () => {
 		const other = await Guide.findOne({ where: { slug: 'other-box' } });
 		const foreign = await photoFor(other?.id ?? 0, 9);
 		const current = await drafts.getDraft(author.id, 'photo-box');
-		const outcome = await drafts.saveDraft(
+		const outcome = await draftEdits.saveDraft(
 			author.id,
 			'photo-box',
 			input({ gallery: [{ photoId: foreign, stage: 'cooler', caption: '', altText: 'Borrowed' }] }),

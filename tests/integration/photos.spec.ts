@@ -17,7 +17,7 @@ import { GalleryPhoto, Guide, GuideRevision, Photo, Region, User } from '../../s
 import { diskStorage, storageFromEnv, useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import { GET as mediaRoute } from '../../src/routes/media/[...key]/+server';
-import * as drafts from '../../src/lib/server/services/guide-drafts';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as photos from '../../src/lib/server/services/photos';
 import { resetDatabase } from '../support/db';
 import { startS3Fake } from '../support/s3-fake';
@@ -83,7 +83,7 @@ beforeEach(async () => {
 		taxMode: 'exclusive',
 		taxRateBp: 0
 	});
-	const created = await drafts.createGuide(
+	const created = await draftEdits.createGuide(
 		author.id,
 		createGuideInput.parse({
 			title: 'Quiet box',

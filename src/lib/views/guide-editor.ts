@@ -5,8 +5,8 @@ import type { Finding, FindingCounts } from '$lib/domain/fit';
 import type { PowerBudget } from '$lib/domain/power';
 import type { AlternateReason, PartCategory } from '$lib/domain/types';
 import type { BuildNotesInput, GuideDisclosure, GuideTag } from '$lib/schemas/guide-editor';
-import type { GalleryItem } from '$lib/server/services/gallery';
 import type { PartRef } from './guide';
+import type { GalleryItem } from './photos';
 
 /** A part as the editor shows it: the same reference every page uses. */
 export type DraftPartRef = PartRef;

@@ -21,23 +21,9 @@ import type { StageTickInput } from '$lib/schemas/photos';
 import { Build, BuildStageTick, GuideRevision } from '$lib/server/db';
 import { revisionGallery } from './gallery';
 import type { Outcome } from './outcome';
-import type { PhotoView } from './photo-views';
+import type { ChecklistStageView, ChecklistView } from '$lib/views';
 
-export interface ChecklistStageView {
-	stage: AssemblyStage;
-	label: string;
-	cautions: string[];
-	photos: PhotoView[];
-	steps: string[];
-	done: boolean;
-}
-
-export interface ChecklistView {
-	general: string[];
-	stages: ChecklistStageView[];
-	progress: { done: number; total: number; percent: number };
-	deferToManuals: string;
-}
+export type { ChecklistStageView, ChecklistView };
 
 async function stagesOf(baseRevisionId: number) {
 	const revision = await GuideRevision.findByPk(baseRevisionId, {

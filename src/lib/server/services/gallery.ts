@@ -20,30 +20,16 @@ import type { GalleryItemInput } from '$lib/schemas/photos';
 import { GalleryPhoto, Guide, GuideRevision, Photo } from '$lib/server/db';
 import type { Issues } from './outcome';
 import { photoView } from './photo-views';
-import type { PhotoView } from './photo-views';
+import type {
+	GalleryChanges,
+	GalleryEntry,
+	GalleryItem,
+	GalleryStageView,
+	PhotoView,
+	PublishedGallery
+} from '$lib/views';
 
-export interface GalleryItem {
-	photoId: number;
-	stage: AssemblyStage;
-	caption: string;
-	altText: string;
-}
-
-export interface GalleryEntry extends GalleryItem {
-	photo: PhotoView;
-}
-
-export interface GalleryStageView {
-	stage: AssemblyStage;
-	label: string;
-	cautions: string[];
-	photos: PhotoView[];
-}
-
-export interface PublishedGallery {
-	stages: GalleryStageView[];
-	deferToManuals: string;
-}
+export type { GalleryChanges, GalleryEntry, GalleryItem, GalleryStageView, PublishedGallery };
 
 type Row = GalleryPhoto & { photo?: Photo };
 
@@ -177,13 +163,6 @@ export async function publishedGallery(slug: string): Promise<PublishedGallery |
 		stages: byStage(await revisionGallery(publishedRevisionId)),
 		deferToManuals: DEFER_TO_MANUALS
 	};
-}
-
-export interface GalleryChanges {
-	added: GalleryEntry[];
-	removed: GalleryEntry[];
-	/** Same photo, another stage, caption or alt text. */
-	changed: { before: GalleryEntry; after: GalleryEntry }[];
 }
 
 /** New, removed and re-described photos between two revisions (the review page, beside the text diff). */

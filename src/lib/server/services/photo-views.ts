@@ -4,29 +4,9 @@
  */
 import { srcset } from '$lib/domain/photo-variants';
 import type { Photo, StoredVariant } from '$lib/server/db';
+import type { PhotoVariantView, PhotoView } from '$lib/views';
 
-export interface PhotoVariantView {
-	format: 'avif' | 'webp' | 'jpeg';
-	width: number;
-	height: number;
-	url: string;
-}
-
-export interface PhotoView {
-	id: number;
-	width: number;
-	height: number;
-	placeholder: string;
-	avifSrcset: string;
-	webpSrcset: string;
-	/** The JPEG every browser can show (img src). */
-	fallbackUrl: string;
-	/** The widest variant's URL (WebP), for the lightbox. */
-	largestUrl: string;
-	variants: PhotoVariantView[];
-	caption: string;
-	altText: string;
-}
+export type { PhotoVariantView, PhotoView };
 
 export const mediaUrl = (key: string) => `/media/${key}`;
 
