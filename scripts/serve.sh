@@ -10,7 +10,7 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 export PORT="${PORT:-3001}"
 export HOST="${HOST:-127.0.0.1}"
 export ORIGIN="${ORIGIN:-http://127.0.0.1:$PORT}"
-export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-2M}"
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-16M}"
 export DB_NAME="${DB_NAME:-slotwise}"
 
 # from_file VAR FILE: VAR from .data/FILE unless already set.

@@ -21,6 +21,8 @@ export E2E_PORT="${E2E_PORT:-$(free_port)}"
 # Integration tests migrate slotwise_test themselves (globalSetup) and truncate between tests;
 # end-to-end tests read the seeded demo in slotwise_e2e.
 bash scripts/db.sh recreate slotwise_e2e >/dev/null || fail "recreate slotwise_e2e"
+# Its photo files go with it (src/lib/server/storage: one folder per database).
+rm -rf "$ROOT/.data/uploads/slotwise_e2e"
 migrate_and_seed slotwise_e2e
 
 status=0

@@ -58,7 +58,7 @@ export default defineConfig({
 			PORT: String(PORT),
 			HOST: '127.0.0.1',
 			ORIGIN: BASE_URL,
-			BODY_SIZE_LIMIT: '2M',
+			BODY_SIZE_LIMIT: '16M',
 			DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e',
 			LOG_LEVEL: 'silent',
 			// Mail goes to the SMTP fake and rates come from the ECB fake that npm test starts;

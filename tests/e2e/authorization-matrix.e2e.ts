@@ -202,6 +202,15 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(public)/builds/[id=id]?/undoSync': ownBuild,
 	'POST /(public)/builds/[id=id]?/proposeBudget': ownBuild,
 	'POST /(public)/builds/[id=id]?/applyBudget': ownBuild,
+	'POST /(public)/builds/[id=id]?/tick': ownBuild,
+	// Report a photo of a finished build: like reporting the build (400 for the probe, then 404).
+	'POST /(public)/builds/[id=id]?/reportPhoto': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	// Report a build: visitors are sent to sign in. Signed in, the empty probe form is refused
 	// (400), then the page's load answers 404 for the sample id, which names no build.
 	'POST /(public)/builds/[id=id]?/report': {
@@ -257,7 +266,19 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /api/v1/builds/[id=id]/slots': everyone('ok'),
 	'PATCH /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
 	'DELETE /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
-	'GET /api/v1/builds/[id=id]/export.csv': everyone('notfound')
+	'GET /api/v1/builds/[id=id]/export.csv': everyone('notfound'),
+	// Photo uploads take multipart only; the matrix posts a urlencoded form, which the hook
+	// refuses with 415 before auth (photos.e2e.ts checks roles and ownership with real files).
+	// Deletes are JSON like the rest of the API, so the form body is a 415 as well.
+	'POST /api/v1/guides/[slug=slug]/photos': everyone('ok'),
+	'DELETE /api/v1/guides/[slug=slug]/photos/[id=id]': everyone('ok'),
+	'POST /api/v1/parts/[slug=slug]/photos': everyone('ok'),
+	'DELETE /api/v1/parts/[slug=slug]/photos/[id=id]': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/photos': everyone('ok'),
+	'DELETE /api/v1/builds/[id=id]/photos/[photoId=id]': everyone('ok'),
+	// Photo files: the sample key names no photo, so everyone gets 404.
+	'GET /media/[...key]': everyone('notfound'),
+	'GET /help/photos': everyone('ok')
 };
 
 function classify(status: number, location: string | undefined): Outcome {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { galleryInput } from './photos';
 import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
 import type { FormReader } from './form-data';
 import { amount, id, pastIsoDate, regionCode, version } from './primitives';
@@ -221,7 +222,9 @@ export const draftInput = z.strictObject({
 	thermals: z
 		.array(thermalResultInput)
 		.max(DRAFT_LIMITS.thermals, 'At most 20 thermal results.')
-		.optional()
+		.optional(),
+	/** The photo gallery in order (schemas/photos.ts); left out = keep, like the results above. */
+	gallery: galleryInput.optional()
 });
 export type DraftInput = z.infer<typeof draftInput>;
 /** What the editor form and GET draft hand around before parsing (same shape). */

@@ -55,3 +55,8 @@ export function forkChecks(userId: string): [LimiterName, string][] {
 export function guideCreateChecks(userId: string): [LimiterName, string][] {
 	return [['guideCreateByUser', userId]];
 }
+
+/** Photo uploads count per account (services/photos.ts; every upload route is signed-in only). */
+export function photoUploadChecks(userId: string): [LimiterName, string][] {
+	return [['photoUploadByUser', userId]];
+}

@@ -6,6 +6,7 @@ import type { PowerBudget } from '$lib/domain/power';
 import type { AlternateReason, PartCategory } from '$lib/domain/types';
 import type { BuildNotesInput, GuideDisclosure, GuideTag } from '$lib/schemas/guide-editor';
 import type { PartRef } from './guide';
+import type { GalleryItem } from './photos';
 
 /** A part as the editor shows it: the same reference every page uses. */
 export type DraftPartRef = PartRef;
@@ -56,6 +57,8 @@ export interface DraftView {
 	slots: DraftSlotView[];
 	frames: DraftFrameView[];
 	thermals: DraftThermalView[];
+	/** The working revision's photo gallery in order (services/gallery.ts). */
+	gallery: GalleryItem[];
 	version: number;
 	state: string;
 	revisionNumber: number;

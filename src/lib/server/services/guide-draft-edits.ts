@@ -31,6 +31,7 @@ import {
 } from '$lib/server/db';
 import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView } from '$lib/views';
+import { checkGallery, writeGallery } from './gallery';
 import { copyResults, replaceFrames, replaceThermals } from './guide-draft-results';
 import { latestRevision, ownGuide, viewOf } from './guide-drafts';
 import type { Invalid, Issues, NotFound, Stale } from '$lib/schemas/issues';
@@ -179,6 +180,7 @@ export async function saveDraft(
 		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
 	const budget = amountIn(input.targetBudget, region);
 	const issues = await checkReferences(input, region);
+	if (input.gallery) Object.assign(issues, await checkGallery(guide.id, input.gallery));
 	if (!budget.ok) issues.targetBudget = [budget.message];
 	if (!budget.ok || Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	const buildNotesMd = joinBuildNotes(input.buildNotes);
@@ -231,7 +233,10 @@ export async function saveDraft(
 					{ frames: input.frames === undefined, thermals: input.thermals === undefined },
 					transaction
 				);
+			// The gallery is carried over the same way (a copy of the frozen rows unless sent).
+			await writeGallery(revision.id, input.gallery, frozen?.id ?? null, transaction);
 		} else {
+			await writeGallery(revision.id, input.gallery, null, transaction);
 			await revision.update({ buildNotesMd, buildNotesHtml }, { transaction });
 			// Alternates go with their slots (ON DELETE CASCADE).
 			await GuideSlot.destroy({ where: { revisionId: revision.id }, transaction });

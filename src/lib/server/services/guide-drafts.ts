@@ -38,6 +38,7 @@ import {
 } from '$lib/server/db';
 import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView, EditorCatalog } from '$lib/views';
+import { galleryItems } from './gallery';
 import { partRef } from './mappers';
 
 /** The author's own guide by slug, or null. */
@@ -151,6 +152,7 @@ export async function viewOf(guide: Guide, transaction?: Transaction): Promise<D
 			cpuUtilPct: t.cpuUtilPct,
 			gpuUtilPct: t.gpuUtilPct
 		})),
+		gallery: revision ? await galleryItems(revision.id, transaction) : [],
 		version: guide.version,
 		state: guide.state,
 		revisionNumber: revision?.number ?? 0,

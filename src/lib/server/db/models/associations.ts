@@ -7,15 +7,18 @@ import { AuditEvent } from './AuditEvent.js';
 import { AuthorRequest } from './AuthorRequest.js';
 import { Build } from './Build.js';
 import { BuildSlot } from './BuildSlot.js';
+import { BuildStageTick } from './BuildStageTick.js';
 import { BuildSync } from './BuildSync.js';
 import { CatalogImport } from './CatalogImport.js';
 import { CautionRule } from './CautionRule.js';
 import { ContentReport } from './ContentReport.js';
+import { GalleryPhoto } from './GalleryPhoto.js';
 import { Guide } from './Guide.js';
 import { FrameResult } from './FrameResult.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
 import { Part } from './Part.js';
+import { Photo } from './Photo.js';
 import { PriceSighting } from './PriceSighting.js';
 import { PriceSightingReport } from './PriceSightingReport.js';
 import { Quote } from './Quote.js';
@@ -108,4 +111,16 @@ export function applyAssociations() {
 	BuildSlot.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
 	Build.hasMany(BuildSync, { foreignKey: 'buildId', as: 'syncs' });
 	BuildSync.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
+
+	// Photos (services/photos.ts, gallery.ts, build-checklist.ts).
+	Photo.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
+	Photo.belongsTo(User, { foreignKey: 'hiddenById', as: 'hiddenBy' });
+	Photo.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
+	Photo.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+	Photo.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
+	GuideRevision.hasMany(GalleryPhoto, { foreignKey: 'revisionId', as: 'gallery' });
+	GalleryPhoto.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	GalleryPhoto.belongsTo(Photo, { foreignKey: 'photoId', as: 'photo' });
+	Build.hasMany(BuildStageTick, { foreignKey: 'buildId', as: 'stageTicks' });
+	BuildStageTick.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
 }

@@ -5,6 +5,7 @@ import { AuditEvent, initAuditEvent } from './AuditEvent.js';
 import { AuthorRequest, initAuthorRequest } from './AuthorRequest.js';
 import { Build, initBuild } from './Build.js';
 import { BuildSlot, initBuildSlot } from './BuildSlot.js';
+import { BuildStageTick, initBuildStageTick } from './BuildStageTick.js';
 import { BuildSync, initBuildSync } from './BuildSync.js';
 import { CatalogImport, initCatalogImport } from './CatalogImport.js';
 import { CautionRule, initCautionRule } from './CautionRule.js';
@@ -12,10 +13,12 @@ import { ContentReport, initContentReport } from './ContentReport.js';
 import { EmailToken, initEmailToken } from './EmailToken.js';
 import { FrameResult, initFrameResult } from './FrameResult.js';
 import { FxRate, initFxRate } from './FxRate.js';
+import { GalleryPhoto, initGalleryPhoto } from './GalleryPhoto.js';
 import { Guide, initGuide } from './Guide.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
 import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
+import { Photo, initPhoto } from './Photo.js';
 import { PriceSighting, initPriceSighting } from './PriceSighting.js';
 import { PriceSightingReport, initPriceSightingReport } from './PriceSightingReport.js';
 import { Quote, initQuote } from './Quote.js';
@@ -35,6 +38,7 @@ export {
 	AuthorRequest,
 	Build,
 	BuildSlot,
+	BuildStageTick,
 	BuildSync,
 	CatalogImport,
 	CautionRule,
@@ -42,10 +46,12 @@ export {
 	EmailToken,
 	FrameResult,
 	FxRate,
+	GalleryPhoto,
 	Guide,
 	GuideRevision,
 	GuideSlot,
 	Part,
+	Photo,
 	PriceSighting,
 	PriceSightingReport,
 	Quote,
@@ -89,5 +95,9 @@ export function initModels(sequelize: Sequelize) {
 	initBuild(sequelize);
 	initBuildSlot(sequelize);
 	initBuildSync(sequelize);
+	initPhoto(sequelize);
+	initGalleryPhoto(sequelize);
+	initBuildStageTick(sequelize);
 	applyAssociations();
 }
+export type { StoredVariant } from './Photo.js';

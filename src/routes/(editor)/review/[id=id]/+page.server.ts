@@ -4,13 +4,14 @@ import { decisionInput } from '$lib/schemas/review';
 import { requireRole } from '$lib/server/auth/guards';
 import * as reviews from '$lib/server/services/guide-reviews';
 import * as reviewPage from '$lib/server/services/review-page';
+import { reviewGalleryChanges } from '$lib/server/services/gallery';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const me = requireRole('editor');
 	const review = await reviewPage.getReview(me, Number(params.id), url.host);
 	if (!review) error(404, 'No submitted revision with that number');
-	return { review };
+	return { review, photoChanges: await reviewGalleryChanges(review.revisionId) };
 };
 
 /** The form's slot notes come as parallel slotLabel / slotNote fields, one pair per slot. */

@@ -32,6 +32,9 @@ import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
 import * as buildSyncPlan from '$lib/server/services/build-sync-plan';
 import * as contentReports from '$lib/server/services/content-reports';
+import * as checklists from '$lib/server/services/build-checklist';
+import * as photos from '$lib/server/services/photos';
+import { stageTickInput } from '$lib/schemas/photos';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -55,6 +58,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		build,
 		sync: sync && (sync.kind === 'plan' || sync.kind === 'up_to_date') ? sync : null,
 		catalog: build.isOwner ? await drafts.editorCatalog() : null,
+		checklist: await checklists.getChecklist(build.id),
+		photos: await photos.buildPhotos(build.id),
 		// "Report this build": the form posts back with the link token the reader came with.
 		signedIn: viewer !== null,
 		shareKey: !build.isOwner && build.visibility === 'unlisted' ? (shareKey ?? null) : null
@@ -155,6 +160,62 @@ export const actions: Actions = {
 				message: ok.created
 					? 'Thank you: your report is with the editors.'
 					: 'You have already reported this build and the editors have not decided yet; nothing new was filed.'
+			}
+		}));
+	},
+	/** Ticks or unticks one assembly stage (owner only). */
+	tick: async ({ params, request }) => {
+		const me = requireUser();
+		const form = await readFormData(request);
+		const input = stageTickInput.safeParse({
+			stage: form.text('stage') ?? '',
+			done: form.text('done') === 'true'
+		});
+		if (!input.success)
+			return fail(400, { problem: true, message: 'Choose a stage of this build.' });
+		const outcome = await checklists.tick(me.id, Number(params.id), input.data);
+		if (outcome.kind === 'not_found') error(404, 'Build not found');
+		if (outcome.kind !== 'ok')
+			return fail(400, { problem: true, message: 'This build has no such assembly stage.' });
+		return { problem: false, message: input.data.done ? 'Stage done.' : 'Stage not done.' };
+	},
+	/** "Report this photo" on a finished build's photo (?photo=<id>); the same path as any report. */
+	reportPhoto: async ({ request, url }) => {
+		const me = requireUser();
+		const photoId = Number(url.searchParams.get('photo') ?? 0);
+		const form = await readFormData(request);
+		const reported = formAnswers({
+			notFound: () => ({
+				photoReport: { photoId, problem: true, message: 'This photo is not available.' }
+			}),
+			invalid: (issues: Issues) => ({
+				photoReport: {
+					photoId,
+					issues,
+					category: form.text('category') ?? '',
+					detail: form.text('detail') ?? ''
+				}
+			}),
+			conflict: (outcome) => ({
+				photoReport: {
+					photoId,
+					problem: true,
+					message: 'message' in outcome ? outcome.message : ''
+				}
+			})
+		});
+		const input = parseForm(form, reportInput, reportForm);
+		if (input.kind !== 'ok') return reported.failure(input);
+		const outcome = await contentReports.report(me.id, 'photo', String(photoId), input.data, {
+			shareToken: url.searchParams.get('key') ?? undefined
+		});
+		return reported.answer(outcome, (ok) => ({
+			photoReport: {
+				photoId,
+				problem: false,
+				message: ok.created
+					? 'Thank you: your report is with the editors.'
+					: 'You have already reported this photo; nothing new was filed.'
 			}
 		}));
 	},

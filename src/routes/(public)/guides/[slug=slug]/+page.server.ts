@@ -8,6 +8,8 @@ import type { Issues } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as contentReports from '$lib/server/services/content-reports';
+import { publishedGallery } from '$lib/server/services/gallery';
+import { partThumbs } from '$lib/server/services/photos';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -58,7 +60,9 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await buildLists.lineage(params.slug)
+		lineage: await buildLists.lineage(params.slug),
+		gallery: await publishedGallery(params.slug),
+		partThumbs: await partThumbs(guide.slots.map((s) => s.pick.slug))
 	};
 };
 

@@ -8,6 +8,7 @@ import { requireRole } from '$lib/server/auth/guards';
 import { formAnswers } from '$lib/server/http/answers';
 import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
+import { guidePhotos } from '$lib/server/services/gallery';
 import type { DraftView } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -16,7 +17,8 @@ export const load: PageServerLoad = async ({ params }) => {
 	const user = requireRole('author', 'editor');
 	const draft = await drafts.getDraft(user.id, params.slug);
 	if (!draft) error(404, 'Guide not found');
-	return { draft, catalog: await drafts.editorCatalog() };
+	const photos = (await guidePhotos(user.id, params.slug)) ?? {};
+	return { draft, catalog: await drafts.editorCatalog(), photos };
 };
 
 async function owned(slug: string) {
