@@ -58,7 +58,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await buildLists.lineage(params.slug)
+		// The guide's id from the page read: the guide is not fetched by slug a second time.
+		lineage: await buildLists.lineageOf(outcome.guideId)
 	};
 };
 
