@@ -18,6 +18,7 @@ import * as audit from './audit';
 import { notifyForksOfRevision } from './build-notify';
 import { sendToAuthor, templates } from './review-mail';
 import type { Conflict, NotFound } from '$lib/schemas/issues';
+import * as guidePrices from './guide-prices';
 
 export type { SlotNote } from '$lib/server/db/models/Review';
 
@@ -156,6 +157,9 @@ export async function decide(
 		} as const;
 	});
 	if (result.kind !== 'ok') return result;
+	// Lists show the new revision's stored figures from now on (after commit: pricing reads
+	// through the pool and must see the published revision).
+	if (input.decision === 'approve') await guidePrices.refreshRevisions([revisionId]);
 	const message = templates.reviewDecision({
 		name: result.author?.name ?? '',
 		title: result.title,

@@ -33,6 +33,7 @@ import { activeRules } from './caution-rules';
 import * as fx from './fx';
 import { dropInSlot, partRef, picksOf, regionSummary } from './mappers';
 import { priceRevisionsIn } from './pricing';
+import { allRegions, regionByCode } from './reference-cache';
 import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
 
 /** The published guide in its base region, or null when there is none. */
@@ -51,11 +52,14 @@ export type PricedOutcome =
  */
 export async function getPriced(slug: string, regionCode: string | null): Promise<PricedOutcome> {
 	const outcome = await getGuidePage(slug, regionCode);
-	return outcome.kind === 'ok' ? { kind: 'ok', guide: outcome.page.guide } : outcome;
+	if (outcome.kind !== 'ok') return outcome;
+	return { kind: 'ok', guide: outcome.page.guide };
 }
 
 export type GuidePageOutcome =
-	{ kind: 'ok'; page: GuidePage } | { kind: 'not_found' } | { kind: 'unknown_region' };
+	| { kind: 'ok'; page: GuidePage; guideId: number }
+	| { kind: 'not_found' }
+	| { kind: 'unknown_region' };
 
 /**
  * The guide page: the priced guide (with value and reproducibility in the region) plus fit
@@ -72,7 +76,7 @@ export async function getGuidePage(
 	if (!guide) return { kind: 'not_found' };
 	let target: Region | null = null;
 	if (regionCode) {
-		target = await Region.findOne({ where: { code: regionCode } });
+		target = await regionByCode(regionCode);
 		if (!target) return { kind: 'unknown_region' };
 	}
 	const revision = guide.publishedRevision;
@@ -113,6 +117,7 @@ export async function getGuidePage(
 	const slotLabels = Object.fromEntries(build.map((b) => [b.key, b.label]));
 	return {
 		kind: 'ok',
+		guideId: guide.id,
 		page: {
 			hidden: guide.hiddenAt
 				? { reason: guide.hiddenReason ?? '', hiddenAt: guide.hiddenAt.toISOString() }
@@ -342,7 +347,7 @@ function dropInView(result: DropInResult | undefined): DropInView | undefined {
 
 /** Every region, for the switcher. */
 export async function listRegions(): Promise<RegionSummary[]> {
-	return (await Region.findAll({ order: [['name', 'ASC']] })).map(regionSummary);
+	return (await allRegions()).map(regionSummary);
 }
 
 export interface AuthoredGuide {

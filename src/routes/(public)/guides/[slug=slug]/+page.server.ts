@@ -60,7 +60,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await buildLists.lineage(params.slug),
+		// The guide's id from the page read: the guide is not fetched by slug a second time.
+		lineage: await buildLists.lineageOf(outcome.guideId),
 		gallery: await publishedGallery(params.slug),
 		partThumbs: await partThumbs(guide.slots.map((s) => s.pick.slug))
 	};
