@@ -45,13 +45,10 @@ import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
 import * as mBuildsHiddenAt from './2026.12.06T10.00.00.add-builds-hidden-at.js';
 import * as mBuildsHiddenReason from './2026.12.06T10.01.00.add-builds-hidden-reason.js';
 import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js';
-<<<<<<< HEAD
 import * as mPhotos from './2026.12.08T09.00.00.create-photos.js';
 import * as mGalleryPhotos from './2026.12.08T09.01.00.create-gallery-photos.js';
 import * as mBuildStageTicks from './2026.12.08T09.02.00.create-build-stage-ticks.js';
-=======
 import * as mGuideRegionPrices from './2026.12.09T12.00.00.create-guide-region-prices.js';
->>>>>>> speed
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -94,11 +91,8 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
 	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
 	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
-<<<<<<< HEAD
 	'2026.12.08T09.00.00.create-photos': mPhotos,
 	'2026.12.08T09.01.00.create-gallery-photos': mGalleryPhotos,
-	'2026.12.08T09.02.00.create-build-stage-ticks': mBuildStageTicks
-=======
+	'2026.12.08T09.02.00.create-build-stage-ticks': mBuildStageTicks,
 	'2026.12.09T12.00.00.create-guide-region-prices': mGuideRegionPrices
->>>>>>> speed
 };
