@@ -19,7 +19,10 @@ export interface EditorAlternate {
 }
 
 export interface EditorSlot {
+	/** Keys the editor's rows; the slot's own key when it has one. */
 	key: string;
+	/** The slot's own key (guide_slots.slot_key), round-tripped as a hidden field; '' for a new slot. */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	quantity: string;
@@ -79,6 +82,7 @@ export interface DraftLike {
 	walkthroughUrl: string | null;
 	buildNotes: BuildNotesInput;
 	slots: {
+		slotKey: string;
 		category: PartCategory;
 		label: string;
 		quantity: number;
@@ -113,6 +117,7 @@ export function newKey(): string {
 export function emptySlot(category: PartCategory = 'cpu', key = newKey()): EditorSlot {
 	return {
 		key,
+		slotKey: '',
 		category,
 		label: '',
 		quantity: '1',
@@ -150,8 +155,9 @@ export function fromDraft(d: DraftLike): EditorDraft {
 		disclosureNote: d.disclosureNote ?? '',
 		walkthroughUrl: d.walkthroughUrl ?? '',
 		buildNotes: { ...d.buildNotes },
-		slots: d.slots.map((s, i) => ({
-			key: `s${i}`,
+		slots: d.slots.map((s) => ({
+			key: s.slotKey,
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: String(s.quantity),
@@ -161,7 +167,7 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			quoteAmount: s.priceQuote?.amount ?? '',
 			quoteObservedAt: s.priceQuote?.observedAt ?? '',
 			alternates: s.alternates.map((a, j) => ({
-				key: `s${i}a${j}`,
+				key: `${s.slotKey}a${j}`,
 				partId: String(a.partId),
 				reasonTag: a.reasonTag,
 				note: a.note
@@ -189,7 +195,7 @@ export function fromDraft(d: DraftLike): EditorDraft {
 
 /**
  * The most rows the editor sends, from draftInput's own limits, and the most fields a form
- * of that size has (a slot is 9 fields plus 4 per alternate; a frame row 7, a thermal row 6;
+ * of that size has (a slot is 10 fields plus 4 per alternate; a frame row 7, a thermal row 6;
  * the rest about 30), with room to spare.
  */
 export const EDITOR_FORM_LIMITS = {
@@ -202,6 +208,7 @@ export const EDITOR_FORM_LIMITS = {
 
 const SLOT_FIELDS = [
 	'key',
+	'slotKey',
 	'category',
 	'label',
 	'quantity',
@@ -394,6 +401,7 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 		walkthroughUrl: d.walkthroughUrl,
 		buildNotes: d.buildNotes,
 		slots: d.slots.map((s) => ({
+			...(s.slotKey ? { slotKey: s.slotKey } : {}),
 			category: s.category,
 			label: s.label,
 			quantity: num(s.quantity),

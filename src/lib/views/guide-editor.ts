@@ -11,6 +11,8 @@ import type { PartRef } from './guide';
 export type DraftPartRef = PartRef;
 
 export interface DraftSlotView {
+	/** The slot's own key: send it back with the slot so it stays the same slot. */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	quantity: number;

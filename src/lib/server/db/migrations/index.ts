@@ -45,6 +45,9 @@ import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
 import * as mBuildsHiddenAt from './2026.12.06T10.00.00.add-builds-hidden-at.js';
 import * as mBuildsHiddenReason from './2026.12.06T10.01.00.add-builds-hidden-reason.js';
 import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js';
+import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-key.js';
+import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
+import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -86,5 +89,8 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.06T09.00.00.create-builds': mBuilds,
 	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
 	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
-	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy
+	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
+	'2026.12.09T11.00.00.add-guide-slots-slot-key': mGuideSlotsSlotKey,
+	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
+	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey
 };
