@@ -96,7 +96,7 @@ describe('builds on the real MariaDB', () => {
 		expect(
 			copied.map((s) => [s.sourceSlotKey, s.label, s.category, s.partId, s.quantity, s.origin])
 		).toEqual(
-			source.map((s) => [s.label, s.label, s.category, s.pickPartId, s.quantity, 'source'])
+			source.map((s) => [s.slotKey, s.label, s.category, s.pickPartId, s.quantity, 'source'])
 		);
 
 		const view = await buildView.getBuild({ id: reader.id }, build.id);

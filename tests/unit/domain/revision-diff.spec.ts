@@ -148,7 +148,13 @@ describe('revisionDiff', () => {
 	 */
 	describe('matches slots by key, not by label', () => {
 		const storage = (key: string, partId: number, name: string, quantity = 1) =>
-			slot('Storage', { key, category: 'storage', pick: { id: partId, name }, quantity, alternates: [] });
+			slot('Storage', {
+				key,
+				category: 'storage',
+				pick: { id: partId, name },
+				quantity,
+				alternates: []
+			});
 
 		it('a renamed slot is the same slot: one change naming the old label, not removed + added', () => {
 			const before: RevisionSnapshot = { ...base, slots: [slot('Processor', { key: 'k-cpu' })] };
