@@ -10,6 +10,10 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
+	// The revision_id foreign key may be using this index: give it one of its own first.
+	await qi.sequelize.query('CREATE INDEX guide_slots_revision_id ON guide_slots (revision_id)', {
+		type: QueryTypes.RAW
+	});
 	await qi.sequelize.query('DROP INDEX guide_slots_revision_slot_key ON guide_slots', {
 		type: QueryTypes.RAW
 	});
