@@ -26,6 +26,7 @@ const slot = (page: Page, label: string) =>
 	page.getByRole('listitem', { name: label, exact: true });
 
 interface DraftSlot {
+	slotKey: string;
 	category: string;
 	label: string;
 	quantity: number;
@@ -70,7 +71,9 @@ async function authorPublishesRevision(author: Page) {
 		disclosureNote: draft.disclosureNote,
 		walkthroughUrl: draft.walkthroughUrl,
 		buildNotes: draft.buildNotes,
+		// Each slot goes back with its key, so the new revision has the same slots.
 		slots: slots.map((s) => ({
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: s.quantity,

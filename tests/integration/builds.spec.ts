@@ -21,6 +21,7 @@ import * as buildExport from '../../src/lib/server/services/build-export';
 import * as buildFork from '../../src/lib/server/services/build-fork';
 import * as buildLists from '../../src/lib/server/services/build-lists';
 import { keyedRevisionSlots } from '../../src/lib/server/services/build-source';
+import { labelKeys } from '../../src/lib/server/db/migrations/slot-label-keys';
 import * as buildView from '../../src/lib/server/services/build-view';
 import type { BuildView } from '../../src/lib/views';
 import * as guides from '../../src/lib/server/services/guides';
@@ -96,7 +97,7 @@ describe('builds on the real MariaDB', () => {
 		expect(
 			copied.map((s) => [s.sourceSlotKey, s.label, s.category, s.partId, s.quantity, s.origin])
 		).toEqual(
-			source.map((s) => [s.label, s.label, s.category, s.pickPartId, s.quantity, 'source'])
+			source.map((s) => [s.slotKey, s.label, s.category, s.pickPartId, s.quantity, 'source'])
 		);
 
 		const view = await buildView.getBuild({ id: reader.id }, build.id);
@@ -636,17 +637,20 @@ describe('builds on the real MariaDB', () => {
 });
 
 describe('slot keys and input (no database)', () => {
-	it('keys revision slots by label, numbering repeats so every key is unique and fits 80 characters', () => {
-		const slot = (label: string) =>
-			({ label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
-		const long = 'L'.repeat(80);
+	it('keys revision slots by their own key, whatever their labels (repeats included)', () => {
+		const slot = (slotKey: string, label: string) =>
+			({ slotKey, label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
 		const keys = keyedRevisionSlots([
-			slot('Storage'),
-			slot('CPU'),
-			slot('Storage'),
-			slot(long),
-			slot(long)
+			slot('k-1', 'Storage'),
+			slot('k-2', 'CPU'),
+			slot('k-3', 'Storage')
 		]).map((k) => k.key);
+		expect(keys).toEqual(['k-1', 'k-2', 'k-3']);
+	});
+
+	it('the migrations still know the old label rule, to give existing rows their keys', () => {
+		const long = 'L'.repeat(80);
+		const keys = labelKeys(['Storage', 'CPU', 'Storage', long, long]);
 		expect(keys).toEqual(['Storage', 'CPU', 'Storage (2)', long, `${'L'.repeat(76)} (2)`]);
 		expect(keys.every((k) => k.length <= 80)).toBe(true);
 	});

@@ -27,7 +27,10 @@ export interface EditorAlternate {
 }
 
 export interface EditorSlot {
+	/** Keys the editor's rows; the slot's own key when it has one. */
 	key: string;
+	/** The slot's own key (guide_slots.slot_key), round-tripped as a hidden field; '' for a new slot. */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	quantity: string;
@@ -89,6 +92,7 @@ export interface DraftLike {
 	walkthroughUrl: string | null;
 	buildNotes: BuildNotesInput;
 	slots: {
+		slotKey: string;
 		category: PartCategory;
 		label: string;
 		quantity: number;
@@ -124,6 +128,7 @@ export function newKey(): string {
 export function emptySlot(category: PartCategory = 'cpu', key = newKey()): EditorSlot {
 	return {
 		key,
+		slotKey: '',
 		category,
 		label: '',
 		quantity: '1',
@@ -161,8 +166,9 @@ export function fromDraft(d: DraftLike): EditorDraft {
 		disclosureNote: d.disclosureNote ?? '',
 		walkthroughUrl: d.walkthroughUrl ?? '',
 		buildNotes: { ...d.buildNotes },
-		slots: d.slots.map((s, i) => ({
-			key: `s${i}`,
+		slots: d.slots.map((s) => ({
+			key: s.slotKey,
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: String(s.quantity),
@@ -172,7 +178,7 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			quoteAmount: s.priceQuote?.amount ?? '',
 			quoteObservedAt: s.priceQuote?.observedAt ?? '',
 			alternates: s.alternates.map((a, j) => ({
-				key: `s${i}a${j}`,
+				key: `${s.slotKey}a${j}`,
 				partId: String(a.partId),
 				reasonTag: a.reasonTag,
 				note: a.note
@@ -201,8 +207,8 @@ export function fromDraft(d: DraftLike): EditorDraft {
 
 /**
  * The most rows the editor sends, from draftInput's own limits, and the most fields a form
- * of that size has (a slot is 9 fields plus 4 per alternate; a frame row 7, a thermal row 6;
- * a photo 4; the rest about 30: 2,561 in all), with room to spare.
+ * of that size has (a slot is 10 fields plus 4 per alternate; a frame row 7, a thermal row 6;
+ * a photo 4; the rest about 30: 2,601 in all), with room to spare.
  */
 export const EDITOR_FORM_LIMITS = {
 	slots: DRAFT_LIMITS.slots,
@@ -215,6 +221,7 @@ export const EDITOR_FORM_LIMITS = {
 
 const SLOT_FIELDS = [
 	'key',
+	'slotKey',
 	'category',
 	'label',
 	'quantity',
@@ -419,6 +426,7 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 		walkthroughUrl: d.walkthroughUrl,
 		buildNotes: d.buildNotes,
 		slots: d.slots.map((s) => ({
+			...(s.slotKey ? { slotKey: s.slotKey } : {}),
 			category: s.category,
 			label: s.label,
 			quantity: num(s.quantity),

@@ -12,6 +12,8 @@ import type { GalleryItem } from './photos';
 export type DraftPartRef = PartRef;
 
 export interface DraftSlotView {
+	/** The slot's own key: send it back with the slot so it stays the same slot. */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	quantity: number;

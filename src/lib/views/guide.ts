@@ -78,6 +78,8 @@ export interface DropInView {
 
 export interface SlotView {
 	id: number;
+	/** The slot's own key, the same in every revision that has the slot (labels may repeat). */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	position: number;

@@ -33,6 +33,8 @@ export interface ReviewLogEntry {
 }
 
 export interface ReviewSlot {
+	/** The slot's own key (guide_slots.slot_key); labels may repeat. */
+	key: string;
 	label: string;
 	category: string;
 	pick: string;

@@ -249,6 +249,8 @@ export async function saveDraft(
 			const row = await GuideSlot.create(
 				{
 					revisionId: revision.id,
+					// A slot carried over keeps its key (a new revision copies it); a new slot gets one.
+					...(slot.slotKey !== null ? { slotKey: slot.slotKey } : {}),
 					category: slot.category,
 					label: slot.label,
 					position: i + 1,

@@ -117,6 +117,7 @@ export async function viewOf(guide: Guide, transaction?: Transaction): Promise<D
 		buildNotes: splitBuildNotes(revision?.buildNotesMd ?? ''),
 		buildNotesHtml: revision?.buildNotesHtml ?? '',
 		slots: slots.map((s) => ({
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: s.quantity,

@@ -278,6 +278,7 @@ async function price(
 		const pickPrice = prices[i]?.pick ?? null;
 		return {
 			id: slot.id,
+			slotKey: slot.slotKey,
 			category: slot.category,
 			label: slot.label,
 			position: slot.position,

@@ -85,6 +85,7 @@ export async function getReview(
 		submittedAt: revision.submittedAt.toISOString(),
 		status: revision.reviewedAt ? (revision.decision ?? 'approve') : 'pending',
 		slots: own.map((s) => ({
+			key: s.slotKey,
 			label: s.label,
 			category: s.category,
 			pick: partName(s.pick),

@@ -55,6 +55,7 @@ export function snapshotOf(
 		slots: slots
 			.filter((s) => s.revisionId === revision.id)
 			.map((s) => ({
+				key: s.slotKey,
 				label: s.label,
 				category: s.category,
 				pick: { id: s.pick.id, name: `${s.pick.brand} ${s.pick.model}` },

@@ -97,7 +97,9 @@ export const actions: Actions = {
 		return {
 			saved: true,
 			version: result.draft.version,
-			revisionNumber: result.draft.revisionNumber
+			revisionNumber: result.draft.revisionNumber,
+			// The saved slots' own keys, in order: slots added since the page loaded take theirs.
+			slotKeys: result.draft.slots.map((s) => s.slotKey)
 		};
 	},
 	/** Saves what is in the form, then freezes it as a revision for review (POST …/submit). */
