@@ -55,3 +55,8 @@ export function forkChecks(userId: string): [LimiterName, string][] {
 export function guideCreateChecks(userId: string): [LimiterName, string][] {
 	return [['guideCreateByUser', userId]];
 }
+
+/** Tips count per account: each one opens a checkout session at the payment provider. */
+export function tipChecks(userId: string): [LimiterName, string][] {
+	return [['tipByUser', userId]];
+}

@@ -45,6 +45,9 @@ import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
 import * as mBuildsHiddenAt from './2026.12.06T10.00.00.add-builds-hidden-at.js';
 import * as mBuildsHiddenReason from './2026.12.06T10.01.00.add-builds-hidden-reason.js';
 import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js';
+import * as mTips from './2026.12.09T09.00.00.create-tips.js';
+import * as mPaymentEvents from './2026.12.09T09.01.00.create-payment-events.js';
+import * as mTipSettings from './2026.12.09T09.02.00.create-tip-settings.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -86,5 +89,8 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.06T09.00.00.create-builds': mBuilds,
 	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
 	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
-	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy
+	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
+	'2026.12.09T09.00.00.create-tips': mTips,
+	'2026.12.09T09.01.00.create-payment-events': mPaymentEvents,
+	'2026.12.09T09.02.00.create-tip-settings': mTipSettings
 };

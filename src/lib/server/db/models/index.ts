@@ -16,6 +16,7 @@ import { Guide, initGuide } from './Guide.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
 import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
+import { PaymentEvent, initPaymentEvent } from './PaymentEvent.js';
 import { PriceSighting, initPriceSighting } from './PriceSighting.js';
 import { PriceSightingReport, initPriceSightingReport } from './PriceSightingReport.js';
 import { Quote, initQuote } from './Quote.js';
@@ -26,6 +27,8 @@ import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
 import { Store, initStore } from './Store.js';
 import { ThermalResult, initThermalResult } from './ThermalResult.js';
+import { Tip, initTip } from './Tip.js';
+import { TipSettings, initTipSettings } from './TipSettings.js';
 import { User, initUser } from './User.js';
 import { VerificationToken, initVerificationToken } from './VerificationToken.js';
 
@@ -46,6 +49,7 @@ export {
 	GuideRevision,
 	GuideSlot,
 	Part,
+	PaymentEvent,
 	PriceSighting,
 	PriceSightingReport,
 	Quote,
@@ -56,6 +60,8 @@ export {
 	SlotAlternate,
 	Store,
 	ThermalResult,
+	Tip,
+	TipSettings,
 	User,
 	VerificationToken
 };
@@ -89,5 +95,8 @@ export function initModels(sequelize: Sequelize) {
 	initBuild(sequelize);
 	initBuildSlot(sequelize);
 	initBuildSync(sequelize);
+	initTip(sequelize);
+	initPaymentEvent(sequelize);
+	initTipSettings(sequelize);
 	applyAssociations();
 }
