@@ -212,3 +212,13 @@ export async function publicNotes(guideId: number, limit = 20): Promise<PublicNo
 		date: (t.paidAt ?? t.createdAt).toISOString().slice(0, 10)
 	}));
 }
+
+/** What the guide page shows about tips: whether the author takes them, and the public notes. */
+export async function guideTipPanel(
+	slug: string
+): Promise<{ tipsOpen: boolean; tipNotes: PublicNote[] }> {
+	const guide = await publishedGuide(slug);
+	if (!guide?.author) return { tipsOpen: false, tipNotes: [] };
+	const [settings, notes] = await Promise.all([settingsOf(guide.author.id), publicNotes(guide.id)]);
+	return { tipsOpen: settings.tipsEnabled && paymentsAvailable(), tipNotes: notes };
+}

@@ -5,6 +5,7 @@ import * as buildLists from '$lib/server/services/build-lists';
 import * as guides from '$lib/server/services/guides';
 import { reportForm, reportInput } from '$lib/schemas/content-reports';
 import type { Issues } from '$lib/schemas/issues';
+import * as tips from '$lib/server/services/tips';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as contentReports from '$lib/server/services/content-reports';
@@ -58,7 +59,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await buildLists.lineage(params.slug)
+		lineage: await buildLists.lineage(params.slug),
+		...(await tips.guideTipPanel(params.slug))
 	};
 };
 
