@@ -184,7 +184,8 @@ function createSession(params: Obj): Session | string {
 }
 
 function intentFor(session: Session) {
-	if (session.payment_intent) return intents.get(session.payment_intent)!;
+	const existing = session.payment_intent ? intents.get(session.payment_intent) : undefined;
+	if (existing) return existing;
 	const intent = {
 		id: newId('pi'),
 		object: 'payment_intent',
@@ -285,11 +286,13 @@ function escapeHtml(s: string) {
 }
 
 function refund(params: Obj, key: string | undefined): Obj | string {
-	if (key && refundsByKey.has(key)) return refundsByKey.get(key)!;
+	const earlier = key ? refundsByKey.get(key) : undefined;
+	if (earlier) return earlier;
 	const intent = intents.get(String(params.payment_intent));
 	if (!intent || intent.status !== 'succeeded' || !intent.latest_charge)
 		return 'No succeeded payment_intent to refund';
-	const charge = charges.get(intent.latest_charge)!;
+	const charge = charges.get(intent.latest_charge);
+	if (!charge) return 'No charge to refund';
 	if (charge.refunded) return 'Charge has already been refunded';
 	Object.assign(charge, { refunded: true, amount_refunded: charge.amount });
 	const result = {
@@ -324,16 +327,16 @@ async function handleApi(req: IncomingMessage, res: ServerResponse, url: URL) {
 		return send(res, 200, { object: 'list', data, has_more: false, url: path });
 	}
 	if (req.method === 'GET' && (m = /^\/v1\/checkout\/sessions\/([\w]+)$/.exec(path))) {
-		const s = sessions.get(m[1]!);
+		const s = sessions.get(m[1] ?? '');
 		return s ? send(res, 200, s) : apiError(res, 404, `No such checkout.session: '${m[1]}'`, 'id');
 	}
 	if (req.method === 'GET' && (m = /^\/v1\/payment_intents\/([\w]+)$/.exec(path))) {
-		const intent = intents.get(m[1]!);
+		const intent = intents.get(m[1] ?? '');
 		if (!intent) return apiError(res, 404, `No such payment_intent: '${m[1]}'`, 'id');
 		const expand = (params.expand as string[] | undefined) ?? [];
 		const out: Obj = structuredClone(intent);
 		if (intent.latest_charge && expand.some((e) => e.startsWith('latest_charge'))) {
-			const charge: Obj = structuredClone(charges.get(intent.latest_charge)!);
+			const charge: Obj = structuredClone(charges.get(intent.latest_charge) ?? {});
 			if (expand.includes('latest_charge.balance_transaction'))
 				charge.balance_transaction = balanceTransactions.get(String(charge.balance_transaction));
 			out.latest_charge = charge;
@@ -357,7 +360,7 @@ async function handleApi(req: IncomingMessage, res: ServerResponse, url: URL) {
 async function handle(req: IncomingMessage, res: ServerResponse) {
 	const url = new URL(req.url ?? '/', BASE);
 	const pay = /^\/pay\/(cs_test_\w+)(?:\/(succeed|decline|cancel))?$/.exec(url.pathname);
-	if (pay) return handlePay(req, res, pay[1]!, pay[2]);
+	if (pay) return handlePay(req, res, pay[1] ?? '', pay[2]);
 	if (url.pathname.startsWith('/v1/')) return handleApi(req, res, url);
 	if (url.pathname === '/_fake/events') return send(res, 200, { deliveries });
 	if (url.pathname === '/health') return send(res, 200, { ok: true });

@@ -274,10 +274,11 @@ describe('refunds', () => {
 
 describe('the ledger', () => {
 	it('keeps currencies apart in the totals', async () => {
-		for (const fields of [
+		const tipsToPay: Record<string, string>[] = [
 			{ currency: 'JPY', amount: '500' },
 			{ currency: 'EUR', amount: 'custom', customAmount: '7.50' }
-		]) {
+		];
+		for (const fields of tipsToPay) {
 			const { tip } = await startTip(fields);
 			const { session } = await payAtFake(tip.checkoutSessionId);
 			const completed = eventJson('checkout.session.completed', session);

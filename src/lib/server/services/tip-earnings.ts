@@ -15,7 +15,7 @@ import {
 import type { TipStatus } from '$lib/domain/tips';
 import { Guide, Tip, User } from '$lib/server/db';
 import { neutraliseCell } from '$lib/server/csv-cells';
-import { pageWindow } from './audit';
+import { pageWindow } from './list-query';
 
 type TipRow = Tip & { guide?: Guide | null; supporter?: User | null; author?: User | null };
 

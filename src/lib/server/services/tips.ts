@@ -62,7 +62,7 @@ export async function tipTarget(
 		tipsEnabled: (await settingsOf(guide.author.id)).tipsEnabled,
 		currency,
 		currencies: codes.map((code) => {
-			const presetsMinor = tipLimits(code)!.presetsMinor;
+			const presetsMinor = tipLimits(code)?.presetsMinor ?? [];
 			return {
 				code,
 				presetsMinor,
