@@ -226,7 +226,7 @@ export type RefundResult =
 /**
  * An admin refunds a paid tip in full through the provider. The ledger changes here at once
  * (the provider's charge.refunded webhook that follows then finds it done); the refund
- * carries an idempotency key per tip, so a double click cannot refund twice.
+ * carries an idempotency key per payment, so a double click cannot refund twice.
  */
 export async function refundTip(
 	tipId: number,
@@ -243,7 +243,9 @@ export async function refundTip(
 	try {
 		await provider().refunds.create(
 			{ payment_intent: tip.paymentIntentId, reason: 'requested_by_customer' },
-			{ idempotencyKey: `slotwise-tip-${tip.id}-refund` }
+			// Keyed by the payment, not our row id: row ids repeat across databases sharing an
+			// account (a restored backup, a test database), payment ids never do.
+			{ idempotencyKey: `slotwise-refund-${tip.paymentIntentId}` }
 		);
 	} catch (e) {
 		// The SDK's message only (e.g. "Charge has already been refunded"), never the request.
