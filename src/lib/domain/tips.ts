@@ -4,8 +4,15 @@
  *
  * Amounts are integer minor units of an ISO 4217 currency, as everywhere in Slotwise.
  */
-import { formatMoney, minorUnitDigits, money, subtract, sum } from './money';
-import { minorUnitsPerMajor, parseDecimal } from './region';
+import {
+	formatMoney,
+	minorUnitDigits,
+	minorUnitsPerMajor,
+	money,
+	parseDecimal,
+	subtract,
+	sum
+} from './money';
 import type { Money } from './types';
 
 export const TIP_STATUSES = ['pending', 'failed', 'paid', 'refunded'] as const;
