@@ -34,6 +34,13 @@ fi
 if [ -z "${ECB_RATES_URL:-}" ] && pid_alive ecb-fake; then
 	export ECB_RATES_URL="http://127.0.0.1:$(cat "$DATA_DIR/ecb.port")/stats/eurofxref/eurofxref-daily.xml"
 fi
+if [ -z "${STRIPE_API_URL:-}" ] && pid_alive stripe-fake; then
+	from_file STRIPE_FAKE_PORT stripe.port
+	export STRIPE_API_URL="http://127.0.0.1:$STRIPE_FAKE_PORT"
+	from_file STRIPE_SECRET_KEY stripe-secret-key
+	from_file STRIPE_WEBHOOK_SECRET stripe-webhook-secret
+	register_payment_webhook "$ORIGIN"
+fi
 port_free "$PORT" || fail "port $PORT is taken: choose another with PORT=…"
 
 step "Serving $ORIGIN against $DB_NAME on 127.0.0.1:$DB_PORT${DB_REPLICA_PORT:+ (reads from the replica on port $DB_REPLICA_PORT)}"

@@ -15,6 +15,8 @@ ensure_mariadb_package
 start_db
 start_mail_fake
 start_ecb_fake
+start_payment_fake
+register_payment_webhook "$ORIGIN"
 ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 

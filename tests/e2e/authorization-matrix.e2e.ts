@@ -278,7 +278,27 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'DELETE /api/v1/builds/[id=id]/photos/[photoId=id]': everyone('ok'),
 	// Photo files: the sample key names no photo, so everyone gets 404.
 	'GET /media/[...key]': everyone('notfound'),
-	'GET /help/photos': everyone('ok')
+	'GET /help/photos': everyone('ok'),
+	// Tips (issue 20). The form is public (visitors see a sign-in link); paying needs an account,
+	// and the empty probe form is refused with 400 before anything reaches the provider.
+	'GET /(public)/guides/[slug=slug]/tip': everyone('ok'),
+	'POST /(public)/guides/[slug=slug]/tip?/default': signedIn,
+	// The return from the provider: without a session id it is a 404 for everyone signed in.
+	'GET /(account)/tips/thanks': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
+	// The provider's webhook proves itself by signature, not by session: the matrix's form body
+	// is refused with 415 before that (tip-webhooks.spec.ts tests the signature itself).
+	'POST /api/payments/webhook': everyone('ok'),
+	'GET /(author)/my/earnings': authors,
+	'POST /(author)/my/earnings?/settings': authors,
+	'GET /(author)/my/earnings/export.csv': authors,
+	'GET /(admin)/admin/tips': admins,
+	'POST /(admin)/admin/tips?/refund': admins
 };
 
 function classify(status: number, location: string | undefined): Outcome {

@@ -60,3 +60,8 @@ export function guideCreateChecks(userId: string): [LimiterName, string][] {
 export function photoUploadChecks(userId: string): [LimiterName, string][] {
 	return [['photoUploadByUser', userId]];
 }
+
+/** Tips count per account: each one opens a checkout session at the payment provider. */
+export function tipChecks(userId: string): [LimiterName, string][] {
+	return [['tipByUser', userId]];
+}

@@ -139,6 +139,13 @@ const POLICIES = {
 		points: 60,
 		durationSeconds: 60 * 60,
 		blockSeconds: 0
+	},
+	/** Tips started by one account: 10 per hour (each opens a checkout at the payment provider). */
+	tipByUser: {
+		keyPrefix: 'tip_user',
+		points: 10,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
 	}
 } as const satisfies Record<string, LimitPolicy>;
 

@@ -28,6 +28,9 @@ import { Review } from './Review.js';
 import { Session } from './Session.js';
 import { SlotAlternate } from './SlotAlternate.js';
 import { ThermalResult } from './ThermalResult.js';
+import { Tip } from './Tip.js';
+import { TipSettings } from './TipSettings.js';
+import { PaymentEvent } from './PaymentEvent.js';
 import { Store } from './Store.js';
 import { User } from './User.js';
 
@@ -123,4 +126,10 @@ export function applyAssociations() {
 	GalleryPhoto.belongsTo(Photo, { foreignKey: 'photoId', as: 'photo' });
 	Build.hasMany(BuildStageTick, { foreignKey: 'buildId', as: 'stageTicks' });
 	BuildStageTick.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
+	Tip.belongsTo(User, { foreignKey: 'supporterId', as: 'supporter' });
+	Tip.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+	Tip.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
+	Tip.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
+	PaymentEvent.belongsTo(Tip, { foreignKey: 'tipId', as: 'tip' });
+	User.hasOne(TipSettings, { foreignKey: 'userId', as: 'tipSettings' });
 }

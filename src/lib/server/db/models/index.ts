@@ -19,6 +19,7 @@ import { GuideRevision, initGuideRevision } from './GuideRevision.js';
 import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
 import { Photo, initPhoto } from './Photo.js';
+import { PaymentEvent, initPaymentEvent } from './PaymentEvent.js';
 import { PriceSighting, initPriceSighting } from './PriceSighting.js';
 import { PriceSightingReport, initPriceSightingReport } from './PriceSightingReport.js';
 import { Quote, initQuote } from './Quote.js';
@@ -29,6 +30,8 @@ import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
 import { Store, initStore } from './Store.js';
 import { ThermalResult, initThermalResult } from './ThermalResult.js';
+import { Tip, initTip } from './Tip.js';
+import { TipSettings, initTipSettings } from './TipSettings.js';
 import { User, initUser } from './User.js';
 import { VerificationToken, initVerificationToken } from './VerificationToken.js';
 
@@ -52,6 +55,7 @@ export {
 	GuideSlot,
 	Part,
 	Photo,
+	PaymentEvent,
 	PriceSighting,
 	PriceSightingReport,
 	Quote,
@@ -62,6 +66,8 @@ export {
 	SlotAlternate,
 	Store,
 	ThermalResult,
+	Tip,
+	TipSettings,
 	User,
 	VerificationToken
 };
@@ -98,6 +104,9 @@ export function initModels(sequelize: Sequelize) {
 	initPhoto(sequelize);
 	initGalleryPhoto(sequelize);
 	initBuildStageTick(sequelize);
+	initTip(sequelize);
+	initPaymentEvent(sequelize);
+	initTipSettings(sequelize);
 	applyAssociations();
 }
 export type { StoredVariant } from './Photo.js';
