@@ -10,9 +10,10 @@ import { powerBudget } from '$lib/domain/power';
 import { reviewFlags } from '$lib/domain/review-flags';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import { Guide, GuideRevision, Store, User } from '$lib/server/db';
-import type { ReviewPage } from '$lib/views';
+import type { ReviewPage, ReviewPriceProposal } from '$lib/views';
 import { activeRules } from './caution-rules';
 import type { Actor } from './guide-reviews';
+import { reviewProposals } from './guide-price-proposals';
 import { partName } from './mappers';
 import { reviewLog } from './review-queue';
 import {
@@ -63,6 +64,11 @@ export async function getReview(
 	// The editors' pairing cautions count here as on the public page.
 	const findings = [...fitReport(build), ...pairingCautions(build, await activeRules())];
 	const stores = await Store.findAll({ attributes: ['url'] });
+	const proposals = await reviewProposals(
+		revision.id,
+		new Map(own.map((s) => [s.position, s.label])),
+		now
+	);
 	const knownHosts = [
 		siteHost.split(':')[0] ?? siteHost,
 		...stores.flatMap((s) => (s.url ? [hostOf(s.url)] : [])).filter((h): h is string => h !== null)
@@ -73,13 +79,14 @@ export async function getReview(
 		revisionNumber: revision.number,
 		guide: {
 			slug: guide.slug,
-			title: guide.title,
-			summary: guide.summary,
+			// The revision under review's details, not the live copy on the guide row.
+			title: revision.title,
+			summary: revision.summary,
 			state: guide.state,
 			authorName: guide.author?.name ?? 'Former member',
 			live: guide.state === 'published' && guide.publishedRevisionId !== null,
-			disclosure: guide.disclosure,
-			disclosureNote: guide.disclosureNote
+			disclosure: revision.disclosure,
+			disclosureNote: revision.disclosureNote
 		},
 		isLiveRevision: guide.publishedRevisionId === revision.id && guide.state === 'published',
 		submittedAt: revision.submittedAt.toISOString(),
@@ -91,9 +98,11 @@ export async function getReview(
 			pick: partName(s.pick),
 			quantity: s.quantity,
 			reason: s.reason,
-			price: quoteText(s.priceQuote),
+			price:
+				proposedText(proposals.find((p) => p.position === s.position)) ?? quoteText(s.priceQuote),
 			alternates: s.alternates.map((a) => partName(a.part))
 		})),
+		priceProposals: proposals,
 		diff: revisionDiff(live ? snapshotOf(live, slots, true) : emptySnapshot(), current),
 		sinceLastReview: compareSentBack
 			? revisionDiff(snapshotOf(compareSentBack, slots, true), current)
@@ -105,9 +114,9 @@ export async function getReview(
 		},
 		power: powerBudget(build),
 		flags: reviewFlags({
-			disclosure: { kind: guide.disclosure ?? null, note: guide.disclosureNote },
+			disclosure: { kind: revision.disclosure ?? null, note: revision.disclosureNote },
 			buildNotesMd: revision.buildNotesMd,
-			walkthroughUrl: guide.walkthroughUrl,
+			walkthroughUrl: revision.walkthroughUrl,
 			knownHosts,
 			quotes: own.flatMap((s) =>
 				s.priceQuote
@@ -127,6 +136,10 @@ export async function getReview(
 		ownGuide: guide.authorId === actor.id,
 		canDecide: !revision.reviewedAt && (guide.authorId !== actor.id || actor.role === 'admin')
 	};
+}
+
+function proposedText(p: ReviewPriceProposal | undefined): string | null {
+	return p ? `${p.amount} at ${p.store}, ${p.observedOn} (proposed)` : null;
 }
 
 function hostOf(url: string): string | null {

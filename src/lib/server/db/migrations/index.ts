@@ -48,6 +48,8 @@ import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js'
 import * as mPhotos from './2026.12.08T09.00.00.create-photos.js';
 import * as mGalleryPhotos from './2026.12.08T09.01.00.create-gallery-photos.js';
 import * as mBuildStageTicks from './2026.12.08T09.02.00.create-build-stage-ticks.js';
+import * as mRevisionDetails from './2026.12.09T10.00.00.add-guide-revisions-details.js';
+import * as mPriceProposals from './2026.12.09T10.01.00.create-guide-price-proposals.js';
 import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-key.js';
 import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
 import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
@@ -97,6 +99,8 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.08T09.00.00.create-photos': mPhotos,
 	'2026.12.08T09.01.00.create-gallery-photos': mGalleryPhotos,
 	'2026.12.08T09.02.00.create-build-stage-ticks': mBuildStageTicks,
+	'2026.12.09T10.00.00.add-guide-revisions-details': mRevisionDetails,
+	'2026.12.09T10.01.00.create-guide-price-proposals': mPriceProposals,
 	'2026.12.09T11.00.00.add-guide-slots-slot-key': mGuideSlotsSlotKey,
 	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
 	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,
