@@ -10,7 +10,7 @@ import { powerBudget } from '$lib/domain/power';
 import { reviewFlags } from '$lib/domain/review-flags';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import { Guide, GuideRevision, Store, User } from '$lib/server/db';
-import type { ReviewPage, ReviewPriceProposal } from '$lib/views';
+import type { ReviewPage } from '$lib/views';
 import { activeRules } from './caution-rules';
 import type { Actor } from './guide-reviews';
 import { reviewProposals } from './guide-price-proposals';
@@ -21,6 +21,7 @@ import {
 	emptySnapshot,
 	loadRevisionSlots,
 	quoteText,
+	slotPrice,
 	snapshotOf
 } from './revision-snapshots';
 
@@ -98,8 +99,7 @@ export async function getReview(
 			pick: partName(s.pick),
 			quantity: s.quantity,
 			reason: s.reason,
-			price:
-				proposedText(proposals.find((p) => p.position === s.position)) ?? quoteText(s.priceQuote),
+			price: quoteText(slotPrice(s)),
 			alternates: s.alternates.map((a) => partName(a.part))
 		})),
 		priceProposals: proposals,
@@ -118,17 +118,12 @@ export async function getReview(
 			buildNotesMd: revision.buildNotesMd,
 			walkthroughUrl: revision.walkthroughUrl,
 			knownHosts,
-			quotes: own.flatMap((s) =>
-				s.priceQuote
-					? [
-							{
-								slotLabel: s.label,
-								observedAt: s.priceQuote.observedAt.toISOString(),
-								url: s.priceQuote.url
-							}
-						]
-					: []
-			),
+			quotes: own.flatMap((s) => {
+				const price = slotPrice(s);
+				return price
+					? [{ slotLabel: s.label, observedAt: price.observedAt.toISOString(), url: price.url }]
+					: [];
+			}),
 			conflicts: findings.filter((f) => f.severity === 'conflict'),
 			now
 		}),
@@ -136,10 +131,6 @@ export async function getReview(
 		ownGuide: guide.authorId === actor.id,
 		canDecide: !revision.reviewedAt && (guide.authorId !== actor.id || actor.role === 'admin')
 	};
-}
-
-function proposedText(p: ReviewPriceProposal | undefined): string | null {
-	return p ? `${p.amount} at ${p.store}, ${p.observedOn} (proposed)` : null;
 }
 
 function hostOf(url: string): string | null {
