@@ -118,7 +118,7 @@ test('a saved draft of a live guide changes nothing public until an editor appro
 
 	const visitor = await playwright.request.newContext({ baseURL: new URL(editor.url()).origin });
 	const reader = await signedIn(browser, READER);
-	const fork = await reader.request.post(`/api/v1/guides/${slug}/fork`);
+	const fork = await reader.request.post(`/api/v1/guides/${slug}/fork`, { data: {} });
 	expect(fork.status()).toBe(201);
 	const { id: buildId } = (await fork.json()) as { id: number };
 	const readersBuild = async () => (await reader.request.get(`/api/v1/builds/${buildId}`)).text();
