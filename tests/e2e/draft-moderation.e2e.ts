@@ -175,7 +175,8 @@ test('a saved draft of a live guide changes nothing public until an editor appro
 	const approved = await publicAnswers(visitor, slug);
 	expect(approved.api).toContain(newTitle);
 	expect(approved.api).toContain('A summary no editor has read.');
-	expect(approved.api).toContain('0.01');
+	// The approved 0.01 is now the slot's chosen quote: 1 minor unit of USD.
+	expect(approved.api).toContain('"unit":{"amountMinor":1,"currency":"USD"}');
 	expect(approved.html).toContain(newTitle);
 	expect(approved.entry).toContain(`<title>${newTitle}</title>`);
 	await visitor.dispose();
