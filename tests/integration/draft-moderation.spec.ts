@@ -161,7 +161,10 @@ describe('a draft of a published guide changes nothing public until approved', (
 		expect(after.detail).toContain('A rewritten title');
 		expect(after.feed).toContain('<title>A rewritten title</title>');
 		const part = await parts.getBySlug(pricedSlot.pick.slug);
-		// The approved price is now one of the part's public quotes: 1 minor unit = USD 0.01.
-		expect(JSON.stringify(part)).toContain('"price":{"amountMinor":1,"currency":"USD"}');
+		// The approved price is now in the part's public price history (1 minor unit = USD
+		// 0.01, observed 2026-12-01; the store's newer quote stays its current price).
+		expect(JSON.stringify(part)).toContain(
+			'{"observedAt":"2026-12-01T00:00:00.000Z","amountMinor":1}'
+		);
 	});
 });
