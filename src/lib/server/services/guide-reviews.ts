@@ -13,9 +13,11 @@ import type { Transaction } from 'sequelize';
 import type { Role } from '$lib/domain/types';
 import type { DecisionInput, ModerationInput } from '$lib/schemas/review';
 import { Guide, GuideRevision, Review, User, sequelize } from '$lib/server/db';
+import { detailsOf } from '$lib/server/db/models/GuideRevision';
 import type { ReviewDecision } from '$lib/server/db/models/Review';
 import * as audit from './audit';
 import { notifyForksOfRevision } from './build-notify';
+import { adoptProposals } from './guide-price-proposals';
 import { sendToAuthor, templates } from './review-mail';
 import type { Conflict, NotFound } from '$lib/schemas/issues';
 import * as guidePrices from './guide-prices';
@@ -96,7 +98,14 @@ export async function decide(
 			return { kind: 'conflict', message: await alreadyDecided(revision, transaction) } as const;
 		const before = { state: guide.state, publishedRevisionId: guide.publishedRevisionId };
 		guide.state = stateAfter(input.decision, guide.state);
-		if (input.decision === 'approve') guide.publishedRevisionId = revision.id;
+		if (input.decision === 'approve') {
+			// Approval is the one moment public details and prices change (issue 12, items 1
+			// and 2): the guide row takes the revision's details as its published copy, and
+			// the revision's proposed prices become quotes, all in this transaction.
+			guide.publishedRevisionId = revision.id;
+			guide.set(detailsOf(revision));
+			await adoptProposals(revision.id, transaction);
+		}
 		await guide.save({ transaction });
 		await Review.create(
 			{
@@ -151,7 +160,7 @@ export async function decide(
 		return {
 			kind: 'ok',
 			guideState: guide.state,
-			title: guide.title,
+			title: revision.title,
 			number: revision.number,
 			author
 		} as const;

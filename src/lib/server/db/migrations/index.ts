@@ -51,6 +51,8 @@ import * as mBuildStageTicks from './2026.12.08T09.02.00.create-build-stage-tick
 import * as mTips from './2026.12.09T09.00.00.create-tips.js';
 import * as mPaymentEvents from './2026.12.09T09.01.00.create-payment-events.js';
 import * as mTipSettings from './2026.12.09T09.02.00.create-tip-settings.js';
+import * as mRevisionDetails from './2026.12.09T10.00.00.add-guide-revisions-details.js';
+import * as mPriceProposals from './2026.12.09T10.01.00.create-guide-price-proposals.js';
 import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-key.js';
 import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
 import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
@@ -103,6 +105,8 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.09T09.00.00.create-tips': mTips,
 	'2026.12.09T09.01.00.create-payment-events': mPaymentEvents,
 	'2026.12.09T09.02.00.create-tip-settings': mTipSettings,
+	'2026.12.09T10.00.00.add-guide-revisions-details': mRevisionDetails,
+	'2026.12.09T10.01.00.create-guide-price-proposals': mPriceProposals,
 	'2026.12.09T11.00.00.add-guide-slots-slot-key': mGuideSlotsSlotKey,
 	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
 	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,

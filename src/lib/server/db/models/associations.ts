@@ -15,6 +15,7 @@ import { ContentReport } from './ContentReport.js';
 import { GalleryPhoto } from './GalleryPhoto.js';
 import { Guide } from './Guide.js';
 import { FrameResult } from './FrameResult.js';
+import { GuidePriceProposal } from './GuidePriceProposal.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
 import { Part } from './Part.js';
@@ -55,6 +56,13 @@ export function applyAssociations() {
 
 	GuideRevision.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
 	GuideRevision.belongsTo(User, { foreignKey: 'reviewerId', as: 'reviewer' });
+	GuideRevision.belongsTo(Region, { foreignKey: 'baseRegionId', as: 'baseRegion' });
+	GuideRevision.hasMany(GuidePriceProposal, { foreignKey: 'revisionId', as: 'priceProposals' });
+	GuidePriceProposal.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	GuidePriceProposal.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
+	GuidePriceProposal.belongsTo(Store, { foreignKey: 'storeId', as: 'store' });
+	GuidePriceProposal.belongsTo(Region, { foreignKey: 'regionId', as: 'region' });
+	GuidePriceProposal.belongsTo(Quote, { foreignKey: 'quoteId', as: 'quote' });
 	Guide.hasMany(Review, { foreignKey: 'guideId', as: 'reviews' });
 	Review.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
 	Review.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });

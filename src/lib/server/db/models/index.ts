@@ -15,6 +15,7 @@ import { FrameResult, initFrameResult } from './FrameResult.js';
 import { FxRate, initFxRate } from './FxRate.js';
 import { GalleryPhoto, initGalleryPhoto } from './GalleryPhoto.js';
 import { Guide, initGuide } from './Guide.js';
+import { GuidePriceProposal, initGuidePriceProposal } from './GuidePriceProposal.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
 import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
@@ -51,6 +52,7 @@ export {
 	FxRate,
 	GalleryPhoto,
 	Guide,
+	GuidePriceProposal,
 	GuideRevision,
 	GuideSlot,
 	Part,
@@ -107,6 +109,7 @@ export function initModels(sequelize: Sequelize) {
 	initTip(sequelize);
 	initPaymentEvent(sequelize);
 	initTipSettings(sequelize);
+	initGuidePriceProposal(sequelize);
 	applyAssociations();
 }
 export type { StoredVariant } from './Photo.js';
