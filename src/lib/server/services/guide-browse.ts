@@ -125,12 +125,18 @@ export async function browse(
 	};
 }
 
-/** Home: the newest guides and the featured ones, in their base regions. */
+/**
+ * Home, in base regions. Two lists with rules of their own, so no guide shows twice:
+ * "Featured" is what editors picked; "New" is the newest of the rest.
+ */
 export async function homeLists(
 	latestCount = 4
 ): Promise<{ latest: BrowseItem[]; featured: BrowseItem[] }> {
 	const published = (await publishedIn(null)).sort(byNewest);
-	return { latest: published.slice(0, latestCount), featured: published.filter((g) => g.featured) };
+	return {
+		latest: published.filter((g) => !g.featured).slice(0, latestCount),
+		featured: published.filter((g) => g.featured)
+	};
 }
 
 /**
