@@ -86,7 +86,7 @@ test('the region switcher re-prices a guide and labels lines quoted or estimated
 	const table = page.getByRole('table').first();
 	await expect(table.getByText('Estimated', { exact: true }).first()).toBeVisible();
 	await expect(table.getByText('Quoted', { exact: true }).first()).toBeVisible();
-	await expect(receipt.getByText(/Exchange rates of/)).toBeVisible();
+	await expect(receipt.getByText(/reference rates of/)).toBeVisible();
 
 	// A US guide (pre-tax USD) switched to Germany without JavaScript: euro totals with VAT.
 	await page.goto('/guides/steady-1080p-starter');

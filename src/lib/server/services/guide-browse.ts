@@ -22,7 +22,9 @@ import { priceRevisionsIn } from './pricing';
 
 /** Published guides, featured first, newest first, priced in their base regions. */
 export async function listPublished(): Promise<GuideCard[]> {
-	return (await publishedIn(null)).map(({ pricedIn: _p, fpsPer100: _v, ...card }) => card);
+	return (await publishedIn(null)).map(
+		({ pricedIn: _p, fpsPer100: _v, budgetInRegion: _b, ...card }) => card
+	);
 }
 
 /**
@@ -71,10 +73,13 @@ async function publishedIn(target: Region | null): Promise<BrowseItem[]> {
 				.map((f) => ({ averageFps: f.avgFpsTenths / 10 }));
 			fpsPer100 = valueOf(results, total).fpsPer100;
 		}
+		const card = guides.cardOf(guide, base, revision, adjustment);
 		return [
 			{
-				...guides.cardOf(guide, base, revision, adjustment),
+				...card,
 				pricedIn: regionSummary(region),
+				// One currency on a card: the budget in the currency the total is priced in.
+				budgetInRegion: guides.budgetIn(card.targetBudget, region.currency, pricing.rates).money,
 				fpsPer100
 			}
 		];
