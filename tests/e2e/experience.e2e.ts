@@ -35,10 +35,12 @@ const mainNav = (page: Page) => page.getByRole('navigation', { name: 'Main' });
 
 for (const size of WIDTHS) {
 	test.describe(`at ${size.width} px`, () => {
+		// Each flow signs in and runs axe-core on several pages: slow on a loaded 2-core machine.
+		test.describe.configure({ timeout: 150_000 });
+
 		test('an author reaches their guides from the header; a save is answered beside the button', async ({
 			browser
 		}) => {
-			test.setTimeout(90_000);
 			const page = await signedIn(browser, AUTHOR, size.width, size.height);
 			await mainNav(page).getByRole('link', { name: 'My guides' }).click();
 			await expect(page).toHaveURL(/\/my\/guides$/);
@@ -163,11 +165,14 @@ for (const size of WIDTHS) {
 			expect(label).not.toBe('');
 			const before = await page.getByTestId('build-slot').count();
 
-			await page.getByText('Add a slot').click();
+			await page.locator('summary', { hasText: 'Add a slot' }).click();
 			const form = page.locator('form[action="?/addSlot"]');
 			await form.getByLabel('Category').selectOption('storage');
 			await form.getByLabel('Label').fill(label);
-			await form.locator('select[name="partId"]').selectOption({ index: 0 });
+			const storage = form.locator('select[name="partId"] optgroup[label="Storage"] option');
+			await form
+				.locator('select[name="partId"]')
+				.selectOption((await storage.first().getAttribute('value')) ?? '');
 			await form.getByRole('button').click();
 			await expect(page.getByTestId('build-slot')).toHaveCount(before + 1);
 			await expect(page.getByRole('listitem', { name: label, exact: true })).toHaveCount(2);

@@ -58,10 +58,15 @@ test('a missing guide answers 404 with a readable page', async ({ page }) => {
 	await expect(page.getByRole('link', { name: /home|guides/i }).first()).toBeVisible();
 });
 
-test('the help page renders its highlighted code sample', async ({ page }) => {
+test('the help pages render highlighted code samples on the API page, not the landing page', async ({
+	page
+}) => {
 	const foreign = watchHosts(page);
+	// Operator instructions live in the README; the code samples are on the API help page.
 	await page.goto('/help');
 	await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+	await expect(page.locator('main')).not.toContainText('curl');
+	await page.goto('/help/api');
 	await expect(page.locator('pre.shiki').first()).toBeVisible();
 	expect(foreign).toEqual([]);
 });

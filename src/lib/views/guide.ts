@@ -107,8 +107,6 @@ export interface PricedGuide extends GuideDetail {
 	regions: RegionSummary[];
 	/** How the picks were priced in this region. */
 	picks: { quoted: number; estimated: number; unpriced: number };
-	/** The target budget in the shown region's currency (itself in the base region); null without a rate. */
-	budgetInRegion: Money | null;
 	/** Oldest exchange-rate date behind an estimate, and whether rates are older than 7 days. */
 	ratesAsOf: string | null;
 	ratesStale: boolean;
