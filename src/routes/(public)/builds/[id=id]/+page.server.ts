@@ -236,7 +236,10 @@ export const actions: Actions = {
 		const input = parseForm(await readFormData(request), syncUndoInput, versionForm);
 		if (input.kind !== 'ok') return undo.failure(input);
 		const outcome = await buildSync.undoLastSync(me.id, Number(params.id), input.data.version);
-		return undo.answer(outcome, () => ({ problem: false, message: 'The last update from the guide was undone.' }));
+		return undo.answer(outcome, () => ({
+			problem: false,
+			message: 'The last update from the guide was undone.'
+		}));
 	},
 	proposeBudget: async ({ params, request }) => {
 		const me = requireUser();
