@@ -70,6 +70,7 @@ const admins: Record<Role, Outcome> = {
 const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(public)': everyone('ok'),
 	'GET /(public)/guides/[slug=slug]': everyone('ok'),
+	'GET /(public)/guides/[slug=slug]/print': everyone('ok'),
 	'GET /(public)/parts': everyone('ok'),
 	'GET /(public)/parts/[slug=slug]': everyone('ok'),
 	// Signed in to report a price; the empty form the matrix posts is refused with 400 ("ok").
@@ -192,6 +193,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(public)/builds/[id=id]/print': everyone('notfound'),
 	'GET /(public)/builds/[id=id]/export.csv': everyone('notfound'),
 	'POST /(public)/builds/[id=id]?/swap': ownBuild,
+	'POST /(public)/builds/[id=id]?/delete': ownBuild,
 	'POST /(public)/builds/[id=id]?/quantity': ownBuild,
 	'POST /(public)/builds/[id=id]?/override': ownBuild,
 	'POST /(public)/builds/[id=id]?/purchase': ownBuild,

@@ -146,7 +146,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await expect(page).toHaveURL(/\/my\/guides\?submitted=/);
 	await expect(page.getByText('Submitted for review.')).toBeVisible();
 	await expect(page.getByRole('article', { name: title }).getByTestId('guide-state')).toHaveText(
-		'In review'
+		'Waiting for an editor (revision 1)'
 	);
 });
 

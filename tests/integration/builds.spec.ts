@@ -123,6 +123,43 @@ describe('builds on the real MariaDB', () => {
 		expect(gpu.options.every((o) => o.kind === 'alternate')).toBe(true);
 	});
 
+	it('gives repeated forks of one guide distinct titles, and deletes a build with its slots', async () => {
+		// A member who forks nothing else in this file (demo-data/users: a community author).
+		const owner = await user('tobias.wren@slotwise.test');
+		const guide = (await Guide.findOne({ where: { slug: GUIDE } })) as Guide;
+		const ids: number[] = [];
+		for (let i = 0; i < 3; i++) {
+			const outcome = await buildFork.fork(owner.id, GUIDE);
+			if (outcome.kind !== 'created') throw new Error(outcome.kind);
+			ids.push(outcome.id);
+		}
+		const titles = async () =>
+			(
+				await Build.findAll({
+					where: { ownerId: owner.id, sourceGuideId: guide.id },
+					order: [['id', 'ASC']]
+				})
+			).map((b) => b.title);
+		expect(await titles()).toEqual([
+			`${guide.title} (my build)`,
+			`${guide.title} (my build 2)`,
+			`${guide.title} (my build 3)`
+		]);
+
+		// Only the owner deletes; the slots go with the build.
+		expect(await buildFork.deleteBuild(reader.id, ids[1] as number)).toEqual({ kind: 'not_found' });
+		expect(await buildFork.deleteBuild(owner.id, ids[1] as number)).toEqual({
+			kind: 'deleted',
+			title: `${guide.title} (my build 2)`
+		});
+		expect(await Build.findByPk(ids[1] as number)).toBeNull();
+		expect(await BuildSlot.count({ where: { buildId: ids[1] as number } })).toBe(0);
+		// The freed title is the next fork's: the first free number.
+		const again = await buildFork.fork(owner.id, GUIDE);
+		if (again.kind !== 'created') throw new Error(again.kind);
+		expect((await Build.findByPk(again.id))?.title).toBe(`${guide.title} (my build 2)`);
+	});
+
 	it('refuses to fork an unknown or unpublished guide', async () => {
 		expect(await buildFork.fork(reader.id, 'no-such-guide')).toEqual({ kind: 'not_found' });
 	});

@@ -11,11 +11,14 @@
  */
 import { QueryTypes } from 'sequelize';
 import { minorUnitDigits, money } from '$lib/domain/money';
+import type { RatesPerEur } from '$lib/domain/region';
 import { GUIDES_PER_PAGE } from '$lib/schemas/guide-browse';
 import type { GuideBrowseQuery } from '$lib/schemas/guide-browse';
 import { Region, sequelize } from '$lib/server/db';
 import type { BrowseItem, BrowseResult, GuideCard } from '$lib/views';
 import { regionSummary } from './mappers';
+import * as fx from './fx';
+import { budgetIn } from './guides';
 import { allRegions } from './reference-cache';
 
 /** One stored row joined with its guide: exactly what a card shows. */
@@ -42,6 +45,8 @@ interface ListOptions {
 	baseRegionId?: number;
 	tags?: readonly string[];
 	featuredOnly?: boolean;
+	/** Home's "New": leave out what editors featured, so no guide shows in both lists. */
+	notFeatured?: boolean;
 	/** Whole units of the target's currency; only with a target. */
 	min?: number;
 	max?: number;
@@ -86,6 +91,7 @@ async function listPage(
 		replacements[`tag${i}`] = tag;
 	});
 	if (options.featuredOnly) where.push('g.featured = 1');
+	if (options.notFeatured) where.push('g.featured = 0');
 	if (options.target && (options.min !== undefined || options.max !== undefined)) {
 		// A guide with unpriced slots has no complete total, so a budget leaves it out.
 		const scale = 10 ** minorUnitDigits(options.target.currency);
@@ -125,22 +131,37 @@ async function listPage(
 		);
 		total = Number(count?.n ?? 0);
 	}
+	// One currency on a card: the budget converted into the currency its total is priced in.
+	const crosses = rows.some(
+		(row) =>
+			regionById.get(Number(row.baseRegionId))?.currency !==
+			regionById.get(Number(row.regionId))?.currency
+	);
+	const rates = crosses ? await fx.ratesForPricing() : ({} as RatesPerEur);
 	const items = rows.flatMap((row) => {
 		const base = regionById.get(Number(row.baseRegionId));
 		const region = regionById.get(Number(row.regionId));
-		return base && region ? [itemOf(row, base, region, options.target !== null)] : [];
+		return base && region ? [itemOf(row, base, region, options.target !== null, rates)] : [];
 	});
 	return { items, total };
 }
 
-function itemOf(row: ListedRow, base: Region, region: Region, withValue: boolean): BrowseItem {
+function itemOf(
+	row: ListedRow,
+	base: Region,
+	region: Region,
+	withValue: boolean,
+	rates: RatesPerEur
+): BrowseItem {
+	const targetBudget = money(Number(row.targetBudgetMinor), base.currency);
 	const tags = typeof row.tags === 'string' ? (JSON.parse(row.tags) as string[]) : row.tags;
 	return {
 		slug: row.slug,
 		title: row.title,
 		summary: row.summary,
 		authorName: row.authorName ?? 'Former member',
-		targetBudget: money(Number(row.targetBudgetMinor), base.currency),
+		targetBudget,
+		budgetInRegion: budgetIn(targetBudget, region.currency, rates).money,
 		baseRegion: regionSummary(base),
 		tags,
 		featured: Boolean(row.featured),
@@ -163,7 +184,7 @@ async function regionsById(): Promise<{ rows: Region[]; byId: Map<number, Region
 export async function listPublished(limit = 100): Promise<GuideCard[]> {
 	const { byId } = await regionsById();
 	const { items } = await listPage({ target: null, sort: 'newest', limit, offset: 0 }, byId);
-	return items.map(({ pricedIn: _p, fpsPer100: _v, ...card }) => card);
+	return items.map(({ pricedIn: _p, fpsPer100: _v, budgetInRegion: _b, ...card }) => card);
 }
 
 /** Tags change only when guides are published or hidden; the form's list may lag a little. */
@@ -245,7 +266,10 @@ export async function homeLists(
 ): Promise<{ latest: BrowseItem[]; featured: BrowseItem[] }> {
 	const { byId } = await regionsById();
 	const [latest, featured] = await Promise.all([
-		listPage({ target: null, sort: 'newest', limit: latestCount, offset: 0 }, byId),
+		listPage(
+			{ target: null, sort: 'newest', notFeatured: true, limit: latestCount, offset: 0 },
+			byId
+		),
 		listPage({ target: null, sort: 'newest', featuredOnly: true, limit: 24, offset: 0 }, byId)
 	]);
 	return { latest: latest.items, featured: featured.items };

@@ -17,6 +17,9 @@ import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import type { AlternateReason } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
+import { convertThroughEur, crossRate } from '$lib/domain/region';
+import type { RatesPerEur } from '$lib/domain/region';
+import type { Money } from '$lib/domain/types';
 import { FrameResult, Guide, GuideRevision, Region, ThermalResult, User } from '$lib/server/db';
 import type {
 	DropInView,
@@ -302,9 +305,16 @@ async function price(
 		};
 	});
 
-	const ratesAsOf = adjustment.oldestRateAsOf;
+	// The budget is read in the shown region's currency, so totals and the over/under line
+	// never mix two currencies (issue 15); the rate's date joins the estimates' one.
+	const card = cardOf(guide, base, revision, adjustment);
+	const budget = budgetIn(card.targetBudget, region.currency, pricing.rates);
+	const ratesAsOf =
+		[adjustment.oldestRateAsOf, budget.asOf].filter((d): d is string => d !== null).sort()[0] ??
+		null;
 	const pricedGuide: PricedGuide = {
-		...cardOf(guide, base, revision, adjustment),
+		...card,
+		budgetInRegion: budget.money,
 		revisionNumber: revision.number,
 		slots: slotViews,
 		totalRange: adjustment.range,
@@ -329,6 +339,23 @@ async function price(
 		};
 	}
 	return { guide: pricedGuide, build, drop };
+}
+
+/** The budget in another currency at the reference rates; null when a rate is missing. */
+export function budgetIn(
+	budget: Money,
+	currency: string,
+	rates: RatesPerEur
+): { money: Money | null; asOf: string | null } {
+	if (budget.currency === currency) return { money: budget, asOf: null };
+	try {
+		return {
+			money: convertThroughEur(budget, currency, rates),
+			asOf: crossRate(budget.currency, currency, rates).asOf
+		};
+	} catch {
+		return { money: null, asOf: null };
+	}
 }
 
 function dropInView(result: DropInResult | undefined): DropInView | undefined {

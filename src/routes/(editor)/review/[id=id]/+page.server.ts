@@ -28,10 +28,15 @@ function decisionFields(data: FormData) {
 export const actions: Actions = {
 	decide: async ({ params, request, url }) => {
 		const me = requireRole('editor');
-		const fields = decisionFields(await request.formData());
+		const data = await request.formData();
+		const fields = decisionFields(data);
 		const input = decisionInput.safeParse(fields);
 		const echo = { note: String(fields.note ?? ''), slotNotes: fields.slotNotes };
 		if (!input.success) return fail(400, { ...echo, issues: fieldIssues(input.error) });
+		// Publishing is the one decision readers see at once: it takes a second, explicit press
+		// (works without JavaScript; nothing is decided until then).
+		if (input.data.decision === 'approve' && data.get('confirmed') !== 'yes')
+			return { ...echo, confirmPublish: true };
 		const outcome = await reviews.decide(me, Number(params.id), input.data, {
 			guidesUrl: new URL('/my/guides', url.origin).href
 		});
@@ -41,7 +46,7 @@ export const actions: Actions = {
 		if (outcome.kind === 'conflict')
 			return fail(409, { ...echo, problem: true, message: outcome.message });
 		const done = {
-			approve: 'Approved: this revision is now live.',
+			approve: 'Published: this revision is now live.',
 			request_changes: 'Sent back to the author with your notes.',
 			decline: 'Declined.'
 		}[input.data.decision];

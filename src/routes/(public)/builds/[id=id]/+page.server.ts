@@ -1,5 +1,7 @@
-import { error, fail } from '@sveltejs/kit';
+import { error, fail, redirect } from '@sveltejs/kit';
 import {
+	deleteBuildForm,
+	deleteBuildInput,
 	addSlotForm,
 	addSlotInput,
 	removeSlotInput,
@@ -27,6 +29,7 @@ import type { Issues, Parsed } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as buildEdits from '$lib/server/services/build-edits';
+import * as buildFork from '$lib/server/services/build-fork';
 import * as buildView from '$lib/server/services/build-view';
 import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
@@ -274,26 +277,49 @@ export const actions: Actions = {
 		const outcome = await buildSync.applySync(me.id, Number(params.id), choices, version);
 		return sync.answer(outcome, (ok) => ({
 			problem: false,
-			message: `Synced: ${ok.changedSlots} changed, ${ok.addedSlots} added, ${ok.removedSlots} removed. You can undo it.`
+			message: `Updated from the guide: ${ok.changedSlots} changed, ${ok.addedSlots} added, ${ok.removedSlots} removed. You can undo it.`
 		}));
+	},
+	delete: async ({ params, request }) => {
+		const me = requireUser();
+		const id = Number(params.id);
+		// Someone else's build is a 404 before anything about the form is said.
+		if (!(await buildEdits.ownsBuild(me.id, id))) error(404, 'Build not found');
+		const input = parseForm(await readFormData(request), deleteBuildInput, deleteBuildForm);
+		if (input.kind !== 'ok')
+			return fail(400, { problem: true, deleteIssues: Object.values(input.issues).flat() });
+		const outcome = await buildFork.deleteBuild(me.id, id);
+		if (outcome.kind === 'not_found') error(404, 'Build not found');
+		redirect(303, `/builds?deleted=${encodeURIComponent(outcome.title)}`);
 	},
 	undoSync: async ({ params, request }) => {
 		const me = requireUser();
 		const input = parseForm(await readFormData(request), syncUndoInput, versionForm);
 		if (input.kind !== 'ok') return undo.failure(input);
 		const outcome = await buildSync.undoLastSync(me.id, Number(params.id), input.data.version);
-		return undo.answer(outcome, () => ({ problem: false, message: 'The last sync was undone.' }));
+		return undo.answer(outcome, () => ({
+			problem: false,
+			message: 'The last update from the guide was undone.'
+		}));
 	},
 	proposeBudget: async ({ params, request }) => {
 		const me = requireUser();
-		const input = parseForm(await readFormData(request), withinBudgetInput, withinBudgetForm);
-		if (input.kind !== 'ok') return budget.failure(input);
+		const form = await readFormData(request);
+		// What the reader typed goes back with every answer, so the field never empties.
+		const budgetTyped = (form.text('budget') ?? '').slice(0, 40);
+		const input = parseForm(form, withinBudgetInput, withinBudgetForm);
+		if (input.kind !== 'ok')
+			return fail(400, {
+				problem: true,
+				budgetTyped,
+				budgetIssues: Object.values(input.issues).flat()
+			});
 		const outcome = await buildBudget.proposeWithinBudget(
 			me.id,
 			Number(params.id),
 			input.data.budget
 		);
-		return budget.answer(outcome, (ok) => ({ budgetResult: ok }));
+		return budget.answer(outcome, (ok) => ({ budgetResult: ok, budgetTyped }));
 	},
 	applyBudget: async ({ params, request }) => {
 		const me = requireUser();
