@@ -163,6 +163,9 @@ register_payment_webhook() {
 # migrate_and_seed DB_NAME
 migrate_and_seed() {
 	step "Migrating and seeding database $1"
+	# Seeders reuse app services, which import through SvelteKit's $lib alias: tsx finds it in
+	# the tsconfig that `svelte-kit sync` writes, and a fresh clone has none yet.
+	npx svelte-kit sync || fail "svelte-kit sync"
 	DB_NAME="$1" npx tsx scripts/migrate.ts up || fail "migrate $1"
 	DB_NAME="$1" npx tsx scripts/seed.ts up || fail "seed $1"
 }
