@@ -79,10 +79,23 @@ const PART_PICTURES: { part: string; hue: string; alt: string }[] = [
 	}
 ];
 
+/*
+ * The photo pipeline locks this process's decoders to JPEG, PNG and WebP (lockDecoders), and
+ * in a test process it may already have run. The drawings are our own SVG, so the SVG loader
+ * is opened for the draws in flight and closed again when the last one ends.
+ */
+const SVG_LOADER = { operation: ['VipsForeignLoadSvgBuffer'] };
+let drawsInFlight = 0;
+
 async function draw(kind: DrawingKind, hue?: string): Promise<Buffer> {
-	return sharp(Buffer.from(drawingSvg(kind, hue)))
-		.jpeg({ quality: 90 })
-		.toBuffer();
+	if (drawsInFlight++ === 0) sharp.unblock(SVG_LOADER);
+	try {
+		return await sharp(Buffer.from(drawingSvg(kind, hue)))
+			.jpeg({ quality: 90 })
+			.toBuffer();
+	} finally {
+		if (--drawsInFlight === 0) sharp.block(SVG_LOADER);
+	}
 }
 
 export const up: Seeder = async () => {
