@@ -69,8 +69,9 @@ async function demoSlots(request: APIRequestContext): Promise<DraftSlot[]> {
 async function approve(editor: Page, title: string) {
 	await editor.goto('/review');
 	await editor.getByTestId('review-queue').getByRole('link', { name: title }).click();
-	await editor.getByRole('button', { name: 'Approve and publish' }).click();
-	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(editor.getByText('Published: this revision is now live.')).toBeVisible();
 }
 
 /** What a signed-out reader gets: page HTML (nonce taken out), the API body, the feed entry. */

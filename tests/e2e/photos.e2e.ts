@@ -148,8 +148,9 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 	await expect(changes.getByRole('heading', { name: 'New photos (3)' })).toBeVisible();
 	const reviewViolations = await severeViolations(editor);
 	expect(reviewViolations, reviewViolations.join('\n')).toEqual([]);
-	await editor.getByRole('button', { name: 'Approve and publish' }).click();
-	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(editor.getByText('Published: this revision is now live.')).toBeVisible();
 
 	const visitor = await (await browser.newContext()).newPage();
 	await visitor.goto(`/guides/${slug}`);
