@@ -15,7 +15,7 @@ const GUIDE = 'steady-1080p-starter';
 test('a build with two slots of the same label shows both rows', async ({ page }) => {
 	test.setTimeout(90_000);
 	await signInWithPassword(page, READER);
-	const forked = await page.request.post(`/api/v1/guides/${GUIDE}/fork`);
+	const forked = await page.request.post(`/api/v1/guides/${GUIDE}/fork`, { data: {} });
 	expect(forked.status(), await forked.text()).toBe(201);
 	const { id } = (await forked.json()) as { id: number };
 	const build = await (await page.request.get(`/api/v1/builds/${id}`)).json();

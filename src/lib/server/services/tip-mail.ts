@@ -8,7 +8,7 @@ import { formatMoney, money } from '$lib/domain/money';
 import type { TipStatus } from '$lib/domain/tips';
 import { Guide, Tip, User } from '$lib/server/db';
 import * as mail from '$lib/server/mail';
-import { templates } from '$lib/server/mail';
+import { tipTemplates as templates } from '$lib/server/mail';
 import { runLater } from '$lib/server/background';
 
 type TipWithPeople = Tip & { supporter?: User | null; author?: User | null; guide?: Guide | null };
