@@ -58,9 +58,14 @@ export async function proposalsByPosition(
 /**
  * On approval, inside the decision's transaction: each proposal becomes a quote (source
  * 'author'; an identical quote of the same store, part, amount and UTC day is reused) and
- * the slot at its position points at it.
+ * the slot at its position points at it. Returns the adopted quotes' ids: other published
+ * guides with those parts are re-priced from them after commit.
  */
-export async function adoptProposals(revisionId: number, transaction: Transaction): Promise<void> {
+export async function adoptProposals(
+	revisionId: number,
+	transaction: Transaction
+): Promise<number[]> {
+	const adopted: number[] = [];
 	const proposals = await GuidePriceProposal.findAll({
 		where: { revisionId, quoteId: null },
 		transaction
@@ -72,7 +77,9 @@ export async function adoptProposals(revisionId: number, transaction: Transactio
 			{ priceQuoteId: quoteId },
 			{ where: { revisionId, position: p.position, pickPartId: p.partId }, transaction }
 		);
+		adopted.push(quoteId);
 	}
+	return adopted;
 }
 
 async function quoteOf(p: GuidePriceProposal, transaction: Transaction): Promise<number> {

@@ -56,6 +56,7 @@ export async function decide(
 	input: DecisionInput,
 	links: { guidesUrl: string }
 ): Promise<DecideOutcome> {
+	let adoptedQuoteIds: number[] = [];
 	const result = await sequelize.transaction(async (transaction) => {
 		// Lock order: revision, then guide (unpublish/archive lock only the guide, so no cycle).
 		const revision = await GuideRevision.findByPk(revisionId, {
@@ -104,7 +105,7 @@ export async function decide(
 			// the revision's proposed prices become quotes, all in this transaction.
 			guide.publishedRevisionId = revision.id;
 			guide.set(detailsOf(revision));
-			await adoptProposals(revision.id, transaction);
+			adoptedQuoteIds = await adoptProposals(revision.id, transaction);
 		}
 		await guide.save({ transaction });
 		await Review.create(
@@ -168,7 +169,11 @@ export async function decide(
 	if (result.kind !== 'ok') return result;
 	// Lists show the new revision's stored figures from now on (after commit: pricing reads
 	// through the pool and must see the published revision).
-	if (input.decision === 'approve') await guidePrices.refreshRevisions([revisionId]);
+	// The adopted quotes are public prices now: every published guide with those parts moves.
+	if (input.decision === 'approve') {
+		await guidePrices.refreshRevisions([revisionId]);
+		if (adoptedQuoteIds.length > 0) await guidePrices.refreshForQuotes(adoptedQuoteIds);
+	}
 	const message = templates.reviewDecision({
 		name: result.author?.name ?? '',
 		title: result.title,
