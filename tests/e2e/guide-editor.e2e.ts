@@ -27,7 +27,7 @@ async function addSlot(
 	query: string,
 	option: string
 ) {
-	await page.getByRole('button', { name: 'Add slot' }).click();
+	await page.getByRole('button', { name: 'Add a slot' }).click();
 	const slot = page.getByTestId('slot').nth(index);
 	await slot.getByLabel('Category').selectOption({ label: category });
 	await slot.getByLabel('Label', { exact: true }).fill(label);
@@ -310,8 +310,8 @@ test('without JavaScript: slots are added and reordered by posting the form, and
 	await page.getByRole('button', { name: 'Create draft' }).click();
 	await expect(page).toHaveURL(/\/edit$/);
 
-	await page.getByRole('button', { name: 'Add slot' }).click();
-	await page.getByRole('button', { name: 'Add slot' }).click();
+	await page.getByRole('button', { name: 'Add a slot' }).click();
+	await page.getByRole('button', { name: 'Add a slot' }).click();
 	await expect(page.getByTestId('slot')).toHaveCount(2);
 	const [first, second] = [page.getByTestId('slot').nth(0), page.getByTestId('slot').nth(1)];
 	await first.getByLabel('Label', { exact: true }).fill('First');
