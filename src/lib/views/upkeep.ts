@@ -1,6 +1,9 @@
 /* What the author's dashboard and the insights page and API show (issue 19). */
 import type { Severity } from '$lib/domain/build-parts';
 import type { UpkeepKind } from '$lib/domain/upkeep';
+import type { BuildCount } from '$lib/domain/insights';
+
+export type { BuildCount };
 
 export interface UpkeepAlertView {
 	id: number;
@@ -14,15 +17,6 @@ export interface UpkeepAlertView {
 	firstSeenAt: string;
 	/** The editor with the slot focused (#slot-<key>), or the editor itself. */
 	editorHref: string;
-}
-
-/**
- * A count of builds as shown: the number when it is 0 or at least 5, else null with
- * `fewerThan5` (so no reader's choices can be singled out).
- */
-export interface BuildCount {
-	count: number | null;
-	fewerThan5: boolean;
 }
 
 /** One choice of a slot: the pick kept, an alternate chosen, another part, or the slot removed. */
