@@ -52,8 +52,14 @@ export interface UpkeepRegion {
 	total: Money | null;
 	/** The total when the revision was published, if known. */
 	totalAtPublication: Money | null;
-	/** The guide's target budget in this region's currency; null when it cannot be converted. */
+	/**
+	 * The guide's target budget in this region's prices; null when unknown. The budget is
+	 * stated in the base region; elsewhere the caller scales it by the region's total over the
+	 * base total at publication, so it keeps the headroom the guide had when it went live.
+	 */
 	budget: Money | null;
+	/** Alternates already cheaper than their pick here at publication (`${slotKey}|${partId}`). */
+	cheaperAtPublication: ReadonlySet<string>;
 	/** Per slot (same order as `slots`): prices of the pick and alternates in this region. */
 	slots: UpkeepSlot[];
 	/** Newest active quote of each pick part here (part id → date); absent: no active quote. */
@@ -189,7 +195,9 @@ function slotAlerts(
 		for (const alt of slot.alternates) {
 			if (!alt.unit || alt.unit.currency !== pick.currency) continue;
 			if (alt.unit.amountMinor >= pick.amountMinor) continue;
-			if (!input.dropInFits.has(`${slot.slotKey}|${alt.partId}`)) continue;
+			const key = `${slot.slotKey}|${alt.partId}`;
+			// Only what changed: an alternate listed as the cheaper choice from the start is no news.
+			if (region.cheaperAtPublication.has(key) || !input.dropInFits.has(key)) continue;
 			out.push({
 				kind: 'cheaper_dropin',
 				...at,
@@ -240,7 +248,35 @@ export function upkeepSentence(kind: UpkeepKind, d: Record<string, unknown>): st
 	}
 }
 
-/** A budget as money in the base currency (helper for callers converting it). */
-export function budgetMoney(amountMinor: number, currency: string): Money {
-	return money(amountMinor, currency);
+/** The alternates cheaper than their pick in one region's prices (`${slotKey}|${partId}`). */
+export function cheaperAlternates(slots: readonly UpkeepSlot[]): string[] {
+	const out: string[] = [];
+	for (const slot of slots)
+		for (const alt of slot.alternates)
+			if (
+				slot.pick.unit &&
+				alt.unit &&
+				alt.unit.currency === slot.pick.unit.currency &&
+				alt.unit.amountMinor < slot.pick.unit.amountMinor
+			)
+				out.push(`${slot.slotKey}|${alt.partId}`);
+	return out;
+}
+
+/**
+ * The budget in a region's prices: the base-region budget scaled by the region's total over
+ * the base total, both at publication, rounded half up to a minor unit. Null without both.
+ */
+export function regionBudget(
+	budgetMinor: number,
+	base: Money | null,
+	region: Money | null
+): Money | null {
+	if (budgetMinor <= 0 || !base || !region || base.amountMinor <= 0) return null;
+	if (base.currency === region.currency && base.amountMinor === region.amountMinor)
+		return money(budgetMinor, region.currency);
+	const scaled =
+		(BigInt(budgetMinor) * BigInt(region.amountMinor) * 2n + BigInt(base.amountMinor)) /
+		(2n * BigInt(base.amountMinor));
+	return money(Number(scaled), region.currency);
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { upkeepAlerts, type UpkeepRegion } from '../../../src/lib/domain/upkeep';
+import { regionBudget, upkeepAlerts, type UpkeepRegion } from '../../../src/lib/domain/upkeep';
 
 /*
  * The alert conditions of domain/upkeep.ts on hand-made figures (issue 19): moved more than
@@ -17,6 +17,7 @@ function region(over: Partial<UpkeepRegion> = {}): UpkeepRegion {
 		total: usd(40000),
 		totalAtPublication: usd(40000),
 		budget: usd(45000),
+		cheaperAtPublication: new Set(),
 		slots: [
 			{
 				slotKey: 'cpu',
@@ -73,6 +74,8 @@ describe('upkeep alert conditions', () => {
 		cheaper.slots[0]!.alternates[0]!.unit = usd(9999);
 		expect(kinds(cheaper)).toEqual(['cheaper_dropin']);
 		expect(kinds(cheaper, { dropInFits: new Set() })).toEqual([]);
+		// Already the cheaper choice at publication: no news.
+		expect(kinds({ ...cheaper, cheaperAtPublication: new Set(['cpu|2']) })).toEqual([]);
 	});
 
 	it('a finding not there at publication, conflicts first; an unlisted region is skipped', () => {
@@ -92,5 +95,16 @@ describe('upkeep alert conditions', () => {
 			kinds(region(), { findings: [finding], findingsAtPublication: new Set(['rule|cpu']) })
 		).toEqual([]);
 		expect(kinds(region({ listed: false, latestActiveQuote: new Map() }))).toEqual([]);
+	});
+
+	it('scales the budget into a region by its total over the base total at publication', () => {
+		// $700.00 budget, base total $698.91, de total €774.20 at publication:
+		// 70000 × 77420 = 5 419 400 000; ÷ 69891 = 77540.74… → €775.41 (rounded half up).
+		expect(regionBudget(70000, usd(69891), { amountMinor: 77420, currency: 'EUR' })).toEqual({
+			amountMinor: 77541,
+			currency: 'EUR'
+		});
+		expect(regionBudget(70000, null, usd(1))).toBeNull();
+		expect(regionBudget(0, usd(1), usd(1))).toBeNull();
 	});
 });

@@ -16,19 +16,21 @@ import { dropIns } from '$lib/domain/dropins';
 import { fitReport } from '$lib/domain/fit';
 import { money } from '$lib/domain/money';
 import { pairingCautions, type CautionRule } from '$lib/domain/pairing-cautions';
-import { convertThroughEur, type RatesPerEur } from '$lib/domain/region';
 import type { Money } from '$lib/domain/types';
 import {
+	cheaperAlternates,
+	regionBudget,
 	upkeepAlerts,
+	type UpkeepSlot,
 	type UpkeepAlertDraft,
 	type UpkeepFinding,
 	type UpkeepRegion
 } from '$lib/domain/upkeep';
 import { CautionRule as CautionRuleRow, Guide, sequelize } from '$lib/server/db';
 import type { Region } from '$lib/server/db';
-import * as fx from './fx';
 import { dropInSlot, partName, picksOf } from './mappers';
 import type { PricedRevision } from './pricing';
+import type { LoadedRevisionSlot } from './revision-snapshots';
 
 /** A refreshed revision and its pricing in every region (region id → priced revision). */
 export interface RevisionPriced {
@@ -39,7 +41,8 @@ export interface RevisionPriced {
 }
 
 interface Baseline {
-	totals: Record<string, { currency: string; totalMinor: number | null }>;
+	/** Per region id: the total and the alternates already cheaper than their pick. */
+	totals: Record<string, { currency: string; totalMinor: number | null; cheaper?: string[] }>;
 	findingKeys: string[];
 }
 
@@ -51,7 +54,7 @@ export async function refreshAlerts(
 ): Promise<void> {
 	if (revisions.length === 0) return;
 	const revisionIds = revisions.map((r) => r.revisionId);
-	const [guides, baselines, quoteDates, rules, rates] = await Promise.all([
+	const [guides, baselines, quoteDates, rules] = await Promise.all([
 		Guide.findAll({
 			where: { id: revisions.map((r) => r.guideId) },
 			attributes: ['id', 'targetBudgetMinor'],
@@ -59,8 +62,7 @@ export async function refreshAlerts(
 		}),
 		loadBaselines(revisionIds),
 		loadQuoteDates(revisions),
-		loadRules(),
-		fx.ratesForPricing().catch(() => ({}) as RatesPerEur)
+		loadRules()
 	]);
 	const budgetOf = new Map(guides.map((g) => [g.id, Number(g.targetBudgetMinor)]));
 	const newBaselines: [number, Baseline][] = [];
@@ -94,45 +96,35 @@ export async function refreshAlerts(
 				.alternates.filter((a) => a.fits)
 				.map((a) => `${a.slotKey}|${a.alternateId}`)
 		);
+		// Each region's prices as the domain takes them, then the baseline (first pass after publication).
+		const priced = regions.flatMap((region) => {
+			const p = r.byRegion.get(region.id);
+			return p ? [{ region, p, slots: upkeepSlots(slots, p) }] : [];
+		});
 		let baseline = baselines.get(r.revisionId);
 		if (!baseline) {
-			baseline = baselineOf(r, findings);
+			baseline = baselineOf(priced, findings);
 			newBaselines.push([r.revisionId, baseline]);
 		}
-		const budget = money(budgetOf.get(r.guideId) ?? 0, baseRegion.currency);
-		const upkeepRegions: UpkeepRegion[] = [];
-		for (const region of regions) {
-			const priced = r.byRegion.get(region.id);
-			if (!priced) continue;
+		const at = (regionId: number): Money | null => {
+			const then = baseline?.totals[String(regionId)];
+			return then && then.totalMinor !== null ? money(then.totalMinor, then.currency) : null;
+		};
+		const budgetMinor = budgetOf.get(r.guideId) ?? 0;
+		const upkeepRegions: UpkeepRegion[] = priced.map(({ region, p, slots: regionSlots }) => {
 			const dates = quoteDates.get(region.id);
-			const listed =
-				region.id === r.baseRegionId || slots.some((s) => dates?.quoted.has(s.pickPartId));
-			const then = baseline.totals[String(region.id)];
-			upkeepRegions.push({
+			return {
 				regionId: region.id,
 				code: region.code,
-				listed,
-				total: priced.adjustment.picksTotal,
-				totalAtPublication:
-					then && then.totalMinor !== null ? money(then.totalMinor, then.currency) : null,
-				budget: budgetIn(budget, region.currency, rates),
+				listed: region.id === r.baseRegionId || slots.some((s) => dates?.quoted.has(s.pickPartId)),
+				total: p.adjustment.picksTotal,
+				totalAtPublication: at(region.id),
+				budget: regionBudget(budgetMinor, at(r.baseRegionId), at(region.id)),
+				cheaperAtPublication: new Set(baseline?.totals[String(region.id)]?.cheaper ?? []),
 				latestActiveQuote: dates?.latestActive ?? new Map(),
-				slots: slots.map((s, i) => ({
-					slotKey: s.slotKey,
-					label: s.label,
-					pick: {
-						partId: s.pickPartId,
-						name: partName(s.pick),
-						unit: priced.adjustment.slots[i]?.pick.unit ?? null
-					},
-					alternates: s.alternates.map((a, j) => ({
-						partId: a.part.id,
-						name: partName(a.part),
-						unit: priced.adjustment.slots[i]?.alternates[j]?.unit ?? null
-					}))
-				}))
-			});
-		}
+				slots: regionSlots
+			};
+		});
 		const alerts = upkeepAlerts({
 			regions: upkeepRegions,
 			dropInFits: fits,
@@ -145,25 +137,36 @@ export async function refreshAlerts(
 	await store(revisions, drafts, newBaselines, now);
 }
 
-function baselineOf(r: RevisionPriced, findings: UpkeepFinding[]): Baseline {
-	const totals: Baseline['totals'] = {};
-	for (const [regionId, priced] of r.byRegion)
-		totals[String(regionId)] = {
-			currency: priced.region.currency,
-			totalMinor: priced.adjustment.picksTotal?.amountMinor ?? null
-		};
-	return { totals, findingKeys: findings.map((f) => f.key) };
+/** A revision's slots with their prices in one region, as the domain takes them. */
+function upkeepSlots(slots: LoadedRevisionSlot[], p: PricedRevision): UpkeepSlot[] {
+	return slots.map((s, i) => ({
+		slotKey: s.slotKey,
+		label: s.label,
+		pick: {
+			partId: s.pickPartId,
+			name: partName(s.pick),
+			unit: p.adjustment.slots[i]?.pick.unit ?? null
+		},
+		alternates: s.alternates.map((a, j) => ({
+			partId: a.part.id,
+			name: partName(a.part),
+			unit: p.adjustment.slots[i]?.alternates[j]?.unit ?? null
+		}))
+	}));
 }
 
-/** The base-currency budget in `currency` through EUR cross rates; null without a rate. */
-function budgetIn(budget: Money, currency: string, rates: RatesPerEur): Money | null {
-	if (budget.amountMinor <= 0) return null;
-	if (budget.currency === currency) return budget;
-	try {
-		return convertThroughEur(budget, currency, rates);
-	} catch {
-		return null;
-	}
+function baselineOf(
+	priced: { region: Region; p: PricedRevision; slots: UpkeepSlot[] }[],
+	findings: UpkeepFinding[]
+): Baseline {
+	const totals: Baseline['totals'] = {};
+	for (const { region, p, slots } of priced)
+		totals[String(region.id)] = {
+			currency: region.currency,
+			totalMinor: p.adjustment.picksTotal?.amountMinor ?? null,
+			cheaper: cheaperAlternates(slots)
+		};
+	return { totals, findingKeys: findings.map((f) => f.key) };
 }
 
 async function loadBaselines(revisionIds: number[]): Promise<Map<number, Baseline>> {
