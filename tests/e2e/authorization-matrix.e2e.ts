@@ -136,7 +136,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(author)/my/guides?/digest': authors,
 	// Fork insights (issue 19): the sample guide is the demo author's; its author and editors see
 	// them, everyone else gets the 404 of a guide that does not exist (never a sign-in page).
-	'GET /(author)/my/guides/[slug=slug]/insights': insightsAccess,
+	'GET /(owner)/my/guides/[slug=slug]/insights': insightsAccess,
 	'GET /api/v1/guides/[slug=slug]/insights': insightsAccess,
 	'GET /(author)/my/guides/new': authors,
 	'POST /(author)/my/guides/new?/create': authors,
