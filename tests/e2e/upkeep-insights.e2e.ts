@@ -53,11 +53,28 @@ test('the demo author sees the insights chart with its table, and the common swa
 	await expect(card.getByTestId('alternate-suggestion')).toContainText(
 		'swapped this slot to Ironvale Auric A64 Mini 12 GB'
 	);
-	await expect(card.getByRole('link', { name: 'Add it as an alternate' })).toHaveAttribute(
-		'href',
-		new RegExp(`^/my/guides/${GUIDE}/edit\\?alternate=ironvale-auric-a64-mini-12g#slot-`)
+	const suggestion = card.getByRole('link', { name: 'Add it as an alternate' });
+	const href = (await suggestion.getAttribute('href')) ?? '';
+	expect(href).toMatch(
+		new RegExp(`^/my/guides/${GUIDE}/edit\\?slot=[^&]+&alternate=ironvale-auric-a64-mini-12g#slot-`)
 	);
 	expect(await severeViolations(page)).toEqual([]);
+
+	// One click into the editor: the part is one more alternate of that slot, not yet saved.
+	const slotKey = href.split('#slot-')[1] ?? '';
+	await page.goto(`/my/guides/${GUIDE}/edit`);
+	const alternatesBefore = await page
+		.locator(`li[id="slot-${slotKey}"]`)
+		.getByRole('button', { name: /Remove alternate/ })
+		.count();
+	await page.goto(`/my/guides/${GUIDE}/insights`);
+	await suggestion.click();
+	await expect(
+		page.getByText('Ironvale Auric A64 Mini 12 GB was added as an alternate')
+	).toBeVisible();
+	await expect(
+		page.locator(`li[id="slot-${slotKey}"]`).getByRole('button', { name: /Remove alternate/ })
+	).toHaveCount(alternatesBefore + 1);
 });
 
 for (const who of ['visitor', 'reader@slotwise.test', 'mira.falkenberg@slotwise.test']) {

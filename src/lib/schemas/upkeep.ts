@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { MAX_ID, wholeNumber } from './primitives.js';
+import { MAX_ID, slug, wholeNumber } from './primitives.js';
 
 /*
  * The author's two answers to an upkeep alert, shared by the dashboard's form actions.
@@ -20,3 +20,9 @@ export const handleAlertInput = z.strictObject({
 export type HandleAlertInput = z.infer<typeof handleAlertInput>;
 
 export const upkeepDigestInput = z.strictObject({ enabled: z.boolean() });
+
+/** The editor's query when opened from an insights suggestion (`?slot=<key>&alternate=<part slug>`). */
+export const suggestedAlternateQuery = z.object({
+	slot: z.string().trim().min(1).max(64),
+	alternate: slug('Choose a part.')
+});

@@ -193,7 +193,7 @@ async function slotInsights(
 							partSlug: part.slug,
 							builds: n,
 							percent: Math.round((n * 100) / overall.total),
-							editorHref: `/my/guides/${guide.slug}/edit?alternate=${encodeURIComponent(part.slug)}#slot-${encodeURIComponent(row.slotKey)}`
+							editorHref: `/my/guides/${guide.slug}/edit?slot=${encodeURIComponent(row.slotKey)}&alternate=${encodeURIComponent(part.slug)}#slot-${encodeURIComponent(row.slotKey)}`
 						}
 					];
 				})

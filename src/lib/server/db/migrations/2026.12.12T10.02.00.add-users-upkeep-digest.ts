@@ -1,5 +1,6 @@
 import { DataTypes } from 'sequelize';
 import type { Migration } from '../umzug.js';
+import { dropColumn } from './columns.js';
 
 /* An author's choice to get the weekly upkeep digest by e-mail; off until they turn it on. */
 export const up: Migration = async ({ context: qi }) => {
@@ -11,5 +12,5 @@ export const up: Migration = async ({ context: qi }) => {
 };
 
 export const down: Migration = async ({ context: qi }) => {
-	await qi.removeColumn('users', 'upkeep_digest');
+	await dropColumn(qi, 'users', 'upkeep_digest');
 };

@@ -15,7 +15,9 @@
 import { Op } from 'sequelize';
 import type { Seeder } from '../umzug.js';
 import { Build, BuildSlot, Part, Quote, Region, Store, User } from '../models/index.js';
+import { hashPassword } from '../../auth/password.js';
 import { fork } from '../../services/build-fork.js';
+import { DEMO_PASSWORD } from './demo-community.js';
 import * as guidePrices from '../../services/guide-prices.js';
 
 const GUIDE = 'steady-1080p-starter';
@@ -87,11 +89,13 @@ async function drift(): Promise<number[]> {
 }
 
 async function forks(): Promise<void> {
+	// Like every demo account: the demo password, hashed once for all of them.
+	const passwordHash = await hashPassword(DEMO_PASSWORD);
 	for (const [name, region, card, memory, bought] of READERS) {
 		const email = emailOf(name);
 		const [reader] = await User.findOrCreate({
 			where: { email },
-			defaults: { email, name, role: 'reader', emailVerified: new Date() }
+			defaults: { email, name, passwordHash, role: 'reader', emailVerified: new Date() }
 		});
 		if (await Build.findOne({ where: { ownerId: reader.id } })) continue;
 		const forked = await fork(reader.id, GUIDE);
