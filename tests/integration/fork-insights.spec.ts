@@ -146,7 +146,8 @@ describe('fork insights', () => {
 				partSlug: 'solenne-cobalt-c6-8g',
 				builds: 6,
 				percent: 43,
-				editorHref: '/my/guides/upkeep-test-rig/edit?slot=gpu-main&alternate=solenne-cobalt-c6-8g#slot-gpu-main'
+				editorHref:
+					'/my/guides/upkeep-test-rig/edit?slot=gpu-main&alternate=solenne-cobalt-c6-8g#slot-gpu-main'
 			}
 		]);
 	});
