@@ -57,6 +57,14 @@ const ownBuild: Record<Role, Outcome> = {
 	editor: 'notfound',
 	admin: 'notfound'
 };
+/** A guide's fork insights: its author (the sample guide's) and editors; a 404 for anyone else. */
+const insightsAccess: Record<Role, Outcome> = {
+	visitor: 'notfound',
+	reader: 'notfound',
+	author: 'ok',
+	editor: 'ok',
+	admin: 'ok'
+};
 const admins: Record<Role, Outcome> = {
 	visitor: 'signin',
 	reader: 'forbidden',
@@ -122,6 +130,14 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(account)/account?/requestAuthor': signedIn,
 	'POST /(account)/account?/delete': signedIn,
 	'GET /(author)/my/guides': authors,
+	// Upkeep answers on My guides: the empty probe form is refused with 400 for authors and editors.
+	'POST /(author)/my/guides?/snooze': authors,
+	'POST /(author)/my/guides?/handle': authors,
+	'POST /(author)/my/guides?/digest': authors,
+	// Fork insights (issue 19): the sample guide is the demo author's; its author and editors see
+	// them, everyone else gets the 404 of a guide that does not exist (never a sign-in page).
+	'GET /(owner)/my/guides/[slug=slug]/insights': insightsAccess,
+	'GET /api/v1/guides/[slug=slug]/insights': insightsAccess,
 	'GET /(author)/my/guides/new': authors,
 	'POST /(author)/my/guides/new?/create': authors,
 	// The sample slug is the demo author's own guide: other editors and admins get a 404 (owner only).

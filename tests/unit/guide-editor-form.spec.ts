@@ -9,7 +9,8 @@ import {
 	fromForm,
 	moveSlot,
 	readEditorForm,
-	toInput
+	toInput,
+	withSuggestedAlternate
 } from '../../src/lib/schemas/guide-editor-form';
 import type { EditorDraft } from '../../src/lib/schemas/guide-editor-form';
 
@@ -482,5 +483,19 @@ describe('the editor form reader at the body limit (issue 12, item 3)', { timeou
 		expect(parsed.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([
 			['slots.0.quantity', 'Enter the quantity as a whole number from 1 to 16.']
 		]);
+	});
+
+	it('adds a part suggested by fork insights as the slot’s last alternate, once', () => {
+		const keyed: EditorDraft = {
+			...base,
+			slots: base.slots.map((slot, i) => ({ ...slot, slotKey: i === 0 ? 'k-cpu' : 'k-case' }))
+		};
+		const added = withSuggestedAlternate(keyed, { slotKey: 'k-cpu', partId: 7 });
+		expect(added.slots[0]?.alternates.map((a) => a.partId)).toEqual(['7']);
+		expect(added.slots[1]?.alternates).toEqual([]);
+		// Already there, the pick itself, or a slot that is gone: nothing changes.
+		expect(withSuggestedAlternate(added, { slotKey: 'k-cpu', partId: 7 })).toBe(added);
+		expect(withSuggestedAlternate(keyed, { slotKey: 'k-cpu', partId: 1 })).toBe(keyed);
+		expect(withSuggestedAlternate(keyed, { slotKey: 'gone', partId: 7 })).toBe(keyed);
 	});
 });

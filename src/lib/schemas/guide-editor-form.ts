@@ -521,3 +521,30 @@ export function moveSlot(d: EditorDraft, from: number, to: number): EditorDraft 
 	if (moved) slots.splice(to, 0, moved);
 	return { ...d, slots };
 }
+
+/**
+ * The editor opened from a fork-insights suggestion: the part readers commonly swapped the
+ * slot to, added as a new last alternate of that slot in the working copy (nothing is saved
+ * until the author saves). A slot that is gone, or a part already its pick or an alternate,
+ * leaves the draft as it is.
+ */
+export function withSuggestedAlternate(
+	d: EditorDraft,
+	suggestion: { slotKey: string; partId: number } | null
+): EditorDraft {
+	if (!suggestion) return d;
+	const partId = String(suggestion.partId);
+	const i = d.slots.findIndex((s) => s.slotKey === suggestion.slotKey);
+	const slot = d.slots[i];
+	if (!slot || slot.pickPartId === partId || slot.alternates.some((a) => a.partId === partId))
+		return d;
+	const alternate = {
+		...emptyAlternate(),
+		partId,
+		note: 'A common choice in readers’ builds of this guide.'
+	};
+	return {
+		...d,
+		slots: d.slots.map((s, k) => (k === i ? { ...s, alternates: [...s.alternates, alternate] } : s))
+	};
+}

@@ -14,3 +14,4 @@ export type * from './regions';
 export type * from './parts';
 export type * from './admin';
 export type * from './photos';
+export type * from './upkeep';

@@ -15,6 +15,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { CautionRule, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Issues, Outcome } from '$lib/schemas/issues';
+import * as guidePrices from './guide-prices';
 import { cached } from './reference-cache';
 
 export interface CautionRuleRow {
@@ -119,7 +120,7 @@ async function titleInUse(
 }
 
 /** Adds a rule written by editor `actorId`. `raw` is the form's object (see ruleFromForm). */
-export async function createRule(
+async function createRuleOnly(
 	actorId: string,
 	raw: unknown
 ): Promise<Outcome<{ rule: CautionRuleRow }>> {
@@ -151,7 +152,7 @@ export async function createRule(
  * Saves a changed rule if nobody saved it since `expectedVersion` was read; the author
  * stays the editor who wrote it (the audit trail names who changed it).
  */
-export async function updateRule(
+async function updateRuleOnly(
 	actorId: string,
 	id: number,
 	expectedVersion: number,
@@ -211,7 +212,7 @@ function stale() {
 }
 
 /** Turns a rule off (it stays listed and can be turned on again) or on. */
-export async function setActive(
+async function setActiveOnly(
 	actorId: string,
 	id: number,
 	expectedVersion: number,
@@ -239,7 +240,7 @@ export async function setActive(
 }
 
 /** Deletes a rule for good; the audit event keeps what it said. */
-export async function deleteRule(
+async function deleteRuleOnly(
 	actorId: string,
 	id: number,
 	expectedVersion: number
@@ -262,4 +263,44 @@ export async function deleteRule(
 		);
 		return { kind: 'ok' as const };
 	});
+}
+
+/*
+ * A rule added, changed, turned on or off or deleted can flag a live guide's picks or clear
+ * a flag: the guides' upkeep alerts are recomputed (guide-prices.ts refreshAll does the
+ * stored figures and the alerts in one pass). Rules change rarely, so the full pass is fine.
+ */
+async function afterChange<O extends { kind: string }>(outcome: O): Promise<O> {
+	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	return outcome;
+}
+
+/** Adds a rule written by editor `actorId`. `raw` is the form's object (see ruleFromForm). */
+export async function createRule(actorId: string, raw: unknown) {
+	return afterChange(await createRuleOnly(actorId, raw));
+}
+
+/** Saves a changed rule if nobody saved it since `expectedVersion` was read. */
+export async function updateRule(
+	actorId: string,
+	id: number,
+	expectedVersion: number,
+	raw: unknown
+) {
+	return afterChange(await updateRuleOnly(actorId, id, expectedVersion, raw));
+}
+
+/** Turns a rule off or on. */
+export async function setActive(
+	actorId: string,
+	id: number,
+	expectedVersion: number,
+	active: boolean
+) {
+	return afterChange(await setActiveOnly(actorId, id, expectedVersion, active));
+}
+
+/** Deletes a rule for good. */
+export async function deleteRule(actorId: string, id: number, expectedVersion: number) {
+	return afterChange(await deleteRuleOnly(actorId, id, expectedVersion));
 }

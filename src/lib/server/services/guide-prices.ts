@@ -11,6 +11,7 @@
  *
  * The figures come from the one pricing service (pricing.ts), the same computation as the
  * guide page, so a stored total is the figure the guide page shows for that region.
+ * The same pass recomputes the guides' upkeep alerts (upkeep-alerts.ts) from these figures.
  * Recomputation runs right after the triggering transaction commits (pricing reads through
  * the pool, so it must see the committed quote or revision); it replaces a revision's rows
  * in one transaction of its own, so a reader never sees half a revision.
@@ -20,6 +21,8 @@ import { valueOf } from '$lib/domain/value';
 import { FrameResult, Region, sequelize } from '$lib/server/db';
 import { invalidateBrowseTags } from './guide-browse';
 import { priceRevisionsIn } from './pricing';
+import type { PricedRevision } from './pricing';
+import { refreshAlerts } from './upkeep-alerts';
 
 /** Revisions priced per pass: bounds memory (slots and quotes of a batch) at any scale. */
 const BATCH = 250;
@@ -123,6 +126,8 @@ async function refreshBatch(revisionIds: number[]): Promise<void> {
 	});
 	const now = new Date();
 	const values: unknown[][] = [];
+	// Each revision's pricing per region, handed on to the upkeep alerts (same triggers).
+	const byRevision = new Map(listed.map((c) => [c.revisionId, new Map<number, PricedRevision>()]));
 	for (const region of regions) {
 		const pricing = await priceRevisionsIn(
 			listed.map((c) => ({ revisionId: c.revisionId, base: c.base })),
@@ -131,6 +136,7 @@ async function refreshBatch(revisionIds: number[]): Promise<void> {
 		for (const c of listed) {
 			const priced = pricing.revisions.get(c.revisionId);
 			if (!priced) continue;
+			byRevision.get(c.revisionId)?.set(region.id, priced);
 			const { adjustment } = priced;
 			// As on the guide page: value only against a complete total.
 			const complete = adjustment.unpricedSlots === 0 ? adjustment.picksTotal : null;
@@ -179,4 +185,13 @@ async function refreshBatch(revisionIds: number[]): Promise<void> {
 		}
 	});
 	invalidateBrowseTags();
+	await refreshAlerts(
+		listed.map((c) => ({
+			revisionId: c.revisionId,
+			guideId: c.guideId,
+			baseRegionId: c.baseRegionId,
+			byRegion: byRevision.get(c.revisionId) ?? new Map()
+		})),
+		regions
+	);
 }

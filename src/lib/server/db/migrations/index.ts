@@ -57,6 +57,9 @@ import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-
 import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
 import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
 import * as mGuideRegionPrices from './2026.12.09T12.00.00.create-guide-region-prices.js';
+import * as mUpkeepBaselines from './2026.12.12T10.00.00.create-guide-upkeep-baselines.js';
+import * as mUpkeepAlerts from './2026.12.12T10.01.00.create-guide-upkeep-alerts.js';
+import * as mUsersUpkeepDigest from './2026.12.12T10.02.00.add-users-upkeep-digest.js';
 import * as mTipsNoteHiddenReason from './2026.12.13T10.00.00.add-tips-note-hidden-reason.js';
 
 export const migrations: Record<string, MigrationModule> = {
@@ -112,5 +115,8 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
 	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,
 	'2026.12.09T12.00.00.create-guide-region-prices': mGuideRegionPrices,
+	'2026.12.12T10.00.00.create-guide-upkeep-baselines': mUpkeepBaselines,
+	'2026.12.12T10.01.00.create-guide-upkeep-alerts': mUpkeepAlerts,
+	'2026.12.12T10.02.00.add-users-upkeep-digest': mUsersUpkeepDigest,
 	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason
 };

@@ -23,6 +23,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	/** Sessions carrying an older number are refused (see the auth hook). */
 	declare sessionVersion: CreationOptional<number>;
 	declare disabledAt: CreationOptional<Date | null>;
+	/** The weekly upkeep digest e-mail (new alerts on the author's guides); off by default. */
+	declare upkeepDigest: CreationOptional<boolean>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -39,6 +41,7 @@ export function initUser(sequelize: Sequelize) {
 			image: { type: DataTypes.STRING(500), allowNull: true },
 			sessionVersion: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 1 },
 			disabledAt: { type: DataTypes.DATE, allowNull: true },
+			upkeepDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

@@ -7,6 +7,7 @@ import * as demoCautionRules from './2026.12.05T12.00.00.demo-caution-rules.js';
 import * as demoBuilds from './2026.12.06T11.00.00.demo-builds.js';
 import * as demoPhotos from './2026.12.08T10.00.00.demo-photos.js';
 import * as storedGuidePrices from './2026.12.09T12.00.00.stored-guide-prices.js';
+import * as demoUpkeep from './2026.12.12T10.00.00.demo-upkeep.js';
 
 /** Ordered seeders; each is idempotent on its own (natural keys), tracking aside. */
 export const seeders: Record<string, SeederModule> = {
@@ -15,7 +16,8 @@ export const seeders: Record<string, SeederModule> = {
 	'2026.12.05T12.00.00.demo-caution-rules': demoCautionRules,
 	'2026.12.06T11.00.00.demo-builds': demoBuilds,
 	'2026.12.08T10.00.00.demo-photos': demoPhotos,
-	'2026.12.09T12.00.00.stored-guide-prices': storedGuidePrices
+	'2026.12.09T12.00.00.stored-guide-prices': storedGuidePrices,
+	'2026.12.12T10.00.00.demo-upkeep': demoUpkeep
 };
 
 export function seeder(sequelize: Sequelize) {

@@ -5,6 +5,7 @@ import { applyOp, fromDraft, readEditorForm, toInput } from '$lib/schemas/guide-
 import type { EditorDraft } from '$lib/schemas/guide-editor-form';
 import { mergeIssues, parseInput } from '$lib/schemas/issues';
 import type { Issues } from '$lib/schemas/issues';
+import { suggestedAlternateQuery } from '$lib/schemas/upkeep';
 import { requireRole } from '$lib/server/auth/guards';
 import { formAnswers } from '$lib/server/http/answers';
 import * as fit from '$lib/server/services/fit';
@@ -16,7 +17,7 @@ import type { DraftView } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The guide editor: the author's own guides only (someone else's slug is a 404). */
-export const load: PageServerLoad = async ({ params }) => {
+export const load: PageServerLoad = async ({ params, url }) => {
 	const user = requireRole('author', 'editor');
 	const draft = await drafts.getDraft(user.id, params.slug);
 	if (!draft) error(404, 'Guide not found');
@@ -28,13 +29,24 @@ export const load: PageServerLoad = async ({ params }) => {
 		(mine.latestRevision?.status === 'request_changes' || mine.latestRevision?.status === 'draft')
 			? mine.lastDecision
 			: null;
+	const catalog = await drafts.editorCatalog();
+	// Opened from a fork-insights suggestion: that part joins the slot's alternates (unsaved).
+	const query = suggestedAlternateQuery.safeParse({
+		slot: url.searchParams.get('slot') ?? undefined,
+		alternate: url.searchParams.get('alternate') ?? undefined
+	});
+	const part = query.success ? catalog.parts.find((p) => p.slug === query.data.alternate) : null;
 	return {
 		draft,
+		suggestedAlternate:
+			query.success && part
+				? { slotKey: query.data.slot, partId: part.id, name: `${part.brand} ${part.model}` }
+				: null,
 		status: mine
 			? { state: mine.state, live: mine.live, latestRevision: mine.latestRevision }
 			: null,
 		returned,
-		catalog: await drafts.editorCatalog(),
+		catalog,
 		photos
 	};
 };

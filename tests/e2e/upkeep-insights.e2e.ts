@@ -1,0 +1,122 @@
+import { expect, request as playwrightRequest, test } from '@playwright/test';
+import { BASE_URL } from '../playwright.config';
+import { DEMO_PASSWORD, severeViolations, signInWithPassword } from './support';
+
+/*
+ * Upkeep alerts and fork insights on the seeded demo (issue 19; seeder
+ * 2026.12.12T10.00.00.demo-upkeep). Prices of two picks of the demo author's
+ * "steady-1080p-starter" drift at a German store: the graphics card €259.00 → €339.00 and the
+ * memory €69.90 → €89.90, so the total in de goes from €774.20 to €874.20 (+€100.00), which is
+ * +12.9 % by hand (100 / 774.20 = 0.1292), above the 10 % threshold. Fifteen invented readers
+ * fork the guide; six of them swap the graphics card to the Ironvale Auric A64 Mini 12 GB,
+ * which is no alternate of the slot.
+ */
+const GUIDE = 'steady-1080p-starter';
+
+test('the demo author sees the drift in de as upkeep alerts, worst first', async ({ page }) => {
+	await signInWithPassword(page, 'author@slotwise.test');
+	await page.goto('/my/guides');
+	const section = page.getByTestId('upkeep-alerts');
+	await expect(section.getByRole('heading', { name: /Upkeep/ })).toBeVisible();
+	const alerts = section.getByTestId('upkeep-alert');
+	const moved = alerts.filter({ hasText: 'moved +12.9 % since publication' });
+	await expect(moved).toHaveCount(1);
+	await expect(moved).toContainText('€774.20 then, €874.20 now');
+	await expect(moved).toContainText('caution');
+	// The budget alert (a conflict) comes before the move (a caution).
+	const texts = await alerts.allTextContents();
+	const budgetAt = texts.findIndex((t) => t.includes("above the guide's target budget"));
+	const movedAt = texts.findIndex((t) => t.includes('moved +12.9 %'));
+	expect(budgetAt).toBeGreaterThanOrEqual(0);
+	expect(budgetAt).toBeLessThan(movedAt);
+	await expect(moved.getByRole('link', { name: /Open in the editor/ })).toHaveAttribute(
+		'href',
+		`/my/guides/${GUIDE}/edit`
+	);
+	expect(await severeViolations(page)).toEqual([]);
+});
+
+test('the demo author sees the insights chart with its table, and the common swap as a suggestion', async ({
+	page
+}) => {
+	await signInWithPassword(page, 'author@slotwise.test');
+	await page.goto(`/my/guides/${GUIDE}/insights`);
+	await expect(page.getByRole('heading', { level: 1 })).toContainText('What readers did with');
+	const card = page.getByTestId('slot-insight').filter({
+		has: page.getByRole('heading', { name: /Graphics card/ })
+	});
+	await expect(card.getByRole('img', { name: 'Graphics card: what builds chose' })).toBeVisible();
+	const swap = card
+		.getByRole('row')
+		.filter({ hasText: 'Swapped to Ironvale Auric A64 Mini 12 GB' });
+	await expect(swap.getByRole('cell').nth(2)).toHaveText('6');
+	await expect(card.getByTestId('alternate-suggestion')).toContainText(
+		'swapped this slot to Ironvale Auric A64 Mini 12 GB'
+	);
+	const suggestion = card.getByRole('link', { name: 'Add it as an alternate' });
+	const href = (await suggestion.getAttribute('href')) ?? '';
+	expect(href).toMatch(
+		new RegExp(`^/my/guides/${GUIDE}/edit\\?slot=[^&]+&alternate=ironvale-auric-a64-mini-12g#slot-`)
+	);
+	expect(await severeViolations(page)).toEqual([]);
+
+	// One click into the editor: the part is one more alternate of that slot, not yet saved.
+	const slotKey = href.split('#slot-')[1] ?? '';
+	await page.goto(`/my/guides/${GUIDE}/edit`);
+	const alternatesBefore = await page
+		.locator(`li[id="slot-${slotKey}"]`)
+		.getByRole('button', { name: /Remove alternate/ })
+		.count();
+	await page.goto(`/my/guides/${GUIDE}/insights`);
+	await suggestion.click();
+	await expect(
+		page.getByText('Ironvale Auric A64 Mini 12 GB was added as an alternate')
+	).toBeVisible();
+	await expect(
+		page.locator(`li[id="slot-${slotKey}"]`).getByRole('button', { name: /Remove alternate/ })
+	).toHaveCount(alternatesBefore + 1);
+});
+
+for (const who of ['visitor', 'reader@slotwise.test', 'mira.falkenberg@slotwise.test']) {
+	test(`insights page and API answer 404 to ${who === 'visitor' ? 'a visitor' : who}`, async () => {
+		const context = await playwrightRequest.newContext({ baseURL: BASE_URL });
+		if (who !== 'visitor') {
+			const signedIn = await context.post('/signin?/password', {
+				form: { email: who, password: DEMO_PASSWORD },
+				headers: { origin: BASE_URL, accept: 'text/html' },
+				maxRedirects: 0
+			});
+			expect(signedIn.status()).toBe(303);
+		}
+		const pageAnswer = await context.get(`/my/guides/${GUIDE}/insights`, { maxRedirects: 0 });
+		expect(pageAnswer.status()).toBe(404);
+		const api = await context.get(`/api/v1/guides/${GUIDE}/insights`, { maxRedirects: 0 });
+		expect(api.status()).toBe(404);
+		expect(await api.json()).toEqual({ message: 'Guide not found' });
+		await context.dispose();
+	});
+}
+
+test('the insights API answers the author with the same figures as the page', async () => {
+	const context = await playwrightRequest.newContext({ baseURL: BASE_URL });
+	const signedIn = await context.post('/signin?/password', {
+		form: { email: 'author@slotwise.test', password: DEMO_PASSWORD },
+		headers: { origin: BASE_URL, accept: 'text/html' },
+		maxRedirects: 0
+	});
+	expect(signedIn.status()).toBe(303);
+	const api = await context.get(`/api/v1/guides/${GUIDE}/insights`);
+	expect(api.status()).toBe(200);
+	const body = (await api.json()) as {
+		slots: { label: string; choices: { kind: string; partName: string; builds: unknown }[] }[];
+	};
+	const card = body.slots.find((s) => s.label === 'Graphics card');
+	expect(card?.choices).toContainEqual(
+		expect.objectContaining({
+			kind: 'other',
+			partName: 'Ironvale Auric A64 Mini 12 GB',
+			builds: { count: 6, fewerThan5: false }
+		})
+	);
+	await context.dispose();
+});
