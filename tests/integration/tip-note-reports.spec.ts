@@ -1,4 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
+import type { TipStatus } from '../../src/lib/domain/tips';
 import { AuditEvent, Guide, Tip, User, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import * as contentReports from '../../src/lib/server/services/content-reports';
@@ -26,7 +27,7 @@ async function user(email: string): Promise<User> {
 	return found;
 }
 
-async function paidTip(note: string | null, status = 'paid'): Promise<Tip> {
+async function paidTip(note: string | null, status: TipStatus = 'paid'): Promise<Tip> {
 	return Tip.create({
 		supporterId: supporter.id,
 		authorId: guide.authorId,
