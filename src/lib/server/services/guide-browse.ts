@@ -20,6 +20,7 @@ import { regionSummary } from './mappers';
 import * as fx from './fx';
 import { budgetIn } from './guides';
 import { allRegions } from './reference-cache';
+import { containsPattern, ftMinTokenSize, prefixPattern, textSearch } from './text-search';
 
 /** One stored row joined with its guide: exactly what a card shows. */
 interface ListedRow {
@@ -40,6 +41,8 @@ interface ListedRow {
 }
 
 interface ListOptions {
+	/** Words to find in the published revision's title, summary or build notes. */
+	q?: string;
 	/** Priced in this region; null: each guide in its own base region. */
 	target: Region | null;
 	baseRegionId?: number;
@@ -90,6 +93,8 @@ async function listPage(
 		where.push(`JSON_CONTAINS(g.tags, JSON_QUOTE(:tag${i}))`);
 		replacements[`tag${i}`] = tag;
 	});
+	const search = options.q ? await searchJoin(options.q, replacements) : null;
+	if (search) where.push(...search.where);
 	if (options.featuredOnly) where.push('g.featured = 1');
 	if (options.notFeatured) where.push('g.featured = 0');
 	if (options.target && (options.min !== undefined || options.max !== undefined)) {
@@ -114,6 +119,7 @@ async function listPage(
 		        COUNT(*) OVER () AS fullCount
 		   FROM guide_region_prices p
 		   JOIN guides g ON g.id = p.guide_id AND g.published_revision_id = p.revision_id
+		   ${search?.join ?? ''}
 		   LEFT JOIN users u ON u.id = g.author_id
 		  WHERE ${where.join(' AND ')}
 		  ORDER BY ${ORDER[options.sort]}
@@ -126,6 +132,7 @@ async function listPage(
 		const [count] = await sequelize.query<{ n: number }>(
 			`SELECT COUNT(*) AS n FROM guide_region_prices p
 			   JOIN guides g ON g.id = p.guide_id AND g.published_revision_id = p.revision_id
+			   ${search?.join ?? ''}
 			  WHERE ${where.join(' AND ')}`,
 			{ type: QueryTypes.SELECT, replacements }
 		);
@@ -144,6 +151,38 @@ async function listPage(
 		return base && region ? [itemOf(row, base, region, options.target !== null, rates)] : [];
 	});
 	return { items, total };
+}
+
+/**
+ * The join and conditions of a text search (text-search.ts): the published revision's title,
+ * summary and build notes through its full-text index; words too short for the index as a
+ * substring of those rows, or, with no full-text word at all, as the start of the title
+ * (the guides_title index; the guide row's title is the published revision's copy).
+ */
+async function searchJoin(
+	q: string,
+	replacements: Record<string, unknown>
+): Promise<{ join: string; where: string[] }> {
+	const { against, shortWords } = textSearch(q, await ftMinTokenSize());
+	const where: string[] = [];
+	if (against !== '') {
+		where.push('MATCH (r.title, r.summary, r.build_notes_md) AGAINST (:against IN BOOLEAN MODE)');
+		replacements.against = against;
+	}
+	shortWords.forEach((word, i) => {
+		const key = `short${i}`;
+		if (against !== '') {
+			replacements[key] = containsPattern(word);
+			where.push(`(r.title LIKE :${key} OR r.summary LIKE :${key} OR r.build_notes_md LIKE :${key})`);
+		} else {
+			replacements[key] = prefixPattern(word);
+			where.push(`g.title LIKE :${key}`);
+		}
+	});
+	return {
+		join: against !== '' ? 'JOIN guide_revisions r ON r.id = p.revision_id' : '',
+		where
+	};
 }
 
 function itemOf(
@@ -231,6 +270,7 @@ export async function browse(
 	const [{ items, total }, tags] = await Promise.all([
 		listPage(
 			{
+				q: query.q,
 				target,
 				baseRegionId: base?.id,
 				tags: query.tag,
