@@ -173,7 +173,9 @@ async function searchJoin(
 		const key = `short${i}`;
 		if (against !== '') {
 			replacements[key] = containsPattern(word);
-			where.push(`(r.title LIKE :${key} OR r.summary LIKE :${key} OR r.build_notes_md LIKE :${key})`);
+			where.push(
+				`(r.title LIKE :${key} OR r.summary LIKE :${key} OR r.build_notes_md LIKE :${key})`
+			);
 		} else {
 			replacements[key] = prefixPattern(word);
 			where.push(`g.title LIKE :${key}`);

@@ -90,15 +90,20 @@ interface SearchRow {
 /*
  * Orders of the catalog; the id tie-break keeps pages stable. Brand and model walk the
  * (brand, model, id) or (category, brand, model, id) index. The price sort's key is the
- * amount of the part's latest active quote in the region, the very quote the pricing service
- * prices the part with there (one index dive per part through
- * quotes_part_region_status_observed); parts without one come last.
+ * part's latest active quote in the region, the very quote the pricing service prices the
+ * part with there (one index dive per part through quotes_part_region_status_observed), put
+ * into the region's tax convention as the shown price is (a pre-tax quote in a tax-inclusive
+ * region sorts by its amount with tax); parts without a quote there come last.
  */
 const ORDER = {
 	name: 'p.brand ASC, p.model ASC, p.id ASC',
 	price: 'price_key IS NULL, price_key ASC, p.brand ASC, p.model ASC, p.id ASC'
 } as const;
-const PRICE_KEY = `(SELECT q.amount_minor FROM quotes q
+const PRICE_KEY = `(SELECT CASE
+	    WHEN q.tax_included = :wantsTax OR :taxRateBp = 0 THEN q.amount_minor
+	    WHEN :wantsTax = 1 THEN q.amount_minor * (10000 + :taxRateBp) / 10000
+	    ELSE q.amount_minor * 10000 / (10000 + :taxRateBp) END
+	   FROM quotes q
 	  WHERE q.part_id = p.id AND q.region_id = :regionId AND q.status = 'active'
 	  ORDER BY q.observed_at DESC, q.id DESC LIMIT 1)`;
 
@@ -155,6 +160,8 @@ export async function search(options: {
 
 	const { where, replacements } = await searchWhere(options.q, options.category);
 	replacements.regionId = region?.id ?? 0;
+	replacements.wantsTax = region?.taxMode === 'inclusive' ? 1 : 0;
+	replacements.taxRateBp = region?.taxRateBp ?? 0;
 	const select = `SELECT p.id, p.slug, p.category, p.brand, p.model, p.specs${
 		sort === 'price' ? `, ${PRICE_KEY} AS price_key` : ''
 	} FROM parts p WHERE ${where} ORDER BY ${ORDER[sort]}`;
