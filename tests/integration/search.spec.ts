@@ -193,6 +193,8 @@ describe('parts search, price column and price sort', () => {
 		expect(await found('strata')).toEqual([slugOf.P5, slugOf.P1]);
 		expect(await found('vantor strat')).toEqual([slugOf.P1]);
 		expect(await found('606')).toEqual([slugOf.P1]);
+		// Inside a word is no match: "rata" is not the start of any word ("Strata").
+		expect(await found('rata')).toEqual([]);
 	});
 
 	it("takes a reader's operators as text and keeps short words and stopwords", async () => {
@@ -213,6 +215,14 @@ describe('parts search, price column and price sort', () => {
 		const second = await search({ q: 'vantor', perPage: 1, page: 2 });
 		expect([first.total, first.pageCount]).toEqual([2, 2]);
 		expect([...first.items, ...second.items].map((i) => i.slug)).toEqual([slugOf.P1, slugOf.P2]);
+		// Matches sorted by price in the database: 79.00 (P1) on page 1, 110.00 (P5) on page 2.
+		const byPrice = [1, 2].map((page) =>
+			search({ q: 'strata', region: 'de', sort: 'price', perPage: 1, page })
+		);
+		expect((await Promise.all(byPrice)).map((r) => r.items.map((i) => i.slug))).toEqual([
+			[slugOf.P1],
+			[slugOf.P5]
+		]);
 	});
 
 	it('shows each part’s latest active quote in the chosen region, in its tax convention', async () => {
