@@ -16,7 +16,8 @@
  * Run: npm run bench:scale (after `npx vite build`; MariaDB from scripts/db.sh, DB_PORT as
  * for the other scripts). Options (env): SCALE (1 = the issue's size; 0.1 = a tenth, to try
  * it quickly), BENCH_ROUNDS (2), BENCH_SECONDS (minimum timed window, 5), BENCH_CONNECTIONS
- * (50), BENCH_WRITE=0 to leave docs/benchmarks.md alone.
+ * (50), BENCH_WRITE=0 to leave docs/benchmarks.md alone, BENCH_GENERATE_ONLY=1 to build the
+ * scratch database only (to read EXPLAIN against it) and measure nothing.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
@@ -230,6 +231,11 @@ async function main(): Promise<void> {
 	const date = new Date().toISOString().slice(0, 16).replace('T', ' ');
 	console.log(`[scale] preparing ${DB_NAME} (fresh, migrated, seeded) on port ${DB_PORT}`);
 	prepareDatabase();
+	if (process.env.BENCH_GENERATE_ONLY === '1') {
+		// Only the scratch community, e.g. to read EXPLAIN against it.
+		await grow();
+		return;
+	}
 	const demo = await measureAll('demo');
 	const timing = await grow();
 	const big = await measureAll(`scale ${SCALE}`);

@@ -112,10 +112,14 @@ export async function generate(
 		storesOf.set(Number(s.regionId), [...(storesOf.get(Number(s.regionId)) ?? []), Number(s.id)]);
 	const quotedRegions = regions.filter((r) => storesOf.has(r.id));
 	const specsOf = new Map<string, string>();
-	for (const row of await q<{ category: string; specs: string }>(
+	for (const row of await q<{ category: string; specs: unknown }>(
 		'SELECT category, specs FROM parts ORDER BY id'
 	))
-		if (!specsOf.has(row.category)) specsOf.set(row.category, String(row.specs));
+		if (!specsOf.has(row.category))
+			specsOf.set(
+				row.category,
+				typeof row.specs === 'string' ? row.specs : JSON.stringify(row.specs)
+			);
 	const categories = [...specsOf.keys()];
 	if (regions.length === 0 || quotedRegions.length === 0 || categories.length === 0)
 		throw new Error('Seed the demo community first: no regions, stores or parts to start from.');

@@ -65,6 +65,7 @@ import * as mQuotesLatestActive from './2026.12.11T11.04.00.add-quotes-latest-ac
 import * as mRevisionsFulltext from './2026.12.11T11.05.00.add-guide-revisions-text-fulltext.js';
 import * as mGuidesListing from './2026.12.11T11.06.00.add-guides-listing-index.js';
 import * as mGuidesTitle from './2026.12.11T11.07.00.add-guides-title-index.js';
+import * as mPricesTotalNewest from './2026.12.11T11.08.00.add-guide-region-prices-total-newest-index.js';
 import * as mTipsNoteHiddenReason from './2026.12.13T10.00.00.add-tips-note-hidden-reason.js';
 
 export const migrations: Record<string, MigrationModule> = {
@@ -128,5 +129,6 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.11T11.05.00.add-guide-revisions-text-fulltext': mRevisionsFulltext,
 	'2026.12.11T11.06.00.add-guides-listing-index': mGuidesListing,
 	'2026.12.11T11.07.00.add-guides-title-index': mGuidesTitle,
+	'2026.12.11T11.08.00.add-guide-region-prices-total-newest-index': mPricesTotalNewest,
 	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason
 };
