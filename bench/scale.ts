@@ -17,10 +17,11 @@
  * for the other scripts). Options (env): SCALE (1 = the issue's size; 0.1 = a tenth, to try
  * it quickly), BENCH_ROUNDS (2), BENCH_SECONDS (minimum timed window, 5), BENCH_CONNECTIONS
  * (50), BENCH_WRITE=0 to leave docs/benchmarks.md alone, BENCH_GENERATE_ONLY=1 to build the
- * scratch database only (to read EXPLAIN against it) and measure nothing.
+ * scratch database only (to read EXPLAIN against it) and measure nothing, BENCH_REUSE=1 to
+ * measure the database such a run left (same SCALE) instead of growing a new one.
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { Sequelize } from 'sequelize';
 import {
@@ -39,7 +40,10 @@ const SCALE = Number(process.env.SCALE ?? 1);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 2);
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 5);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 50);
-const DB_NAME = 'slotwise_bench_scale';
+/** The demo community alone, and the demo community grown to SCALE. */
+const DEMO_DB = 'slotwise_bench_scale_demo';
+const SCALE_DB = 'slotwise_bench_scale';
+const TIMING_FILE = resolve(ROOT, '.data/bench-scale-timing.json');
 const DB_PORT =
 	process.env.DB_PORT ??
 	(existsSync(resolve(ROOT, '.data/db.port'))
@@ -91,11 +95,12 @@ interface Measured {
 	bytes: number;
 }
 
-function prepareDatabase(): void {
-	const env = { ...process.env, DB_PORT, DB_NAMES: DB_NAME, DB_NAME };
+function prepareDatabase(name: string): void {
+	console.log(`[scale] preparing ${name} (fresh, migrated, seeded) on port ${DB_PORT}`);
+	const env = { ...process.env, DB_PORT, DB_NAMES: name, DB_NAME: name };
 	const sh = (args: string[]) => execFileSync('bash', args, { cwd: ROOT, env, stdio: 'pipe' });
 	sh(['scripts/db.sh', 'start']);
-	sh(['scripts/db.sh', 'recreate', DB_NAME]);
+	sh(['scripts/db.sh', 'recreate', name]);
 	for (const step of ['migrate', 'seed'])
 		execFileSync('npx', ['tsx', `scripts/${step}.ts`, 'up'], { cwd: ROOT, env, stdio: 'pipe' });
 }
@@ -120,8 +125,11 @@ async function signIn(origin: string): Promise<string> {
 }
 
 /** Every page against its bare twin on one app process; the app's peak memory. */
-async function measureAll(label: string): Promise<{ rows: Measured[]; peakMb: number }> {
-	const app = await startApp({ DB_NAME, DB_PORT });
+async function measureAll(
+	label: string,
+	dbName: string
+): Promise<{ rows: Measured[]; peakMb: number }> {
+	const app = await startApp({ DB_NAME: dbName, DB_PORT });
 	const memory = rssSampler(app.process.pid ?? 0);
 	const rows: Measured[] = [];
 	let peakMb: number;
@@ -172,12 +180,18 @@ async function measurePage(
 	}
 }
 
-async function grow(): Promise<{ generateS: number; refreshS: number }> {
+interface Timing {
+	scale: number;
+	generateS: number;
+	refreshS: number;
+}
+
+async function grow(): Promise<Timing> {
 	const counts = countsAt(SCALE);
 	console.log(`[scale] generating ${JSON.stringify(counts)}`);
 	const started = performance.now();
 	const sequelize = new Sequelize(
-		DB_NAME,
+		SCALE_DB,
 		process.env.DB_USER ?? 'slotwise',
 		process.env.DB_PASSWORD ?? 'slotwise-dev',
 		{
@@ -197,7 +211,7 @@ async function grow(): Promise<{ generateS: number; refreshS: number }> {
 	}
 	const generateS = (performance.now() - started) / 1000;
 	// The product's own batched refresh, as after a rates refresh; its modules read DB_NAME once.
-	process.env.DB_NAME = DB_NAME;
+	process.env.DB_NAME = SCALE_DB;
 	process.env.DB_PORT = DB_PORT;
 	const refreshStarted = performance.now();
 	const guidePrices = await import('../src/lib/server/services/guide-prices');
@@ -208,7 +222,9 @@ async function grow(): Promise<{ generateS: number; refreshS: number }> {
 	console.log(
 		`[scale] generated in ${generateS.toFixed(0)} s, stored prices in ${refreshS.toFixed(0)} s`
 	);
-	return { generateS, refreshS };
+	const timing = { scale: SCALE, generateS, refreshS };
+	writeFileSync(TIMING_FILE, JSON.stringify(timing));
+	return timing;
 }
 
 const fmt = (n: number, digits = 0) => n.toFixed(digits);
@@ -229,16 +245,24 @@ async function main(): Promise<void> {
 		throw new Error('No build/: run `npx vite build` first.');
 	const machine = machineNotes();
 	const date = new Date().toISOString().slice(0, 16).replace('T', ' ');
-	console.log(`[scale] preparing ${DB_NAME} (fresh, migrated, seeded) on port ${DB_PORT}`);
-	prepareDatabase();
 	if (process.env.BENCH_GENERATE_ONLY === '1') {
-		// Only the scratch community, e.g. to read EXPLAIN against it.
+		// Only the grown community, e.g. to read EXPLAIN against it or to measure it later.
+		prepareDatabase(SCALE_DB);
 		await grow();
 		return;
 	}
-	const demo = await measureAll('demo');
-	const timing = await grow();
-	const big = await measureAll(`scale ${SCALE}`);
+	prepareDatabase(DEMO_DB);
+	const demo = await measureAll('demo', DEMO_DB);
+	let timing: Timing;
+	if (process.env.BENCH_REUSE === '1') {
+		// The grown community a BENCH_GENERATE_ONLY run left, with its timings.
+		timing = JSON.parse(readFileSync(TIMING_FILE, 'utf8')) as Timing;
+		if (timing.scale !== SCALE) throw new Error(`${SCALE_DB} was grown at SCALE=${timing.scale}`);
+	} else {
+		prepareDatabase(SCALE_DB);
+		timing = await grow();
+	}
+	const big = await measureAll(`scale ${SCALE}`, SCALE_DB);
 	const counts = countsAt(SCALE);
 
 	const rows = PAGES.map((page, i) => {
