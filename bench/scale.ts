@@ -18,7 +18,8 @@
  * it quickly), BENCH_ROUNDS (2), BENCH_SECONDS (minimum timed window, 5), BENCH_CONNECTIONS
  * (50), BENCH_WRITE=0 to leave docs/benchmarks.md alone, BENCH_GENERATE_ONLY=1 to build the
  * scratch database only (to read EXPLAIN against it) and measure nothing, BENCH_REUSE=1 to
- * measure the database such a run left (same SCALE) instead of growing a new one.
+ * measure the database such a run left (same SCALE; waits for it to finish) instead of
+ * growing a new one; then the grown size is measured before the demo size.
  */
 import { execFileSync } from 'node:child_process';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
@@ -245,6 +246,18 @@ async function grow(): Promise<Timing> {
 	return timing;
 }
 
+/** The timings a BENCH_GENERATE_ONLY run at this SCALE wrote when it finished. */
+async function grownTiming(): Promise<Timing> {
+	for (;;) {
+		const timing = existsSync(TIMING_FILE)
+			? (JSON.parse(readFileSync(TIMING_FILE, 'utf8')) as Timing)
+			: null;
+		if (timing?.scale === SCALE) return timing;
+		console.log(`[scale] waiting for ${SCALE_DB} to be grown at SCALE=${SCALE}`);
+		await new Promise((r) => setTimeout(r, 15_000));
+	}
+}
+
 const fmt = (n: number, digits = 0) => (Number.isNaN(n) ? '—' : n.toFixed(digits));
 
 function verdict(demo: Measured, big: Measured): string {
@@ -271,17 +284,21 @@ async function main(): Promise<void> {
 		return;
 	}
 	prepareDatabase(DEMO_DB);
-	const demo = await measureAll('demo', DEMO_DB);
+	let demo: { rows: Measured[]; peakMb: number };
+	let big: { rows: Measured[]; peakMb: number };
 	let timing: Timing;
 	if (process.env.BENCH_REUSE === '1') {
-		// The grown community a BENCH_GENERATE_ONLY run left, with its timings.
-		timing = JSON.parse(readFileSync(TIMING_FILE, 'utf8')) as Timing;
-		if (timing.scale !== SCALE) throw new Error(`${SCALE_DB} was grown at SCALE=${timing.scale}`);
+		// The grown community a BENCH_GENERATE_ONLY run leaves (waiting for it to finish, so
+		// its inserts and refresh never run beside a measurement), then the demo size.
+		timing = await grownTiming();
+		big = await measureAll(`scale ${SCALE}`, SCALE_DB);
+		demo = await measureAll('demo', DEMO_DB);
 	} else {
+		demo = await measureAll('demo', DEMO_DB);
 		prepareDatabase(SCALE_DB);
 		timing = await grow();
+		big = await measureAll(`scale ${SCALE}`, SCALE_DB);
 	}
-	const big = await measureAll(`scale ${SCALE}`, SCALE_DB);
 	const counts = countsAt(SCALE);
 
 	const rows = PAGES.map((page, i) => {
