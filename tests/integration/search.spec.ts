@@ -123,7 +123,7 @@ describe('guide text search', () => {
 });
 
 describe('parts search, price column and price sort', () => {
-	const slugOf: Record<string, string> = {};
+	const slugOf = { P1: '', P2: '', P3: '', P4: '', P5: '' };
 
 	beforeAll(async () => {
 		await resetDatabase();
@@ -145,7 +145,12 @@ describe('parts search, price column and price sort', () => {
 		const s1 = await Store.create({ name: 'Lindwerk', regionId: de.id, url: 'https://a.test' });
 		const s2 = await Store.create({ name: 'Fuchsbau', regionId: de.id, url: 'https://b.test' });
 		const s3 = await Store.create({ name: 'Baywell', regionId: us.id, url: 'https://c.test' });
-		const part = async (key: string, category: Part['category'], brand: string, model: string) => {
+		const part = async (
+			key: keyof typeof slugOf,
+			category: Part['category'],
+			brand: string,
+			model: string
+		) => {
 			const slug = `${brand}-${model}`.toLowerCase().replace(/[^a-z0-9]+/g, '-');
 			slugOf[key] = slug;
 			return Part.create({ category, brand, model, slug, specs: {} });
