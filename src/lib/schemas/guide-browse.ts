@@ -71,6 +71,11 @@ const tag = z
 
 /** The URL fields; `guideBrowseQuery` adds the cross-field rules. `tag` may repeat. */
 export const guideBrowseFields = z.strictObject({
+	/** Words to find in the published guide's title, summary or build notes. */
+	q: z.preprocess(
+		emptyAsUndefined,
+		z.string().trim().max(100, 'Search for at most 100 characters.').optional()
+	),
 	region: regionCode,
 	base: regionCode,
 	min: budget('lowest'),

@@ -22,6 +22,18 @@ import {
 /** Parts per catalog page (page and API alike). */
 export const PARTS_PER_PAGE = 24;
 
+/**
+ * Catalog orders: by brand and model, or by price in the chosen region (lowest first, parts
+ * without a price there last). Prices in different currencies cannot be compared, so the
+ * price sort needs a region.
+ */
+export const PART_SORTS = ['name', 'price'] as const;
+export type PartSort = (typeof PART_SORTS)[number];
+export const PART_SORT_LABELS: Record<PartSort, string> = {
+	name: 'Brand and model',
+	price: 'Lowest price'
+};
+
 export interface SelectFilter {
 	key: SpecFilterKey;
 	label: string;
@@ -140,6 +152,20 @@ export const partSearchFields = z.strictObject({
 		z.enum(PART_CATEGORIES, { error: `Choose one of ${PART_CATEGORIES.join(', ')}.` }).optional()
 	),
 	page: pageNumber,
+	/** The region whose prices the catalog shows (its price column and the price sort). */
+	region: z.preprocess(
+		emptyAsUndefined,
+		z
+			.string()
+			.trim()
+			.toLowerCase()
+			.regex(/^[a-z]{2,8}$/, 'A region code is 2–8 letters, e.g. "de".')
+			.optional()
+	),
+	sort: z.preprocess(
+		emptyAsUndefined,
+		z.enum(PART_SORTS, { error: `Sort by one of: ${PART_SORTS.join(', ')}.` }).default('name')
+	),
 	socket: choice,
 	formFactor: choice,
 	memoryType: choice,
@@ -154,11 +180,15 @@ export const partSearchFields = z.strictObject({
 });
 
 type SearchFields = z.output<typeof partSearchFields>;
-export type SpecFilterKey = Exclude<keyof SearchFields, 'q' | 'category' | 'page'>;
+export type SpecFilterKey = Exclude<
+	keyof SearchFields,
+	'q' | 'category' | 'page' | 'region' | 'sort'
+>;
 export type SpecFilters = Partial<Pick<SearchFields, SpecFilterKey>>;
 
+const NOT_SPEC_FILTERS = new Set(['q', 'category', 'page', 'region', 'sort']);
 export const SPEC_FILTER_KEYS = Object.keys(partSearchFields.shape).filter(
-	(key) => key !== 'q' && key !== 'category' && key !== 'page'
+	(key) => !NOT_SPEC_FILTERS.has(key)
 ) as SpecFilterKey[];
 
 /** Which categories offer a filter, for the message when it is used elsewhere. */
@@ -172,6 +202,13 @@ function categoriesWith(key: SpecFilterKey): string {
 /** GET /parts and /api/v1/parts: `{ q, category, page, specFilters }`. */
 export const partSearchQuery = partSearchFields
 	.superRefine((input, ctx) => {
+		if (input.sort === 'price' && !input.region) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['sort'],
+				message: 'Choose a region to sort by price: prices are compared in its currency.'
+			});
+		}
 		const defs = input.category ? (SPEC_FILTERS[input.category] ?? []) : [];
 		for (const key of SPEC_FILTER_KEYS) {
 			const value = input[key];
@@ -192,12 +229,12 @@ export const partSearchQuery = partSearchFields
 			}
 		}
 	})
-	.transform(({ q, category, page, ...rest }) => {
+	.transform(({ q, category, page, region, sort, ...rest }) => {
 		const specFilters: SpecFilters = {};
 		for (const key of SPEC_FILTER_KEYS) {
 			if (rest[key] !== undefined) Object.assign(specFilters, { [key]: rest[key] });
 		}
-		return { q, category, page, specFilters };
+		return { q, category, page, region, sort, specFilters };
 	});
 export type PartSearchQuery = z.output<typeof partSearchQuery>;
 

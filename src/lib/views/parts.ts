@@ -2,7 +2,7 @@
  * The public parts catalog, as the parts pages and GET /api/v1/parts show it. Types only.
  */
 import type { Money, PartCategory, QuoteStatus } from '$lib/domain/types';
-import type { RegionSummary } from './guide';
+import type { PriceLine, RegionSummary } from './guide';
 
 export interface PartSummary {
 	slug: string;
@@ -13,9 +13,20 @@ export interface PartSummary {
 	specs: Record<string, unknown>;
 }
 
+/** A catalog row: the part and, with a region chosen, its price there. */
+export interface PartListItem extends PartSummary {
+	/**
+	 * The part's latest active store quote in the chosen region, in the region's display
+	 * convention (the pricing service's figure); null without a region or without a quote there.
+	 */
+	price: PriceLine | null;
+}
+
 /** GET /api/v1/parts */
 export interface PartSearchResult {
-	items: PartSummary[];
+	items: PartListItem[];
+	/** The region the prices are in; null when none was chosen. */
+	region: RegionSummary | null;
 	total: number;
 	/** The page shown: a page past the end gives the last page. */
 	page: number;

@@ -10,16 +10,18 @@
  * total is the very figure the guide page shows for the same region.
  */
 import { QueryTypes } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { minorUnitDigits, money } from '$lib/domain/money';
 import type { RatesPerEur } from '$lib/domain/region';
 import { GUIDES_PER_PAGE } from '$lib/schemas/guide-browse';
 import type { GuideBrowseQuery } from '$lib/schemas/guide-browse';
-import { Region, sequelize } from '$lib/server/db';
+import { Guide, Region, sequelize } from '$lib/server/db';
 import type { BrowseItem, BrowseResult, GuideCard } from '$lib/views';
 import { regionSummary } from './mappers';
 import * as fx from './fx';
 import { budgetIn } from './guides';
 import { allRegions } from './reference-cache';
+import { containsPattern, ftMinTokenSize, prefixPattern, textSearch } from './text-search';
 
 /** One stored row joined with its guide: exactly what a card shows. */
 interface ListedRow {
@@ -36,10 +38,11 @@ interface ListedRow {
 	unpricedSlots: number;
 	fpsPer100: number | null;
 	publishedAt: Date | string;
-	fullCount: number | string;
 }
 
 interface ListOptions {
+	/** Words to find in the published revision's title, summary or build notes. */
+	q?: string;
 	/** Priced in this region; null: each guide in its own base region. */
 	target: Region | null;
 	baseRegionId?: number;
@@ -53,15 +56,46 @@ interface ListOptions {
 	sort: 'newest' | 'total' | 'value';
 	limit: number;
 	offset: number;
+	/** Count every match (browse's pages); home and the feed show only their first rows. */
+	withTotal?: boolean;
 }
 
+/*
+ * Every order is on guide_region_prices' own columns, ending in the revision id, so MariaDB
+ * reads a page straight off one of its indexes and stops after LIMIT rows (docs/architecture.md
+ * "EXPLAIN notes"); a tie-break on a column of guides (the slug, as before) made it join and
+ * sort every listed guide on every request.
+ */
 const ORDER: Record<ListOptions['sort'], string> = {
-	newest: 'p.published_at DESC, g.slug ASC',
+	newest: 'p.published_at DESC, p.revision_id DESC',
 	// Lowest total first, guides without a total last (total_sort), newest first among equals.
-	total: 'p.total_sort ASC, p.published_at DESC, g.slug ASC',
+	total: 'p.total_sort ASC, p.published_at DESC, p.revision_id DESC',
 	// Highest value first, guides without a value last (value_sort), newest first among equals.
-	value: 'p.value_sort DESC, p.published_at DESC, g.slug ASC'
+	value: 'p.value_sort DESC, p.published_at DESC, p.revision_id DESC'
 };
+
+/** How long a list's match count may lag behind (refreshes drop the counts at once). */
+const COUNT_TTL_MS = 10_000;
+const counts = new Map<string, { at: number; n: Promise<number> }>();
+
+/**
+ * The number of guides matching a list's filters: a separate count, kept briefly per filter
+ * set, because counting inside the page query (a window function) made MariaDB read every
+ * match before LIMIT on every request.
+ */
+function countMatches(sql: string, replacements: Record<string, unknown>): Promise<number> {
+	const { limit: _l, offset: _o, ...filters } = replacements;
+	const key = `${sql}\n${JSON.stringify(filters)}`;
+	const hit = counts.get(key);
+	if (hit && Date.now() - hit.at < COUNT_TTL_MS) return hit.n;
+	if (counts.size > 500) counts.clear();
+	const n = sequelize
+		.query<{ n: number }>(sql, { type: QueryTypes.SELECT, replacements: filters })
+		.then((rows) => Number(rows[0]?.n ?? 0));
+	counts.set(key, { at: Date.now(), n });
+	n.catch(() => counts.delete(key));
+	return n;
+}
 
 /**
  * One page of listed guides and the number of all that match, in one query: the stored rows
@@ -90,6 +124,8 @@ async function listPage(
 		where.push(`JSON_CONTAINS(g.tags, JSON_QUOTE(:tag${i}))`);
 		replacements[`tag${i}`] = tag;
 	});
+	const search = options.q ? await searchJoin(options.q, replacements) : null;
+	if (search) where.push(...search.where);
 	if (options.featuredOnly) where.push('g.featured = 1');
 	if (options.notFeatured) where.push('g.featured = 0');
 	if (options.target && (options.min !== undefined || options.max !== undefined)) {
@@ -110,27 +146,25 @@ async function listPage(
 		        g.target_budget_minor AS targetBudgetMinor, g.base_region_id AS baseRegionId,
 		        u.name AS authorName, p.region_id AS regionId,
 		        p.picks_total_minor AS picksTotalMinor, p.unpriced_slots AS unpricedSlots,
-		        p.fps_per_100 AS fpsPer100, p.published_at AS publishedAt,
-		        COUNT(*) OVER () AS fullCount
+		        p.fps_per_100 AS fpsPer100, p.published_at AS publishedAt
 		   FROM guide_region_prices p
 		   JOIN guides g ON g.id = p.guide_id AND g.published_revision_id = p.revision_id
+		   ${search?.join ?? ''}
 		   LEFT JOIN users u ON u.id = g.author_id
 		  WHERE ${where.join(' AND ')}
 		  ORDER BY ${ORDER[options.sort]}
 		  LIMIT :limit OFFSET :offset`,
 		{ type: QueryTypes.SELECT, replacements }
 	);
-	let total = Number(rows[0]?.fullCount ?? 0);
-	if (rows.length === 0 && options.offset > 0) {
-		// Past the last page the window count has no row to ride on; count separately.
-		const [count] = await sequelize.query<{ n: number }>(
-			`SELECT COUNT(*) AS n FROM guide_region_prices p
-			   JOIN guides g ON g.id = p.guide_id AND g.published_revision_id = p.revision_id
-			  WHERE ${where.join(' AND ')}`,
-			{ type: QueryTypes.SELECT, replacements }
-		);
-		total = Number(count?.n ?? 0);
-	}
+	const total = options.withTotal
+		? await countMatches(
+				`SELECT COUNT(*) AS n FROM guide_region_prices p
+				   JOIN guides g ON g.id = p.guide_id AND g.published_revision_id = p.revision_id
+				   ${search?.join ?? ''}
+				  WHERE ${where.join(' AND ')}`,
+				replacements
+			)
+		: rows.length;
 	// One currency on a card: the budget converted into the currency its total is priced in.
 	const crosses = rows.some(
 		(row) =>
@@ -144,6 +178,40 @@ async function listPage(
 		return base && region ? [itemOf(row, base, region, options.target !== null, rates)] : [];
 	});
 	return { items, total };
+}
+
+/**
+ * The join and conditions of a text search (text-search.ts): the published revision's title,
+ * summary and build notes through its full-text index; words too short for the index as a
+ * substring of those rows, or, with no full-text word at all, as the start of the title
+ * (the guides_title index; the guide row's title is the published revision's copy).
+ */
+async function searchJoin(
+	q: string,
+	replacements: Record<string, unknown>
+): Promise<{ join: string; where: string[] }> {
+	const { against, shortWords } = textSearch(q, await ftMinTokenSize());
+	const where: string[] = [];
+	if (against !== '') {
+		where.push('MATCH (r.title, r.summary, r.build_notes_md) AGAINST (:against IN BOOLEAN MODE)');
+		replacements.against = against;
+	}
+	shortWords.forEach((word, i) => {
+		const key = `short${i}`;
+		if (against !== '') {
+			replacements[key] = containsPattern(word);
+			where.push(
+				`(r.title LIKE :${key} OR r.summary LIKE :${key} OR r.build_notes_md LIKE :${key})`
+			);
+		} else {
+			replacements[key] = prefixPattern(word);
+			where.push(`g.title LIKE :${key}`);
+		}
+	});
+	return {
+		join: against !== '' ? 'JOIN guide_revisions r ON r.id = p.revision_id' : '',
+		where
+	};
 }
 
 function itemOf(
@@ -191,9 +259,24 @@ export async function listPublished(limit = 100): Promise<GuideCard[]> {
 const TAGS_TTL_MS = 10_000;
 let tagsCache: { at: number; tags: Promise<string[]> } | null = null;
 
-/** Drops the cached tag list (guide-prices.ts calls it after recomputing). */
+/** Drops the cached tag list and match counts (guide-prices.ts calls it after recomputing). */
 export function invalidateBrowseTags(): void {
 	tagsCache = null;
+	counts.clear();
+}
+
+/*
+ * A guide hidden, restored, unpublished or featured changes what lists count without any
+ * price being recomputed: every write to a guide row drops the counts, again when its
+ * transaction commits (a read inside it could have cached the old figure).
+ */
+for (const hook of ['afterSave', 'afterDestroy', 'afterBulkUpdate', 'afterBulkDestroy'] as const) {
+	Guide.addHook(hook, `guide-browse-counts-${hook}`, (...args: unknown[]) => {
+		const options = (args.length > 1 ? args[1] : args[0]) as
+			{ transaction?: Transaction | null } | undefined;
+		invalidateBrowseTags();
+		options?.transaction?.afterCommit(() => invalidateBrowseTags());
+	});
 }
 
 /** Every tag of a listed guide, sorted: one query, cached briefly. */
@@ -231,6 +314,7 @@ export async function browse(
 	const [{ items, total }, tags] = await Promise.all([
 		listPage(
 			{
+				q: query.q,
 				target,
 				baseRegionId: base?.id,
 				tags: query.tag,
@@ -239,7 +323,8 @@ export async function browse(
 				max: target ? query.max : undefined,
 				sort: target ? query.sort : 'newest',
 				limit: perPage,
-				offset: (query.page - 1) * perPage
+				offset: (query.page - 1) * perPage,
+				withTotal: true
 			},
 			byId
 		),

@@ -3,23 +3,35 @@
  * filters, and one part with its quotes, price history and the published guides using it.
  * Read-only; the editor upkeep pages write parts through their own service.
  */
-import { Op } from 'sequelize';
-import type { WhereOptions } from 'sequelize';
+import { Op, QueryTypes } from 'sequelize';
 import type { PartCategory } from '$lib/domain/types';
 import { PARTS_PER_PAGE, SPEC_FILTERS, SPEC_FILTER_KEYS } from '$lib/schemas/parts';
-import type { SpecFilterDef, SpecFilters } from '$lib/schemas/parts';
-import { Guide, GuideSlot, Part, Quote, Region, SlotAlternate, Store } from '$lib/server/db';
+import type { PartSort, SpecFilterDef, SpecFilters } from '$lib/schemas/parts';
+import {
+	Guide,
+	GuideSlot,
+	Part,
+	Quote,
+	Region,
+	SlotAlternate,
+	Store,
+	sequelize
+} from '$lib/server/db';
 import type {
 	GuideUse,
 	GuideUsingPart,
 	PartDetail,
 	PartSearchResult,
 	PartSummary,
+	PriceLine,
 	PriceSeries,
 	RegionQuotes
 } from '$lib/views';
 import { regionSummary } from './mappers';
-import { escapeLike, pageWindow } from './list-query';
+import { pageWindow } from './list-query';
+import { priceSlotSets } from './pricing';
+import { allRegions } from './reference-cache';
+import { containsPattern, ftMinTokenSize, prefixPattern, textSearch } from './text-search';
 
 /** Whether `specs` passes one filter; a missing or mistyped field never passes. */
 function passes(
@@ -55,22 +67,79 @@ function activeFilters(category: PartCategory | undefined, specFilters: SpecFilt
 	return active;
 }
 
-const SUMMARY_ATTRIBUTES = ['id', 'slug', 'category', 'brand', 'model', 'specs'] as const;
-// Brand and model first; the id tie-break keeps pages stable.
-const SUMMARY_ORDER: [string, string][] = [
-	['brand', 'ASC'],
-	['model', 'ASC'],
-	['id', 'ASC']
-];
-
 function toSummary(p: Part): PartSummary {
 	return { slug: p.slug, category: p.category, brand: p.brand, model: p.model, specs: p.specs };
 }
 
+/** The region code names no region (the routes answer it as a field error). */
+export class UnknownRegionError extends Error {
+	constructor(readonly code: string) {
+		super(`No region has the code ${code}`);
+	}
+}
+
+interface SearchRow {
+	id: number;
+	slug: string;
+	category: PartCategory;
+	brand: string;
+	model: string;
+	specs: Record<string, unknown> | string;
+}
+
+/*
+ * Orders of the catalog; the id tie-break keeps pages stable. Brand and model walk the
+ * (brand, model, id) or (category, brand, model, id) index. The price sort's key is the
+ * part's latest active quote in the region, the very quote the pricing service prices the
+ * part with there (one index dive per part through quotes_part_region_status_observed), put
+ * into the region's tax convention as the shown price is (a pre-tax quote in a tax-inclusive
+ * region sorts by its amount with tax); parts without a quote there come last.
+ */
+const ORDER = {
+	name: 'p.brand ASC, p.model ASC, p.id ASC',
+	price: 'price_key IS NULL, price_key ASC, p.brand ASC, p.model ASC, p.id ASC'
+} as const;
+const PRICE_KEY = `(SELECT CASE
+	    WHEN q.tax_included = :wantsTax OR :taxRateBp = 0 THEN q.amount_minor
+	    WHEN :wantsTax = 1 THEN q.amount_minor * (10000 + :taxRateBp) / 10000
+	    ELSE q.amount_minor * 10000 / (10000 + :taxRateBp) END
+	   FROM quotes q
+	  WHERE q.part_id = p.id AND q.region_id = :regionId AND q.status = 'active'
+	  ORDER BY q.observed_at DESC, q.id DESC LIMIT 1)`;
+
+/** The WHERE of a search: category, the full-text terms and the short words (text-search.ts). */
+async function searchWhere(
+	q: string,
+	category: PartCategory | undefined
+): Promise<{ where: string; replacements: Record<string, unknown> }> {
+	const conditions: string[] = [];
+	const replacements: Record<string, unknown> = {};
+	if (category) {
+		conditions.push('p.category = :category');
+		replacements.category = category;
+	}
+	// Each word may sit in the brand or the model, so "halvard 606" finds "Halvard / Strata 606".
+	const { against, shortWords } = textSearch(q, await ftMinTokenSize());
+	if (against !== '') {
+		conditions.push('MATCH (p.brand, p.model) AGAINST (:against IN BOOLEAN MODE)');
+		replacements.against = against;
+	}
+	shortWords.forEach((word, i) => {
+		// With full-text terms, a short word filters the rows they found (a substring, cheap);
+		// alone, it is a prefix of the brand or the model: two index ranges, never a table scan.
+		replacements[`short${i}`] = against !== '' ? containsPattern(word) : prefixPattern(word);
+		conditions.push(`(p.brand LIKE :short${i} OR p.model LIKE :short${i})`);
+	});
+	return { where: conditions.length > 0 ? conditions.join(' AND ') : '1 = 1', replacements };
+}
+
 /**
- * Parts whose brand or model contains every word of `q` (case-insensitive, wildcards taken
- * literally), optionally of one category and passing that category's spec filters, by
- * brand and model. `perPage` defaults to 24 and is capped at 100.
+ * Parts whose brand or model holds every word of `q` (case-insensitive; full-text words
+ * match from their start, see text-search.ts), optionally of one category and passing that
+ * category's spec filters, by brand and model or by price in `region` (a region code; the
+ * price sort needs one). With a region each part carries its price there, priced for the
+ * page's parts in one batched pass of the pricing service. `perPage` defaults to 24 and is
+ * capped at 100. Throws UnknownRegionError for a region code no region has.
  */
 export async function search(options: {
 	q: string;
@@ -78,57 +147,100 @@ export async function search(options: {
 	specFilters?: SpecFilters;
 	page: number;
 	perPage?: number;
+	region?: string;
+	sort?: PartSort;
 }): Promise<PartSearchResult> {
 	const perPage = Math.min(Math.max(1, Math.trunc(options.perPage ?? PARTS_PER_PAGE)), 100);
 	const filters = activeFilters(options.category, options.specFilters ?? {});
+	const region = options.region
+		? ((await allRegions()).find((r) => r.code === options.region) ?? null)
+		: null;
+	if (options.region && !region) throw new UnknownRegionError(options.region);
+	const sort: PartSort = region && options.sort === 'price' ? 'price' : 'name';
 
-	const conditions: WhereOptions<Part>[] = [];
-	if (options.category) conditions.push({ category: options.category });
-	// Each word may sit in the brand or the model, so "halvard 606" finds "Halvard / Strata 606".
-	const words = options.q.trim().split(/\s+/).filter(Boolean).slice(0, 8);
-	for (const word of words) {
-		const pattern = `%${escapeLike(word)}%`;
-		conditions.push({
-			[Op.or]: [{ brand: { [Op.like]: pattern } }, { model: { [Op.like]: pattern } }]
-		});
-	}
-	const where: WhereOptions<Part> = conditions.length > 0 ? { [Op.and]: conditions } : {};
+	const { where, replacements } = await searchWhere(options.q, options.category);
+	replacements.regionId = region?.id ?? 0;
+	replacements.wantsTax = region?.taxMode === 'inclusive' ? 1 : 0;
+	replacements.taxRateBp = region?.taxRateBp ?? 0;
+	const select = `SELECT p.id, p.slug, p.category, p.brand, p.model, p.specs${
+		sort === 'price' ? `, ${PRICE_KEY} AS price_key` : ''
+	} FROM parts p WHERE ${where} ORDER BY ${ORDER[sort]}`;
 
+	let rows: SearchRow[];
+	let total: number;
+	let window: ReturnType<typeof pageWindow>;
 	if (filters.length === 0) {
-		const total = await Part.count({ where });
-		const window = pageWindow(total, options.page, perPage);
-		const rows = await Part.findAll({
-			where,
-			attributes: [...SUMMARY_ATTRIBUTES],
-			order: SUMMARY_ORDER,
-			limit: perPage,
-			offset: window.offset
+		const [count] = await sequelize.query<{ n: number }>(
+			`SELECT COUNT(*) AS n FROM parts p WHERE ${where}`,
+			{ type: QueryTypes.SELECT, replacements }
+		);
+		total = Number(count?.n ?? 0);
+		window = pageWindow(total, options.page, perPage);
+		rows = await sequelize.query<SearchRow>(`${select} LIMIT :limit OFFSET :offset`, {
+			type: QueryTypes.SELECT,
+			replacements: { ...replacements, limit: perPage, offset: window.offset }
 		});
-		return { items: rows.map(toSummary), total, page: window.page, pageCount: window.pageCount };
+	} else {
+		/*
+		 * Spec filters are applied here in JS, after a query narrowed to one category (the
+		 * filters require one) and to the search words, in the page's order. Specs are a JSON
+		 * column; past a few thousand parts per category, move the filtered fields to indexed
+		 * generated columns and filter in SQL.
+		 */
+		const all = await sequelize.query<SearchRow>(select, { type: QueryTypes.SELECT, replacements });
+		const matching = all.filter((row) =>
+			filters.every(({ def, value }) => passes(specsOf(row), def, value))
+		);
+		total = matching.length;
+		window = pageWindow(total, options.page, perPage);
+		rows = matching.slice(window.offset, window.offset + perPage);
 	}
-
-	/*
-	 * Spec filters are applied here in JS, after a query narrowed to one category (the
-	 * filters require one) and to the search words. Specs are a JSON column, and the catalog
-	 * holds tens to a few thousand parts per category, so this is cheaper to get right than
-	 * JSON_VALUE casts in SQL. Past that size, move the filtered fields to indexed generated
-	 * columns and filter in SQL.
-	 */
-	const rows = await Part.findAll({
-		where,
-		attributes: [...SUMMARY_ATTRIBUTES],
-		order: SUMMARY_ORDER
-	});
-	const matching = rows.filter((row) =>
-		filters.every(({ def, value }) => passes(row.specs, def, value))
-	);
-	const window = pageWindow(matching.length, options.page, perPage);
+	const prices = region ? await pricesIn(rows, region) : rows.map(() => null);
 	return {
-		items: matching.slice(window.offset, window.offset + perPage).map(toSummary),
-		total: matching.length,
+		items: rows.map((row, i) => ({ ...summaryOf(row), price: prices[i] ?? null })),
+		region: region ? regionSummary(region) : null,
+		total,
 		page: window.page,
 		pageCount: window.pageCount
 	};
+}
+
+const specsOf = (row: SearchRow): Record<string, unknown> =>
+	typeof row.specs === 'string' ? (JSON.parse(row.specs) as Record<string, unknown>) : row.specs;
+
+function summaryOf(row: SearchRow): PartSummary {
+	return {
+		slug: row.slug,
+		category: row.category,
+		brand: row.brand,
+		model: row.model,
+		specs: specsOf(row)
+	};
+}
+
+/**
+ * Each part's price in `region` through the pricing service, the page's parts in one set:
+ * one query for their latest quotes, none per part. The set's base is the region itself, so
+ * a part is priced by its latest active quote there (in the region's tax convention) and is
+ * unpriced without one: a catalog part has no base region to estimate from.
+ */
+async function pricesIn(rows: SearchRow[], region: Region): Promise<(PriceLine | null)[]> {
+	if (rows.length === 0) return [];
+	const run = await priceSlotSets(
+		[
+			{
+				base: region,
+				slots: rows.map((row) => ({
+					category: row.category,
+					quantity: 1,
+					pick: { partId: Number(row.id) },
+					alternates: []
+				}))
+			}
+		],
+		region
+	);
+	return run.sets[0]?.prices.map((p) => p.pick) ?? rows.map(() => null);
 }
 
 type LoadedQuote = Quote & { store: Store; region: Region };

@@ -57,6 +57,15 @@ import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-
 import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
 import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
 import * as mGuideRegionPrices from './2026.12.09T12.00.00.create-guide-region-prices.js';
+import * as mPartsFulltext from './2026.12.11T11.00.00.add-parts-brand-model-fulltext.js';
+import * as mPartsBrandModel from './2026.12.11T11.01.00.add-parts-brand-model-index.js';
+import * as mPartsModel from './2026.12.11T11.02.00.add-parts-model-index.js';
+import * as mPartsCategoryBrandModel from './2026.12.11T11.03.00.add-parts-category-brand-model-index.js';
+import * as mQuotesLatestActive from './2026.12.11T11.04.00.add-quotes-latest-active-index.js';
+import * as mRevisionsFulltext from './2026.12.11T11.05.00.add-guide-revisions-text-fulltext.js';
+import * as mGuidesListing from './2026.12.11T11.06.00.add-guides-listing-index.js';
+import * as mGuidesTitle from './2026.12.11T11.07.00.add-guides-title-index.js';
+import * as mPricesTotalNewest from './2026.12.11T11.08.00.add-guide-region-prices-total-newest-index.js';
 import * as mUpkeepBaselines from './2026.12.12T10.00.00.create-guide-upkeep-baselines.js';
 import * as mUpkeepAlerts from './2026.12.12T10.01.00.create-guide-upkeep-alerts.js';
 import * as mUsersUpkeepDigest from './2026.12.12T10.02.00.add-users-upkeep-digest.js';
@@ -115,6 +124,15 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
 	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,
 	'2026.12.09T12.00.00.create-guide-region-prices': mGuideRegionPrices,
+	'2026.12.11T11.00.00.add-parts-brand-model-fulltext': mPartsFulltext,
+	'2026.12.11T11.01.00.add-parts-brand-model-index': mPartsBrandModel,
+	'2026.12.11T11.02.00.add-parts-model-index': mPartsModel,
+	'2026.12.11T11.03.00.add-parts-category-brand-model-index': mPartsCategoryBrandModel,
+	'2026.12.11T11.04.00.add-quotes-latest-active-index': mQuotesLatestActive,
+	'2026.12.11T11.05.00.add-guide-revisions-text-fulltext': mRevisionsFulltext,
+	'2026.12.11T11.06.00.add-guides-listing-index': mGuidesListing,
+	'2026.12.11T11.07.00.add-guides-title-index': mGuidesTitle,
+	'2026.12.11T11.08.00.add-guide-region-prices-total-newest-index': mPricesTotalNewest,
 	'2026.12.12T10.00.00.create-guide-upkeep-baselines': mUpkeepBaselines,
 	'2026.12.12T10.01.00.create-guide-upkeep-alerts': mUpkeepAlerts,
 	'2026.12.12T10.02.00.add-users-upkeep-digest': mUsersUpkeepDigest,
