@@ -18,13 +18,10 @@ import { Build, BuildSlot, Part, Quote, Region, Store, User } from '../models/in
 import { hashPassword } from '../../auth/password.js';
 import { fork } from '../../services/build-fork.js';
 import { DEMO_PASSWORD } from './demo-community.js';
+import { DRIFT, DRIFT_STORE } from './demo-data/upkeep.js';
 import * as guidePrices from '../../services/guide-prices.js';
 
 const GUIDE = 'steady-1080p-starter';
-const DRIFT = [
-	{ part: 'solenne-cobalt-c6-8g', amountMinor: 33900 },
-	{ part: 'aldmere-pulse-ddr4-3600-32gb', amountMinor: 8990 }
-];
 
 /** Invented readers: [name, region, graphics card choice, memory choice, bought the CPU]. */
 type Card = 'pick' | 'alternate' | 'swap';
@@ -66,7 +63,7 @@ async function partId(slug: string): Promise<number> {
 
 async function drift(): Promise<number[]> {
 	const de = await Region.findOne({ where: { code: 'de' } });
-	const store = de ? await Store.findOne({ where: { name: 'Lindenhof Rechnerteile' } }) : null;
+	const store = de ? await Store.findOne({ where: { name: DRIFT_STORE } }) : null;
 	if (!de || !store) throw new Error('Demo upkeep: region de or its store missing');
 	const today = new Date(new Date().toISOString().slice(0, 10) + 'T00:00:00Z');
 	const ids: number[] = [];
@@ -137,7 +134,7 @@ export const up: Seeder = async () => {
 
 export const down: Seeder = async () => {
 	for (const [name] of READERS) await User.destroy({ where: { email: emailOf(name) } });
-	const store = await Store.findOne({ where: { name: 'Lindenhof Rechnerteile' } });
+	const store = await Store.findOne({ where: { name: DRIFT_STORE } });
 	if (store)
 		for (const d of DRIFT)
 			await Quote.destroy({

@@ -6,3 +6,4 @@ export * from './stores';
 export * from './parts';
 export * from './quotes';
 export * from './guides';
+export * from './upkeep';
