@@ -1,5 +1,6 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
 import type { SessionUser } from '$lib/server/auth/session-user';
+import type { GuideStamp } from '$lib/server/services/guide-view-cache';
 
 declare global {
 	namespace App {
@@ -17,6 +18,10 @@ declare global {
 			sessionUnavailable?: boolean;
 			/** Something in this request failed to reach the database (handleError); answered as 503. */
 			databaseUnavailable?: boolean;
+			/** The guide page and pricing API: the guide's stamp, read once by the caching hook. */
+			guideStamp?: GuideStamp | null;
+			/** The ETag of a visitor's guide page or pricing answer (http/guide-caching.ts). */
+			guideEtag?: string;
 		}
 		// interface PageData {}
 		// interface PageState {}

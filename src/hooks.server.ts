@@ -16,6 +16,7 @@ import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
+import { conditionalGuideReads } from '$lib/server/http/guide-caching';
 import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
 import { logFailure, logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
@@ -51,7 +52,9 @@ export const handle = sequence(
 	readYourWrites,
 	authHandle,
 	resolveUser,
-	guardAreas
+	guardAreas,
+	// After resolveUser: only a visitor's answer is public and may be a 304.
+	conditionalGuideReads
 );
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

@@ -16,6 +16,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { Part, sequelize } from '$lib/server/db';
 import type { EditorPartDetail } from '$lib/views';
 import * as audit from './audit';
+import { bumpGuideViews } from './cache-generations';
 import { toPartRow } from './catalog-reads';
 import type { Issues, Outcome } from '$lib/schemas/issues';
 
@@ -138,6 +139,17 @@ export async function createPart(
  * links refer to the part, and its specs only make sense for its category.
  */
 export async function updatePart(
+	actorId: string,
+	slug: string,
+	raw: { brand?: unknown; model?: unknown; specs?: unknown }
+): Promise<Outcome<{ part: EditorPartDetail; changed: boolean }>> {
+	const outcome = await editPart(actorId, slug, raw);
+	// Names and specs show on guide pages (fit findings too): cached views follow.
+	if (outcome.kind === 'ok' && outcome.changed) await bumpGuideViews();
+	return outcome;
+}
+
+function editPart(
 	actorId: string,
 	slug: string,
 	raw: { brand?: unknown; model?: unknown; specs?: unknown }

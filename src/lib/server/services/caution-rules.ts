@@ -14,6 +14,7 @@ import { cautionRuleInput } from '$lib/schemas/caution-rules';
 import { fieldIssues } from '$lib/schemas/issues';
 import { CautionRule, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
+import { bumpGuideViews } from './cache-generations';
 import type { Issues, Outcome } from '$lib/schemas/issues';
 import * as guidePrices from './guide-prices';
 import { cached } from './reference-cache';
@@ -127,24 +128,26 @@ async function createRuleOnly(
 	const parsed = cautionRuleInput.safeParse(raw);
 	if (!parsed.success) return { kind: 'invalid', issues: fieldIssues(parsed.error) };
 	const input = parsed.data;
-	return uniqueTitle(input.title, () =>
-		sequelize.transaction(async (transaction) => {
-			if (await titleInUse(input.title, null, transaction))
-				return { kind: 'invalid' as const, issues: titleTaken(input.title) };
-			const rule = await CautionRule.create({ ...input, authorId: actorId }, { transaction });
-			await audit.record(
-				{
-					actorId,
-					action: 'caution_rule.created',
-					subjectType: 'caution_rule',
-					subjectId: rule.id,
-					after: snapshot(input)
-				},
-				transaction
-			);
-			const author = await User.findByPk(actorId, { attributes: ['name'], transaction });
-			return { kind: 'ok' as const, rule: toRow(Object.assign(rule, { author })) };
-		})
+	return viewsFollow(
+		uniqueTitle(input.title, () =>
+			sequelize.transaction(async (transaction) => {
+				if (await titleInUse(input.title, null, transaction))
+					return { kind: 'invalid' as const, issues: titleTaken(input.title) };
+				const rule = await CautionRule.create({ ...input, authorId: actorId }, { transaction });
+				await audit.record(
+					{
+						actorId,
+						action: 'caution_rule.created',
+						subjectType: 'caution_rule',
+						subjectId: rule.id,
+						after: snapshot(input)
+					},
+					transaction
+				);
+				const author = await User.findByPk(actorId, { attributes: ['name'], transaction });
+				return { kind: 'ok' as const, rule: toRow(Object.assign(rule, { author })) };
+			})
+		)
 	);
 }
 
@@ -161,32 +164,34 @@ async function updateRuleOnly(
 	const parsed = cautionRuleInput.safeParse(raw);
 	if (!parsed.success) return { kind: 'invalid', issues: fieldIssues(parsed.error) };
 	const input = parsed.data;
-	return uniqueTitle(input.title, () =>
-		sequelize.transaction(async (transaction) => {
-			const rule = (await CautionRule.findByPk(id, {
-				include: authorInclude,
-				transaction,
-				lock: transaction.LOCK.UPDATE
-			})) as Loaded | null;
-			if (!rule) return { kind: 'not_found' as const };
-			if (rule.version !== expectedVersion) return stale();
-			if (await titleInUse(input.title, id, transaction))
-				return { kind: 'invalid' as const, issues: titleTaken(input.title) };
-			const before = snapshot(rule);
-			await rule.update({ ...input, version: rule.version + 1 }, { transaction });
-			await audit.record(
-				{
-					actorId,
-					action: 'caution_rule.updated',
-					subjectType: 'caution_rule',
-					subjectId: id,
-					before,
-					after: snapshot(input)
-				},
-				transaction
-			);
-			return { kind: 'ok' as const, rule: toRow(rule) };
-		})
+	return viewsFollow(
+		uniqueTitle(input.title, () =>
+			sequelize.transaction(async (transaction) => {
+				const rule = (await CautionRule.findByPk(id, {
+					include: authorInclude,
+					transaction,
+					lock: transaction.LOCK.UPDATE
+				})) as Loaded | null;
+				if (!rule) return { kind: 'not_found' as const };
+				if (rule.version !== expectedVersion) return stale();
+				if (await titleInUse(input.title, id, transaction))
+					return { kind: 'invalid' as const, issues: titleTaken(input.title) };
+				const before = snapshot(rule);
+				await rule.update({ ...input, version: rule.version + 1 }, { transaction });
+				await audit.record(
+					{
+						actorId,
+						action: 'caution_rule.updated',
+						subjectType: 'caution_rule',
+						subjectId: id,
+						before,
+						after: snapshot(input)
+					},
+					transaction
+				);
+				return { kind: 'ok' as const, rule: toRow(rule) };
+			})
+		)
 	);
 }
 
@@ -218,25 +223,27 @@ async function setActiveOnly(
 	expectedVersion: number,
 	active: boolean
 ): Promise<Outcome> {
-	return sequelize.transaction(async (transaction) => {
-		const rule = await CautionRule.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
-		if (!rule) return { kind: 'not_found' as const };
-		if (rule.version !== expectedVersion) return stale();
-		if (rule.active === active) return { kind: 'ok' as const };
-		await rule.update({ active, version: rule.version + 1 }, { transaction });
-		await audit.record(
-			{
-				actorId,
-				action: active ? 'caution_rule.activated' : 'caution_rule.deactivated',
-				subjectType: 'caution_rule',
-				subjectId: id,
-				before: { active: !active },
-				after: { active }
-			},
-			transaction
-		);
-		return { kind: 'ok' as const };
-	});
+	return viewsFollow(
+		sequelize.transaction(async (transaction) => {
+			const rule = await CautionRule.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+			if (!rule) return { kind: 'not_found' as const };
+			if (rule.version !== expectedVersion) return stale();
+			if (rule.active === active) return { kind: 'ok' as const };
+			await rule.update({ active, version: rule.version + 1 }, { transaction });
+			await audit.record(
+				{
+					actorId,
+					action: active ? 'caution_rule.activated' : 'caution_rule.deactivated',
+					subjectType: 'caution_rule',
+					subjectId: id,
+					before: { active: !active },
+					after: { active }
+				},
+				transaction
+			);
+			return { kind: 'ok' as const };
+		})
+	);
 }
 
 /** Deletes a rule for good; the audit event keeps what it said. */
@@ -245,24 +252,36 @@ async function deleteRuleOnly(
 	id: number,
 	expectedVersion: number
 ): Promise<Outcome> {
-	return sequelize.transaction(async (transaction) => {
-		const rule = await CautionRule.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
-		if (!rule) return { kind: 'not_found' as const };
-		if (rule.version !== expectedVersion) return stale();
-		const before = snapshot(rule);
-		await rule.destroy({ transaction });
-		await audit.record(
-			{
-				actorId,
-				action: 'caution_rule.deleted',
-				subjectType: 'caution_rule',
-				subjectId: id,
-				before
-			},
-			transaction
-		);
-		return { kind: 'ok' as const };
-	});
+	return viewsFollow(
+		sequelize.transaction(async (transaction) => {
+			const rule = await CautionRule.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+			if (!rule) return { kind: 'not_found' as const };
+			if (rule.version !== expectedVersion) return stale();
+			const before = snapshot(rule);
+			await rule.destroy({ transaction });
+			await audit.record(
+				{
+					actorId,
+					action: 'caution_rule.deleted',
+					subjectType: 'caution_rule',
+					subjectId: id,
+					before
+				},
+				transaction
+			);
+			return { kind: 'ok' as const };
+		})
+	);
+}
+
+/**
+ * Rules decide the guide page's drop-in findings: after a committed change the cached
+ * guide views are dropped in every app process (guide-view-cache.ts).
+ */
+async function viewsFollow<T extends { kind: string }>(write: Promise<T>): Promise<T> {
+	const outcome = await write;
+	if (outcome.kind === 'ok') await bumpGuideViews();
+	return outcome;
 }
 
 /*

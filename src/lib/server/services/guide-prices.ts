@@ -14,11 +14,14 @@
  * The same pass recomputes the guides' upkeep alerts (upkeep-alerts.ts) from these figures.
  * Recomputation runs right after the triggering transaction commits (pricing reads through
  * the pool, so it must see the committed quote or revision); it replaces a revision's rows
- * in one transaction of its own, so a reader never sees half a revision.
+ * in one transaction of its own, so a reader never sees half a revision. Each recomputation
+ * then bumps the guide view counter (guide-view-cache.ts), so cached guide pages, pricing
+ * answers and their ETags follow in every app process.
  */
 import { QueryTypes } from 'sequelize';
 import { valueOf } from '$lib/domain/value';
 import { FrameResult, Region, sequelize } from '$lib/server/db';
+import { bumpGuideViews } from './cache-generations';
 import { invalidateBrowseTags } from './guide-browse';
 import { priceRevisionsIn } from './pricing';
 import type { PricedRevision } from './pricing';
@@ -194,4 +197,6 @@ async function refreshBatch(revisionIds: number[]): Promise<void> {
 		})),
 		regions
 	);
+	// The same events change the cached guide pages and pricing answers, in every process.
+	await bumpGuideViews();
 }

@@ -202,7 +202,10 @@ export interface GuideViewer {
 }
 
 /** A hidden guide (services/content-reports) is a 404 for everyone but its author, editors and admins. */
-function mayView(guide: Pick<Guide, 'hiddenAt' | 'authorId'>, viewer: GuideViewer | null): boolean {
+export function mayView(
+	guide: { hiddenAt: Date | null; authorId: string | null },
+	viewer: GuideViewer | null
+): boolean {
 	if (!guide.hiddenAt) return true;
 	if (!viewer) return false;
 	return viewer.role === 'editor' || viewer.role === 'admin' || viewer.id === guide.authorId;

@@ -57,6 +57,7 @@ import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-
 import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
 import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
 import * as mGuideRegionPrices from './2026.12.09T12.00.00.create-guide-region-prices.js';
+import * as mCacheGenerations from './2026.12.11T10.00.00.create-cache-generations.js';
 import * as mPartsFulltext from './2026.12.11T11.00.00.add-parts-brand-model-fulltext.js';
 import * as mPartsBrandModel from './2026.12.11T11.01.00.add-parts-brand-model-index.js';
 import * as mPartsModel from './2026.12.11T11.02.00.add-parts-model-index.js';
@@ -124,6 +125,7 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
 	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,
 	'2026.12.09T12.00.00.create-guide-region-prices': mGuideRegionPrices,
+	'2026.12.11T10.00.00.create-cache-generations': mCacheGenerations,
 	'2026.12.11T11.00.00.add-parts-brand-model-fulltext': mPartsFulltext,
 	'2026.12.11T11.01.00.add-parts-brand-model-index': mPartsBrandModel,
 	'2026.12.11T11.02.00.add-parts-model-index': mPartsModel,

@@ -3,6 +3,8 @@ import { revisionCompareQuery } from '$lib/schemas/guide-page';
 import { regionQuery } from '$lib/schemas/guides';
 import * as buildLists from '$lib/server/services/build-lists';
 import * as guides from '$lib/server/services/guides';
+import * as guideViews from '$lib/server/services/guide-view-cache';
+import { cachingHeaders } from '$lib/server/http/guide-caching';
 import { reportForm, reportInput } from '$lib/schemas/content-reports';
 import type { Issues } from '$lib/schemas/issues';
 import * as tips from '$lib/server/services/tips';
@@ -14,19 +16,22 @@ import { partThumbs } from '$lib/server/services/photos';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, url }) => {
+export const load: PageServerLoad = async ({ params, url, locals, setHeaders }) => {
 	// ?region=xx works without JavaScript; a bad or unknown code falls back to the base region.
 	const query = regionQuery.safeParse({ region: url.searchParams.get('region') ?? undefined });
 	const wanted = query.success ? (query.data.region ?? null) : null;
 	// A hidden guide is shown only to its author and editors (with the reason); others get 404.
 	const viewer = currentUser();
-	let outcome = await guides.getGuidePage(params.slug, wanted, undefined, viewer);
+	// The computed view is cached per revision and region (guide-view-cache.ts).
+	let outcome = await guideViews.guidePage(params.slug, wanted, viewer, locals.guideStamp);
 	let regionProblem = query.success ? null : 'That is not a region code.';
 	if (outcome.kind === 'unknown_region') {
 		regionProblem = `We have no region “${wanted}”. Showing the guide's base region.`;
-		outcome = await guides.getGuidePage(params.slug, null, undefined, viewer);
+		outcome = await guideViews.guidePage(params.slug, null, viewer, locals.guideStamp);
 	}
 	if (outcome.kind !== 'ok') error(404, 'Guide not found');
+	// Public with an ETag for visitors, private for the signed in (http/guide-caching.ts).
+	setHeaders(cachingHeaders(locals));
 	const { guide, extras, hidden } = outcome.page;
 
 	// ?from=&to= compares two published revisions (GET form in the revision history).

@@ -1,7 +1,7 @@
 import { error } from '@sveltejs/kit';
 import { regionQuery } from '$lib/schemas/guides';
 import { currentUser } from '$lib/server/auth/guards';
-import * as guides from '$lib/server/services/guides';
+import * as guideViews from '$lib/server/services/guide-view-cache';
 import type { PageServerLoad } from './$types';
 
 /** The guide as a sheet to print, priced in ?region= like the guide page (base region otherwise). */
@@ -9,9 +9,9 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	const query = regionQuery.safeParse({ region: url.searchParams.get('region') ?? undefined });
 	const wanted = query.success ? (query.data.region ?? null) : null;
 	const viewer = currentUser();
-	let outcome = await guides.getGuidePage(params.slug, wanted, undefined, viewer);
+	let outcome = await guideViews.guidePage(params.slug, wanted, viewer);
 	if (outcome.kind === 'unknown_region')
-		outcome = await guides.getGuidePage(params.slug, null, undefined, viewer);
+		outcome = await guideViews.guidePage(params.slug, null, viewer);
 	if (outcome.kind !== 'ok') error(404, 'Guide not found');
 	return { guide: outcome.page.guide, disclosure: outcome.page.extras.disclosure };
 };

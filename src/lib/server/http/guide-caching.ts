@@ -1,0 +1,77 @@
+/**
+ * HTTP caching of the guide page and GET /api/v1/guides/[slug]/pricing, so a reverse proxy
+ * or CDN in front of several app processes can serve them (docs/architecture.md, "Caching").
+ *
+ * - Visitors (no session): a weak ETag from the guide's stamp (guide-view-cache.ts) and
+ *   `public` caching. A matching If-None-Match is answered 304 here, before the page is
+ *   loaded or rendered, at the cost of the one stamp read the load would make anyway (it is
+ *   handed on in locals).
+ * - Signed-in people: `private, no-store` and no ETag. Their page carries their own parts
+ *   (report form, fork panel, tip prompt), which no shared cache may keep or hand on.
+ * - Every cacheable answer says `Vary: Cookie`, so a cache never gives a visitor's copy to
+ *   someone who sends a session cookie (nor the reverse), and any answer that sets a cookie
+ *   is turned private, whatever else said it was public.
+ *
+ * The page also shows things outside the stamp: forks of the guide, its gallery, tip notes,
+ * part photos. They enter its ETag through a one-minute period, so a shared cache sees them
+ * change within `max-age` plus one minute; prices and fit never wait for that (the stamp).
+ */
+import type { Handle } from '@sveltejs/kit';
+import { matchesIfNoneMatch, readStamp, validatorOf } from '$lib/server/services/guide-view-cache';
+
+export const GUIDE_PAGE_ROUTE = '/(public)/guides/[slug=slug]';
+export const PRICING_ROUTE = '/api/v1/guides/[slug=slug]/pricing';
+
+/** A shared cache may keep an anonymous answer a minute, and serve it stale while it asks again. */
+export const PUBLIC_CACHING = 'public, max-age=60, stale-while-revalidate=300';
+export const PRIVATE_CACHING = 'private, no-store';
+
+/** The page's parts outside the stamp (forks, gallery, tip notes) change the ETag this often. */
+const PAGE_EXTRAS_PERIOD_MS = 60_000;
+
+export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
+	const route = event.route.id;
+	const method = event.request.method;
+	if (
+		(method !== 'GET' && method !== 'HEAD') ||
+		(route !== GUIDE_PAGE_ROUTE && route !== PRICING_ROUTE)
+	)
+		return resolve(event);
+	const stamp = await readStamp(event.params.slug ?? '');
+	event.locals.guideStamp = stamp;
+	if (!event.locals.user && stamp && !stamp.hidden) {
+		const etag = validatorOf(stamp, [
+			route,
+			event.isDataRequest ? 'data' : 'document',
+			event.url.search,
+			route === GUIDE_PAGE_ROUTE ? String(Math.floor(Date.now() / PAGE_EXTRAS_PERIOD_MS)) : ''
+		]);
+		event.locals.guideEtag = etag;
+		if (matchesIfNoneMatch(event.request.headers.get('if-none-match'), etag)) {
+			return new Response(null, {
+				status: 304,
+				headers: { etag, 'cache-control': PUBLIC_CACHING, vary: 'Cookie' }
+			});
+		}
+	}
+	const response = await resolve(event);
+	if (response.headers.has('set-cookie') && !event.locals.user) {
+		try {
+			response.headers.set('cache-control', PRIVATE_CACHING);
+			response.headers.delete('etag');
+		} catch {
+			// Immutable headers (a redirect): nothing cacheable to correct.
+		}
+	}
+	return response;
+};
+
+/**
+ * The caching headers a guide page load or pricing answer sets (through `setHeaders`):
+ * public with the ETag the hook computed for a visitor, private for anyone signed in.
+ */
+export function cachingHeaders(locals: App.Locals): Record<string, string> {
+	if (locals.user) return { 'cache-control': PRIVATE_CACHING };
+	if (!locals.guideEtag) return {};
+	return { etag: locals.guideEtag, 'cache-control': PUBLIC_CACHING, vary: 'Cookie' };
+}
