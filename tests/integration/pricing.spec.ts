@@ -31,6 +31,7 @@ import * as fxService from '../../src/lib/server/services/fx';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import * as guidePrices from '../../src/lib/server/services/guide-prices';
 import * as guideReviews from '../../src/lib/server/services/guide-reviews';
+import * as guideViews from '../../src/lib/server/services/guide-view-cache';
 import * as guides from '../../src/lib/server/services/guides';
 import { priceRevisions } from '../../src/lib/server/services/pricing';
 import { resetDatabase } from '../support/db';
@@ -509,5 +510,142 @@ describe('stored list figures on the real MariaDB', () => {
 		// 1.2000 with the storage factor 1.04 and 19 % VAT: 139.99 / 1.2000 × 1.04 × 1.19
 		// = 144.3763… → €144.38.
 		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(14438));
+	});
+});
+
+/*
+ * The cached guide view (services/guide-view-cache.ts: the guide page's and the pricing
+ * API's computed answer) follows the same events as the stored figures. Between events a
+ * repeated read comes from memory with a single query (the guide's stamp), so an event
+ * that failed to invalidate it would leave the old figure here. Same fixture and rules as
+ * above; each figure is the one worked by hand in the block above.
+ */
+describe('the cached guide view on the real MariaDB', () => {
+	let editorId = '';
+	const server = createServer((_req, res) => {
+		// The same invented later day as above: 1 EUR = 1.2000 USD = 160.00 JPY (docs/sources.md 10c).
+		res.writeHead(200, { 'content-type': 'text/xml' }).end(
+			`<?xml version="1.0" encoding="UTF-8"?>
+<gesmes:Envelope xmlns:gesmes="http://www.gesmes.org/xml/2002-08-01" xmlns="http://www.ecb.int/vocabulary/2002-08-01/eurofxref">
+<Cube><Cube time='2024-01-03'><Cube currency='USD' rate='1.2000'/><Cube currency='JPY' rate='160.00'/></Cube></Cube>
+</gesmes:Envelope>`
+		);
+	});
+
+	beforeAll(async () => {
+		await resetDatabase();
+		fx = await createFixture();
+		await guidePrices.refreshAll();
+		const editor = await User.create({
+			email: 'view-cache-editor@example.test',
+			name: 'Pia Lund',
+			role: 'editor'
+		});
+		editorId = editor.id;
+		await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+	});
+
+	afterAll(() => new Promise<void>((resolve) => server.close(() => resolve())));
+
+	async function viewed(region: string | null) {
+		const outcome = await guideViews.guidePage('quiet-office-tower', region, null);
+		if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+		return outcome.page.guide;
+	}
+
+	/** The view read twice: the second read must be one query (the stamp), not a recomputation. */
+	async function cachedTotal(region: string | null) {
+		await viewed(region);
+		const { result, queries } = await countQueries(() => viewed(region));
+		expect(queries).toHaveLength(1);
+		return result.picksTotal;
+	}
+
+	it('keeps the view in memory, and shows the new German total once the rates are refreshed', async () => {
+		// €97.06 at ECB 2 Jan 2024 (docs/sources.md 10c, V), worked by hand in the first block.
+		expect(await cachedTotal('de')).toEqual(eur(9706));
+		const { port } = server.address() as AddressInfo;
+		await fxService.refresh({ url: `http://127.0.0.1:${port}/eurofxref-daily.xml` });
+		// 12.50 / 1.2000 × 1.19 = 12.3958… → €12.40, × 2 = €24.80, + €69.90 = €94.70.
+		expect((await viewed('de')).picksTotal).toEqual(eur(9470));
+		// The pricing API answers from the same view.
+		const api = await guideViews.priced('quiet-office-tower', 'de');
+		expect(api.kind === 'ok' ? api.guide.picksTotal : null).toEqual(eur(9470));
+	});
+
+	it('shows the new German total once an editor accepts a German quote for the fan', async () => {
+		expect(await cachedTotal('de')).toEqual(eur(9470));
+		const store = await Store.findOne({ where: { name: 'Lindenwerk Technik' } });
+		const fan = await Part.findOne({ where: { model: 'Breeze 120' } });
+		const added = await catalogStores.addQuote(editorId, {
+			partSlug: fan?.slug,
+			storeId: String(store?.id),
+			amount: '11.90',
+			taxIncluded: 'on',
+			observedOn: '2024-06-02'
+		});
+		expect(added.kind).toBe('ok');
+		// 2 × €11.90 = €23.80, + €69.90 = €93.70.
+		expect((await viewed('de')).picksTotal).toEqual(eur(9370));
+	});
+
+	it('shows the new revision once an editor publishes it', async () => {
+		// Revision 1 in the US, before tax: small drive $79.99 (the author's quote) + 2 × $12.50
+		// for the fans = $104.99; the cable combs are quoted nowhere.
+		expect(await cachedTotal(null)).toEqual(usd(10499));
+		const guide = await Guide.findOne({ where: { slug: 'quiet-office-tower' } });
+		const large = await Part.findOne({ where: { model: 'Drift 2TB' } });
+		const revision = await GuideRevision.create({
+			guideId: guide?.id ?? 0,
+			number: 2,
+			buildNotesMd: '',
+			buildNotesHtml: '',
+			submittedAt: new Date(),
+			reviewedAt: null,
+			publishedAt: null,
+			reviewerId: null,
+			reviewNote: null
+		});
+		await GuideSlot.create({
+			revisionId: revision.id,
+			category: 'storage',
+			label: 'Storage',
+			position: 1,
+			quantity: 1,
+			pickPartId: large?.id ?? 0,
+			reason: 'Fixture pick.',
+			priceQuoteId: null
+		});
+		const outcome = await guideReviews.decide(
+			{ id: editorId, role: 'editor' },
+			revision.id,
+			{ decision: 'approve', note: '', slotNotes: [] },
+			{ guidesUrl: 'http://slotwise.test/guides' }
+		);
+		expect(outcome.kind).toBe('ok');
+		const us = await viewed(null);
+		expect(us.revisionNumber).toBe(2);
+		// The large drive's US quote, $139.99.
+		expect(us.picksTotal).toEqual(usd(13999));
+		// 139.99 / 1.2000 × 1.04 × 1.19 = 144.3763… → €144.38 (worked in the block above).
+		expect((await viewed('de')).picksTotal).toEqual(eur(14438));
+	});
+
+	it('follows a write made by another app process once that process bumps the counter', async () => {
+		expect(await cachedTotal(null)).toEqual(usd(13999));
+		// Another process changes the quote with its own connection: this process's memory
+		// has not heard of it, so the view is still the cached one...
+		await sequelize.query(
+			`UPDATE quotes q JOIN parts p ON p.id = q.part_id SET q.amount_minor = 12999
+			  WHERE p.model = 'Drift 2TB' AND q.currency = 'USD'`
+		);
+		expect((await viewed(null)).picksTotal).toEqual(usd(13999));
+		// ...until it bumps the shared counter, as every invalidating write does.
+		await sequelize.query(
+			`INSERT INTO cache_generations (name, value, updated_at) VALUES ('guide-view', 1, NOW())
+			 ON DUPLICATE KEY UPDATE value = value + 1`
+		);
+		// The large drive now at $129.99, the whole of revision 2.
+		expect((await viewed(null)).picksTotal).toEqual(usd(12999));
 	});
 });
