@@ -55,16 +55,31 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 		}
 	}
 	const response = await resolve(event);
-	if (response.headers.has('set-cookie') && !event.locals.user) {
-		try {
-			response.headers.set('cache-control', PRIVATE_CACHING);
-			response.headers.delete('etag');
-		} catch {
-			// Immutable headers (a redirect): nothing cacheable to correct.
-		}
-	}
+	if (!event.locals.user) keepOutOfSharedCaches(response);
 	return response;
 };
+
+/**
+ * Auth.js's session check sets its callback-url cookie on every visitor's answer: the
+ * site's own origin, the same for everyone, and set again by the sign-in pages that use
+ * it. It is left off a public answer (shared caches do not store answers that set
+ * cookies). Any other cookie makes the answer private: it may belong to one person.
+ */
+function keepOutOfSharedCaches(response: Response): void {
+	const cookies = response.headers.getSetCookie();
+	if (cookies.length === 0 || response.headers.get('cache-control') !== PUBLIC_CACHING) return;
+	const others = cookies.filter((c) => !/^(__Secure-)?authjs\.callback-url=/.test(c));
+	try {
+		response.headers.delete('set-cookie');
+		for (const cookie of others) response.headers.append('set-cookie', cookie);
+		if (others.length > 0) {
+			response.headers.set('cache-control', PRIVATE_CACHING);
+			response.headers.delete('etag');
+		}
+	} catch {
+		// Immutable headers (a redirect): nothing cacheable to correct.
+	}
+}
 
 /**
  * The caching headers a guide page load or pricing answer sets (through `setHeaders`):

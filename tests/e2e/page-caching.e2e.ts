@@ -1,0 +1,198 @@
+import { expect, test } from '@playwright/test';
+import mysql from 'mysql2/promise';
+import { BASE_URL } from '../playwright.config';
+import { type AppProcess, cleanUp, postForm, signIn, startApp } from './processes';
+import { forgetAddressCounts } from './support';
+
+/*
+ * HTTP caching of the guide page and the pricing API (src/lib/server/http/guide-caching.ts)
+ * against the real build, with two app processes on one database as behind a load balancer
+ * with a shared cache in front: the app under test (A) and a second `node build` (B).
+ *
+ * - A visitor's answer carries a weak ETag and `public` caching; the same If-None-Match is
+ *   answered 304 with no body, by either process (the validator lives in the database).
+ * - An editor's new quote on A changes the ETag that B hands out: a shared cache asking B
+ *   again gets the new page, not a 304 for the old one.
+ * - Signed-in answers are `private, no-store`, never carry or honour the visitor's
+ *   validator, and each person sees only their own signed-in parts.
+ */
+test.describe.configure({ mode: 'serial', timeout: 120_000 });
+
+// Base region Japan (demo-data/guides.ts); the cooler slot's alternate is the Flatline 58.
+const SLUG = 'pocket-itx-1440p';
+const PAGE = `/guides/${SLUG}`;
+const PRICING = `/api/v1/guides/${SLUG}/pricing`;
+const ALTERNATE = 'kelda-flatline-58';
+const PUBLIC = 'public, max-age=60, stale-while-revalidate=300';
+
+let second: AppProcess;
+
+test.beforeAll(async () => {
+	test.setTimeout(120_000);
+	second = await startApp({ DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e' });
+});
+
+test.afterAll(async () => {
+	await second?.stop();
+	await cleanUp();
+});
+
+/**
+ * The page's ETag also counts minutes (forks, gallery and tip notes are outside the stamp):
+ * start a request pair at least 10 s before the next minute, so both fall in one minute.
+ */
+async function inOneMinute(): Promise<void> {
+	const left = 60_000 - (Date.now() % 60_000);
+	if (left < 10_000) await new Promise((r) => setTimeout(r, left + 50));
+}
+
+async function get(origin: string, path: string, headers: Record<string, string> = {}) {
+	const response = await fetch(`${origin}${path}`, {
+		headers,
+		redirect: 'manual',
+		signal: AbortSignal.timeout(20_000)
+	});
+	return { response, body: await response.text() };
+}
+
+/** The alternate's unit price in the pricing API's answer. */
+function alternatePrice(body: string) {
+	const guide = JSON.parse(body) as {
+		slots: {
+			alternates: { part: { slug: string }; price: { unit: unknown; storeName: string } | null }[];
+		}[];
+	};
+	const alternate = guide.slots.flatMap((s) => s.alternates).find((a) => a.part.slug === ALTERNATE);
+	return alternate?.price ?? null;
+}
+
+async function jpStoreId(): Promise<number> {
+	const connection = await mysql.createConnection({
+		host: process.env.DB_HOST ?? '127.0.0.1',
+		port: Number(process.env.DB_PORT ?? 3307),
+		user: process.env.DB_USER ?? 'slotwise',
+		password: process.env.DB_PASSWORD ?? 'slotwise-dev',
+		database: process.env.DB_NAME ?? 'slotwise_e2e'
+	});
+	try {
+		const [rows] = await connection.query(
+			"SELECT id FROM stores WHERE name = 'Kairo Denki' LIMIT 1"
+		);
+		return Number((rows as { id: number }[])[0]?.id);
+	} finally {
+		await connection.end();
+	}
+}
+
+test('a visitor gets public caching with an ETag, a 304 from either process, and a new ETag after a new quote', async () => {
+	for (const path of [PAGE, PRICING]) {
+		await inOneMinute();
+		const first = await get(BASE_URL, path);
+		expect(first.response.status).toBe(200);
+		const etag = first.response.headers.get('etag') ?? '';
+		expect(etag).toMatch(/^W\/"[^"]+"$/);
+		expect(first.response.headers.get('cache-control')).toBe(PUBLIC);
+		expect(first.response.headers.get('vary')).toContain('Cookie');
+		expect(first.body.length).toBeGreaterThan(0);
+
+		for (const origin of [BASE_URL, second.origin]) {
+			const again = await get(origin, path, { 'if-none-match': etag });
+			expect(again.response.status, `${origin}${path}`).toBe(304);
+			expect(again.body).toBe('');
+			expect(again.response.headers.get('etag')).toBe(etag);
+			expect(again.response.headers.get('cache-control')).toBe(PUBLIC);
+		}
+		// Any other validator gets the whole answer.
+		const other = await get(BASE_URL, path, { 'if-none-match': 'W/"something-else"' });
+		expect(other.response.status).toBe(200);
+	}
+
+	// Before: the demo's latest Japanese quote for the alternate (demo-data/quotes.ts).
+	const before = await get(BASE_URL, PRICING);
+	expect(alternatePrice(before.body)).toMatchObject({
+		unit: { amountMinor: 8480, currency: 'JPY' },
+		storeName: 'Kairo Denki'
+	});
+	await inOneMinute();
+	const oldPage = (await get(second.origin, PAGE)).response.headers.get('etag') ?? '';
+	const oldPricing = before.response.headers.get('etag') ?? '';
+
+	// An editor adds a newer Japanese quote for the alternate on process A.
+	await forgetAddressCounts();
+	const editor = await signIn(BASE_URL, 'editor@slotwise.test');
+	const added = await postForm(
+		BASE_URL,
+		'/editor/quotes?/create',
+		{
+			partSlug: ALTERNATE,
+			storeId: String(await jpStoreId()),
+			amount: '7980',
+			taxIncluded: 'on',
+			observedOn: new Date().toISOString().slice(0, 10)
+		},
+		editor
+	);
+	expect(added.status).toBe(303);
+
+	// Process B, asked again with the old validators, answers in full with new ones.
+	for (const [path, old] of [
+		[PAGE, oldPage],
+		[PRICING, oldPricing]
+	] as const) {
+		const fresh = await get(second.origin, path, { 'if-none-match': old });
+		expect(fresh.response.status, path).toBe(200);
+		const etag = fresh.response.headers.get('etag');
+		expect(etag).toMatch(/^W\/"[^"]+"$/);
+		expect(etag).not.toBe(old);
+	}
+	// The new price is the quote as entered: yen have no minor unit (ISO 4217, from memory),
+	// and a Japanese price includes consumption tax like the demo's other Japanese quotes.
+	const after = await get(second.origin, PRICING);
+	expect(alternatePrice(after.body)).toMatchObject({
+		unit: { amountMinor: 7980, currency: 'JPY' },
+		storeName: 'Kairo Denki'
+	});
+});
+
+test('signed-in people get private answers with their own parts only, never a shared copy', async () => {
+	await inOneMinute();
+	const visitor = await get(BASE_URL, PAGE);
+	const visitorTag = visitor.response.headers.get('etag') ?? '';
+	expect(visitorTag).not.toBe('');
+	// The visitor's page has no one's name and no report form (demo-data/users.ts names).
+	expect(visitor.body).not.toContain('Sam Okonkwo-Reyes');
+	expect(visitor.body).not.toContain('Tobias Wren');
+	expect(visitor.body).not.toContain('action="?/report"');
+
+	await forgetAddressCounts();
+	const people = [
+		{ name: 'Sam Okonkwo-Reyes', cookie: await signIn(BASE_URL, 'reader@slotwise.test') },
+		{ name: 'Tobias Wren', cookie: await signIn(second.origin, 'tobias.wren@slotwise.test') }
+	];
+	// Each asks both processes in turn, with the visitor's validator: the view is cached in
+	// each process by now, but the answer is their own page, never a 304.
+	for (const origin of [BASE_URL, second.origin]) {
+		for (const [i, me] of people.entries()) {
+			const other = people[1 - i]!;
+			for (const path of [PAGE, PRICING]) {
+				const mine = await get(origin, path, { cookie: me.cookie, 'if-none-match': visitorTag });
+				expect(mine.response.status, `${me.name} ${origin}${path}`).toBe(200);
+				expect(mine.response.headers.get('cache-control')).toBe('private, no-store');
+				// Never the visitor's validator (SvelteKit may add its own hash of this very body).
+				expect(mine.response.headers.get('etag')).not.toBe(visitorTag);
+				if (path === PAGE) {
+					expect(mine.body).toContain(me.name);
+					expect(mine.body).not.toContain(other.name);
+					// The signed-in part: the report form, absent from the visitor's page.
+					expect(mine.body).toContain('action="?/report"');
+				}
+			}
+		}
+	}
+	// And the visitor still gets the visitor's page, public, after both.
+	const later = await get(BASE_URL, PAGE);
+	expect(later.response.headers.get('cache-control')).toBe(PUBLIC);
+	expect(later.body).not.toContain('Sam Okonkwo-Reyes');
+	expect(later.body).not.toContain('Tobias Wren');
+	expect(later.body).not.toContain('action="?/report"');
+});
