@@ -8,6 +8,7 @@ import { ruleFromForm } from '../../src/lib/schemas/caution-rules';
 import * as cautions from '../../src/lib/server/services/caution-rules';
 import * as fit from '../../src/lib/server/services/fit';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
+import * as guideViews from '../../src/lib/server/services/guide-view-cache';
 import * as guides from '../../src/lib/server/services/guides';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { countRows, resetDatabase } from '../support/db';
@@ -282,10 +283,11 @@ describe('caution rules service', () => {
 	});
 
 	it('shows on the guide page fit report with text and author, and disappears once deactivated', async () => {
+		// Read as the page does: the cached view (guide-view-cache.ts) follows rule changes.
 		await seedDemoCommunity(sequelize);
 		const demoEditor = await User.findOne({ where: { email: 'editor@slotwise.test' } });
 		if (!demoEditor) throw new Error('demo editor missing');
-		const before = await guides.getGuidePage('balanced-1440p-am5', null);
+		const before = await guideViews.guidePage('balanced-1440p-am5', null, null);
 		if (before.kind !== 'ok') throw new Error(before.kind);
 		// Any CPU with a card of 1 GB or more: holds for every demo build with a graphics card.
 		const created = await cautions.createRule(
@@ -300,7 +302,7 @@ describe('caution rules service', () => {
 			})
 		);
 		if (created.kind !== 'ok') throw new Error(JSON.stringify(created));
-		const after = await guides.getGuidePage('balanced-1440p-am5', null);
+		const after = await guideViews.guidePage('balanced-1440p-am5', null, null);
 		if (after.kind !== 'ok') throw new Error(after.kind);
 		const fitAfter = after.page.extras.fit;
 		const added = fitAfter.findings.filter((f) => f.cautionRuleId === created.rule.id);
@@ -316,7 +318,7 @@ describe('caution rules service', () => {
 		expect(fitAfter.findings.length).toBe(before.page.extras.fit.findings.length + 1);
 
 		await cautions.setActive(demoEditor.id, created.rule.id, 1, false);
-		const off = await guides.getGuidePage('balanced-1440p-am5', null);
+		const off = await guideViews.guidePage('balanced-1440p-am5', null, null);
 		if (off.kind !== 'ok') throw new Error(off.kind);
 		expect(off.page.extras.fit.findings).toEqual(before.page.extras.fit.findings);
 	});

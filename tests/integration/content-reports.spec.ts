@@ -19,6 +19,7 @@ import * as contentReports from '../../src/lib/server/services/content-reports';
 import * as reportQueue from '../../src/lib/server/services/content-report-queue';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import { atomFeed } from '../../src/lib/server/services/guide-feed';
+import * as guideViews from '../../src/lib/server/services/guide-view-cache';
 import * as guides from '../../src/lib/server/services/guides';
 import * as parts from '../../src/lib/server/services/parts';
 import { countRows, resetDatabase } from '../support/db';
@@ -181,6 +182,8 @@ describe('content reports on the real MariaDB', () => {
 		const before = await publicSlugs();
 		expect(before.list).toContain(SLUG);
 		expect(before.feed).toContain(`/guides/${SLUG}`);
+		// The cached view (guide page, pricing API) is warm before the guide is hidden.
+		expect((await guideViews.guidePage(SLUG, null, null)).kind).toBe('ok');
 
 		expect(await contentReports.hide(editor.id, subject(), REASON)).toEqual({
 			kind: 'ok',
@@ -200,6 +203,12 @@ describe('content reports on the real MariaDB', () => {
 			await guides.getGuidePage(SLUG, null, undefined, { id: reader.id, role: 'reader' })
 		).toEqual({ kind: 'not_found' });
 		expect((await guides.getRevisionDiff(SLUG, 1, 1)).kind).toBe('not_found');
+		// The cached view is not served to visitors or readers once hidden.
+		expect(await guideViews.guidePage(SLUG, null, null)).toEqual({ kind: 'not_found' });
+		expect(await guideViews.priced(SLUG, null)).toEqual({ kind: 'not_found' });
+		expect(await guideViews.guidePage(SLUG, null, { id: reader.id, role: 'reader' })).toEqual({
+			kind: 'not_found'
+		});
 
 		for (const viewer of [author, editor, admin]) {
 			const page = await guides.getGuidePage(SLUG, null, undefined, {
@@ -208,6 +217,8 @@ describe('content reports on the real MariaDB', () => {
 			});
 			expect(page.kind).toBe('ok');
 			if (page.kind === 'ok') expect(page.page.hidden?.reason).toBe(REASON);
+			const cached = await guideViews.guidePage(SLUG, null, { id: viewer.id, role: viewer.role });
+			expect(cached.kind === 'ok' ? cached.page.hidden?.reason : null).toBe(REASON);
 		}
 		const mine = await guides.listByAuthor(author.id);
 		expect(mine.find((g) => g.slug === SLUG)?.hiddenReason).toBe(REASON);
