@@ -22,6 +22,9 @@ test.describe.configure({ mode: 'serial', timeout: 120_000 });
 const SLUG = 'pocket-itx-1440p';
 const PAGE = `/guides/${SLUG}`;
 const PRICING = `/api/v1/guides/${SLUG}/pricing`;
+// What the client router fetches on navigation: every load, or only the page's (layout skipped).
+const DATA = `${PAGE}/__data.json?x-sveltekit-invalidated=11`;
+const PAGE_DATA_ONLY = `${PAGE}/__data.json?x-sveltekit-invalidated=01`;
 const ALTERNATE = 'kelda-flatline-58';
 const PUBLIC = 'public, max-age=60, stale-while-revalidate=300';
 
@@ -107,6 +110,19 @@ test('a visitor gets public caching with an ETag, a 304 from either process, and
 		expect(other.response.status).toBe(200);
 	}
 
+	// The page's data (client navigation) is another answer with validators of its own: the
+	// document's, the full data's and the page-only data's all differ.
+	await inOneMinute();
+	const tags = await Promise.all(
+		[PAGE, DATA, PAGE_DATA_ONLY].map(async (path) => {
+			const { response } = await get(BASE_URL, path);
+			expect(response.status, path).toBe(200);
+			expect(response.headers.get('cache-control'), path).toBe(PUBLIC);
+			return response.headers.get('etag');
+		})
+	);
+	expect(new Set(tags).size).toBe(3);
+
 	// Before: the demo's latest Japanese quote for the alternate (demo-data/quotes.ts).
 	const before = await get(BASE_URL, PRICING);
 	expect(alternatePrice(before.body)).toMatchObject({
@@ -174,15 +190,17 @@ test('signed-in people get private answers with their own parts only, never a sh
 	for (const origin of [BASE_URL, second.origin]) {
 		for (const [i, me] of people.entries()) {
 			const other = people[1 - i]!;
-			for (const path of [PAGE, PRICING]) {
+			for (const path of [PAGE, DATA, PRICING]) {
 				const mine = await get(origin, path, { cookie: me.cookie, 'if-none-match': visitorTag });
 				expect(mine.response.status, `${me.name} ${origin}${path}`).toBe(200);
 				expect(mine.response.headers.get('cache-control')).toBe('private, no-store');
 				// Never the visitor's validator (SvelteKit may add its own hash of this very body).
 				expect(mine.response.headers.get('etag')).not.toBe(visitorTag);
-				if (path === PAGE) {
+				if (path !== PRICING) {
 					expect(mine.body).toContain(me.name);
 					expect(mine.body).not.toContain(other.name);
+				}
+				if (path === PAGE) {
 					// The signed-in part: the report form, absent from the visitor's page.
 					expect(mine.body).toContain('action="?/report"');
 				}

@@ -43,7 +43,9 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 		const etag = validatorOf(stamp, [
 			route,
 			event.isDataRequest ? 'data' : 'document',
-			event.url.search,
+			// The request's own query: SvelteKit takes x-sveltekit-invalidated (which loads a
+			// data request re-runs) out of event.url, and it changes what the answer holds.
+			new URL(event.request.url).search,
 			route === GUIDE_PAGE_ROUTE ? String(Math.floor(Date.now() / PAGE_EXTRAS_PERIOD_MS)) : ''
 		]);
 		event.locals.guideEtag = etag;
