@@ -26,7 +26,7 @@ const PRICING = `/api/v1/guides/${SLUG}/pricing`;
 const DATA = `${PAGE}/__data.json?x-sveltekit-invalidated=11`;
 const PAGE_DATA_ONLY = `${PAGE}/__data.json?x-sveltekit-invalidated=01`;
 const ALTERNATE = 'kelda-flatline-58';
-const PUBLIC = 'public, max-age=60, stale-while-revalidate=300';
+const PUBLIC = 'public, max-age=0, s-maxage=60, stale-while-revalidate=60';
 
 let second: AppProcess;
 

@@ -22,8 +22,12 @@ import { matchesIfNoneMatch, readStamp, validatorOf } from '$lib/server/services
 export const GUIDE_PAGE_ROUTE = '/(public)/guides/[slug=slug]';
 export const PRICING_ROUTE = '/api/v1/guides/[slug=slug]/pricing';
 
-/** A shared cache may keep an anonymous answer a minute, and serve it stale while it asks again. */
-export const PUBLIC_CACHING = 'public, max-age=60, stale-while-revalidate=300';
+/**
+ * A shared cache (s-maxage) may keep a visitor's answer a minute and serve it a minute more
+ * while it asks again. Browsers (max-age=0) ask every time, cheaply with If-None-Match: a
+ * visitor sees a hidden guide or a new price on the next load, not a minute later.
+ */
+export const PUBLIC_CACHING = 'public, max-age=0, s-maxage=60, stale-while-revalidate=60';
 export const PRIVATE_CACHING = 'private, no-store';
 
 /** The page's parts outside the stamp (forks, gallery, tip notes) change the ETag this often. */
