@@ -486,7 +486,8 @@ async function publishNewRevision(origin: string, author: string, editor: string
 	const approved = await postForm(
 		origin,
 		`/review/${revision}?/decide`,
-		{ decision: 'approve', note: '' },
+		// The review page asks "Yes, publish now" before publishing: the form sends confirmed=yes.
+		{ decision: 'approve', note: '', confirmed: 'yes' },
 		editor
 	);
 	expect(approved.status).toBe(200);

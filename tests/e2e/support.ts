@@ -52,6 +52,14 @@ export function uniqueEmail(label: string): string {
  * helper that expects to get in starts from fresh counts instead of the limits being loosened.
  */
 export async function forgetAddressCounts(): Promise<void> {
+	await forgetCounts('signup_addr', 'signin_addr', 'signin_acct_addr');
+}
+
+/**
+ * Forgets the counts of the named limiters (rate_limits key prefixes, e.g. 'photo_user'), for
+ * a test that is about something else than the limit: the fuzz suite spends whole allowances.
+ */
+export async function forgetCounts(...prefixes: string[]): Promise<void> {
 	const connection = await mysql.createConnection({
 		host: process.env.DB_HOST ?? '127.0.0.1',
 		port: Number(process.env.DB_PORT ?? 3307),
@@ -60,9 +68,10 @@ export async function forgetAddressCounts(): Promise<void> {
 		database: process.env.DB_NAME ?? 'slotwise_e2e'
 	});
 	try {
+		const escaped = prefixes.map((p) => `${p.replace(/[\\%_]/g, (c) => `\\${c}`)}:%`);
 		await connection.query(
-			"DELETE FROM rate_limits WHERE `key` LIKE 'signup\\_addr:%' OR `key` LIKE 'signin\\_addr:%'" +
-				" OR `key` LIKE 'signin\\_acct\\_addr:%'"
+			`DELETE FROM rate_limits WHERE ${escaped.map(() => '`key` LIKE ?').join(' OR ')}`,
+			escaped
 		);
 	} finally {
 		await connection.end();
