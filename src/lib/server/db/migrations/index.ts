@@ -45,6 +45,17 @@ import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
 import * as mBuildsHiddenAt from './2026.12.06T10.00.00.add-builds-hidden-at.js';
 import * as mBuildsHiddenReason from './2026.12.06T10.01.00.add-builds-hidden-reason.js';
 import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js';
+import * as mUsersHandle from './2026.12.08T10.00.00.add-users-handle.js';
+import * as mUsersBio from './2026.12.08T10.01.00.add-users-bio.js';
+import * as mFillUsersHandle from './2026.12.08T10.02.00.fill-users-handle.js';
+import * as mRequireUsersHandle from './2026.12.08T10.03.00.require-users-handle.js';
+import * as mRevisionsMajor from './2026.12.08T10.04.00.add-guide-revisions-major.js';
+import * as mFollows from './2026.12.08T10.05.00.create-follows.js';
+import * as mSubscribers from './2026.12.08T10.06.00.create-subscribers.js';
+import * as mNotices from './2026.12.08T10.07.00.create-notices.js';
+import * as mNoticeSettings from './2026.12.08T10.08.00.create-notice-settings.js';
+import * as mMailings from './2026.12.08T10.09.00.create-mailings.js';
+import * as mMailJobs from './2026.12.08T10.10.00.create-mail-jobs.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -86,5 +97,16 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.06T09.00.00.create-builds': mBuilds,
 	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
 	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
-	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy
+	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
+	'2026.12.08T10.00.00.add-users-handle': mUsersHandle,
+	'2026.12.08T10.01.00.add-users-bio': mUsersBio,
+	'2026.12.08T10.02.00.fill-users-handle': mFillUsersHandle,
+	'2026.12.08T10.03.00.require-users-handle': mRequireUsersHandle,
+	'2026.12.08T10.04.00.add-guide-revisions-major': mRevisionsMajor,
+	'2026.12.08T10.05.00.create-follows': mFollows,
+	'2026.12.08T10.06.00.create-subscribers': mSubscribers,
+	'2026.12.08T10.07.00.create-notices': mNotices,
+	'2026.12.08T10.08.00.create-notice-settings': mNoticeSettings,
+	'2026.12.08T10.09.00.create-mailings': mMailings,
+	'2026.12.08T10.10.00.create-mail-jobs': mMailJobs
 };

@@ -11,10 +11,14 @@ import { BuildSync } from './BuildSync.js';
 import { CatalogImport } from './CatalogImport.js';
 import { CautionRule } from './CautionRule.js';
 import { ContentReport } from './ContentReport.js';
+import { Follow } from './Follow.js';
 import { Guide } from './Guide.js';
 import { FrameResult } from './FrameResult.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
+import { Mailing } from './Mailing.js';
+import { MailJob } from './MailJob.js';
+import { Notice } from './Notice.js';
 import { Part } from './Part.js';
 import { PriceSighting } from './PriceSighting.js';
 import { PriceSightingReport } from './PriceSightingReport.js';
@@ -26,6 +30,7 @@ import { Session } from './Session.js';
 import { SlotAlternate } from './SlotAlternate.js';
 import { ThermalResult } from './ThermalResult.js';
 import { Store } from './Store.js';
+import { Subscriber } from './Subscriber.js';
 import { User } from './User.js';
 
 export function applyAssociations() {
@@ -108,4 +113,18 @@ export function applyAssociations() {
 	BuildSlot.belongsTo(Part, { foreignKey: 'partId', as: 'part' });
 	Build.hasMany(BuildSync, { foreignKey: 'buildId', as: 'syncs' });
 	BuildSync.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
+
+	Follow.belongsTo(User, { foreignKey: 'followerId', as: 'follower' });
+	Follow.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+
+	Subscriber.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+	Subscriber.belongsTo(Region, { foreignKey: 'homeRegionId', as: 'homeRegion' });
+	Notice.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+
+	Mailing.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
+	Mailing.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	Mailing.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
+	Mailing.hasMany(MailJob, { foreignKey: 'mailingId', as: 'jobs' });
+	MailJob.belongsTo(Mailing, { foreignKey: 'mailingId', as: 'mailing' });
+	MailJob.belongsTo(Subscriber, { foreignKey: 'subscriberId', as: 'subscriber' });
 }

@@ -11,6 +11,12 @@ import { CautionRule, initCautionRule } from './CautionRule.js';
 import { ContentReport, initContentReport } from './ContentReport.js';
 import { EmailToken, initEmailToken } from './EmailToken.js';
 import { FrameResult, initFrameResult } from './FrameResult.js';
+import { Follow, initFollow } from './Follow.js';
+import { Mailing, initMailing } from './Mailing.js';
+import { MailJob, initMailJob } from './MailJob.js';
+import { Notice, initNotice } from './Notice.js';
+import { NoticeSetting, initNoticeSetting } from './NoticeSetting.js';
+import { Subscriber, initSubscriber } from './Subscriber.js';
 import { FxRate, initFxRate } from './FxRate.js';
 import { Guide, initGuide } from './Guide.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
@@ -57,7 +63,13 @@ export {
 	Store,
 	ThermalResult,
 	User,
-	VerificationToken
+	VerificationToken,
+	Follow,
+	Mailing,
+	MailJob,
+	Notice,
+	NoticeSetting,
+	Subscriber
 };
 
 export function initModels(sequelize: Sequelize) {
@@ -89,5 +101,11 @@ export function initModels(sequelize: Sequelize) {
 	initBuild(sequelize);
 	initBuildSlot(sequelize);
 	initBuildSync(sequelize);
+	initFollow(sequelize);
+	initMailing(sequelize);
+	initMailJob(sequelize);
+	initNotice(sequelize);
+	initNoticeSetting(sequelize);
+	initSubscriber(sequelize);
 	applyAssociations();
 }
