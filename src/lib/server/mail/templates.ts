@@ -14,12 +14,12 @@ export interface MailTemplate {
 	html: string;
 }
 
-interface Action {
+export interface Action {
 	label: string;
 	url: string;
 }
 
-interface Content {
+export interface Content {
 	subject: string;
 	greeting?: string;
 	/** Plain-text paragraphs; escaped for HTML. */
@@ -153,7 +153,8 @@ function renderHtml(c: Content): string {
 	].join('\n');
 }
 
-function render(c: Content): MailTemplate {
+/** Text and HTML bodies in the shared layout (used by newsletter-templates.ts too). */
+export function render(c: Content): MailTemplate {
 	return { subject: c.subject, text: renderText(c), html: renderHtml(c) };
 }
 
