@@ -22,6 +22,10 @@
  *     PUT    /settings        { dataDelayMs }: wait this long after keeping a message
  *                             before answering 250 (widens the window a crash test aims at)
  *
+ * SMTP_FAKE_KEEP=0 keeps no message bodies (nothing is parsed; GET /messages stays empty) and
+ * only counts, reading the Message-ID from the raw header: what the crash test and
+ * bench:mailing need at thousands of messages on a busy machine.
+ *
  * Robustness: the message is buffered whole (bounded by MAX_MESSAGE_BYTES) before parsing,
  * so a parser failure can never leave the SMTP stream half-read; a message that cannot be
  * parsed is answered 554 and the server keeps running.
@@ -159,9 +163,36 @@ function readAll(stream: SMTPServerDataStream): Promise<Buffer> {
 	});
 }
 
+const KEEP_BODIES = process.env.SMTP_FAKE_KEEP !== '0';
+
+/** The Message-ID from the raw header block (unfolded), without parsing the whole message. */
+function rawMessageId(raw: Buffer): string | null {
+	const end = raw.indexOf('\r\n\r\n');
+	const head = raw.subarray(0, end === -1 ? raw.length : end).toString('latin1');
+	const match = /^message-id:[ \t]*((?:.|\r\n[ \t])*)/im.exec(head);
+	return match?.[1]?.replace(/\r\n[ \t]+/g, ' ').trim() || null;
+}
+
+function count(recipients: string[], messageId: string | null) {
+	totalAccepted++;
+	for (const address of recipients) {
+		const key = address.toLowerCase();
+		byRecipient.set(key, (byRecipient.get(key) ?? 0) + 1);
+	}
+	if (messageId) byMessageId.set(messageId, (byMessageId.get(messageId) ?? 0) + 1);
+}
+
 async function receive(stream: SMTPServerDataStream, session: SMTPServerSession): Promise<string> {
 	const raw = await readAll(stream);
 	if (stream.sizeExceeded) throw smtpError('Message too big for the local fake', 552);
+	if (!KEEP_BODIES) {
+		count(
+			session.envelope.rcptTo.map((r) => r.address),
+			rawMessageId(raw)
+		);
+		if (dataDelayMs > 0) await new Promise((resolve) => setTimeout(resolve, dataDelayMs));
+		return randomUUID();
+	}
 	let parsed: ParsedMail;
 	try {
 		parsed = await simpleParser(raw, { skipImageLinks: true });
@@ -269,7 +300,7 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 	const url = new URL(req.url ?? '/', `http://${HOST}`);
 	const path = url.pathname.replace(/\/+$/, '') || '/';
 	if (path === '/health' && req.method === 'GET') {
-		return sendJson(res, 200, { ok: true, messages: messages.length });
+		return sendJson(res, 200, { ok: true, messages: messages.length, accepted: totalAccepted });
 	}
 	if (path === '/counts' && req.method === 'GET') {
 		return sendJson(res, 200, {

@@ -30,6 +30,8 @@ export interface RefusalRule {
 export interface FakeSmtp {
 	smtpPort: number;
 	mailboxUrl: string;
+	/** Messages accepted since the last clear (cheap to poll). */
+	accepted(): Promise<number>;
 	counts(): Promise<{ total: number; recipients: Record<string, number> }>;
 	deliveries(messageId: string): Promise<number>;
 	setRules(rules: RefusalRule[]): Promise<void>;
@@ -44,19 +46,22 @@ async function call(url: string, init?: RequestInit): Promise<Response> {
 	return response;
 }
 
-export async function startFakeSmtp(): Promise<FakeSmtp> {
+/** @param keepBodies false: count only (SMTP_FAKE_KEEP=0), for thousands of messages. */
+export async function startFakeSmtp({ keepBodies = true } = {}): Promise<FakeSmtp> {
 	const smtpPort = await freePort();
 	const httpPort = await freePort();
 	const child: ChildProcess = spawn(
 		process.execPath,
-		[resolve(ROOT, 'node_modules/tsx/dist/cli.mjs'), resolve(ROOT, 'scripts/smtp-fake.ts')],
+		// tsx as a loader in this one process, so stopping it stops the fake itself.
+		['--import', 'tsx', resolve(ROOT, 'scripts/smtp-fake.ts')],
 		{
 			cwd: ROOT,
 			env: {
 				...process.env,
 				SMTP_PORT: String(smtpPort),
 				MAILBOX_PORT: String(httpPort),
-				SMTP_FAKE_QUIET: '1'
+				SMTP_FAKE_QUIET: '1',
+				SMTP_FAKE_KEEP: keepBodies ? '1' : '0'
 			},
 			stdio: ['ignore', 'ignore', 'inherit']
 		}
@@ -80,6 +85,9 @@ export async function startFakeSmtp(): Promise<FakeSmtp> {
 	return {
 		smtpPort,
 		mailboxUrl,
+		async accepted() {
+			return ((await (await call(`${mailboxUrl}/health`)).json()) as { accepted: number }).accepted;
+		},
 		async counts() {
 			return (await (await call(`${mailboxUrl}/counts`)).json()) as {
 				total: number;
@@ -111,7 +119,7 @@ export async function startFakeSmtp(): Promise<FakeSmtp> {
 			await call(`${mailboxUrl}/rules`, { method: 'DELETE' });
 		},
 		async stop() {
-			if (child.exitCode !== null) return;
+			if (child.exitCode !== null || child.signalCode !== null) return;
 			const exited = new Promise((r) => child.once('exit', r));
 			child.kill('SIGTERM');
 			await exited;

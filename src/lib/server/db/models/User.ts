@@ -1,6 +1,7 @@
 import { DataTypes, Model, Op } from 'sequelize';
 import type {
 	CreationOptional,
+	Transaction,
 	InferAttributes,
 	InferCreationAttributes,
 	Sequelize
@@ -55,13 +56,14 @@ export function initUser(sequelize: Sequelize) {
 	// tests) goes through create(), so the handle is filled here rather than in each caller.
 	// Two sign-ups with the same name at the same moment can still collide on the unique
 	// index; the second then fails like any other write and can be retried.
-	User.addHook('beforeValidate', async (user: User, options) => {
+	User.addHook('beforeValidate', async (user: User, options: object) => {
 		if (!user.isNewRecord || user.handle) return;
 		const base = handleBase(user.name);
 		const rows = await User.findAll({
 			attributes: ['handle'],
 			where: { handle: { [Op.or]: [base, { [Op.like]: `${base}-%` }] } },
-			transaction: options.transaction ?? null
+			// Sequelize hands create()'s own options to this hook: same transaction, same snapshot.
+			transaction: (options as { transaction?: Transaction | null }).transaction ?? null
 		});
 		user.handle = firstFreeHandle(base, new Set(rows.map((r) => r.handle)));
 	});
