@@ -6,14 +6,13 @@ import type {
 	InferCreationAttributes,
 	Sequelize
 } from 'sequelize';
+import type { SubscriberAudience } from '../../../domain/newsletter-audience.js';
 import type { Region } from './Region.js';
 import type { User } from './User.js';
 
 export const SUBSCRIBER_STATUSES = ['pending', 'confirmed', 'unsubscribed', 'suppressed'] as const;
 export type SubscriberStatus = (typeof SUBSCRIBER_STATUSES)[number];
-/** filters: the preferences below; follows: new guides from followed authors; both: either. */
-export const SUBSCRIBER_AUDIENCES = ['filters', 'follows', 'both'] as const;
-export type SubscriberAudience = (typeof SUBSCRIBER_AUDIENCES)[number];
+export type { SubscriberAudience } from '../../../domain/newsletter-audience.js';
 
 /**
  * One newsletter address and its preferences (services/subscribers.ts). Mail goes only to
