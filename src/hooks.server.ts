@@ -4,6 +4,7 @@ import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth/config';
 import {
 	capBodies,
+	checkFormOrigin,
 	closeAuthEndpoints,
 	formBodiesOnly,
 	guardAreas,
@@ -43,6 +44,7 @@ export const handle = sequence(
 	closeConnectionsWhenStopping,
 	securityHeaders,
 	outageAs503,
+	checkFormOrigin,
 	capBodies,
 	jsonOnlyApi,
 	closeAuthEndpoints,

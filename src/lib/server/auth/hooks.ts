@@ -1,6 +1,7 @@
 /*
  * The request pipeline's security pieces, composed in src/hooks.server.ts.
  */
+import { dev } from '$app/environment';
 import { error, json, redirect } from '@sveltejs/kit';
 import type { Handle } from '@sveltejs/kit';
 import { baselineHeaders } from '$lib/server/http/security-headers.js';
@@ -118,6 +119,44 @@ export const jsonOnlyApi: Handle = ({ event, resolve }) => {
 				{ status: 415 }
 			);
 		}
+	}
+	return resolve(event);
+};
+
+/** SvelteKit's own list (utils/http.js is_form_content_type): what a cross-site form can send. */
+const CROSS_SITE_TYPES =
+	/^(?:application\/x-www-form-urlencoded|multipart\/form-data|text\/plain)\s*(?:;|$)/i;
+
+/**
+ * RFC 8058 §3.1 (docs/sources.md 12): the one-click unsubscribe POST comes from the mail
+ * provider, with no session and no Origin header. It changes only the subscription its
+ * signed token names and needs the exact body `List-Unsubscribe=One-Click`, so a forged
+ * cross-site form gains nothing a link holder could not do anyway.
+ */
+const ORIGIN_FREE_POSTS = new Set(['/(public)/newsletter/unsubscribe']);
+
+/**
+ * SvelteKit's CSRF check, kept here so one route can be exempted (svelte.config.js trusts
+ * every origin so that Kit's check steps aside): a form-type body sent with POST, PUT, PATCH
+ * or DELETE from another origin, or with no Origin, is refused with 403. Like Kit's, it runs
+ * in production builds only (the dev server's origin is not the configured one).
+ */
+export const checkFormOrigin: Handle = ({ event, resolve }) => {
+	const { request, url } = event;
+	if (
+		!dev &&
+		BODY_METHODS.has(request.method) &&
+		CROSS_SITE_TYPES.test(request.headers.get('content-type') ?? '') &&
+		request.headers.get('origin') !== url.origin &&
+		!(request.method === 'POST' && ORIGIN_FREE_POSTS.has(event.route.id ?? ''))
+	) {
+		const message = `Cross-site ${request.method} form submissions are forbidden`;
+		if (request.headers.get('accept') === 'application/json')
+			return json({ message }, { status: 403 });
+		return new Response(message, {
+			status: 403,
+			headers: { 'content-type': 'text/plain;charset=UTF-8' }
+		});
 	}
 	return resolve(event);
 };
