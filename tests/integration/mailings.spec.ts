@@ -1,5 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { draftInput } from '../../src/lib/schemas/guide-editor';
+import type { MailingInput } from '../../src/lib/schemas/newsletter';
 import { decisionInput } from '../../src/lib/schemas/review';
 import {
 	Follow,
@@ -67,7 +68,7 @@ async function subscriber(
 	});
 }
 
-async function draftMailing(filters?: { regions: string[]; tags: string[]; followers: boolean }) {
+async function draftMailing(filters?: Omit<MailingInput, 'subject' | 'intro'>) {
 	const created = await mailings.createMailing(world.editor.id, world.revisionId);
 	if (created.kind !== 'ok') throw new Error(JSON.stringify(created));
 	if (filters)

@@ -120,3 +120,12 @@ export type MailingInput = z.output<typeof mailingInput>;
 
 /** The region a preview is priced in. */
 export const previewRegionQuery = regionCode.optional().catch(undefined);
+
+/** An editor starts a mailing for one approved revision. */
+export const createMailingInput = z.strictObject({
+	revisionId: z.coerce
+		.number({ message: 'Choose a guide to mail.' })
+		.int('Choose a guide to mail.')
+		.positive('Choose a guide to mail.')
+		.max(4_294_967_295, 'Choose a guide to mail.')
+});

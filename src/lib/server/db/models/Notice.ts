@@ -8,14 +8,9 @@ import type {
 } from 'sequelize';
 import type { User } from './User.js';
 
-/** What a notice is about; each kind has its own in-app and e-mail setting. */
-export const NOTICE_KINDS = [
-	'author_published',
-	'source_revised',
-	'revision_decided',
-	'queue_gained'
-] as const;
-export type NoticeKind = (typeof NOTICE_KINDS)[number];
+import { NOTICE_KINDS, type NoticeKind } from '../../../domain/notice-kinds.js';
+
+export { NOTICE_KINDS, type NoticeKind };
 
 /** One in-app notice under the bell; `linkPath` is a same-site path to the page it is about. */
 export class Notice extends Model<InferAttributes<Notice>, InferCreationAttributes<Notice>> {
