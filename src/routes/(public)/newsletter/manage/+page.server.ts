@@ -10,7 +10,8 @@ export const load: PageServerLoad = async ({ url }) => {
 	const view = await subscribers.manageView(url.searchParams.get('token'));
 	if (view.kind === 'invalid') linkError(view.problem);
 	const { regions } = await subscribers.preferenceChoices();
-	return { subscription: view.subscription, regions };
+	// The forms post back with the token (their ?/action replaces the query string otherwise).
+	return { subscription: view.subscription, regions, token: url.searchParams.get('token') ?? '' };
 };
 
 export const actions: Actions = {
