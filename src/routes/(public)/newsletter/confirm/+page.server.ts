@@ -1,4 +1,4 @@
-import { fail } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { linkError, LINK_PROBLEM_TEXT } from '$lib/server/newsletter/link-problem';
 import * as subscribers from '$lib/server/services/subscribers';
 import type { Actions, PageServerLoad } from './$types';
@@ -21,6 +21,7 @@ export const actions: Actions = {
 			return fail(outcome.problem === 'forged' ? 404 : 400, {
 				message: LINK_PROBLEM_TEXT[outcome.problem]
 			});
-		return { confirmed: true, manageUrl: outcome.manageUrl };
+		// On to the manage page: this link is spent, so its own page would now refuse it.
+		redirect(303, `${outcome.manageUrl}&welcome`);
 	}
 };

@@ -11,7 +11,12 @@ export const load: PageServerLoad = async ({ url }) => {
 	if (view.kind === 'invalid') linkError(view.problem);
 	const { regions } = await subscribers.preferenceChoices();
 	// The forms post back with the token (their ?/action replaces the query string otherwise).
-	return { subscription: view.subscription, regions, token: url.searchParams.get('token') ?? '' };
+	return {
+		subscription: view.subscription,
+		regions,
+		token: url.searchParams.get('token') ?? '',
+		welcome: url.searchParams.has('welcome')
+	};
 };
 
 export const actions: Actions = {
