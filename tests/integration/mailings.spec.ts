@@ -15,6 +15,7 @@ import type { SubscriberAudience } from '../../src/lib/server/db/models/Subscrib
 import * as mailingSend from '../../src/lib/server/services/mailing-send';
 import * as mailings from '../../src/lib/server/services/mailings';
 import * as subscribers from '../../src/lib/server/services/subscribers';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import * as reviews from '../../src/lib/server/services/guide-reviews';
 import { resetDatabase } from '../support/db';
@@ -265,7 +266,7 @@ describe('a mailing', () => {
 	it('a later revision can be mailed only when its author marked it major', async () => {
 		async function publishRevision(major: boolean): Promise<number> {
 			const view = (await drafts.getDraft(world.author.id, world.slug))!;
-			const saved = await drafts.saveDraft(
+			const saved = await draftEdits.saveDraft(
 				world.author.id,
 				world.slug,
 				draftInput.parse({
@@ -288,7 +289,7 @@ describe('a mailing', () => {
 				view.version
 			);
 			if (saved.kind !== 'saved') throw new Error(saved.kind);
-			await drafts.submit(world.author.id, world.slug, saved.draft.version, LINKS, { major });
+			await draftEdits.submit(world.author.id, world.slug, saved.draft.version, LINKS, { major });
 			const guide = (await Guide.findOne({ where: { slug: world.slug } }))!;
 			const revision = (await GuideRevision.findOne({
 				where: { guideId: guide.id, reviewedAt: null }

@@ -3,6 +3,7 @@ import { draftInput } from '../../src/lib/schemas/guide-editor';
 import { decisionInput } from '../../src/lib/schemas/review';
 import { Follow, Guide, GuideRevision, Notice, User } from '../../src/lib/server/db';
 import * as notices from '../../src/lib/server/services/notices';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as drafts from '../../src/lib/server/services/guide-drafts';
 import * as reviews from '../../src/lib/server/services/guide-reviews';
 import { forkBuild, newReader } from '../support/buildsync-fixtures';
@@ -31,7 +32,7 @@ async function noticesOf(user: User) {
 
 async function publishRevision2(major: boolean): Promise<number> {
 	const view = (await drafts.getDraft(world.author.id, world.slug))!;
-	const saved = await drafts.saveDraft(
+	const saved = await draftEdits.saveDraft(
 		world.author.id,
 		world.slug,
 		draftInput.parse({
@@ -54,7 +55,7 @@ async function publishRevision2(major: boolean): Promise<number> {
 		view.version
 	);
 	if (saved.kind !== 'saved') throw new Error(saved.kind);
-	await drafts.submit(world.author.id, world.slug, saved.draft.version, LINKS, { major });
+	await draftEdits.submit(world.author.id, world.slug, saved.draft.version, LINKS, { major });
 	const guide = (await Guide.findOne({ where: { slug: world.slug } }))!;
 	const revision = (await GuideRevision.findOne({
 		where: { guideId: guide.id, reviewedAt: null }

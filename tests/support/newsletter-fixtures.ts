@@ -10,7 +10,7 @@
 import { createGuideInput, draftInput } from '../../src/lib/schemas/guide-editor';
 import { decisionInput } from '../../src/lib/schemas/review';
 import { FxRate, Guide, GuideRevision, Part, Region, Store, User } from '../../src/lib/server/db';
-import * as drafts from '../../src/lib/server/services/guide-drafts';
+import * as drafts from '../../src/lib/server/services/guide-draft-edits';
 import * as reviews from '../../src/lib/server/services/guide-reviews';
 
 export const ORIGIN = 'http://127.0.0.1:4173';

@@ -20,8 +20,8 @@ import { pokeInlineWorker } from '$lib/server/mail/queue/inline';
 import { issueLink } from '$lib/server/newsletter/links';
 import * as audit from './audit';
 import { followerIds } from './authors';
-import * as guides from './guides';
 import type { Outcome } from './outcome';
+import * as pricing from './pricing';
 
 export interface RegionTotal {
 	regionCode: string;
@@ -33,19 +33,29 @@ export interface RegionTotal {
 	unpriced: number;
 }
 
-/** The guide's picks total in one region (null when the guide is gone or the region unknown). */
+/**
+ * The guide's picks total in one region, through the one pricing service (services/pricing.ts),
+ * so a mail shows the figure the guide page shows there. Null when the guide has no published
+ * revision or the region is unknown.
+ */
 export async function totalIn(slug: string, regionCode: string): Promise<RegionTotal | null> {
-	const outcome = await guides.getPriced(slug, regionCode);
-	if (outcome.kind !== 'ok') return null;
-	const g = outcome.guide;
+	const [guide, region] = await Promise.all([
+		Guide.findOne({ where: { slug }, attributes: ['id', 'publishedRevisionId'] }),
+		Region.findOne({ where: { code: regionCode } })
+	]);
+	if (!guide?.publishedRevisionId || !region) return null;
+	const run = await pricing.priceRevisions([guide.publishedRevisionId], region);
+	const priced = run.revisions.get(guide.publishedRevisionId);
+	if (!priced) return null;
+	const { picksTotal, picks } = priced.adjustment;
 	return {
-		regionCode: g.region.code,
-		regionName: g.region.name,
-		total: g.picksTotal,
-		totalText: g.picksTotal ? formatMoney(g.picksTotal) : null,
-		quoted: g.picks.quoted,
-		estimated: g.picks.estimated,
-		unpriced: g.picks.unpriced
+		regionCode: region.code,
+		regionName: region.name,
+		total: picksTotal,
+		totalText: picksTotal ? formatMoney(picksTotal) : null,
+		quoted: picks.quoted,
+		estimated: picks.estimated,
+		unpriced: picks.unpriced
 	};
 }
 
