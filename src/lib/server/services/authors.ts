@@ -6,7 +6,7 @@
  */
 import { Op, UniqueConstraintError } from 'sequelize';
 import { Build, Follow, Guide, GuideRevision, User } from '$lib/server/db';
-import type { Outcome } from './outcome';
+import type { Outcome } from '$lib/schemas/issues';
 
 const WRITING_ROLES = ['author', 'editor', 'admin'];
 

@@ -20,7 +20,7 @@ import { pokeInlineWorker } from '$lib/server/mail/queue/inline';
 import { issueLink } from '$lib/server/newsletter/links';
 import * as audit from './audit';
 import { followerIds } from './authors';
-import type { Outcome } from './outcome';
+import type { Outcome } from '$lib/schemas/issues';
 import * as pricing from './pricing';
 
 export interface RegionTotal {

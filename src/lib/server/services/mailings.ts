@@ -12,7 +12,7 @@ import type { Transaction } from 'sequelize';
 import type { MailingInput } from '$lib/schemas/newsletter';
 import { Guide, GuideRevision, Mailing, Region, User, sequelize } from '$lib/server/db';
 import type { MailingFilters, MailingStatus, MailingSummary } from '$lib/server/db/models/Mailing';
-import type { Outcome } from './outcome';
+import type { Outcome } from '$lib/schemas/issues';
 
 export type { MailingFilters, MailingSummary } from '$lib/server/db/models/Mailing';
 

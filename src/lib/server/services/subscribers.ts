@@ -25,7 +25,7 @@ import {
 	tokenHash,
 	type LinkPurpose
 } from '$lib/server/newsletter/links';
-import type { Issues, Outcome } from './outcome';
+import type { Issues, Outcome } from '$lib/schemas/issues';
 
 export interface PreferencesView {
 	homeRegion: string;

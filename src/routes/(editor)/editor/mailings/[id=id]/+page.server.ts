@@ -2,7 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { fieldIssues } from '$lib/schemas/issues';
 import { mailingInput, newsletterFields, previewRegionQuery } from '$lib/schemas/newsletter';
 import { requireRole } from '$lib/server/auth/guards';
-import type { Outcome } from '$lib/server/services/outcome';
+import type { Outcome } from '$lib/schemas/issues';
 import * as send from '$lib/server/services/mailing-send';
 import * as mailings from '$lib/server/services/mailings';
 import * as subscribers from '$lib/server/services/subscribers';
