@@ -7,6 +7,8 @@ ensure_mariadb_package
 start_db
 start_mail_fake
 start_ecb_fake
+start_payment_fake
+register_payment_webhook "http://127.0.0.1:${PORT:-5173}"
 ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 exec npx vite dev --host 127.0.0.1 --port "${PORT:-5173}"

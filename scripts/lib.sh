@@ -131,9 +131,41 @@ start_ecb_fake() {
 	bash scripts/ecb-fake.sh start || fail "start the ECB rates fake"
 }
 
+# The local fake of the payment provider's API (scripts/stripe-fake.sh) unless the environment
+# names the real one: a deployment sets STRIPE_API_URL (normally https://api.stripe.com), its
+# own STRIPE_SECRET_KEY and STRIPE_WEBHOOK_SECRET, so no fake runs. For the fake, a test key
+# and a webhook secret are made once per checkout and kept in .data/ (never committed).
+start_payment_fake() {
+	if [ -n "${STRIPE_API_URL:-}" ]; then
+		step "Using the payment provider at $STRIPE_API_URL from the environment (no local fake)"
+		return
+	fi
+	mkdir -p "$DATA_DIR"
+	[ -s "$DATA_DIR/stripe-secret-key" ] || node -e "process.stdout.write('sk_test_fake_'+require('crypto').randomBytes(24).toString('hex'))" >"$DATA_DIR/stripe-secret-key"
+	[ -s "$DATA_DIR/stripe-webhook-secret" ] || node -e "process.stdout.write('whsec_'+require('crypto').randomBytes(24).toString('base64url'))" >"$DATA_DIR/stripe-webhook-secret"
+	STRIPE_SECRET_KEY="$(cat "$DATA_DIR/stripe-secret-key")"
+	STRIPE_WEBHOOK_SECRET="$(cat "$DATA_DIR/stripe-webhook-secret")"
+	export STRIPE_SECRET_KEY STRIPE_WEBHOOK_SECRET
+	choose_port STRIPE_FAKE_PORT stripe 2600 pid_alive stripe-fake
+	export STRIPE_API_URL="http://127.0.0.1:$STRIPE_FAKE_PORT"
+	step "Starting the local payment provider fake on $STRIPE_API_URL"
+	bash scripts/stripe-fake.sh start || fail "start the payment provider fake"
+}
+
+# register_payment_webhook ORIGIN: tells the local fake to send its events to this app, as
+# one does once in the provider's dashboard for a deployment. Harmless when repeated.
+register_payment_webhook() {
+	[ -n "${STRIPE_FAKE_PORT:-}" ] || return 0
+	node -e "fetch(process.argv[1]+'/v1/webhook_endpoints',{method:'POST',headers:{authorization:'Bearer '+process.env.STRIPE_SECRET_KEY,'content-type':'application/x-www-form-urlencoded'},body:new URLSearchParams({url:process.argv[2]+'/api/payments/webhook'})}).then(r=>process.exit(r.ok?0:1),()=>process.exit(1))" \
+		"$STRIPE_API_URL" "$1" || fail "register the webhook endpoint with the payment provider fake"
+}
+
 # migrate_and_seed DB_NAME
 migrate_and_seed() {
 	step "Migrating and seeding database $1"
+	# Seeders reuse app services, which import through SvelteKit's $lib alias: tsx finds it in
+	# the tsconfig that `svelte-kit sync` writes, and a fresh clone has none yet.
+	npx svelte-kit sync || fail "svelte-kit sync"
 	DB_NAME="$1" npx tsx scripts/migrate.ts up || fail "migrate $1"
 	DB_NAME="$1" npx tsx scripts/seed.ts up || fail "seed $1"
 }

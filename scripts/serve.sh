@@ -10,7 +10,7 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 export PORT="${PORT:-3001}"
 export HOST="${HOST:-127.0.0.1}"
 export ORIGIN="${ORIGIN:-http://127.0.0.1:$PORT}"
-export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-2M}"
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-16M}"
 export DB_NAME="${DB_NAME:-slotwise}"
 
 # from_file VAR FILE: VAR from .data/FILE unless already set.
@@ -33,6 +33,13 @@ if [ -z "${SMTP_HOST:-}" ] && pid_alive smtp-fake; then
 fi
 if [ -z "${ECB_RATES_URL:-}" ] && pid_alive ecb-fake; then
 	export ECB_RATES_URL="http://127.0.0.1:$(cat "$DATA_DIR/ecb.port")/stats/eurofxref/eurofxref-daily.xml"
+fi
+if [ -z "${STRIPE_API_URL:-}" ] && pid_alive stripe-fake; then
+	from_file STRIPE_FAKE_PORT stripe.port
+	export STRIPE_API_URL="http://127.0.0.1:$STRIPE_FAKE_PORT"
+	from_file STRIPE_SECRET_KEY stripe-secret-key
+	from_file STRIPE_WEBHOOK_SECRET stripe-webhook-secret
+	register_payment_webhook "$ORIGIN"
 fi
 port_free "$PORT" || fail "port $PORT is taken: choose another with PORT=…"
 

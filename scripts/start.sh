@@ -5,8 +5,9 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 export PORT="${PORT:-3000}"
 export HOST="${HOST:-127.0.0.1}"
 export ORIGIN="${ORIGIN:-http://127.0.0.1:$PORT}"
-# Room for the 1 MiB catalog CSV import; the hook holds every other route to 512 KB.
-export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-2M}"
+# Room for 15 MB photo uploads (and the 1 MiB catalog CSV import); the hook holds every other
+# route to 512 KB and the upload routes to the photo limit (docs/security.md §6).
+export BODY_SIZE_LIMIT="${BODY_SIZE_LIMIT:-16M}"
 export DB_NAME="${DB_NAME:-slotwise}"
 
 ensure_node_modules
@@ -14,6 +15,8 @@ ensure_mariadb_package
 start_db
 start_mail_fake
 start_ecb_fake
+start_payment_fake
+register_payment_webhook "$ORIGIN"
 ensure_auth_secret
 migrate_and_seed "$DB_NAME"
 

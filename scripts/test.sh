@@ -15,12 +15,16 @@ ensure_chromium
 start_db
 start_mail_fake
 start_ecb_fake
+start_payment_fake
 ensure_auth_secret
 # The app under end-to-end test gets a port of its own for this run.
 export E2E_PORT="${E2E_PORT:-$(free_port)}"
+register_payment_webhook "http://127.0.0.1:$E2E_PORT"
 # Integration tests migrate slotwise_test themselves (globalSetup) and truncate between tests;
 # end-to-end tests read the seeded demo in slotwise_e2e.
 bash scripts/db.sh recreate slotwise_e2e >/dev/null || fail "recreate slotwise_e2e"
+# Its photo files go with it (src/lib/server/storage: one folder per database).
+rm -rf "$ROOT/.data/uploads/slotwise_e2e"
 migrate_and_seed slotwise_e2e
 
 status=0

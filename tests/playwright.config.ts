@@ -58,12 +58,21 @@ export default defineConfig({
 			PORT: String(PORT),
 			HOST: '127.0.0.1',
 			ORIGIN: BASE_URL,
-			BODY_SIZE_LIMIT: '2M',
+			BODY_SIZE_LIMIT: '16M',
 			DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e',
 			LOG_LEVEL: 'silent',
-			// Mail goes to the SMTP fake and rates come from the ECB fake that npm test starts;
+			// Mail goes to the SMTP fake, rates come from the ECB fake and payments go to the provider
+			// fake that npm test starts;
 			// unset values are left out.
-			...passThrough('SMTP_HOST', 'SMTP_PORT', 'MAILBOX_URL', 'ECB_RATES_URL')
+			...passThrough(
+				'SMTP_HOST',
+				'SMTP_PORT',
+				'MAILBOX_URL',
+				'ECB_RATES_URL',
+				'STRIPE_API_URL',
+				'STRIPE_SECRET_KEY',
+				'STRIPE_WEBHOOK_SECRET'
+			)
 		}
 	}
 });

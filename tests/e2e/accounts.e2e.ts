@@ -146,6 +146,10 @@ test('20 bad passwords from one address get 429, and the owner can still sign in
 		headers: { origin: BASE_URL, accept: 'text/html' }
 	});
 	expect(blocked.status()).toBe(429);
+	// The page says when to try again and that the e-mail link still works (issue 15).
+	const said = await blocked.text();
+	expect(said).toMatch(/Try your password again in (a minute|\d+ minutes)/);
+	expect(said).toContain('a sign-in link by e-mail (below) still works');
 
 	// …but a sign-in link still gets the owner in.
 	await page.goto('/signin');

@@ -78,6 +78,7 @@ const admins: Record<Role, Outcome> = {
 const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(public)': everyone('ok'),
 	'GET /(public)/guides/[slug=slug]': everyone('ok'),
+	'GET /(public)/guides/[slug=slug]/print': everyone('ok'),
 	'GET /(public)/parts': everyone('ok'),
 	'GET /(public)/parts/[slug=slug]': everyone('ok'),
 	// Signed in to report a price; the empty form the matrix posts is refused with 400 ("ok").
@@ -235,6 +236,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'GET /(public)/builds/[id=id]/print': everyone('notfound'),
 	'GET /(public)/builds/[id=id]/export.csv': everyone('notfound'),
 	'POST /(public)/builds/[id=id]?/swap': ownBuild,
+	'POST /(public)/builds/[id=id]?/delete': ownBuild,
 	'POST /(public)/builds/[id=id]?/quantity': ownBuild,
 	'POST /(public)/builds/[id=id]?/override': ownBuild,
 	'POST /(public)/builds/[id=id]?/purchase': ownBuild,
@@ -245,6 +247,15 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(public)/builds/[id=id]?/undoSync': ownBuild,
 	'POST /(public)/builds/[id=id]?/proposeBudget': ownBuild,
 	'POST /(public)/builds/[id=id]?/applyBudget': ownBuild,
+	'POST /(public)/builds/[id=id]?/tick': ownBuild,
+	// Report a photo of a finished build: like reporting the build (400 for the probe, then 404).
+	'POST /(public)/builds/[id=id]?/reportPhoto': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	// Report a build: visitors are sent to sign in. Signed in, the empty probe form is refused
 	// (400), then the page's load answers 404 for the sample id, which names no build.
 	'POST /(public)/builds/[id=id]?/report': {
@@ -300,7 +311,39 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /api/v1/builds/[id=id]/slots': everyone('ok'),
 	'PATCH /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
 	'DELETE /api/v1/builds/[id=id]/slots/[slotId=id]': everyone('ok'),
-	'GET /api/v1/builds/[id=id]/export.csv': everyone('notfound')
+	'GET /api/v1/builds/[id=id]/export.csv': everyone('notfound'),
+	// Photo uploads take multipart only; the matrix posts a urlencoded form, which the hook
+	// refuses with 415 before auth (photos.e2e.ts checks roles and ownership with real files).
+	// Deletes are JSON like the rest of the API, so the form body is a 415 as well.
+	'POST /api/v1/guides/[slug=slug]/photos': everyone('ok'),
+	'DELETE /api/v1/guides/[slug=slug]/photos/[id=id]': everyone('ok'),
+	'POST /api/v1/parts/[slug=slug]/photos': everyone('ok'),
+	'DELETE /api/v1/parts/[slug=slug]/photos/[id=id]': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/photos': everyone('ok'),
+	'DELETE /api/v1/builds/[id=id]/photos/[photoId=id]': everyone('ok'),
+	// Photo files: the sample key names no photo, so everyone gets 404.
+	'GET /media/[...key]': everyone('notfound'),
+	'GET /help/photos': everyone('ok'),
+	// Tips (issue 20). The form is public (visitors see a sign-in link); paying needs an account,
+	// and the empty probe form is refused with 400 before anything reaches the provider.
+	'GET /(public)/guides/[slug=slug]/tip': everyone('ok'),
+	'POST /(public)/guides/[slug=slug]/tip?/default': signedIn,
+	// The return from the provider: without a session id it is a 404 for everyone signed in.
+	'GET /(account)/tips/thanks': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
+	// The provider's webhook proves itself by signature, not by session: the matrix's form body
+	// is refused with 415 before that (tip-webhooks.spec.ts tests the signature itself).
+	'POST /api/payments/webhook': everyone('ok'),
+	'GET /(author)/my/earnings': authors,
+	'POST /(author)/my/earnings?/settings': authors,
+	'GET /(author)/my/earnings/export.csv': authors,
+	'GET /(admin)/admin/tips': admins,
+	'POST /(admin)/admin/tips?/refund': admins
 };
 
 function classify(status: number, location: string | undefined): Outcome {

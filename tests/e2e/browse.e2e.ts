@@ -47,8 +47,7 @@ test('filters by region, budget and tags with JavaScript off', async ({ browser 
 test('a bad parameter is reported beside its field and dropped; the rest still applies', async ({
 	page
 }) => {
-	await page.goto('/guides?base=uk&max=abc&page=zero');
-	await expect(page.getByText('The highest budget must be a whole number.')).toBeVisible();
+	await page.goto('/guides?base=uk&page=zero');
 	await expect(page.getByRole('alert')).toContainText('The page must be a whole number.');
 	const fromUk = demoGuides.filter((g) => g.baseRegionCode === 'uk');
 	await expect(page.getByRole('article')).toHaveCount(fromUk.length);
@@ -120,3 +119,27 @@ test('the Atom feed is linked from every page and lists the published guides', a
 	const parsed = parseFeed(await feed.text());
 	expect(parsed.items.map((i) => i.title).sort()).toEqual(demoGuides.map((g) => g.title).sort());
 });
+
+// Issue 15: a budget we could not apply must not be answered with every guide under the message.
+for (const [what, address, message] of [
+	[
+		'a budget that is not a number',
+		'/guides?base=uk&max=abc',
+		'The highest budget must be a whole number.'
+	],
+	['a budget without a region', '/guides?max=900', 'Choose the region your budget is in'],
+	[
+		'a lowest budget above the highest',
+		'/guides?region=de&min=2000&max=1000',
+		'The highest budget must be at least the lowest.'
+	]
+] as const) {
+	test(`${what} lists no guides, only the message and a way out`, async ({ page }) => {
+		await page.goto(address);
+		await expect(page.getByText(message).first()).toBeVisible();
+		await expect(page.getByTestId('browse-blocked')).toBeVisible();
+		await expect(page.getByRole('article')).toHaveCount(0);
+		await page.getByRole('link', { name: 'browse every guide' }).click();
+		await expect(page.getByTestId('browse-count')).toHaveText(`${demoGuides.length} guides`);
+	});
+}

@@ -26,6 +26,7 @@ const slot = (page: Page, label: string) =>
 	page.getByRole('listitem', { name: label, exact: true });
 
 interface DraftSlot {
+	slotKey: string;
 	category: string;
 	label: string;
 	quantity: number;
@@ -70,7 +71,9 @@ async function authorPublishesRevision(author: Page) {
 		disclosureNote: draft.disclosureNote,
 		walkthroughUrl: draft.walkthroughUrl,
 		buildNotes: draft.buildNotes,
+		// Each slot goes back with its key, so the new revision has the same slots.
 		slots: slots.map((s) => ({
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: s.quantity,
@@ -169,8 +172,9 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 		.getByTestId('review-queue')
 		.getByRole('link', { name: /A balanced 1440p build/ })
 		.click();
-	await editor.getByRole('button', { name: 'Approve and publish' }).click();
-	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(editor.getByText('Published: this revision is now live.')).toBeVisible();
 
 	// The reader sees the new revision and syncs: the graphics card is a conflict, the PSU is offered.
 	await reader.goto(buildUrl);
@@ -186,8 +190,8 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	);
 	// Without a choice for the conflict the browser refuses to submit; choose to keep ours.
 	await conflict.getByLabel('Keep yours').check();
-	await sync.getByRole('button', { name: 'Sync with my choices' }).click();
-	await expect(reader.getByText(/^Synced:/)).toBeVisible();
+	await sync.getByRole('button', { name: 'Update from the guide', exact: true }).click();
+	await expect(reader.getByText(/^Updated from the guide:/)).toBeVisible();
 	await expect(slot(reader, 'Graphics card').getByTestId('slot-part')).toHaveText(/Auric A64/);
 	await expect(slot(reader, 'Power supply').getByTestId('slot-part')).toHaveText(/VP850/);
 	await expect(reader.getByTestId('newer-revision')).toHaveCount(0);

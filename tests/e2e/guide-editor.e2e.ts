@@ -27,7 +27,7 @@ async function addSlot(
 	query: string,
 	option: string
 ) {
-	await page.getByRole('button', { name: 'Add a slot' }).click();
+	await page.getByRole('button', { name: 'Add slot' }).click();
 	const slot = page.getByTestId('slot').nth(index);
 	await slot.getByLabel('Category').selectOption({ label: category });
 	await slot.getByLabel('Label', { exact: true }).fill(label);
@@ -89,7 +89,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 
 	// Alternates: two on the CPU (ranked), one on the graphics card, each with its drop-in status.
 	const cpu = page.getByTestId('slot').nth(0);
-	await cpu.getByRole('button', { name: 'Add an alternate to slot 1' }).click();
+	await cpu.getByRole('button', { name: 'Add alternate to slot 1' }).click();
 	await choosePart(
 		cpu.getByRole('combobox', { name: 'Alternate part' }).nth(0),
 		'strata 606x',
@@ -97,7 +97,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	);
 	await cpu.getByLabel('Reason').nth(0).selectOption('upgrade_path');
 	await cpu.getByLabel('Note').nth(0).fill('Faster clocks for the same board.');
-	await cpu.getByRole('button', { name: 'Add an alternate to slot 1' }).click();
+	await cpu.getByRole('button', { name: 'Add alternate to slot 1' }).click();
 	await choosePart(
 		cpu.getByRole('combobox', { name: 'Alternate part' }).nth(1),
 		'strata 406',
@@ -109,7 +109,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await cpu.getByRole('button', { name: 'Rank alternate 2 higher' }).click();
 	await expect(cpu.getByTestId('alternate').nth(0)).toContainText('Halvard Strata 406');
 	const gpu = page.getByTestId('slot').nth(5);
-	await gpu.getByRole('button', { name: 'Add an alternate to slot 6' }).click();
+	await gpu.getByRole('button', { name: 'Add alternate to slot 6' }).click();
 	await choosePart(
 		gpu.getByRole('combobox', { name: 'Alternate part' }),
 		'a52',
@@ -146,7 +146,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await expect(page).toHaveURL(/\/my\/guides\?submitted=/);
 	await expect(page.getByText('Submitted for review.')).toBeVisible();
 	await expect(page.getByRole('article', { name: title }).getByTestId('guide-state')).toHaveText(
-		'In review'
+		'Waiting for an editor (revision 1)'
 	);
 });
 
@@ -310,8 +310,8 @@ test('without JavaScript: slots are added and reordered by posting the form, and
 	await page.getByRole('button', { name: 'Create draft' }).click();
 	await expect(page).toHaveURL(/\/edit$/);
 
-	await page.getByRole('button', { name: 'Add a slot' }).click();
-	await page.getByRole('button', { name: 'Add a slot' }).click();
+	await page.getByRole('button', { name: 'Add slot' }).click();
+	await page.getByRole('button', { name: 'Add slot' }).click();
 	await expect(page.getByTestId('slot')).toHaveCount(2);
 	const [first, second] = [page.getByTestId('slot').nth(0), page.getByTestId('slot').nth(1)];
 	await first.getByLabel('Label', { exact: true }).fill('First');

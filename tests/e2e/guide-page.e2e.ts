@@ -16,7 +16,8 @@ test('the guide page shows fit report counts, power budget, safety cautions, fra
 	const fit = page.getByTestId('fit-report');
 	await expect(fit.getByRole('heading', { name: 'Fit report' })).toBeVisible();
 	await expect(fit.getByTestId('fit-counts')).toHaveText(/\d+ conflicts? · \d+ cautions? · \d+ ok/);
-	// Each finding carries its word, not colour alone.
+	// Each finding carries its word, not colour alone; passed checks open from their count.
+	await fit.getByTestId('fit-ok').locator('summary').click();
 	await expect(fit.getByText(/^(ok|caution|conflict)$/).first()).toBeVisible();
 
 	const power = page.getByTestId('power-budget');

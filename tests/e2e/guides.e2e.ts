@@ -58,10 +58,15 @@ test('a missing guide answers 404 with a readable page', async ({ page }) => {
 	await expect(page.getByRole('link', { name: /home|guides/i }).first()).toBeVisible();
 });
 
-test('the help page renders its highlighted code sample', async ({ page }) => {
+test('the help pages render highlighted code samples on the API page, not the landing page', async ({
+	page
+}) => {
 	const foreign = watchHosts(page);
+	// Operator instructions live in the README; the code samples are on the API help page.
 	await page.goto('/help');
 	await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+	await expect(page.locator('main')).not.toContainText('curl');
+	await page.goto('/help/api');
 	await expect(page.locator('pre.shiki').first()).toBeVisible();
 	expect(foreign).toEqual([]);
 });
@@ -86,7 +91,7 @@ test('the region switcher re-prices a guide and labels lines quoted or estimated
 	const table = page.getByRole('table').first();
 	await expect(table.getByText('Estimated', { exact: true }).first()).toBeVisible();
 	await expect(table.getByText('Quoted', { exact: true }).first()).toBeVisible();
-	await expect(receipt.getByText(/Exchange rates of/)).toBeVisible();
+	await expect(receipt.getByText(/reference rates of/)).toBeVisible();
 
 	// A US guide (pre-tax USD) switched to Germany without JavaScript: euro totals with VAT.
 	await page.goto('/guides/steady-1080p-starter');

@@ -120,13 +120,13 @@ test('submit → request changes → resubmit → approve: public, in the feed, 
 	await expect(editor.getByRole('heading', { name: 'New guide: everything is new' })).toBeVisible();
 	const reviewViolations = await severeViolations(editor);
 	expect(reviewViolations, reviewViolations.join('\n')).toEqual([]);
-	// Request changes without a note: a field message, nothing decided.
-	await editor.getByRole('button', { name: 'Request changes' }).click();
+	// Sending back without a note: a field message, nothing decided.
+	await editor.getByRole('button', { name: 'Send back with notes' }).click();
 	await expect(editor.getByText('Say what should change, in the note or on a slot.')).toBeVisible();
 	await editor
 		.getByLabel('Note to the author')
 		.fill('Please explain the cooler choice in the CPU slot.');
-	await editor.getByRole('button', { name: 'Request changes' }).click();
+	await editor.getByRole('button', { name: 'Send back with notes' }).click();
 	await expect(editor.getByText('Sent back to the author with your notes.')).toBeVisible();
 	const changesMail = await waitForMessage({
 		to: AUTHOR,
@@ -137,7 +137,9 @@ test('submit → request changes → resubmit → approve: public, in the feed, 
 	// The author sees the note on the dashboard, edits and resubmits.
 	await author.goto('/my/guides');
 	const card = author.getByRole('article', { name: title });
-	await expect(card.getByTestId('guide-state')).toHaveText('Changes requested');
+	await expect(card.getByTestId('guide-state')).toHaveText(
+		'Returned to the author with notes (revision 1)'
+	);
 	const dashboardViolations = await severeViolations(author);
 	expect(dashboardViolations, dashboardViolations.join('\n')).toEqual([]);
 	await expect(card).toContainText('Please explain the cooler choice in the CPU slot.');
@@ -149,7 +151,7 @@ test('submit → request changes → resubmit → approve: public, in the feed, 
 	await author.getByRole('button', { name: 'Save and submit for review' }).click();
 	await expect(author).toHaveURL(/\/my\/guides\?submitted=/);
 	await expect(author.getByRole('article', { name: title }).getByTestId('guide-state')).toHaveText(
-		'In review'
+		'Waiting for an editor (revision 2)'
 	);
 	await waitForMessage({
 		to: AUTHOR,
@@ -159,10 +161,11 @@ test('submit → request changes → resubmit → approve: public, in the feed, 
 
 	await openInQueue(editor, title);
 	await expect(
-		editor.getByRole('heading', { name: /Changes since changes were requested on revision 1/ })
+		editor.getByRole('heading', { name: /Changes since revision 1 was returned to the author/ })
 	).toBeVisible();
-	await editor.getByRole('button', { name: 'Approve and publish' }).click();
-	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(editor.getByText('Published: this revision is now live.')).toBeVisible();
 	await waitForMessage({ to: AUTHOR, subject: /^Your guide revision was approved$/ });
 
 	const visitor = await (await browser.newContext()).newPage();
@@ -185,7 +188,8 @@ test("an editor's approval of their own guide is refused; the admin override wor
 	await expect(
 		editor.getByText('You wrote this guide, so another editor must review it.').first()
 	).toBeVisible();
-	await editor.getByRole('button', { name: 'Approve and publish' }).click();
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
 	// The refusal comes back from the server as the form's answer (beside the page's own warning).
 	await expect(
 		editor.getByRole('alert').filter({
@@ -201,8 +205,9 @@ test("an editor's approval of their own guide is refused; the admin override wor
 	await submitGuide(admin.request, adminsOwn);
 	await openInQueue(admin, adminsOwn);
 	await expect(admin.getByText(/As an admin you may still decide/)).toBeVisible();
-	await admin.getByRole('button', { name: 'Approve and publish' }).click();
-	await expect(admin.getByText('Approved: this revision is now live.')).toBeVisible();
+	await admin.getByRole('button', { name: 'Publish', exact: true }).click();
+	await admin.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(admin.getByText('Published: this revision is now live.')).toBeVisible();
 	await expect(admin.getByTestId('review-log-entry').first()).toContainText(
 		'admin override on own guide'
 	);

@@ -43,6 +43,7 @@ async function submitRevision2(): Promise<number> {
 		disclosure: view.disclosure,
 		buildNotes: view.buildNotes,
 		slots: view.slots.slice(0, -1).map((s) => ({
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: s.quantity,

@@ -6,6 +6,7 @@ import {
 	BuildSync,
 	Guide,
 	GuideRevision,
+	GuideSlot,
 	User,
 	sequelize
 } from '../../src/lib/server/db';
@@ -34,6 +35,8 @@ let owner: User;
 let other: User;
 let guide: Guide;
 let baseRevisionId: number;
+/** The sync row id of the graphics card slot: `source:` and the slot's own key. */
+let GPU: string;
 
 beforeEach(async () => {
 	await resetDatabase();
@@ -42,6 +45,10 @@ beforeEach(async () => {
 	other = await newReader('sync-other');
 	guide = await demoGuide();
 	baseRevisionId = guide.publishedRevisionId!;
+	const gpu = await GuideSlot.findOne({
+		where: { revisionId: baseRevisionId, label: 'Graphics card' }
+	});
+	GPU = `source:${gpu!.slotKey}`;
 });
 
 /**
@@ -141,7 +148,7 @@ describe('sync plan', () => {
 			['Power supply', 'removed_locally'],
 			['Second drive', 'added_upstream']
 		]);
-		expect(plan.conflicts).toEqual(['source:Graphics card']);
+		expect(plan.conflicts).toEqual([GPU]);
 		// Offered: upstream-only, conflict, removed upstream, added upstream.
 		expect(plan.offered).toBe(4);
 		const gpu = plan.rows.find((r) => r.label === 'Graphics card')!;
@@ -176,7 +183,7 @@ describe('apply sync', () => {
 			owner.id,
 			build.id,
 			{
-				choices: { 'source:Graphics card': 'keep_local' },
+				choices: { [GPU]: 'keep_local' },
 				takeAllNonConflicting: true,
 				upstreamRevisionId: upstream.id
 			},
@@ -194,7 +201,7 @@ describe('apply sync', () => {
 		const after = await slotRows(build.id);
 		// Placement rule of domain applySync: a slot put in from upstream goes after the nearest
 		// slot that precedes it upstream (Operating system), so before the reader's own slot.
-		expect(after.map((s) => [s.label, s.part, s.sourceSlotKey, s.position])).toEqual([
+		expect(after.map((s) => [s.label, s.part, s.source, s.position])).toEqual([
 			['CPU', 'halvard-strata-408', 'CPU', 1],
 			['Motherboard', 'arkwell-s550m-daily', 'Motherboard', 2],
 			['Memory', 'brisk-ddr4-3200-32gb', 'Memory', 3],
@@ -260,7 +267,7 @@ describe('apply sync', () => {
 		const applied = await applySync(
 			owner.id,
 			build.id,
-			{ choices: { 'source:Graphics card': 'take_upstream' }, takeAllNonConflicting: false },
+			{ choices: { [GPU]: 'take_upstream' }, takeAllNonConflicting: false },
 			1
 		);
 		expect(applied).toMatchObject({
@@ -271,7 +278,7 @@ describe('apply sync', () => {
 			removedSlots: 0,
 			addedSlots: 0
 		});
-		expect((await slotRows(build.id)).map((s) => [s.label, s.part, s.sourceSlotKey])).toEqual([
+		expect((await slotRows(build.id)).map((s) => [s.label, s.part, s.source])).toEqual([
 			['CPU', 'halvard-strata-406', 'CPU'],
 			['Motherboard', 'arkwell-s550m-daily', 'Motherboard'],
 			['Memory', 'brisk-ddr4-3200-32gb', 'Memory'],
@@ -294,7 +301,7 @@ describe('apply sync', () => {
 		).toEqual({
 			kind: 'invalid',
 			issues: {
-				'choices.source:Graphics card': [
+				[`choices.${GPU}`]: [
 					'Graphics card: changed on both sides. Choose to take the guide’s version or keep yours.'
 				]
 			}
@@ -303,7 +310,7 @@ describe('apply sync', () => {
 			owner.id,
 			build.id,
 			{
-				choices: { 'source:Graphics card': 'keep_local', 'source:Sound card': 'take_upstream' },
+				choices: { [GPU]: 'keep_local', 'source:Sound card': 'take_upstream' },
 				takeAllNonConflicting: true
 			},
 			1
@@ -317,7 +324,7 @@ describe('apply sync', () => {
 			owner.id,
 			build.id,
 			{
-				choices: { 'source:Graphics card': 'keep_local' },
+				choices: { [GPU]: 'keep_local' },
 				takeAllNonConflicting: true,
 				upstreamRevisionId: baseRevisionId
 			},
@@ -340,7 +347,7 @@ describe('apply sync', () => {
 		const outcome = await applySync(
 			owner.id,
 			build.id,
-			{ choices: { 'source:Graphics card': 'keep_local' }, takeAllNonConflicting: true },
+			{ choices: { [GPU]: 'keep_local' }, takeAllNonConflicting: true },
 			1
 		);
 		expect(outcome.kind).toBe('conflict');
@@ -353,7 +360,7 @@ describe('apply sync', () => {
 			await applySync(
 				other.id,
 				build.id,
-				{ choices: { 'source:Graphics card': 'keep_local' }, takeAllNonConflicting: true },
+				{ choices: { [GPU]: 'keep_local' }, takeAllNonConflicting: true },
 				2
 			)
 		).toEqual({ kind: 'not_found' });
@@ -376,7 +383,7 @@ describe('apply sync', () => {
 				applySync(
 					owner.id,
 					build.id,
-					{ choices: { 'source:Graphics card': 'keep_local' }, takeAllNonConflicting: true },
+					{ choices: { [GPU]: 'keep_local' }, takeAllNonConflicting: true },
 					1
 				)
 			).rejects.toThrow(/injected failure/);
@@ -393,7 +400,7 @@ describe('apply sync', () => {
 				await applySync(
 					owner.id,
 					build.id,
-					{ choices: { 'source:Graphics card': 'keep_local' }, takeAllNonConflicting: true },
+					{ choices: { [GPU]: 'keep_local' }, takeAllNonConflicting: true },
 					1
 				)
 			).kind

@@ -21,6 +21,7 @@ import * as buildExport from '../../src/lib/server/services/build-export';
 import * as buildFork from '../../src/lib/server/services/build-fork';
 import * as buildLists from '../../src/lib/server/services/build-lists';
 import { keyedRevisionSlots } from '../../src/lib/server/services/build-source';
+import { labelKeys } from '../../src/lib/server/db/migrations/slot-label-keys';
 import * as buildView from '../../src/lib/server/services/build-view';
 import type { BuildView } from '../../src/lib/views';
 import * as guides from '../../src/lib/server/services/guides';
@@ -96,7 +97,7 @@ describe('builds on the real MariaDB', () => {
 		expect(
 			copied.map((s) => [s.sourceSlotKey, s.label, s.category, s.partId, s.quantity, s.origin])
 		).toEqual(
-			source.map((s) => [s.label, s.label, s.category, s.pickPartId, s.quantity, 'source'])
+			source.map((s) => [s.slotKey, s.label, s.category, s.pickPartId, s.quantity, 'source'])
 		);
 
 		const view = await buildView.getBuild({ id: reader.id }, build.id);
@@ -120,6 +121,43 @@ describe('builds on the real MariaDB', () => {
 		const guideGpu = priced.guide.slots.find((s) => s.category === 'gpu');
 		expect(gpu.options.map((o) => o.part.id)).toEqual(guideGpu?.alternates.map((a) => a.part.id));
 		expect(gpu.options.every((o) => o.kind === 'alternate')).toBe(true);
+	});
+
+	it('gives repeated forks of one guide distinct titles, and deletes a build with its slots', async () => {
+		// A member who forks nothing else in this file (demo-data/users: a community author).
+		const owner = await user('tobias.wren@slotwise.test');
+		const guide = (await Guide.findOne({ where: { slug: GUIDE } })) as Guide;
+		const ids: number[] = [];
+		for (let i = 0; i < 3; i++) {
+			const outcome = await buildFork.fork(owner.id, GUIDE);
+			if (outcome.kind !== 'created') throw new Error(outcome.kind);
+			ids.push(outcome.id);
+		}
+		const titles = async () =>
+			(
+				await Build.findAll({
+					where: { ownerId: owner.id, sourceGuideId: guide.id },
+					order: [['id', 'ASC']]
+				})
+			).map((b) => b.title);
+		expect(await titles()).toEqual([
+			`${guide.title} (my build)`,
+			`${guide.title} (my build 2)`,
+			`${guide.title} (my build 3)`
+		]);
+
+		// Only the owner deletes; the slots go with the build.
+		expect(await buildFork.deleteBuild(reader.id, ids[1] as number)).toEqual({ kind: 'not_found' });
+		expect(await buildFork.deleteBuild(owner.id, ids[1] as number)).toEqual({
+			kind: 'deleted',
+			title: `${guide.title} (my build 2)`
+		});
+		expect(await Build.findByPk(ids[1] as number)).toBeNull();
+		expect(await BuildSlot.count({ where: { buildId: ids[1] as number } })).toBe(0);
+		// The freed title is the next fork's: the first free number.
+		const again = await buildFork.fork(owner.id, GUIDE);
+		if (again.kind !== 'created') throw new Error(again.kind);
+		expect((await Build.findByPk(again.id))?.title).toBe(`${guide.title} (my build 2)`);
 	});
 
 	it('refuses to fork an unknown or unpublished guide', async () => {
@@ -636,17 +674,20 @@ describe('builds on the real MariaDB', () => {
 });
 
 describe('slot keys and input (no database)', () => {
-	it('keys revision slots by label, numbering repeats so every key is unique and fits 80 characters', () => {
-		const slot = (label: string) =>
-			({ label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
-		const long = 'L'.repeat(80);
+	it('keys revision slots by their own key, whatever their labels (repeats included)', () => {
+		const slot = (slotKey: string, label: string) =>
+			({ slotKey, label, category: 'storage', pickPartId: 1, quantity: 1 }) as never;
 		const keys = keyedRevisionSlots([
-			slot('Storage'),
-			slot('CPU'),
-			slot('Storage'),
-			slot(long),
-			slot(long)
+			slot('k-1', 'Storage'),
+			slot('k-2', 'CPU'),
+			slot('k-3', 'Storage')
 		]).map((k) => k.key);
+		expect(keys).toEqual(['k-1', 'k-2', 'k-3']);
+	});
+
+	it('the migrations still know the old label rule, to give existing rows their keys', () => {
+		const long = 'L'.repeat(80);
+		const keys = labelKeys(['Storage', 'CPU', 'Storage', long, long]);
 		expect(keys).toEqual(['Storage', 'CPU', 'Storage (2)', long, `${'L'.repeat(76)} (2)`]);
 		expect(keys.every((k) => k.length <= 80)).toBe(true);
 	});

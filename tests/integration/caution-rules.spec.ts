@@ -11,6 +11,7 @@ import * as guideBrowse from '../../src/lib/server/services/guide-browse';
 import * as guides from '../../src/lib/server/services/guides';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { countRows, resetDatabase } from '../support/db';
+import * as guidePrices from '../../src/lib/server/services/guide-prices';
 
 /*
  * Pairing cautions on the real MariaDB: CRUD with field messages and audit rows in the
@@ -323,6 +324,8 @@ describe('caution rules service', () => {
 	it('the demo rules fire on no demo guide pick or alternate, so the demo fit reports stay as before', async () => {
 		await seedDemoCommunity(sequelize);
 		await seedDemoCautionRules({ context: sequelize } as never);
+		// The community seeder alone stores no list figures; the seeder chain does this step.
+		await guidePrices.refreshAll();
 		expect(await cautions.activeRules()).toHaveLength(DEMO_CAUTION_RULES.length);
 		const messages = new Set(DEMO_CAUTION_RULES.map((r) => r.message));
 		const cards = await guideBrowse.listPublished();

@@ -116,20 +116,22 @@ describe('content reports on the real MariaDB', () => {
 		expect(await ContentReport.count({ where: { reporterId: admin.id } })).toBe(1);
 	});
 
-	it('refuses own content, unknown guides, and subject types that do not exist yet', async () => {
+	it('refuses own content, unknown guides and unknown photos', async () => {
 		expect(await contentReports.report(author.id, 'guide', SLUG, input)).toMatchObject({
 			kind: 'conflict'
 		});
 		expect(await contentReports.report(reader.id, 'guide', 'no-such-guide', input)).toEqual({
 			kind: 'not_found'
 		});
-		const photo = await contentReports.report(reader.id, 'photo', '1', input);
-		expect(photo).toMatchObject({
-			kind: 'conflict',
-			message: expect.stringContaining('photos are not open yet')
+		// Photos of finished builds are reportable now (tests/integration/build-photos.spec.ts); this id
+		// names none (the demo seed has photos of its own, with low ids).
+		expect(await contentReports.report(reader.id, 'photo', '999999', input)).toEqual({
+			kind: 'not_found'
 		});
-		expect(await contentReports.hide(editor.id, { type: 'photo', id: '1' }, REASON)).toMatchObject({
-			kind: 'conflict'
+		expect(
+			await contentReports.hide(editor.id, { type: 'photo', id: '999999' }, REASON)
+		).toMatchObject({
+			kind: 'not_found'
 		});
 		expect(await countRows('content_reports')).toBe(0);
 	});

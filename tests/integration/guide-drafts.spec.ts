@@ -5,6 +5,7 @@ import type { DraftFields, DraftInput } from '../../src/lib/schemas/guide-editor
 import {
 	FrameResult,
 	Guide,
+	GuidePriceProposal,
 	GuideRevision,
 	GuideSlot,
 	Part,
@@ -154,17 +155,20 @@ describe('guide drafts on the real MariaDB', () => {
 			amount: '199.99',
 			observedAt: '2026-11-20'
 		});
-		const quote = await Quote.findOne({ where: { partId: parts.cpu?.id } });
-		expect(quote).toMatchObject({ source: 'author', currency: 'USD', taxIncluded: false });
-		expect(Number(quote?.amountMinor)).toBe(19999);
+		// A typed price is a proposal of the draft, never a quote (issue 12, item 2).
+		expect(await Quote.count({ where: { partId: parts.cpu?.id } })).toBe(0);
+		const proposal = await GuidePriceProposal.findOne({ where: { partId: parts.cpu?.id } });
+		expect(proposal).toMatchObject({ currency: 'USD', taxIncluded: false, position: 1 });
+		expect(Number(proposal?.amountMinor)).toBe(19999);
 		expect(view?.buildNotes.firmware).toBe('- Update firmware');
 		expect(view?.buildNotes.display).toBe('Use DisplayPort.');
 		expect(view?.buildNotesHtml).toContain('<h2>Firmware setup checklist</h2>');
 		expect(view?.buildNotesHtml).not.toContain('Cable routing'); // empty sections are left out
 
-		// Saving again with the same quote reuses it; slots are replaced, not appended.
+		// Saving again replaces the proposals and slots, not appends to them.
 		await draftEdits.saveDraft(author.id, slug, draft(), version + 1);
-		expect(await countRows('quotes')).toBe(1);
+		expect(await countRows('quotes')).toBe(0);
+		expect(await countRows('guide_price_proposals')).toBe(1);
 		expect(await countRows('guide_slots')).toBe(2);
 		expect(await countRows('slot_alternates')).toBe(2);
 	});
@@ -185,7 +189,7 @@ describe('guide drafts on the real MariaDB', () => {
 		if (stale.kind !== 'conflict') return;
 		expect(stale.current.title).toBe('Saved in tab one');
 		expect(stale.current.version).toBe(version + 1);
-		expect((await Guide.findOne({ where: { slug } }))?.title).toBe('Saved in tab one');
+		expect((await drafts.getDraft(author.id, slug))?.title).toBe('Saved in tab one');
 	});
 
 	it('lets two saves with the same version race: exactly one wins', async () => {

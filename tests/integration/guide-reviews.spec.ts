@@ -39,6 +39,8 @@ async function freshDemo() {
 	if (!demo) throw new Error('demo guide missing');
 	slotsOfDemo = draftInput.shape.slots.parse(
 		demo.slots.map((s) => ({
+			// Saved again with its key, a slot stays the same slot in the next revision.
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: s.quantity,
@@ -162,7 +164,9 @@ describe('review workflow', () => {
 		expect(card?.changedSinceDecision?.slots).toEqual([
 			{
 				kind: 'changed',
+				key: slotsOfDemo[0]?.slotKey,
 				label: 'CPU',
+				renamedFrom: null,
 				fields: [
 					{
 						field: 'reason',

@@ -5,6 +5,7 @@ import { seeder } from '../../src/lib/server/db/seeders';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { demoGuides } from '../../src/lib/server/db/seeders/demo-data';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
+import * as guidePrices from '../../src/lib/server/services/guide-prices';
 import * as guides from '../../src/lib/server/services/guides';
 import { resetDatabase } from '../support/db';
 
@@ -12,6 +13,8 @@ describe('guides service on the real MariaDB', () => {
 	beforeAll(async () => {
 		await resetDatabase();
 		await seedDemoCommunity(sequelize);
+		// The community seeder alone does not store list figures (the seeder chain does).
+		await guidePrices.refreshAll();
 	});
 
 	it('lists every published demo guide with its base region and budget', async () => {

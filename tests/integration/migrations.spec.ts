@@ -56,7 +56,7 @@ describe('migrations on the real MariaDB', () => {
 		await resetDatabase();
 		await expect(
 			sequelize.query(
-				"INSERT INTO guide_slots (revision_id, category, label, position, quantity, pick_part_id, reason, created_at, updated_at) VALUES (999, 'cpu', 'CPU', 1, 1, 999, 'x', NOW(), NOW())",
+				"INSERT INTO guide_slots (revision_id, slot_key, category, label, position, quantity, pick_part_id, reason, created_at, updated_at) VALUES (999, UUID(), 'cpu', 'CPU', 1, 1, 999, 'x', NOW(), NOW())",
 				{ type: QueryTypes.INSERT }
 			)
 		).rejects.toThrow(/foreign key constraint/i);

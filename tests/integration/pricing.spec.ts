@@ -9,7 +9,9 @@
  * (docs/sources.md 11c, M). Germany's storage factor 1.04 is the fixture's own. Every
  * expected amount below is worked by hand, rounded half-even to the cent once (D).
  */
-import { beforeAll, describe, expect, it } from 'vitest';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import {
 	FxRate,
 	Guide,
@@ -24,7 +26,11 @@ import {
 	sequelize
 } from '../../src/lib/server/db';
 import type { PartCategory } from '../../src/lib/domain/types';
+import * as catalogStores from '../../src/lib/server/services/catalog-stores';
+import * as fxService from '../../src/lib/server/services/fx';
 import * as guideBrowse from '../../src/lib/server/services/guide-browse';
+import * as guidePrices from '../../src/lib/server/services/guide-prices';
+import * as guideReviews from '../../src/lib/server/services/guide-reviews';
 import * as guides from '../../src/lib/server/services/guides';
 import { priceRevisions } from '../../src/lib/server/services/pricing';
 import { resetDatabase } from '../support/db';
@@ -239,6 +245,9 @@ describe('the pricing service on the real MariaDB', () => {
 	beforeAll(async () => {
 		await resetDatabase();
 		fx = await createFixture();
+		// The fixture publishes behind the review service's back: store the list figures as
+		// approval does (lists read guide_region_prices).
+		await guidePrices.refreshAll();
 	});
 
 	it('prices several revisions in their base regions in one call, by hand', async () => {
@@ -328,25 +337,47 @@ describe('the pricing service on the real MariaDB', () => {
 
 	it('browses in a region with the same queries for two guides as for three', async () => {
 		const query = { region: 'de', tag: [], sort: 'total' as const, page: 1 };
+		// Warmed first: regions and the tag list are cached, so both counts are the list query.
+		await guideBrowse.browse(query);
 		const two = await countQueries(() => guideBrowse.browse(query));
-		const source = await Guide.findOne({ where: { slug: 'compact-home-desk' } });
-		const third = await Guide.create({
-			slug: 'compact-home-desk-copy',
-			authorId: source?.authorId ?? null,
-			title: 'Copy',
-			summary: 'Same revision as the compact guide.',
-			targetBudgetMinor: 100000,
-			baseRegionId: fx.regions.jp.id,
-			state: 'published',
-			publishedRevisionId: fx.revisions.compact
-		});
+		// A third guide with a revision of its own (a revision belongs to one guide), published
+		// and stored as approval does.
+		const [large, os, author] = await Promise.all([
+			Part.findOne({ where: { model: 'Drift 2TB' } }),
+			Part.findOne({ where: { model: 'OS Home' } }),
+			User.findOne({ where: { email: 'pricing-author@example.test' } })
+		]);
+		if (!large || !os || !author) throw new Error('fixture missing');
+		const thirdRevision = await publishedGuide('compact-home-desk-copy', author.id, fx.regions.jp, [
+			{
+				category: 'storage',
+				label: 'Storage',
+				quantity: 1,
+				pick: large,
+				chosen: null,
+				alternates: []
+			},
+			{
+				category: 'os',
+				label: 'Operating system',
+				quantity: 1,
+				pick: os,
+				chosen: null,
+				alternates: []
+			}
+		]);
+		await guidePrices.refreshRevisions([thirdRevision]);
+		const third = await Guide.findOne({ where: { slug: 'compact-home-desk-copy' } });
 		try {
+			await guideBrowse.browse(query);
 			const three = await countQueries(() => guideBrowse.browse(query));
 			const items = three.result.kind === 'ok' ? three.result.result.items : [];
 			expect(items).toHaveLength(3);
 			expect(three.queries.length).toBe(two.queries.length);
+			// One query: the page of stored rows with its count.
+			expect(three.queries.length).toBe(1);
 		} finally {
-			await third.destroy();
+			await third?.destroy();
 		}
 	});
 
@@ -372,5 +403,111 @@ describe('the pricing service on the real MariaDB', () => {
 				{ where: { slug: 'quiet-office-tower' } }
 			);
 		}
+	});
+});
+
+/*
+ * The stored list figures (guide_region_prices) follow their inputs: a rates refresh, an
+ * accepted quote and a published revision each change the total browse shows, and the new
+ * figure is the one worked by hand here. Same fixture and rules as above.
+ */
+describe('stored list figures on the real MariaDB', () => {
+	let editorId = '';
+	const server = createServer((_req, res) => {
+		// Test input, invented for this check: a later day on which the dollar stands at 1.2000
+		// and the yen at 160.00 per euro, in the ECB file's layout (docs/sources.md 10c).
+		res.writeHead(200, { 'content-type': 'text/xml' }).end(
+			`<?xml version="1.0" encoding="UTF-8"?>
+<gesmes:Envelope xmlns:gesmes="http://www.gesmes.org/xml/2002-08-01" xmlns="http://www.ecb.int/vocabulary/2002-08-01/eurofxref">
+<Cube><Cube time='2024-01-03'><Cube currency='USD' rate='1.2000'/><Cube currency='JPY' rate='160.00'/></Cube></Cube>
+</gesmes:Envelope>`
+		);
+	});
+
+	beforeAll(async () => {
+		await resetDatabase();
+		fx = await createFixture();
+		await guidePrices.refreshAll();
+		const editor = await User.create({
+			email: 'prices-editor@example.test',
+			name: 'Ola Brandt',
+			role: 'editor'
+		});
+		editorId = editor.id;
+		await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+	});
+
+	afterAll(() => new Promise<void>((resolve) => server.close(() => resolve())));
+
+	async function storedTotal(region: string, slug: string) {
+		const outcome = await guideBrowse.browse({ region, tag: [], sort: 'total', page: 1 });
+		if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+		return outcome.result.items.find((g) => g.slug === slug)?.picksTotal ?? null;
+	}
+
+	it('changes the stored German total of the office guide when the rates are refreshed', async () => {
+		// Before: €97.06, worked by hand above (ECB 2 Jan 2024, docs/sources.md 10c).
+		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9706));
+		const { port } = server.address() as AddressInfo;
+		await fxService.refresh({ url: `http://127.0.0.1:${port}/eurofxref-daily.xml` });
+		// After: small drive still quoted €69.90; fan from $12.50 at 1.2000 with 19 % VAT:
+		// 12.50 / 1.2000 × 1.19 = 12.3958… → €12.40, × 2 = €24.80. Total €69.90 + €24.80 = €94.70.
+		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9470));
+	});
+
+	it('changes the stored German total when an editor accepts a German quote for the fan', async () => {
+		const store = await Store.findOne({ where: { name: 'Lindenwerk Technik' } });
+		const fan = await Part.findOne({ where: { model: 'Breeze 120' } });
+		const added = await catalogStores.addQuote(editorId, {
+			partSlug: fan?.slug,
+			storeId: String(store?.id),
+			amount: '11.90',
+			taxIncluded: 'on',
+			observedOn: '2024-06-02'
+		});
+		expect(added.kind).toBe('ok');
+		// The fan is now quoted in Germany at €11.90 with VAT: 2 × €11.90 = €23.80, + €69.90
+		// for the small drive = €93.70 (no estimate left for the fan).
+		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9370));
+	});
+
+	it('stores the new revision’s totals when an editor publishes it', async () => {
+		const guide = await Guide.findOne({ where: { slug: 'quiet-office-tower' } });
+		const large = await Part.findOne({ where: { model: 'Drift 2TB' } });
+		const revision = await GuideRevision.create({
+			guideId: guide?.id ?? 0,
+			number: 2,
+			buildNotesMd: '',
+			buildNotesHtml: '',
+			submittedAt: new Date(),
+			reviewedAt: null,
+			publishedAt: null,
+			reviewerId: null,
+			reviewNote: null
+		});
+		// Revision 2: only the large drive, no chosen quote.
+		await GuideSlot.create({
+			revisionId: revision.id,
+			category: 'storage',
+			label: 'Storage',
+			position: 1,
+			quantity: 1,
+			pickPartId: large?.id ?? 0,
+			reason: 'Fixture pick.',
+			priceQuoteId: null
+		});
+		const outcome = await guideReviews.decide(
+			{ id: editorId, role: 'editor' },
+			revision.id,
+			{ decision: 'approve', note: '', slotNotes: [] },
+			{ guidesUrl: 'http://slotwise.test/guides' }
+		);
+		expect(outcome.kind).toBe('ok');
+		// Base region (US): the large drive's latest US quote, $139.99.
+		expect(await storedTotal('us', 'quiet-office-tower')).toEqual(usd(13999));
+		// Germany: no German quote for the large drive; estimated from $139.99 at the refreshed
+		// 1.2000 with the storage factor 1.04 and 19 % VAT: 139.99 / 1.2000 × 1.04 × 1.19
+		// = 144.3763… → €144.38.
+		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(14438));
 	});
 });

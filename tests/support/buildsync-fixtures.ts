@@ -59,6 +59,7 @@ export async function forkBuild(
 }
 
 export interface SlotEdit {
+	/** In `change`: a new label for the slot (a rename); in `add`: the new slot's label. */
 	label: string;
 	category?: string;
 	pickSlug?: string;
@@ -71,7 +72,7 @@ export interface SlotEdit {
  */
 export async function publishRevision(
 	guide: Guide,
-	change: Record<string, Omit<SlotEdit, 'label'> | null>,
+	change: Record<string, Partial<SlotEdit> | null>,
 	add: SlotEdit[] = []
 ): Promise<GuideRevision> {
 	const current = (await GuideRevision.findByPk(guide.publishedRevisionId!)) as GuideRevision;
@@ -101,8 +102,10 @@ export async function publishRevision(
 		const pickPartId = edit?.pickSlug ? await partId(edit.pickSlug) : s.pickPartId;
 		const slot = await GuideSlot.create({
 			revisionId: revision.id,
+			// The same slot in the new revision: it keeps its key, as the editor carries it.
+			slotKey: s.slotKey,
 			category: s.category,
-			label: s.label,
+			label: edit?.label ?? s.label,
 			position: position++,
 			quantity: edit?.quantity ?? s.quantity,
 			pickPartId,
@@ -147,15 +150,93 @@ export async function slotRows(buildId: number) {
 			['id', 'ASC']
 		]
 	})) as (BuildSlot & { part: Part })[];
+	// Keys are random; a source slot is named by its label in the guide's newest revision.
+	const keys = slots.map((s) => s.sourceSlotKey).filter((k): k is string => k !== null);
+	const sources = await GuideSlot.findAll({
+		where: { slotKey: keys },
+		include: [{ model: GuideRevision, as: 'revision', attributes: ['number'] }]
+	});
+	const labelOf = new Map<string, { label: string; number: number }>();
+	for (const g of sources as (GuideSlot & { revision: GuideRevision })[]) {
+		const seen = labelOf.get(g.slotKey);
+		if (!seen || seen.number < g.revision.number)
+			labelOf.set(g.slotKey, { label: g.label, number: g.revision.number });
+	}
 	return slots.map((s) => ({
 		id: s.id,
 		label: s.label,
 		sourceSlotKey: s.sourceSlotKey,
+		/** The label of the source slot it is linked to; null for the reader's own slots. */
+		source: s.sourceSlotKey === null ? null : (labelOf.get(s.sourceSlotKey)?.label ?? '?'),
 		part: s.part.slug,
 		quantity: s.quantity,
 		position: s.position,
 		origin: s.origin,
 		purchased: s.purchased,
 		priceOverrideMinor: s.priceOverrideMinor === null ? null : Number(s.priceOverrideMinor)
+	}));
+}
+
+/** One slot of a revision published with `publishSlots`. */
+export interface PublishedSlot {
+	/** The slot's own key: the key of an earlier revision's slot to carry it on; absent for a new slot. */
+	slotKey?: string;
+	label: string;
+	category: GuideSlot['category'];
+	pickSlug: string;
+	quantity?: number;
+}
+
+/**
+ * Publishes a new revision holding exactly `slots`, in that order (as an approval would),
+ * for tests that need slots the label-keyed `publishRevision` cannot tell apart.
+ */
+export async function publishSlots(guide: Guide, slots: PublishedSlot[]): Promise<GuideRevision> {
+	const current = (await GuideRevision.findByPk(guide.publishedRevisionId!)) as GuideRevision;
+	const latest = (await GuideRevision.max('number', { where: { guideId: guide.id } })) as number;
+	const now = new Date();
+	const revision = await GuideRevision.create({
+		guideId: guide.id,
+		number: latest + 1,
+		buildNotesMd: current.buildNotesMd,
+		buildNotesHtml: current.buildNotesHtml,
+		submittedAt: now,
+		reviewedAt: now,
+		publishedAt: now,
+		reviewerId: null,
+		reviewNote: null,
+		decision: 'approve'
+	});
+	for (const [i, s] of slots.entries()) {
+		await GuideSlot.create({
+			revisionId: revision.id,
+			...(s.slotKey ? { slotKey: s.slotKey } : {}),
+			category: s.category,
+			label: s.label,
+			position: i + 1,
+			quantity: s.quantity ?? 1,
+			pickPartId: await partId(s.pickSlug),
+			reason: 'Published by the test.',
+			priceQuoteId: null
+		});
+	}
+	await Guide.update({ publishedRevisionId: revision.id }, { where: { id: guide.id } });
+	await guide.reload();
+	return revision;
+}
+
+/** A revision's slots in position order, with their pick's slug. */
+export async function revisionSlots(revisionId: number) {
+	const slots = (await GuideSlot.findAll({
+		where: { revisionId },
+		include: [{ model: Part, as: 'pick' }],
+		order: [['position', 'ASC']]
+	})) as (GuideSlot & { pick: Part })[];
+	return slots.map((s) => ({
+		slotKey: s.slotKey,
+		label: s.label,
+		category: s.category,
+		pickSlug: s.pick.slug,
+		quantity: s.quantity
 	}));
 }

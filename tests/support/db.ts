@@ -1,6 +1,7 @@
 /* Row-level reset between integration tests: the schema stays, every table is emptied. */
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../src/lib/server/db';
+import { invalidateReferenceCaches } from '../../src/lib/server/services/reference-cache';
 
 // The seeder log is emptied too: with the rows gone, no seeder has run.
 const KEEP = new Set(['schema_migrations']);
@@ -19,6 +20,8 @@ export async function resetDatabase(): Promise<void> {
 		}
 		await sequelize.query('SET FOREIGN_KEY_CHECKS = 1', { type: QueryTypes.RAW, transaction });
 	});
+	// TRUNCATE bypasses the model hooks that keep the in-process caches current.
+	invalidateReferenceCaches();
 }
 
 export async function countRows(table: string): Promise<number> {

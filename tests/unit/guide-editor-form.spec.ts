@@ -52,6 +52,31 @@ function posted(fields: Record<string, string>): FormData {
 }
 
 describe('guide editor form', () => {
+	it('round-trips a slot’s own key through the hidden field; a new slot posts none', () => {
+		const key = '3f1c2a9e-7b4d-4c8e-9a6f-2d5b8e1c0a47';
+		const read = readEditorForm(
+			posted({
+				'slots.0.slotKey': key,
+				'slots.1.key': 'n',
+				'slots.1.slotKey': '',
+				'slots.1.category': 'case',
+				'slots.1.label': 'L',
+				'slots.1.quantity': '1',
+				'slots.1.pickPartId': '6',
+				'slots.1.reason': 'R'
+			})
+		).draft;
+		expect(read.slots.map((s) => s.slotKey)).toEqual([key, '']);
+		const input = draftInput.parse(toInput(read));
+		expect(input.slots.map((s) => s.slotKey)).toEqual([key, null]);
+		// Two slots posting one key would be one slot twice.
+		const twice = draftInput.safeParse(
+			toInput({ ...read, slots: read.slots.map((s) => ({ ...s, slotKey: key })) })
+		);
+		expect(twice.success).toBe(false);
+		expect(twice.error?.issues.map((i) => i.path.join('.'))).toEqual(['slots.1.slotKey']);
+	});
+
 	it('applies the no-JS operations the same way the buttons do', () => {
 		expect(applyOp(base, 'slotDown:0').slots.map((s) => s.key)).toEqual(['b', 'a']);
 		expect(applyOp(base, 'slotUp:0').slots.map((s) => s.key)).toEqual(['a', 'b']); // first stays first

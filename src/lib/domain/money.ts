@@ -101,17 +101,36 @@ export function split(m: Money, ratios: number[]): Money[] {
 }
 
 /**
+ * Formatters by locale and currency. Building an Intl.NumberFormat costs about a hundred
+ * formats, and a guide page formats dozens of amounts, so each is built once per process.
+ * The set of locales × currencies is small (regions are few), so the cache stays tiny.
+ */
+const moneyFormatters = new Map<string, Intl.NumberFormat>();
+
+function moneyFormatter(locale: string, currency: string, digits: number): Intl.NumberFormat {
+	const key = `${locale}|${currency}`;
+	let formatter = moneyFormatters.get(key);
+	if (!formatter) {
+		formatter = new Intl.NumberFormat(locale, {
+			style: 'currency',
+			currency,
+			minimumFractionDigits: digits,
+			maximumFractionDigits: digits
+		});
+		moneyFormatters.set(key, formatter);
+	}
+	return formatter;
+}
+
+/**
  * Locale formatting for display; amounts stay integers until this point. Intl formats the
  * exact decimal string (never a float), so amounts past 2^53 / 10^digits stay exact too.
  */
 export function formatMoney(m: Money, locale = 'en-GB'): string {
 	const digits = minorUnitDigits(m.currency);
-	return new Intl.NumberFormat(locale, {
-		style: 'currency',
-		currency: m.currency,
-		minimumFractionDigits: digits,
-		maximumFractionDigits: digits
-	}).format(minorToDecimal(m.amountMinor, m.currency) as Intl.StringNumericLiteral);
+	return moneyFormatter(locale, m.currency, digits).format(
+		minorToDecimal(m.amountMinor, m.currency) as Intl.StringNumericLiteral
+	);
 }
 
 /** Signed formatting for deltas ("+€12.00", "−€5.50"). */

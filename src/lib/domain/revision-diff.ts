@@ -14,7 +14,11 @@ export interface AlternateSnapshot {
 }
 
 export interface SlotSnapshot {
-	/** Slots are matched across revisions by label ("Storage 2"), which is unique within a revision. */
+	/**
+	 * The slot's own key, unique within a revision and the same in every revision that has
+	 * the slot: slots are matched by it, so a renamed slot is the same slot. Labels may repeat.
+	 */
+	key: string;
 	label: string;
 	category: string;
 	pick: { id: number; name: string };
@@ -45,9 +49,17 @@ export interface AlternateChange {
 }
 
 export type SlotChange =
-	| { kind: 'added'; label: string; pick: string; quantity: number }
-	| { kind: 'removed'; label: string; pick: string; quantity: number }
-	| { kind: 'changed'; label: string; fields: FieldChange[]; alternates: AlternateChange[] };
+	| { kind: 'added'; key: string; label: string; pick: string; quantity: number }
+	| { kind: 'removed'; key: string; label: string; pick: string; quantity: number }
+	| {
+			kind: 'changed';
+			key: string;
+			label: string;
+			/** The label in revision `a` when the author renamed the slot; null otherwise. */
+			renamedFrom: string | null;
+			fields: FieldChange[];
+			alternates: AlternateChange[];
+	  };
 
 export interface TextLine {
 	kind: 'same' | 'added' | 'removed';
@@ -93,18 +105,23 @@ function splitLines(value: string): string[] {
 	return lines;
 }
 
-/** Differences from revision `a` to revision `b`, in `b`'s slot order (removed slots last). */
+/**
+ * Differences from revision `a` to revision `b`, in `b`'s slot order (removed slots last).
+ * Slots are matched by key; a new position alone (a reorder) is not a change.
+ */
 export function revisionDiff(a: RevisionSnapshot, b: RevisionSnapshot): RevisionDiff {
-	const before = new Map(a.slots.map((s) => [s.label, s]));
-	const afterLabels = new Set(b.slots.map((s) => s.label));
+	const before = new Map(a.slots.map((s) => [s.key, s]));
+	const afterKeys = new Set(b.slots.map((s) => s.key));
 	const slots: SlotChange[] = [];
 
 	for (const s of b.slots) {
-		const o = before.get(s.label);
+		const o = before.get(s.key);
 		if (!o) {
-			slots.push({ kind: 'added', label: s.label, pick: s.pick.name, quantity: s.quantity });
+			const { key, label, quantity } = s;
+			slots.push({ kind: 'added', key, label, pick: s.pick.name, quantity });
 			continue;
 		}
+		const renamedFrom = o.label !== s.label ? o.label : null;
 		const fields: FieldChange[] = [];
 		if (o.pick.id !== s.pick.id) fields.push({ field: 'pick', from: o.pick.name, to: s.pick.name });
 		if (o.quantity !== s.quantity)
@@ -114,12 +131,14 @@ export function revisionDiff(a: RevisionSnapshot, b: RevisionSnapshot): Revision
 			fields.push({ field: 'price', from: o.price ?? 'no quote', to: s.price ?? 'no quote' });
 		}
 		const alternates = diffAlternates(o.alternates, s.alternates);
-		if (fields.length > 0 || alternates.length > 0)
-			slots.push({ kind: 'changed', label: s.label, fields, alternates });
+		if (fields.length > 0 || alternates.length > 0 || renamedFrom !== null)
+			slots.push({ kind: 'changed', key: s.key, label: s.label, renamedFrom, fields, alternates });
 	}
 	for (const o of a.slots) {
-		if (!afterLabels.has(o.label))
-			slots.push({ kind: 'removed', label: o.label, pick: o.pick.name, quantity: o.quantity });
+		if (!afterKeys.has(o.key)) {
+			const { key, label, quantity } = o;
+			slots.push({ kind: 'removed', key, label, pick: o.pick.name, quantity });
+		}
 	}
 
 	const notesChanged = a.buildNotesMd !== b.buildNotesMd;

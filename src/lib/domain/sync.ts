@@ -2,12 +2,13 @@
  * Drift and sync (docs/architecture.md "Computations" §9): a build against the guide revision it was
  * forked from (the base) and a newer published revision of that guide (upstream).
  *
- * Slot key: every guide slot carries a `key` string that is unique within a revision and
- * stays the same from one revision to the next (the service uses the slot's label, which
- * revision-diff also matches on). A build slot records the key of the source slot it came
- * from in `sourceKey`; slots the reader added have `sourceKey: null`. Matching is by key
- * only, never by position or row id, so reordering slots on either side changes nothing,
- * and new slot rows in each revision (new ids) do not break the link.
+ * Slot key: every guide slot carries a `key` that is unique within a revision and stays the
+ * same from one revision to the next (the slot's own identity, made when the author first
+ * adds it; revision-diff matches on it too). A build slot records the key of the source slot
+ * it came from in `sourceKey`; slots the reader added have `sourceKey: null`. Matching is by
+ * key only, never by label, position or row id: a renamed slot is still the same slot, labels
+ * may repeat, reordering on either side changes nothing, and new slot rows in each revision
+ * (new ids) do not break the link.
  *
  * Compared content: part id AND quantity. A change of quantity (two fan packs instead of
  * three) changes what the reader buys and pays, so it counts as a change like a swap.
@@ -16,21 +17,6 @@
  *
  * Pure: plain inputs, plain outputs, no framework or database imports.
  */
-
-/**
- * Keys for a revision's slots, in order: the label, numbered from the second time a label
- * repeats ("Storage", "Storage (2)"), kept within the 80 characters a key column holds.
- */
-export function slotKeys(labels: readonly string[]): string[] {
-	const seen = new Map<string, number>();
-	return labels.map((label) => {
-		const n = (seen.get(label) ?? 0) + 1;
-		seen.set(label, n);
-		if (n === 1) return label;
-		const suffix = ` (${n})`;
-		return `${label.slice(0, 80 - suffix.length)}${suffix}`;
-	});
-}
 
 /** What is compared per slot. */
 export interface SlotContent {

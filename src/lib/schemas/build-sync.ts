@@ -26,7 +26,7 @@ const budget = z.union(
 	{ error: BUDGET_MESSAGE }
 );
 
-/** Row ids as the sync table gives them: `source:<slot label>` or `local:<build slot id>`. */
+/** Row ids as the sync table gives them: `source:<source slot key>` or `local:<build slot id>`. */
 const rowId = z
 	.string()
 	.regex(/^(source:.{1,80}|local:[1-9][0-9]{0,9})$/, 'Unknown row in the sync table.');

@@ -213,3 +213,19 @@ export const buildQuery = z.strictObject({
 	region: regionCode.optional()
 });
 export type BuildQuery = z.infer<typeof buildQuery>;
+
+// ---------------------------------------------------------------------------------------------
+// Deleting a build
+// ---------------------------------------------------------------------------------------------
+
+/** Deleting a build is for good: the page's form asks the owner to tick a confirmation first. */
+export const deleteBuildInput = z.strictObject({
+	confirm: z.literal('yes', {
+		error: 'Tick the box to confirm: a deleted build cannot be restored.'
+	})
+});
+
+/** The delete form posts its confirmation box as `confirm`. */
+export function deleteBuildForm(f: FormReader) {
+	return { confirm: f.text('confirm') };
+}

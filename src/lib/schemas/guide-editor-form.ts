@@ -1,7 +1,15 @@
 import type { PartCategory } from '$lib/domain/types';
 import { DRAFT_LIMITS } from './guide-editor';
 import type { BuildNotesInput } from './guide-editor';
+import {
+	applyGalleryOp,
+	galleryFromDraft,
+	galleryToInput,
+	GALLERY_SHOWN_FIELD
+} from './gallery-form';
+import type { EditorGalleryItem } from './gallery-form';
 import { FORM_ISSUES_KEY, type Issues } from './issues';
+import { GALLERY_MAX_PHOTOS } from './photos';
 import { wholeNumberFromText } from './primitives';
 
 /*
@@ -19,7 +27,10 @@ export interface EditorAlternate {
 }
 
 export interface EditorSlot {
+	/** Keys the editor's rows; the slot's own key when it has one. */
 	key: string;
+	/** The slot's own key (guide_slots.slot_key), round-tripped as a hidden field; '' for a new slot. */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	quantity: string;
@@ -65,6 +76,8 @@ export interface EditorDraft {
 	slots: EditorSlot[];
 	frames: EditorFrame[];
 	thermals: EditorThermal[];
+	/** Photos in order (gallery-form.ts); undefined when the form had no gallery section. */
+	gallery?: EditorGalleryItem[];
 }
 
 /** The subset of the stored draft (services/guide-drafts DraftView) the editor starts from. */
@@ -79,6 +92,7 @@ export interface DraftLike {
 	walkthroughUrl: string | null;
 	buildNotes: BuildNotesInput;
 	slots: {
+		slotKey: string;
 		category: PartCategory;
 		label: string;
 		quantity: number;
@@ -102,6 +116,7 @@ export interface DraftLike {
 		cpuUtilPct: number | null;
 		gpuUtilPct: number | null;
 	}[];
+	gallery?: { photoId: number; stage: string; caption: string; altText: string }[];
 }
 
 let counter = 0;
@@ -113,6 +128,7 @@ export function newKey(): string {
 export function emptySlot(category: PartCategory = 'cpu', key = newKey()): EditorSlot {
 	return {
 		key,
+		slotKey: '',
 		category,
 		label: '',
 		quantity: '1',
@@ -150,8 +166,9 @@ export function fromDraft(d: DraftLike): EditorDraft {
 		disclosureNote: d.disclosureNote ?? '',
 		walkthroughUrl: d.walkthroughUrl ?? '',
 		buildNotes: { ...d.buildNotes },
-		slots: d.slots.map((s, i) => ({
-			key: `s${i}`,
+		slots: d.slots.map((s) => ({
+			key: s.slotKey,
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: String(s.quantity),
@@ -161,7 +178,7 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			quoteAmount: s.priceQuote?.amount ?? '',
 			quoteObservedAt: s.priceQuote?.observedAt ?? '',
 			alternates: s.alternates.map((a, j) => ({
-				key: `s${i}a${j}`,
+				key: `${s.slotKey}a${j}`,
 				partId: String(a.partId),
 				reasonTag: a.reasonTag,
 				note: a.note
@@ -183,25 +200,28 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			gpuTempC: reading(t.gpuTempC),
 			cpuUtilPct: reading(t.cpuUtilPct),
 			gpuUtilPct: reading(t.gpuUtilPct)
-		}))
+		})),
+		gallery: galleryFromDraft(d.gallery)
 	};
 }
 
 /**
  * The most rows the editor sends, from draftInput's own limits, and the most fields a form
- * of that size has (a slot is 9 fields plus 4 per alternate; a frame row 7, a thermal row 6;
- * the rest about 30), with room to spare.
+ * of that size has (a slot is 10 fields plus 4 per alternate; a frame row 7, a thermal row 6;
+ * a photo 4; the rest about 30: 2,601 in all), with room to spare.
  */
 export const EDITOR_FORM_LIMITS = {
 	slots: DRAFT_LIMITS.slots,
 	alternates: DRAFT_LIMITS.alternatesPerSlot,
 	frames: DRAFT_LIMITS.frames,
 	thermals: DRAFT_LIMITS.thermals,
+	gallery: GALLERY_MAX_PHOTOS,
 	fields: 3000
 } as const;
 
 const SLOT_FIELDS = [
 	'key',
+	'slotKey',
 	'category',
 	'label',
 	'quantity',
@@ -229,6 +249,7 @@ const THERMAL_FIELDS = [
 	'cpuUtilPct',
 	'gpuUtilPct'
 ] as const;
+const GALLERY_FIELDS = ['photoId', 'stage', 'caption', 'altText'] as const;
 const META_FIELDS = [
 	'title',
 	'summary',
@@ -289,6 +310,7 @@ export function readEditorForm(data: FormData): {
 	const alternates = new Map<number, Rows>();
 	const frames = new Rows(EDITOR_FORM_LIMITS.frames);
 	const thermals = new Rows(EDITOR_FORM_LIMITS.thermals);
+	const gallery = new Rows(EDITOR_FORM_LIMITS.gallery);
 	const set = (row: Row | null, field: string, value: string) => {
 		if (row && !(field in row)) row[field] = value;
 	};
@@ -323,6 +345,7 @@ export function readEditorForm(data: FormData): {
 			set(rows.at(Number(altIndex)), altField, value);
 		} else if (list === 'frames' && parts.length === 3) set(frames.at(i), field, value);
 		else if (list === 'thermals' && parts.length === 3) set(thermals.at(i), field, value);
+		else if (list === 'gallery' && parts.length === 3) set(gallery.at(i), field, value);
 	}
 
 	const pick = <F extends string>(row: Row, names: readonly F[]) =>
@@ -348,6 +371,7 @@ export function readEditorForm(data: FormData): {
 	});
 	if (frames.over) issues.frames = [`At most ${EDITOR_FORM_LIMITS.frames} frame results.`];
 	if (thermals.over) issues.thermals = [`At most ${EDITOR_FORM_LIMITS.thermals} thermal results.`];
+	if (gallery.over) issues.gallery = [`At most ${EDITOR_FORM_LIMITS.gallery} photos.`];
 
 	const meta = pick(top, META_FIELDS);
 	return {
@@ -363,7 +387,15 @@ export function readEditorForm(data: FormData): {
 				.map(([i, row]) => ({ ...pick(row, FRAME_FIELDS), key: row.key || `f${i}` })),
 			thermals: thermals
 				.kept('loadName')
-				.map(([i, row]) => ({ ...pick(row, THERMAL_FIELDS), key: row.key || `t${i}` }))
+				.map(([i, row]) => ({ ...pick(row, THERMAL_FIELDS), key: row.key || `t${i}` })),
+			// No gallery section in the form = keep the stored gallery (an empty one = no photos).
+			gallery:
+				GALLERY_SHOWN_FIELD in top
+					? gallery.kept('photoId').map(([, row]) => ({
+							...pick(row, GALLERY_FIELDS),
+							key: `g${row.photoId ?? ''}`
+						}))
+					: undefined
 		},
 		issues,
 		version: wholeNumberFromText(top.version ?? ''),
@@ -394,6 +426,7 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 		walkthroughUrl: d.walkthroughUrl,
 		buildNotes: d.buildNotes,
 		slots: d.slots.map((s) => ({
+			...(s.slotKey ? { slotKey: s.slotKey } : {}),
 			category: s.category,
 			label: s.label,
 			quantity: num(s.quantity),
@@ -423,7 +456,8 @@ export function toInput(d: EditorDraft): Record<string, unknown> {
 			gpuTempC: optNum(t.gpuTempC),
 			cpuUtilPct: optNum(t.cpuUtilPct),
 			gpuUtilPct: optNum(t.gpuUtilPct)
-		}))
+		})),
+		...(d.gallery ? { gallery: galleryToInput(d.gallery) } : {})
 	};
 }
 
@@ -436,6 +470,8 @@ function swap<T>(list: T[], i: number, j: number): T[] {
 
 /** Applies an editor operation (`slotUp:2`, `addAlt:0`, `altDown:1:0`…); unknown ops change nothing. */
 export function applyOp(d: EditorDraft, op: string): EditorDraft {
+	const gallery = applyGalleryOp(d.gallery ?? [], op);
+	if (gallery) return { ...d, gallery };
 	const [name, a = '-1', b = '-1'] = op.split(':');
 	const i = Number(a);
 	const j = Number(b);

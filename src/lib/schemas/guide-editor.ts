@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { galleryInput } from './photos';
 import { ALTERNATE_REASONS, PART_CATEGORIES } from '$lib/domain/types';
 import type { FormReader } from './form-data';
 import { amount, id, pastIsoDate, regionCode, version } from './primitives';
@@ -101,6 +102,15 @@ export const alternateInput = z.strictObject({
 });
 
 export const slotInput = z.strictObject({
+	/*
+	 * The slot's own key, as GET draft and the editor form hand it back; left out for a slot
+	 * the author adds now (the save gives it a new one). Sync and revision diff match slots by
+	 * it, so a renamed slot stays the same slot and labels may repeat.
+	 */
+	slotKey: z
+		.uuid('This slot’s key is not valid: reload the editor and make the change again.')
+		.nullish()
+		.transform((k) => k ?? null),
 	category: z.enum(PART_CATEGORIES, { message: 'Choose a category.' }),
 	label: z.string().trim().min(1, 'Give the slot a label.').max(80),
 	quantity: z
@@ -209,7 +219,21 @@ export const draftInput = z.strictObject({
 	slots: z
 		.array(slotInput)
 		.min(1, 'Add at least one slot.')
-		.max(DRAFT_LIMITS.slots, 'At most 40 slots.'),
+		.max(DRAFT_LIMITS.slots, 'At most 40 slots.')
+		.superRefine((slots, ctx) => {
+			// Two slots with one key would be one slot twice to sync and diff.
+			const seen = new Set<string>();
+			for (const [i, s] of slots.entries()) {
+				if (s.slotKey === null) continue;
+				if (seen.has(s.slotKey))
+					ctx.addIssue({
+						code: 'custom',
+						path: [i, 'slotKey'],
+						message: 'This slot appears twice: reload the editor and make the change again.'
+					});
+				seen.add(s.slotKey);
+			}
+		}),
 	/*
 	 * Left out (API clients that predate results) = keep the stored ones; a new revision then
 	 * copies them from the frozen one. Sent (the editor always sends them) = replace.
@@ -221,7 +245,9 @@ export const draftInput = z.strictObject({
 	thermals: z
 		.array(thermalResultInput)
 		.max(DRAFT_LIMITS.thermals, 'At most 20 thermal results.')
-		.optional()
+		.optional(),
+	/** The photo gallery in order (schemas/photos.ts); left out = keep, like the results above. */
+	gallery: galleryInput.optional()
 });
 export type DraftInput = z.infer<typeof draftInput>;
 /** What the editor form and GET draft hand around before parsing (same shape). */

@@ -55,3 +55,13 @@ export function forkChecks(userId: string): [LimiterName, string][] {
 export function guideCreateChecks(userId: string): [LimiterName, string][] {
 	return [['guideCreateByUser', userId]];
 }
+
+/** Photo uploads count per account (services/photos.ts; every upload route is signed-in only). */
+export function photoUploadChecks(userId: string): [LimiterName, string][] {
+	return [['photoUploadByUser', userId]];
+}
+
+/** Tips count per account: each one opens a checkout session at the payment provider. */
+export function tipChecks(userId: string): [LimiterName, string][] {
+	return [['tipByUser', userId]];
+}

@@ -132,6 +132,20 @@ const POLICIES = {
 		points: 10,
 		durationSeconds: 60 * 60,
 		blockSeconds: 0
+	},
+	/** Photo uploads by one account: 60 per hour (a whole gallery in one sitting, not a flood). */
+	photoUploadByUser: {
+		keyPrefix: 'photo_user',
+		points: 60,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
+	},
+	/** Tips started by one account: 10 per hour (each opens a checkout at the payment provider). */
+	tipByUser: {
+		keyPrefix: 'tip_user',
+		points: 10,
+		durationSeconds: 60 * 60,
+		blockSeconds: 0
 	}
 } as const satisfies Record<string, LimitPolicy>;
 

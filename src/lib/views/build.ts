@@ -87,6 +87,9 @@ export interface ValueView extends ValueSummary {
 }
 
 export interface DriftView {
+	/** Stable within the page: the source slot's key, or the reader's own slot's id. */
+	key: string;
+	/** Display only: labels may repeat. */
 	label: string;
 	kind: 'same' | 'swapped' | 'quantity' | 'added' | 'removed';
 	/** swapped/removed: the source's part ("Brand Model", "× n" when n > 1); quantity: the source's quantity. */

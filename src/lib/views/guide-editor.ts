@@ -6,11 +6,14 @@ import type { PowerBudget } from '$lib/domain/power';
 import type { AlternateReason, PartCategory } from '$lib/domain/types';
 import type { BuildNotesInput, GuideDisclosure, GuideTag } from '$lib/schemas/guide-editor';
 import type { PartRef } from './guide';
+import type { GalleryItem } from './photos';
 
 /** A part as the editor shows it: the same reference every page uses. */
 export type DraftPartRef = PartRef;
 
 export interface DraftSlotView {
+	/** The slot's own key: send it back with the slot so it stays the same slot. */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	quantity: number;
@@ -56,6 +59,8 @@ export interface DraftView {
 	slots: DraftSlotView[];
 	frames: DraftFrameView[];
 	thermals: DraftThermalView[];
+	/** The working revision's photo gallery in order (services/gallery.ts). */
+	gallery: GalleryItem[];
 	version: number;
 	state: string;
 	revisionNumber: number;

@@ -78,6 +78,8 @@ export interface DropInView {
 
 export interface SlotView {
 	id: number;
+	/** The slot's own key, the same in every revision that has the slot (labels may repeat). */
+	slotKey: string;
 	category: PartCategory;
 	label: string;
 	position: number;
@@ -101,6 +103,8 @@ export interface GuideDetail extends GuideCard {
 export interface PricedGuide extends GuideDetail {
 	/** The region the prices are shown in. */
 	region: RegionSummary;
+	/** The target budget in the shown region's currency (itself in the base region); null without a rate. */
+	budgetInRegion: Money | null;
 	/** Every region a reader can switch to. */
 	regions: RegionSummary[];
 	/** How the picks were priced in this region. */
@@ -174,6 +178,8 @@ export interface BrowseItem extends GuideCard {
 	 * null without frame results, without a complete total, or when no region was chosen.
 	 */
 	fpsPer100: number | null;
+	/** The target budget in `pricedIn`'s currency (null without a rate), so a card shows one currency. */
+	budgetInRegion: Money | null;
 }
 
 export interface BrowseResult {

@@ -13,3 +13,4 @@ export type * from './sightings';
 export type * from './regions';
 export type * from './parts';
 export type * from './admin';
+export type * from './photos';

@@ -33,6 +33,8 @@ export interface ReviewLogEntry {
 }
 
 export interface ReviewSlot {
+	/** The slot's own key (guide_slots.slot_key); labels may repeat. */
+	key: string;
 	label: string;
 	category: string;
 	pick: string;
@@ -61,6 +63,8 @@ export interface ReviewPage {
 	/** 'pending' while waiting; otherwise what was decided. */
 	status: 'pending' | 'draft' | 'approve' | 'request_changes' | 'decline';
 	slots: ReviewSlot[];
+	/** Prices the author typed into this revision: proposals until it is approved. */
+	priceProposals: ReviewPriceProposal[];
 	/** Against the live revision, or against nothing for a new guide. */
 	diff: RevisionDiff;
 	/** Against the revision last sent back with notes, when that is not the live one. */
@@ -111,4 +115,23 @@ export interface DashboardGuide {
 	changedSinceDecision: RevisionDiff | null;
 	/** Set while an editor has hidden the guide after a content report. */
 	hiddenReason: string | null;
+}
+
+/** A price the author proposes in the revision under review, with its outlier verdict. */
+export interface ReviewPriceProposal {
+	position: number;
+	slotLabel: string;
+	part: string;
+	store: string;
+	regionCode: string;
+	/** "7.99 EUR", as typed, in the region's currency. */
+	amount: string;
+	observedOn: string;
+	/** Against the median of the part's quotes in that region over the last 90 days. */
+	verdict: 'no_history' | 'in_range' | 'low' | 'high';
+	/** The median it was compared with, formatted like `amount`; null without history. */
+	median: string | null;
+	sampleSize: number;
+	/** Set once approved: the quote it became. */
+	quoteId: number | null;
 }

@@ -5,8 +5,10 @@ import {
 	type SlotSnapshot
 } from '../../../src/lib/domain/revision-diff';
 
+/** A slot whose key is its label unless `over` gives one (slots are matched by key). */
 function slot(label: string, over: Partial<SlotSnapshot> = {}): SlotSnapshot {
 	return {
+		key: label,
 		label,
 		category: 'cpu',
 		pick: { id: 1, name: 'Arvo C6' },
@@ -47,7 +49,9 @@ describe('revisionDiff', () => {
 		expect(d.slots).toEqual([
 			{
 				kind: 'changed',
+				key: 'Processor',
 				label: 'Processor',
+				renamedFrom: null,
 				fields: [
 					{ field: 'pick', from: 'Arvo C6', to: 'Arvo C8' },
 					{ field: 'reason', from: 'Six cores for the money.', to: 'Eight cores now.' }
@@ -56,12 +60,20 @@ describe('revisionDiff', () => {
 			},
 			{
 				kind: 'changed',
+				key: 'Storage',
 				label: 'Storage',
+				renamedFrom: null,
 				fields: [{ field: 'quantity', from: 1, to: 2 }],
 				alternates: []
 			},
-			{ kind: 'added', label: 'Graphics card', pick: 'Vanta 60', quantity: 1 },
-			{ kind: 'removed', label: 'Case fans', pick: 'Breeze 120', quantity: 1 }
+			{
+				kind: 'added',
+				key: 'Graphics card',
+				label: 'Graphics card',
+				pick: 'Vanta 60',
+				quantity: 1
+			},
+			{ kind: 'removed', key: 'Case fans', label: 'Case fans', pick: 'Breeze 120', quantity: 1 }
 		]);
 	});
 
@@ -90,7 +102,9 @@ describe('revisionDiff', () => {
 		expect(d.slots).toEqual([
 			{
 				kind: 'changed',
+				key: 'Processor',
 				label: 'Processor',
+				renamedFrom: null,
 				fields: [],
 				alternates: [
 					{ kind: 'added', name: 'Arvo C6X', details: [] },
@@ -125,5 +139,90 @@ describe('revisionDiff', () => {
 			{ kind: 'removed', text: 'Update the firmware.' },
 			{ kind: 'added', text: 'Set the fan curve.' }
 		]);
+	});
+
+	/*
+	 * Slot identity (issue 11). Slots are matched by their own key, never by label: the
+	 * expected changes below are worked out by hand from that rule (no published source:
+	 * an algorithm of ours, docs/architecture.md "Computations" §9). Part names are invented.
+	 */
+	describe('matches slots by key, not by label', () => {
+		const storage = (key: string, partId: number, name: string, quantity = 1) =>
+			slot('Storage', {
+				key,
+				category: 'storage',
+				pick: { id: partId, name },
+				quantity,
+				alternates: []
+			});
+
+		it('a renamed slot is the same slot: one change naming the old label, not removed + added', () => {
+			const before: RevisionSnapshot = { ...base, slots: [slot('Processor', { key: 'k-cpu' })] };
+			const after: RevisionSnapshot = {
+				...base,
+				number: 2,
+				slots: [slot('CPU', { key: 'k-cpu' })]
+			};
+			expect(revisionDiff(before, after).slots).toEqual([
+				{
+					kind: 'changed',
+					key: 'k-cpu',
+					label: 'CPU',
+					renamedFrom: 'Processor',
+					fields: [],
+					alternates: []
+				}
+			]);
+		});
+
+		it('two slots with the same label: editing one and removing the other are told apart', () => {
+			const before: RevisionSnapshot = {
+				...base,
+				slots: [storage('k-a', 2, 'Kelp 1TB'), storage('k-b', 4, 'Kelp 2TB')]
+			};
+			// The author removed the first "Storage" and doubled the second.
+			const after: RevisionSnapshot = {
+				...base,
+				number: 2,
+				slots: [storage('k-b', 4, 'Kelp 2TB', 2)]
+			};
+			expect(revisionDiff(before, after).slots).toEqual([
+				{
+					kind: 'changed',
+					key: 'k-b',
+					label: 'Storage',
+					renamedFrom: null,
+					fields: [{ field: 'quantity', from: 1, to: 2 }],
+					alternates: []
+				},
+				{ kind: 'removed', key: 'k-a', label: 'Storage', pick: 'Kelp 1TB', quantity: 1 }
+			]);
+		});
+
+		it('a pure reorder of two same-label slots reports no change', () => {
+			const before: RevisionSnapshot = {
+				...base,
+				slots: [storage('k-a', 2, 'Kelp 1TB'), storage('k-b', 4, 'Kelp 2TB')]
+			};
+			const after: RevisionSnapshot = {
+				...base,
+				number: 2,
+				slots: [storage('k-b', 4, 'Kelp 2TB'), storage('k-a', 2, 'Kelp 1TB')]
+			};
+			expect(revisionDiff(before, after).slots).toEqual([]);
+		});
+
+		it('a new slot with the label of a removed one is removed + added, not a change', () => {
+			const before: RevisionSnapshot = { ...base, slots: [storage('k-a', 2, 'Kelp 1TB')] };
+			const after: RevisionSnapshot = {
+				...base,
+				number: 2,
+				slots: [storage('k-new', 4, 'Kelp 2TB')]
+			};
+			expect(revisionDiff(before, after).slots).toEqual([
+				{ kind: 'added', key: 'k-new', label: 'Storage', pick: 'Kelp 2TB', quantity: 1 },
+				{ kind: 'removed', key: 'k-a', label: 'Storage', pick: 'Kelp 1TB', quantity: 1 }
+			]);
+		});
 	});
 });

@@ -18,7 +18,8 @@ import {
  * (docs/architecture.md "Computations" §9 and issue 7: unchanged, upstream-only → offer to take,
  * local-only → keep, changed on both sides → the reader chooses, plus slots added or
  * removed on either side). Compared content is part id and quantity (sync.ts).
- * Parts are invented ids; slot keys are labels as the service uses them.
+ * Parts are invented ids. Slot keys are the label here unless a test gives the slot a label of
+ * its own (real keys are UUIDs, guide_slots.slot_key); matching never looks at the label.
  */
 
 const src = (key: string, partId: number, quantity = 1): SourceSlot => ({
@@ -620,5 +621,114 @@ describe('drift from the base revision (worked examples)', () => {
 		const d = drift(base, [mine(1, 'Processor', 10), mine(2, 'Memory', 20)]);
 		expect(d.changed).toBe(0);
 		expect(d.rows.map((r) => r.kind)).toEqual(['same', 'same']);
+	});
+});
+
+/*
+ * Slot identity (issue 11): labels are display text and may repeat; only keys match. Worked
+ * by hand from the rule above: a build slot pairs with the base and upstream slots of its
+ * source key, whatever the labels say.
+ */
+describe('slot identity: keys match, labels do not', () => {
+	const labelled = (key: string, label: string, partId: number, quantity = 1): SourceSlot => ({
+		...src(key, partId, quantity),
+		label
+	});
+	const mineLabelled = (
+		id: number,
+		key: string | null,
+		label: string,
+		partId: number,
+		quantity = 1
+	) => ({
+		...mine(id, key, partId, quantity),
+		label
+	});
+
+	it('a slot renamed upstream is the same slot: unchanged, nothing offered, no drift', () => {
+		const base = [labelled('k-cpu', 'CPU', 1)];
+		const upstream = [labelled('k-cpu', 'Processor', 1)];
+		const local = [mineLabelled(1, 'k-cpu', 'CPU', 1)];
+		const plan = planSync(base, upstream, local);
+		expect(plan.rows.map((r) => [r.id, r.status])).toEqual([['source:k-cpu', 'unchanged']]);
+		expect(plan.offered).toBe(0);
+		const out = applySync(plan, {}, { takeAllNonConflicting: true });
+		expect(out.ok && out.slots.map((s) => [s.id, s.sourceKey, s.label, s.partId])).toEqual([
+			[1, 'k-cpu', 'CPU', 1]
+		]);
+		expect(drift(upstream, local).changed).toBe(0);
+	});
+
+	it('two "Storage" slots, one edited and one removed upstream: the edited one’s build slot is kept', () => {
+		const base = [labelled('k-a', 'Storage', 20), labelled('k-b', 'Storage', 21)];
+		// Upstream removed the first drive and gave the second a new part.
+		const upstream = [labelled('k-b', 'Storage', 22)];
+		const local = [mineLabelled(1, 'k-a', 'Storage', 20), mineLabelled(2, 'k-b', 'Storage', 21)];
+		const plan = planSync(base, upstream, local);
+		expect(plan.rows.map((r) => [r.id, r.status])).toEqual([
+			['source:k-a', 'removed_upstream'],
+			['source:k-b', 'upstream_only']
+		]);
+		expect(plan.conflicts).toEqual([]);
+		const out = applySync(plan, {}, { takeAllNonConflicting: true });
+		expect(out.ok && out.removedIds).toEqual([1]);
+		expect(out.ok && out.slots.map((s) => [s.id, s.sourceKey, s.partId, s.from])).toEqual([
+			[2, 'k-b', 22, 'upstream']
+		]);
+	});
+
+	it('labels that numbering would collide on ("Storage", "Storage", "Storage (2)") are three slots', () => {
+		const base = [
+			labelled('k-a', 'Storage', 20),
+			labelled('k-b', 'Storage', 21),
+			labelled('k-c', 'Storage (2)', 23)
+		];
+		const local = [
+			mineLabelled(1, 'k-a', 'Storage', 20),
+			mineLabelled(2, 'k-b', 'Storage', 21),
+			mineLabelled(3, 'k-c', 'Storage (2)', 23)
+		];
+		const plan = planSync(base, base, local);
+		expect(plan.rows.map((r) => r.status)).toEqual(['unchanged', 'unchanged', 'unchanged']);
+		expect(drift(base, local).changed).toBe(0);
+	});
+
+	it('a pure reorder of two same-label slots reports no change', () => {
+		const base = [labelled('k-a', 'Storage', 20), labelled('k-b', 'Storage', 21)];
+		const upstream = [labelled('k-b', 'Storage', 21), labelled('k-a', 'Storage', 20)];
+		const local = [mineLabelled(1, 'k-a', 'Storage', 20), mineLabelled(2, 'k-b', 'Storage', 21)];
+		const plan = planSync(base, upstream, local);
+		expect(plan.rows.map((r) => r.status)).toEqual(['unchanged', 'unchanged']);
+		expect(plan.conflicts).toEqual([]);
+		expect(plan.offered).toBe(0);
+		const out = applySync(plan, {}, { takeAllNonConflicting: true });
+		expect(out.ok && out.slots.map((s) => [s.id, s.partId, s.changed])).toEqual([
+			[1, 20, false],
+			[2, 21, false]
+		]);
+	});
+
+	it('the same slot added on both sides (same label, same part) stays two rows: only a key links slots', () => {
+		const base = [labelled('k-cpu', 'CPU', 1)];
+		const upstream = [labelled('k-cpu', 'CPU', 1), labelled('k-new', 'Second drive', 21)];
+		const local = [mineLabelled(1, 'k-cpu', 'CPU', 1), mineLabelled(5, null, 'Second drive', 21)];
+		const plan = planSync(base, upstream, local);
+		expect(plan.rows.map((r) => [r.id, r.status])).toEqual([
+			['source:k-cpu', 'unchanged'],
+			['local:5', 'added_locally'],
+			['source:k-new', 'added_upstream']
+		]);
+		// Keeping: the reader's own drive only. Taking all: theirs and upstream's, each once.
+		const keep = applySync(plan, {});
+		expect(keep.ok && keep.slots.map((s) => [s.id, s.sourceKey])).toEqual([
+			[1, 'k-cpu'],
+			[5, null]
+		]);
+		const take = applySync(plan, {}, { takeAllNonConflicting: true });
+		expect(take.ok && take.slots.map((s) => [s.id, s.sourceKey, s.partId])).toEqual([
+			[1, 'k-cpu', 1],
+			[null, 'k-new', 21],
+			[5, null, 21]
+		]);
 	});
 });

@@ -3,11 +3,12 @@
  */
 import { dev } from '$app/environment';
 import { error, json, redirect } from '@sveltejs/kit';
-import type { Handle } from '@sveltejs/kit';
+import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { baselineHeaders } from '$lib/server/http/security-headers.js';
 import { UNAVAILABLE_HEADERS, unavailableResponse, wantsJson } from '$lib/server/http/unavailable';
 import { secureCookies } from './cookies';
 import { readSession } from './sign-in';
+import { TOO_LARGE_MESSAGE, UPLOAD_BODY_LIMIT_BYTES } from '$lib/server/images/limits';
 
 /**
  * Auth.js answers every /auth/* path itself. Only what a browser needs directly stays
@@ -91,12 +92,29 @@ export const DEFAULT_BODY_LIMIT_BYTES = 512 * 1024;
 const LARGE_BODY_ROUTES = [/^\/\(editor\)\/editor\/parts\/import$/];
 
 /**
+ * Photo uploads (docs/security.md §6): multipart bodies up to the photo limit. SvelteKit's
+ * CSRF origin check covers multipart/form-data, so these may take it under /api/.
+ */
+const UPLOAD_ROUTES = [
+	/^\/api\/v1\/guides\/\[slug=slug\]\/photos$/,
+	/^\/api\/v1\/parts\/\[slug=slug\]\/photos$/,
+	/^\/api\/v1\/builds\/\[id=id\]\/photos$/
+];
+const isUploadRoute = (event: RequestEvent) =>
+	UPLOAD_ROUTES.some((r) => r.test(event.route.id ?? ''));
+
+/**
  * adapter-node's BODY_SIZE_LIMIT applies to every route, so it is raised for the catalog
  * import and every other route is held to the default here. Bodies without a
  * Content-Length are still bounded by BODY_SIZE_LIMIT.
  */
 export const capBodies: Handle = ({ event, resolve }) => {
 	const length = Number(event.request.headers.get('content-length') ?? 0);
+	if (isUploadRoute(event)) {
+		if (length > UPLOAD_BODY_LIMIT_BYTES)
+			return json({ message: TOO_LARGE_MESSAGE }, { status: 413 });
+		return resolve(event);
+	}
 	if (
 		length > DEFAULT_BODY_LIMIT_BYTES &&
 		!LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))
@@ -113,6 +131,7 @@ export const capBodies: Handle = ({ event, resolve }) => {
 export const jsonOnlyApi: Handle = ({ event, resolve }) => {
 	if (event.url.pathname.startsWith('/api/') && BODY_METHODS.has(event.request.method)) {
 		const type = event.request.headers.get('content-type') ?? '';
+		if (isUploadRoute(event) && /^multipart\/form-data\b/i.test(type)) return resolve(event);
 		if (!/^application\/json\b/i.test(type)) {
 			return json(
 				{ message: 'Send a JSON body (Content-Type: application/json).' },

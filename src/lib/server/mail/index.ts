@@ -15,6 +15,7 @@ import { getTransport } from './transport.js';
 
 export type { MailTemplate } from './templates.js';
 export * as templates from './templates.js';
+export * as tipTemplates from './tip-templates.js';
 export { closeTransport, mailConfigFromEnv } from './transport.js';
 
 /** The recipient failed the `emailAddress` schema; nothing was sent. */

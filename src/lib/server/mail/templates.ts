@@ -153,7 +153,7 @@ function renderHtml(c: Content): string {
 	].join('\n');
 }
 
-/** Text and HTML bodies in the shared layout (used by newsletter-templates.ts too). */
+/** One message from its parts, as text and as HTML (shared with tip-templates.ts and newsletter-templates.ts). */
 export function render(c: Content): MailTemplate {
 	return { subject: c.subject, text: renderText(c), html: renderHtml(c) };
 }

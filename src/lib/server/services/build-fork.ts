@@ -32,14 +32,22 @@ export async function fork(
 	if (!guide || guide.publishedRevisionId === null) return { kind: 'not_found' };
 	const revisionId = guide.publishedRevisionId;
 	const { slots } = await loadBuildSource(revisionId);
-	const suffix = ' (my build)';
 	const id = await sequelize.transaction(async (transaction) => {
+		const taken = new Set(
+			(
+				await Build.findAll({
+					where: { ownerId, sourceGuideId: guide.id },
+					attributes: ['title'],
+					transaction
+				})
+			).map((b) => b.title)
+		);
 		const build = await Build.create(
 			{
 				ownerId,
 				sourceGuideId: guide.id,
 				baseRevisionId: revisionId,
-				title: `${guide.title.slice(0, 160 - suffix.length)}${suffix}`,
+				title: forkTitle(guide.title, taken),
 				regionId: guide.baseRegionId,
 				visibility: 'private',
 				shareToken: newShareToken(),
@@ -63,4 +71,29 @@ export async function fork(
 		return build.id;
 	});
 	return { kind: 'created', id };
+}
+
+/**
+ * "Title (my build)", then "Title (my build 2)", "(my build 3)"… for repeated forks of one
+ * guide, so the owner can tell them apart in My builds; the first free number is used.
+ */
+function forkTitle(guideTitle: string, taken: ReadonlySet<string>): string {
+	for (let n = 1; ; n++) {
+		const suffix = n === 1 ? ' (my build)' : ` (my build ${n})`;
+		const title = `${guideTitle.slice(0, 160 - suffix.length)}${suffix}`;
+		if (!taken.has(title)) return title;
+	}
+}
+
+/** Deletes the owner's build with its slots and update history (the foreign keys cascade). */
+export async function deleteBuild(
+	ownerId: string,
+	id: number
+): Promise<{ kind: 'deleted'; title: string } | { kind: 'not_found' }> {
+	return sequelize.transaction(async (transaction) => {
+		const build = await Build.findOne({ where: { id, ownerId }, transaction });
+		if (!build) return { kind: 'not_found' as const };
+		await build.destroy({ transaction });
+		return { kind: 'deleted' as const, title: build.title };
+	});
 }

@@ -50,6 +50,12 @@ export async function listMine(ownerId: string): Promise<BuildCard[]> {
 export async function lineage(guideSlug: string): Promise<LineageView> {
 	const guide = await Guide.findOne({ where: { slug: guideSlug }, attributes: ['id'] });
 	if (!guide) return { forkCount: 0, publicBuilds: [] };
+	return lineageOf(guide.id);
+}
+
+/** lineage() for a caller that already holds the guide's id (the guide page: no second guide read). */
+export async function lineageOf(guideId: number): Promise<LineageView> {
+	const guide = { id: guideId };
 	const [forkCount, publicBuilds] = await Promise.all([
 		Build.count({ where: { sourceGuideId: guide.id } }),
 		Build.findAll({

@@ -3,7 +3,6 @@
  * Fork, the build page, edits, sync and within-budget all match build slots to that
  * revision's slots through the keys given here, and offer its pick and alternates per slot.
  */
-import { slotKeys } from '$lib/domain/sync';
 import type { SourceSlot } from '$lib/domain/sync';
 import type { BuildSlotOrigin } from '$lib/views';
 import { loadRevisionSlots } from './revision-snapshots';
@@ -13,14 +12,12 @@ import type { LoadedRevisionSlot, QuoteWithStore } from './revision-snapshots';
 export type KeyedRevisionSlot = { key: string; slot: LoadedRevisionSlot };
 
 /**
- * The key of each slot of one revision: its label, which stays the same from one revision to
- * the next (domain/sync.ts). Labels are not forced unique by the guide editor, so a repeated
- * label gets " (2)", " (3)"… in order of position; keys fit the 80-character column.
+ * The key of each slot of one revision: the slot's own key (guide_slots.slot_key), which
+ * stays the same from one revision to the next whatever its label (domain/sync.ts).
  * Fork, drift, sync and within-budget all key revision slots with this function.
  */
 export function keyedRevisionSlots(slots: readonly LoadedRevisionSlot[]): KeyedRevisionSlot[] {
-	const keys = slotKeys(slots.map((s) => s.label));
-	return slots.map((slot, i) => ({ key: keys[i] ?? slot.label, slot }));
+	return slots.map((slot) => ({ key: slot.slotKey, slot }));
 }
 
 /** A revision's slots as domain/sync.ts takes them. */

@@ -245,6 +245,7 @@ function driftViews(
 	for (const { slot } of pricing.source.slots) partNames.set(slot.pickPartId, partName(slot.pick));
 	return driftOf(sourceSlots, localSlots).rows.map((r) => {
 		const label = r.local?.label ?? r.base?.label ?? '';
+		const key = r.local ? `build:${String(r.local.id)}` : `source:${r.sourceKey ?? ''}`;
 		// Each kind carries the sides it is about (drift in domain/sync.ts); a side left
 		// out reads as an empty name rather than throwing.
 		const named = (s: { partId: number; quantity: number } | null) =>
@@ -253,20 +254,21 @@ function driftViews(
 				: '';
 		switch (r.kind) {
 			case 'swapped':
-				return { label, kind: r.kind, from: named(r.base), to: named(r.local) };
+				return { key, label, kind: r.kind, from: named(r.base), to: named(r.local) };
 			case 'quantity':
 				return {
+					key,
 					label,
 					kind: r.kind,
 					from: String(r.base?.quantity ?? ''),
 					to: String(r.local?.quantity ?? '')
 				};
 			case 'added':
-				return { label, kind: r.kind, to: named(r.local) };
+				return { key, label, kind: r.kind, to: named(r.local) };
 			case 'removed':
-				return { label, kind: r.kind, from: named(r.base) };
+				return { key, label, kind: r.kind, from: named(r.base) };
 			default:
-				return { label, kind: r.kind };
+				return { key, label, kind: r.kind };
 		}
 	});
 }

@@ -12,6 +12,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { Part, Quote, Region, Store, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Issues, Outcome } from '$lib/schemas/issues';
+import * as guidePrices from './guide-prices';
 
 function add(issues: Issues, key: string, message: string) {
 	(issues[key] ??= []).push(message);
@@ -167,7 +168,7 @@ export async function addQuote(
 	const input = quoteInput.safeParse(raw);
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const data = input.data;
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		const issues: Issues = {};
 		const part = await Part.findOne({
 			where: { slug: data.partSlug },
@@ -251,4 +252,7 @@ export async function addQuote(
 		);
 		return { kind: 'ok', quoteId: quote.id } as const;
 	});
+	// The new quote may now be the latest for its part: re-store the figures that use it.
+	if (outcome.kind === 'ok') await guidePrices.refreshForQuotes([outcome.quoteId]);
+	return outcome;
 }

@@ -15,6 +15,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import { CautionRule, User, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Issues, Outcome } from '$lib/schemas/issues';
+import { cached } from './reference-cache';
 
 export interface CautionRuleRow {
 	id: number;
@@ -80,7 +81,12 @@ export async function getRule(id: number): Promise<CautionRuleRow | null> {
 }
 
 /** The active rules as evaluation takes them: one query, whatever the number of rules. */
-export async function activeRules(): Promise<CautionRuleData[]> {
+export function activeRules(): Promise<CautionRuleData[]> {
+	// Read on every guide page; editors change rules rarely (reference-cache.ts invalidates).
+	return cached('active-caution-rules', loadActiveRules);
+}
+
+async function loadActiveRules(): Promise<CautionRuleData[]> {
 	const rules = (await CautionRule.findAll({
 		where: { active: true },
 		include: authorInclude,

@@ -1,16 +1,15 @@
 /**
  * The kinds of content people may report (docs/architecture.md "Roles"): a small registry maps
  * each subject type to a handler that finds, describes, hides and restores that kind of
- * content. 'guide' and 'build' have handlers (the hidden columns of guides and builds are
- * written only here); 'photo' is a valid subject type (schema, table, audit) but is refused
- * with a clear message until that area exists. Adding one means writing its SubjectHandler
+ * content. 'guide', 'build' and 'photo' (a finished build's photo) have handlers (the hidden
+ * columns of guides, builds and photos are written only here). Adding one means writing its SubjectHandler
  * and putting it into SUBJECTS; the queue (content-report-queue.ts) and the decisions
  * (content-reports.ts) need no change.
  */
 import { Op } from 'sequelize';
 import type { Transaction } from 'sequelize';
 import type { ReportSubjectType } from '$lib/domain/content-reports';
-import { Build, Guide, User } from '$lib/server/db';
+import { Build, Guide, Photo, User } from '$lib/server/db';
 import type { SubjectSummary } from '$lib/views';
 import { readerAccess } from './build-access';
 import { wholeSecondNow } from './users';
@@ -201,11 +200,94 @@ const buildSubject: SubjectHandler = {
 	}
 };
 
-/** The registry: null marks a subject type the schema knows but the product does not have yet. */
+/**
+ * Photos of finished builds (services/photos.ts): reportable by whoever may read the build
+ * they belong to, keyed by the photo's id; hiding one takes it off the build page and stops
+ * its files being served (/media checks it).
+ */
+const photoSubject: SubjectHandler = {
+	async lock(id, transaction) {
+		const photo = await Photo.findByPk(Number(id), {
+			attributes: ['id'],
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
+		return photo !== null;
+	},
+
+	async findReportable(key, transaction, reader) {
+		if (!/^[1-9][0-9]{0,9}$/.test(key)) return null;
+		const photo = await Photo.findOne({
+			where: { id: Number(key), hiddenAt: null, buildId: { [Op.ne]: null } },
+			attributes: ['id', 'ownerId', 'buildId'],
+			transaction
+		});
+		if (!photo?.buildId) return null;
+		const build = await buildSubject.findReportable(String(photo.buildId), transaction, reader);
+		return build ? { id: String(photo.id), ownerId: photo.ownerId ?? null } : null;
+	},
+
+	async summaries(ids) {
+		const rows = (await Photo.findAll({
+			where: { id: ids.map(Number) },
+			attributes: ['id', 'buildId', 'altText', 'hiddenAt', 'hiddenReason'],
+			include: [
+				{ model: User, as: 'owner', attributes: ['name'] },
+				{ model: Build, as: 'build', attributes: ['id', 'title', 'visibility', 'shareToken'] }
+			]
+		})) as (Photo & { owner?: User | null; build?: Build | null })[];
+		return new Map(
+			rows.map((p) => [
+				String(p.id),
+				{
+					type: 'photo' as const,
+					id: String(p.id),
+					title: `Photo of “${p.build?.title ?? 'a build'}”: ${p.altText}`,
+					url: p.build
+						? p.build.visibility === 'unlisted'
+							? `/builds/${p.build.id}?key=${encodeURIComponent(p.build.shareToken)}`
+							: `/builds/${p.build.id}`
+						: '/',
+					ownerName: p.owner?.name ?? null,
+					hidden: p.hiddenAt ? { reason: p.hiddenReason ?? '', at: p.hiddenAt.toISOString() } : null
+				}
+			])
+		);
+	},
+
+	async hide(id, reason, actorId, transaction) {
+		const [changed] = await Photo.update(
+			{ hiddenAt: wholeSecondNow(), hiddenReason: reason, hiddenById: actorId },
+			{ where: { id: Number(id), hiddenAt: null }, transaction, silent: true }
+		);
+		if (changed === 1) return 'ok';
+		return (await Photo.count({ where: { id: Number(id) }, transaction })) > 0
+			? 'already'
+			: 'not_found';
+	},
+
+	async restore(id, transaction) {
+		const photo = await Photo.findByPk(Number(id), {
+			attributes: ['id', 'hiddenAt', 'hiddenReason'],
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
+		if (!photo) return { kind: 'not_found' };
+		const [changed] = await Photo.update(
+			{ hiddenAt: null, hiddenReason: null, hiddenById: null },
+			{ where: { id: photo.id, hiddenAt: { [Op.ne]: null } }, transaction, silent: true }
+		);
+		return changed === 1
+			? { kind: 'ok', reason: photo.hiddenReason ?? null }
+			: { kind: 'not_hidden' };
+	}
+};
+
+/** The registry: null would mark a subject type the schema knows but the product does not have yet. */
 export const SUBJECTS: Record<ReportSubjectType, SubjectHandler | null> = {
 	guide: guideSubject,
 	build: buildSubject,
-	photo: null
+	photo: photoSubject
 };
 
 /** The handler of a subject type, or the conflict to answer while that kind of content does not exist. */

@@ -6,6 +6,8 @@ import { Op, fn, col } from 'sequelize';
 import type { RatesPerEur } from '$lib/domain/region';
 import { FxRate, sequelize } from '$lib/server/db';
 import { fetchEcbDailyRates, type FetchOptions } from '$lib/server/fx/ecb';
+import { cached } from './reference-cache';
+import * as guidePrices from './guide-prices';
 
 /** Rates older than this many days are flagged stale on pages (DESIGN: "older than 7 days"). */
 export const STALE_AFTER_DAYS = 7;
@@ -62,7 +64,7 @@ export interface RefreshResult {
 export async function refresh(options: FetchOptions = {}): Promise<RefreshResult> {
 	const daily = await fetchEcbDailyRates(options);
 	const source = ecbSource(daily.asOf);
-	return sequelize.transaction(async (transaction) => {
+	const result = await sequelize.transaction(async (transaction) => {
 		// A plain read (no FOR UPDATE): its gap locks would make two concurrent refreshes of a
 		// new day deadlock. The write below is atomic by itself; the diff is for the report.
 		const existing = await FxRate.findAll({ where: { asOf: daily.asOf }, transaction });
@@ -95,6 +97,9 @@ export async function refresh(options: FetchOptions = {}): Promise<RefreshResult
 		);
 		return result;
 	});
+	// Every estimate across currencies may move: re-store all guides' figures (batched).
+	if (result.created.length > 0 || result.updated.length > 0) await guidePrices.refreshAll();
+	return result;
 }
 
 export interface FxRateView {
@@ -140,7 +145,12 @@ export async function latest(now: Date = new Date()): Promise<FxRateView[]> {
 }
 
 /** The newest rates in the shape region adjust takes (src/lib/domain/region.ts). */
-export async function ratesForPricing(): Promise<RatesPerEur> {
+export function ratesForPricing(): Promise<RatesPerEur> {
+	// Read on every cross-region price; changes only on a refresh (reference-cache.ts).
+	return cached('fx-rates-for-pricing', loadRatesForPricing);
+}
+
+async function loadRatesForPricing(): Promise<RatesPerEur> {
 	const rates: Record<string, { ratePerEur: string; asOf: string }> = {};
 	for (const r of await latest()) rates[r.currency] = { ratePerEur: r.ratePerEur, asOf: r.asOf };
 	return rates;

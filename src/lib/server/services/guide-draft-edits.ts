@@ -7,6 +7,11 @@
  * - Submitting stamps `submittedAt`: that revision is frozen for good. The next save creates
  *   revision N+1 from the input; only frame/thermal results the input leaves out (older API
  *   clients) are copied from the frozen revision, as new rows (guide-draft-results.ts).
+ * - The guide's details (title, summary, budget, base region, tags, disclosure, walkthrough
+ *   link) and the prices typed into slots are the revision's: saving writes them to the
+ *   working copy and price proposals (guide-price-proposals.ts), never to the guide row or
+ *   to quotes. The guide row's details are the published revision's copy, written only by
+ *   an editor's approval (guide-reviews.ts), so a saved draft changes nothing public.
  * - `guides.state` is the guide's public lifecycle. A guide with a published revision stays
  *   'published' (its `publishedRevisionId` stays live) while a newer revision is drafted or
  *   waits for review. A guide never published goes draft → in_review; only an editor's
@@ -22,16 +27,18 @@ import {
 	GuideRevision,
 	GuideSlot,
 	Part,
-	Quote,
 	Region,
 	SlotAlternate,
 	Store,
 	User,
 	sequelize
 } from '$lib/server/db';
+import { detailsOf } from '$lib/server/db/models/GuideRevision';
 import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView } from '$lib/views';
+import { checkGallery, writeGallery } from './gallery';
 import { copyResults, replaceFrames, replaceThermals } from './guide-draft-results';
+import { clearProposals, proposePrice } from './guide-price-proposals';
 import { latestRevision, ownGuide, viewOf } from './guide-drafts';
 import type { Invalid, Issues, NotFound, Stale } from '$lib/schemas/issues';
 import { afterSubmit } from './notice-triggers';
@@ -104,10 +111,13 @@ export async function createGuide(
 			},
 			{ transaction }
 		);
+		// The guide row needs details from the start (it is not public before a first
+		// approval, which overwrites them with the approved revision's).
 		await GuideRevision.create(
 			{
 				guideId: guide.id,
 				number: 1,
+				...detailsOf(guide),
 				buildNotesMd: '',
 				buildNotesHtml: '',
 				submittedAt: null,
@@ -180,24 +190,26 @@ export async function saveDraft(
 		return { kind: 'invalid', issues: { baseRegion: ['Choose a region from the list.'] } };
 	const budget = amountIn(input.targetBudget, region);
 	const issues = await checkReferences(input, region);
+	if (input.gallery) Object.assign(issues, await checkGallery(guide.id, input.gallery));
 	if (!budget.ok) issues.targetBudget = [budget.message];
 	if (!budget.ok || Object.keys(issues).length > 0) return { kind: 'invalid', issues };
 	const buildNotesMd = joinBuildNotes(input.buildNotes);
 	const buildNotesHtml = renderMarkdown(buildNotesMd);
+	const details = {
+		title: input.title,
+		summary: input.summary,
+		targetBudgetMinor: budget.amountMinor,
+		baseRegionId: region.id,
+		tags: input.tags,
+		disclosure: input.disclosure,
+		disclosureNote: input.disclosureNote,
+		walkthroughUrl: input.walkthroughUrl
+	};
 
 	return sequelize.transaction(async (transaction): Promise<SaveOutcome> => {
+		// Only the version moves on the guide row: its details are the live copy (see above).
 		const [affected] = await Guide.update(
-			{
-				title: input.title,
-				summary: input.summary,
-				targetBudgetMinor: budget.amountMinor,
-				baseRegionId: region.id,
-				tags: input.tags,
-				disclosure: input.disclosure,
-				disclosureNote: input.disclosureNote,
-				walkthroughUrl: input.walkthroughUrl,
-				version: expectedVersion + 1
-			},
+			{ version: expectedVersion + 1 },
 			{ where: { id: guide.id, version: expectedVersion }, transaction }
 		);
 		if (affected !== 1) {
@@ -213,6 +225,7 @@ export async function saveDraft(
 				{
 					guideId: guide.id,
 					number: (frozen?.number ?? 0) + 1,
+					...details,
 					buildNotesMd,
 					buildNotesHtml,
 					submittedAt: null,
@@ -232,26 +245,43 @@ export async function saveDraft(
 					{ frames: input.frames === undefined, thermals: input.thermals === undefined },
 					transaction
 				);
+			// The gallery is carried over the same way (a copy of the frozen rows unless sent).
+			await writeGallery(revision.id, input.gallery, frozen?.id ?? null, transaction);
 		} else {
-			await revision.update({ buildNotesMd, buildNotesHtml }, { transaction });
+			await writeGallery(revision.id, input.gallery, null, transaction);
+			await revision.update({ ...details, buildNotesMd, buildNotesHtml }, { transaction });
 			// Alternates go with their slots (ON DELETE CASCADE).
 			await GuideSlot.destroy({ where: { revisionId: revision.id }, transaction });
+			await clearProposals(revision.id, transaction);
 		}
 
 		for (const [i, slot] of input.slots.entries()) {
-			const priceQuoteId = slot.priceQuote
-				? await quoteFor(slot.pickPartId, slot.priceQuote, region, transaction)
-				: null;
+			// A typed price is a proposal of this revision; it becomes a quote on approval.
+			if (slot.priceQuote)
+				await proposePrice(
+					revision.id,
+					i + 1,
+					slot.pickPartId,
+					{
+						storeId: slot.priceQuote.storeId,
+						amountMinor: proposedMinor(slot.priceQuote.amount, region),
+						observedAt: slot.priceQuote.observedAt
+					},
+					region,
+					transaction
+				);
 			const row = await GuideSlot.create(
 				{
 					revisionId: revision.id,
+					// A slot carried over keeps its key (a new revision copies it); a new slot gets one.
+					...(slot.slotKey !== null ? { slotKey: slot.slotKey } : {}),
 					category: slot.category,
 					label: slot.label,
 					position: i + 1,
 					quantity: slot.quantity,
 					pickPartId: slot.pickPartId,
 					reason: slot.reason,
-					priceQuoteId
+					priceQuoteId: null
 				},
 				{ transaction }
 			);
@@ -275,44 +305,10 @@ export async function saveDraft(
 	});
 }
 
-/** The author's quote for a pick: an identical existing quote is reused, else one is recorded (source 'author'). */
-async function quoteFor(
-	partId: number,
-	q: { storeId: number; amount: string; observedAt: string },
-	region: Region,
-	transaction: Transaction
-): Promise<number> {
-	// checkReferences has refused amounts that do not parse.
-	const parsed = amountIn(q.amount, region);
-	const amountMinor = parsed.ok ? parsed.amountMinor : 0;
-	const observedAt = new Date(`${q.observedAt}T00:00:00Z`);
-	const next = new Date(observedAt.getTime() + 86_400_000);
-	const existing = await Quote.findOne({
-		where: {
-			partId,
-			storeId: q.storeId,
-			regionId: region.id,
-			amountMinor,
-			observedAt: { [Op.gte]: observedAt, [Op.lt]: next }
-		},
-		transaction
-	});
-	if (existing) return existing.id;
-	const created = await Quote.create(
-		{
-			partId,
-			storeId: q.storeId,
-			regionId: region.id,
-			amountMinor,
-			currency: region.currency,
-			taxIncluded: region.taxMode === 'inclusive',
-			observedAt,
-			url: null,
-			source: 'author'
-		},
-		{ transaction }
-	);
-	return created.id;
+/** A typed price in minor units; checkReferences has refused amounts that do not parse. */
+function proposedMinor(amount: string, region: Region): number {
+	const parsed = amountIn(amount, region);
+	return parsed.ok ? parsed.amountMinor : 0;
 }
 
 /** Freezes the working copy for review (submittedAt); guarded by the same version check. */

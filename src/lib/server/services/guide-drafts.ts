@@ -27,6 +27,7 @@ import {
 import {
 	FrameResult,
 	Guide,
+	GuidePriceProposal,
 	GuideRevision,
 	GuideSlot,
 	Part,
@@ -36,8 +37,11 @@ import {
 	Store,
 	ThermalResult
 } from '$lib/server/db';
+import { detailsOf } from '$lib/server/db/models/GuideRevision';
 import { renderMarkdown } from '$lib/server/markdown';
 import type { DraftView, EditorCatalog } from '$lib/views';
+import { galleryItems } from './gallery';
+import { proposalsByPosition } from './guide-price-proposals';
 import { partRef } from './mappers';
 
 /** The author's own guide by slug, or null. */
@@ -69,9 +73,14 @@ export async function getDraft(
 
 /** The working copy of `guide` as the editor shows it. */
 export async function viewOf(guide: Guide, transaction?: Transaction): Promise<DraftView> {
-	const region = await Region.findByPk(guide.baseRegionId, { transaction });
-	const currency = region?.currency ?? 'USD';
 	const revision = await latestRevision(guide.id, transaction);
+	// The working copy's details are the latest revision's, not the guide row's live copy.
+	const details = revision ? detailsOf(revision) : detailsOf(guide);
+	const region = await Region.findByPk(details.baseRegionId, { transaction });
+	const currency = region?.currency ?? 'USD';
+	const proposals = revision
+		? await proposalsByPosition(revision.id, transaction)
+		: new Map<number, GuidePriceProposal>();
 	const slots = revision
 		? ((await GuideSlot.findAll({
 				where: { revisionId: revision.id },
@@ -103,32 +112,28 @@ export async function viewOf(guide: Guide, transaction?: Transaction): Promise<D
 	const known = new Set<string>(GUIDE_TAGS);
 	return {
 		slug: guide.slug,
-		title: guide.title,
-		summary: guide.summary,
-		targetBudget: minorToDecimal(Number(guide.targetBudgetMinor), currency),
+		title: details.title,
+		summary: details.summary,
+		targetBudget: minorToDecimal(details.targetBudgetMinor, currency),
 		currency,
 		baseRegion: region?.code ?? '',
 		// Tags outside the fixed list (older data) are dropped on the next save.
-		tags: (guide.tags ?? []).filter((t): t is GuideTag => known.has(t)),
-		disclosure: guide.disclosure,
-		disclosureNote: guide.disclosureNote,
-		walkthroughUrl: guide.walkthroughUrl,
+		tags: details.tags.filter((t): t is GuideTag => known.has(t)),
+		disclosure: details.disclosure,
+		disclosureNote: details.disclosureNote,
+		walkthroughUrl: details.walkthroughUrl,
 		buildNotes: splitBuildNotes(revision?.buildNotesMd ?? ''),
 		buildNotesHtml: revision?.buildNotesHtml ?? '',
 		slots: slots.map((s) => ({
+			slotKey: s.slotKey,
 			category: s.category,
 			label: s.label,
 			quantity: s.quantity,
 			pickPartId: s.pick.id,
 			pick: partRef(s.pick),
 			reason: s.reason,
-			priceQuote: s.priceQuote
-				? {
-						storeId: s.priceQuote.storeId,
-						amount: minorToDecimal(Number(s.priceQuote.amountMinor), s.priceQuote.currency),
-						observedAt: s.priceQuote.observedAt.toISOString().slice(0, 10)
-					}
-				: null,
+			// A draft's typed price is a proposal; an approved revision's is its quote.
+			priceQuote: priceFields(proposals.get(s.position) ?? s.priceQuote),
 			alternates: s.alternates.map((a) => ({
 				partId: a.part.id,
 				part: partRef(a.part),
@@ -151,12 +156,23 @@ export async function viewOf(guide: Guide, transaction?: Transaction): Promise<D
 			cpuUtilPct: t.cpuUtilPct,
 			gpuUtilPct: t.gpuUtilPct
 		})),
+		gallery: revision ? await galleryItems(revision.id, transaction) : [],
 		version: guide.version,
 		state: guide.state,
 		revisionNumber: revision?.number ?? 0,
 		revisionState: revision?.submittedAt ? 'submitted' : 'draft',
 		submittedAt: revision?.submittedAt?.toISOString() ?? null,
 		publishedRevisionNumber: published?.number ?? null
+	};
+}
+
+/** A proposal or quote as the editor's price fields show it. */
+function priceFields(p: GuidePriceProposal | Quote | null) {
+	if (!p) return null;
+	return {
+		storeId: p.storeId,
+		amount: minorToDecimal(Number(p.amountMinor), p.currency),
+		observedAt: p.observedAt.toISOString().slice(0, 10)
 	};
 }
 

@@ -13,13 +13,16 @@ import type { Transaction } from 'sequelize';
 import type { Role } from '$lib/domain/types';
 import type { DecisionInput, ModerationInput } from '$lib/schemas/review';
 import { Guide, GuideRevision, Review, User, sequelize } from '$lib/server/db';
+import { detailsOf } from '$lib/server/db/models/GuideRevision';
 import type { ReviewDecision } from '$lib/server/db/models/Review';
 import * as audit from './audit';
 import { notifyForksOfRevision } from './build-notify';
+import { adoptProposals } from './guide-price-proposals';
 import { afterDecision } from './notice-triggers';
 import { emailWanted } from './notices';
 import { sendToAuthor, templates } from './review-mail';
 import type { Conflict, NotFound } from '$lib/schemas/issues';
+import * as guidePrices from './guide-prices';
 
 export type { SlotNote } from '$lib/server/db/models/Review';
 
@@ -55,6 +58,7 @@ export async function decide(
 	input: DecisionInput,
 	links: { guidesUrl: string }
 ): Promise<DecideOutcome> {
+	let adoptedQuoteIds: number[] = [];
 	const result = await sequelize.transaction(async (transaction) => {
 		// Lock order: revision, then guide (unpublish/archive lock only the guide, so no cycle).
 		const revision = await GuideRevision.findByPk(revisionId, {
@@ -97,7 +101,14 @@ export async function decide(
 			return { kind: 'conflict', message: await alreadyDecided(revision, transaction) } as const;
 		const before = { state: guide.state, publishedRevisionId: guide.publishedRevisionId };
 		guide.state = stateAfter(input.decision, guide.state);
-		if (input.decision === 'approve') guide.publishedRevisionId = revision.id;
+		if (input.decision === 'approve') {
+			// Approval is the one moment public details and prices change (issue 12, items 1
+			// and 2): the guide row takes the revision's details as its published copy, and
+			// the revision's proposed prices become quotes, all in this transaction.
+			guide.publishedRevisionId = revision.id;
+			guide.set(detailsOf(revision));
+			adoptedQuoteIds = await adoptProposals(revision.id, transaction);
+		}
 		await guide.save({ transaction });
 		await Review.create(
 			{
@@ -152,12 +163,19 @@ export async function decide(
 		return {
 			kind: 'ok',
 			guideState: guide.state,
-			title: guide.title,
+			title: revision.title,
 			number: revision.number,
 			author
 		} as const;
 	});
 	if (result.kind !== 'ok') return result;
+	// Lists show the new revision's stored figures from now on (after commit: pricing reads
+	// through the pool and must see the published revision).
+	// The adopted quotes are public prices now: every published guide with those parts moves.
+	if (input.decision === 'approve') {
+		await guidePrices.refreshRevisions([revisionId]);
+		if (adoptedQuoteIds.length > 0) await guidePrices.refreshForQuotes(adoptedQuoteIds);
+	}
 	const message = templates.reviewDecision({
 		name: result.author?.name ?? '',
 		title: result.title,

@@ -17,6 +17,9 @@ import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import type { AlternateReason } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
+import { convertThroughEur, crossRate } from '$lib/domain/region';
+import type { RatesPerEur } from '$lib/domain/region';
+import type { Money } from '$lib/domain/types';
 import { FrameResult, Guide, GuideRevision, Region, ThermalResult, User } from '$lib/server/db';
 import type {
 	DropInView,
@@ -33,6 +36,7 @@ import { activeRules } from './caution-rules';
 import * as fx from './fx';
 import { dropInSlot, partRef, picksOf, regionSummary } from './mappers';
 import { priceRevisionsIn } from './pricing';
+import { allRegions, regionByCode } from './reference-cache';
 import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
 
 /** The published guide in its base region, or null when there is none. */
@@ -51,11 +55,14 @@ export type PricedOutcome =
  */
 export async function getPriced(slug: string, regionCode: string | null): Promise<PricedOutcome> {
 	const outcome = await getGuidePage(slug, regionCode);
-	return outcome.kind === 'ok' ? { kind: 'ok', guide: outcome.page.guide } : outcome;
+	if (outcome.kind !== 'ok') return outcome;
+	return { kind: 'ok', guide: outcome.page.guide };
 }
 
 export type GuidePageOutcome =
-	{ kind: 'ok'; page: GuidePage } | { kind: 'not_found' } | { kind: 'unknown_region' };
+	| { kind: 'ok'; page: GuidePage; guideId: number }
+	| { kind: 'not_found' }
+	| { kind: 'unknown_region' };
 
 /**
  * The guide page: the priced guide (with value and reproducibility in the region) plus fit
@@ -72,7 +79,7 @@ export async function getGuidePage(
 	if (!guide) return { kind: 'not_found' };
 	let target: Region | null = null;
 	if (regionCode) {
-		target = await Region.findOne({ where: { code: regionCode } });
+		target = await regionByCode(regionCode);
 		if (!target) return { kind: 'unknown_region' };
 	}
 	const revision = guide.publishedRevision;
@@ -113,6 +120,7 @@ export async function getGuidePage(
 	const slotLabels = Object.fromEntries(build.map((b) => [b.key, b.label]));
 	return {
 		kind: 'ok',
+		guideId: guide.id,
 		page: {
 			hidden: guide.hiddenAt
 				? { reason: guide.hiddenReason ?? '', hiddenAt: guide.hiddenAt.toISOString() }
@@ -273,6 +281,7 @@ async function price(
 		const pickPrice = prices[i]?.pick ?? null;
 		return {
 			id: slot.id,
+			slotKey: slot.slotKey,
 			category: slot.category,
 			label: slot.label,
 			position: slot.position,
@@ -296,9 +305,16 @@ async function price(
 		};
 	});
 
-	const ratesAsOf = adjustment.oldestRateAsOf;
+	// The budget is read in the shown region's currency, so totals and the over/under line
+	// never mix two currencies (issue 15); the rate's date joins the estimates' one.
+	const card = cardOf(guide, base, revision, adjustment);
+	const budget = budgetIn(card.targetBudget, region.currency, pricing.rates);
+	const ratesAsOf =
+		[adjustment.oldestRateAsOf, budget.asOf].filter((d): d is string => d !== null).sort()[0] ??
+		null;
 	const pricedGuide: PricedGuide = {
-		...cardOf(guide, base, revision, adjustment),
+		...card,
+		budgetInRegion: budget.money,
 		revisionNumber: revision.number,
 		slots: slotViews,
 		totalRange: adjustment.range,
@@ -325,6 +341,23 @@ async function price(
 	return { guide: pricedGuide, build, drop };
 }
 
+/** The budget in another currency at the reference rates; null when a rate is missing. */
+export function budgetIn(
+	budget: Money,
+	currency: string,
+	rates: RatesPerEur
+): { money: Money | null; asOf: string | null } {
+	if (budget.currency === currency) return { money: budget, asOf: null };
+	try {
+		return {
+			money: convertThroughEur(budget, currency, rates),
+			asOf: crossRate(budget.currency, currency, rates).asOf
+		};
+	} catch {
+		return { money: null, asOf: null };
+	}
+}
+
 function dropInView(result: DropInResult | undefined): DropInView | undefined {
 	if (!result) return undefined;
 	const changed = result.changed.map((f) => ({
@@ -342,7 +375,7 @@ function dropInView(result: DropInResult | undefined): DropInView | undefined {
 
 /** Every region, for the switcher. */
 export async function listRegions(): Promise<RegionSummary[]> {
-	return (await Region.findAll({ order: [['name', 'ASC']] })).map(regionSummary);
+	return (await allRegions()).map(regionSummary);
 }
 
 export interface AuthoredGuide {

@@ -35,6 +35,7 @@ import {
 import type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 import * as audit from './audit';
 import type { Invalid, Issues, NotFound, Outcome } from '$lib/schemas/issues';
+import * as guidePrices from './guide-prices';
 
 export type { PriceSightingState } from '$lib/server/db/models/PriceSighting';
 
@@ -222,7 +223,7 @@ export async function verify(
 	sightingId: number,
 	now = new Date()
 ): Promise<DecideOutcome> {
-	return sequelize.transaction(async (transaction): Promise<DecideOutcome> => {
+	const outcome = await sequelize.transaction(async (transaction): Promise<DecideOutcome> => {
 		const claimed = await claim(
 			sightingId,
 			{ state: 'verified', decidedById: editorId, decidedAt: now },
@@ -261,6 +262,10 @@ export async function verify(
 		);
 		return { kind: 'ok', quoteId: quote.id };
 	});
+	// The verified price is now a quote: re-store the figures of the guides that use its part.
+	if (outcome.kind === 'ok' && outcome.quoteId !== null)
+		await guidePrices.refreshForQuotes([outcome.quoteId]);
+	return outcome;
 }
 
 /** Rejects a pending sighting with a reason its reporters see. */

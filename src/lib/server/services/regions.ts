@@ -18,6 +18,7 @@ import { Region, RegionTaxRate, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Issues, Outcome } from '$lib/schemas/issues';
 import { fullFactors, inForce, utcDay } from './region-reads';
+import * as guidePrices from './guide-prices';
 
 function knownCurrency(code: string): boolean {
 	try {
@@ -52,7 +53,7 @@ export async function updateSettings(
 			issues: { currency: [`Unknown currency code "${data.currency}" (ISO 4217).`] }
 		};
 	}
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		const region = await Region.findOne({
 			where: { code },
 			transaction,
@@ -82,6 +83,9 @@ export async function updateSettings(
 		);
 		return { kind: 'ok', changed: true } as const;
 	});
+	// Tax and category factors change every figure in the region: re-store them all.
+	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	return outcome;
 }
 
 /** Rewrites regions.tax_rate_bp from the history for `day`; returns the new value. */
@@ -114,7 +118,7 @@ export async function addTaxRate(
 	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
 	const { rate, effectiveFrom, note } = input.data;
 	const today = utcDay(now);
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		const region = await Region.findOne({
 			where: { code },
 			transaction,
@@ -163,6 +167,9 @@ export async function addTaxRate(
 		);
 		return { kind: 'ok', rateId: row.id } as const;
 	});
+	// Tax and category factors change every figure in the region: re-store them all.
+	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	return outcome;
 }
 
 /** Removes one dated rate of region `code` (a mistake); the last remaining one cannot go. */
@@ -172,7 +179,7 @@ export async function removeTaxRate(
 	rateId: number,
 	now = new Date()
 ): Promise<Outcome> {
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		const region = await Region.findOne({
 			where: { code },
 			transaction,
@@ -223,6 +230,9 @@ export async function removeTaxRate(
 		);
 		return { kind: 'ok' } as const;
 	});
+	// Tax and category factors change every figure in the region: re-store them all.
+	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	return outcome;
 }
 
 /**
@@ -232,7 +242,7 @@ export async function removeTaxRate(
  */
 export async function syncCurrentTaxRates(now = new Date()): Promise<string[]> {
 	const day = utcDay(now);
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		const changed: string[] = [];
 		const regions = await Region.findAll({ transaction, lock: transaction.LOCK.UPDATE });
 		for (const region of regions) {
@@ -257,4 +267,7 @@ export async function syncCurrentTaxRates(now = new Date()): Promise<string[]> {
 		}
 		return changed;
 	});
+	// Tax and category factors change every figure in the region: re-store them all.
+	if (outcome.length > 0) await guidePrices.refreshAll();
+	return outcome;
 }

@@ -13,6 +13,7 @@ import { Guide, GuideRevision, Store, User } from '$lib/server/db';
 import type { ReviewPage } from '$lib/views';
 import { activeRules } from './caution-rules';
 import type { Actor } from './guide-reviews';
+import { reviewProposals } from './guide-price-proposals';
 import { partName } from './mappers';
 import { reviewLog } from './review-queue';
 import {
@@ -20,6 +21,7 @@ import {
 	emptySnapshot,
 	loadRevisionSlots,
 	quoteText,
+	slotPrice,
 	snapshotOf
 } from './revision-snapshots';
 
@@ -63,6 +65,11 @@ export async function getReview(
 	// The editors' pairing cautions count here as on the public page.
 	const findings = [...fitReport(build), ...pairingCautions(build, await activeRules())];
 	const stores = await Store.findAll({ attributes: ['url'] });
+	const proposals = await reviewProposals(
+		revision.id,
+		new Map(own.map((s) => [s.position, s.label])),
+		now
+	);
 	const knownHosts = [
 		siteHost.split(':')[0] ?? siteHost,
 		...stores.flatMap((s) => (s.url ? [hostOf(s.url)] : [])).filter((h): h is string => h !== null)
@@ -73,26 +80,29 @@ export async function getReview(
 		revisionNumber: revision.number,
 		guide: {
 			slug: guide.slug,
-			title: guide.title,
-			summary: guide.summary,
+			// The revision under review's details, not the live copy on the guide row.
+			title: revision.title,
+			summary: revision.summary,
 			state: guide.state,
 			authorName: guide.author?.name ?? 'Former member',
 			live: guide.state === 'published' && guide.publishedRevisionId !== null,
-			disclosure: guide.disclosure,
-			disclosureNote: guide.disclosureNote
+			disclosure: revision.disclosure,
+			disclosureNote: revision.disclosureNote
 		},
 		isLiveRevision: guide.publishedRevisionId === revision.id && guide.state === 'published',
 		submittedAt: revision.submittedAt.toISOString(),
 		status: revision.reviewedAt ? (revision.decision ?? 'approve') : 'pending',
 		slots: own.map((s) => ({
+			key: s.slotKey,
 			label: s.label,
 			category: s.category,
 			pick: partName(s.pick),
 			quantity: s.quantity,
 			reason: s.reason,
-			price: quoteText(s.priceQuote),
+			price: quoteText(slotPrice(s)),
 			alternates: s.alternates.map((a) => partName(a.part))
 		})),
+		priceProposals: proposals,
 		diff: revisionDiff(live ? snapshotOf(live, slots, true) : emptySnapshot(), current),
 		sinceLastReview: compareSentBack
 			? revisionDiff(snapshotOf(compareSentBack, slots, true), current)
@@ -104,21 +114,16 @@ export async function getReview(
 		},
 		power: powerBudget(build),
 		flags: reviewFlags({
-			disclosure: { kind: guide.disclosure ?? null, note: guide.disclosureNote },
+			disclosure: { kind: revision.disclosure ?? null, note: revision.disclosureNote },
 			buildNotesMd: revision.buildNotesMd,
-			walkthroughUrl: guide.walkthroughUrl,
+			walkthroughUrl: revision.walkthroughUrl,
 			knownHosts,
-			quotes: own.flatMap((s) =>
-				s.priceQuote
-					? [
-							{
-								slotLabel: s.label,
-								observedAt: s.priceQuote.observedAt.toISOString(),
-								url: s.priceQuote.url
-							}
-						]
-					: []
-			),
+			quotes: own.flatMap((s) => {
+				const price = slotPrice(s);
+				return price
+					? [{ slotLabel: s.label, observedAt: price.observedAt.toISOString(), url: price.url }]
+					: [];
+			}),
 			conflicts: findings.filter((f) => f.severity === 'conflict'),
 			now
 		}),

@@ -86,7 +86,7 @@ export async function listQueue(
 		items: rows.map((r) => ({
 			revisionId: r.id,
 			slug: r.guide.slug,
-			title: r.guide.title,
+			title: r.title,
 			authorName: r.guide.author?.name ?? 'Former member',
 			revisionNumber: r.number,
 			kind: r.guide.publishedRevisionId === null ? 'new' : 'revision',
@@ -229,7 +229,8 @@ export async function authorDashboard(authorId: string): Promise<DashboardGuide[
 		}
 		result.push({
 			slug: guide.slug,
-			title: guide.title,
+			// The author's own list names the working copy, which may differ from the live title.
+			title: latest?.title ?? guide.title,
 			state: guide.state,
 			live: guide.state === 'published' && guide.publishedRevisionId !== null,
 			updatedAt: guide.updatedAt.toISOString(),

@@ -6,19 +6,38 @@
 import type { BuildPart } from '$lib/domain/build-parts';
 import { formatMoney, money } from '$lib/domain/money';
 import type { RevisionSnapshot } from '$lib/domain/revision-diff';
-import { GuideRevision, GuideSlot, Part, Quote, SlotAlternate, Store } from '$lib/server/db';
+import {
+	GuidePriceProposal,
+	GuideRevision,
+	GuideSlot,
+	Part,
+	Quote,
+	SlotAlternate,
+	Store
+} from '$lib/server/db';
 
 export type QuoteWithStore = Quote & { store: Store };
+type PriceWithStore = Pick<Quote, 'amountMinor' | 'currency' | 'observedAt'> & {
+	url: string | null;
+	store: Store;
+};
 export type LoadedRevisionSlot = GuideSlot & {
 	pick: Part;
 	priceQuote: QuoteWithStore | null;
+	/** The price typed into this slot while its revision is not approved (a proposal). */
+	proposedPrice?: PriceWithStore | null;
 	alternates: (SlotAlternate & { part: Part })[];
 };
+
+/** The price the author gave a slot: its open proposal, else the quote it points at. */
+export function slotPrice(slot: LoadedRevisionSlot): PriceWithStore | null {
+	return slot.proposedPrice ?? slot.priceQuote;
+}
 
 /** Slots of the given revisions in position order, alternates by rank. */
 export async function loadRevisionSlots(revisionIds: number[]): Promise<LoadedRevisionSlot[]> {
 	if (revisionIds.length === 0) return [];
-	return (await GuideSlot.findAll({
+	const slots = (await GuideSlot.findAll({
 		where: { revisionId: revisionIds },
 		include: [
 			{ model: Part, as: 'pick' },
@@ -30,10 +49,28 @@ export async function loadRevisionSlots(revisionIds: number[]): Promise<LoadedRe
 			[{ model: SlotAlternate, as: 'alternates' }, 'rank', 'ASC']
 		]
 	})) as LoadedRevisionSlot[];
+	const proposals = (await GuidePriceProposal.findAll({
+		where: { revisionId: revisionIds, quoteId: null },
+		include: [{ model: Store, as: 'store' }]
+	})) as (GuidePriceProposal & { store: Store })[];
+	const byKey = new Map(proposals.map((p) => [`${p.revisionId}:${p.position}`, p]));
+	for (const slot of slots) {
+		const p = byKey.get(`${slot.revisionId}:${slot.position}`);
+		slot.proposedPrice = p
+			? {
+					amountMinor: p.amountMinor,
+					currency: p.currency,
+					observedAt: p.observedAt,
+					url: null,
+					store: p.store
+				}
+			: null;
+	}
+	return slots;
 }
 
 /** "USD 329.99 at Northgate Parts, 2026-11-20", or null without a quote. */
-export function quoteText(quote: QuoteWithStore | null): string | null {
+export function quoteText(quote: PriceWithStore | null): string | null {
 	if (!quote) return null;
 	const amount = formatMoney(money(Number(quote.amountMinor), quote.currency));
 	return `${amount} at ${quote.store.name}, ${quote.observedAt.toISOString().slice(0, 10)}`;
@@ -55,12 +92,13 @@ export function snapshotOf(
 		slots: slots
 			.filter((s) => s.revisionId === revision.id)
 			.map((s) => ({
+				key: s.slotKey,
 				label: s.label,
 				category: s.category,
 				pick: { id: s.pick.id, name: `${s.pick.brand} ${s.pick.model}` },
 				quantity: s.quantity,
 				reason: s.reason,
-				...(withPrices ? { price: quoteText(s.priceQuote) } : {}),
+				...(withPrices ? { price: quoteText(slotPrice(s)) } : {}),
 				alternates: s.alternates.map((alt) => ({
 					partId: alt.part.id,
 					name: `${alt.part.brand} ${alt.part.model}`,

@@ -41,7 +41,11 @@ export const actions: Actions = {
 		// consume is atomic, so of parallel attempts only the allowed number get a check.
 		const checks = signInChecks(event.getClientAddress(), email);
 		const allowed = await limits.consumeAll(checks);
-		if (!allowed.ok) return tooManyRequests(allowed, undefined, { form: 'password', email });
+		if (!allowed.ok)
+			return tooManyRequests(allowed, lockoutMessage(allowed.retryAfterSeconds), {
+				form: 'password',
+				email
+			});
 		if (!(await signInWithPassword(event, email, password))) {
 			return fail(400, { form: 'password', email, message: REFUSED });
 		}
@@ -73,3 +77,12 @@ export const actions: Actions = {
 		redirect(303, '/signin/check-email');
 	}
 };
+
+/** Says when password sign-in opens again, and that the e-mail link is another way in now. */
+function lockoutMessage(retryAfterSeconds: number): string {
+	const minutes = Number.isFinite(retryAfterSeconds)
+		? Math.max(1, Math.ceil(retryAfterSeconds / 60))
+		: 1;
+	const wait = minutes === 1 ? 'a minute' : `${minutes} minutes`;
+	return `Too many password attempts. Try your password again in ${wait}; meanwhile a sign-in link by e-mail (below) still works.`;
+}

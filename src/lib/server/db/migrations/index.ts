@@ -45,17 +45,29 @@ import * as mBuilds from './2026.12.06T09.00.00.create-builds.js';
 import * as mBuildsHiddenAt from './2026.12.06T10.00.00.add-builds-hidden-at.js';
 import * as mBuildsHiddenReason from './2026.12.06T10.01.00.add-builds-hidden-reason.js';
 import * as mBuildsHiddenBy from './2026.12.06T10.02.00.add-builds-hidden-by.js';
-import * as mUsersHandle from './2026.12.08T10.00.00.add-users-handle.js';
-import * as mUsersBio from './2026.12.08T10.01.00.add-users-bio.js';
-import * as mFillUsersHandle from './2026.12.08T10.02.00.fill-users-handle.js';
-import * as mRequireUsersHandle from './2026.12.08T10.03.00.require-users-handle.js';
-import * as mRevisionsMajor from './2026.12.08T10.04.00.add-guide-revisions-major.js';
-import * as mFollows from './2026.12.08T10.05.00.create-follows.js';
-import * as mSubscribers from './2026.12.08T10.06.00.create-subscribers.js';
-import * as mNotices from './2026.12.08T10.07.00.create-notices.js';
-import * as mNoticeSettings from './2026.12.08T10.08.00.create-notice-settings.js';
-import * as mMailings from './2026.12.08T10.09.00.create-mailings.js';
-import * as mMailJobs from './2026.12.08T10.10.00.create-mail-jobs.js';
+import * as mPhotos from './2026.12.08T09.00.00.create-photos.js';
+import * as mGalleryPhotos from './2026.12.08T09.01.00.create-gallery-photos.js';
+import * as mBuildStageTicks from './2026.12.08T09.02.00.create-build-stage-ticks.js';
+import * as mTips from './2026.12.09T09.00.00.create-tips.js';
+import * as mPaymentEvents from './2026.12.09T09.01.00.create-payment-events.js';
+import * as mTipSettings from './2026.12.09T09.02.00.create-tip-settings.js';
+import * as mRevisionDetails from './2026.12.09T10.00.00.add-guide-revisions-details.js';
+import * as mPriceProposals from './2026.12.09T10.01.00.create-guide-price-proposals.js';
+import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-key.js';
+import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
+import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
+import * as mGuideRegionPrices from './2026.12.09T12.00.00.create-guide-region-prices.js';
+import * as mUsersHandle from './2026.12.10T10.00.00.add-users-handle.js';
+import * as mUsersBio from './2026.12.10T10.01.00.add-users-bio.js';
+import * as mFillUsersHandle from './2026.12.10T10.02.00.fill-users-handle.js';
+import * as mRequireUsersHandle from './2026.12.10T10.03.00.require-users-handle.js';
+import * as mRevisionsMajor from './2026.12.10T10.04.00.add-guide-revisions-major.js';
+import * as mFollows from './2026.12.10T10.05.00.create-follows.js';
+import * as mSubscribers from './2026.12.10T10.06.00.create-subscribers.js';
+import * as mNotices from './2026.12.10T10.07.00.create-notices.js';
+import * as mNoticeSettings from './2026.12.10T10.08.00.create-notice-settings.js';
+import * as mMailings from './2026.12.10T10.09.00.create-mailings.js';
+import * as mMailJobs from './2026.12.10T10.10.00.create-mail-jobs.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -98,15 +110,27 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.06T10.00.00.add-builds-hidden-at': mBuildsHiddenAt,
 	'2026.12.06T10.01.00.add-builds-hidden-reason': mBuildsHiddenReason,
 	'2026.12.06T10.02.00.add-builds-hidden-by': mBuildsHiddenBy,
-	'2026.12.08T10.00.00.add-users-handle': mUsersHandle,
-	'2026.12.08T10.01.00.add-users-bio': mUsersBio,
-	'2026.12.08T10.02.00.fill-users-handle': mFillUsersHandle,
-	'2026.12.08T10.03.00.require-users-handle': mRequireUsersHandle,
-	'2026.12.08T10.04.00.add-guide-revisions-major': mRevisionsMajor,
-	'2026.12.08T10.05.00.create-follows': mFollows,
-	'2026.12.08T10.06.00.create-subscribers': mSubscribers,
-	'2026.12.08T10.07.00.create-notices': mNotices,
-	'2026.12.08T10.08.00.create-notice-settings': mNoticeSettings,
-	'2026.12.08T10.09.00.create-mailings': mMailings,
-	'2026.12.08T10.10.00.create-mail-jobs': mMailJobs
+	'2026.12.08T09.00.00.create-photos': mPhotos,
+	'2026.12.08T09.01.00.create-gallery-photos': mGalleryPhotos,
+	'2026.12.08T09.02.00.create-build-stage-ticks': mBuildStageTicks,
+	'2026.12.09T09.00.00.create-tips': mTips,
+	'2026.12.09T09.01.00.create-payment-events': mPaymentEvents,
+	'2026.12.09T09.02.00.create-tip-settings': mTipSettings,
+	'2026.12.09T10.00.00.add-guide-revisions-details': mRevisionDetails,
+	'2026.12.09T10.01.00.create-guide-price-proposals': mPriceProposals,
+	'2026.12.09T11.00.00.add-guide-slots-slot-key': mGuideSlotsSlotKey,
+	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
+	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,
+	'2026.12.09T12.00.00.create-guide-region-prices': mGuideRegionPrices,
+	'2026.12.10T10.00.00.add-users-handle': mUsersHandle,
+	'2026.12.10T10.01.00.add-users-bio': mUsersBio,
+	'2026.12.10T10.02.00.fill-users-handle': mFillUsersHandle,
+	'2026.12.10T10.03.00.require-users-handle': mRequireUsersHandle,
+	'2026.12.10T10.04.00.add-guide-revisions-major': mRevisionsMajor,
+	'2026.12.10T10.05.00.create-follows': mFollows,
+	'2026.12.10T10.06.00.create-subscribers': mSubscribers,
+	'2026.12.10T10.07.00.create-notices': mNotices,
+	'2026.12.10T10.08.00.create-notice-settings': mNoticeSettings,
+	'2026.12.10T10.09.00.create-mailings': mMailings,
+	'2026.12.10T10.10.00.create-mail-jobs': mMailJobs
 };

@@ -15,8 +15,8 @@ export type BuildSlotOrigin = (typeof BUILD_SLOT_ORIGINS)[number];
 
 /**
  * One slot of a build: the part the reader plans to buy, an optional price they saw
- * (override), and the purchase tracker. `sourceSlotKey` is the source slot's label in the
- * source revision (stable across revisions); null for slots the reader added.
+ * (override), and the purchase tracker. `sourceSlotKey` is the slot key (guide_slots.slot_key)
+ * of the source slot it came from, stable across revisions; null for slots the reader added.
  * Money columns carry their currency: the build's region may change after they were entered.
  */
 export class BuildSlot extends Model<

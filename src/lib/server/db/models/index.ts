@@ -5,6 +5,7 @@ import { AuditEvent, initAuditEvent } from './AuditEvent.js';
 import { AuthorRequest, initAuthorRequest } from './AuthorRequest.js';
 import { Build, initBuild } from './Build.js';
 import { BuildSlot, initBuildSlot } from './BuildSlot.js';
+import { BuildStageTick, initBuildStageTick } from './BuildStageTick.js';
 import { BuildSync, initBuildSync } from './BuildSync.js';
 import { CatalogImport, initCatalogImport } from './CatalogImport.js';
 import { CautionRule, initCautionRule } from './CautionRule.js';
@@ -18,10 +19,14 @@ import { Notice, initNotice } from './Notice.js';
 import { NoticeSetting, initNoticeSetting } from './NoticeSetting.js';
 import { Subscriber, initSubscriber } from './Subscriber.js';
 import { FxRate, initFxRate } from './FxRate.js';
+import { GalleryPhoto, initGalleryPhoto } from './GalleryPhoto.js';
 import { Guide, initGuide } from './Guide.js';
+import { GuidePriceProposal, initGuidePriceProposal } from './GuidePriceProposal.js';
 import { GuideRevision, initGuideRevision } from './GuideRevision.js';
 import { GuideSlot, initGuideSlot } from './GuideSlot.js';
 import { Part, initPart } from './Part.js';
+import { Photo, initPhoto } from './Photo.js';
+import { PaymentEvent, initPaymentEvent } from './PaymentEvent.js';
 import { PriceSighting, initPriceSighting } from './PriceSighting.js';
 import { PriceSightingReport, initPriceSightingReport } from './PriceSightingReport.js';
 import { Quote, initQuote } from './Quote.js';
@@ -32,6 +37,8 @@ import { Session, initSession } from './Session.js';
 import { SlotAlternate, initSlotAlternate } from './SlotAlternate.js';
 import { Store, initStore } from './Store.js';
 import { ThermalResult, initThermalResult } from './ThermalResult.js';
+import { Tip, initTip } from './Tip.js';
+import { TipSettings, initTipSettings } from './TipSettings.js';
 import { User, initUser } from './User.js';
 import { VerificationToken, initVerificationToken } from './VerificationToken.js';
 
@@ -41,6 +48,7 @@ export {
 	AuthorRequest,
 	Build,
 	BuildSlot,
+	BuildStageTick,
 	BuildSync,
 	CatalogImport,
 	CautionRule,
@@ -48,10 +56,14 @@ export {
 	EmailToken,
 	FrameResult,
 	FxRate,
+	GalleryPhoto,
 	Guide,
+	GuidePriceProposal,
 	GuideRevision,
 	GuideSlot,
 	Part,
+	Photo,
+	PaymentEvent,
 	PriceSighting,
 	PriceSightingReport,
 	Quote,
@@ -62,6 +74,8 @@ export {
 	SlotAlternate,
 	Store,
 	ThermalResult,
+	Tip,
+	TipSettings,
 	User,
 	VerificationToken,
 	Follow,
@@ -101,6 +115,13 @@ export function initModels(sequelize: Sequelize) {
 	initBuild(sequelize);
 	initBuildSlot(sequelize);
 	initBuildSync(sequelize);
+	initPhoto(sequelize);
+	initGalleryPhoto(sequelize);
+	initBuildStageTick(sequelize);
+	initTip(sequelize);
+	initPaymentEvent(sequelize);
+	initTipSettings(sequelize);
+	initGuidePriceProposal(sequelize);
 	initFollow(sequelize);
 	initMailing(sequelize);
 	initMailJob(sequelize);
@@ -109,3 +130,4 @@ export function initModels(sequelize: Sequelize) {
 	initSubscriber(sequelize);
 	applyAssociations();
 }
+export type { StoredVariant } from './Photo.js';

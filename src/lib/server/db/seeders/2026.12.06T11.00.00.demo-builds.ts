@@ -1,12 +1,11 @@
 /*
  * Demo builds: readers' forks of the demo guides, so guide pages show a lineage and the
  * demo reader has builds to open. Forked the way services/build-fork.ts fork() does it (slots
- * of the published revision, keyed with domain/sync slotKeys), then changed a little.
+ * of the published revision, each linked by its source slot's key), then changed a little.
  * Idempotent by the natural key (owner and title): an existing build is left alone.
  */
 import { randomBytes } from 'node:crypto';
 import type { Transaction } from 'sequelize';
-import { slotKeys } from '../../../domain/sync.js';
 import type { Seeder } from '../umzug.js';
 import { Build, BuildSlot, Guide, GuideSlot, Part, Region, User } from '../models/index.js';
 
@@ -60,7 +59,6 @@ async function forkDemo(d: DemoBuild, transaction: Transaction): Promise<void> {
 		order: [['position', 'ASC']],
 		transaction
 	});
-	const keys = slotKeys(slots.map((s) => s.label));
 	const build = await Build.create(
 		{
 			ownerId: owner.id,
@@ -82,7 +80,7 @@ async function forkDemo(d: DemoBuild, transaction: Transaction): Promise<void> {
 		await BuildSlot.create(
 			{
 				buildId: build.id,
-				sourceSlotKey: keys[i] ?? slot.label,
+				sourceSlotKey: slot.slotKey,
 				category: slot.category,
 				label: slot.label,
 				position: i + 1,

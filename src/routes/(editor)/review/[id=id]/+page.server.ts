@@ -4,13 +4,14 @@ import { decisionInput } from '$lib/schemas/review';
 import { requireRole } from '$lib/server/auth/guards';
 import * as reviews from '$lib/server/services/guide-reviews';
 import * as reviewPage from '$lib/server/services/review-page';
+import { reviewGalleryChanges } from '$lib/server/services/gallery';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {
 	const me = requireRole('editor');
 	const review = await reviewPage.getReview(me, Number(params.id), url.host);
 	if (!review) error(404, 'No submitted revision with that number');
-	return { review };
+	return { review, photoChanges: await reviewGalleryChanges(review.revisionId) };
 };
 
 /** The form's slot notes come as parallel slotLabel / slotNote fields, one pair per slot. */
@@ -27,10 +28,15 @@ function decisionFields(data: FormData) {
 export const actions: Actions = {
 	decide: async ({ params, request, url }) => {
 		const me = requireRole('editor');
-		const fields = decisionFields(await request.formData());
+		const data = await request.formData();
+		const fields = decisionFields(data);
 		const input = decisionInput.safeParse(fields);
 		const echo = { note: String(fields.note ?? ''), slotNotes: fields.slotNotes };
 		if (!input.success) return fail(400, { ...echo, issues: fieldIssues(input.error) });
+		// Publishing is the one decision readers see at once: it takes a second, explicit press
+		// (works without JavaScript; nothing is decided until then).
+		if (input.data.decision === 'approve' && data.get('confirmed') !== 'yes')
+			return { ...echo, confirmPublish: true };
 		const outcome = await reviews.decide(me, Number(params.id), input.data, {
 			guidesUrl: new URL('/my/guides', url.origin).href
 		});
@@ -40,7 +46,7 @@ export const actions: Actions = {
 		if (outcome.kind === 'conflict')
 			return fail(409, { ...echo, problem: true, message: outcome.message });
 		const done = {
-			approve: 'Approved: this revision is now live.',
+			approve: 'Published: this revision is now live.',
 			request_changes: 'Sent back to the author with your notes.',
 			decline: 'Declined.'
 		}[input.data.decision];

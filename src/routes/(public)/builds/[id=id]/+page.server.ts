@@ -1,5 +1,7 @@
-import { error, fail } from '@sveltejs/kit';
+import { error, fail, redirect } from '@sveltejs/kit';
 import {
+	deleteBuildForm,
+	deleteBuildInput,
 	addSlotForm,
 	addSlotInput,
 	removeSlotInput,
@@ -27,11 +29,15 @@ import type { Issues, Parsed } from '$lib/schemas/issues';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as buildEdits from '$lib/server/services/build-edits';
+import * as buildFork from '$lib/server/services/build-fork';
 import * as buildView from '$lib/server/services/build-view';
 import * as buildBudget from '$lib/server/services/build-budget';
 import * as buildSync from '$lib/server/services/build-sync';
 import * as buildSyncPlan from '$lib/server/services/build-sync-plan';
 import * as contentReports from '$lib/server/services/content-reports';
+import * as checklists from '$lib/server/services/build-checklist';
+import * as photos from '$lib/server/services/photos';
+import { stageTickInput } from '$lib/schemas/photos';
 import * as drafts from '$lib/server/services/guide-drafts';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -55,6 +61,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		build,
 		sync: sync && (sync.kind === 'plan' || sync.kind === 'up_to_date') ? sync : null,
 		catalog: build.isOwner ? await drafts.editorCatalog() : null,
+		checklist: await checklists.getChecklist(build.id),
+		photos: await photos.buildPhotos(build.id),
 		// "Report this build": the form posts back with the link token the reader came with.
 		signedIn: viewer !== null,
 		shareKey: !build.isOwner && build.visibility === 'unlisted' ? (shareKey ?? null) : null
@@ -158,6 +166,62 @@ export const actions: Actions = {
 			}
 		}));
 	},
+	/** Ticks or unticks one assembly stage (owner only). */
+	tick: async ({ params, request }) => {
+		const me = requireUser();
+		const form = await readFormData(request);
+		const input = stageTickInput.safeParse({
+			stage: form.text('stage') ?? '',
+			done: form.text('done') === 'true'
+		});
+		if (!input.success)
+			return fail(400, { problem: true, message: 'Choose a stage of this build.' });
+		const outcome = await checklists.tick(me.id, Number(params.id), input.data);
+		if (outcome.kind === 'not_found') error(404, 'Build not found');
+		if (outcome.kind !== 'ok')
+			return fail(400, { problem: true, message: 'This build has no such assembly stage.' });
+		return { problem: false, message: input.data.done ? 'Stage done.' : 'Stage not done.' };
+	},
+	/** "Report this photo" on a finished build's photo (?photo=<id>); the same path as any report. */
+	reportPhoto: async ({ request, url }) => {
+		const me = requireUser();
+		const photoId = Number(url.searchParams.get('photo') ?? 0);
+		const form = await readFormData(request);
+		const reported = formAnswers({
+			notFound: () => ({
+				photoReport: { photoId, problem: true, message: 'This photo is not available.' }
+			}),
+			invalid: (issues: Issues) => ({
+				photoReport: {
+					photoId,
+					issues,
+					category: form.text('category') ?? '',
+					detail: form.text('detail') ?? ''
+				}
+			}),
+			conflict: (outcome) => ({
+				photoReport: {
+					photoId,
+					problem: true,
+					message: 'message' in outcome ? outcome.message : ''
+				}
+			})
+		});
+		const input = parseForm(form, reportInput, reportForm);
+		if (input.kind !== 'ok') return reported.failure(input);
+		const outcome = await contentReports.report(me.id, 'photo', String(photoId), input.data, {
+			shareToken: url.searchParams.get('key') ?? undefined
+		});
+		return reported.answer(outcome, (ok) => ({
+			photoReport: {
+				photoId,
+				problem: false,
+				message: ok.created
+					? 'Thank you: your report is with the editors.'
+					: 'You have already reported this photo; nothing new was filed.'
+			}
+		}));
+	},
 	swap: ({ params, request }) =>
 		editSlot(Number(params.id), request, updateSlotForms.swap, () => 'Swapped.'),
 	quantity: ({ params, request }) =>
@@ -213,26 +277,49 @@ export const actions: Actions = {
 		const outcome = await buildSync.applySync(me.id, Number(params.id), choices, version);
 		return sync.answer(outcome, (ok) => ({
 			problem: false,
-			message: `Synced: ${ok.changedSlots} changed, ${ok.addedSlots} added, ${ok.removedSlots} removed. You can undo it.`
+			message: `Updated from the guide: ${ok.changedSlots} changed, ${ok.addedSlots} added, ${ok.removedSlots} removed. You can undo it.`
 		}));
+	},
+	delete: async ({ params, request }) => {
+		const me = requireUser();
+		const id = Number(params.id);
+		// Someone else's build is a 404 before anything about the form is said.
+		if (!(await buildEdits.ownsBuild(me.id, id))) error(404, 'Build not found');
+		const input = parseForm(await readFormData(request), deleteBuildInput, deleteBuildForm);
+		if (input.kind !== 'ok')
+			return fail(400, { problem: true, deleteIssues: Object.values(input.issues).flat() });
+		const outcome = await buildFork.deleteBuild(me.id, id);
+		if (outcome.kind === 'not_found') error(404, 'Build not found');
+		redirect(303, `/builds?deleted=${encodeURIComponent(outcome.title)}`);
 	},
 	undoSync: async ({ params, request }) => {
 		const me = requireUser();
 		const input = parseForm(await readFormData(request), syncUndoInput, versionForm);
 		if (input.kind !== 'ok') return undo.failure(input);
 		const outcome = await buildSync.undoLastSync(me.id, Number(params.id), input.data.version);
-		return undo.answer(outcome, () => ({ problem: false, message: 'The last sync was undone.' }));
+		return undo.answer(outcome, () => ({
+			problem: false,
+			message: 'The last update from the guide was undone.'
+		}));
 	},
 	proposeBudget: async ({ params, request }) => {
 		const me = requireUser();
-		const input = parseForm(await readFormData(request), withinBudgetInput, withinBudgetForm);
-		if (input.kind !== 'ok') return budget.failure(input);
+		const form = await readFormData(request);
+		// What the reader typed goes back with every answer, so the field never empties.
+		const budgetTyped = (form.text('budget') ?? '').slice(0, 40);
+		const input = parseForm(form, withinBudgetInput, withinBudgetForm);
+		if (input.kind !== 'ok')
+			return fail(400, {
+				problem: true,
+				budgetTyped,
+				budgetIssues: Object.values(input.issues).flat()
+			});
 		const outcome = await buildBudget.proposeWithinBudget(
 			me.id,
 			Number(params.id),
 			input.data.budget
 		);
-		return budget.answer(outcome, (ok) => ({ budgetResult: ok }));
+		return budget.answer(outcome, (ok) => ({ budgetResult: ok, budgetTyped }));
 	},
 	applyBudget: async ({ params, request }) => {
 		const me = requireUser();

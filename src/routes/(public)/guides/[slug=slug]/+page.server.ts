@@ -5,9 +5,12 @@ import * as buildLists from '$lib/server/services/build-lists';
 import * as guides from '$lib/server/services/guides';
 import { reportForm, reportInput } from '$lib/schemas/content-reports';
 import type { Issues } from '$lib/schemas/issues';
+import * as tips from '$lib/server/services/tips';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as contentReports from '$lib/server/services/content-reports';
+import { publishedGallery } from '$lib/server/services/gallery';
+import { partThumbs } from '$lib/server/services/photos';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -58,7 +61,11 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		compare,
 		diff,
 		compareProblem,
-		lineage: await buildLists.lineage(params.slug)
+		// The guide's id from the page read: the guide is not fetched by slug a second time.
+		lineage: await buildLists.lineageOf(outcome.guideId),
+		gallery: await publishedGallery(params.slug),
+		partThumbs: await partThumbs(guide.slots.map((s) => s.pick.slug)),
+		...(await tips.guideTipPanel(params.slug))
 	};
 };
 

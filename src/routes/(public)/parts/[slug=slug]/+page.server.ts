@@ -5,6 +5,7 @@ import { consumeAll } from '$lib/server/rate-limit';
 import { priceSightingChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
 import * as parts from '$lib/server/services/parts';
+import * as photos from '$lib/server/services/photos';
 import * as sightingReads from '$lib/server/services/price-sighting-reads';
 import * as priceSightings from '$lib/server/services/price-sightings';
 import type { Actions, PageServerLoad } from './$types';
@@ -21,7 +22,8 @@ export const load: PageServerLoad = async ({ params }) => {
 				mine: await sightingReads.listMine(user.id, params.slug)
 			}
 		: { signedIn: false as const };
-	return { part, sightings };
+	const pictures = await photos.partPhotos(part.slug);
+	return { part, sightings, pictures };
 };
 
 const SUBMITTED = {

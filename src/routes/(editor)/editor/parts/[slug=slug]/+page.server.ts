@@ -4,6 +4,7 @@ import { specFields } from '$lib/schemas/spec-form';
 import { requireRole } from '$lib/server/auth/guards';
 import * as catalogParts from '$lib/server/services/catalog-parts';
 import * as catalogReads from '$lib/server/services/catalog-reads';
+import * as photos from '$lib/server/services/photos';
 import { readPartForm } from '../part-form';
 import type { Actions, PageServerLoad } from './$types';
 import type { Issues } from '$lib/schemas/issues';
@@ -17,7 +18,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		categoryLabel: CATEGORY_LABELS[part.category],
 		fields: specFields(part.category),
 		quotes: await catalogReads.listRecentQuotes({ partSlug: part.slug, limit: 10 }),
-		added: url.searchParams.get('added') === '1'
+		added: url.searchParams.get('added') === '1',
+		pictures: await photos.partPhotos(part.slug)
 	};
 };
 

@@ -1,4 +1,5 @@
 import { error, redirect } from '@sveltejs/kit';
+import type { PartCategory } from '$lib/domain/types';
 import { buildNotesInput, saveDraftInput } from '$lib/schemas/guide-editor';
 import { applyOp, fromDraft, readEditorForm, toInput } from '$lib/schemas/guide-editor-form';
 import type { EditorDraft } from '$lib/schemas/guide-editor-form';
@@ -6,8 +7,11 @@ import { mergeIssues, parseInput } from '$lib/schemas/issues';
 import type { Issues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import { formAnswers } from '$lib/server/http/answers';
+import * as fit from '$lib/server/services/fit';
 import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
+import { guidePhotos } from '$lib/server/services/gallery';
+import * as reviews from '$lib/server/services/review-queue';
 import type { DraftView } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -16,8 +20,42 @@ export const load: PageServerLoad = async ({ params }) => {
 	const user = requireRole('author', 'editor');
 	const draft = await drafts.getDraft(user.id, params.slug);
 	if (!draft) error(404, 'Guide not found');
-	return { draft, catalog: await drafts.editorCatalog() };
+	const photos = (await guidePhotos(user.id, params.slug)) ?? {};
+	// The author's view of the guide (state, the editor's latest decision) as My guides shows it.
+	const mine = (await reviews.authorDashboard(user.id)).find((g) => g.slug === params.slug);
+	const returned =
+		mine?.lastDecision?.decision === 'request_changes' &&
+		(mine.latestRevision?.status === 'request_changes' || mine.latestRevision?.status === 'draft')
+			? mine.lastDecision
+			: null;
+	return {
+		draft,
+		status: mine
+			? { state: mine.state, live: mine.live, latestRevision: mine.latestRevision }
+			: null,
+		returned,
+		catalog: await drafts.editorCatalog(),
+		photos
+	};
 };
+
+/** The fit report's conflicts for the saved picks, as sentences (empty when none). */
+async function fitConflicts(
+	slots: { category: PartCategory; label: string; quantity: number; pickPartId: number }[]
+): Promise<string[]> {
+	if (slots.length === 0) return [];
+	const outcome = await fit.check({
+		slots: slots.map((s, i) => ({
+			key: `slot-${i + 1}`,
+			label: s.label,
+			category: s.category,
+			quantity: s.quantity,
+			partId: s.pickPartId
+		}))
+	});
+	if (outcome.kind !== 'ok') return [];
+	return outcome.result.findings.filter((f) => f.severity === 'conflict').map((f) => f.message);
+}
 
 async function owned(slug: string) {
 	const user = requireRole('author', 'editor');
@@ -62,7 +100,7 @@ async function save(userId: string, slug: string, data: FormData) {
 	const { version, ...draft } = parsed.data;
 	const outcome = await draftEdits.saveDraft(userId, slug, draft, version);
 	if (outcome.kind !== 'saved') return { ok: false as const, failure: answers.failure(outcome) };
-	return { ok: true as const, answers, draft: outcome.draft };
+	return { ok: true as const, answers, draft: outcome.draft, fields: form.draft, input: draft };
 }
 
 export const actions: Actions = {
@@ -95,14 +133,28 @@ export const actions: Actions = {
 		return {
 			saved: true,
 			version: result.draft.version,
-			revisionNumber: result.draft.revisionNumber
+			revisionNumber: result.draft.revisionNumber,
+			// The saved slots' own keys, in order: slots added since the page loaded take theirs.
+			slotKeys: result.draft.slots.map((s) => s.slotKey)
 		};
 	},
 	/** Saves what is in the form, then freezes it as a revision for review (POST …/submit). */
 	submit: async ({ params, request, url }) => {
 		const user = await owned(params.slug);
-		const result = await save(user.id, params.slug, await request.formData());
+		const data = await request.formData();
+		const result = await save(user.id, params.slug, data);
 		if (!result.ok) return result.failure;
+		// A guide whose fit report has a conflict (no display output, a board that does not fit)
+		// is saved, not submitted, until the author says to submit it as it is.
+		const conflicts = await fitConflicts(result.input.slots);
+		if (conflicts.length > 0 && data.get('acknowledgeConflicts') !== 'yes')
+			return {
+				saved: true,
+				fields: result.fields,
+				version: result.draft.version,
+				revisionNumber: result.draft.revisionNumber,
+				fitConflicts: conflicts
+			};
 		const outcome = await draftEdits.submit(user.id, params.slug, result.draft.version, {
 			guidesUrl: new URL('/my/guides', url.origin).href
 		});

@@ -1,0 +1,41 @@
+/*
+ * Which sizes a photo is stored in. Pure, so the rule is tested on its own.
+ *
+ * Widths 480, 960 and 1600 px cover a phone column, a laptop column and the lightbox on a
+ * large screen at 1× (and the smaller two at 2×): common practice, no published source.
+ * Never upscale: a width above the original is left out, and an original narrower than the
+ * smallest width is stored at its own width only.
+ */
+export const VARIANT_WIDTHS = [480, 960, 1600] as const;
+export const VARIANT_FORMATS = ['avif', 'webp'] as const;
+export type VariantFormat = (typeof VARIANT_FORMATS)[number] | 'jpeg';
+
+/** The JPEG fallback is one size: the largest stored width up to this. */
+export const JPEG_FALLBACK_MAX_WIDTH = 960;
+
+/** The widths to produce for an original `width` pixels wide (after orientation). */
+export function variantWidths(width: number): number[] {
+	if (!Number.isInteger(width) || width < 1) return [];
+	const fitting = VARIANT_WIDTHS.filter((w) => w <= width);
+	return fitting.length > 0 ? [...fitting] : [width];
+}
+
+/** The JPEG fallback's width for those widths. */
+export function fallbackWidth(widths: readonly number[]): number | null {
+	const small = widths.filter((w) => w <= JPEG_FALLBACK_MAX_WIDTH);
+	if (small.length > 0) return Math.max(...small);
+	return widths.length > 0 ? Math.min(...widths) : null;
+}
+
+/** Height for a width, keeping the aspect ratio, rounded to whole pixels (at least 1). */
+export function scaledHeight(original: { width: number; height: number }, width: number): number {
+	return Math.max(1, Math.round((original.height * width) / original.width));
+}
+
+/** A `srcset` value from variants of one format, narrowest first. */
+export function srcset(variants: readonly { url: string; width: number }[]): string {
+	return [...variants]
+		.sort((a, b) => a.width - b.width)
+		.map((v) => `${v.url} ${v.width}w`)
+		.join(', ');
+}

@@ -1,0 +1,81 @@
+/*
+ * The photo upload and delete endpoints (POST/DELETE under /api/v1/guides/[slug]/photos,
+ * /api/v1/parts/[slug]/photos and /api/v1/builds/[id]/photos). Uploads are multipart with the
+ * image in the field `file` (the hook lets multipart through on these routes only and caps
+ * the body at the photo limit); deletes are JSON like the rest of the API.
+ *
+ * Answers: 201 with the photo (id, size, placeholder, variant URLs); 400 field issues; 401
+ * for visitors; 404 for what is not the caller's; 409 for a refusal with a reason (quota, a
+ * closed guide, a private build, a photo still live); 413 too large; 415 not a JPEG, PNG or
+ * WebP; 422 unreadable or too many pixels; 429 with Retry-After; 503 when busy.
+ */
+import { json } from '@sveltejs/kit';
+import { fieldIssues } from '$lib/schemas/issues';
+import type { Issues } from '$lib/schemas/issues';
+import { photoTextInput } from '$lib/schemas/photos';
+import { requireUser } from '$lib/server/auth/guards';
+import { jsonFailure } from '$lib/server/http/answers';
+import { MAX_UPLOAD_BYTES, TOO_LARGE_MESSAGE } from '$lib/server/images/limits';
+import { consumeAll } from '$lib/server/rate-limit';
+import { photoUploadChecks } from '$lib/server/rate-limit-keys';
+import { tooManyRequestsJson } from '$lib/server/rate-limit-response';
+import * as photos from '$lib/server/services/photos';
+import type { PhotoTarget } from '$lib/server/services/photos';
+
+const message = (text: string, status: number) => json({ message: text }, { status });
+const invalid = (issues: Issues) =>
+	jsonFailure({ kind: 'invalid', issues }, { notFound: 'Not found' });
+
+/** POST: one photo. Part and build photos need alt text beside the file; guide photos get it in the gallery. */
+export async function uploadPhoto(request: Request, target: PhotoTarget): Promise<Response> {
+	const user = requireUser();
+	if (!/^multipart\/form-data\b/i.test(request.headers.get('content-type') ?? ''))
+		return message('Send the photo as multipart/form-data in the field "file".', 415);
+	const limited = await consumeAll(photoUploadChecks(user.id));
+	if (!limited.ok)
+		return tooManyRequestsJson(
+			limited.retryAfterSeconds,
+			'Too many photo uploads in the last hour. Please wait a little and try again.'
+		);
+	let form: FormData;
+	try {
+		form = await request.formData();
+	} catch {
+		return message('The body is not a readable multipart form.', 400);
+	}
+	const file = form.get('file');
+	if (!(file instanceof File) || file.size === 0)
+		return invalid({ file: ['Choose a photo to upload (the field "file").'] });
+	if (file.size > MAX_UPLOAD_BYTES) return message(TOO_LARGE_MESSAGE, 413);
+	let text = { caption: '', altText: '' };
+	if (target.kind !== 'guide') {
+		const parsed = photoTextInput.safeParse({
+			caption: form.get('caption') ?? '',
+			altText: form.get('altText') ?? ''
+		});
+		if (!parsed.success) return invalid(fieldIssues(parsed.error));
+		text = parsed.data;
+	}
+	const bytes = new Uint8Array(await file.arrayBuffer());
+	const outcome = await photos.upload(user, target, bytes, text);
+	switch (outcome.kind) {
+		case 'ok':
+			return json(outcome.photo, { status: 201 });
+		case 'not_found':
+			return message('Not found', 404);
+		case 'conflict':
+		case 'quota':
+			return message(outcome.message, 409);
+		case 'rejected':
+			return message(outcome.message, outcome.status);
+	}
+}
+
+/** DELETE: the photo and every stored variant. */
+export async function deletePhoto(target: PhotoTarget, photoId: number): Promise<Response> {
+	const user = requireUser();
+	const outcome = await photos.remove(user, target, photoId);
+	if (outcome.kind === 'not_found') return message('Photo not found', 404);
+	if (outcome.kind === 'conflict') return message(outcome.message, 409);
+	return new Response(null, { status: 204 });
+}

@@ -1,0 +1,182 @@
+/**
+ * Stored priced totals, ranges and value of every published revision in every region (the
+ * guide_region_prices table). Lists (browse, home, GET /api/v1/guides, the feed) read them
+ * with one indexed query per page (guide-browse.ts), so a page costs the same with 10 guides
+ * or 10,000. The work is done when the inputs change, not when pages are read:
+ *
+ * - a revision is published (guide-reviews.ts decide): that revision, in every region;
+ * - a quote is accepted (an editor's quote, a verified sighting, a catalog import): every
+ *   published revision that uses the part as a pick or an alternate;
+ * - exchange rates are refreshed or a region's tax or factors change: everything.
+ *
+ * The figures come from the one pricing service (pricing.ts), the same computation as the
+ * guide page, so a stored total is the figure the guide page shows for that region.
+ * Recomputation runs right after the triggering transaction commits (pricing reads through
+ * the pool, so it must see the committed quote or revision); it replaces a revision's rows
+ * in one transaction of its own, so a reader never sees half a revision.
+ */
+import { QueryTypes } from 'sequelize';
+import { valueOf } from '$lib/domain/value';
+import { FrameResult, Region, sequelize } from '$lib/server/db';
+import { invalidateBrowseTags } from './guide-browse';
+import { priceRevisionsIn } from './pricing';
+
+/** Revisions priced per pass: bounds memory (slots and quotes of a batch) at any scale. */
+const BATCH = 250;
+/** total_sort for a revision without any total: after every real amount. */
+const NO_TOTAL = '9000000000000000000';
+
+interface CurrentRevision {
+	revisionId: number;
+	guideId: number;
+	baseRegionId: number;
+	publishedAt: Date;
+}
+
+/** Recomputes the stored figures of these revisions (those still a guide's published one). */
+export async function refreshRevisions(revisionIds: readonly number[]): Promise<void> {
+	const ids = [...new Set(revisionIds)];
+	for (let i = 0; i < ids.length; i += BATCH) await refreshBatch(ids.slice(i, i + BATCH));
+}
+
+/** Recomputes every published revision that uses one of these parts (pick or alternate). */
+export async function refreshForParts(partIds: readonly number[]): Promise<void> {
+	if (partIds.length === 0) return;
+	const rows = await sequelize.query<{ id: number }>(
+		`SELECT g.published_revision_id AS id
+		   FROM guide_slots s JOIN guides g ON g.published_revision_id = s.revision_id
+		  WHERE s.pick_part_id IN (:parts)
+		 UNION
+		 SELECT g.published_revision_id AS id
+		   FROM slot_alternates a
+		   JOIN guide_slots s ON s.id = a.slot_id
+		   JOIN guides g ON g.published_revision_id = s.revision_id
+		  WHERE a.part_id IN (:parts)`,
+		{ type: QueryTypes.SELECT, replacements: { parts: [...new Set(partIds)] } }
+	);
+	await refreshRevisions(rows.map((r) => Number(r.id)));
+}
+
+/** refreshForParts for the parts of these quotes (just accepted). */
+export async function refreshForQuotes(quoteIds: readonly number[]): Promise<void> {
+	if (quoteIds.length === 0) return;
+	const rows = await sequelize.query<{ partId: number }>(
+		'SELECT DISTINCT part_id AS partId FROM quotes WHERE id IN (:ids)',
+		{ type: QueryTypes.SELECT, replacements: { ids: [...quoteIds] } }
+	);
+	await refreshForParts(rows.map((r) => Number(r.partId)));
+}
+
+/**
+ * Recomputes every published revision, in batches (rates refreshed, a region changed, the
+ * seeders, a repair). Rows of revisions that are no longer published are dropped.
+ */
+export async function refreshAll(): Promise<void> {
+	await sequelize.query(
+		`DELETE p FROM guide_region_prices p
+		   LEFT JOIN guides g ON g.published_revision_id = p.revision_id
+		  WHERE g.id IS NULL`,
+		{ type: QueryTypes.DELETE }
+	);
+	let after = 0;
+	for (;;) {
+		const rows = await sequelize.query<{ id: number }>(
+			`SELECT published_revision_id AS id FROM guides
+			  WHERE published_revision_id > :after ORDER BY published_revision_id LIMIT :limit`,
+			{ type: QueryTypes.SELECT, replacements: { after, limit: BATCH } }
+		);
+		if (rows.length === 0) return;
+		await refreshBatch(rows.map((r) => Number(r.id)));
+		after = Number(rows[rows.length - 1]?.id);
+	}
+}
+
+async function refreshBatch(revisionIds: number[]): Promise<void> {
+	if (revisionIds.length === 0) return;
+	const current = (
+		await sequelize.query<CurrentRevision>(
+			`SELECT r.id AS revisionId, g.id AS guideId, g.base_region_id AS baseRegionId,
+			        COALESCE(r.published_at, g.updated_at) AS publishedAt
+			   FROM guide_revisions r JOIN guides g ON g.published_revision_id = r.id
+			  WHERE r.id IN (:ids)`,
+			{ type: QueryTypes.SELECT, replacements: { ids: revisionIds } }
+		)
+	).map((r) => ({
+		revisionId: Number(r.revisionId),
+		guideId: Number(r.guideId),
+		baseRegionId: Number(r.baseRegionId),
+		publishedAt: new Date(r.publishedAt)
+	}));
+	// Fresh reads, not the reference cache: this runs right after the write that changed them.
+	const [regions, frames] = await Promise.all([
+		Region.findAll(),
+		FrameResult.findAll({
+			where: { revisionId: current.map((c) => c.revisionId) },
+			attributes: ['revisionId', 'avgFpsTenths'],
+			raw: true
+		})
+	]);
+	const regionById = new Map(regions.map((r) => [r.id, r]));
+	const listed = current.flatMap((c) => {
+		const base = regionById.get(c.baseRegionId);
+		return base ? [{ ...c, base }] : [];
+	});
+	const now = new Date();
+	const values: unknown[][] = [];
+	for (const region of regions) {
+		const pricing = await priceRevisionsIn(
+			listed.map((c) => ({ revisionId: c.revisionId, base: c.base })),
+			region
+		);
+		for (const c of listed) {
+			const priced = pricing.revisions.get(c.revisionId);
+			if (!priced) continue;
+			const { adjustment } = priced;
+			// As on the guide page: value only against a complete total.
+			const complete = adjustment.unpricedSlots === 0 ? adjustment.picksTotal : null;
+			const results = frames
+				.filter((f) => f.revisionId === c.revisionId)
+				.map((f) => ({ averageFps: f.avgFpsTenths / 10 }));
+			const fpsPer100 = valueOf(results, complete).fpsPer100;
+			const total = adjustment.picksTotal?.amountMinor ?? null;
+			values.push([
+				c.revisionId,
+				region.id,
+				c.guideId,
+				region.id === c.baseRegionId ? 1 : 0,
+				region.currency,
+				total,
+				adjustment.unpricedSlots,
+				adjustment.range?.min.amountMinor ?? null,
+				adjustment.range?.max.amountMinor ?? null,
+				fpsPer100,
+				total ?? NO_TOTAL,
+				fpsPer100 ?? -1,
+				c.publishedAt,
+				now
+			]);
+		}
+	}
+	const guideIds = [...new Set(current.map((c) => c.guideId))];
+	await sequelize.transaction(async (transaction) => {
+		// A guide's older revisions leave the lists with their rows.
+		await sequelize.query(
+			`DELETE FROM guide_region_prices WHERE revision_id IN (:ids)${
+				guideIds.length > 0 ? ' OR guide_id IN (:guides)' : ''
+			}`,
+			{ type: QueryTypes.DELETE, replacements: { ids: revisionIds, guides: guideIds }, transaction }
+		);
+		for (let i = 0; i < values.length; i += 500) {
+			const chunk = values.slice(i, i + 500);
+			await sequelize.query(
+				`INSERT INTO guide_region_prices
+				   (revision_id, region_id, guide_id, is_base, currency, picks_total_minor,
+				    unpriced_slots, range_min_minor, range_max_minor, fps_per_100, total_sort,
+				    value_sort, published_at, computed_at)
+				 VALUES ${chunk.map(() => '(?)').join(', ')}`,
+				{ type: QueryTypes.INSERT, replacements: chunk, transaction }
+			);
+		}
+	});
+	invalidateBrowseTags();
+}

@@ -1,0 +1,292 @@
+/**
+ * Photo uploads and deletions for the three things a photo can illustrate: a guide (by its
+ * author; placed in the gallery of a revision by services/gallery.ts), a catalog part (by
+ * editors) and a public build (by its owner). Every upload runs the same pipeline
+ * (images/pipeline.ts) and counts against its owner's storage quota.
+ *
+ * Order of work, so bad input stores nothing: check who may upload and the quota, run the
+ * pipeline in memory, write the files, then insert the row in a transaction that locks the
+ * owner's user row and checks the quota again (two uploads at once cannot both take the last
+ * megabytes). If the insert fails, the files just written are removed.
+ */
+import { Op } from 'sequelize';
+import type { Transaction } from 'sequelize';
+import {
+	Build,
+	GalleryPhoto,
+	Guide,
+	GuideRevision,
+	Part,
+	Photo,
+	User,
+	sequelize
+} from '$lib/server/db';
+import type { StoredVariant } from '$lib/server/db';
+import { PhotoRejected, processPhoto } from '$lib/server/images/pipeline';
+import { removeFiles, storeFiles } from '$lib/server/images/store-photo';
+import { storage } from '$lib/server/storage';
+import { photoView } from './photo-views';
+import type { PhotoView } from './photo-views';
+
+/** Stored bytes per account over all its photos: common practice, no published source. */
+export const QUOTA_BYTES = 250 * 1024 * 1024;
+/** Photos per guide, part and build. */
+export const MAX_PHOTOS = { guide: 60, part: 6, build: 12 } as const;
+
+export type PhotoTarget =
+	{ kind: 'guide'; slug: string } | { kind: 'part'; slug: string } | { kind: 'build'; id: number };
+
+export interface Actor {
+	id: string;
+	role: string;
+}
+
+export type UploadOutcome =
+	| { kind: 'ok'; photo: PhotoView }
+	| { kind: 'not_found' }
+	| { kind: 'conflict'; message: string }
+	| { kind: 'rejected'; status: 413 | 415 | 422 | 503; message: string }
+	| { kind: 'quota'; message: string };
+
+export type DeleteOutcome =
+	{ kind: 'ok' } | { kind: 'not_found' } | { kind: 'conflict'; message: string };
+
+type Owner = { column: 'guideId' | 'partId' | 'buildId'; id: number };
+
+/** The item behind a target if `actor` may add photos to it; a reason when they may not yet. */
+async function resolveTarget(
+	actor: Actor,
+	target: PhotoTarget,
+	transaction?: Transaction
+): Promise<Owner | { refused: string } | null> {
+	if (target.kind === 'guide') {
+		// Only the guide's own author, whatever their role: another author's guide is not found.
+		const guide = await Guide.findOne({
+			where: { slug: target.slug, authorId: actor.id },
+			transaction
+		});
+		if (!guide) return null;
+		if (guide.state === 'archived' || guide.state === 'declined')
+			return { refused: 'This guide is closed to editing, so it takes no new photos.' };
+		return { column: 'guideId', id: guide.id };
+	}
+	if (target.kind === 'part') {
+		if (actor.role !== 'editor' && actor.role !== 'admin') return null;
+		const part = await Part.findOne({ where: { slug: target.slug }, transaction });
+		return part ? { column: 'partId', id: part.id } : null;
+	}
+	const build = await Build.findOne({ where: { id: target.id, ownerId: actor.id }, transaction });
+	if (!build) return null;
+	if (build.visibility !== 'public')
+		return {
+			refused: 'Photos of a finished build are shown to everyone: make the build public first.'
+		};
+	if (build.hiddenAt)
+		return { refused: 'This build is hidden by an editor, so it takes no new photos.' };
+	return { column: 'buildId', id: build.id };
+}
+
+/** Bytes an account's photos take now. */
+export async function usedBytes(userId: string, transaction?: Transaction): Promise<number> {
+	const sum = await Photo.sum('bytes', { where: { ownerId: userId }, transaction });
+	return Number(sum ?? 0);
+}
+
+const MB = 1024 * 1024;
+function quotaMessage(used: number): string {
+	return `Your photo storage is full: ${Math.ceil(used / MB)} MB of ${QUOTA_BYTES / MB} MB used. Delete photos you no longer need first.`;
+}
+
+/**
+ * Uploads one photo. `text` is the caption and alt text of a part or build photo; a guide
+ * photo gets both per revision in the gallery editor instead.
+ */
+export async function upload(
+	actor: Actor,
+	target: PhotoTarget,
+	file: Uint8Array,
+	text: { caption: string; altText: string } = { caption: '', altText: '' }
+): Promise<UploadOutcome> {
+	const owner = await resolveTarget(actor, target);
+	if (!owner) return { kind: 'not_found' };
+	if ('refused' in owner) return { kind: 'conflict', message: owner.refused };
+	const limit = MAX_PHOTOS[target.kind];
+	if ((await Photo.count({ where: { [owner.column]: owner.id } })) >= limit)
+		return { kind: 'conflict', message: `At most ${limit} photos here; delete one first.` };
+	const before = await usedBytes(actor.id);
+	if (before >= QUOTA_BYTES) return { kind: 'quota', message: quotaMessage(before) };
+
+	let processed;
+	try {
+		processed = await processPhoto(file);
+	} catch (e) {
+		if (e instanceof PhotoRejected)
+			return { kind: 'rejected', status: e.status, message: e.message };
+		throw e;
+	}
+	const store = storage();
+	const files = await storeFiles(store, processed);
+	try {
+		const created = await sequelize.transaction(async (transaction) => {
+			await User.findByPk(actor.id, {
+				attributes: ['id'],
+				transaction,
+				lock: transaction.LOCK.UPDATE
+			});
+			const used = await usedBytes(actor.id, transaction);
+			if (used + files.bytes > QUOTA_BYTES) return { quota: used } as const;
+			return Photo.create(
+				{
+					ownerId: actor.id,
+					guideId: owner.column === 'guideId' ? owner.id : null,
+					partId: owner.column === 'partId' ? owner.id : null,
+					buildId: owner.column === 'buildId' ? owner.id : null,
+					keyPrefix: files.keyPrefix,
+					width: processed.width,
+					height: processed.height,
+					bytes: files.bytes,
+					placeholder: processed.placeholder,
+					variants: files.variants,
+					caption: text.caption,
+					altText: text.altText
+				},
+				{ transaction }
+			);
+		});
+		if ('quota' in created) {
+			await removeFiles(store, files.variants);
+			return { kind: 'quota', message: quotaMessage(created.quota) };
+		}
+		return { kind: 'ok', photo: photoView(created) };
+	} catch (e) {
+		await removeFiles(store, files.variants).catch(() => undefined);
+		throw e;
+	}
+}
+
+/** Revisions of a guide whose gallery the public sees or an editor is deciding on. */
+async function protectedRevisionIds(guideId: number, transaction: Transaction): Promise<number[]> {
+	const guide = await Guide.findByPk(guideId, { attributes: ['publishedRevisionId'], transaction });
+	const pending = await GuideRevision.findAll({
+		where: { guideId, submittedAt: { [Op.ne]: null }, reviewedAt: null },
+		attributes: ['id'],
+		transaction
+	});
+	return [
+		...(guide?.publishedRevisionId ? [guide.publishedRevisionId] : []),
+		...pending.map((r) => r.id)
+	];
+}
+
+/**
+ * Deletes a photo and every stored variant. A guide photo that the live revision or a
+ * revision waiting for review shows is refused (409): take it out of the gallery and save;
+ * once a revision without it is approved, it can be deleted.
+ */
+export async function remove(
+	actor: Actor,
+	target: PhotoTarget,
+	photoId: number
+): Promise<DeleteOutcome> {
+	const outcome = await sequelize.transaction(async (transaction) => {
+		const owner = await resolveTarget(actor, target, transaction);
+		// A build that is no longer public still lets its owner delete its photos.
+		const ownerOf =
+			owner && 'refused' in owner ? await ownerIgnoringRefusal(actor, target, transaction) : owner;
+		if (!ownerOf) return { kind: 'not_found' } as const;
+		const photo = await Photo.findOne({
+			where: { id: photoId, [ownerOf.column]: ownerOf.id },
+			transaction,
+			lock: transaction.LOCK.UPDATE
+		});
+		if (!photo) return { kind: 'not_found' } as const;
+		if (ownerOf.column === 'guideId') {
+			const used = await GalleryPhoto.count({
+				where: { photoId, revisionId: await protectedRevisionIds(ownerOf.id, transaction) },
+				transaction
+			});
+			if (used > 0)
+				return {
+					kind: 'conflict',
+					message:
+						'This photo is in the live revision or in one waiting for review. Take it out of the gallery and save; you can delete it once a revision without it is approved.'
+				} as const;
+			await GalleryPhoto.destroy({ where: { photoId }, transaction });
+		}
+		const variants = photo.variants as StoredVariant[];
+		await photo.destroy({ transaction });
+		return { kind: 'ok', variants } as const;
+	});
+	if (outcome.kind !== 'ok') return outcome;
+	// After commit: a failed file delete leaves unreachable files, never a row without files.
+	await removeFiles(storage(), outcome.variants);
+	return { kind: 'ok' };
+}
+
+async function ownerIgnoringRefusal(
+	actor: Actor,
+	target: PhotoTarget,
+	transaction: Transaction
+): Promise<Owner | null> {
+	if (target.kind === 'guide') {
+		const guide = await Guide.findOne({
+			where: { slug: target.slug, authorId: actor.id },
+			transaction
+		});
+		return guide ? { column: 'guideId', id: guide.id } : null;
+	}
+	if (target.kind === 'build') {
+		const build = await Build.findOne({ where: { id: target.id, ownerId: actor.id }, transaction });
+		return build ? { column: 'buildId', id: build.id } : null;
+	}
+	return null;
+}
+
+/** The first photo of each part, by part slug: the small image in lists and guide slots. */
+export async function partThumbs(slugs: string[]): Promise<Record<string, PhotoView>> {
+	if (slugs.length === 0) return {};
+	const parts = await Part.findAll({
+		where: { slug: [...new Set(slugs)] },
+		attributes: ['id', 'slug']
+	});
+	const slugOf = new Map(parts.map((p) => [p.id, p.slug]));
+	const thumbs: Record<string, PhotoView> = {};
+	const rows = await Photo.findAll({
+		where: { partId: [...slugOf.keys()], hiddenAt: null },
+		order: [['id', 'ASC']]
+	});
+	for (const row of rows) {
+		const slug = slugOf.get(row.partId ?? 0);
+		if (slug && !thumbs[slug]) thumbs[slug] = photoView(row);
+	}
+	return thumbs;
+}
+
+/** A part's photos for its pages, oldest first (hidden ones left out). */
+export async function partPhotos(slug: string): Promise<PhotoView[]> {
+	const part = await Part.findOne({ where: { slug }, attributes: ['id'] });
+	if (!part) return [];
+	const rows = await Photo.findAll({
+		where: { partId: part.id, hiddenAt: null },
+		order: [['id', 'ASC']]
+	});
+	return rows.map((r) => photoView(r));
+}
+
+/** A finished build's photos; hidden ones are left out unless `includeHidden` (editors). */
+export async function buildPhotos(
+	buildId: number,
+	includeHidden = false
+): Promise<(PhotoView & { hidden: boolean })[]> {
+	const rows = await Photo.findAll({
+		where: { buildId, ...(includeHidden ? {} : { hiddenAt: null }) },
+		order: [['id', 'ASC']]
+	});
+	return rows.map((r) => ({ ...photoView(r), hidden: r.hiddenAt !== null }));
+}
+
+/** Whether files under a key prefix may be served: its photo exists and is not hidden by an editor. */
+export async function servable(keyPrefix: string): Promise<boolean> {
+	const photo = await Photo.findOne({ where: { keyPrefix }, attributes: ['id', 'hiddenAt'] });
+	return photo !== null && photo.hiddenAt === null;
+}

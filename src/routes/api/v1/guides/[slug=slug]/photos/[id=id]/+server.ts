@@ -1,0 +1,6 @@
+import { deletePhoto } from '$lib/server/api/photos';
+import type { RequestHandler } from './$types';
+
+/** Delete one of the guide's photos with every variant (refused while a live or pending revision shows it). */
+export const DELETE: RequestHandler = ({ params }) =>
+	deletePhoto({ kind: 'guide', slug: params.slug }, Number(params.id));

@@ -1,0 +1,271 @@
+import { expect, test } from '@playwright/test';
+import type { APIRequestContext, Browser, Page } from '@playwright/test';
+import exifr from 'exifr';
+import sharp from 'sharp';
+import { BASE_URL } from '../playwright.config';
+import { bombPng, jpegWithGps, svgFile } from '../support/images';
+import { severeViolations, signInWithPassword } from './support';
+
+/*
+ * Photos in Chromium against the production build: an author uploads three photos with
+ * visible progress, files them under assembly stages, reorders by keyboard, writes alt text
+ * and submits; an editor sees the new photos on the review page and approves; a visitor sees
+ * the gallery and walks the lightbox by keyboard. Over HTTP: served files carry no EXIF or
+ * GPS and the right headers, and bad files get 413, 415 and 422 with nothing stored.
+ */
+
+const AUTHOR = 'author@slotwise.test';
+const EDITOR = 'editor@slotwise.test';
+
+async function signedIn(browser: Browser, email: string): Promise<Page> {
+	const page = await (await browser.newContext()).newPage();
+	await signInWithPassword(page, email);
+	return page;
+}
+
+/** A new guide with one slot of a demo guide, saved as a draft through the author JSON API. */
+async function draftGuide(request: APIRequestContext, title: string): Promise<string> {
+	const created = await request.post('/api/v1/guides', {
+		data: {
+			title,
+			summary: 'A gallery test build.',
+			targetBudget: '800',
+			baseRegion: 'us',
+			tags: [],
+			disclosure: 'none'
+		}
+	});
+	expect(created.status()).toBe(201);
+	const { slug, version } = (await created.json()) as { slug: string; version: number };
+	const demo = (await (await request.get('/api/v1/guides/steady-1080p-starter')).json()) as {
+		slots: { category: string; label: string; reason: string; pick: { id: number } }[];
+	};
+	const slot = demo.slots[0];
+	const saved = await request.put(`/api/v1/guides/${slug}/draft`, {
+		data: {
+			version,
+			title,
+			summary: 'A gallery test build.',
+			targetBudget: '800',
+			baseRegion: 'us',
+			tags: [],
+			disclosure: 'none',
+			buildNotes: { firmware: '', assembly: '', cabling: '', display: '' },
+			slots: [
+				{
+					category: slot?.category,
+					label: slot?.label,
+					quantity: 1,
+					pickPartId: slot?.pick.id,
+					reason: slot?.reason,
+					alternates: []
+				}
+			]
+		}
+	});
+	expect(saved.status()).toBe(200);
+	return slug;
+}
+
+/** Three distinct drawn photos (flat colours with a block; nothing is a photograph). */
+async function threePhotos() {
+	const colours = ['#2f4858', '#b4532a', '#0e6f6a'];
+	return Promise.all(
+		colours.map(async (background, i) => ({
+			name: `stage-${i + 1}.jpg`,
+			mimeType: 'image/jpeg',
+			buffer: await sharp({ create: { width: 2000, height: 1500, channels: 3, background } })
+				.composite([
+					{
+						input: { create: { width: 600, height: 400, channels: 3, background: '#fbf8f3' } },
+						left: 200 + i * 300,
+						top: 300
+					}
+				])
+				.jpeg({ quality: 90 })
+				.toBuffer()
+		}))
+	);
+}
+
+test('upload three photos, file and order them, submit, approve: the guide page shows them and the lightbox works', async ({
+	browser
+}) => {
+	test.setTimeout(180_000); // three photos through sharp and two sign-ins on a shared machine
+	const title = `Gallery run ${Date.now()}`;
+	const author = await signedIn(browser, AUTHOR);
+	const slug = await draftGuide(author.request, title);
+	await author.goto(`/my/guides/${slug}/edit`);
+
+	await author.getByTestId('photo-input').setInputFiles(await threePhotos());
+	// Each file gets its own row with a progress bar while it uploads or is processed.
+	await expect(author.getByTestId('upload')).toHaveCount(3);
+	await expect(author.locator('[data-testid=upload] progress').first()).toBeVisible();
+	await expect(author.getByTestId('upload-phase').filter({ hasText: 'Done' })).toHaveCount(3, {
+		timeout: 120_000
+	});
+	const items = author.getByTestId('gallery-item');
+	await expect(items).toHaveCount(3);
+
+	const stages = ['CPU cooler', 'Power supply and cabling', 'Cable management'];
+	for (let i = 0; i < 3; i++) {
+		const item = items.nth(i);
+		await item.getByLabel('Assembly stage').selectOption({ label: stages[i] ?? '' });
+		await item.getByLabel('Alt text (required)').fill(`Photo number ${i + 1} of the build`);
+		await item.getByLabel('Caption').fill(`Caption ${i + 1}`);
+	}
+	// Keyboard: the third photo's "earlier" button, by Tab focus and Enter.
+	await items.nth(2).getByRole('button', { name: 'Move photo 3 earlier' }).focus();
+	await author.keyboard.press('Enter');
+	await expect(items.nth(1).getByLabel('Caption')).toHaveValue('Caption 3');
+	// And Alt+↑ from a field of the (now) second photo moves it to the top.
+	await items.nth(1).getByLabel('Caption').focus();
+	await author.keyboard.press('Alt+ArrowUp');
+	await expect(items.nth(0).getByLabel('Caption')).toHaveValue('Caption 3');
+	const editorViolations = await severeViolations(author);
+	expect(editorViolations, editorViolations.join('\n')).toEqual([]);
+	// At a phone width (390 px) the gallery editor still fits: no sideways scrolling, and
+	// each photo's fields and buttons are on screen.
+	await author.setViewportSize({ width: 390, height: 900 });
+	const [scroll, inner] = await author.evaluate(() => [
+		document.documentElement.scrollWidth,
+		window.innerWidth
+	]);
+	expect(scroll, `editor ${scroll} px wide in a ${inner} px window`).toBeLessThanOrEqual(inner);
+	const earlier = items.nth(2).getByRole('button', { name: 'Move photo 3 earlier' });
+	await earlier.scrollIntoViewIfNeeded();
+	const button = await earlier.boundingBox();
+	expect((button?.x ?? -1) >= 0 && (button?.x ?? 0) + (button?.width ?? 0) <= 390).toBe(true);
+	await author.setViewportSize({ width: 1280, height: 900 });
+
+	await author.getByRole('button', { name: 'Save and submit for review' }).click();
+	await expect(author).toHaveURL(/\/my\/guides\?submitted=/);
+
+	const editor = await signedIn(browser, EDITOR);
+	await editor.goto('/review');
+	await editor.getByTestId('review-queue').getByRole('link', { name: title }).click();
+	const changes = editor.getByTestId('photo-changes');
+	await expect(changes.getByRole('heading', { name: 'New photos (3)' })).toBeVisible();
+	const reviewViolations = await severeViolations(editor);
+	expect(reviewViolations, reviewViolations.join('\n')).toEqual([]);
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(editor.getByText('Published: this revision is now live.')).toBeVisible();
+
+	const visitor = await (await browser.newContext()).newPage();
+	await visitor.goto(`/guides/${slug}`);
+	const gallery = visitor.getByRole('region', { name: 'Assembly photos' });
+	await expect(gallery.getByTestId('gallery-stage')).toHaveCount(3);
+	// Stages in assembly order, whatever the upload order: cooler before PSU before cable management.
+	await expect(gallery.getByRole('heading', { level: 3 })).toHaveText(stages);
+	await expect(gallery.getByText('Never open a power supply', { exact: false })).toBeVisible();
+	const first = gallery.locator('picture').first();
+	await expect(first.locator('source[type="image/avif"]')).toHaveAttribute(
+		'srcset',
+		/480w.*960w.*1600w/
+	);
+	await expect(first.locator('source[type="image/webp"]')).toHaveAttribute('sizes', /.+/);
+	await expect(first.locator('img')).toHaveAttribute('loading', 'lazy');
+	await expect(first.locator('img')).toHaveAttribute('alt', 'Photo number 1 of the build');
+	const pageViolations = await severeViolations(visitor);
+	expect(pageViolations, pageViolations.join('\n')).toEqual([]);
+
+	const opener = gallery.getByRole('link', { name: 'Enlarge: Photo number 1 of the build' });
+	await opener.click();
+	const dialog = visitor.getByRole('dialog', { name: 'Assembly photos' });
+	await expect(dialog).toBeVisible();
+	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Caption 1');
+	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Photo 1 of 3');
+	await visitor.keyboard.press('ArrowRight');
+	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Photo 2 of 3');
+	await visitor.keyboard.press('ArrowLeft');
+	await visitor.keyboard.press('ArrowLeft');
+	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Photo 3 of 3');
+	const lightboxViolations = await severeViolations(visitor);
+	expect(lightboxViolations, lightboxViolations.join('\n')).toEqual([]);
+	await visitor.keyboard.press('Escape');
+	await expect(dialog).toBeHidden();
+	await expect(opener).toBeFocused();
+	for (const page of [author, editor, visitor]) await page.context().close();
+});
+
+test('a JPEG with EXIF GPS: no served variant carries EXIF or GPS, and files come with nosniff and long caching', async ({
+	browser
+}) => {
+	test.setTimeout(90_000);
+	const author = await signedIn(browser, AUTHOR);
+	const slug = await draftGuide(author.request, `GPS run ${Date.now()}`);
+	const input = await jpegWithGps(2000, 1200);
+	expect((await exifr.gps(input))?.latitude).toBe(51.5);
+	const response = await author.request.post(`/api/v1/guides/${slug}/photos`, {
+		multipart: { file: { name: 'with-gps.jpg', mimeType: 'image/jpeg', buffer: input } },
+		headers: { origin: BASE_URL }
+	});
+	expect(response.status()).toBe(201);
+	const photo = (await response.json()) as { variants: { url: string; format: string }[] };
+	expect(photo.variants.length).toBeGreaterThanOrEqual(5);
+	for (const variant of photo.variants) {
+		const file = await author.request.get(variant.url);
+		expect(file.status()).toBe(200);
+		const headers = file.headers();
+		expect(headers['content-type']).toBe(
+			{ avif: 'image/avif', webp: 'image/webp', jpeg: 'image/jpeg' }[variant.format]
+		);
+		expect(headers['x-content-type-options']).toBe('nosniff');
+		expect(headers['cache-control']).toBe('public, max-age=31536000, immutable');
+		const bytes = await file.body();
+		const meta = await sharp(bytes).metadata();
+		expect(meta.exif, variant.url).toBeUndefined();
+		expect(await exifr.gps(bytes).catch(() => undefined), variant.url).toBeUndefined();
+	}
+	await author.context().close();
+});
+
+test('bad files: 413 with the limit, 415 for SVG and non-multipart, 422 for a bomb, 401 and 404 for others', async ({
+	browser
+}) => {
+	test.setTimeout(90_000);
+	const author = await signedIn(browser, AUTHOR);
+	const slug = await draftGuide(author.request, `Bad files ${Date.now()}`);
+	const post = (request: APIRequestContext, buffer: Buffer, name = 'photo.jpg') =>
+		request.post(`/api/v1/guides/${slug}/photos`, {
+			multipart: { file: { name, mimeType: 'image/jpeg', buffer } },
+			headers: { origin: BASE_URL },
+			failOnStatusCode: false
+		});
+
+	const tooBig = await post(author.request, Buffer.alloc(16 * 1024 * 1024, 0xff));
+	expect(tooBig.status()).toBe(413);
+	expect((await tooBig.json()).message).toBe('Photos may be at most 15 MB.');
+	const svg = await post(author.request, svgFile(), 'drawing.jpg');
+	expect(svg.status()).toBe(415);
+	expect((await svg.json()).message).toMatch(/SVG/);
+	const bomb = await post(author.request, bombPng());
+	expect(bomb.status()).toBe(422);
+	expect((await bomb.json()).message).toMatch(/14000 × 14000 pixels/);
+	const form = await author.request.post(`/api/v1/guides/${slug}/photos`, {
+		form: { file: 'not a file' },
+		headers: { origin: BASE_URL },
+		failOnStatusCode: false
+	});
+	expect(form.status()).toBe(415);
+	// Every other route keeps the 512 KB cap even though the server takes 16 MB bodies.
+	const bigJson = await author.request.put(`/api/v1/guides/${slug}/draft`, {
+		data: { padding: 'x'.repeat(600 * 1024) },
+		failOnStatusCode: false
+	});
+	expect(bigJson.status()).toBe(413);
+
+	const visitor = await (await browser.newContext()).newPage();
+	expect((await post(visitor.request, await jpegWithGps())).status()).toBe(401);
+	const reader = await signedIn(browser, 'reader@slotwise.test');
+	expect((await post(reader.request, await jpegWithGps())).status()).toBe(404);
+
+	// Nothing was stored for any of them: the editor lists no photo for this guide.
+	await author.goto(`/my/guides/${slug}/edit`);
+	await expect(author.getByText('No photos in this revision yet.')).toBeVisible();
+	await expect(author.getByRole('heading', { name: 'Uploaded, not in this revision' })).toHaveCount(
+		0
+	);
+	for (const page of [author, visitor, reader]) await page.context().close();
+});
