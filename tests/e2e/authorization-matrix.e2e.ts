@@ -150,6 +150,8 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(public)/newsletter/manage?/unsubscribe': everyone('ok'),
 	'GET /(public)/newsletter/unsubscribe': everyone('ok'),
 	'POST /(public)/newsletter/unsubscribe?/default': everyone('ok'),
+	// The same one-click POST as mail providers send it (no Accept for HTML): +server.ts.
+	'POST /(public)/newsletter/unsubscribe': everyone('ok'),
 	// The sample handle is the demo author's; following needs a session (the probe body is a 400).
 	'GET /(public)/authors/[handle]': everyone('ok'),
 	'POST /(public)/authors/[handle]?/follow': signedIn,

@@ -28,10 +28,34 @@ async function signedIn(browser: Browser, email: string): Promise<Page> {
 	return page;
 }
 
-async function partId(request: APIRequestContext, slug: string): Promise<number> {
-	const response = await request.get(`/api/v1/parts/${slug}`);
+/**
+ * Part ids by slug. The public part API names parts by slug only, so they are read from the
+ * demo author's own starter guide draft, where both parts are picks or alternates.
+ */
+async function partIds(
+	request: APIRequestContext,
+	slugs: [string, string]
+): Promise<[number, number]> {
+	const response = await request.get('/api/v1/guides/steady-1080p-starter/draft');
 	expect(response.status()).toBe(200);
-	return ((await response.json()) as { id: number }).id;
+	const draft = (await response.json()) as {
+		slots: {
+			pickPartId: number;
+			pick: { slug: string };
+			alternates: { partId: number; part?: { slug: string } }[];
+		}[];
+	};
+	const ids = new Map<string, number>();
+	for (const slot of draft.slots) {
+		ids.set(slot.pick.slug, slot.pickPartId);
+		for (const a of slot.alternates) if (a.part) ids.set(a.part.slug, a.partId);
+	}
+	const idOf = (slug: string) => {
+		const id = ids.get(slug);
+		expect(id, slug).toBeDefined();
+		return id as number;
+	};
+	return [idOf(slugs[0]), idOf(slugs[1])];
 }
 
 /** A two-pick guide by the demo author, submitted through the author JSON API. */
@@ -47,6 +71,7 @@ async function submitGuide(request: APIRequestContext, title: string): Promise<s
 	const created = await request.post('/api/v1/guides', { data: meta });
 	expect(created.status()).toBe(201);
 	const { slug, version } = (await created.json()) as { slug: string; version: number };
+	const [cpuId, memoryId] = await partIds(request, ['halvard-strata-408', 'brisk-ddr4-3200-32gb']);
 	const slot = (category: string, label: string, pickPartId: number) => ({
 		category,
 		label,
@@ -60,17 +85,14 @@ async function submitGuide(request: APIRequestContext, title: string): Promise<s
 			version,
 			...meta,
 			buildNotes: { firmware: '', assembly: '', cabling: '', display: '' },
-			slots: [
-				slot('cpu', 'CPU', await partId(request, 'halvard-strata-408')),
-				slot('memory', 'Memory', await partId(request, 'brisk-ddr4-3200-32gb'))
-			]
+			slots: [slot('cpu', 'CPU', cpuId), slot('memory', 'Memory', memoryId)]
 		}
 	});
-	expect(saved.status()).toBe(200);
+	expect(saved.status(), await saved.text()).toBe(200);
 	const submitted = await request.post(`/api/v1/guides/${slug}/submit`, {
 		data: { version: (await saved.json()).version }
 	});
-	expect(submitted.status()).toBe(200);
+	expect(submitted.status(), await submitted.text()).toBe(200);
 	return slug;
 }
 
@@ -100,7 +122,7 @@ test('subscribe, confirm, approve and mail a guide, then one-click unsubscribe w
 	// Nothing can be mailed before moderation: the submitted guide is not offered yet.
 	const title = `Mailed guide ${Date.now()}`;
 	const author = await signedIn(browser, AUTHOR);
-	await submitGuide(author.request, title);
+	const slug = await submitGuide(author.request, title);
 	const editor = await signedIn(browser, EDITOR);
 	await editor.goto('/editor/mailings');
 	await expect(editor.getByRole('heading', { name: 'Mailings', level: 1 })).toBeVisible();
@@ -108,8 +130,15 @@ test('subscribe, confirm, approve and mail a guide, then one-click unsubscribe w
 
 	await editor.goto('/review');
 	await editor.getByTestId('review-queue').getByRole('link', { name: title }).click();
-	await editor.getByRole('button', { name: 'Approve and publish' }).click();
-	await expect(editor.getByText('Approved: this revision is now live.')).toBeVisible();
+	await editor.getByRole('button', { name: 'Publish', exact: true }).click();
+	await editor.getByRole('button', { name: 'Yes, publish now' }).click();
+	await expect(editor.getByText('Published: this revision is now live.')).toBeVisible();
+
+	// Readers reach the author's page from the guide: it lists the new guide.
+	await visitor.goto(`/guides/${slug}`);
+	await visitor.getByRole('link', { name: 'Priya Lindqvist', exact: true }).first().click();
+	await expect(visitor).toHaveURL(/\/authors\/priya-lindqvist$/);
+	await expect(visitor.getByRole('link', { name: title })).toBeVisible();
 
 	await editor.goto('/editor/mailings');
 	const row = editor.getByRole('listitem').filter({ hasText: title });

@@ -1,5 +1,5 @@
 import { beforeEach, describe, expect, it } from 'vitest';
-import { User, sequelize } from '../../src/lib/server/db';
+import { TipSettings, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import * as authors from '../../src/lib/server/services/authors';
 import { demoGuide, forkBuild, newReader } from '../support/buildsync-fixtures';
@@ -40,6 +40,31 @@ describe('author pages', () => {
 		await forkBuild(await newReader('fork-a'), await demoGuide());
 		await forkBuild(await newReader('fork-b'), await demoGuide());
 		expect((await authors.authorPage('priya-lindqvist', null))!.forks).toBe(2);
+	});
+
+	it('offers tips (issue 20) only while the author takes them and payments are configured', async () => {
+		const saved = {
+			key: process.env.STRIPE_SECRET_KEY,
+			secret: process.env.STRIPE_WEBHOOK_SECRET
+		};
+		try {
+			process.env.STRIPE_SECRET_KEY = 'sk_test_for_the_author_page';
+			process.env.STRIPE_WEBHOOK_SECRET = 'whsec_for_the_author_page';
+			expect((await authors.authorPage('priya-lindqvist', null))!.tipsOpen).toBe(true);
+			const priya = (await User.findOne({ where: { handle: 'priya-lindqvist' } }))!;
+			await TipSettings.upsert({ userId: priya.id, tipsEnabled: false, thankYouMessage: '' });
+			expect((await authors.authorPage('priya-lindqvist', null))!.tipsOpen).toBe(false);
+			await TipSettings.upsert({ userId: priya.id, tipsEnabled: true, thankYouMessage: '' });
+			delete process.env.STRIPE_SECRET_KEY;
+			expect((await authors.authorPage('priya-lindqvist', null))!.tipsOpen).toBe(false);
+		} finally {
+			for (const [name, value] of [
+				['STRIPE_SECRET_KEY', saved.key],
+				['STRIPE_WEBHOOK_SECRET', saved.secret]
+			] as const)
+				if (value === undefined) delete process.env[name];
+				else process.env[name] = value;
+		}
 	});
 
 	it('a reader without published guides, an unknown handle and a disabled author have no page', async () => {

@@ -7,6 +7,8 @@
 import { Op, UniqueConstraintError } from 'sequelize';
 import { Build, Follow, Guide, GuideRevision, User } from '$lib/server/db';
 import type { Outcome } from '$lib/schemas/issues';
+import { paymentsAvailable } from '$lib/server/payments/provider';
+import { getSettings as tipSettingsOf } from './tips';
 
 const WRITING_ROLES = ['author', 'editor', 'admin'];
 
@@ -30,6 +32,8 @@ export interface AuthorPage {
 	following: boolean | null;
 	/** The viewer is this author (no follow button on one's own page). */
 	own: boolean;
+	/** Readers may tip this author (issue 20): each guide then links its tip page. */
+	tipsOpen: boolean;
 }
 
 function publishedWhere(authorId: string) {
@@ -58,10 +62,11 @@ export async function authorPage(
 	const allGuideIds = (
 		await Guide.findAll({ where: { authorId: author.id }, attributes: ['id'] })
 	).map((g) => g.id);
-	const [forks, followers, follow] = await Promise.all([
+	const [forks, followers, follow, tips] = await Promise.all([
 		allGuideIds.length ? Build.count({ where: { sourceGuideId: allGuideIds } }) : 0,
 		Follow.count({ where: { authorId: author.id } }),
-		viewerId ? Follow.findOne({ where: { followerId: viewerId, authorId: author.id } }) : null
+		viewerId ? Follow.findOne({ where: { followerId: viewerId, authorId: author.id } }) : null,
+		tipSettingsOf(author.id)
 	]);
 	return {
 		handle: author.handle,
@@ -77,7 +82,8 @@ export async function authorPage(
 		forks,
 		followers,
 		following: viewerId ? follow !== null : null,
-		own: viewerId === author.id
+		own: viewerId === author.id,
+		tipsOpen: tips.tipsEnabled && paymentsAvailable() && guides.length > 0
 	};
 }
 

@@ -13,6 +13,6 @@ export { mailingPayload, renderMailing } from './compose.js';
 export type { MailingPayload } from './compose.js';
 export { deliveryCheckFromEnv, httpDeliveryCheck } from './delivery-check.js';
 export type { DeliveryCheck } from './delivery-check.js';
-export { queueSettingsFromEnv } from './settings.js';
+export { inlineWorkerWanted, queueSettingsFromEnv } from './settings.js';
 export type { QueueSettings } from './settings.js';
 export { createPooledTransport, MailWorker } from './worker.js';

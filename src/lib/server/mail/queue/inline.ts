@@ -1,17 +1,18 @@
 /*
  * The worker that runs inside the app process (src/hooks.server.ts starts it), so
  * `npm start` and the end-to-end tests send queued mail with no extra process. Set
- * MAIL_WORKER=off where dedicated workers (`npm run worker`) do the sending instead.
+ * MAIL_WORKER=off where dedicated workers (`npm run worker`) do the sending instead
+ * (settings.ts `inlineWorkerWanted`; docs/deployment.md §5).
  */
 import { db } from '../../db/connection.js';
 import { deliveryCheckFromEnv } from './delivery-check.js';
-import { queueSettingsFromEnv } from './settings.js';
+import { inlineWorkerWanted, queueSettingsFromEnv } from './settings.js';
 import { MailWorker } from './worker.js';
 
 let inline: MailWorker | null = null;
 
 export function startInlineWorker(env: NodeJS.ProcessEnv = process.env): MailWorker | null {
-	if (inline || env.MAIL_WORKER === 'off') return inline;
+	if (inline || !inlineWorkerWanted(env)) return inline;
 	inline = new MailWorker({
 		sequelize: db(),
 		settings: queueSettingsFromEnv(env),

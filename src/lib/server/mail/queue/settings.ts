@@ -2,6 +2,7 @@
  * The mail queue's knobs, from plain process.env (the worker also runs outside Vite).
  * Defaults suit a real relay; tests and the crash test shorten the lease and the back-off.
  */
+import { z } from 'zod';
 import type { RetryPolicy } from '../../../domain/mail-delivery.js';
 
 export interface QueueSettings {
@@ -46,4 +47,23 @@ export function queueSettingsFromEnv(env: NodeJS.ProcessEnv = process.env): Queu
 			maxAttempts: Math.floor(positive(env, 'MAIL_MAX_ATTEMPTS', 8))
 		}
 	};
+}
+
+const workerSwitch = z
+	.enum(['on', 'off'], { message: 'MAIL_WORKER must be "on" or "off"' })
+	.default('on');
+
+/**
+ * Whether this app process sends queued mail itself (MAIL_WORKER, default "on"). `npm start`
+ * on one machine needs it on; behind a proxy, the app processes may set it "off" and leave
+ * the sending to `npm run worker` processes (docs/deployment.md §5). Either way is safe: any
+ * number of workers share the queue through row locks. Anything but on/off is refused at
+ * start rather than read as one or the other.
+ */
+export function inlineWorkerWanted(env: NodeJS.ProcessEnv = process.env): boolean {
+	const raw = env.MAIL_WORKER?.trim().toLowerCase();
+	const parsed = workerSwitch.safeParse(raw === '' ? undefined : raw);
+	if (!parsed.success)
+		throw new Error(`${parsed.error.issues[0]?.message} (got "${env.MAIL_WORKER}")`);
+	return parsed.data === 'on';
 }
