@@ -162,7 +162,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(editor)/editor/mailings?/create': editors,
 	'GET /(editor)/editor/mailings/[id=id]': missingForEditors,
 	'GET /(editor)/editor/mailings/[id=id]/progress': missingForEditors,
-	'POST /(editor)/editor/mailings/[id=id]?/save': editors,
+	'POST /(editor)/editor/mailings/[id=id]?/save': missingForEditors,
 	'POST /(editor)/editor/mailings/[id=id]?/test': missingForEditors,
 	'POST /(editor)/editor/mailings/[id=id]?/start': missingForEditors,
 	'POST /(editor)/editor/mailings/[id=id]?/resend': missingForEditors,
