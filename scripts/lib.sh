@@ -53,8 +53,19 @@ DATA_DIR="${SLOTWISE_DATA_DIR:-$ROOT/.data}"
 # it or it is free; otherwise the usual default when free; otherwise any free port. The
 # choice is remembered in .data/<name>.port.
 port_free() { ! (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+# A port nobody listens on now, drawn from 20000-32767: below Linux's ephemeral range
+# (32768-60999), so an outgoing connection (to MariaDB, the fakes) cannot take it between
+# this choice and the listen minutes later, as a port the kernel handed out could be.
 free_port() {
-	node -e "const s=require('net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close()})"
+	node -e "
+const net = require('net');
+const tryPort = (n) => {
+  const port = 20000 + Math.floor(Math.random() * 12768);
+  const s = net.createServer();
+  s.once('error', () => (n > 0 ? tryPort(n - 1) : process.exit(1)));
+  s.listen(port, '127.0.0.1', () => s.close(() => process.stdout.write(String(port))));
+};
+tryPort(50);"
 }
 # pid_alive STEM: the process group recorded in .data/STEM.pid still runs.
 pid_alive() {

@@ -17,9 +17,6 @@ start_mail_fake
 start_ecb_fake
 start_payment_fake
 ensure_auth_secret
-# The app under end-to-end test gets a port of its own for this run.
-export E2E_PORT="${E2E_PORT:-$(free_port)}"
-register_payment_webhook "http://127.0.0.1:$E2E_PORT"
 # Integration tests migrate slotwise_test themselves (globalSetup) and truncate between tests;
 # end-to-end tests read the seeded demo in slotwise_e2e.
 bash scripts/db.sh recreate slotwise_e2e >/dev/null || fail "recreate slotwise_e2e"
@@ -65,6 +62,11 @@ step "Production build"
 if npx vite build >"$REPORTS/build.log" 2>&1; then
 	record build 1
 	step "End-to-end tests (Playwright, Debian's Chromium)"
+	# The app under end-to-end test gets a port of its own, chosen just before it starts (a
+	# port chosen 20 minutes earlier may have been taken by then), and the payment fake is told
+	# where to send its webhooks.
+	export E2E_PORT="${E2E_PORT:-$(free_port)}"
+	register_payment_webhook "http://127.0.0.1:$E2E_PORT"
 	if ! DB_NAME=slotwise_e2e PLAYWRIGHT_JSON_OUTPUT_NAME="$REPORTS/playwright.json" \
 		npx playwright test --config tests/playwright.config.ts --reporter=list,json; then
 		status=1

@@ -218,6 +218,8 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(admin)/admin/users?/setDisabled': admins,
 	// Content reports: the matrix posts an empty form (400 for signed-in people, nothing filed).
 	'POST /(public)/guides/[slug=slug]?/report': signedIn,
+	// A supporter's note: the same rule as the guide (the empty probe form is a 400, nothing filed).
+	'POST /(public)/guides/[slug=slug]?/reportNote': signedIn,
 	'GET /(editor)/editor/reports': editors,
 	'POST /(editor)/editor/reports?/dismiss': editors,
 	'POST /(editor)/editor/reports?/hide': editors,

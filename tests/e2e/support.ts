@@ -98,14 +98,16 @@ export async function severeViolations(page: Page): Promise<string[]> {
 }
 
 /** A TCP port free on 127.0.0.1 right now: tests never assume one another checkout may hold. */
-export function freePort(): Promise<number> {
+export function freePort(attempts = 50): Promise<number> {
+	// Drawn below Linux's ephemeral range (32768-60999), like scripts/lib.sh free_port: a port
+	// the kernel hands out for listen(0) may be taken by an outgoing connection before use.
+	const port = 20000 + Math.floor(Math.random() * 12768);
 	return new Promise((resolve, reject) => {
 		const server = createServer();
-		server.once('error', reject);
-		server.listen(0, '127.0.0.1', () => {
-			const address = server.address();
-			const port = typeof address === 'object' && address ? address.port : 0;
-			server.close(() => resolve(port));
+		server.once('error', (error) => {
+			if (attempts > 0) resolve(freePort(attempts - 1));
+			else reject(error);
 		});
+		server.listen(port, '127.0.0.1', () => server.close(() => resolve(port)));
 	});
 }

@@ -3,9 +3,17 @@
  * service and the pages (no framework imports).
  */
 
-/** Every kind of content a report may name. Only guides exist today (see SUBJECT_READY). */
-export const REPORT_SUBJECT_TYPES = ['guide', 'build', 'photo'] as const;
+/** Every kind of content a report may name (a tip_note is a supporter's public note on a guide). */
+export const REPORT_SUBJECT_TYPES = ['guide', 'build', 'photo', 'tip_note'] as const;
 export type ReportSubjectType = (typeof REPORT_SUBJECT_TYPES)[number];
+
+/** How pages name each kind of content ("Hide this supporter note…"). */
+export const REPORT_SUBJECT_NOUNS: Record<ReportSubjectType, string> = {
+	guide: 'guide',
+	build: 'build',
+	photo: 'photo',
+	tip_note: 'supporter note'
+};
 
 /** The fixed list of reasons a reader picks from, with the words the form shows. */
 export const REPORT_CATEGORIES = {

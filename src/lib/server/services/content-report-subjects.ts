@@ -1,7 +1,8 @@
 /**
  * The kinds of content people may report (docs/architecture.md "Roles"): a small registry maps
  * each subject type to a handler that finds, describes, hides and restores that kind of
- * content. 'guide', 'build' and 'photo' (a finished build's photo) have handlers (the hidden
+ * content. 'guide', 'build', 'photo' (a finished build's photo) and 'tip_note' (a supporter's
+ * public note, content-report-tip-notes.ts) have handlers (the hidden
  * columns of guides, builds and photos are written only here). Adding one means writing its SubjectHandler
  * and putting it into SUBJECTS; the queue (content-report-queue.ts) and the decisions
  * (content-reports.ts) need no change.
@@ -12,6 +13,7 @@ import type { ReportSubjectType } from '$lib/domain/content-reports';
 import { Build, Guide, Photo, User } from '$lib/server/db';
 import type { SubjectSummary } from '$lib/views';
 import { readerAccess } from './build-access';
+import { tipNoteSubject } from './content-report-tip-notes';
 import { wholeSecondNow } from './users';
 
 export interface SubjectHandler {
@@ -287,7 +289,8 @@ const photoSubject: SubjectHandler = {
 export const SUBJECTS: Record<ReportSubjectType, SubjectHandler | null> = {
 	guide: guideSubject,
 	build: buildSubject,
-	photo: photoSubject
+	photo: photoSubject,
+	tip_note: tipNoteSubject
 };
 
 /** The handler of a subject type, or the conflict to answer while that kind of content does not exist. */

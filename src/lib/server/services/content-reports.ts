@@ -13,6 +13,7 @@
  */
 import { UniqueConstraintError } from 'sequelize';
 import type { Transaction } from 'sequelize';
+import { REPORT_SUBJECT_NOUNS } from '$lib/domain/content-reports';
 import type { ReportCategory, ReportSubjectType } from '$lib/domain/content-reports';
 import { ContentReport, sequelize } from '$lib/server/db';
 import * as audit from './audit';
@@ -152,7 +153,7 @@ export async function hide(
 		if (hidden === 'already') {
 			return {
 				kind: 'conflict',
-				message: `This ${subject.type} is already hidden (perhaps by another editor).`
+				message: `This ${REPORT_SUBJECT_NOUNS[subject.type]} is already hidden (perhaps by another editor).`
 			} as const;
 		}
 		const ids = await closeOpenReports(subject, 'actioned', actorId, transaction);
@@ -185,7 +186,7 @@ export async function restore(
 		if (restored.kind === 'not_hidden') {
 			return {
 				kind: 'conflict',
-				message: `This ${subject.type} is not hidden (perhaps another editor restored it).`
+				message: `This ${REPORT_SUBJECT_NOUNS[subject.type]} is not hidden (perhaps another editor restored it).`
 			} as const;
 		}
 		await audit.record(

@@ -68,6 +68,7 @@ import * as mNotices from './2026.12.10T10.07.00.create-notices.js';
 import * as mNoticeSettings from './2026.12.10T10.08.00.create-notice-settings.js';
 import * as mMailings from './2026.12.10T10.09.00.create-mailings.js';
 import * as mMailJobs from './2026.12.10T10.10.00.create-mail-jobs.js';
+import * as mTipsNoteHiddenReason from './2026.12.13T10.00.00.add-tips-note-hidden-reason.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -132,5 +133,6 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.10T10.07.00.create-notices': mNotices,
 	'2026.12.10T10.08.00.create-notice-settings': mNoticeSettings,
 	'2026.12.10T10.09.00.create-mailings': mMailings,
-	'2026.12.10T10.10.00.create-mail-jobs': mMailJobs
+	'2026.12.10T10.10.00.create-mail-jobs': mMailJobs,
+	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason
 };

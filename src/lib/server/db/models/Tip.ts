@@ -30,6 +30,7 @@ export class Tip extends Model<InferAttributes<Tip>, InferCreationAttributes<Tip
 	declare note: string | null;
 	declare anonymous: boolean;
 	declare noteHiddenAt: CreationOptional<Date | null>;
+	declare noteHiddenReason: CreationOptional<string | null>;
 	declare paidAt: CreationOptional<Date | null>;
 	declare failedAt: CreationOptional<Date | null>;
 	declare refundedAt: CreationOptional<Date | null>;
@@ -50,6 +51,7 @@ export function initTip(sequelize: Sequelize) {
 			note: { type: DataTypes.STRING(280), allowNull: true },
 			anonymous: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
 			noteHiddenAt: { type: DataTypes.DATE, allowNull: true },
+			noteHiddenReason: { type: DataTypes.TEXT, allowNull: true },
 			paidAt: { type: DataTypes.DATE, allowNull: true },
 			failedAt: { type: DataTypes.DATE, allowNull: true },
 			refundedAt: { type: DataTypes.DATE, allowNull: true },

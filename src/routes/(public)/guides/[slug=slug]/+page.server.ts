@@ -69,33 +69,48 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	};
 };
 
+/**
+ * Files a report on the guide or on one supporter's note, answering in the form's own slot
+ * (`report` or `noteReport`, which also names the note) so the message shows where it was sent.
+ */
+async function fileReport(
+	request: Request,
+	subject: { type: 'guide'; key: string } | { type: 'tip_note'; key: string; noteId: number }
+) {
+	const me = requireUser();
+	const form = await readFormData(request);
+	const noun = subject.type === 'guide' ? 'guide' : 'note';
+	const slot = (answer: Record<string, unknown>) =>
+		subject.type === 'guide'
+			? { report: answer }
+			: { noteReport: { ...answer, noteId: subject.noteId } };
+	const reported = formAnswers({
+		notFound: () => slot({ problem: true, message: `This ${noun} is no longer available.` }),
+		// The reader's text comes back with the messages.
+		invalid: (issues: Issues) =>
+			slot({ issues, category: form.text('category') ?? '', detail: form.text('detail') ?? '' }),
+		conflict: (outcome) =>
+			slot({ problem: true, message: 'message' in outcome ? outcome.message : '' })
+	});
+	const input = parseForm(form, reportInput, reportForm);
+	if (input.kind !== 'ok') return reported.failure(input);
+	const outcome = await contentReports.report(me.id, subject.type, subject.key, input.data);
+	return reported.answer(outcome, (ok) =>
+		slot({
+			problem: false,
+			message: ok.created
+				? 'Thank you: your report is with the editors.'
+				: `You have already reported this ${noun} and the editors have not decided yet; nothing new was filed.`
+		})
+	);
+}
+
 export const actions: Actions = {
 	/** "Report this guide": signed-in people only; a repeat while the first is open changes nothing. */
-	report: async ({ params, request }) => {
-		const me = requireUser();
-		const form = await readFormData(request);
-		const reported = formAnswers({
-			notFound: () => ({
-				report: { problem: true, message: 'This guide is no longer available.' }
-			}),
-			// The reader's text comes back with the messages.
-			invalid: (issues: Issues) => ({
-				report: { issues, category: form.text('category') ?? '', detail: form.text('detail') ?? '' }
-			}),
-			conflict: (outcome) => ({
-				report: { problem: true, message: 'message' in outcome ? outcome.message : '' }
-			})
-		});
-		const input = parseForm(form, reportInput, reportForm);
-		if (input.kind !== 'ok') return reported.failure(input);
-		const outcome = await contentReports.report(me.id, 'guide', params.slug, input.data);
-		return reported.answer(outcome, (ok) => ({
-			report: {
-				problem: false,
-				message: ok.created
-					? 'Thank you: your report is with the editors.'
-					: 'You have already reported this guide and the editors have not decided yet; nothing new was filed.'
-			}
-		}));
+	report: ({ params, request }) => fileReport(request, { type: 'guide', key: params.slug }),
+	/** "Report this note" on a supporter's public note (?note=<tip id>); the same path as any report. */
+	reportNote: ({ request, url }) => {
+		const key = url.searchParams.get('note') ?? '';
+		return fileReport(request, { type: 'tip_note', key, noteId: Number(key) || 0 });
 	}
 };
