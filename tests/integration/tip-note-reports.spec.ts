@@ -26,7 +26,7 @@ async function user(email: string): Promise<User> {
 	return found;
 }
 
-async function paidTip(note: string | null, status = 'paid'): Promise<Tip> {
+async function paidTip(note: string | null, status: Tip['status'] = 'paid'): Promise<Tip> {
 	return Tip.create({
 		supporterId: supporter.id,
 		authorId: guide.authorId,
