@@ -150,8 +150,10 @@ test('subscribe, confirm, approve and mail a guide, then one-click unsubscribe w
 	await editor.getByRole('button', { name: 'Start sending' }).click();
 	await expect(editor.getByText(/^Started: \d+ recipients queued\.$/)).toBeVisible();
 
-	const us = await waitForMessage({ to: inUs, subject: /./, timeoutMs: 30_000 });
-	const de = await waitForMessage({ to: inDe, subject: /./, timeoutMs: 30_000 });
+	// The mailing's default subject; each address also holds its confirmation mail.
+	const mailed = new RegExp(`^New guide: ${title}$`);
+	const us = await waitForMessage({ to: inUs, subject: mailed, timeoutMs: 30_000 });
+	const de = await waitForMessage({ to: inDe, subject: mailed, timeoutMs: 30_000 });
 	// Hand sums of the demo quotes (header comment).
 	expect(us.text).toContain(
 		'In United States the picks come to US$194.98 (every pick quoted by a store there).'
