@@ -10,7 +10,21 @@
  *     GET    /health          { ok, messages }
  *     GET    /messages        newest first; ?to=address keeps one recipient's mail
  *     GET    /messages/:id    one message, or 404
- *     DELETE /messages        forget everything (204)
+ *     DELETE /messages        forget every message and count (204)
+ *     GET    /counts          { total, recipients: { address: n } } over every message accepted
+ *                             since the last DELETE, however many (the list above keeps 500)
+ *     GET    /deliveries/:messageId   { count }: messages accepted with that Message-ID
+ *                             (the mail queue's delivery check after a crash)
+ *     PUT    /rules           [{ localPart, code, times?, message? }]: refuse RCPT TO for
+ *                             addresses whose local part starts with localPart, with `code`
+ *                             (5xx permanent, 4xx temporary), the first `times` times per
+ *                             address (every time when absent). DELETE /rules clears them.
+ *     PUT    /settings        { dataDelayMs }: wait this long after keeping a message
+ *                             before answering 250 (widens the window a crash test aims at)
+ *
+ * SMTP_FAKE_KEEP=0 keeps no message bodies (nothing is parsed; GET /messages stays empty) and
+ * only counts, reading the Message-ID from the raw header: what the crash test and
+ * bench:mailing need at thousands of messages on a busy machine.
  *
  * Robustness: the message is buffered whole (bounded by MAX_MESSAGE_BYTES) before parsing,
  * so a parser failure can never leave the SMTP stream half-read; a message that cannot be
@@ -53,6 +67,22 @@ export interface StoredMessage {
 }
 
 const messages: StoredMessage[] = [];
+
+/** Every accepted message counted, unbounded (unlike `messages`), since the last DELETE. */
+let totalAccepted = 0;
+const byRecipient = new Map<string, number>();
+const byMessageId = new Map<string, number>();
+
+interface RefusalRule {
+	localPart: string;
+	code: number;
+	times: number | null;
+	message: string;
+}
+let rules: RefusalRule[] = [];
+/** Per rule and address: how many times it was refused so far. */
+const refusals = new Map<string, number>();
+let dataDelayMs = 0;
 
 function log(event: string, detail: Record<string, unknown> = {}) {
 	console.log(JSON.stringify({ t: new Date().toISOString(), kind: 'smtp-fake', event, ...detail }));
@@ -133,9 +163,36 @@ function readAll(stream: SMTPServerDataStream): Promise<Buffer> {
 	});
 }
 
+const KEEP_BODIES = process.env.SMTP_FAKE_KEEP !== '0';
+
+/** The Message-ID from the raw header block (unfolded), without parsing the whole message. */
+function rawMessageId(raw: Buffer): string | null {
+	const end = raw.indexOf('\r\n\r\n');
+	const head = raw.subarray(0, end === -1 ? raw.length : end).toString('latin1');
+	const match = /^message-id:[ \t]*((?:.|\r\n[ \t])*)/im.exec(head);
+	return match?.[1]?.replace(/\r\n[ \t]+/g, ' ').trim() || null;
+}
+
+function count(recipients: string[], messageId: string | null) {
+	totalAccepted++;
+	for (const address of recipients) {
+		const key = address.toLowerCase();
+		byRecipient.set(key, (byRecipient.get(key) ?? 0) + 1);
+	}
+	if (messageId) byMessageId.set(messageId, (byMessageId.get(messageId) ?? 0) + 1);
+}
+
 async function receive(stream: SMTPServerDataStream, session: SMTPServerSession): Promise<string> {
 	const raw = await readAll(stream);
 	if (stream.sizeExceeded) throw smtpError('Message too big for the local fake', 552);
+	if (!KEEP_BODIES) {
+		count(
+			session.envelope.rcptTo.map((r) => r.address),
+			rawMessageId(raw)
+		);
+		if (dataDelayMs > 0) await new Promise((resolve) => setTimeout(resolve, dataDelayMs));
+		return randomUUID();
+	}
 	let parsed: ParsedMail;
 	try {
 		parsed = await simpleParser(raw, { skipImageLinks: true });
@@ -146,8 +203,57 @@ async function receive(stream: SMTPServerDataStream, session: SMTPServerSession)
 	const message = toStored(parsed, session, raw.length);
 	messages.unshift(message);
 	messages.length = Math.min(messages.length, MAX_MESSAGES);
-	log('received', { id: message.id, to: message.to, subject: message.subject });
+	totalAccepted++;
+	for (const address of message.to) {
+		const key = address.toLowerCase();
+		byRecipient.set(key, (byRecipient.get(key) ?? 0) + 1);
+	}
+	if (parsed.messageId)
+		byMessageId.set(parsed.messageId, (byMessageId.get(parsed.messageId) ?? 0) + 1);
+	if (process.env.SMTP_FAKE_QUIET !== '1')
+		log('received', { id: message.id, to: message.to, subject: message.subject });
+	// Kept and counted first: a client that dies during this wait has delivered the message.
+	if (dataDelayMs > 0) await new Promise((resolve) => setTimeout(resolve, dataDelayMs));
 	return message.id;
+}
+
+/** The refusal a rule gives this recipient now, if any. */
+function refusalFor(address: string): RefusalRule | null {
+	const local = address.slice(0, address.lastIndexOf('@')).toLowerCase();
+	for (const rule of rules) {
+		if (!local.startsWith(rule.localPart)) continue;
+		const key = `${rule.localPart}|${address.toLowerCase()}`;
+		const done = refusals.get(key) ?? 0;
+		if (rule.times !== null && done >= rule.times) continue;
+		refusals.set(key, done + 1);
+		return rule;
+	}
+	return null;
+}
+
+function parseRules(body: unknown): RefusalRule[] | null {
+	if (!Array.isArray(body)) return null;
+	const out: RefusalRule[] = [];
+	for (const item of body) {
+		const r = item as Record<string, unknown>;
+		const code = Number(r.code);
+		if (typeof r.localPart !== 'string' || r.localPart === '' || !(code >= 400 && code <= 599))
+			return null;
+		const times = r.times === undefined || r.times === null ? null : Number(r.times);
+		if (times !== null && !(Number.isInteger(times) && times >= 0)) return null;
+		out.push({
+			localPart: r.localPart.toLowerCase(),
+			code,
+			times,
+			message:
+				typeof r.message === 'string'
+					? r.message
+					: code >= 500
+						? 'Mailbox does not exist (local fake rule)'
+						: 'Mailbox busy, try again later (local fake rule)'
+		});
+	}
+	return out;
 }
 
 const smtp = new SMTPServer({
@@ -157,6 +263,11 @@ const smtp = new SMTPServer({
 	banner: 'Slotwise local SMTP fake (nothing is relayed)',
 	size: MAX_MESSAGE_BYTES,
 	logger: false,
+	onRcptTo(address, _session, callback) {
+		const rule = refusalFor(address.address);
+		if (rule) return callback(smtpError(rule.message, rule.code));
+		callback();
+	},
 	onData(stream, session, callback) {
 		receive(stream, session).then(
 			(id) => callback(null, `Kept as ${id}`),
@@ -174,11 +285,58 @@ function sendJson(res: ServerResponse, status: number, body: unknown) {
 	res.end(body === undefined ? undefined : JSON.stringify(body));
 }
 
-function handle(req: IncomingMessage, res: ServerResponse) {
+async function readJson(req: IncomingMessage): Promise<unknown> {
+	const chunks: Buffer[] = [];
+	let size = 0;
+	for await (const chunk of req as AsyncIterable<Buffer>) {
+		size += chunk.length;
+		if (size > 64 * 1024) throw new Error('body too large');
+		chunks.push(chunk);
+	}
+	return JSON.parse(Buffer.concat(chunks).toString('utf8') || 'null');
+}
+
+async function handle(req: IncomingMessage, res: ServerResponse) {
 	const url = new URL(req.url ?? '/', `http://${HOST}`);
 	const path = url.pathname.replace(/\/+$/, '') || '/';
 	if (path === '/health' && req.method === 'GET') {
-		return sendJson(res, 200, { ok: true, messages: messages.length });
+		return sendJson(res, 200, { ok: true, messages: messages.length, accepted: totalAccepted });
+	}
+	if (path === '/counts' && req.method === 'GET') {
+		return sendJson(res, 200, {
+			total: totalAccepted,
+			recipients: Object.fromEntries(byRecipient)
+		});
+	}
+	const delivery = /^\/deliveries\/(.{1,300})$/.exec(path);
+	if (delivery && req.method === 'GET') {
+		return sendJson(res, 200, {
+			count: byMessageId.get(decodeURIComponent(delivery[1] ?? '')) ?? 0
+		});
+	}
+	if (path === '/rules') {
+		if (req.method === 'DELETE') {
+			rules = [];
+			refusals.clear();
+			return sendJson(res, 204, undefined);
+		}
+		if (req.method === 'PUT') {
+			const parsed = parseRules(await readJson(req).catch(() => undefined));
+			if (!parsed) return sendJson(res, 400, { message: 'Send [{ localPart, code, times? }]' });
+			rules = parsed;
+			refusals.clear();
+			return sendJson(res, 200, rules);
+		}
+		if (req.method === 'GET') return sendJson(res, 200, rules);
+	}
+	if (path === '/settings' && req.method === 'PUT') {
+		const body = (await readJson(req).catch(() => undefined)) as
+			{ dataDelayMs?: unknown } | undefined;
+		const delay = Number(body?.dataDelayMs ?? 0);
+		if (!(Number.isInteger(delay) && delay >= 0 && delay <= 10_000))
+			return sendJson(res, 400, { message: 'dataDelayMs: a whole number of ms, 0–10000' });
+		dataDelayMs = delay;
+		return sendJson(res, 200, { dataDelayMs });
 	}
 	if (path === '/messages') {
 		if (req.method === 'GET') {
@@ -190,6 +348,9 @@ function handle(req: IncomingMessage, res: ServerResponse) {
 		}
 		if (req.method === 'DELETE') {
 			messages.length = 0;
+			totalAccepted = 0;
+			byRecipient.clear();
+			byMessageId.clear();
 			return sendJson(res, 204, undefined);
 		}
 		return sendJson(res, 405, { message: 'Use GET or DELETE' });
@@ -205,12 +366,10 @@ function handle(req: IncomingMessage, res: ServerResponse) {
 }
 
 const http = createServer((req, res) => {
-	try {
-		handle(req, res);
-	} catch (e) {
+	handle(req, res).catch((e: unknown) => {
 		log('http-error', { error: String(e) });
 		if (!res.headersSent) sendJson(res, 500, { message: 'Internal error' });
-	}
+	});
 });
 
 interface Listener {

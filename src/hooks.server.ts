@@ -4,6 +4,7 @@ import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth/config';
 import {
 	capBodies,
+	checkFormOrigin,
 	closeAuthEndpoints,
 	formBodiesOnly,
 	guardAreas,
@@ -14,6 +15,7 @@ import {
 } from '$lib/server/auth/hooks';
 import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
+import { startInlineWorker, stopInlineWorker } from '$lib/server/mail/queue/inline';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { conditionalGuideReads } from '$lib/server/http/guide-caching';
@@ -37,6 +39,8 @@ export const init: ServerInit = () => {
 		);
 	}
 	if (!dev) watchForShutdown();
+	// The mail queue's worker runs beside the app (MAIL_WORKER=off leaves it to `npm run worker`).
+	startInlineWorker();
 };
 
 export const handle = sequence(
@@ -44,6 +48,7 @@ export const handle = sequence(
 	closeConnectionsWhenStopping,
 	securityHeaders,
 	outageAs503,
+	checkFormOrigin,
 	capBodies,
 	jsonOnlyApi,
 	closeAuthEndpoints,
@@ -76,6 +81,8 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 // With the pools closed nothing holds the event loop open, so the process exits with 0.
 process.once('sveltekit:shutdown' as never, (reason: string) => {
 	void settled()
+		// The worker finishes the message it is sending and releases its claims first.
+		.then(() => stopInlineWorker())
 		.then(() => Promise.all([closeDb(), closeRateLimits()]))
 		.then(
 			() => logShutdown(String(reason), 'closed'),

@@ -1,7 +1,11 @@
+import { unreadCount } from '$lib/server/services/notices';
 import type { LayoutServerLoad } from './$types';
 
-/** Only what the header needs: who is signed in and their role. */
-export const load: LayoutServerLoad = ({ locals }) => {
+/** Only what the header needs: who is signed in, their role, and their unread notices. */
+export const load: LayoutServerLoad = async ({ locals }) => {
 	const user = locals.user;
-	return { viewer: user ? { name: user.name ?? user.email, role: user.role } : null };
+	if (!user) return { viewer: null };
+	return {
+		viewer: { name: user.name ?? user.email, role: user.role, unread: await unreadCount(user.id) }
+	};
 };

@@ -16,7 +16,9 @@ const PAGES = [
 	{ name: 'part page', path: '/parts/solenne-cobalt-c6-8g' },
 	{ name: 'help', path: '/help' },
 	{ name: 'help: regional pricing', path: '/help/regional-pricing' },
-	{ name: 'help: API reference', path: '/help/api' }
+	{ name: 'help: API reference', path: '/help/api' },
+	{ name: 'newsletter', path: '/newsletter' },
+	{ name: 'author page', path: '/authors/priya-lindqvist' }
 ];
 
 for (const { name, path } of PAGES) {

@@ -65,6 +65,15 @@ const insightsAccess: Record<Role, Outcome> = {
 	editor: 'ok',
 	admin: 'ok'
 };
+
+/** An editor-only record that does not exist: editors and admins get 404. */
+const missingForEditors: Record<Role, Outcome> = {
+	visitor: 'signin',
+	reader: 'forbidden',
+	author: 'forbidden',
+	editor: 'notfound',
+	admin: 'notfound'
+};
 const admins: Record<Role, Outcome> = {
 	visitor: 'signin',
 	reader: 'forbidden',
@@ -129,6 +138,43 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(account)/account?/password': signedIn,
 	'POST /(account)/account?/requestAuthor': signedIn,
 	'POST /(account)/account?/delete': signedIn,
+	// Newsletter and notice settings on the account page: the probe form is refused (400) or
+	// changes nothing (no subscription to leave).
+	'POST /(account)/account?/newsletter': signedIn,
+	'POST /(account)/account?/leaveNewsletter': signedIn,
+	'POST /(account)/account?/notices': signedIn,
+	'GET /(account)/notices': signedIn,
+	'POST /(account)/notices?/open': signedIn,
+	'POST /(account)/notices?/unread': signedIn,
+	'POST /(account)/notices?/allRead': signedIn,
+	// The newsletter is public. The token pages answer 400 for the missing token ("ok": past
+	// authorization); the one-click POST needs no session (RFC 8058).
+	'GET /(public)/newsletter': everyone('ok'),
+	'POST /(public)/newsletter?/subscribe': everyone('ok'),
+	'POST /(public)/newsletter?/manageLink': everyone('ok'),
+	'GET /(public)/newsletter/confirm': everyone('ok'),
+	'POST /(public)/newsletter/confirm?/default': everyone('ok'),
+	'GET /(public)/newsletter/manage': everyone('ok'),
+	'POST /(public)/newsletter/manage?/save': everyone('ok'),
+	'POST /(public)/newsletter/manage?/unsubscribe': everyone('ok'),
+	'GET /(public)/newsletter/unsubscribe': everyone('ok'),
+	'POST /(public)/newsletter/unsubscribe?/default': everyone('ok'),
+	// The same one-click POST as mail providers send it (no Accept for HTML): +server.ts.
+	'POST /(public)/newsletter/unsubscribe': everyone('ok'),
+	// The sample handle is the demo author's; following needs a session (the probe body is a 400).
+	'GET /(public)/authors/[handle]': everyone('ok'),
+	'POST /(public)/authors/[handle]?/follow': signedIn,
+	'POST /(public)/authors/[handle]?/unfollow': signedIn,
+	// Mailings: editors only. The sample id names no mailing: the page, the progress endpoint
+	// and the actions that look it up answer 404; the probe body to ?/save is refused first (400).
+	'GET /(editor)/editor/mailings': editors,
+	'POST /(editor)/editor/mailings?/create': editors,
+	'GET /(editor)/editor/mailings/[id=id]': missingForEditors,
+	'GET /(editor)/editor/mailings/[id=id]/progress': missingForEditors,
+	'POST /(editor)/editor/mailings/[id=id]?/save': missingForEditors,
+	'POST /(editor)/editor/mailings/[id=id]?/test': missingForEditors,
+	'POST /(editor)/editor/mailings/[id=id]?/start': missingForEditors,
+	'POST /(editor)/editor/mailings/[id=id]?/resend': missingForEditors,
 	'GET /(author)/my/guides': authors,
 	// Upkeep answers on My guides: the empty probe form is refused with 400 for authors and editors.
 	'POST /(author)/my/guides?/snooze': authors,

@@ -101,6 +101,8 @@ export interface GuideDetail extends GuideCard {
 
 /** A guide priced in a chosen region (the base region unless the reader picks another). */
 export interface PricedGuide extends GuideDetail {
+	/** The author's public page, /authors/[handle]; null when the account is gone or disabled. */
+	authorHandle: string | null;
 	/** The region the prices are shown in. */
 	region: RegionSummary;
 	/** The target budget in the shown region's currency (itself in the base region); null without a rate. */

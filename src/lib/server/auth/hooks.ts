@@ -1,6 +1,7 @@
 /*
  * The request pipeline's security pieces, composed in src/hooks.server.ts.
  */
+import { dev } from '$app/environment';
 import { error, json, redirect } from '@sveltejs/kit';
 import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { baselineHeaders } from '$lib/server/http/security-headers.js';
@@ -137,6 +138,77 @@ export const jsonOnlyApi: Handle = ({ event, resolve }) => {
 				{ status: 415 }
 			);
 		}
+	}
+	return resolve(event);
+};
+
+/**
+ * The body types a cross-site page can send without a CORS preflight, as SvelteKit 2's own
+ * check lists them (is_form_content_type in @sveltejs/kit's utils/http.js, including its
+ * binary form type), read the way it reads them: media type before any `;`, trimmed,
+ * lower-cased, compared exactly.
+ */
+const CROSS_SITE_TYPES = new Set([
+	'application/x-www-form-urlencoded',
+	'multipart/form-data',
+	'text/plain',
+	'application/x-sveltekit-formdata'
+]);
+const mediaType = (request: Request) =>
+	(request.headers.get('content-type') ?? '').split(';', 1)[0]?.trim().toLowerCase() ?? '';
+
+/** The one route whose POST may come without our Origin (see `isOneClickUnsubscribe`). */
+const ONE_CLICK_ROUTE = '/(public)/newsletter/unsubscribe';
+
+/**
+ * RFC 8058 §3.1 (docs/sources.md 12): a mail provider sends the one-click unsubscribe POST
+ * itself, with no session and no Origin header, so SvelteKit's origin check would refuse
+ * the very request the List-Unsubscribe-Post header announces. Exempt is exactly that
+ * request: POST to this one route with a form body whose only field is
+ * `List-Unsubscribe=One-Click` (the route checks it again with zod). It can do nothing but
+ * end the subscription its signed, expiring token names, which anyone holding the link can
+ * do anyway, so a forged cross-site form gains nothing. Anything else sent to the route,
+ * or any other body, meets the same 403 as every other form POST.
+ */
+async function isOneClickUnsubscribe(event: RequestEvent): Promise<boolean> {
+	const { request } = event;
+	if (request.method !== 'POST' || event.route.id !== ONE_CLICK_ROUTE) return false;
+	const type = mediaType(request);
+	// RFC 8058 §3.1: multipart/form-data, or application/x-www-form-urlencoded.
+	if (type !== 'multipart/form-data' && type !== 'application/x-www-form-urlencoded') return false;
+	try {
+		const [only, ...more] = [...(await request.clone().formData())];
+		return more.length === 0 && only?.[0] === 'List-Unsubscribe' && only[1] === 'One-Click';
+	} catch {
+		return false;
+	}
+}
+
+/**
+ * SvelteKit's CSRF check, kept here so the one-click unsubscribe can be exempted
+ * (svelte.config.js trusts every origin, which turns Kit's check off; Kit has no per-route
+ * exemption). Otherwise the same rule and answer as Kit's: a body of a type a cross-site
+ * form can send, with POST, PUT, PATCH or DELETE, whose Origin is not ours (or missing), gets
+ * 403. Like Kit's, it runs in production builds only (the dev server's origin is not the
+ * configured one). tests/e2e/security.e2e.ts posts to every form action and form-taking
+ * endpoint cross-site and without an Origin.
+ */
+export const checkFormOrigin: Handle = async ({ event, resolve }) => {
+	const { request, url } = event;
+	if (
+		!dev &&
+		BODY_METHODS.has(request.method) &&
+		CROSS_SITE_TYPES.has(mediaType(request)) &&
+		request.headers.get('origin') !== url.origin &&
+		!(await isOneClickUnsubscribe(event))
+	) {
+		const message = `Cross-site ${request.method} form submissions are forbidden`;
+		if (request.headers.get('accept') === 'application/json')
+			return json({ message }, { status: 403 });
+		return new Response(message, {
+			status: 403,
+			headers: { 'content-type': 'text/plain;charset=UTF-8' }
+		});
 	}
 	return resolve(event);
 };

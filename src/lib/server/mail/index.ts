@@ -81,6 +81,46 @@ export function oneLineSubject(subject: string): string {
 	);
 }
 
+/** The recipient as nodemailer gets it, or `MailAddressError` when it fails the schema. */
+function recipient(to: string): { address: string } {
+	const parsed = emailAddress.safeParse(to);
+	if (!parsed.success) {
+		throw new MailAddressError(parsed.error.issues[0]?.message ?? 'invalid e-mail address');
+	}
+	return { address: parsed.data };
+}
+
+// <local@domain>, ASCII without spaces or brackets inside: the queue derives it from ids.
+const MESSAGE_ID = /^<[A-Za-z0-9.!#$%&'*+/=?^_`{|}~-]{1,120}@[A-Za-z0-9.-]{1,120}>$/;
+
+/**
+ * The nodemailer options for one message to one recipient, after every check `send()`
+ * makes: the schema on the address, one-line subject, extra headers checked. The mail queue
+ * (./queue) sends these through its pooled transport with a Message-ID of its own choosing,
+ * which must have the plain `<local@domain>` form.
+ */
+export function prepareMessage(
+	from: string,
+	to: string,
+	message: MailTemplate,
+	options: { headers?: Record<string, string>; messageId?: string } = {}
+) {
+	const address = recipient(to);
+	const extraHeaders = options.headers ? checkedHeaders(options.headers) : undefined;
+	if (options.messageId !== undefined && !MESSAGE_ID.test(options.messageId)) {
+		throw new MailHeaderError('Refused Message-ID: it must be one plain <local@domain>');
+	}
+	return {
+		from,
+		to: address,
+		subject: oneLineSubject(message.subject),
+		text: message.text,
+		html: message.html,
+		headers: extraHeaders,
+		...(options.messageId ? { messageId: options.messageId } : {})
+	};
+}
+
 /**
  * Sends one message to exactly one recipient over SMTP. Throws `MailAddressError` (before
  * any connection) when `to` fails the `emailAddress` schema, `MailHeaderError` for a bad
@@ -91,20 +131,8 @@ export async function send(
 	message: MailTemplate,
 	headers?: Record<string, string>
 ): Promise<void> {
-	const parsed = emailAddress.safeParse(to);
-	if (!parsed.success) {
-		throw new MailAddressError(parsed.error.issues[0]?.message ?? 'invalid e-mail address');
-	}
-	const extraHeaders = headers ? checkedHeaders(headers) : undefined;
 	const { config, transporter } = getTransport();
-	await transporter.sendMail({
-		from: config.from,
-		to: { address: parsed.data },
-		subject: oneLineSubject(message.subject),
-		text: message.text,
-		html: message.html,
-		headers: extraHeaders
-	});
+	await transporter.sendMail(prepareMessage(config.from, to, message, { headers }));
 }
 
 /**

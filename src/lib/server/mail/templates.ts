@@ -14,12 +14,12 @@ export interface MailTemplate {
 	html: string;
 }
 
-interface Action {
+export interface Action {
 	label: string;
 	url: string;
 }
 
-interface Content {
+export interface Content {
 	subject: string;
 	greeting?: string;
 	/** Plain-text paragraphs; escaped for HTML. */
@@ -153,7 +153,7 @@ function renderHtml(c: Content): string {
 	].join('\n');
 }
 
-/** One message from its parts, as text and as HTML (shared with tip-templates.ts). */
+/** One message from its parts, as text and as HTML (shared with tip-templates.ts and newsletter-templates.ts). */
 export function render(c: Content): MailTemplate {
 	return { subject: c.subject, text: renderText(c), html: renderHtml(c) };
 }

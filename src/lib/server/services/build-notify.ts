@@ -14,6 +14,7 @@ import { Op } from 'sequelize';
 import { Build, Guide, GuideRevision, User } from '$lib/server/db';
 import * as mail from '$lib/server/mail';
 import { templates } from '$lib/server/mail';
+import { emailWanted } from './notices';
 
 export interface NotifyResult {
 	/** Owners e-mailed. */
@@ -74,7 +75,10 @@ export async function notifyForks(
 			entry.builds.push(b);
 			byOwner.set(b.owner.id, entry);
 		}
+		// Owners who turned this e-mail off on the account page still get the in-app notice.
+		const wanted = await emailWanted([...byOwner.keys()], 'source_revised');
 		for (const { owner, builds: own } of byOwner.values()) {
+			if (!wanted.has(owner.id)) continue;
 			try {
 				const message = templates.guideRevisionForBuilds({
 					name: owner.name ?? '',

@@ -41,6 +41,7 @@ import { copyResults, replaceFrames, replaceThermals } from './guide-draft-resul
 import { clearProposals, proposePrice } from './guide-price-proposals';
 import { latestRevision, ownGuide, viewOf } from './guide-drafts';
 import type { Invalid, Issues, NotFound, Stale } from '$lib/schemas/issues';
+import { afterSubmit } from './notice-triggers';
 import { sendToAuthor, submittedMail } from './review-mail';
 
 export type CreateOutcome = { kind: 'created'; slug: string; version: number } | Invalid;
@@ -315,7 +316,8 @@ export async function submit(
 	authorId: string,
 	slug: string,
 	expectedVersion: number,
-	links?: { guidesUrl: string }
+	links?: { guidesUrl: string },
+	options: { major?: boolean } = {}
 ): Promise<SubmitOutcome> {
 	const guide = await ownGuide(authorId, slug);
 	if (!guide) return { kind: 'not_found' };
@@ -342,7 +344,11 @@ export async function submit(
 			{ where: { id: guide.id, version: expectedVersion }, transaction }
 		);
 		if (affected !== 1) return { kind: 'conflict', current: await viewOf(guide, transaction) };
-		await revision.update({ submittedAt: new Date() }, { transaction });
+		// major: the author asks for the approved revision to be mailable like a new guide.
+		await revision.update(
+			{ submittedAt: new Date(), major: options.major ?? false },
+			{ transaction }
+		);
 		const fresh = await Guide.findByPk(guide.id, { transaction });
 		return { kind: 'submitted', draft: await viewOf(fresh ?? guide, transaction) };
 	});
@@ -354,6 +360,7 @@ export async function submit(
 				submittedMail(author, outcome.draft.title, outcome.draft.revisionNumber, links.guidesUrl),
 				'revision_submitted'
 			);
+		await afterSubmit(slug, outcome.draft.revisionNumber, new URL(links.guidesUrl).origin);
 	}
 	return outcome;
 }

@@ -18,6 +18,8 @@ import type { ReviewDecision } from '$lib/server/db/models/Review';
 import * as audit from './audit';
 import { notifyForksOfRevision } from './build-notify';
 import { adoptProposals } from './guide-price-proposals';
+import { afterDecision } from './notice-triggers';
+import { emailWanted } from './notices';
 import { sendToAuthor, templates } from './review-mail';
 import type { Conflict, NotFound } from '$lib/schemas/issues';
 import * as guidePrices from './guide-prices';
@@ -183,9 +185,12 @@ export async function decide(
 		slotNotes: input.slotNotes,
 		url: links.guidesUrl
 	});
-	const mailed = await sendToAuthor(result.author, message, 'review_decision');
-	if (input.decision === 'approve')
-		await notifyForksOfRevision(revisionId, new URL(links.guidesUrl).origin);
+	// The author may have turned this e-mail off on the account page (services/notices.ts).
+	const wanted = result.author && (await emailWanted([result.author.id], 'revision_decided')).size;
+	const mailed = wanted ? await sendToAuthor(result.author, message, 'review_decision') : false;
+	const origin = new URL(links.guidesUrl).origin;
+	if (input.decision === 'approve') await notifyForksOfRevision(revisionId, origin);
+	await afterDecision(revisionId, input.decision, origin);
 	return { kind: 'ok', guideState: result.guideState, mailed };
 }
 
@@ -193,7 +198,7 @@ export async function decide(
 async function authorToMail(guide: Guide, transaction: Transaction): Promise<User | null> {
 	if (!guide.authorId) return null;
 	const author = await User.findByPk(guide.authorId, {
-		attributes: ['email', 'name', 'disabledAt'],
+		attributes: ['id', 'email', 'name', 'disabledAt'],
 		transaction
 	});
 	return author && !author.disabledAt ? author : null;

@@ -214,7 +214,8 @@ export function mayView(
 /** What every published-guide read loads with the guide: author, base region, published revision. */
 export function guideIncludes() {
 	return [
-		{ model: User, as: 'author', attributes: ['name'] },
+		// handle and disabledAt: the guide page links the author's page (authors.ts).
+		{ model: User, as: 'author', attributes: ['name', 'handle', 'disabledAt'] },
 		{ model: Region, as: 'baseRegion' },
 		{ model: GuideRevision, as: 'publishedRevision' }
 	];
@@ -317,6 +318,7 @@ async function price(
 		null;
 	const pricedGuide: PricedGuide = {
 		...card,
+		authorHandle: guide.author && !guide.author.disabledAt ? guide.author.handle : null,
 		budgetInRegion: budget.money,
 		revisionNumber: revision.number,
 		slots: slotViews,

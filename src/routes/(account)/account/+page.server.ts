@@ -7,7 +7,9 @@ import {
 	profileInput
 } from '$lib/schemas/account';
 import { authorRequestInput } from '$lib/schemas/author-requests';
+import { noticeSettingsInput } from '$lib/schemas/following';
 import { fieldIssues } from '$lib/schemas/issues';
+import { newsletterFields, newsletterPreferences } from '$lib/schemas/newsletter';
 import { requireUser } from '$lib/server/auth/guards';
 import { signOut } from '$lib/server/auth/sign-in';
 import * as limits from '$lib/server/rate-limit';
@@ -15,16 +17,64 @@ import { emailChangeChecks } from '$lib/server/rate-limit-keys';
 import { tooManyRequests } from '$lib/server/rate-limit-response';
 import * as accounts from '$lib/server/services/accounts';
 import * as authorRequests from '$lib/server/services/author-requests';
+import * as notices from '$lib/server/services/notices';
+import * as subscribers from '$lib/server/services/subscribers';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const user = requireUser();
 	const account = await accounts.getAccount(user.id);
 	if (!account) error(404, 'Account not found');
-	return { account, authorRequest: await authorRequests.getMine(user.id) };
+	const [authorRequest, subscription, choices, noticeSettings] = await Promise.all([
+		authorRequests.getMine(user.id),
+		subscribers.accountSubscription(user.id),
+		subscribers.preferenceChoices(),
+		notices.settingsOf(user.id)
+	]);
+	return {
+		account,
+		authorRequest,
+		subscription,
+		regions: choices.regions,
+		noticeSettings,
+		noticeLabels: notices.NOTICE_KIND_LABELS
+	};
 };
 
 export const actions: Actions = {
+	newsletter: async ({ request, url }) => {
+		const user = requireUser();
+		const fields = newsletterFields(await request.formData());
+		const input = newsletterPreferences.safeParse(fields);
+		if (!input.success)
+			return fail(400, { section: 'newsletter', issues: fieldIssues(input.error) });
+		const outcome = await subscribers.subscribeAccount(user.id, input.data, url.origin);
+		if (outcome.kind === 'not_found') error(404, 'Account not found');
+		if (outcome.kind === 'invalid')
+			return fail(400, { section: 'newsletter', issues: outcome.issues });
+		return {
+			section: 'newsletter',
+			message:
+				outcome.status === 'confirmed'
+					? 'Your newsletter choices are saved.'
+					: 'Saved. Follow the confirmation link we sent to your address to start.'
+		};
+	},
+
+	leaveNewsletter: async () => {
+		const user = requireUser();
+		await subscribers.unsubscribeAccount(user.id);
+		return { section: 'newsletter', message: 'You are unsubscribed from guide mails.' };
+	},
+
+	notices: async ({ request }) => {
+		const user = requireUser();
+		const input = noticeSettingsInput.safeParse(formFields(await request.formData()));
+		if (!input.success) return fail(400, { section: 'notices', issues: fieldIssues(input.error) });
+		await notices.saveSettings(user.id, input.data);
+		return { section: 'notices', message: 'Your notice settings are saved.' };
+	},
+
 	profile: async ({ request }) => {
 		const user = requireUser();
 		const input = profileInput.safeParse(formFields(await request.formData()));

@@ -57,6 +57,17 @@ import * as mGuideSlotsSlotKey from './2026.12.09T11.00.00.add-guide-slots-slot-
 import * as mGuideSlotsSlotKeyIndex from './2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index.js';
 import * as mBuildSlotsRekey from './2026.12.09T11.02.00.rekey-build-slots-source-slot-key.js';
 import * as mGuideRegionPrices from './2026.12.09T12.00.00.create-guide-region-prices.js';
+import * as mUsersHandle from './2026.12.10T10.00.00.add-users-handle.js';
+import * as mUsersBio from './2026.12.10T10.01.00.add-users-bio.js';
+import * as mFillUsersHandle from './2026.12.10T10.02.00.fill-users-handle.js';
+import * as mRequireUsersHandle from './2026.12.10T10.03.00.require-users-handle.js';
+import * as mRevisionsMajor from './2026.12.10T10.04.00.add-guide-revisions-major.js';
+import * as mFollows from './2026.12.10T10.05.00.create-follows.js';
+import * as mSubscribers from './2026.12.10T10.06.00.create-subscribers.js';
+import * as mNotices from './2026.12.10T10.07.00.create-notices.js';
+import * as mNoticeSettings from './2026.12.10T10.08.00.create-notice-settings.js';
+import * as mMailings from './2026.12.10T10.09.00.create-mailings.js';
+import * as mMailJobs from './2026.12.10T10.10.00.create-mail-jobs.js';
 import * as mCacheGenerations from './2026.12.11T10.00.00.create-cache-generations.js';
 import * as mPartsFulltext from './2026.12.11T11.00.00.add-parts-brand-model-fulltext.js';
 import * as mPartsBrandModel from './2026.12.11T11.01.00.add-parts-brand-model-index.js';
@@ -125,6 +136,17 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.09T11.01.00.add-guide-slots-revision-slot-key-index': mGuideSlotsSlotKeyIndex,
 	'2026.12.09T11.02.00.rekey-build-slots-source-slot-key': mBuildSlotsRekey,
 	'2026.12.09T12.00.00.create-guide-region-prices': mGuideRegionPrices,
+	'2026.12.10T10.00.00.add-users-handle': mUsersHandle,
+	'2026.12.10T10.01.00.add-users-bio': mUsersBio,
+	'2026.12.10T10.02.00.fill-users-handle': mFillUsersHandle,
+	'2026.12.10T10.03.00.require-users-handle': mRequireUsersHandle,
+	'2026.12.10T10.04.00.add-guide-revisions-major': mRevisionsMajor,
+	'2026.12.10T10.05.00.create-follows': mFollows,
+	'2026.12.10T10.06.00.create-subscribers': mSubscribers,
+	'2026.12.10T10.07.00.create-notices': mNotices,
+	'2026.12.10T10.08.00.create-notice-settings': mNoticeSettings,
+	'2026.12.10T10.09.00.create-mailings': mMailings,
+	'2026.12.10T10.10.00.create-mail-jobs': mMailJobs,
 	'2026.12.11T10.00.00.create-cache-generations': mCacheGenerations,
 	'2026.12.11T11.00.00.add-parts-brand-model-fulltext': mPartsFulltext,
 	'2026.12.11T11.01.00.add-parts-brand-model-index': mPartsBrandModel,

@@ -43,6 +43,8 @@ export class GuideRevision extends Model<
 	declare reviewNote: string | null;
 	/** The editor's decision on this revision once reviewed (a copy of its Review row's). */
 	declare decision: CreationOptional<'approve' | 'request_changes' | 'decline' | null>;
+	/** The author marked this revision as major: once approved it may be mailed like a new guide. */
+	declare major: CreationOptional<boolean>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -66,6 +68,7 @@ export function initGuideRevision(sequelize: Sequelize) {
 			publishedAt: { type: DataTypes.DATE, allowNull: true },
 			reviewNote: { type: DataTypes.TEXT, allowNull: true },
 			decision: { type: DataTypes.STRING(20), allowNull: true },
+			major: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

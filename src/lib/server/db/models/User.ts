@@ -1,10 +1,12 @@
-import { DataTypes, Model } from 'sequelize';
+import { DataTypes, Model, Op } from 'sequelize';
 import type {
 	CreationOptional,
+	Transaction,
 	InferAttributes,
 	InferCreationAttributes,
 	Sequelize
 } from 'sequelize';
+import { firstFreeHandle, handleBase } from '../../../domain/handles.js';
 import type { Role } from '../../../domain/types.js';
 
 /**
@@ -15,6 +17,10 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	declare id: CreationOptional<string>;
 	declare email: string;
 	declare name: string | null;
+	/** The author page's address, /authors/[handle]; made from the name when not given. */
+	declare handle: CreationOptional<string>;
+	/** A short plain-text bio for the author page. */
+	declare bio: CreationOptional<string | null>;
 	declare passwordHash: CreationOptional<string | null>;
 	declare role: CreationOptional<Role>;
 	/** Named for the Auth.js adapter; stored as email_verified_at. */
@@ -35,6 +41,8 @@ export function initUser(sequelize: Sequelize) {
 			id: { type: DataTypes.UUID, defaultValue: DataTypes.UUIDV4, primaryKey: true },
 			email: { type: DataTypes.STRING(254), allowNull: false, unique: true },
 			name: { type: DataTypes.STRING(120), allowNull: true },
+			handle: { type: DataTypes.STRING(30), allowNull: false, unique: true },
+			bio: { type: DataTypes.STRING(600), allowNull: true },
 			passwordHash: { type: DataTypes.STRING(255), allowNull: true },
 			role: { type: DataTypes.STRING(16), allowNull: false, defaultValue: 'reader' },
 			emailVerified: { type: DataTypes.DATE, allowNull: true, field: 'email_verified_at' },
@@ -47,4 +55,19 @@ export function initUser(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'users', underscored: true }
 	);
+	// Every way an account is created (sign-up, the Auth.js adapter for sign-in links, seeds,
+	// tests) goes through create(), so the handle is filled here rather than in each caller.
+	// Two sign-ups with the same name at the same moment can still collide on the unique
+	// index; the second then fails like any other write and can be retried.
+	User.addHook('beforeValidate', async (user: User, options: object) => {
+		if (!user.isNewRecord || user.handle) return;
+		const base = handleBase(user.name);
+		const rows = await User.findAll({
+			attributes: ['handle'],
+			where: { handle: { [Op.or]: [base, { [Op.like]: `${base}-%` }] } },
+			// Sequelize hands create()'s own options to this hook: same transaction, same snapshot.
+			transaction: (options as { transaction?: Transaction | null }).transaction ?? null
+		});
+		user.handle = firstFreeHandle(base, new Set(rows.map((r) => r.handle)));
+	});
 }

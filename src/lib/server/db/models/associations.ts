@@ -12,12 +12,16 @@ import { BuildSync } from './BuildSync.js';
 import { CatalogImport } from './CatalogImport.js';
 import { CautionRule } from './CautionRule.js';
 import { ContentReport } from './ContentReport.js';
+import { Follow } from './Follow.js';
 import { GalleryPhoto } from './GalleryPhoto.js';
 import { Guide } from './Guide.js';
 import { FrameResult } from './FrameResult.js';
 import { GuidePriceProposal } from './GuidePriceProposal.js';
 import { GuideRevision } from './GuideRevision.js';
 import { GuideSlot } from './GuideSlot.js';
+import { Mailing } from './Mailing.js';
+import { MailJob } from './MailJob.js';
+import { Notice } from './Notice.js';
 import { Part } from './Part.js';
 import { Photo } from './Photo.js';
 import { PriceSighting } from './PriceSighting.js';
@@ -33,6 +37,7 @@ import { Tip } from './Tip.js';
 import { TipSettings } from './TipSettings.js';
 import { PaymentEvent } from './PaymentEvent.js';
 import { Store } from './Store.js';
+import { Subscriber } from './Subscriber.js';
 import { User } from './User.js';
 
 export function applyAssociations() {
@@ -140,4 +145,18 @@ export function applyAssociations() {
 	Tip.belongsTo(Build, { foreignKey: 'buildId', as: 'build' });
 	PaymentEvent.belongsTo(Tip, { foreignKey: 'tipId', as: 'tip' });
 	User.hasOne(TipSettings, { foreignKey: 'userId', as: 'tipSettings' });
+
+	Follow.belongsTo(User, { foreignKey: 'followerId', as: 'follower' });
+	Follow.belongsTo(User, { foreignKey: 'authorId', as: 'author' });
+
+	Subscriber.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+	Subscriber.belongsTo(Region, { foreignKey: 'homeRegionId', as: 'homeRegion' });
+	Notice.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+
+	Mailing.belongsTo(Guide, { foreignKey: 'guideId', as: 'guide' });
+	Mailing.belongsTo(GuideRevision, { foreignKey: 'revisionId', as: 'revision' });
+	Mailing.belongsTo(User, { foreignKey: 'createdById', as: 'createdBy' });
+	Mailing.hasMany(MailJob, { foreignKey: 'mailingId', as: 'jobs' });
+	MailJob.belongsTo(Mailing, { foreignKey: 'mailingId', as: 'mailing' });
+	MailJob.belongsTo(Subscriber, { foreignKey: 'subscriberId', as: 'subscriber' });
 }

@@ -12,6 +12,12 @@ import { CautionRule, initCautionRule } from './CautionRule.js';
 import { ContentReport, initContentReport } from './ContentReport.js';
 import { EmailToken, initEmailToken } from './EmailToken.js';
 import { FrameResult, initFrameResult } from './FrameResult.js';
+import { Follow, initFollow } from './Follow.js';
+import { Mailing, initMailing } from './Mailing.js';
+import { MailJob, initMailJob } from './MailJob.js';
+import { Notice, initNotice } from './Notice.js';
+import { NoticeSetting, initNoticeSetting } from './NoticeSetting.js';
+import { Subscriber, initSubscriber } from './Subscriber.js';
 import { FxRate, initFxRate } from './FxRate.js';
 import { GalleryPhoto, initGalleryPhoto } from './GalleryPhoto.js';
 import { Guide, initGuide } from './Guide.js';
@@ -71,7 +77,13 @@ export {
 	Tip,
 	TipSettings,
 	User,
-	VerificationToken
+	VerificationToken,
+	Follow,
+	Mailing,
+	MailJob,
+	Notice,
+	NoticeSetting,
+	Subscriber
 };
 
 export function initModels(sequelize: Sequelize) {
@@ -110,6 +122,12 @@ export function initModels(sequelize: Sequelize) {
 	initPaymentEvent(sequelize);
 	initTipSettings(sequelize);
 	initGuidePriceProposal(sequelize);
+	initFollow(sequelize);
+	initMailing(sequelize);
+	initMailJob(sequelize);
+	initNotice(sequelize);
+	initNoticeSetting(sequelize);
+	initSubscriber(sequelize);
 	applyAssociations();
 }
 export type { StoredVariant } from './Photo.js';

@@ -1,0 +1,34 @@
+/*
+ * The mail worker as its own process: npm run worker (scripts/worker.sh sets the ports and
+ * starts what is missing), or directly: tsx scripts/worker.ts with DB_* and SMTP_* set.
+ * Any number of workers may run against one MariaDB; they share the queue through row locks
+ * (src/lib/server/mail/queue/worker.ts). SIGTERM or SIGINT: finish the messages in hand,
+ * put unstarted ones back, exit.
+ */
+import { closeDb, db } from '../src/lib/server/db/connection';
+import {
+	MailWorker,
+	deliveryCheckFromEnv,
+	queueSettingsFromEnv
+} from '../src/lib/server/mail/queue';
+
+const worker = new MailWorker({
+	sequelize: db(),
+	settings: queueSettingsFromEnv(),
+	check: deliveryCheckFromEnv()
+});
+worker.start();
+
+let stopping = false;
+async function shutdown(signal: string) {
+	if (stopping) return;
+	stopping = true;
+	console.log(
+		JSON.stringify({ t: new Date().toISOString(), kind: 'mail_worker', event: 'signal', signal })
+	);
+	await worker.stop();
+	await closeDb();
+	process.exit(0);
+}
+process.once('SIGTERM', () => void shutdown('SIGTERM'));
+process.once('SIGINT', () => void shutdown('SIGINT'));

@@ -1,0 +1,43 @@
+import { z } from 'zod';
+import { HANDLE_PATTERN } from '$lib/domain/handles';
+import { NOTICE_KINDS, type NoticeKind } from '$lib/domain/notice-kinds';
+
+/*
+ * Author pages, following and notices: the handle in /authors/[handle], the notice page's
+ * forms and the per-kind notice settings on the account page. Every object is strict.
+ */
+
+export const authorHandle = z.string().regex(HANDLE_PATTERN, 'No such author.');
+
+/** Follow and unfollow post nothing but the button. */
+export const followInput = z.strictObject({});
+
+export const noticeIdInput = z.strictObject({
+	id: z.coerce.number().int().positive().max(4_294_967_295)
+});
+
+export const noticePageQuery = z.coerce.number().int().min(1).max(100_000).catch(1);
+
+/** Checkboxes named `<kind>.inApp` / `<kind>.email`; an unticked box posts nothing. */
+export const noticeSettingsInput = z
+	.record(z.string(), z.literal('on'))
+	.refine(
+		(fields) =>
+			Object.keys(fields).every((key) => {
+				const [kind, channel] = key.split('.');
+				return (
+					(NOTICE_KINDS as readonly string[]).includes(kind ?? '') &&
+					(channel === 'inApp' || channel === 'email')
+				);
+			}),
+		{ message: 'Unknown notice setting.' }
+	)
+	.transform(
+		(fields) =>
+			Object.fromEntries(
+				NOTICE_KINDS.map((kind) => [
+					kind,
+					{ inApp: fields[`${kind}.inApp`] === 'on', email: fields[`${kind}.email`] === 'on' }
+				])
+			) as Record<NoticeKind, { inApp: boolean; email: boolean }>
+	);
