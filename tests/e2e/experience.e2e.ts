@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import type { Browser, Page } from '@playwright/test';
-import { severeViolations, signInWithPassword } from './support';
+import { forgetCounts, severeViolations, signInWithPassword } from './support';
 
 /*
  * Issue 15: each role's main flow at a desk width (1280 px) and a phone width (390 px).
@@ -55,6 +55,7 @@ for (const size of WIDTHS) {
 				.click();
 			await expect(page).toHaveURL(/\/my\/guides$/);
 
+			await forgetCounts('guide_create_user');
 			await page.getByRole('link', { name: 'New guide' }).click();
 			await page.getByLabel('Title').fill(`Save in place ${size.name} ${Date.now()}`);
 			await page.getByLabel('Summary').fill('A small test build, priced in US dollars before tax.');

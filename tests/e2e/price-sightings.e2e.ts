@@ -14,8 +14,8 @@ const STORE = 'Bayline PC Supply';
 test('a reader reports a price, an editor verifies it, and it joins the price history', async ({
 	browser
 }) => {
-	// Three browser sessions and two axe runs (10–15 s each on the test machine).
-	test.setTimeout(120_000);
+	// Three browser sessions and two axe runs (10–15 s each on a busy test machine).
+	test.setTimeout(180_000);
 	const cents = 15_000 + (Date.now() % 4_000) * 7 + 3; // between 150.03 and 439.96 USD
 	const price = `${Math.floor(cents / 100)}.${String(cents % 100).padStart(2, '0')}`;
 	const label = new Intl.NumberFormat('en-GB', { style: 'currency', currency: 'USD' }).format(
