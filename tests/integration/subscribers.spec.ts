@@ -3,6 +3,7 @@ import { subscribeInput } from '../../src/lib/schemas/newsletter';
 import { MailJob, Region, Subscriber, User } from '../../src/lib/server/db';
 import { issueLink } from '../../src/lib/server/newsletter/links';
 import * as subscribers from '../../src/lib/server/services/subscribers';
+import * as subscriberAccounts from '../../src/lib/server/services/subscriber-accounts';
 import { resetDatabase } from '../support/db';
 import { drainMailQueue } from '../support/mail-queue';
 import { firstLink, listMessages, waitForMessage } from '../support/mailbox';
@@ -243,20 +244,20 @@ describe('the account panel', () => {
 			role: 'reader',
 			emailVerified: new Date()
 		});
-		expect(await subscribers.subscribeAccount(user.id, prefs, ORIGIN)).toEqual({
+		expect(await subscriberAccounts.subscribeAccount(user.id, prefs, ORIGIN)).toEqual({
 			kind: 'ok',
 			status: 'confirmed'
 		});
-		const view = (await subscribers.accountSubscription(user.id))!;
+		const view = (await subscriberAccounts.accountSubscription(user.id))!;
 		expect(view).toMatchObject({ status: 'confirmed', canFollow: true });
 		expect(view.preferences.audience).toBe('follows');
-		expect(await subscribers.unsubscribeAccount(user.id)).toEqual({ kind: 'ok' });
-		expect((await subscribers.accountSubscription(user.id))!.status).toBe('unsubscribed');
+		expect(await subscriberAccounts.unsubscribeAccount(user.id)).toEqual({ kind: 'ok' });
+		expect((await subscriberAccounts.accountSubscription(user.id))!.status).toBe('unsubscribed');
 	});
 
 	it('an unverified account address gets the confirmation link like anyone else', async () => {
 		const user = await User.create({ email: address('unverified'), name: 'U', role: 'reader' });
-		expect(await subscribers.subscribeAccount(user.id, prefs, ORIGIN)).toEqual({
+		expect(await subscriberAccounts.subscribeAccount(user.id, prefs, ORIGIN)).toEqual({
 			kind: 'ok',
 			status: 'pending'
 		});

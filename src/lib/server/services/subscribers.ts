@@ -25,7 +25,7 @@ import {
 	tokenHash,
 	type LinkPurpose
 } from '$lib/server/newsletter/links';
-import type { Issues, Outcome } from '$lib/schemas/issues';
+import type { Issues } from '$lib/schemas/issues';
 
 export interface PreferencesView {
 	homeRegion: string;
@@ -56,7 +56,7 @@ async function regionByCode(code: string, transaction?: Transaction) {
 }
 
 /** Preferences as stored, or field issues when a region is unknown. */
-async function storedPreferences(
+export async function storedPreferences(
 	p: NewsletterPreferences,
 	transaction?: Transaction
 ): Promise<
@@ -84,7 +84,7 @@ async function storedPreferences(
 	};
 }
 
-async function viewOf(s: Subscriber, transaction?: Transaction): Promise<SubscriptionView> {
+export async function viewOf(s: Subscriber, transaction?: Transaction): Promise<SubscriptionView> {
 	const home = await Region.findByPk(s.homeRegionId, { transaction });
 	const currency = home?.currency ?? 'EUR';
 	const scale = 10 ** minorUnitDigits(currency);
@@ -111,7 +111,7 @@ export function manageUrl(s: Pick<Subscriber, 'id' | 'linkVersion'>, origin: str
 }
 
 /** A fresh confirmation link: its hash replaces the stored one, so older links stop working. */
-async function queueConfirmation(s: Subscriber, origin: string, transaction: Transaction) {
+export async function queueConfirmation(s: Subscriber, origin: string, transaction: Transaction) {
 	const link = issueLink('confirm', s.id, s.linkVersion);
 	await s.update({ confirmTokenHash: link.hash, confirmSentAt: new Date() }, { transaction });
 	await enqueueMessage(
@@ -333,95 +333,6 @@ export async function requestManageLink(email: string, origin: string): Promise<
 	});
 	pokeInlineWorker();
 	return { kind: 'ok' };
-}
-
-/** The signed-in user's subscription (by account, else by their address), or null. */
-async function accountSubscriber(
-	userId: string,
-	transaction?: Transaction
-): Promise<{ user: User; subscriber: Subscriber | null } | null> {
-	const user = await User.findByPk(userId, { transaction });
-	if (!user) return null;
-	const subscriber = await Subscriber.findOne({
-		where: { [Op.or]: [{ userId }, { email: user.email }] },
-		order: [['userId', 'DESC']],
-		transaction,
-		...(transaction ? { lock: transaction.LOCK.UPDATE } : {})
-	});
-	return { user, subscriber };
-}
-
-export async function accountSubscription(userId: string): Promise<SubscriptionView | null> {
-	const found = await accountSubscriber(userId);
-	return found?.subscriber ? viewOf(found.subscriber) : null;
-}
-
-export type AccountSubscribeOutcome =
-	| { kind: 'ok'; status: SubscriberStatus }
-	| { kind: 'invalid'; issues: Issues }
-	| { kind: 'not_found' };
-
-/**
- * Subscribes or updates from the account page. A verified account address needs no second
- * opt-in; an unverified one gets the confirmation link like anyone else.
- */
-export async function subscribeAccount(
-	userId: string,
-	input: NewsletterPreferences,
-	origin: string
-): Promise<AccountSubscribeOutcome> {
-	const outcome = await sequelize.transaction(
-		async (transaction): Promise<AccountSubscribeOutcome> => {
-			const found = await accountSubscriber(userId, transaction);
-			if (!found) return { kind: 'not_found' };
-			const { user } = found;
-			const prefs = await storedPreferences(input, transaction);
-			if (!prefs.ok) return { kind: 'invalid', issues: prefs.issues };
-			const verified = user.emailVerified !== null;
-			let s = found.subscriber;
-			if (!s) {
-				s = await Subscriber.create(
-					{ email: user.email, userId, status: 'pending', ...prefs.values },
-					{ transaction }
-				);
-			} else {
-				await s.update({ ...prefs.values, userId }, { transaction });
-			}
-			if (s.status !== 'confirmed') {
-				if (verified) {
-					await s.update(
-						{
-							status: 'confirmed',
-							confirmedAt: new Date(),
-							confirmTokenHash: null,
-							unsubscribedAt: null,
-							suppressedAt: null,
-							suppressedReason: null
-						},
-						{ transaction }
-					);
-				} else {
-					await queueConfirmation(s, origin, transaction);
-				}
-			}
-			return { kind: 'ok', status: s.status };
-		}
-	);
-	pokeInlineWorker();
-	return outcome;
-}
-
-export async function unsubscribeAccount(userId: string): Promise<Outcome> {
-	return sequelize.transaction(async (transaction) => {
-		const found = await accountSubscriber(userId, transaction);
-		if (!found?.subscriber) return { kind: 'not_found' };
-		if (found.subscriber.status !== 'unsubscribed')
-			await found.subscriber.update(
-				{ status: 'unsubscribed', unsubscribedAt: new Date() },
-				{ transaction }
-			);
-		return { kind: 'ok' };
-	});
 }
 
 /** Regions and tags the preference forms offer. */

@@ -19,6 +19,7 @@ import * as accounts from '$lib/server/services/accounts';
 import * as authorRequests from '$lib/server/services/author-requests';
 import * as notices from '$lib/server/services/notices';
 import * as subscribers from '$lib/server/services/subscribers';
+import * as subscriberAccounts from '$lib/server/services/subscriber-accounts';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
@@ -27,7 +28,7 @@ export const load: PageServerLoad = async () => {
 	if (!account) error(404, 'Account not found');
 	const [authorRequest, subscription, choices, noticeSettings] = await Promise.all([
 		authorRequests.getMine(user.id),
-		subscribers.accountSubscription(user.id),
+		subscriberAccounts.accountSubscription(user.id),
 		subscribers.preferenceChoices(),
 		notices.settingsOf(user.id)
 	]);
@@ -48,7 +49,7 @@ export const actions: Actions = {
 		const input = newsletterPreferences.safeParse(fields);
 		if (!input.success)
 			return fail(400, { section: 'newsletter', issues: fieldIssues(input.error) });
-		const outcome = await subscribers.subscribeAccount(user.id, input.data, url.origin);
+		const outcome = await subscriberAccounts.subscribeAccount(user.id, input.data, url.origin);
 		if (outcome.kind === 'not_found') error(404, 'Account not found');
 		if (outcome.kind === 'invalid')
 			return fail(400, { section: 'newsletter', issues: outcome.issues });
@@ -63,7 +64,7 @@ export const actions: Actions = {
 
 	leaveNewsletter: async () => {
 		const user = requireUser();
-		await subscribers.unsubscribeAccount(user.id);
+		await subscriberAccounts.unsubscribeAccount(user.id);
 		return { section: 'newsletter', message: 'You are unsubscribed from guide mails.' };
 	},
 
