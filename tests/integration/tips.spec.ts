@@ -1,5 +1,5 @@
 import { createHmac, randomBytes } from 'node:crypto';
-import { beforeEach, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { tipInput } from '../../src/lib/schemas/tips';
 import { Guide, PaymentEvent, Tip, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
@@ -9,6 +9,8 @@ import * as tips from '../../src/lib/server/services/tips';
 import { DEMO_SLUG, newReader } from '../support/buildsync-fixtures';
 import { resetDatabase } from '../support/db';
 import { listMessages, waitForMessage } from '../support/mailbox';
+import { drainMailQueue } from '../support/mail-queue';
+import { settled } from '../../src/lib/server/background';
 
 /*
  * Tips against the real MariaDB and the local payment provider fake (scripts/stripe-fake.ts),
@@ -69,6 +71,9 @@ async function payAtFake(sessionId: string) {
 
 let author: User;
 let reader: User;
+
+// Tip mails are queued after the answer (runLater): none may outlive its test.
+afterEach(settled);
 
 beforeEach(async () => {
 	await resetDatabase();
@@ -184,6 +189,9 @@ describe('webhooks', () => {
 		expect(tip.feeMinor).toBe(45);
 		expect(await PaymentEvent.count()).toBe(2);
 
+		// The mails wait in the mail queue (MariaDB) for a worker: send what is queued.
+		await settled();
+		await drainMailQueue();
 		const receipt = await waitForMessage({ to: reader.email, subject: /receipt/ });
 		expect(receipt.text).toContain('€5.00');
 		const notice = await waitForMessage({ to: author.email, subject: /tipped you/ });
@@ -257,6 +265,8 @@ describe('refunds', () => {
 		await tip.reload();
 		expect(tip.status).toBe('refunded');
 
+		await settled();
+		await drainMailQueue();
 		await waitForMessage({ to: reader.email, subject: /was refunded/ });
 		await waitForMessage({ to: author.email, subject: /was refunded/ });
 		await new Promise((resolve) => setTimeout(resolve, 500));

@@ -1,14 +1,17 @@
 /**
  * The tip e-mails (issue 20): the reader's receipt and the author's notice once a payment is
  * confirmed, and a note to both after a refund. Called by tip-ledger.ts only after the ledger
- * change committed, and only by the call that made the change, so each goes out once. Sent
- * through sendLater (the mail queue's entry point): a mail failure never undoes a payment.
+ * change committed, and only by the call that made the change. Queued in MariaDB's mail queue
+ * (mail/queue) under a stable key per tip and kind, so a crash after the payment still
+ * delivers them, a repeat queues nothing, and a mail failure never undoes a payment.
  */
 import { formatMoney, money } from '$lib/domain/money';
 import type { TipStatus } from '$lib/domain/tips';
 import { Guide, Tip, User } from '$lib/server/db';
-import * as mail from '$lib/server/mail';
+import type { MailTemplate } from '$lib/server/mail';
 import { tipTemplates as templates } from '$lib/server/mail';
+import { enqueueMessage } from '$lib/server/mail/queue';
+import { pokeInlineWorker } from '$lib/server/mail/queue/inline';
 import { runLater } from '$lib/server/background';
 
 type TipWithPeople = Tip & { supporter?: User | null; author?: User | null; guide?: Guide | null };
@@ -32,7 +35,8 @@ export function mailTipChange(tipId: number, to: TipStatus, origin: string): voi
 		const { supporter, author } = tip;
 		if (to === 'paid') {
 			if (supporter && !supporter.disabledAt)
-				mail.sendLater(
+				await queue(
+					`tip.${tip.id}.receipt`,
 					supporter.email,
 					templates.tipReceipt({
 						...base,
@@ -43,7 +47,8 @@ export function mailTipChange(tipId: number, to: TipStatus, origin: string): voi
 					})
 				);
 			if (author && !author.disabledAt)
-				mail.sendLater(
+				await queue(
+					`tip.${tip.id}.received`,
 					author.email,
 					templates.tipReceived({
 						...base,
@@ -55,14 +60,21 @@ export function mailTipChange(tipId: number, to: TipStatus, origin: string): voi
 						url: `${origin}/my/earnings`
 					})
 				);
+			pokeInlineWorker();
 			return;
 		}
 		for (const person of [supporter, author]) {
 			if (!person || person.disabledAt) continue;
-			mail.sendLater(
+			await queue(
+				`tip.${tip.id}.refunded.${person === author ? 'author' : 'supporter'}`,
 				person.email,
 				templates.tipRefunded({ ...base, name: person.name ?? '', forAuthor: person === author })
 			);
 		}
+		pokeInlineWorker();
 	});
+}
+
+async function queue(key: string, to: string, message: MailTemplate): Promise<void> {
+	await enqueueMessage({ to, message, key });
 }
