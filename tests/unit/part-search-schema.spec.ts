@@ -9,11 +9,18 @@ describe('catalog search query', () => {
 		const parsed = strict('q=+cobalt+&category=gpu&minVramGb=12&maxLengthMm=&page=2');
 		expect(parsed).toEqual({
 			ok: true,
-			query: { q: 'cobalt', category: 'gpu', page: 2, specFilters: { minVramGb: 12 } }
+			query: {
+				q: 'cobalt',
+				category: 'gpu',
+				page: 2,
+				region: undefined,
+				sort: 'name',
+				specFilters: { minVramGb: 12 }
+			}
 		});
 		expect(strict('')).toEqual({
 			ok: true,
-			query: { q: '', category: undefined, page: 1, specFilters: {} }
+			query: { q: '', category: undefined, page: 1, sort: 'name', specFilters: {} }
 		});
 		expect(strict('category=')).toMatchObject({ ok: true, query: { category: undefined } });
 	});
@@ -46,6 +53,7 @@ describe('catalog search query', () => {
 			q: 'cobalt',
 			category: 'gpu',
 			page: 1,
+			sort: 'name',
 			specFilters: { minVramGb: 16 }
 		});
 		expect(Object.keys(issues).sort()).toEqual(['_form', 'maxLengthMm']);
@@ -53,7 +61,13 @@ describe('catalog search query', () => {
 
 	it('lenient: a bad category also drops the filters that needed it', () => {
 		const { query, issues } = lenient('category=toaster&socket=AM5&q=halvard');
-		expect(query).toEqual({ q: 'halvard', category: undefined, page: 1, specFilters: {} });
+		expect(query).toEqual({
+			q: 'halvard',
+			category: undefined,
+			page: 1,
+			sort: 'name',
+			specFilters: {}
+		});
 		expect(Object.keys(issues).sort()).toEqual(['category', 'socket']);
 	});
 });
