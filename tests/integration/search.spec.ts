@@ -210,6 +210,8 @@ describe('parts search, price column and price sort', () => {
 		// "x2" is shorter than the index's 3 characters: alone, a model or brand beginning with it.
 		expect(await found('x2')).toEqual([slugOf.P2]);
 		expect(await found('vantor x2')).toEqual([slugOf.P2]);
+		// Two short words: the first begins the model ("X2 Mini"), the second is inside it ("mi").
+		expect(await found('x2 mi')).toEqual([slugOf.P2]);
 		// "the" is an InnoDB stopword, "way" is indexed.
 		expect(await found('the way')).toEqual([slugOf.P3]);
 		expect(await found('zyxwv')).toEqual([]);

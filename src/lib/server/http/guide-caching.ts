@@ -17,6 +17,7 @@
  * change within `max-age` plus one minute; prices and fit never wait for that (the stamp).
  */
 import type { Handle } from '@sveltejs/kit';
+import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { matchesIfNoneMatch, readStamp, validatorOf } from '$lib/server/services/guide-view-cache';
 
 export const GUIDE_PAGE_ROUTE = '/(public)/guides/[slug=slug]';
@@ -41,7 +42,16 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 		(route !== GUIDE_PAGE_ROUTE && route !== PRICING_ROUTE)
 	)
 		return resolve(event);
-	const stamp = await readStamp(event.params.slug ?? '');
+	let stamp: Awaited<ReturnType<typeof readStamp>>;
+	try {
+		stamp = await readStamp(event.params.slug ?? '');
+	} catch (error) {
+		// MariaDB is down: no validator to offer. The page's own load meets the same outage
+		// and answers the calm 503 (handleError and outageAs503); a hook that threw here
+		// would have turned it into a bare 500.
+		if (!isDatabaseUnavailable(error)) throw error;
+		return resolve(event);
+	}
 	event.locals.guideStamp = stamp;
 	if (!event.locals.user && stamp && !stamp.hidden) {
 		const etag = validatorOf(stamp, [

@@ -17,6 +17,7 @@ import { REPORT_SUBJECT_NOUNS } from '$lib/domain/content-reports';
 import type { ReportCategory, ReportSubjectType } from '$lib/domain/content-reports';
 import { ContentReport, sequelize } from '$lib/server/db';
 import * as audit from './audit';
+import { bumpGuideViews } from './cache-generations';
 import { handlerFor } from './content-report-subjects';
 import { wholeSecondNow } from './users';
 import type { Outcome } from './users';
@@ -146,7 +147,7 @@ export async function hide(
 ): Promise<Outcome<{ closedReports: number }>> {
 	const handler = handlerFor(subject.type);
 	if ('kind' in handler) return handler;
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		if (!(await handler.lock(subject.id, transaction))) return { kind: 'not_found' } as const;
 		const hidden = await handler.hide(subject.id, reason, actorId, transaction);
 		if (hidden === 'not_found') return { kind: 'not_found' } as const;
@@ -170,6 +171,8 @@ export async function hide(
 		);
 		return { kind: 'ok', closedReports: ids.length } as const;
 	});
+	await visibilityChanged(outcome);
+	return outcome;
 }
 
 /** Shows a hidden item again. Reports closed by hiding it stay closed. */
@@ -179,7 +182,7 @@ export async function restore(
 ): Promise<Outcome> {
 	const handler = handlerFor(subject.type);
 	if ('kind' in handler) return handler;
-	return sequelize.transaction(async (transaction) => {
+	const outcome = await sequelize.transaction(async (transaction) => {
 		if (!(await handler.lock(subject.id, transaction))) return { kind: 'not_found' } as const;
 		const restored = await handler.restore(subject.id, transaction);
 		if (restored.kind === 'not_found') return { kind: 'not_found' } as const;
@@ -202,4 +205,15 @@ export async function restore(
 		);
 		return { kind: 'ok' } as const;
 	});
+	await visibilityChanged(outcome);
+	return outcome;
+}
+
+/**
+ * A hidden or restored guide, build, photo or note changes what guide pages show (a guide's
+ * forks, gallery and notes): after commit, cached guide views and their ETags move on in
+ * every process (cache-generations.ts).
+ */
+async function visibilityChanged(outcome: { kind: string }): Promise<void> {
+	if (outcome.kind === 'ok') await bumpGuideViews();
 }

@@ -125,9 +125,12 @@ async function searchWhere(
 		replacements.against = against;
 	}
 	shortWords.forEach((word, i) => {
-		// With full-text terms, a short word filters the rows they found (a substring, cheap);
-		// alone, it is a prefix of the brand or the model: two index ranges, never a table scan.
-		replacements[`short${i}`] = against !== '' ? containsPattern(word) : prefixPattern(word);
+		// With full-text terms, a short word filters the rows they found (a substring, cheap).
+		// Without any, the first short word is a prefix of the brand or the model (two index
+		// ranges, never a table scan) and the others filter what it found as substrings, so
+		// "c4 1" still finds "Cindral C4 1 TB".
+		const narrowing = against === '' && i === 0;
+		replacements[`short${i}`] = narrowing ? prefixPattern(word) : containsPattern(word);
 		conditions.push(`(p.brand LIKE :short${i} OR p.model LIKE :short${i})`);
 	});
 	return { where: conditions.length > 0 ? conditions.join(' AND ') : '1 = 1', replacements };
