@@ -87,13 +87,19 @@ test('a reader reports a price, an editor verifies it, and it joins the price hi
 	const history = editor.locator('section', {
 		has: editor.getByRole('heading', { name: 'Price history' })
 	});
-	await history.locator('summary', { hasText: 'in USD' }).click();
-	// Filtered by amount too: an earlier run on the same database left its own price here.
-	const row = history
-		.locator('tr', { hasText: `United States · ${STORE}` })
-		.filter({ hasText: label });
-	await expect(row).toHaveCount(1);
-	await expect(row.locator('time')).toHaveAttribute('datetime', `${today}T12:00:00.000Z`);
+	// With one price per store so far (a fresh demo), the page lists it as a line of text; once
+	// a store has a history (earlier runs on the same database), it is a chart with a data table.
+	const once = history.getByTestId('price-once').filter({ hasText: 'Prices in USD' });
+	if ((await once.count()) > 0) {
+		await expect(once.locator('li', { hasText: STORE }).filter({ hasText: label })).toHaveCount(1);
+	} else {
+		await history.locator('summary', { hasText: 'in USD' }).click();
+		const row = history
+			.locator('tr', { hasText: `United States · ${STORE}` })
+			.filter({ hasText: label });
+		await expect(row).toHaveCount(1);
+		await expect(row.locator('time')).toHaveAttribute('datetime', `${today}T12:00:00.000Z`);
+	}
 
 	// The reader sees the decision in their own list.
 	await reader.goto(PART);
