@@ -90,7 +90,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 
 	// Alternates: two on the CPU (ranked), one on the graphics card, each with its drop-in status.
 	const cpu = page.getByTestId('slot').nth(0);
-	await cpu.getByRole('button', { name: 'Add alternate to slot 1' }).click();
+	await cpu.getByRole('button', { name: 'Add an alternate to slot 1' }).click();
 	await choosePart(
 		cpu.getByRole('combobox', { name: 'Alternate part' }).nth(0),
 		'strata 606x',
@@ -98,7 +98,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	);
 	await cpu.getByLabel('Reason').nth(0).selectOption('upgrade_path');
 	await cpu.getByLabel('Note').nth(0).fill('Faster clocks for the same board.');
-	await cpu.getByRole('button', { name: 'Add alternate to slot 1' }).click();
+	await cpu.getByRole('button', { name: 'Add an alternate to slot 1' }).click();
 	await choosePart(
 		cpu.getByRole('combobox', { name: 'Alternate part' }).nth(1),
 		'strata 406',
@@ -110,7 +110,7 @@ test('an author writes a guide with 8 slots and alternates, checks fit, previews
 	await cpu.getByRole('button', { name: 'Rank alternate 2 higher' }).click();
 	await expect(cpu.getByTestId('alternate').nth(0)).toContainText('Halvard Strata 406');
 	const gpu = page.getByTestId('slot').nth(5);
-	await gpu.getByRole('button', { name: 'Add alternate to slot 6' }).click();
+	await gpu.getByRole('button', { name: 'Add an alternate to slot 6' }).click();
 	await choosePart(
 		gpu.getByRole('combobox', { name: 'Alternate part' }),
 		'a52',
