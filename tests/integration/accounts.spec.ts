@@ -311,18 +311,21 @@ describe('accounts service', () => {
 		await signUpAndVerify(known);
 		await drain();
 
-		const resetKnown = await statementsDuring(() => accounts.requestPasswordReset(known, ORIGIN));
-		const resetUnknown = await statementsDuring(() =>
+		const resetKnown = await fewestStatements(() => accounts.requestPasswordReset(known, ORIGIN));
+		const resetUnknown = await fewestStatements(() =>
 			accounts.requestPasswordReset(`unknown-${Date.now()}@example.test`, ORIGIN)
 		);
 		expect(resetKnown).toEqual(resetUnknown);
 
 		const input = { name: 'Same Work', password: 'other long passphrase here' };
-		const signUpExisting = await statementsDuring(() =>
+		const signUpExisting = await fewestStatements(() =>
 			accounts.signUp({ ...input, email: known }, ORIGIN)
 		);
-		const signUpNew = await statementsDuring(() =>
-			accounts.signUp({ ...input, email: `fresh-${Date.now()}@example.test` }, ORIGIN)
+		const signUpNew = await fewestStatements(() =>
+			accounts.signUp(
+				{ ...input, email: `fresh-${Date.now()}-${Math.random()}@example.test` },
+				ORIGIN
+			)
 		);
 		expect(signUpExisting).toEqual(signUpNew);
 	});
@@ -366,6 +369,26 @@ async function statementCounters(): Promise<Record<string, number>> {
 		{ replacements: COUNTED, type: QueryTypes.SELECT }
 	);
 	return Object.fromEntries(rows.map((r) => [r.Variable_name, Number(r.Value)]));
+}
+
+/*
+ * SHOW GLOBAL STATUS counts every client of the server, so anything else that reaches it
+ * while a call runs (another checkout's tools, a developer's session) can only add to a
+ * reading, never take away. The fewest statements over three readings of the same call is
+ * what the call itself ran.
+ */
+async function fewestStatements(
+	work: () => Promise<unknown>,
+	readings = 3
+): Promise<Record<string, number>> {
+	let fewest: Record<string, number> | null = null;
+	for (let i = 0; i < readings; i++) {
+		const counted = await statementsDuring(work);
+		fewest = fewest
+			? Object.fromEntries(COUNTED.map((n) => [n, Math.min(fewest![n] ?? 0, counted[n] ?? 0)]))
+			: counted;
+	}
+	return fewest ?? {};
 }
 
 async function statementsDuring(work: () => Promise<unknown>): Promise<Record<string, number>> {
