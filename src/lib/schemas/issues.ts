@@ -18,12 +18,14 @@ export const FORM_ISSUES_KEY = '_form';
  * return it through `fail(400, { issues })`.
  */
 export function fieldIssues(error: z.ZodError): Issues {
-	const issues: Issues = {};
+	// A Map, then own properties: a field named "constructor" or "__proto__" (a hostile form)
+	// must not meet Object.prototype's members.
+	const byField = new Map<string, string[]>();
 	for (const issue of error.issues) {
 		const key = issue.path.length > 0 ? issue.path.map(String).join('.') : FORM_ISSUES_KEY;
-		(issues[key] ??= []).push(issue.message);
+		byField.set(key, [...(byField.get(key) ?? []), issue.message]);
 	}
-	return issues;
+	return Object.fromEntries(byField);
 }
 
 /** Adds `more` to `issues` field by field (messages of one field keep their order). */
