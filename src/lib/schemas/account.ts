@@ -54,9 +54,7 @@ export const deleteAccountInput = z.strictObject({
 
 /** Form fields as a plain object; repeated fields keep their last value. */
 export function formFields(data: FormData): Record<string, string> {
-	// Own properties only (Object.fromEntries): a field named "__proto__" stays a field the
-	// schema refuses, instead of silently setting the object's prototype.
-	const fields = new Map<string, string>();
-	for (const [key, value] of data) if (typeof value === 'string') fields.set(key, value);
-	return Object.fromEntries(fields);
+	const fields: Record<string, string> = {};
+	for (const [key, value] of data) if (typeof value === 'string') fields[key] = value;
+	return fields;
 }

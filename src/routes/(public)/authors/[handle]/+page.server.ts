@@ -18,7 +18,10 @@ async function change(
 	run: (viewerId: string, handle: string) => ReturnType<typeof authors.follow>
 ) {
 	if (!locals.user) redirect(303, `/signin?redirectTo=${encodeURIComponent(url.pathname)}`);
-	if (!followInput.safeParse(formFields(await request.formData())).success)
+	// The button posts no fields: any field at all (even one named "__proto__", which a plain
+	// object would swallow) is refused.
+	const data = await request.formData();
+	if ([...data.keys()].length > 0 || !followInput.safeParse(formFields(data)).success)
 		return fail(400, { message: 'Use the follow button.' });
 	const handle = authorHandle.safeParse(params.handle);
 	if (!handle.success) error(404, 'No such author');
