@@ -7,6 +7,7 @@ import * as cautions from '../../src/lib/server/services/caution-rules';
 import * as upkeep from '../../src/lib/server/services/upkeep-dashboard';
 import { resetDatabase } from '../support/db';
 import { quoteAt, store, upkeepGuide, type UpkeepGuide } from '../support/upkeep-fixtures';
+import { settled } from '../../src/lib/server/background';
 
 /*
  * Upkeep alerts on the real MariaDB (issue 19): quotes added through the catalog service
@@ -124,12 +125,15 @@ describe('upkeep alerts', () => {
 			]
 		});
 		expect(created.kind).toBe('ok');
+		// The alerts follow a rule change after the editor's answer (guide-prices refreshAllLater).
+		await settled();
 		const lines = await stored();
 		expect(lines.filter((l) => l.startsWith('new_finding'))).toHaveLength(1);
 		const finding = (await upkeep.openAlerts(g.author.id)).find((a) => a.kind === 'new_finding');
 		expect(finding?.sentence).toContain('A test caution for this pairing');
 		if (created.kind !== 'ok') return;
 		await cautions.deleteRule(editorId, created.rule.id, created.rule.version);
+		await settled();
 		expect(await stored()).toEqual(['stale_quote us gpu-main']);
 	});
 

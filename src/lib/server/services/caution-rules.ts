@@ -286,11 +286,12 @@ async function viewsFollow<T extends { kind: string }>(write: Promise<T>): Promi
 
 /*
  * A rule added, changed, turned on or off or deleted can flag a live guide's picks or clear
- * a flag: the guides' upkeep alerts are recomputed (guide-prices.ts refreshAll does the
- * stored figures and the alerts in one pass). Rules change rarely, so the full pass is fine.
+ * a flag: the guides' upkeep alerts are recomputed. That pass (guide-prices.ts) reads every
+ * published guide, so it runs after the editor has their answer; the guide pages themselves
+ * follow at once (viewsFollow above).
  */
 async function afterChange<O extends { kind: string }>(outcome: O): Promise<O> {
-	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	if (outcome.kind === 'ok') guidePrices.refreshAllLater();
 	return outcome;
 }
 

@@ -26,6 +26,7 @@ import { invalidateBrowseTags } from './guide-browse';
 import { priceRevisionsIn } from './pricing';
 import type { PricedRevision } from './pricing';
 import { refreshAlerts } from './upkeep-alerts';
+import { runLater } from '$lib/server/background';
 
 /** Revisions priced per pass: bounds memory (slots and quotes of a batch) at any scale. */
 const BATCH = 250;
@@ -95,6 +96,32 @@ export async function refreshAll(): Promise<void> {
 		await refreshBatch(rows.map((r) => Number(r.id)));
 		after = Number(rows[rows.length - 1]?.id);
 	}
+}
+
+/*
+ * refreshAll for a change that needs no answer from it (a pairing rule written): it runs
+ * after the editor's request has been answered, since its cost grows with the number of
+ * published guides. Changes that arrive while a pass runs ask for one more pass, not one
+ * each.
+ */
+let fullPass: 'idle' | 'running' | 'again' = 'idle';
+
+export function refreshAllLater(): void {
+	if (fullPass !== 'idle') {
+		fullPass = 'again';
+		return;
+	}
+	fullPass = 'running';
+	runLater('guide-prices-refresh-all', async () => {
+		try {
+			do {
+				fullPass = 'running';
+				await refreshAll();
+			} while (fullPass === 'again');
+		} finally {
+			fullPass = 'idle';
+		}
+	});
 }
 
 async function refreshBatch(revisionIds: number[]): Promise<void> {
