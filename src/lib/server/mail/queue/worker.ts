@@ -33,28 +33,10 @@ import { prepareMessage } from '../index.js';
 import { mailConfigFromEnv, transportOptions, type MailConfig } from '../transport.js';
 import { compose, MailingContentCache } from './compose.js';
 import type { DeliveryCheck } from './delivery-check.js';
+import { JobLedger, type Claimed, type JobRow, type WorkerLog } from './job-ledger.js';
 import type { QueueSettings } from './settings.js';
 
-interface JobRow {
-	id: number;
-	kind: string;
-	mailingId: number | null;
-	subscriberId: number | null;
-	toEmail: string;
-	payload: unknown;
-	messageId: string;
-	attempts: number;
-}
-
-interface Claimed extends JobRow {
-	attemptId: string;
-	/** Local clock: no send may start after this (lease end minus the send guard). */
-	startBy: number;
-}
-
-export interface WorkerLog {
-	(event: string, detail?: Record<string, unknown>): void;
-}
+export type { WorkerLog } from './job-ledger.js';
 
 export interface MailWorkerOptions {
 	sequelize: Sequelize;
@@ -112,6 +94,7 @@ export class MailWorker {
 	private readonly ownsTransporter: boolean;
 	private readonly log: WorkerLog;
 	private readonly contents = new MailingContentCache();
+	private readonly jobs: JobLedger;
 	private stopping = false;
 	private loop: Promise<void> | null = null;
 	private wake: (() => void) | null = null;
@@ -125,6 +108,7 @@ export class MailWorker {
 		this.transporter =
 			options.transporter ?? createPooledTransport(this.config, options.settings.concurrency);
 		this.log = options.log ?? defaultLog;
+		this.jobs = new JobLedger(this.sequelize, this.settings.retry, this.log);
 	}
 
 	/** One round: settle expired leases, then claim and send one batch. */
@@ -134,7 +118,7 @@ export class MailWorker {
 		const jobs = await this.claim();
 		const statuses = await this.subscriberStatuses(jobs);
 		await this.inLanes(jobs, (job) => this.process(job, touched, false, statuses));
-		for (const mailingId of touched) await this.finishMailing(mailingId);
+		for (const mailingId of touched) await this.jobs.finishMailing(mailingId);
 		return { claimed: jobs.length, recovered };
 	}
 
@@ -287,7 +271,7 @@ export class MailWorker {
 		await this.inLanes(jobs, async (job) => {
 			if (job.mailingId !== null) touched.add(job.mailingId);
 			if (!this.check) {
-				await this.settle(job, 'in_doubt', {
+				await this.jobs.settle(job, 'in_doubt', {
 					error:
 						'The worker stopped while sending; delivery could not be checked, so it is not resent.'
 				});
@@ -299,7 +283,7 @@ export class MailWorker {
 				answer = await this.check(job.messageId);
 			} catch (error) {
 				// Ask again later; the job stays `sending` under a new lease.
-				await this.hold(
+				await this.jobs.hold(
 					job,
 					retryDelayMs(1, this.settings.retry),
 					`delivery check failed: ${String(error)}`
@@ -307,7 +291,7 @@ export class MailWorker {
 				return;
 			}
 			if (answer === 'delivered') {
-				await this.settle(job, 'sent', {
+				await this.jobs.settle(job, 'sent', {
 					sentNow: true,
 					error: 'Delivered before the worker stopped (checked by Message-ID).'
 				});
@@ -346,7 +330,7 @@ export class MailWorker {
 	): Promise<void> {
 		if (job.mailingId !== null) touched.add(job.mailingId);
 		if (this.stopping || Date.now() > job.startBy) {
-			await this.release(job);
+			await this.jobs.release(job);
 			return;
 		}
 		if (job.subscriberId !== null && job.kind === 'mailing') {
@@ -354,7 +338,7 @@ export class MailWorker {
 				statuses?.get(job.subscriberId) ??
 				(await this.subscriberStatuses([job])).get(job.subscriberId);
 			if (status !== 'confirmed') {
-				await this.settle(job, 'skipped', {
+				await this.jobs.settle(job, 'skipped', {
 					error: 'The recipient left the list before their turn.'
 				});
 				return;
@@ -368,25 +352,27 @@ export class MailWorker {
 				messageId: job.messageId
 			});
 		} catch (error) {
-			await this.settle(job, 'failed', { error: `Could not build the message: ${String(error)}` });
+			await this.jobs.settle(job, 'failed', {
+				error: `Could not build the message: ${String(error)}`
+			});
 			this.log('compose_failed', { job: job.id, error: String(error) });
 			return;
 		}
-		if (recovering) await this.bumpAttempts(job);
+		if (recovering) await this.jobs.bumpAttempts(job);
 		try {
 			const info = await this.transporter.sendMail(options);
-			await this.settle(job, 'sent', { sentNow: true, code: codeOf(info.response) });
+			await this.jobs.settle(job, 'sent', { sentNow: true, code: codeOf(info.response) });
 		} catch (error) {
 			const failure = classifySmtpError(errorFields(error));
 			if (failure.kind === 'permanent') {
-				await this.settle(job, 'failed', { code: failure.code, error: failure.reason });
-				if (job.subscriberId !== null) await this.suppress(job.subscriberId, failure.reason);
+				await this.jobs.settle(job, 'failed', { code: failure.code, error: failure.reason });
+				if (job.subscriberId !== null) await this.jobs.suppress(job.subscriberId, failure.reason);
 				this.log('failed_permanent', { job: job.id, code: failure.code });
 			} else if (failure.kind === 'temporary') {
 				if (mayRetry(job.attempts, this.settings.retry)) {
-					await this.retryLater(job, failure.code, failure.reason);
+					await this.jobs.retryLater(job, failure.code, failure.reason);
 				} else {
-					await this.settle(job, 'failed', {
+					await this.jobs.settle(job, 'failed', {
 						code: failure.code,
 						error: `Gave up after ${job.attempts} attempts: ${failure.reason}`
 					});
@@ -395,124 +381,9 @@ export class MailWorker {
 			} else {
 				// The connection was up and broke without an answer: maybe delivered. Recovery
 				// checks by Message-ID once this hold ends, instead of resending blindly.
-				await this.hold(job, retryDelayMs(job.attempts, this.settings.retry), failure.reason);
+				await this.jobs.hold(job, retryDelayMs(job.attempts, this.settings.retry), failure.reason);
 				this.log('failed_unknown', { job: job.id, attempts: job.attempts });
 			}
 		}
-	}
-
-	private async bumpAttempts(job: Claimed): Promise<void> {
-		await this.sequelize.query(
-			'UPDATE mail_jobs SET attempts = attempts + 1 WHERE id = :id AND attempt_id = :attemptId',
-			{ type: QueryTypes.UPDATE, replacements: { id: job.id, attemptId: job.attemptId } }
-		);
-	}
-
-	/** A final state for the job, written only while this claim still holds it. */
-	private async settle(
-		job: Claimed,
-		status: 'sent' | 'failed' | 'skipped' | 'in_doubt',
-		extra: { code?: number | null; error?: string; sentNow?: boolean } = {}
-	): Promise<void> {
-		const [, affected] = await this.sequelize.query(
-			`UPDATE mail_jobs SET status = :status, smtp_code = :code, last_error = :error,
-			 sent_at = ${extra.sentNow ? 'UTC_TIMESTAMP(3)' : 'sent_at'}, lease_until = NULL,
-			 updated_at = UTC_TIMESTAMP(3)
-			 WHERE id = :id AND attempt_id = :attemptId AND status = 'sending'`,
-			{
-				type: QueryTypes.UPDATE,
-				replacements: {
-					status,
-					code: extra.code ?? null,
-					error: extra.error?.slice(0, 300) ?? null,
-					id: job.id,
-					attemptId: job.attemptId
-				}
-			}
-		);
-		if (affected !== 1) this.log('lease_lost', { job: job.id, status });
-	}
-
-	/** Temporary failure: back to the queue after the back-off. */
-	private async retryLater(job: Claimed, code: number | null, error: string): Promise<void> {
-		await this.sequelize.query(
-			`UPDATE mail_jobs SET status = 'queued', smtp_code = :code, last_error = :error,
-			 next_attempt_at = UTC_TIMESTAMP(3) + INTERVAL :delayUs MICROSECOND,
-			 lease_until = NULL, attempt_id = NULL, updated_at = UTC_TIMESTAMP(3)
-			 WHERE id = :id AND attempt_id = :attemptId AND status = 'sending'`,
-			{
-				type: QueryTypes.UPDATE,
-				replacements: {
-					code,
-					error: error.slice(0, 300),
-					delayUs: retryDelayMs(job.attempts, this.settings.retry) * 1000,
-					id: job.id,
-					attemptId: job.attemptId
-				}
-			}
-		);
-	}
-
-	/** Outcome unknown: keep it `sending` until the hold ends; recovery then checks it. */
-	private async hold(job: Claimed, delayMs: number, error: string): Promise<void> {
-		await this.sequelize.query(
-			`UPDATE mail_jobs SET last_error = :error,
-			 lease_until = UTC_TIMESTAMP(3) + INTERVAL :delayUs MICROSECOND, updated_at = UTC_TIMESTAMP(3)
-			 WHERE id = :id AND attempt_id = :attemptId AND status = 'sending'`,
-			{
-				type: QueryTypes.UPDATE,
-				replacements: {
-					error: error.slice(0, 300),
-					delayUs: delayMs * 1000,
-					id: job.id,
-					attemptId: job.attemptId
-				}
-			}
-		);
-	}
-
-	/** Not started (stopping, or too close to the lease's end): back to the queue as it was. */
-	private async release(job: Claimed): Promise<void> {
-		await this.sequelize.query(
-			`UPDATE mail_jobs SET status = 'queued', attempts = GREATEST(attempts - 1, 0),
-			 lease_until = NULL, attempt_id = NULL, updated_at = UTC_TIMESTAMP(3)
-			 WHERE id = :id AND attempt_id = :attemptId AND status = 'sending'`,
-			{ type: QueryTypes.UPDATE, replacements: { id: job.id, attemptId: job.attemptId } }
-		);
-	}
-
-	/** A permanent refusal: no more newsletter mail to this address until it confirms again. */
-	private async suppress(subscriberId: number, reason: string): Promise<void> {
-		await this.sequelize.query(
-			`UPDATE subscribers SET status = 'suppressed', suppressed_at = UTC_TIMESTAMP(),
-			 suppressed_reason = :reason, updated_at = UTC_TIMESTAMP()
-			 WHERE id = :id AND status IN ('pending', 'confirmed')`,
-			{ type: QueryTypes.UPDATE, replacements: { id: subscriberId, reason: reason.slice(0, 200) } }
-		);
-	}
-
-	/** When no job of the mailing is left queued or sending, it is finished, with its counts. */
-	private async finishMailing(mailingId: number): Promise<void> {
-		const counts = await this.sequelize.query<{ status: string; n: number }>(
-			'SELECT status, COUNT(*) AS n FROM mail_jobs WHERE mailing_id = :id GROUP BY status',
-			{ type: QueryTypes.SELECT, replacements: { id: mailingId } }
-		);
-		const count = (s: string) => Number(counts.find((c) => c.status === s)?.n ?? 0);
-		if (count('queued') + count('sending') > 0) return;
-		const summary = {
-			sent: count('sent'),
-			failed: count('failed'),
-			skipped: count('skipped'),
-			inDoubt: count('in_doubt')
-		};
-		const [, affected] = await this.sequelize.query(
-			`UPDATE mailings SET status = 'finished', finished_at = UTC_TIMESTAMP(), summary = :summary,
-			 updated_at = UTC_TIMESTAMP() WHERE id = :id AND status = 'sending'`,
-			{
-				type: QueryTypes.UPDATE,
-				replacements: { id: mailingId, summary: JSON.stringify(summary) }
-			}
-		);
-		if (affected === 1) this.log('mailing_finished', { mailing: mailingId, ...summary });
 	}
 }
