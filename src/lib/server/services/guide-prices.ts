@@ -106,6 +106,11 @@ export async function refreshAll(): Promise<void> {
  */
 let fullPass: 'idle' | 'running' | 'again' = 'idle';
 
+/** Read through a call: the pass awaited in between may have changed it. */
+function anotherPassAsked(): boolean {
+	return fullPass === 'again';
+}
+
 export function refreshAllLater(): void {
 	if (fullPass !== 'idle') {
 		fullPass = 'again';
@@ -117,7 +122,7 @@ export function refreshAllLater(): void {
 			do {
 				fullPass = 'running';
 				await refreshAll();
-			} while (fullPass === 'again');
+			} while (anotherPassAsked());
 		} finally {
 			fullPass = 'idle';
 		}
