@@ -27,7 +27,10 @@ import {
 	machineNotes,
 	rssSampler,
 	startApp,
-	writeBenchSection
+	writeBenchSection,
+	signInAsReader,
+	DEMO_READER,
+	DEMO_PASSWORD
 } from './lib/harness';
 import { startProxy } from './lib/proxy';
 
@@ -36,8 +39,6 @@ const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 50);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 1);
 const WARM_UP_SECONDS = 5;
 const DB_NAME = 'slotwise_bench_load';
-const READER = 'reader@slotwise.test';
-const PASSWORD = 'slotwise-demo-password';
 const SLUGS = [
 	'steady-1080p-starter',
 	'balanced-1440p-am5',
@@ -228,7 +229,7 @@ function visit(origin: string, session: string, tally: Tally) {
 				accept: 'text/html',
 				origin
 			},
-			body: new URLSearchParams({ email: READER, password: PASSWORD }).toString(),
+			body: new URLSearchParams({ email: DEMO_READER, password: DEMO_PASSWORD }).toString(),
 			...timed('password sign-in')
 		}
 	];
@@ -242,30 +243,11 @@ interface CannonResult {
 	duration: number;
 }
 
-async function signIn(origin: string): Promise<string> {
-	const response = await fetch(`${origin}/signin?/password`, {
-		method: 'POST',
-		redirect: 'manual',
-		headers: {
-			origin,
-			accept: 'text/html',
-			'content-type': 'application/x-www-form-urlencoded'
-		},
-		body: new URLSearchParams({ email: READER, password: PASSWORD })
-	});
-	if (response.status !== 303) throw new Error(`sign-in answered ${response.status}`);
-	return response.headers
-		.getSetCookie()
-		.map((c) => c.split(';')[0])
-		.filter((c) => c?.startsWith('authjs.session-token'))
-		.join('; ');
-}
-
 async function run(
 	origin: string,
 	seconds: number
 ): Promise<{ result: CannonResult; tally: Tally }> {
-	const session = await signIn(origin);
+	const session = await signInAsReader(origin);
 	const tally: Tally = {
 		statuses: new Map(),
 		latencies: new Map(KINDS.map((k) => [k.name, []]))

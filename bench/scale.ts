@@ -33,7 +33,8 @@ import {
 	singleRequestMs,
 	startApp,
 	startBare,
-	writeBenchSection
+	writeBenchSection,
+	signInAsReader
 } from './lib/harness';
 import type { SideFigures } from './lib/harness';
 import { countsAt, generate } from './lib/scale-data';
@@ -52,8 +53,6 @@ const DB_PORT =
 		? readFileSync(resolve(ROOT, '.data/db.port'), 'utf8').trim()
 		: '3307');
 const SLUG = 'steady-1080p-starter';
-const READER = 'reader@slotwise.test';
-const PASSWORD = 'slotwise-demo-password';
 
 type Kind = 'list' | 'anonymous guide' | 'signed-in guide' | 'pricing' | 'other';
 interface Page {
@@ -109,25 +108,6 @@ function prepareDatabase(name: string): void {
 		execFileSync('npx', ['tsx', `scripts/${step}.ts`, 'up'], { cwd: ROOT, env, stdio: 'pipe' });
 }
 
-async function signIn(origin: string): Promise<string> {
-	const response = await fetch(`${origin}/signin?/password`, {
-		method: 'POST',
-		redirect: 'manual',
-		headers: {
-			origin,
-			accept: 'text/html',
-			'content-type': 'application/x-www-form-urlencoded'
-		},
-		body: new URLSearchParams({ email: READER, password: PASSWORD })
-	});
-	if (response.status !== 303) throw new Error(`sign-in answered ${response.status}`);
-	return response.headers
-		.getSetCookie()
-		.map((c) => c.split(';')[0])
-		.filter((c) => c?.startsWith('authjs.session-token'))
-		.join('; ');
-}
-
 /** Every page against its bare twin on one app process; the app's peak memory. */
 async function measureAll(
 	label: string,
@@ -138,7 +118,7 @@ async function measureAll(
 	const rows: Measured[] = [];
 	let peakMb: number;
 	try {
-		const cookie = await signIn(app.origin);
+		const cookie = await signInAsReader(app.origin);
 		for (const page of PAGES) rows.push(await measurePage(app.origin, page, cookie, label));
 	} catch (err) {
 		console.error(app.errors());

@@ -343,3 +343,27 @@ export function writeBenchSection(name: string, lines: string[]): string {
 	writeFileSync(file, next);
 	return file;
 }
+
+/** The demo reader both the load and the scale benchmarks sign in as. */
+export const DEMO_READER = 'reader@slotwise.test';
+export const DEMO_PASSWORD = 'slotwise-demo-password';
+
+/** Signs the demo reader in through the real form; the session cookie for later requests. */
+export async function signInAsReader(origin: string): Promise<string> {
+	const response = await fetch(`${origin}/signin?/password`, {
+		method: 'POST',
+		redirect: 'manual',
+		headers: {
+			origin,
+			accept: 'text/html',
+			'content-type': 'application/x-www-form-urlencoded'
+		},
+		body: new URLSearchParams({ email: DEMO_READER, password: DEMO_PASSWORD })
+	});
+	if (response.status !== 303) throw new Error(`sign-in answered ${response.status}`);
+	return response.headers
+		.getSetCookie()
+		.map((c) => c.split(';')[0])
+		.filter((c) => c?.startsWith('authjs.session-token'))
+		.join('; ');
+}
