@@ -54,7 +54,9 @@ export const deleteAccountInput = z.strictObject({
 
 /** Form fields as a plain object; repeated fields keep their last value. */
 export function formFields(data: FormData): Record<string, string> {
-	const fields: Record<string, string> = {};
-	for (const [key, value] of data) if (typeof value === 'string') fields[key] = value;
-	return fields;
+	// fromEntries defines each name as an own field; assigning `fields[key]` would turn a field
+	// named `__proto__` into the object's prototype and the field would vanish unseen.
+	const entries: [string, string][] = [];
+	for (const [key, value] of data) if (typeof value === 'string') entries.push([key, value]);
+	return Object.fromEntries(entries);
 }

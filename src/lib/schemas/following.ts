@@ -18,19 +18,21 @@ export const noticeIdInput = z.strictObject({
 
 export const noticePageQuery = z.coerce.number().int().min(1).max(100_000).catch(1);
 
-/** Checkboxes named `<kind>.inApp` / `<kind>.email`; an unticked box posts nothing. */
+const tickBox = z.literal('on', { error: 'A ticked box posts "on".' }).optional();
+
+/**
+ * Checkboxes named `<kind>.inApp` / `<kind>.email`; an unticked box posts nothing. Strict, so
+ * any other field (a hostile `__proto__` included) is refused rather than read as "all off".
+ */
 export const noticeSettingsInput = z
-	.record(z.string(), z.literal('on'))
-	.refine(
-		(fields) =>
-			Object.keys(fields).every((key) => {
-				const [kind, channel] = key.split('.');
-				return (
-					(NOTICE_KINDS as readonly string[]).includes(kind ?? '') &&
-					(channel === 'inApp' || channel === 'email')
-				);
-			}),
-		{ message: 'Unknown notice setting.' }
+	.strictObject(
+		Object.fromEntries(
+			NOTICE_KINDS.flatMap((kind) => [
+				[`${kind}.inApp`, tickBox],
+				[`${kind}.email`, tickBox]
+			])
+		) as Record<string, typeof tickBox>,
+		{ error: 'Unknown notice setting.' }
 	)
 	.transform(
 		(fields) =>
