@@ -6,9 +6,9 @@ import { fieldIssues } from '$lib/schemas/issues';
 /*
  * Form fields named after Object.prototype members, as the fuzz suite posts them: the notice
  * settings answered 500 to `constructor=%00` (the issue list met
- * Object.prototype.constructor). It must be a plain refusal with a message. A field named
- * `__proto__` set the reader's prototype instead of a key, so the notice settings saw no
- * field at all and saved "everything off" with a 200.
+ * Object.prototype.constructor). It must be a plain refusal with a message. A body holding
+ * only `__proto__=…` left the notice settings no field at all, and they saved "everything
+ * off" with a 200; kept as an own key, `__proto__` made the answer unserialisable (500).
  */
 function form(body: string): FormData {
 	const data = new FormData();
@@ -27,10 +27,22 @@ describe('hostile field names', () => {
 		}
 	});
 
-	it('keeps a field named "__proto__" as a field, so the notice settings refuse it', () => {
-		const fields = formFields(form('__proto__=%00'));
-		expect(Object.keys(fields)).toEqual(['__proto__']);
+	it('drops a field named "__proto__" without touching the prototype', () => {
+		const fields = formFields(form('__proto__=%00&name=Ada'));
+		expect(Object.keys(fields)).toEqual(['name']);
 		expect(Object.getPrototypeOf(fields)).toBe(Object.prototype);
-		expect(noticeSettingsInput.safeParse(fields).success).toBe(false);
+	});
+
+	it('refuses notice settings posted without their form (no field, or only unknown ones)', () => {
+		for (const body of ['', '__proto__=%00', 'role=admin']) {
+			expect(noticeSettingsInput.safeParse(formFields(form(body))).success).toBe(false);
+		}
+	});
+
+	it('reads the notice form with every box unticked as "everything off"', () => {
+		const parsed = noticeSettingsInput.safeParse(formFields(form('form=notice-settings')));
+		expect(parsed.success).toBe(true);
+		if (parsed.success)
+			expect(Object.values(parsed.data).every((c) => !c.inApp && !c.email)).toBe(true);
 	});
 });

@@ -54,9 +54,11 @@ export const deleteAccountInput = z.strictObject({
 
 /** Form fields as a plain object; repeated fields keep their last value. */
 export function formFields(data: FormData): Record<string, string> {
-	// fromEntries defines each name as an own field; assigning `fields[key]` would turn a field
-	// named `__proto__` into the object's prototype and the field would vanish unseen.
-	const entries: [string, string][] = [];
-	for (const [key, value] of data) if (typeof value === 'string') entries.push([key, value]);
-	return Object.fromEntries(entries);
+	// No form of ours has a field named `__proto__`: assigned, it would set the object's
+	// prototype; kept as an own key, the page's answer cannot be serialised (devalue refuses
+	// it). It is dropped, and forms whose every field may be absent carry a required marker.
+	const fields: Record<string, string> = {};
+	for (const [key, value] of data)
+		if (typeof value === 'string' && key !== '__proto__') fields[key] = value;
+	return fields;
 }

@@ -20,18 +20,27 @@ export const noticePageQuery = z.coerce.number().int().min(1).max(100_000).catch
 
 const tickBox = z.literal('on', { error: 'A ticked box posts "on".' }).optional();
 
+/** The notice form's hidden field: proof that the form, not some other body, was posted. */
+export const NOTICE_FORM_MARKER = { name: 'form', value: 'notice-settings' } as const;
+
 /**
- * Checkboxes named `<kind>.inApp` / `<kind>.email`; an unticked box posts nothing. Strict, so
- * any other field (a hostile `__proto__` included) is refused rather than read as "all off".
+ * Checkboxes named `<kind>.inApp` / `<kind>.email`; an unticked box posts nothing, so a body
+ * with no box at all means "everything off". The required marker keeps a stray body (empty,
+ * or only unknown fields) from being read that way; strict, so unknown fields are refused.
  */
 export const noticeSettingsInput = z
 	.strictObject(
-		Object.fromEntries(
-			NOTICE_KINDS.flatMap((kind) => [
-				[`${kind}.inApp`, tickBox],
-				[`${kind}.email`, tickBox]
-			])
-		) as Record<string, typeof tickBox>,
+		{
+			[NOTICE_FORM_MARKER.name]: z.literal(NOTICE_FORM_MARKER.value, {
+				error: 'Send the notice settings from their form.'
+			}),
+			...(Object.fromEntries(
+				NOTICE_KINDS.flatMap((kind) => [
+					[`${kind}.inApp`, tickBox],
+					[`${kind}.email`, tickBox]
+				])
+			) as Record<string, typeof tickBox>)
+		},
 		{ error: 'Unknown notice setting.' }
 	)
 	.transform(
