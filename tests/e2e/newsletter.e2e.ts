@@ -207,3 +207,29 @@ test('a forged or expired newsletter link gets a clear page and a 4xx, never a 5
 		await expect(page.getByText(/Nothing was changed|Copy the whole link/)).toBeVisible();
 	}
 });
+
+test('notice settings saved from the account page keep an unticked box unticked, at 390 px', async ({
+	browser
+}) => {
+	const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
+	const page = await context.newPage();
+	await signInWithPassword(page, 'reader@slotwise.test');
+	await page.goto('/account#notices');
+	const panel = page.locator('section#notices');
+	const box = panel.getByRole('checkbox').first();
+	const label = await box.getAttribute('aria-label');
+	const before = await box.isChecked();
+	await box.setChecked(!before);
+	await panel.getByRole('button', { name: 'Save notice settings' }).click();
+	// The answer appears in the panel where the reader pressed the button.
+	await expect(panel.getByText('Your notice settings are saved.')).toBeVisible();
+	await page.reload();
+	await expect(page.getByRole('checkbox', { name: label ?? '' })).toBeChecked({
+		checked: !before
+	});
+	// Put it back for the tests that follow.
+	await page.getByRole('checkbox', { name: label ?? '' }).setChecked(before);
+	await page.getByRole('button', { name: 'Save notice settings' }).click();
+	await expect(page.getByText('Your notice settings are saved.')).toBeVisible();
+	await context.close();
+});
