@@ -72,7 +72,9 @@ const config = {
 		// without an Origin header and which SvelteKit's own check cannot exempt per route.
 		csrf: { trustedOrigins: ['*'] },
 		csp: {
-			mode: 'auto',
+			// Hashes, not nonces: a visitor's guide page is served again from memory or a shared
+			// cache (src/lib/server/http/visitor-answers.ts), and a nonce must never be reused.
+			mode: 'hash',
 			directives: {
 				'default-src': ['self'],
 				'script-src': ['self'],

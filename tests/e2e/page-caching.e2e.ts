@@ -168,6 +168,27 @@ test('a visitor gets public caching with an ETag, a 304 from either process, and
 		unit: { amountMinor: 7980, currency: 'JPY' },
 		storeName: 'Kairo Denki'
 	});
+	// Process A kept its visitors' answer from before the quote in memory
+	// (http/visitor-answers.ts): a full request now gets the new price, never the kept copy.
+	const fromA = await get(BASE_URL, PRICING);
+	expect(alternatePrice(fromA.body)).toMatchObject({
+		unit: { amountMinor: 7980, currency: 'JPY' },
+		storeName: 'Kairo Denki'
+	});
+});
+
+test('a visitor asking twice gets the same bytes, whose scripts are allowed by hash, not by a reused nonce', async () => {
+	await inOneMinute();
+	const first = await get(BASE_URL, PAGE);
+	const second = await get(BASE_URL, PAGE);
+	expect(first.response.status).toBe(200);
+	expect(second.body).toBe(first.body);
+	expect(second.response.headers.get('etag')).toBe(first.response.headers.get('etag'));
+	const csp = second.response.headers.get('content-security-policy') ?? '';
+	expect(csp).toBe(first.response.headers.get('content-security-policy'));
+	expect(csp).toMatch(/script-src[^;]*'sha256-[A-Za-z0-9+/=]+'/);
+	expect(csp).not.toContain('nonce-');
+	expect(second.body).not.toContain('nonce=');
 });
 
 test('signed-in people get private answers with their own parts only, never a shared copy', async () => {

@@ -254,7 +254,7 @@ export const formBodiesOnly: Handle = async ({ event, resolve }) => {
 /**
  * The security headers on everything that passes through the hooks (the server entry sets
  * the same ones on what does not: src/lib/server/http/security-headers.js). A page keeps the
- * nonce-based CSP SvelteKit gave it; HSTS follows the configured origin, like the cookies.
+ * hash-based CSP SvelteKit gave it; HSTS follows the configured origin, like the cookies.
  */
 export const securityHeaders: Handle = async ({ event, resolve }) => {
 	let response = await resolve(event);

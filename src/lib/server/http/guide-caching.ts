@@ -5,7 +5,8 @@
  * - Visitors (no session): a weak ETag from the guide's stamp (guide-view-cache.ts) and
  *   `public` caching. A matching If-None-Match is answered 304 here, before the page is
  *   loaded or rendered, at the cost of the one stamp read the load would make anyway (it is
- *   handed on in locals).
+ *   handed on in locals). A GET whose ETag this process has answered before gets the same
+ *   bytes again without a render (http/visitor-answers.ts).
  * - Signed-in people: `private, no-store` and no ETag. Their page carries their own parts
  *   (report form, fork panel, tip prompt), which no shared cache may keep or hand on.
  * - Every cacheable answer says `Vary: Cookie`, so a cache never gives a visitor's copy to
@@ -19,17 +20,11 @@
 import type { Handle } from '@sveltejs/kit';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { matchesIfNoneMatch, readStamp, validatorOf } from '$lib/server/services/guide-view-cache';
+import { PRIVATE_CACHING, PUBLIC_CACHING } from './caching-policy';
+import { keepIfPublic, keptAnswer } from './visitor-answers';
 
 export const GUIDE_PAGE_ROUTE = '/(public)/guides/[slug=slug]';
 export const PRICING_ROUTE = '/api/v1/guides/[slug=slug]/pricing';
-
-/**
- * A shared cache (s-maxage) may keep a visitor's answer a minute and serve it a minute more
- * while it asks again. Browsers (max-age=0) ask every time, cheaply with If-None-Match: a
- * visitor sees a hidden guide or a new price on the next load, not a minute later.
- */
-export const PUBLIC_CACHING = 'public, max-age=0, s-maxage=60, stale-while-revalidate=60';
-export const PRIVATE_CACHING = 'private, no-store';
 
 /** The page's parts outside the stamp (forks, gallery, tip notes) change the ETag this often. */
 const PAGE_EXTRAS_PERIOD_MS = 60_000;
@@ -70,9 +65,15 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 			});
 		}
 	}
+	const etag = event.locals.guideEtag;
+	if (etag && method === 'GET') {
+		const kept = keptAnswer(etag);
+		if (kept) return kept;
+	}
 	const response = await resolve(event);
-	if (!event.locals.user) keepOutOfSharedCaches(response);
-	return response;
+	if (event.locals.user) return response;
+	keepOutOfSharedCaches(response);
+	return etag && method === 'GET' ? keepIfPublic(etag, response) : response;
 };
 
 /**

@@ -12,7 +12,7 @@
 /**
  * The CSP for answers that are not pages SvelteKit renders (files, JSON, redirects, the
  * fallback error page): nothing runs, nothing frames them. Rendered pages replace it with
- * their own, nonce-based policy from svelte.config.js.
+ * their own policy from svelte.config.js (hashes of their inline scripts).
  */
 export const BASELINE_CSP = [
 	"default-src 'none'",

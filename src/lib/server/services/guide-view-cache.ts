@@ -143,8 +143,8 @@ export async function priced(
 
 /**
  * A weak ETag from the stamp and what else tells two answers apart (route, query, page or
- * data request). Weak because the page's bytes differ between two renders of the same view
- * (a fresh CSP nonce each time) while what it says does not.
+ * data request). Weak because two renders of the same view may differ in bytes that say
+ * nothing different (the order of serialised data, for instance).
  */
 export function validatorOf(stamp: GuideStamp, parts: readonly string[]): string {
 	const digest = createHash('sha256')

@@ -1,0 +1,63 @@
+/**
+ * Visitors' guide pages and pricing answers, kept in this process by their ETag.
+ *
+ * The ETag (http/guide-caching.ts) already names everything such an answer is made from: the
+ * guide's stamp, the route, document or data, the query and the one-minute period of the
+ * page's extras. Whenever it matches, a 304 is a correct answer; so is the same 200 again,
+ * which is what a reverse proxy in front of the app would send. Keeping it here gives a
+ * single process without a proxy the same saving: a guide shared on a forum is rendered once
+ * per change, not once per visitor. Answers for signed-in people never come here.
+ *
+ * Only an answer that is plainly public is kept: 200, `public` caching with the ETag it was
+ * asked for, no cookie set. Its headers are kept with it (the Content-Security-Policy holds
+ * the hashes of the page's inline scripts, svelte.config.js `csp.mode: 'hash'`).
+ */
+import { LRUCache } from 'lru-cache';
+import { PUBLIC_CACHING } from './caching-policy';
+
+interface KeptAnswer {
+	body: Uint8Array;
+	headers: [string, string][];
+}
+
+/** Bounded by bytes: about 90 KB per guide page, so several hundred pages at most. */
+const MAX_BYTES = 48 * 1024 * 1024;
+
+const answers = new LRUCache<string, KeptAnswer>({
+	maxSize: MAX_BYTES,
+	sizeCalculation: (answer) => Math.max(1, answer.body.byteLength)
+});
+
+/** Headers that belong to one exchange, not to the answer. */
+const NOT_KEPT = new Set(['set-cookie', 'date', 'content-length', 'connection']);
+
+/** The answer kept for this ETag, as a fresh Response, or null. */
+export function keptAnswer(etag: string): Response | null {
+	const kept = answers.get(etag);
+	if (!kept) return null;
+	return new Response(kept.body, { status: 200, headers: kept.headers });
+}
+
+/**
+ * Keeps `response` under `etag` when it is plainly public, and returns the Response to send
+ * (the body has been read, so it is a new one with the same bytes and headers).
+ */
+export async function keepIfPublic(etag: string, response: Response): Promise<Response> {
+	if (
+		response.status !== 200 ||
+		response.headers.get('cache-control') !== PUBLIC_CACHING ||
+		response.headers.get('etag') !== etag ||
+		response.headers.getSetCookie().length > 0 ||
+		!response.body
+	)
+		return response;
+	const body = new Uint8Array(await response.arrayBuffer());
+	const headers = [...response.headers].filter(([name]) => !NOT_KEPT.has(name.toLowerCase()));
+	answers.set(etag, { body, headers });
+	return new Response(body, { status: 200, headers });
+}
+
+/** Forget every kept answer (tests; a process that changes what answers are made of). */
+export function forgetKeptAnswers(): void {
+	answers.clear();
+}
