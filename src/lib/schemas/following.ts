@@ -44,7 +44,7 @@ export const noticeSettingsInput = z
 		{ error: 'Unknown notice setting.' }
 	)
 	.transform(
-		(fields) =>
+		(fields: Record<string, string | undefined>) =>
 			Object.fromEntries(
 				NOTICE_KINDS.map((kind) => [
 					kind,

@@ -16,7 +16,7 @@ import { LRUCache } from 'lru-cache';
 import { PUBLIC_CACHING } from './caching-policy';
 
 interface KeptAnswer {
-	body: Uint8Array;
+	body: Uint8Array<ArrayBuffer>;
 	headers: [string, string][];
 }
 
