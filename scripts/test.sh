@@ -66,6 +66,9 @@ if npx vite build >"$REPORTS/build.log" 2>&1; then
 	# port chosen 20 minutes earlier may have been taken by then), and the payment fake is told
 	# where to send its webhooks.
 	export E2E_PORT="${E2E_PORT:-$(free_port)}"
+	# Processes the end-to-end tests start themselves inherit this: no scheduled passes under
+	# running tests (the scheduler has its own integration tests with a controlled clock).
+	export SCHEDULER="${SCHEDULER:-off}"
 	register_payment_webhook "http://127.0.0.1:$E2E_PORT"
 	if ! DB_NAME=slotwise_e2e PLAYWRIGHT_JSON_OUTPUT_NAME="$REPORTS/playwright.json" \
 		npx playwright test --config tests/playwright.config.ts --reporter=list,json; then

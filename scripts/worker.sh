@@ -5,6 +5,8 @@
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
 export DB_NAME="${DB_NAME:-slotwise}"
+# The digest's links point at the app: npm start's address unless ORIGIN names another.
+export ORIGIN="${ORIGIN:-http://127.0.0.1:${PORT:-3000}}"
 if [ -z "${DB_HOST:-}" ] || [ "$DB_HOST" = "127.0.0.1" ]; then
 	start_db
 fi

@@ -16,6 +16,8 @@ import {
 import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
 import { startInlineWorker, stopInlineWorker } from '$lib/server/mail/queue/inline';
+import { inlineWorkerWanted } from '$lib/server/mail/queue/settings';
+import { startScheduler, stopScheduler } from '$lib/server/schedule';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { conditionalGuideReads } from '$lib/server/http/guide-caching';
@@ -41,6 +43,8 @@ export const init: ServerInit = () => {
 	if (!dev) watchForShutdown();
 	// The mail queue's worker runs beside the app (MAIL_WORKER=off leaves it to `npm run worker`).
 	startInlineWorker();
+	// The periodic upkeep jobs run where the mail worker runs (server/schedule).
+	if (inlineWorkerWanted()) startScheduler();
 };
 
 export const handle = sequence(
@@ -81,7 +85,9 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 // With the pools closed nothing holds the event loop open, so the process exits with 0.
 process.once('sveltekit:shutdown' as never, (reason: string) => {
 	void settled()
-		// The worker finishes the message it is sending and releases its claims first.
+		// The scheduler ends its job in hand; the worker finishes the message it is sending
+		// and releases its claims first.
+		.then(() => stopScheduler())
 		.then(() => stopInlineWorker())
 		.then(() => Promise.all([closeDb(), closeRateLimits()]))
 		.then(

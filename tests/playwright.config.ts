@@ -61,6 +61,9 @@ export default defineConfig({
 			BODY_SIZE_LIMIT: '16M',
 			DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e',
 			LOG_LEVEL: 'silent',
+			// The scheduler's daily pass would recompute every stored figure under the running
+			// tests; it is tested with a controlled clock in tests/integration/upkeep-schedule.spec.ts.
+			SCHEDULER: 'off',
 			// Mail goes to the SMTP fake, rates come from the ECB fake and payments go to the provider
 			// fake that npm test starts;
 			// unset values are left out.

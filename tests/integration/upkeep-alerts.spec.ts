@@ -5,6 +5,7 @@ import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-communit
 import * as catalogStores from '../../src/lib/server/services/catalog-stores';
 import * as cautions from '../../src/lib/server/services/caution-rules';
 import * as upkeep from '../../src/lib/server/services/upkeep-dashboard';
+import { composeDigest } from '../../src/lib/server/services/upkeep-digest';
 import { resetDatabase } from '../support/db';
 import { quoteAt, store, upkeepGuide, type UpkeepGuide } from '../support/upkeep-fixtures';
 import { settled } from '../../src/lib/server/background';
@@ -168,15 +169,15 @@ describe('weekly upkeep digest', () => {
 	it('is off by default and lists the new alerts worst first when composed', async () => {
 		expect((await User.findByPk(g.author.id))?.upkeepDigest).toBe(false);
 		await addQuote('tollan-g8-test', 'us', '360.00');
-		const message = upkeep.composeDigest(
+		const message = composeDigest(
 			{ name: 'Priya' },
 			await upkeep.openAlerts(g.author.id),
 			'https://slotwise.example'
 		);
 		expect(message?.subject).toBe('Your guides this week: upkeep alerts');
 		expect(message?.text).toContain(
-			"2 new upkeep alerts on your guides since last week:\n\n✕ conflict · Upkeep test rig: The total in us is US$460.00, above the guide's target budget of US$450.00.\n△ caution · Upkeep test rig: The total in us moved +15 % since publication"
+			"2 new upkeep alerts on your guides since your last digest:\n\n✕ conflict · Upkeep test rig: The total in us is US$460.00, above the guide's target budget of US$450.00.\n△ caution · Upkeep test rig: The total in us moved +15 % since publication"
 		);
-		expect(upkeep.composeDigest({ name: null }, [], 'https://slotwise.example')).toBeNull();
+		expect(composeDigest({ name: null }, [], 'https://slotwise.example')).toBeNull();
 	});
 });

@@ -76,9 +76,10 @@ export async function refreshForQuotes(quoteIds: readonly number[]): Promise<voi
 
 /**
  * Recomputes every published revision, in batches (rates refreshed, a region changed, the
- * seeders, a repair). Rows of revisions that are no longer published are dropped.
+ * seeders, a repair, the scheduler's daily pass). Rows of revisions that are no longer
+ * published are dropped. `now` is the moment the upkeep alerts are judged at (quote ages).
  */
-export async function refreshAll(): Promise<void> {
+export async function refreshAll(now = new Date()): Promise<void> {
 	await sequelize.query(
 		`DELETE p FROM guide_region_prices p
 		   LEFT JOIN guides g ON g.published_revision_id = p.revision_id
@@ -93,7 +94,10 @@ export async function refreshAll(): Promise<void> {
 			{ type: QueryTypes.SELECT, replacements: { after, limit: BATCH } }
 		);
 		if (rows.length === 0) return;
-		await refreshBatch(rows.map((r) => Number(r.id)));
+		await refreshBatch(
+			rows.map((r) => Number(r.id)),
+			now
+		);
 		after = Number(rows[rows.length - 1]?.id);
 	}
 }
@@ -129,7 +133,7 @@ export function refreshAllLater(): void {
 	});
 }
 
-async function refreshBatch(revisionIds: number[]): Promise<void> {
+async function refreshBatch(revisionIds: number[], now = new Date()): Promise<void> {
 	if (revisionIds.length === 0) return;
 	const current = (
 		await sequelize.query<CurrentRevision>(
@@ -159,7 +163,6 @@ async function refreshBatch(revisionIds: number[]): Promise<void> {
 		const base = regionById.get(c.baseRegionId);
 		return base ? [{ ...c, base }] : [];
 	});
-	const now = new Date();
 	const values: unknown[][] = [];
 	// Each revision's pricing per region, handed on to the upkeep alerts (same triggers).
 	const byRevision = new Map(listed.map((c) => [c.revisionId, new Map<number, PricedRevision>()]));
@@ -227,7 +230,8 @@ async function refreshBatch(revisionIds: number[]): Promise<void> {
 			baseRegionId: c.baseRegionId,
 			byRegion: byRevision.get(c.revisionId) ?? new Map()
 		})),
-		regions
+		regions,
+		now
 	);
 	// The same events change the cached guide pages and pricing answers, in every process.
 	await bumpGuideViews();

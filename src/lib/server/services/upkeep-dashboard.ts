@@ -1,8 +1,9 @@
 /**
  * What an author sees of the upkeep alerts (upkeep-alerts.ts computes them): the open ones on
  * their guides, worst first, each with the sentence and the editor link that focuses the
- * slot; snoozing and marking handled; and the weekly digest of new alerts (off unless the
- * author turned it on). Another person's alert is not_found, as if it did not exist.
+ * slot; snoozing and marking handled; and the author's switch for the weekly digest of new
+ * alerts (off unless they turn it on; upkeep-digest.ts sends it). Another person's alert is
+ * not_found, as if it did not exist.
  */
 import { QueryTypes } from 'sequelize';
 import type { Severity } from '$lib/domain/build-parts';
@@ -10,16 +11,13 @@ import type { UpkeepAlertView } from '$lib/views';
 import { sortWorstFirst, upkeepSentence, type UpkeepKind } from '$lib/domain/upkeep';
 import { fieldIssues, type Outcome } from '$lib/schemas/issues';
 import { handleAlertInput, snoozeAlertInput } from '$lib/schemas/upkeep';
-import { User, sequelize } from '$lib/server/db';
-import * as mail from '$lib/server/mail';
-import type { MailTemplate } from '$lib/server/mail';
-import { render } from '$lib/server/mail/templates';
+import { sequelize } from '$lib/server/db';
 
 export type { UpkeepAlertView };
 
 const DAY_MS = 86_400_000;
 
-interface AlertRow {
+export interface AlertRow {
 	id: number;
 	slug: string;
 	title: string;
@@ -31,7 +29,7 @@ interface AlertRow {
 	firstSeenAt: Date;
 }
 
-function view(row: AlertRow): UpkeepAlertView {
+export function alertView(row: AlertRow): UpkeepAlertView {
 	const details = (
 		typeof row.details === 'string' ? JSON.parse(row.details) : row.details
 	) as Record<string, unknown>;
@@ -50,7 +48,7 @@ function view(row: AlertRow): UpkeepAlertView {
 	};
 }
 
-const SELECT = `SELECT a.id, g.slug, g.title, a.kind, a.severity, r.code AS regionCode,
+export const ALERT_SELECT = `SELECT a.id, g.slug, g.title, a.kind, a.severity, r.code AS regionCode,
                        a.slot_key AS slotKey, a.details, a.first_seen_at AS firstSeenAt
                   FROM guide_upkeep_alerts a
                   JOIN guides g ON g.id = a.guide_id AND g.published_revision_id = a.revision_id
@@ -59,13 +57,13 @@ const SELECT = `SELECT a.id, g.slug, g.title, a.kind, a.severity, r.code AS regi
 /** The open alerts on the author's guides (not handled, not snoozed now), worst first. */
 export async function openAlerts(authorId: string, now = new Date()): Promise<UpkeepAlertView[]> {
 	const rows = await sequelize.query<AlertRow>(
-		`${SELECT}
+		`${ALERT_SELECT}
 		  WHERE g.author_id = :authorId AND a.handled_at IS NULL
 		    AND (a.snoozed_until IS NULL OR a.snoozed_until <= :now)
 		  ORDER BY a.first_seen_at ASC, a.id ASC`,
 		{ type: QueryTypes.SELECT, replacements: { authorId, now } }
 	);
-	return sortWorstFirst(rows.map(view));
+	return sortWorstFirst(rows.map(alertView));
 }
 
 async function ownAlert(authorId: string, alertId: number): Promise<boolean> {
@@ -116,53 +114,16 @@ export async function markHandled(
 }
 
 /**
- * The weekly digest for one author: the alerts first seen since `since` that are still
- * open, worst first; null when there are none (no empty mail is sent). `origin` makes the
- * links absolute.
+ * Turns the author's weekly digest on or off. Turning it on (from off) notes the moment, so
+ * the first digest lists only alerts seen since then (services/upkeep-digest.ts); a repeated
+ * "on" from a stale tab keeps the first moment.
  */
-export function composeDigest(
-	author: { name: string | null },
-	alerts: readonly UpkeepAlertView[],
-	origin: string
-): MailTemplate | null {
-	if (alerts.length === 0) return null;
-	const lines = sortWorstFirst([...alerts]).map(
-		(a) =>
-			`${a.severity === 'conflict' ? '✕ conflict' : '△ caution'} · ${a.guideTitle}: ${a.sentence}`
+export async function setDigest(userId: string, enabled: boolean, now = new Date()): Promise<void> {
+	await sequelize.query(
+		`UPDATE users SET upkeep_digest_since =
+		   CASE WHEN :enabled AND NOT upkeep_digest THEN :now ELSE upkeep_digest_since END,
+		   upkeep_digest = :enabled
+		 WHERE id = :userId`,
+		{ type: QueryTypes.UPDATE, replacements: { userId, enabled, now } }
 	);
-	return render({
-		subject: 'Your guides this week: upkeep alerts',
-		greeting: author.name ? `Hello ${author.name},` : 'Hello,',
-		before: [
-			`${alerts.length === 1 ? 'One new upkeep alert' : `${alerts.length} new upkeep alerts`} on your guides since last week:`,
-			lines.join('\n')
-		],
-		actions: [{ label: 'Open My guides', url: `${origin}/my/guides` }],
-		why: 'You got this e-mail because you turned on the weekly upkeep digest. Turn it off on My guides.'
-	});
-}
-
-/**
- * Sends the digest to every author who turned it on. For now it goes out through the mail
- * module directly; it belongs on the newsletter's queue once that lands.
- */
-export async function sendWeeklyDigests(origin: string, now = new Date()): Promise<number> {
-	const since = new Date(now.getTime() - 7 * DAY_MS);
-	const authors = await User.findAll({ where: { upkeepDigest: true, disabledAt: null } });
-	let sent = 0;
-	for (const author of authors) {
-		const fresh = (await openAlerts(author.id, now)).filter(
-			(a) => new Date(a.firstSeenAt) >= since
-		);
-		const message = composeDigest(author, fresh, origin);
-		if (!message) continue;
-		await mail.send(author.email, message);
-		sent++;
-	}
-	return sent;
-}
-
-/** Turns the author's weekly digest on or off. */
-export async function setDigest(userId: string, enabled: boolean): Promise<void> {
-	await User.update({ upkeepDigest: enabled }, { where: { id: userId } });
 }

@@ -31,6 +31,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	declare disabledAt: CreationOptional<Date | null>;
 	/** The weekly upkeep digest e-mail (new alerts on the author's guides); off by default. */
 	declare upkeepDigest: CreationOptional<boolean>;
+	/** When the digest was last turned on: the first digest lists alerts seen since then. */
+	declare upkeepDigestSince: CreationOptional<Date | null>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -50,6 +52,7 @@ export function initUser(sequelize: Sequelize) {
 			sessionVersion: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 1 },
 			disabledAt: { type: DataTypes.DATE, allowNull: true },
 			upkeepDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+			upkeepDigestSince: { type: DataTypes.DATE, allowNull: true },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},
