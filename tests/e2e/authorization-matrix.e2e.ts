@@ -266,6 +266,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(public)/builds/[id=id]?/settings': ownBuild,
 	'POST /(public)/builds/[id=id]?/sync': ownBuild,
 	'POST /(public)/builds/[id=id]?/undoSync': ownBuild,
+	'POST /(public)/builds/[id=id]?/declineUpdate': ownBuild,
 	'POST /(public)/builds/[id=id]?/proposeBudget': ownBuild,
 	'POST /(public)/builds/[id=id]?/applyBudget': ownBuild,
 	'POST /(public)/builds/[id=id]?/tick': ownBuild,

@@ -1,10 +1,12 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { Build, BuildSlot, Region, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
+import { declineUpdate } from '../../src/lib/server/services/build-declines';
 import { applySync } from '../../src/lib/server/services/build-sync';
+import { syncPlan } from '../../src/lib/server/services/build-sync-plan';
 import { guideInsights } from '../../src/lib/server/services/fork-insights';
 import type { GuideInsights, InsightChoice } from '../../src/lib/views';
-import { resetDatabase } from '../support/db';
+import { countRows, resetDatabase } from '../support/db';
 import { forkBuild, newReader, partId, publishRevision } from '../support/buildsync-fixtures';
 import { upkeepGuide, type UpkeepGuide } from '../support/upkeep-fixtures';
 
@@ -13,7 +15,8 @@ import { upkeepGuide, type UpkeepGuide } from '../support/upkeep-fixtures';
  * builds made below. The guide (tests/support/upkeep-fixtures.ts) has two slots: CPU
  * (pick Tollan K6 Test, alternate 1 Tollan K6 Lite Test) and graphics card (pick Tollan G8
  * Test). Builds 1–12 are forked from revision 1; revision 2 (same slots) goes live; builds
- * 1–5 take it; builds 13–14 are forked from revision 2.
+ * 1–5 take it; the owners of builds 6–11 answer "Not now" to it, and build 6's owner then
+ * takes it after all; build 12's owner never answers; builds 13–14 are forked from revision 2.
  *
  *   build     region  CPU            graphics card      bought
  *   1–5       us      pick           pick               1–5 yes
@@ -29,6 +32,8 @@ import { upkeepGuide, type UpkeepGuide } from '../support/upkeep-fixtures';
 
 let g: UpkeepGuide;
 let insights: GuideInsights;
+let builds: Build[];
+let revision2Id: number;
 
 const shown = (n: number) => ({ count: n, fewerThan5: false });
 const hidden = { count: null, fewerThan5: true };
@@ -44,7 +49,7 @@ beforeEach(async () => {
 	const de = (await Region.findOne({ where: { code: 'de' } }))!;
 	const cpu408 = await partId('halvard-strata-408');
 	const cobalt = await partId('solenne-cobalt-c6-8g');
-	const builds: Build[] = [];
+	builds = [];
 	for (let i = 1; i <= 12; i++) builds.push(await forkBuild(await newReader(`fork${i}`), g.guide));
 	const slot = (b: Build, key: string) =>
 		BuildSlot.findOne({ where: { buildId: b.id, sourceSlotKey: key } });
@@ -59,11 +64,14 @@ beforeEach(async () => {
 		if (n === 12) await (await slot(b, 'gpu-main'))!.destroy();
 		if (n <= 6) await (await slot(b, 'cpu-main'))!.update({ purchased: true });
 	}
-	await publishRevision(g.guide, {});
-	for (const b of builds.slice(0, 5)) {
-		const owner = (await User.findByPk(b.ownerId))!;
+	revision2Id = (await publishRevision(g.guide, {})).id;
+	for (const b of builds.slice(5, 11)) {
+		const declined = await declineUpdate(b.ownerId, b.id, { upstreamRevisionId: revision2Id });
+		expect(declined).toMatchObject({ kind: 'ok', revisionNumber: 2, baseRevisionNumber: 1 });
+	}
+	for (const b of builds.slice(0, 6)) {
 		const synced = await applySync(
-			owner.id,
+			b.ownerId,
 			b.id,
 			{ choices: {}, takeAllNonConflicting: true },
 			b.version
@@ -86,9 +94,11 @@ describe('fork insights', () => {
 			{ revisionNumber: 1, builds: shown(12) },
 			{ revisionNumber: 2, builds: hidden }
 		]);
-		expect(insights.tookUpdate).toEqual(shown(5));
-		// Builds 6–12 are still on revision 1 while revision 2 is live.
-		expect(insights.declinedUpdate).toEqual(shown(7));
+		// Builds 1–6 took revision 2 (build 6 after first declining it).
+		expect(insights.tookUpdate).toEqual(shown(6));
+		// Declined and still on revision 1: builds 7–11. Build 12 is behind too, but its owner
+		// never answered, so it is not counted as declining.
+		expect(insights.declinedUpdate).toEqual(shown(5));
 		expect(insights.markedBought).toEqual(shown(6));
 	});
 
@@ -162,5 +172,39 @@ describe('fork insights', () => {
 		expect(await as(other, 'author')).toEqual({ kind: 'not_found' });
 		expect(await guideInsights(null, g.guide.slug)).toEqual({ kind: 'not_found' });
 		expect((await as(editor, 'editor')).kind).toBe('ok');
+	});
+});
+
+describe('declining an update from the guide', () => {
+	it('records which revision was declined and when, and shows it with the offer', async () => {
+		const b7 = builds[6]!;
+		const plan = await syncPlan(b7.ownerId, b7.id);
+		if (plan.kind !== 'plan') throw new Error('build 7 is offered revision 2');
+		expect(plan.plan.upstream.number).toBe(2);
+		expect(plan.plan.declinedAt).not.toBeNull();
+		// A second "Not now" keeps the first answer and its time.
+		const again = await declineUpdate(b7.ownerId, b7.id, { upstreamRevisionId: revision2Id });
+		expect(again).toMatchObject({ kind: 'ok', declinedAt: plan.plan.declinedAt });
+		expect(await countRows('build_update_declines')).toBe(6);
+	});
+
+	it('refuses a revision that is not on offer and a build that is up to date; others get not_found', async () => {
+		const b12 = builds[11]!;
+		expect(
+			await declineUpdate(b12.ownerId, b12.id, { upstreamRevisionId: g.revision.id })
+		).toMatchObject({ kind: 'invalid', issues: { upstreamRevisionId: [expect.any(String)] } });
+		const b1 = builds[0]!;
+		expect(
+			await declineUpdate(b1.ownerId, b1.id, { upstreamRevisionId: revision2Id })
+		).toMatchObject({
+			kind: 'invalid',
+			issues: { _form: ['This build is already on the guide’s latest published revision.'] }
+		});
+		const stranger = await newReader('stranger');
+		expect(await declineUpdate(stranger.id, b12.id, { upstreamRevisionId: revision2Id })).toEqual({
+			kind: 'not_found'
+		});
+		// Nothing was written by the refusals: still the six answers of builds 6–11.
+		expect(await countRows('build_update_declines')).toBe(6);
 	});
 });

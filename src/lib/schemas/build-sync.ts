@@ -56,6 +56,24 @@ export function syncApplyForm(f: FormReader) {
 
 export const syncUndoInput = z.object({ version });
 
+/**
+ * "Not now": the owner declines the update they were offered, naming the revision the table
+ * showed (a newer one published meanwhile is a new offer). It changes no slot, so it carries
+ * no version: another tab's edits stay valid.
+ */
+export const syncDeclineInput = z.object({
+	upstreamRevisionId: z
+		.number({ error: 'Send the revision you were offered.' })
+		.int('Send the revision you were offered.')
+		.positive('Send the revision you were offered.')
+});
+export type SyncDeclineInput = z.infer<typeof syncDeclineInput>;
+
+/** The sync table's "Not now" button: the offered revision (a hidden field of the same form). */
+export function syncDeclineForm(f: FormReader) {
+	return { upstreamRevisionId: f.number('upstreamRevisionId') };
+}
+
 export const withinBudgetInput = z.object({ budget });
 
 /** "Find swaps": the budget as the reader typed it. */

@@ -194,6 +194,8 @@ export interface SyncPlanView {
 	offered: number;
 	/** The sync that undo would revert, if any. */
 	lastSync: LastSyncView | null;
+	/** When the owner declined this very revision ("Not now"), else null; it stays offered. */
+	declinedAt: string | null;
 }
 
 export interface BudgetSwapView {

@@ -4,11 +4,11 @@
  * revision and the build's slots (domain/sync.ts planSync). Owner only: another person's
  * build is `not_found`. Applying the reader's choices and undoing are build-sync.ts's.
  */
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { SyncInputError, planSync } from '$lib/domain/sync';
 import type { BuildSlot as SyncBuildSlot, SourceSlot, SyncPlan } from '$lib/domain/sync';
 import type { PartCategory } from '$lib/domain/types';
-import { Build, BuildSlot, BuildSync, Guide, GuideRevision, Part } from '$lib/server/db';
+import { Build, BuildSlot, BuildSync, Guide, GuideRevision, Part, sequelize } from '$lib/server/db';
 import type { LastSyncView, SyncPlanView, SyncRowView, SyncSideView } from '$lib/views';
 import { keyedRevisionSlots, sourceSlotsOf } from './build-source';
 import { partRef } from './mappers';
@@ -193,8 +193,23 @@ async function planView(state: SyncState0, transaction?: Transaction): Promise<S
 		rows,
 		conflicts: plan.conflicts,
 		offered: plan.offered,
-		lastSync: await lastSyncView(build.id, transaction)
+		lastSync: await lastSyncView(build.id, transaction),
+		declinedAt: await declinedAt(build.id, state.upstreamRevision.id, transaction)
 	};
+}
+
+/** When the owner declined this revision for this build (build-declines.ts), else null. */
+async function declinedAt(
+	buildId: number,
+	revisionId: number,
+	transaction?: Transaction
+): Promise<string | null> {
+	const [row] = await sequelize.query<{ declinedAt: Date }>(
+		`SELECT declined_at AS declinedAt FROM build_update_declines
+		  WHERE build_id = :buildId AND revision_id = :revisionId`,
+		{ type: QueryTypes.SELECT, replacements: { buildId, revisionId }, transaction }
+	);
+	return row ? new Date(row.declinedAt).toISOString() : null;
 }
 
 /** The form message for a build the domain cannot sync (a SyncInputError), else null. */

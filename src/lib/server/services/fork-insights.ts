@@ -12,7 +12,10 @@
  * - forked from: the revision a build was first made from (its first sync's "from", else
  *   its base revision);
  * - took an update: the build has a sync with the guide that is not undone;
- * - declined: the build is still on an older revision than the live one (offered, not taken);
+ * - declined: the owner answered "Not now" to an offered revision (build_update_declines,
+ *   build-declines.ts) and the build has not since moved to that revision or a newer one (a
+ *   build that declined and later took the update counts as taking it). A build that is
+ *   merely behind, whose owner never answered, counts as neither;
  * - marked bought: the owner marked at least one part bought.
  * - suggestion: a part that at least 20 % of the slot's builds, and at least 5, swapped to.
  */
@@ -89,10 +92,7 @@ export async function guideInsights(
 		const from = forkedFrom.has(b.id) ? forkedFrom.get(b.id) : b.baseRevisionId;
 		if (from) perRevision.set(from, (perRevision.get(from) ?? 0) + 1);
 	}
-	const live = guide.publishedRevisionId;
-	const declined = builds.filter(
-		(b) => live !== null && b.baseRevisionId !== null && b.baseRevisionId !== live
-	).length;
+	const declined = buildIds.length === 0 ? 0 : await standingDeclines(guide.id);
 
 	const slots = await slotInsights(guide, builds, new Map(regions.map((r) => [r.id, r.code])));
 	return {
@@ -109,6 +109,21 @@ export async function guideInsights(
 			slots
 		}
 	};
+}
+
+/** Builds of the guide with a decline whose revision is newer than the build's base now. */
+async function standingDeclines(guideId: number): Promise<number> {
+	const [row] = await sequelize.query<{ n: number }>(
+		`SELECT COUNT(DISTINCT d.build_id) AS n
+		   FROM build_update_declines d
+		   JOIN builds b ON b.id = d.build_id
+		   JOIN guide_revisions declined ON declined.id = d.revision_id
+		   LEFT JOIN guide_revisions base ON base.id = b.base_revision_id
+		  WHERE b.source_guide_id = :guideId
+		    AND (base.id IS NULL OR base.number < declined.number)`,
+		{ type: QueryTypes.SELECT, replacements: { guideId } }
+	);
+	return Number(row?.n ?? 0);
 }
 
 async function slotInsights(

@@ -16,6 +16,8 @@ import {
 import {
 	syncApplyForm,
 	syncApplyInput,
+	syncDeclineForm,
+	syncDeclineInput,
 	syncUndoInput,
 	withinBudgetApplyForm,
 	withinBudgetApplyInput,
@@ -32,6 +34,7 @@ import * as buildEdits from '$lib/server/services/build-edits';
 import * as buildFork from '$lib/server/services/build-fork';
 import * as buildView from '$lib/server/services/build-view';
 import * as buildBudget from '$lib/server/services/build-budget';
+import * as buildDeclines from '$lib/server/services/build-declines';
 import * as buildSync from '$lib/server/services/build-sync';
 import * as buildSyncPlan from '$lib/server/services/build-sync-plan';
 import * as contentReports from '$lib/server/services/content-reports';
@@ -278,6 +281,17 @@ export const actions: Actions = {
 		return sync.answer(outcome, (ok) => ({
 			problem: false,
 			message: `Updated from the guide: ${ok.changedSlots} changed, ${ok.addedSlots} added, ${ok.removedSlots} removed. You can undo it.`
+		}));
+	},
+	/** "Not now": the owner declines the offered revision; the build stays as it is. */
+	declineUpdate: async ({ params, request }) => {
+		const me = requireUser();
+		const input = parseForm(await readFormData(request), syncDeclineInput, syncDeclineForm);
+		if (input.kind !== 'ok') return sync.failure(input);
+		const outcome = await buildDeclines.declineUpdate(me.id, Number(params.id), input.data);
+		return sync.answer(outcome, (ok) => ({
+			problem: false,
+			message: `Your build stays on revision ${ok.baseRevisionNumber}. Revision ${ok.revisionNumber} stays offered below if you change your mind.`
 		}));
 	},
 	delete: async ({ params, request }) => {
