@@ -180,6 +180,18 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await reader.goto(buildUrl);
 	await expect(reader.getByTestId('newer-revision')).toBeVisible();
 	const sync = reader.getByTestId('sync');
+	// "Not now" first: the answer is stored and the offer folds away, still there to reopen.
+	await sync.getByRole('button', { name: /^Not now: keep revision \d+$/ }).click();
+	await expect(
+		reader.getByText(/^Your build stays on revision \d+\. Revision \d+ stays offered/)
+	).toBeVisible();
+	await expect(sync.getByTestId('sync-declined')).toContainText(
+		/You chose not to take revision \d+ \(on \d{4}-\d{2}-\d{2}\)/
+	);
+	await expect(sync.getByRole('button', { name: /^Not now/ })).toHaveCount(0);
+	await reader.reload();
+	await expect(sync.getByTestId('sync-declined')).toBeVisible();
+	await sync.getByText('Show the update again').click();
 	const conflict = sync.locator('[data-testid="sync-row"][data-status="conflict"]');
 	await expect(conflict).toHaveCount(1);
 	await expect(conflict).toContainText('Graphics card');
