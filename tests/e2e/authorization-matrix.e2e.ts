@@ -315,6 +315,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	},
 	'POST /api/v1/builds/[id=id]/sync': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/sync/undo': everyone('ok'),
+	'POST /api/v1/builds/[id=id]/sync/decline': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/within-budget': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/within-budget/apply': everyone('ok'),
 	// Builds JSON API (services/build-view.ts, build-edits.ts): the sample build id does not exist, so GET answers 401

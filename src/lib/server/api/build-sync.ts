@@ -3,6 +3,7 @@
  *   GET  /api/v1/builds/[id]/sync                 → 200 { kind: 'plan', plan } | { kind: 'up_to_date', version, lastSync }
  *   POST /api/v1/builds/[id]/sync                 { version, choices, takeAllNonConflicting, upstreamRevisionId? }
  *   POST /api/v1/builds/[id]/sync/undo            { version }
+ *   POST /api/v1/builds/[id]/sync/decline         { upstreamRevisionId } → 200 { revisionNumber, baseRevisionNumber, declinedAt }
  *   POST /api/v1/builds/[id]/within-budget        { budget } → 200 proposal | 422 { message }
  *   POST /api/v1/builds/[id]/within-budget/apply  { budget, version } → 200 applied | 422 | 409
  * Owner only (anyone else's build is a 404 with no data), visitors 401, JSON only (the hook
@@ -16,6 +17,7 @@ import { json } from '@sveltejs/kit';
 import type { RequestEvent } from '@sveltejs/kit';
 import {
 	syncApplyInput,
+	syncDeclineInput,
 	syncUndoInput,
 	withinBudgetApplyInput,
 	withinBudgetInput
@@ -25,6 +27,7 @@ import { jsonAnswer, jsonFailure, readJson } from '$lib/server/http/answers';
 import * as budget from '$lib/server/services/build-budget';
 import type { BudgetNoFit } from '$lib/views';
 import * as sync from '$lib/server/services/build-sync';
+import * as declines from '$lib/server/services/build-declines';
 import * as syncPlan from '$lib/server/services/build-sync-plan';
 import { BUILD } from './builds';
 
@@ -79,6 +82,15 @@ export async function postUndoSync(event: RequestEvent): Promise<Response> {
 	const input = await readJson(event.request, syncUndoInput);
 	if (input.kind !== 'ok') return jsonFailure(input, BUILD);
 	const outcome = await sync.undoLastSync(user.id, buildId(event), input.data.version);
+	return jsonAnswer(outcome, BUILD, (ok) => json(withoutKind(ok)));
+}
+
+/** POST …/sync/decline: record "not now" for the revision on offer; the build is unchanged. */
+export async function postDeclineSync(event: RequestEvent): Promise<Response> {
+	const user = requireUser();
+	const input = await readJson(event.request, syncDeclineInput);
+	if (input.kind !== 'ok') return jsonFailure(input, BUILD);
+	const outcome = await declines.declineUpdate(user.id, buildId(event), input.data);
 	return jsonAnswer(outcome, BUILD, (ok) => json(withoutKind(ok)));
 }
 
