@@ -10,7 +10,9 @@
  * there is none writes that row, queues the message under the key
  * `upkeep-digest.<author>.<week>` and marks the listed alerts with the digest's id. A second
  * process waits on the lock, then finds the row and does nothing; a repeat after a crash
- * finds either everything or nothing (one transaction).
+ * finds either everything or nothing (one transaction). The alert rows are not locked (a
+ * lock through the join would hold the guides too): one that a price pass removes meanwhile
+ * is still listed once, which is true of the moment it was read.
  *
  * "New since the last digest" is the mark, not a time window: an alert is listed once, in
  * the first digest after it appears, even if its row committed while the last digest was
@@ -97,8 +99,7 @@ export async function queueDigestFor(
 			  WHERE g.author_id = :authorId AND a.digest_id IS NULL AND a.handled_at IS NULL
 			    AND (a.snoozed_until IS NULL OR a.snoozed_until <= :now)
 			    AND (:since IS NULL OR a.first_seen_at > :since)
-			  ORDER BY a.first_seen_at ASC, a.id ASC
-			  FOR UPDATE`,
+			  ORDER BY a.first_seen_at ASC, a.id ASC`,
 			{
 				type: QueryTypes.SELECT,
 				replacements: { authorId, now, since: author.since ?? null },
