@@ -55,6 +55,7 @@ export interface GuideInsights {
 	totalBuilds: BuildCount;
 	perRevision: { revisionNumber: number; builds: BuildCount }[];
 	tookUpdate: BuildCount;
+	/** Owners who answered "Not now" to an update and have not taken it since (build_update_declines). */
 	declinedUpdate: BuildCount;
 	markedBought: BuildCount;
 	slots: InsightSlot[];
