@@ -191,6 +191,7 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await expect(sync.getByRole('button', { name: /^Not now/ })).toHaveCount(0);
 	await reader.reload();
 	await expect(sync.getByTestId('sync-declined')).toBeVisible();
+	await expect(reader.getByTestId('newer-revision')).toHaveCount(0);
 	await sync.getByText('Show the update again').click();
 	const conflict = sync.locator('[data-testid="sync-row"][data-status="conflict"]');
 	await expect(conflict).toHaveCount(1);
