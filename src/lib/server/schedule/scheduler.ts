@@ -26,7 +26,7 @@ export type SchedulerLog = (event: string, detail?: Record<string, unknown>) => 
 
 export interface SchedulerOptions {
 	sequelize: Sequelize;
-	/** Absolute links in the digest; without one the digest is not sent (logged once per tick). */
+	/** Absolute links in the digest; without one no digest is queued (logged once). */
 	origin: string | null;
 	now?: () => Date;
 	/** Between ticks. */
@@ -58,6 +58,7 @@ export class Scheduler {
 	private readonly leaseMs: number;
 	private readonly log: SchedulerLog;
 	private stopping = false;
+	private warnedNoOrigin = false;
 	private loop: Promise<void> | null = null;
 	private wake: (() => void) | null = null;
 
@@ -77,7 +78,9 @@ export class Scheduler {
 		const day = utcDay(now);
 		if (await this.run('upkeep-staleness', day, now, () => refreshAll(now))) result.staleness = day;
 		if (!this.origin) {
-			this.log('digest_skipped', { reason: 'ORIGIN is not set, so links cannot be made' });
+			if (!this.warnedNoOrigin)
+				this.log('digest_skipped', { reason: 'ORIGIN is not set, so links cannot be made' });
+			this.warnedNoOrigin = true;
 			return result;
 		}
 		const origin = this.origin;
