@@ -49,6 +49,10 @@ function startWorker(): ChildProcess {
 				MAIL_LEASE_SECONDS: '4',
 				MAIL_SEND_GUARD_SECONDS: '1',
 				MAIL_WORKER_IDLE_MS: '50',
+				// Only the queue here: the scheduler's first tick (a full price pass) would share
+				// the process and pause sending for a moment, so a kill could land between batches.
+				// The scheduler has its own tests (upkeep-schedule.spec.ts).
+				SCHEDULER: 'off',
 				LOG_LEVEL: process.env.CRASH_TEST_LOG ? 'info' : 'silent'
 			},
 			stdio: ['ignore', process.env.CRASH_TEST_LOG ? 'inherit' : 'ignore', 'inherit']
