@@ -209,6 +209,10 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	await expect(slot(reader, 'Power supply').getByTestId('slot-part')).toHaveText(/VP850/);
 	await expect(reader.getByTestId('newer-revision')).toHaveCount(0);
 	await expect(slot(reader, 'CPU').getByTestId('bought')).toBeVisible();
+	// The undo offer says which update it would undo, as a sentence with its spaces.
+	await expect(reader.getByTestId('undo-sync')).toContainText(
+		/Last updated from the guide, from revision \d+ to \d+\./
+	);
 
 	// The CSV shopping list: one row per slot, and totals that add up to what the page shows.
 	const csv = await reader.request.get(`${buildUrl}/export.csv`);
