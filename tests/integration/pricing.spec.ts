@@ -13,6 +13,7 @@ import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
+import { settled } from '../../src/lib/server/background';
 import {
 	FrameResult,
 	FxRate,
@@ -551,6 +552,8 @@ describe('stored list figures on the real MariaDB', () => {
 		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9706));
 		const { port } = server.address() as AddressInfo;
 		await fxService.refresh({ url: `http://127.0.0.1:${port}/eurofxref-daily.xml` });
+		// The full pass runs after the refresh has answered.
+		await settled();
 		// After: small drive still quoted €69.90; fan from $12.50 at 1.2000 with 19 % VAT:
 		// 12.50 / 1.2000 × 1.19 = 12.3958… → €12.40, × 2 = €24.80. Total €69.90 + €24.80 = €94.70.
 		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9470));

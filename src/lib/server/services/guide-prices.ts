@@ -7,7 +7,8 @@
  * - a revision is published (guide-reviews.ts decide): that revision, in every region;
  * - a quote is accepted (an editor's quote, a verified sighting, a catalog import): every
  *   published revision that uses the part as a pick or an alternate;
- * - exchange rates are refreshed or a region's tax or factors change: everything.
+ * - exchange rates are refreshed or a region's tax or factors change: everything, in the
+ *   background after the answer (refreshAllLater).
  *
  * The figures come from the one pricing service (pricing.ts), the same computation as the
  * guide page, so a stored total is the figure the guide page shows for that region.
@@ -118,10 +119,11 @@ export async function refreshAll(options: { batch?: number } = {}): Promise<void
 }
 
 /*
- * refreshAll for a change that needs no answer from it (a pairing rule written): it runs
- * after the editor's request has been answered, since its cost grows with the number of
- * published guides. Changes that arrive while a pass runs ask for one more pass, not one
- * each.
+ * refreshAll for a change that needs no answer from it (rates refreshed, a region's tax or
+ * factors changed, a pairing rule written): it runs after the request has been answered,
+ * since its cost grows with the number of published guides. Changes that arrive while a
+ * pass runs ask for one more pass, not one each. Until it ends, lists and guide pages show
+ * the previous figures.
  */
 let fullPass: 'idle' | 'running' | 'again' = 'idle';
 
