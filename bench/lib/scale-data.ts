@@ -313,7 +313,15 @@ export async function generate(
 				x.publishedAt
 			];
 		}
+	); // Their tags as rows too (the Guide model's hook does this for rows it writes).
+	await sequelize.query(
+		`INSERT INTO guide_tags (tag, guide_id)
+		 SELECT t.tag, g.id FROM guides g,
+		        JSON_TABLE(g.tags, '$[*]' COLUMNS (tag VARCHAR(64) PATH '$')) t
+		  WHERE g.id >= :guideBase`,
+		{ type: QueryTypes.INSERT, replacements: { guideBase } }
 	);
+
 	await insert(
 		'guide_revisions',
 		[

@@ -82,6 +82,7 @@ import * as mUpkeepBaselines from './2026.12.12T10.00.00.create-guide-upkeep-bas
 import * as mUpkeepAlerts from './2026.12.12T10.01.00.create-guide-upkeep-alerts.js';
 import * as mUsersUpkeepDigest from './2026.12.12T10.02.00.add-users-upkeep-digest.js';
 import * as mTipsNoteHiddenReason from './2026.12.13T10.00.00.add-tips-note-hidden-reason.js';
+import * as mGuideTags from './2026.12.14T10.00.00.create-guide-tags.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -160,5 +161,6 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.12T10.00.00.create-guide-upkeep-baselines': mUpkeepBaselines,
 	'2026.12.12T10.01.00.create-guide-upkeep-alerts': mUpkeepAlerts,
 	'2026.12.12T10.02.00.add-users-upkeep-digest': mUsersUpkeepDigest,
-	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason
+	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason,
+	'2026.12.14T10.00.00.create-guide-tags': mGuideTags
 };
