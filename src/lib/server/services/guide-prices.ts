@@ -11,7 +11,10 @@
  *   background after the answer (refreshAllLater).
  *
  * The figures come from the one pricing service (pricing.ts), the same computation as the
- * guide page, so a stored total is the figure the guide page shows for that region.
+ * guide page, so a stored total is the figure the guide page shows for that region: the few
+ * revisions of an event through its own loading (priceRevisionsIn), the full pass over every
+ * revision through typed raw rows loaded once per page (price-pass-loads.ts) and the same
+ * computation in memory (priceLoadedSets); tests compare the two row for row.
  * The same pass recomputes the guides' upkeep alerts (upkeep-alerts.ts) from these figures.
  * Recomputation runs right after the triggering transaction commits (pricing reads through
  * the pool, so it must see the committed quote or revision); it replaces a revision's rows
@@ -28,9 +31,9 @@ import * as fx from './fx';
 import { invalidateBrowseTags } from './guide-browse';
 import { loadLatestQuotes, loadPassSlots } from './price-pass-loads';
 import { priceLoadedSets, priceRevisionsIn, revisionSlotToPrice } from './pricing';
-import { refreshAlerts } from './upkeep-alerts';
-import type { RevisionPriced } from './upkeep-alerts';
 import type { PricedSet } from './pricing';
+import { refreshAlerts, sweepAlerts } from './upkeep-alerts';
+import type { RevisionPriced } from './upkeep-alerts';
 import { runLater } from '$lib/server/background';
 
 /** Revisions priced per batch: bounds memory (slots and quotes of a batch) at any scale. */
@@ -98,6 +101,7 @@ export async function refreshAll(options: { batch?: number } = {}): Promise<void
 		  WHERE g.id IS NULL`,
 		{ type: QueryTypes.DELETE }
 	);
+	await sweepAlerts();
 	// Read once for the whole pass: every page is priced in every region at the same rates.
 	const [regions, rates] = await Promise.all([Region.findAll(), fx.ratesForPricing()]);
 	const setBased = pricedSetBased(rates);
@@ -112,7 +116,8 @@ export async function refreshAll(options: { batch?: number } = {}): Promise<void
 		await refreshBatch(
 			rows.map((r) => Number(r.id)),
 			regions,
-			setBased
+			setBased,
+			false
 		);
 		after = Number(rows[rows.length - 1]?.id);
 	}
@@ -218,10 +223,12 @@ function pricedSetBased(rates: RatesPerEur): Pricer {
 	};
 }
 
+/** `sweep`: false in the full pass, which sweeps stale alerts once before its pages. */
 async function refreshBatch(
 	revisionIds: number[],
 	regions: readonly Region[],
-	priceAll: Pricer
+	priceAll: Pricer,
+	sweep = true
 ): Promise<void> {
 	if (revisionIds.length === 0) return;
 	const current = (
@@ -316,7 +323,8 @@ async function refreshBatch(
 			slots: priced.get(c.revisionId)?.slots ?? [],
 			byRegion: priced.get(c.revisionId)?.byRegion ?? new Map()
 		})),
-		regions
+		regions,
+		{ sweep }
 	);
 	// The same events change the cached guide pages and pricing answers, in every process.
 	await bumpGuideViews();

@@ -12,6 +12,7 @@
  */
 import { createHash } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { dropIns } from '$lib/domain/dropins';
 import { fitReport } from '$lib/domain/fit';
 import { money } from '$lib/domain/money';
@@ -63,8 +64,9 @@ interface Baseline {
 export async function refreshAlerts(
 	revisions: readonly RevisionPriced[],
 	regions: readonly Region[],
-	now = new Date()
+	options: { now?: Date; sweep?: boolean } = {}
 ): Promise<void> {
+	const now = options.now ?? new Date();
 	if (revisions.length === 0) return;
 	const revisionIds = revisions.map((r) => r.revisionId);
 	const [guides, baselines, quoteDates, rules] = await Promise.all([
@@ -146,7 +148,7 @@ export async function refreshAlerts(
 		});
 		for (const alert of alerts) drafts.push({ r, alert });
 	}
-	await store(revisions, drafts, newBaselines, now);
+	await store(revisions, drafts, newBaselines, now, options.sweep ?? true);
 }
 
 /** A revision's slots with their prices in one region, as the domain takes them. */
@@ -266,7 +268,8 @@ async function store(
 	revisions: readonly RevisionPriced[],
 	drafts: { r: RevisionPriced; alert: UpkeepAlertDraft }[],
 	baselines: [number, Baseline][],
-	now: Date
+	now: Date,
+	sweep: boolean
 ): Promise<void> {
 	const guideIds = [...new Set(revisions.map((r) => r.guideId))];
 	const rows = drafts.map(({ r, alert }) => [
@@ -318,12 +321,20 @@ async function store(
 			}`,
 			{ type: QueryTypes.DELETE, replacements: [guideIds, ...kept], transaction }
 		);
-		// Alerts of a revision that is no longer live (a newer one, or the guide taken down) go too.
-		await sequelize.query(
-			`DELETE a FROM guide_upkeep_alerts a
-			   LEFT JOIN guides g ON g.id = a.guide_id AND g.published_revision_id = a.revision_id
-			  WHERE g.id IS NULL`,
-			{ type: QueryTypes.DELETE, transaction }
-		);
+		if (sweep) await sweepAlerts(transaction);
 	});
+}
+
+/**
+ * Drops the alerts of revisions that are no longer live (a newer one, or the guide taken
+ * down). It reads the whole alerts table, so the full pass (guide-prices.ts refreshAll) runs
+ * it once, not once per page.
+ */
+export async function sweepAlerts(transaction?: Transaction): Promise<void> {
+	await sequelize.query(
+		`DELETE a FROM guide_upkeep_alerts a
+		   LEFT JOIN guides g ON g.id = a.guide_id AND g.published_revision_id = a.revision_id
+		  WHERE g.id IS NULL`,
+		{ type: QueryTypes.DELETE, transaction }
+	);
 }
