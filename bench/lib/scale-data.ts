@@ -160,14 +160,16 @@ export async function generate(
 	);
 	await insert(
 		'users',
-		['id', 'email', 'name', 'role', 'email_verified_at', 'created_at', 'updated_at'],
+		['id', 'email', 'handle', 'name', 'role', 'email_verified_at', 'created_at', 'updated_at'],
 		authors.length + readers.length,
 		(i) => {
 			const author = i < authors.length;
 			const id = author ? authors[i] : readers[i - authors.length];
-			const email = author ? `author${i}@scale.test` : `reader${i}@scale.test`;
+			// Unique by the running number, as the column requires; the demo's handles are words.
+			const handle = author ? `author${i}` : `reader${i}`;
+			const email = `${handle}@scale.test`;
 			const name = `${pick(MODEL_WORDS)} ${pick(BRANDS)} ${i}`;
-			return [id, email, name, author ? 'author' : 'reader', now, now, now];
+			return [id, email, handle, name, author ? 'author' : 'reader', now, now, now];
 		}
 	);
 
@@ -311,7 +313,15 @@ export async function generate(
 				x.publishedAt
 			];
 		}
+	); // Their tags as rows too (the Guide model's hook does this for rows it writes).
+	await sequelize.query(
+		`INSERT INTO guide_tags (tag, guide_id)
+		 SELECT t.tag, g.id FROM guides g,
+		        JSON_TABLE(g.tags, '$[*]' COLUMNS (tag VARCHAR(64) PATH '$')) t
+		  WHERE g.id >= :guideBase`,
+		{ type: QueryTypes.INSERT, replacements: { guideBase } }
 	);
+
 	await insert(
 		'guide_revisions',
 		[

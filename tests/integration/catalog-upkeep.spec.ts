@@ -232,7 +232,7 @@ describe('parts', () => {
 		).toEqual({ kind: 'not_found' });
 	});
 
-	it('lists and searches parts, with LIKE wildcards taken literally', async () => {
+	it('lists and searches parts by words (as the public parts search) or by slug, with LIKE wildcards taken literally', async () => {
 		const me = await editor();
 		await catalogParts.createPart(me.id, {
 			category: 'gpu',
@@ -249,10 +249,23 @@ describe('parts', () => {
 		expect(
 			(await catalogReads.listParts({ q: 'lumen', page: 1 })).items.map((p) => p.slug)
 		).toEqual(['example-graphics-lumen-60']);
-		expect((await catalogReads.listParts({ q: '%', page: 1 })).items.map((p) => p.model)).toEqual([
-			'100% Card'
+		// "%" is no wildcard: alone it must begin a brand or model, and none does.
+		expect((await catalogReads.listParts({ q: '%', page: 1 })).items).toEqual([]);
+		expect(
+			(await catalogReads.listParts({ q: '100% card', page: 1 })).items.map((p) => p.model)
+		).toEqual(['100% Card']);
+		// A short word alone begins the brand or the model: "lu" finds "Lumen 60".
+		expect((await catalogReads.listParts({ q: 'lu', page: 1 })).items.map((p) => p.model)).toEqual([
+			'Lumen 60'
 		]);
+		// A slug pasted from an address finds its part.
+		expect(
+			(await catalogReads.listParts({ q: 'other-brand-100-card', page: 1 })).items.map(
+				(p) => p.brand
+			)
+		).toEqual(['Other_Brand']);
 		expect((await catalogReads.listParts({ q: '', category: 'cpu', page: 1 })).total).toBe(0);
+		expect((await catalogReads.listParts({ q: '', category: 'gpu', page: 1 })).total).toBe(2);
 	});
 });
 

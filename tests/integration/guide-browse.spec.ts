@@ -155,6 +155,35 @@ describe('guide browse on the real MariaDB', () => {
 		expect((await browse({})).items.every((g) => g.fpsPer100 === null)).toBe(true);
 	});
 
+	it('offers the tags of listed guides only, and follows a guide retagged or hidden', async () => {
+		const demoTags = [...new Set(demoGuides.flatMap((g) => g.tags))].sort();
+		expect((await browse({})).tags).toEqual(demoTags);
+		const guide = await Guide.findOne({ where: { slug: 'steady-1080p-starter' } });
+		if (!guide) throw new Error('no demo guide steady-1080p-starter');
+		const tags = guide.tags;
+		try {
+			// A tag no demo guide carries appears with the guide that takes it…
+			await guide.update({ tags: [...tags, 'zz-retagged'] });
+			expect((await browse({})).tags).toEqual([...demoTags, 'zz-retagged']);
+			// …and leaves when that guide is hidden, with the tags only it carries (1080p,
+			// budget, microatx: demo-data.ts), though its row still holds them.
+			await guide.update({ hiddenAt: new Date(), hiddenReason: 'Test.' });
+			expect((await browse({})).tags).toEqual([
+				'1440p',
+				'4k',
+				'atx',
+				'compact',
+				'creator',
+				'gaming',
+				'mini-itx',
+				'quiet'
+			]);
+		} finally {
+			await guide.update({ hiddenAt: null, hiddenReason: null, tags });
+		}
+		expect((await browse({})).tags).toEqual(demoTags);
+	});
+
 	it('answers unknown regions as such, not with an empty list', async () => {
 		expect((await guideBrowse.browse(query({ region: 'zz' }))).kind).toBe('unknown_region');
 		expect(await guideBrowse.browse(query({ base: 'zz' }))).toEqual({

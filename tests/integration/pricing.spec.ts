@@ -12,7 +12,10 @@
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { QueryTypes } from 'sequelize';
+import { settled } from '../../src/lib/server/background';
 import {
+	FrameResult,
 	FxRate,
 	Guide,
 	GuideRevision,
@@ -408,6 +411,104 @@ describe('the pricing service on the real MariaDB', () => {
 });
 
 /*
+ * The full pass (guide-prices.ts refreshAll: raw rows, page by page, every region priced in
+ * memory) stores exactly what the per-revision path stores (refreshRevisions: the guide
+ * page's own pricing, region by region), prices and upkeep alerts alike, across page
+ * boundaries. Same fixture and rules as above, plus one frame result for the compact guide
+ * so the stored value is compared too; each figure checked here is worked by hand above.
+ */
+describe('the full pass of stored list figures on the real MariaDB', () => {
+	beforeAll(async () => {
+		await resetDatabase();
+		fx = await createFixture();
+		// Test input, invented: one measured title at an average of 62.0 FPS.
+		await FrameResult.create({
+			revisionId: fx.revisions.compact,
+			workload: 'Lantern Drift',
+			resolution: '1920x1080',
+			avgFpsTenths: 620,
+			low1FpsTenths: 480
+		});
+	});
+
+	async function storedRows() {
+		const select = (sql: string) =>
+			sequelize.query<Record<string, unknown>>(sql, { type: QueryTypes.SELECT });
+		return {
+			prices: await select(
+				`SELECT revision_id, region_id, guide_id, is_base, currency, picks_total_minor,
+				        unpriced_slots, range_min_minor, range_max_minor, fps_per_100, total_sort,
+				        value_sort, published_at
+				   FROM guide_region_prices ORDER BY revision_id, region_id`
+			),
+			alerts: await select(
+				`SELECT guide_id, revision_id, fingerprint, kind, region_id, slot_key, severity, details
+				   FROM guide_upkeep_alerts ORDER BY guide_id, fingerprint`
+			)
+		};
+	}
+
+	it('stores, one revision per page, the very rows the per-revision path stores', async () => {
+		await guidePrices.refreshRevisions([fx.revisions.office, fx.revisions.compact]);
+		const perRevision = await storedRows();
+		await sequelize.query('DELETE FROM guide_region_prices');
+		await sequelize.query('DELETE FROM guide_upkeep_alerts');
+		await guidePrices.refreshAll({ batch: 1 });
+		const fullPass = await storedRows();
+		expect(fullPass).toEqual(perRevision);
+
+		// Two guides in three regions; the figures are the ones worked by hand above
+		// (ECB 2 Jan 2024, docs/sources.md 10c; VAT and consumption tax as above).
+		expect(fullPass.prices).toHaveLength(6);
+		// The fixture's quotes are from 2024: stale in every region that lists them.
+		expect(fullPass.alerts.length).toBeGreaterThan(0);
+		const row = (revisionId: number, region: Region) =>
+			fullPass.prices.find((r) => r.revision_id === revisionId && r.region_id === region.id);
+		// Office in the US: $104.99, the cable combs unpriced, $104.99 to $164.99.
+		expect(row(fx.revisions.office, fx.regions.us)).toMatchObject({
+			is_base: 1,
+			currency: 'USD',
+			picks_total_minor: 10499,
+			unpriced_slots: 1,
+			range_min_minor: 10499,
+			range_max_minor: 16499,
+			fps_per_100: null
+		});
+		// Office in Germany: €97.06, €97.06 to €185.29.
+		expect(row(fx.revisions.office, fx.regions.de)).toMatchObject({
+			is_base: 0,
+			currency: 'EUR',
+			picks_total_minor: 9706,
+			unpriced_slots: 1,
+			range_min_minor: 9706,
+			range_max_minor: 18529
+		});
+		// Compact in Japan: ¥31,300, ¥24,600 to ¥31,300. Value (docs/architecture.md
+		// Computations 5): one result, so the geometric mean is 62.0 FPS; per ¥100:
+		// 62.0 × 100 / 31,300 = 0.198083…
+		const compactJp = row(fx.revisions.compact, fx.regions.jp);
+		expect(compactJp).toMatchObject({
+			is_base: 1,
+			currency: 'JPY',
+			picks_total_minor: 31300,
+			unpriced_slots: 0,
+			range_min_minor: 24600,
+			range_max_minor: 31300
+		});
+		expect(Number(compactJp?.fps_per_100)).toBeCloseTo(0.198083, 6);
+		// Compact in Germany: €222.08, €172.74 to €222.08; per €100: 62.0 × 100 / 222.08
+		// = 27.917867…
+		const compactDe = row(fx.revisions.compact, fx.regions.de);
+		expect(compactDe).toMatchObject({
+			picks_total_minor: 22208,
+			range_min_minor: 17274,
+			range_max_minor: 22208
+		});
+		expect(Number(compactDe?.fps_per_100)).toBeCloseTo(27.917867, 6);
+	});
+});
+
+/*
  * The stored list figures (guide_region_prices) follow their inputs: a rates refresh, an
  * accepted quote and a published revision each change the total browse shows, and the new
  * figure is the one worked by hand here. Same fixture and rules as above.
@@ -451,6 +552,8 @@ describe('stored list figures on the real MariaDB', () => {
 		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9706));
 		const { port } = server.address() as AddressInfo;
 		await fxService.refresh({ url: `http://127.0.0.1:${port}/eurofxref-daily.xml` });
+		// The full pass runs after the refresh has answered.
+		await settled();
 		// After: small drive still quoted €69.90; fan from $12.50 at 1.2000 with 19 % VAT:
 		// 12.50 / 1.2000 × 1.19 = 12.3958… → €12.40, × 2 = €24.80. Total €69.90 + €24.80 = €94.70.
 		expect(await storedTotal('de', 'quiet-office-tower')).toEqual(eur(9470));

@@ -76,7 +76,8 @@ export class Scheduler {
 		const now = this.now();
 		const result: TickResult = { staleness: null, digests: null };
 		const day = utcDay(now);
-		if (await this.run('upkeep-staleness', day, now, () => refreshAll(now))) result.staleness = day;
+		if (await this.run('upkeep-staleness', day, now, () => refreshAll({ now })))
+			result.staleness = day;
 		if (!this.origin) {
 			if (!this.warnedNoOrigin)
 				this.log('digest_skipped', { reason: 'ORIGIN is not set, so links cannot be made' });

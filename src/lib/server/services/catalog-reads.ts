@@ -4,11 +4,10 @@
  * quote forms, and the landing page's counts. Changes are catalog-parts.ts's (parts) and
  * catalog-stores.ts's (stores and quotes).
  */
-import { Op } from 'sequelize';
-import type { WhereOptions } from 'sequelize';
+import { QueryTypes } from 'sequelize';
 import type { PartCategory } from '$lib/domain/types';
 import { EDITOR_PAGE_SIZE } from '$lib/schemas/catalog-upkeep';
-import { Part, Quote, Region, Store } from '$lib/server/db';
+import { Part, Quote, Region, Store, sequelize } from '$lib/server/db';
 import type {
 	EditorPartDetail,
 	EditorPartRow,
@@ -17,43 +16,59 @@ import type {
 	EditorStoreRow
 } from '$lib/views';
 import type { Paged } from './audit';
-import { escapeLike, pageWindow } from './list-query';
+import { pageWindow } from './list-query';
+import { partTextWhere } from './parts';
 
-/** Parts whose brand, model or slug contains `q` (wildcards taken literally), optionally one category, A–Z. */
+interface PartListRow {
+	id: number;
+	category: PartCategory;
+	brand: string;
+	model: string;
+	slug: string;
+	updatedAt: Date | string;
+}
+
+/**
+ * Parts whose brand and model hold every word of `q` (the public parts search's rule:
+ * full-text words from their start, short words as in text-search.ts, wildcards taken
+ * literally), or whose slug is exactly `q` (pasted from an address); optionally one
+ * category; A–Z. Indexed at any catalog size: no LIKE '%q%' over the whole table.
+ */
 export async function listParts(options: {
 	q: string;
 	category?: PartCategory;
 	page: number;
 }): Promise<Paged<EditorPartRow>> {
-	const conditions: WhereOptions<Part>[] = [];
+	const conditions: string[] = [];
+	const replacements: Record<string, unknown> = {};
 	const q = options.q.trim();
 	if (q !== '') {
-		const pattern = `%${escapeLike(q)}%`;
-		conditions.push({
-			[Op.or]: [
-				{ brand: { [Op.like]: pattern } },
-				{ model: { [Op.like]: pattern } },
-				{ slug: { [Op.like]: pattern } }
-			]
-		});
+		const text = await partTextWhere(q);
+		conditions.push(text ? `((${text.where}) OR p.slug = :slug)` : 'p.slug = :slug');
+		Object.assign(replacements, text?.replacements, { slug: q });
 	}
-	if (options.category) conditions.push({ category: options.category });
-	const where: WhereOptions<Part> = conditions.length ? { [Op.and]: conditions } : {};
-	const total = await Part.count({ where });
+	if (options.category) {
+		conditions.push('p.category = :category');
+		replacements.category = options.category;
+	}
+	const where = conditions.length > 0 ? conditions.join(' AND ') : '1 = 1';
+	const [count] = await sequelize.query<{ n: number }>(
+		`SELECT COUNT(*) AS n FROM parts p WHERE ${where}`,
+		{ type: QueryTypes.SELECT, replacements }
+	);
+	const total = Number(count?.n ?? 0);
 	const window = pageWindow(total, options.page, EDITOR_PAGE_SIZE);
-	const parts = await Part.findAll({
-		where,
-		attributes: ['id', 'category', 'brand', 'model', 'slug', 'updatedAt'],
-		order: [
-			['brand', 'ASC'],
-			['model', 'ASC'],
-			['id', 'ASC']
-		],
-		limit: EDITOR_PAGE_SIZE,
-		offset: window.offset
-	});
+	const rows = await sequelize.query<PartListRow>(
+		`SELECT p.id, p.category, p.brand, p.model, p.slug, p.updated_at AS updatedAt
+		   FROM parts p WHERE ${where}
+		  ORDER BY p.brand, p.model, p.id LIMIT :limit OFFSET :offset`,
+		{
+			type: QueryTypes.SELECT,
+			replacements: { ...replacements, limit: EDITOR_PAGE_SIZE, offset: window.offset }
+		}
+	);
 	return {
-		items: parts.map(toPartRow),
+		items: rows.map((r) => toPartRow({ ...r, id: Number(r.id), updatedAt: new Date(r.updatedAt) })),
 		total,
 		page: window.page,
 		perPage: EDITOR_PAGE_SIZE,
@@ -68,7 +83,9 @@ export async function getPart(slug: string): Promise<EditorPartDetail | null> {
 }
 
 /** A part as the editor's lists show it. */
-export function toPartRow(part: Part): EditorPartRow {
+export function toPartRow(
+	part: Pick<Part, 'id' | 'category' | 'brand' | 'model' | 'slug' | 'updatedAt'>
+): EditorPartRow {
 	return {
 		id: part.id,
 		category: part.category,

@@ -7,6 +7,7 @@ import type { RatesPerEur } from '$lib/domain/region';
 import { FxRate, sequelize } from '$lib/server/db';
 import { fetchEcbDailyRates, type FetchOptions } from '$lib/server/fx/ecb';
 import { cached } from './reference-cache';
+import { bumpGuideViews } from './cache-generations';
 import * as guidePrices from './guide-prices';
 
 /** Rates older than this many days are flagged stale on pages (DESIGN: "older than 7 days"). */
@@ -97,8 +98,13 @@ export async function refresh(options: FetchOptions = {}): Promise<RefreshResult
 		);
 		return result;
 	});
-	// Every estimate across currencies may move: re-store all guides' figures (batched).
-	if (result.created.length > 0 || result.updated.length > 0) await guidePrices.refreshAll();
+	// Every estimate across currencies may move. Guide pages price live: their cached views
+	// go at once, in every app process. The stored list figures of all guides are re-stored
+	// after the answer (the pass grows with the number of guides; refreshes coalesce).
+	if (result.created.length > 0 || result.updated.length > 0) {
+		await bumpGuideViews();
+		guidePrices.refreshAllLater();
+	}
 	return result;
 }
 

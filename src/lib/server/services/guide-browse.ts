@@ -279,15 +279,23 @@ for (const hook of ['afterSave', 'afterDestroy', 'afterBulkUpdate', 'afterBulkDe
 	});
 }
 
-/** Every tag of a listed guide, sorted: one query, cached briefly. */
+/**
+ * Every tag of a listed guide, sorted: one query, cached briefly. It walks the distinct tags
+ * of guide_tags (its primary key begins with the tag) and, per tag, stops at the first listed
+ * guide carrying it, so its cost follows the number of tags, not of guides.
+ */
 function listedTags(): Promise<string[]> {
 	if (tagsCache && Date.now() - tagsCache.at < TAGS_TTL_MS) return tagsCache.tags;
 	const tags = sequelize
 		.query<{ tag: string }>(
-			`SELECT DISTINCT t.tag FROM guides g,
-			        JSON_TABLE(g.tags, '$[*]' COLUMNS (tag VARCHAR(64) PATH '$')) t
-			  WHERE g.state = 'published' AND g.published_revision_id IS NOT NULL
-			    AND g.hidden_at IS NULL
+			// A scalar subquery with LIMIT 1, not EXISTS: MariaDB turns EXISTS into a semi-join
+			// that reads every guide (EXPLAIN on the bench:scale database); this form runs once
+			// per distinct tag and reads one guide_tags row and one guide when the tag is listed.
+			`SELECT t.tag FROM (SELECT DISTINCT tag FROM guide_tags) t
+			  WHERE (SELECT 1 FROM guide_tags x JOIN guides g ON g.id = x.guide_id
+			          WHERE x.tag = t.tag AND g.state = 'published'
+			            AND g.published_revision_id IS NOT NULL AND g.hidden_at IS NULL
+			          LIMIT 1) IS NOT NULL
 			  ORDER BY t.tag`,
 			{ type: QueryTypes.SELECT }
 		)

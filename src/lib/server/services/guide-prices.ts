@@ -7,10 +7,14 @@
  * - a revision is published (guide-reviews.ts decide): that revision, in every region;
  * - a quote is accepted (an editor's quote, a verified sighting, a catalog import): every
  *   published revision that uses the part as a pick or an alternate;
- * - exchange rates are refreshed or a region's tax or factors change: everything.
+ * - exchange rates are refreshed or a region's tax or factors change: everything, in the
+ *   background after the answer (refreshAllLater).
  *
  * The figures come from the one pricing service (pricing.ts), the same computation as the
- * guide page, so a stored total is the figure the guide page shows for that region.
+ * guide page, so a stored total is the figure the guide page shows for that region: the few
+ * revisions of an event through its own loading (priceRevisionsIn), the full pass over every
+ * revision through typed raw rows loaded once per page (price-pass-loads.ts) and the same
+ * computation in memory (priceLoadedSets); tests compare the two row for row.
  * The same pass recomputes the guides' upkeep alerts (upkeep-alerts.ts) from these figures.
  * Recomputation runs right after the triggering transaction commits (pricing reads through
  * the pool, so it must see the committed quote or revision); it replaces a revision's rows
@@ -19,16 +23,20 @@
  * answers and their ETags follow in every app process.
  */
 import { QueryTypes } from 'sequelize';
+import type { RatesPerEur } from '$lib/domain/region';
 import { valueOf } from '$lib/domain/value';
 import { FrameResult, Region, sequelize } from '$lib/server/db';
 import { bumpGuideViews } from './cache-generations';
+import * as fx from './fx';
 import { invalidateBrowseTags } from './guide-browse';
-import { priceRevisionsIn } from './pricing';
-import type { PricedRevision } from './pricing';
-import { refreshAlerts } from './upkeep-alerts';
+import { loadLatestQuotes, loadPassSlots } from './price-pass-loads';
+import { priceLoadedSets, priceRevisionsIn, revisionSlotToPrice } from './pricing';
+import type { PricedSet } from './pricing';
+import { refreshAlerts, sweepAlerts } from './upkeep-alerts';
+import type { RevisionPriced } from './upkeep-alerts';
 import { runLater } from '$lib/server/background';
 
-/** Revisions priced per pass: bounds memory (slots and quotes of a batch) at any scale. */
+/** Revisions priced per batch: bounds memory (slots and quotes of a batch) at any scale. */
 const BATCH = 250;
 /** total_sort for a revision without any total: after every real amount. */
 const NO_TOTAL = '9000000000000000000';
@@ -43,7 +51,11 @@ interface CurrentRevision {
 /** Recomputes the stored figures of these revisions (those still a guide's published one). */
 export async function refreshRevisions(revisionIds: readonly number[]): Promise<void> {
 	const ids = [...new Set(revisionIds)];
-	for (let i = 0; i < ids.length; i += BATCH) await refreshBatch(ids.slice(i, i + BATCH));
+	if (ids.length === 0) return;
+	// Fresh reads, not the reference cache: this runs right after the write that changed them.
+	const regions = await Region.findAll();
+	for (let i = 0; i < ids.length; i += BATCH)
+		await refreshBatch(ids.slice(i, i + BATCH), regions, pricedLikeGuidePage);
 }
 
 /** Recomputes every published revision that uses one of these parts (pick or alternate). */
@@ -75,27 +87,39 @@ export async function refreshForQuotes(quoteIds: readonly number[]): Promise<voi
 }
 
 /**
- * Recomputes every published revision, in batches (rates refreshed, a region changed, the
+ * Recomputes every published revision, page by page (rates refreshed, a region changed, the
  * seeders, a repair, the scheduler's daily pass). Rows of revisions that are no longer
- * published are dropped. `now` is the moment the upkeep alerts are judged at (quote ages).
+ * published are dropped; `now` is the moment upkeep alerts are judged at (quote ages). Set-based:
+ * per page of `batch` revisions a few raw queries, pricing in memory for every region, and
+ * multi-row writes; memory holds one page's slots and quotes at a time. `batch` is for tests
+ * that need page boundaries among a few guides.
  */
-export async function refreshAll(now = new Date()): Promise<void> {
+export async function refreshAll(options: { batch?: number; now?: Date } = {}): Promise<void> {
+	const batch = options.batch ?? BATCH;
+	const now = options.now ?? new Date();
 	await sequelize.query(
 		`DELETE p FROM guide_region_prices p
 		   LEFT JOIN guides g ON g.published_revision_id = p.revision_id
 		  WHERE g.id IS NULL`,
 		{ type: QueryTypes.DELETE }
 	);
+	await sweepAlerts();
+	// Read once for the whole pass: every page is priced in every region at the same rates.
+	const [regions, rates] = await Promise.all([Region.findAll(), fx.ratesForPricing()]);
+	const setBased = pricedSetBased(rates);
 	let after = 0;
 	for (;;) {
 		const rows = await sequelize.query<{ id: number }>(
 			`SELECT published_revision_id AS id FROM guides
 			  WHERE published_revision_id > :after ORDER BY published_revision_id LIMIT :limit`,
-			{ type: QueryTypes.SELECT, replacements: { after, limit: BATCH } }
+			{ type: QueryTypes.SELECT, replacements: { after, limit: batch } }
 		);
 		if (rows.length === 0) return;
 		await refreshBatch(
 			rows.map((r) => Number(r.id)),
+			regions,
+			setBased,
+			false,
 			now
 		);
 		after = Number(rows[rows.length - 1]?.id);
@@ -103,10 +127,11 @@ export async function refreshAll(now = new Date()): Promise<void> {
 }
 
 /*
- * refreshAll for a change that needs no answer from it (a pairing rule written): it runs
- * after the editor's request has been answered, since its cost grows with the number of
- * published guides. Changes that arrive while a pass runs ask for one more pass, not one
- * each.
+ * refreshAll for a change that needs no answer from it (rates refreshed, a region's tax or
+ * factors changed, a pairing rule written): it runs after the request has been answered,
+ * since its cost grows with the number of published guides. Changes that arrive while a
+ * pass runs ask for one more pass, not one each. Until it ends, lists and guide pages show
+ * the previous figures.
  */
 let fullPass: 'idle' | 'running' | 'again' = 'idle';
 
@@ -133,7 +158,82 @@ export function refreshAllLater(): void {
 	});
 }
 
-async function refreshBatch(revisionIds: number[], now = new Date()): Promise<void> {
+type Listed = CurrentRevision & { base: Region };
+interface Priced {
+	slots: RevisionPriced['slots'];
+	byRegion: Map<number, Pick<PricedSet, 'adjustment'>>;
+}
+/** Each listed revision's slots and its pricing in every region. */
+type Pricer = (
+	listed: readonly Listed[],
+	regions: readonly Region[]
+) => Promise<Map<number, Priced>>;
+
+/**
+ * The guide page's own path (pricing.ts priceRevisionsIn, region by region): for the few
+ * revisions an approval or an accepted quote touches.
+ */
+const pricedLikeGuidePage: Pricer = async (listed, regions) => {
+	const out = new Map<number, Priced>();
+	for (const region of regions) {
+		const pricing = await priceRevisionsIn(
+			listed.map((c) => ({ revisionId: c.revisionId, base: c.base })),
+			region
+		);
+		for (const [revisionId, priced] of pricing.revisions) {
+			const entry = out.get(revisionId) ?? { slots: priced.slots, byRegion: new Map() };
+			entry.byRegion.set(region.id, priced);
+			out.set(revisionId, entry);
+		}
+	}
+	return out;
+};
+
+/**
+ * The full pass's path: a page's slots and the latest quotes of every part in it in every
+ * region read once as raw rows (price-pass-loads.ts), then the same pricing computation
+ * (pricing.ts priceLoadedSets) per region in memory. Same figures, a few queries per page.
+ */
+function pricedSetBased(rates: RatesPerEur): Pricer {
+	return async (listed, regions) => {
+		const slots = await loadPassSlots(listed.map((c) => c.revisionId));
+		const slotsOf = new Map<number, typeof slots>();
+		const partIds = new Set<number>();
+		for (const slot of slots) {
+			const list = slotsOf.get(slot.revisionId) ?? [];
+			list.push(slot);
+			slotsOf.set(slot.revisionId, list);
+			partIds.add(slot.pickPartId);
+			for (const a of slot.alternates) partIds.add(a.partId);
+		}
+		const quotes = await loadLatestQuotes([...partIds]);
+		const sets = listed.map((c) => ({
+			base: c.base,
+			slots: (slotsOf.get(c.revisionId) ?? []).map(revisionSlotToPrice)
+		}));
+		const out = new Map<number, Priced>(
+			listed.map((c) => [
+				c.revisionId,
+				{ slots: slotsOf.get(c.revisionId) ?? [], byRegion: new Map() }
+			])
+		);
+		for (const region of regions)
+			priceLoadedSets(sets, region, quotes, rates).forEach((set, i) => {
+				const c = listed[i];
+				if (c) out.get(c.revisionId)?.byRegion.set(region.id, set);
+			});
+		return out;
+	};
+}
+
+/** `sweep`: false in the full pass, which sweeps stale alerts once before its pages. */
+async function refreshBatch(
+	revisionIds: number[],
+	regions: readonly Region[],
+	priceAll: Pricer,
+	sweep = true,
+	now = new Date()
+): Promise<void> {
 	if (revisionIds.length === 0) return;
 	const current = (
 		await sequelize.query<CurrentRevision>(
@@ -149,39 +249,34 @@ async function refreshBatch(revisionIds: number[], now = new Date()): Promise<vo
 		baseRegionId: Number(r.baseRegionId),
 		publishedAt: new Date(r.publishedAt)
 	}));
-	// Fresh reads, not the reference cache: this runs right after the write that changed them.
-	const [regions, frames] = await Promise.all([
-		Region.findAll(),
+	const regionById = new Map(regions.map((r) => [r.id, r]));
+	const listed = current.flatMap((c) => {
+		const base = regionById.get(c.baseRegionId);
+		return base ? [{ ...c, base }] : [];
+	});
+	const [priced, frames] = await Promise.all([
+		priceAll(listed, regions),
 		FrameResult.findAll({
 			where: { revisionId: current.map((c) => c.revisionId) },
 			attributes: ['revisionId', 'avgFpsTenths'],
 			raw: true
 		})
 	]);
-	const regionById = new Map(regions.map((r) => [r.id, r]));
-	const listed = current.flatMap((c) => {
-		const base = regionById.get(c.baseRegionId);
-		return base ? [{ ...c, base }] : [];
-	});
+	const framesOf = new Map<number, { averageFps: number }[]>();
+	for (const f of frames) {
+		const list = framesOf.get(f.revisionId) ?? [];
+		list.push({ averageFps: f.avgFpsTenths / 10 });
+		framesOf.set(f.revisionId, list);
+	}
 	const values: unknown[][] = [];
-	// Each revision's pricing per region, handed on to the upkeep alerts (same triggers).
-	const byRevision = new Map(listed.map((c) => [c.revisionId, new Map<number, PricedRevision>()]));
 	for (const region of regions) {
-		const pricing = await priceRevisionsIn(
-			listed.map((c) => ({ revisionId: c.revisionId, base: c.base })),
-			region
-		);
 		for (const c of listed) {
-			const priced = pricing.revisions.get(c.revisionId);
-			if (!priced) continue;
-			byRevision.get(c.revisionId)?.set(region.id, priced);
-			const { adjustment } = priced;
+			const inRegion = priced.get(c.revisionId)?.byRegion.get(region.id);
+			if (!inRegion) continue;
+			const { adjustment } = inRegion;
 			// As on the guide page: value only against a complete total.
 			const complete = adjustment.unpricedSlots === 0 ? adjustment.picksTotal : null;
-			const results = frames
-				.filter((f) => f.revisionId === c.revisionId)
-				.map((f) => ({ averageFps: f.avgFpsTenths / 10 }));
-			const fpsPer100 = valueOf(results, complete).fpsPer100;
+			const fpsPer100 = valueOf(framesOf.get(c.revisionId) ?? [], complete).fpsPer100;
 			const total = adjustment.picksTotal?.amountMinor ?? null;
 			values.push([
 				c.revisionId,
@@ -228,10 +323,11 @@ async function refreshBatch(revisionIds: number[], now = new Date()): Promise<vo
 			revisionId: c.revisionId,
 			guideId: c.guideId,
 			baseRegionId: c.baseRegionId,
-			byRegion: byRevision.get(c.revisionId) ?? new Map()
+			slots: priced.get(c.revisionId)?.slots ?? [],
+			byRegion: priced.get(c.revisionId)?.byRegion ?? new Map()
 		})),
 		regions,
-		now
+		{ sweep, now }
 	);
 	// The same events change the cached guide pages and pricing answers, in every process.
 	await bumpGuideViews();

@@ -16,7 +16,7 @@ export function partRef(p: Part): PartRef {
 }
 
 /** What the fit report, power budget and drop-ins read of a part. */
-export function partInfo(p: Part): PartInfo {
+export function partInfo(p: Pick<Part, 'brand' | 'model' | 'specs'>): PartInfo {
 	// Specs were checked against the category's schema when the part was written.
 	return { brand: p.brand, model: p.model, specs: p.specs } as unknown as PartInfo;
 }
@@ -41,8 +41,8 @@ export function regionSummary(r: Region): RegionSummary {
 export function dropInSlot(
 	key: string,
 	slot: { label: string; category: PartCategory; quantity: number },
-	part: Part,
-	alternates: readonly { id: string | number; part: Part }[]
+	part: Pick<Part, 'brand' | 'model' | 'specs'>,
+	alternates: readonly { id: string | number; part: Pick<Part, 'brand' | 'model' | 'specs'> }[]
 ): DropInSlot {
 	// The category narrows the specs' type; the part was checked against it when written.
 	return {

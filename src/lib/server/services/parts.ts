@@ -112,12 +112,25 @@ async function searchWhere(
 	q: string,
 	category: PartCategory | undefined
 ): Promise<{ where: string; replacements: Record<string, unknown> }> {
+	const text = await partTextWhere(q);
+	const conditions = text ? [text.where] : [];
+	if (category) conditions.unshift('p.category = :category');
+	return {
+		where: conditions.length > 0 ? conditions.join(' AND ') : '1 = 1',
+		replacements: { ...text?.replacements, ...(category ? { category } : {}) }
+	};
+}
+
+/**
+ * The condition "the brand or model of part `p` holds every word of `q`" (null for no
+ * words): the full-text terms and the short words of text-search.ts. Shared by the public
+ * parts search and the editor's catalog list, so both find the same parts.
+ */
+export async function partTextWhere(
+	q: string
+): Promise<{ where: string; replacements: Record<string, unknown> } | null> {
 	const conditions: string[] = [];
 	const replacements: Record<string, unknown> = {};
-	if (category) {
-		conditions.push('p.category = :category');
-		replacements.category = category;
-	}
 	// Each word may sit in the brand or the model, so "halvard 606" finds "Halvard / Strata 606".
 	const { against, shortWords } = textSearch(q, await ftMinTokenSize());
 	if (against !== '') {
@@ -133,7 +146,7 @@ async function searchWhere(
 		replacements[`short${i}`] = narrowing ? prefixPattern(word) : containsPattern(word);
 		conditions.push(`(p.brand LIKE :short${i} OR p.model LIKE :short${i})`);
 	});
-	return { where: conditions.length > 0 ? conditions.join(' AND ') : '1 = 1', replacements };
+	return conditions.length > 0 ? { where: conditions.join(' AND '), replacements } : null;
 }
 
 /**

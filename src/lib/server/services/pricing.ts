@@ -34,11 +34,29 @@ import * as fx from './fx';
 import { loadRevisionSlots } from './revision-snapshots';
 import type { LoadedRevisionSlot, QuoteWithStore } from './revision-snapshots';
 
+/** The quote an author chose for a pick, as pricing reads it (a model row or a raw row). */
+export type ChosenQuote = Pick<
+	QuoteWithStore,
+	'regionId' | 'amountMinor' | 'currency' | 'taxIncluded' | 'observedAt'
+> & { store: Pick<QuoteWithStore['store'], 'name'> };
+
 /** One option of a slot: a catalog part and, for an author's pick, the quote they chose. */
 export interface OptionToPrice {
 	partId: number;
-	chosenQuote?: QuoteWithStore | null;
+	chosenQuote?: ChosenQuote | null;
 }
+
+/** A revision's slot as pricing reads it: LoadedRevisionSlot, or the full pass's raw rows. */
+export interface SlotForPricing {
+	category: PartCategory;
+	quantity: number;
+	pickPartId: number;
+	priceQuote: ChosenQuote | null;
+	alternates: readonly { partId: number }[];
+}
+
+/** The latest active quote per part in each region: region id → part id → quote. */
+export type LatestQuotes = Map<number, Map<number, QuoteInput>>;
 
 export interface SlotToPrice {
 	category: PartCategory;
@@ -102,49 +120,64 @@ export async function priceSlotSets(
 		// Rates matter only when prices cross a currency or tax regime.
 		crosses || options.withRates ? fx.ratesForPricing() : Promise.resolve({} as RatesPerEur)
 	]);
-	const latestQuote = (partId: number, regionId: number) =>
-		quotes.get(regionId)?.get(partId) ?? null;
-
 	return {
 		rates,
-		latestQuote,
-		sets: sets.map((set) => {
-			const region = regionOf(set);
-			const inBase = region.id === set.base.id;
-			const option = (o: OptionToPrice): OptionInput => {
-				const basePrice =
-					o.chosenQuote && o.chosenQuote.regionId === set.base.id
-						? quoteInput(o.chosenQuote)
-						: latestQuote(o.partId, set.base.id);
-				return {
-					partId: o.partId,
-					basePrice,
-					targetQuote: inBase ? basePrice : latestQuote(o.partId, region.id)
-				};
-			};
-			const adjustment = adjustToRegion({
-				base: regionPricing(set.base),
-				target: regionPricing(region),
-				rates,
-				slots: set.slots.map((slot, i) => ({
-					key: i,
-					category: slot.category,
-					quantity: slot.quantity,
-					pick: option(slot.pick),
-					alternates: slot.alternates.map(option)
-				}))
-			});
-			return {
-				base: set.base,
-				region,
-				adjustment,
-				prices: adjustment.slots.map((s) => ({
-					pick: priceLine(s.pick, region),
-					alternates: s.alternates.map((line) => priceLine(line, region))
-				}))
-			};
-		})
+		latestQuote: (partId, regionId) => quotes.get(regionId)?.get(partId) ?? null,
+		sets: priceLoadedSets(sets, target, quotes, rates)
 	};
+}
+
+/**
+ * priceSlotSets on inputs already loaded: `quotes` must hold the latest active quotes of
+ * every option's part in every base region and the target, `rates` the rates when a set
+ * crosses regions. The full pass of stored prices (guide-prices.ts) loads them once for a
+ * page of revisions and prices that page in every region with them.
+ */
+export function priceLoadedSets(
+	sets: readonly SlotSet[],
+	target: Region | null,
+	quotes: LatestQuotes,
+	rates: RatesPerEur
+): PricedSet[] {
+	const regionOf = (set: SlotSet) => target ?? set.base;
+	const latestQuote = (partId: number, regionId: number) =>
+		quotes.get(regionId)?.get(partId) ?? null;
+	return sets.map((set) => {
+		const region = regionOf(set);
+		const inBase = region.id === set.base.id;
+		const option = (o: OptionToPrice): OptionInput => {
+			const basePrice =
+				o.chosenQuote && o.chosenQuote.regionId === set.base.id
+					? quoteInput(o.chosenQuote)
+					: latestQuote(o.partId, set.base.id);
+			return {
+				partId: o.partId,
+				basePrice,
+				targetQuote: inBase ? basePrice : latestQuote(o.partId, region.id)
+			};
+		};
+		const adjustment = adjustToRegion({
+			base: regionPricing(set.base),
+			target: regionPricing(region),
+			rates,
+			slots: set.slots.map((slot, i) => ({
+				key: i,
+				category: slot.category,
+				quantity: slot.quantity,
+				pick: option(slot.pick),
+				alternates: slot.alternates.map(option)
+			}))
+		});
+		return {
+			base: set.base,
+			region,
+			adjustment,
+			prices: adjustment.slots.map((s) => ({
+				pick: priceLine(s.pick, region),
+				alternates: s.alternates.map((line) => priceLine(line, region))
+			}))
+		};
+	});
 }
 
 /** A revision to price and the base region of its guide. */
@@ -224,7 +257,7 @@ export async function priceRevisionsIn(
 }
 
 /** A revision's slot as pricing takes it: the pick with the author's quote, and the alternates. */
-export function revisionSlotToPrice(slot: LoadedRevisionSlot): SlotToPrice {
+export function revisionSlotToPrice(slot: SlotForPricing): SlotToPrice {
 	return {
 		category: slot.category,
 		quantity: slot.quantity,
@@ -258,7 +291,7 @@ export function regionPricing(r: Region): RegionPricing {
 	};
 }
 
-function quoteInput(q: QuoteWithStore): QuoteInput {
+export function quoteInput(q: ChosenQuote): QuoteInput {
 	return {
 		unit: money(Number(q.amountMinor), q.currency),
 		taxIncluded: q.taxIncluded,
@@ -268,11 +301,8 @@ function quoteInput(q: QuoteWithStore): QuoteInput {
 }
 
 /** The latest active quote per part in each region (any store): region id → part id → quote. */
-async function latestQuotes(
-	partIds: number[],
-	regionIds: number[]
-): Promise<Map<number, Map<number, QuoteInput>>> {
-	const result = new Map<number, Map<number, QuoteInput>>();
+async function latestQuotes(partIds: number[], regionIds: number[]): Promise<LatestQuotes> {
+	const result: LatestQuotes = new Map();
 	if (partIds.length === 0 || regionIds.length === 0) return result;
 	const quotes = (await Quote.findAll({
 		where: { partId: partIds, regionId: regionIds, status: 'active' },

@@ -18,6 +18,7 @@ import { Region, RegionTaxRate, sequelize } from '$lib/server/db';
 import * as audit from './audit';
 import type { Issues, Outcome } from '$lib/schemas/issues';
 import { fullFactors, inForce, utcDay } from './region-reads';
+import { bumpGuideViews } from './cache-generations';
 import * as guidePrices from './guide-prices';
 
 function knownCurrency(code: string): boolean {
@@ -83,8 +84,7 @@ export async function updateSettings(
 		);
 		return { kind: 'ok', changed: true } as const;
 	});
-	// Tax and category factors change every figure in the region: re-store them all.
-	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	if (outcome.kind === 'ok') await figuresFollow();
 	return outcome;
 }
 
@@ -167,8 +167,7 @@ export async function addTaxRate(
 		);
 		return { kind: 'ok', rateId: row.id } as const;
 	});
-	// Tax and category factors change every figure in the region: re-store them all.
-	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	if (outcome.kind === 'ok') await figuresFollow();
 	return outcome;
 }
 
@@ -230,8 +229,7 @@ export async function removeTaxRate(
 		);
 		return { kind: 'ok' } as const;
 	});
-	// Tax and category factors change every figure in the region: re-store them all.
-	if (outcome.kind === 'ok') await guidePrices.refreshAll();
+	if (outcome.kind === 'ok') await figuresFollow();
 	return outcome;
 }
 
@@ -267,7 +265,17 @@ export async function syncCurrentTaxRates(now = new Date()): Promise<string[]> {
 		}
 		return changed;
 	});
-	// Tax and category factors change every figure in the region: re-store them all.
-	if (outcome.length > 0) await guidePrices.refreshAll();
+	if (outcome.length > 0) await figuresFollow();
 	return outcome;
+}
+
+/**
+ * Tax and category factors change every figure in the region. Guide pages and the pricing
+ * API price live: their cached views are dropped at once, in every app process. The stored
+ * list figures of every published guide are re-stored after the answer (the pass grows with
+ * the number of guides; changes in quick succession share one pass).
+ */
+async function figuresFollow(): Promise<void> {
+	await bumpGuideViews();
+	guidePrices.refreshAllLater();
 }

@@ -12,11 +12,12 @@
  */
 import { createHash } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { dropIns } from '$lib/domain/dropins';
 import { fitReport } from '$lib/domain/fit';
 import { money } from '$lib/domain/money';
 import { pairingCautions, type CautionRule } from '$lib/domain/pairing-cautions';
-import type { Money } from '$lib/domain/types';
+import type { Money, PartCategory } from '$lib/domain/types';
 import {
 	cheaperAlternates,
 	regionBudget,
@@ -27,17 +28,30 @@ import {
 	type UpkeepRegion
 } from '$lib/domain/upkeep';
 import { CautionRule as CautionRuleRow, Guide, sequelize } from '$lib/server/db';
-import type { Region } from '$lib/server/db';
+import type { Part, Region } from '$lib/server/db';
 import { dropInSlot, partName, picksOf } from './mappers';
-import type { PricedRevision } from './pricing';
-import type { LoadedRevisionSlot } from './revision-snapshots';
+import type { PricedSet } from './pricing';
 
-/** A refreshed revision and its pricing in every region (region id → priced revision). */
+type UpkeepPart = Pick<Part, 'id' | 'brand' | 'model' | 'specs'>;
+
+/** What the alerts read of a revision's slot (a LoadedRevisionSlot or the full pass's raw row). */
+export interface UpkeepSourceSlot {
+	slotKey: string;
+	label: string;
+	category: PartCategory;
+	quantity: number;
+	pickPartId: number;
+	pick: UpkeepPart;
+	alternates: readonly { part: UpkeepPart }[];
+}
+
+/** A refreshed revision, its slots and its pricing in every region (region id → priced set). */
 export interface RevisionPriced {
 	revisionId: number;
 	guideId: number;
 	baseRegionId: number;
-	byRegion: ReadonlyMap<number, PricedRevision>;
+	slots: readonly UpkeepSourceSlot[];
+	byRegion: ReadonlyMap<number, Pick<PricedSet, 'adjustment'>>;
 }
 
 interface Baseline {
@@ -50,8 +64,9 @@ interface Baseline {
 export async function refreshAlerts(
 	revisions: readonly RevisionPriced[],
 	regions: readonly Region[],
-	now = new Date()
+	options: { now?: Date; sweep?: boolean } = {}
 ): Promise<void> {
+	const now = options.now ?? new Date();
 	if (revisions.length === 0) return;
 	const revisionIds = revisions.map((r) => r.revisionId);
 	const [guides, baselines, quoteDates, rules] = await Promise.all([
@@ -69,10 +84,9 @@ export async function refreshAlerts(
 	const drafts: { r: RevisionPriced; alert: UpkeepAlertDraft }[] = [];
 
 	for (const r of revisions) {
-		const any = [...r.byRegion.values()][0];
 		const baseRegion = regions.find((x) => x.id === r.baseRegionId);
-		if (!any || !baseRegion) continue;
-		const slots = any.slots;
+		if (r.byRegion.size === 0 || !baseRegion) continue;
+		const slots = r.slots;
 		const dropSlots = slots.map((s) =>
 			dropInSlot(
 				s.slotKey,
@@ -134,11 +148,14 @@ export async function refreshAlerts(
 		});
 		for (const alert of alerts) drafts.push({ r, alert });
 	}
-	await store(revisions, drafts, newBaselines, now);
+	await store(revisions, drafts, newBaselines, now, options.sweep ?? true);
 }
 
 /** A revision's slots with their prices in one region, as the domain takes them. */
-function upkeepSlots(slots: LoadedRevisionSlot[], p: PricedRevision): UpkeepSlot[] {
+function upkeepSlots(
+	slots: readonly UpkeepSourceSlot[],
+	p: Pick<PricedSet, 'adjustment'>
+): UpkeepSlot[] {
 	return slots.map((s, i) => ({
 		slotKey: s.slotKey,
 		label: s.label,
@@ -156,7 +173,7 @@ function upkeepSlots(slots: LoadedRevisionSlot[], p: PricedRevision): UpkeepSlot
 }
 
 function baselineOf(
-	priced: { region: Region; p: PricedRevision; slots: UpkeepSlot[] }[],
+	priced: { region: Region; p: Pick<PricedSet, 'adjustment'>; slots: UpkeepSlot[] }[],
 	findings: UpkeepFinding[]
 ): Baseline {
 	const totals: Baseline['totals'] = {};
@@ -198,9 +215,7 @@ async function loadQuoteDates(
 	revisions: readonly RevisionPriced[]
 ): Promise<Map<number, QuoteDates>> {
 	const partIds = new Set<number>();
-	for (const r of revisions)
-		for (const priced of r.byRegion.values())
-			for (const s of priced.slots) partIds.add(s.pickPartId);
+	for (const r of revisions) for (const s of r.slots) partIds.add(s.pickPartId);
 	const out = new Map<number, QuoteDates>();
 	if (partIds.size === 0) return out;
 	const rows = await sequelize.query<{ partId: number; regionId: number; latest: Date | null }>(
@@ -235,71 +250,91 @@ function fingerprint(a: UpkeepAlertDraft): string {
 	return text.length <= 191 ? text : createHash('sha256').update(text).digest('hex');
 }
 
+/** Multi-row statements of at most this many rows: one round trip per chunk, not per row. */
+const CHUNK = 500;
+
+function chunks<T>(rows: readonly T[]): T[][] {
+	const out: T[][] = [];
+	for (let i = 0; i < rows.length; i += CHUNK) out.push(rows.slice(i, i + CHUNK));
+	return out;
+}
+
 /**
  * One transaction: new baselines, then per guide the alerts that hold now upserted by
- * fingerprint (first seen, snooze and handled kept) and the ones that stopped holding removed.
+ * fingerprint (first seen, snooze and handled kept) and the ones that stopped holding removed,
+ * each as a few multi-row statements for the whole batch of revisions.
  */
 async function store(
 	revisions: readonly RevisionPriced[],
 	drafts: { r: RevisionPriced; alert: UpkeepAlertDraft }[],
 	baselines: [number, Baseline][],
-	now: Date
+	now: Date,
+	sweep: boolean
 ): Promise<void> {
 	const guideIds = [...new Set(revisions.map((r) => r.guideId))];
+	const rows = drafts.map(({ r, alert }) => [
+		r.guideId,
+		r.revisionId,
+		fingerprint(alert),
+		alert.kind,
+		alert.regionId,
+		alert.slotKey,
+		alert.severity,
+		JSON.stringify(alert.details),
+		now,
+		now
+	]);
 	await sequelize.transaction(async (transaction) => {
-		for (const [revisionId, b] of baselines)
+		for (const chunk of chunks(baselines))
 			await sequelize.query(
 				`INSERT IGNORE INTO guide_upkeep_baselines (revision_id, totals, finding_keys, created_at)
-				 VALUES (?, ?, ?, ?)`,
+				 VALUES ${chunk.map(() => '(?)').join(', ')}`,
 				{
 					type: QueryTypes.INSERT,
-					replacements: [revisionId, JSON.stringify(b.totals), JSON.stringify(b.findingKeys), now],
+					replacements: chunk.map(([revisionId, b]) => [
+						revisionId,
+						JSON.stringify(b.totals),
+						JSON.stringify(b.findingKeys),
+						now
+					]),
 					transaction
 				}
 			);
-		const keep = new Map<number, string[]>(guideIds.map((id) => [id, []]));
-		for (const { r, alert } of drafts) {
-			const fp = fingerprint(alert);
-			keep.get(r.guideId)?.push(fp);
+		for (const chunk of chunks(rows))
 			await sequelize.query(
 				`INSERT INTO guide_upkeep_alerts
 				   (guide_id, revision_id, fingerprint, kind, region_id, slot_key, severity, details,
 				    first_seen_at, last_seen_at)
-				 VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+				 VALUES ${chunk.map(() => '(?)').join(', ')}
 				 ON DUPLICATE KEY UPDATE revision_id = VALUES(revision_id),
 				   severity = VALUES(severity), details = VALUES(details), last_seen_at = VALUES(last_seen_at)`,
-				{
-					type: QueryTypes.INSERT,
-					replacements: [
-						r.guideId,
-						r.revisionId,
-						fp,
-						alert.kind,
-						alert.regionId,
-						alert.slotKey,
-						alert.severity,
-						JSON.stringify(alert.details),
-						now,
-						now
-					],
-					transaction
-				}
+				{ type: QueryTypes.INSERT, replacements: chunk, transaction }
 			);
-		}
-		// Conditions that no longer hold leave with their rows.
-		for (const [guideId, fps] of keep)
-			await sequelize.query(
-				`DELETE FROM guide_upkeep_alerts WHERE guide_id = :guideId${
-					fps.length > 0 ? ' AND fingerprint NOT IN (:fps)' : ''
-				}`,
-				{ type: QueryTypes.DELETE, replacements: { guideId, fps }, transaction }
-			);
-		// Alerts of a revision that is no longer live (a newer one, or the guide taken down) go too.
+		// Conditions that no longer hold leave with their rows: every alert of these guides
+		// but the (guide, fingerprint) pairs just written.
+		const kept = rows.map((row) => [row[0], row[2]]);
 		await sequelize.query(
-			`DELETE a FROM guide_upkeep_alerts a
-			   LEFT JOIN guides g ON g.id = a.guide_id AND g.published_revision_id = a.revision_id
-			  WHERE g.id IS NULL`,
-			{ type: QueryTypes.DELETE, transaction }
+			`DELETE FROM guide_upkeep_alerts WHERE guide_id IN (?)${
+				kept.length > 0
+					? ` AND (guide_id, fingerprint) NOT IN (${kept.map(() => '(?)').join(', ')})`
+					: ''
+			}`,
+			{ type: QueryTypes.DELETE, replacements: [guideIds, ...kept], transaction }
 		);
+		if (sweep) await sweepAlerts(transaction);
 	});
+}
+
+/**
+ * Drops the alerts of revisions that are no longer live (a newer one, or the guide taken
+ * down). It reads the whole alerts table, so the full pass (guide-prices.ts refreshAll) runs
+ * it once, not once per page.
+ */
+export async function sweepAlerts(transaction?: Transaction): Promise<void> {
+	await sequelize.query(
+		`DELETE a FROM guide_upkeep_alerts a
+		   LEFT JOIN guides g ON g.id = a.guide_id AND g.published_revision_id = a.revision_id
+		  WHERE g.id IS NULL`,
+		{ type: QueryTypes.DELETE, transaction }
+	);
 }

@@ -82,6 +82,7 @@ import * as mUpkeepBaselines from './2026.12.12T10.00.00.create-guide-upkeep-bas
 import * as mUpkeepAlerts from './2026.12.12T10.01.00.create-guide-upkeep-alerts.js';
 import * as mUsersUpkeepDigest from './2026.12.12T10.02.00.add-users-upkeep-digest.js';
 import * as mTipsNoteHiddenReason from './2026.12.13T10.00.00.add-tips-note-hidden-reason.js';
+import * as mGuideTags from './2026.12.14T10.00.00.create-guide-tags.js';
 import * as mUpkeepDigests from './2026.12.14T12.00.00.create-upkeep-digests.js';
 import * as mUpkeepAlertsDigestId from './2026.12.14T12.01.00.add-guide-upkeep-alerts-digest-id.js';
 import * as mUsersUpkeepDigestSince from './2026.12.14T12.02.00.add-users-upkeep-digest-since.js';
@@ -166,6 +167,7 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.12T10.01.00.create-guide-upkeep-alerts': mUpkeepAlerts,
 	'2026.12.12T10.02.00.add-users-upkeep-digest': mUsersUpkeepDigest,
 	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason,
+	'2026.12.14T10.00.00.create-guide-tags': mGuideTags,
 	'2026.12.14T12.00.00.create-upkeep-digests': mUpkeepDigests,
 	'2026.12.14T12.01.00.add-guide-upkeep-alerts-digest-id': mUpkeepAlertsDigestId,
 	'2026.12.14T12.02.00.add-users-upkeep-digest-since': mUsersUpkeepDigestSince,

@@ -1,4 +1,4 @@
-import { DataTypes, Model } from 'sequelize';
+import { DataTypes, Model, QueryTypes } from 'sequelize';
 import type {
 	CreationOptional,
 	ForeignKey,
@@ -65,4 +65,22 @@ export function initGuide(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'guides', underscored: true, indexes: [{ fields: ['state'] }] }
 	);
+	// guide_tags mirrors guides.tags for the indexed list of tags in use (guide-browse.ts).
+	// Tags are only ever written through a row's create or save (never a bulk update), so
+	// this one hook keeps the mirror, inside the same transaction as the write.
+	Guide.addHook('afterSave', 'guide-tags-mirror', async (guide: Guide, options) => {
+		if (!(options.fields ?? []).includes('tags')) return;
+		const { transaction } = options;
+		await sequelize.query('DELETE FROM guide_tags WHERE guide_id = ?', {
+			type: QueryTypes.DELETE,
+			replacements: [guide.id],
+			transaction
+		});
+		const tags = [...new Set(guide.tags ?? [])];
+		if (tags.length > 0)
+			await sequelize.query(
+				`INSERT INTO guide_tags (tag, guide_id) VALUES ${tags.map(() => '(?)').join(', ')}`,
+				{ type: QueryTypes.INSERT, replacements: tags.map((t) => [t, guide.id]), transaction }
+			);
+	});
 }

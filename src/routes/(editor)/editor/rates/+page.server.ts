@@ -18,7 +18,8 @@ export const actions: Actions = {
 			return {
 				message:
 					changed > 0
-						? `Stored the rates of ${result.asOf}: ${result.created.length} new, ${result.updated.length} changed.`
+						? `Stored the rates of ${result.asOf}: ${result.created.length} new, ${result.updated.length} changed. ` +
+							'Guide totals in lists are re-priced in the background.'
 						: `The rates of ${result.asOf} were already stored.`
 			};
 		} catch (e) {

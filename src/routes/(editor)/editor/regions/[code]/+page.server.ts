@@ -54,7 +54,9 @@ export const actions: Actions = {
 			});
 		return {
 			form: 'settings' as const,
-			message: outcome.changed ? 'Region saved.' : 'Nothing changed, so nothing was saved.'
+			message: outcome.changed
+				? 'Region saved. Guide totals in lists are re-priced in the background.'
+				: 'Nothing changed, so nothing was saved.'
 		};
 	},
 
@@ -73,7 +75,10 @@ export const actions: Actions = {
 				issues: { _form: ['The rate could not be added.'] } as Issues,
 				values: fields
 			});
-		return { form: 'rate' as const, message: 'Rate added.' };
+		return {
+			form: 'rate' as const,
+			message: 'Rate added. Guide totals in lists are re-priced in the background.'
+		};
 	},
 
 	removeRate: async ({ params, request }) => {
@@ -95,6 +100,9 @@ export const actions: Actions = {
 				issues: { _form: [outcome.message] } as Issues,
 				values: {} as Record<string, string>
 			});
-		return { form: 'rate' as const, message: 'Rate removed.' };
+		return {
+			form: 'rate' as const,
+			message: 'Rate removed. Guide totals in lists are re-priced in the background.'
+		};
 	}
 };
