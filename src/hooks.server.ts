@@ -21,6 +21,7 @@ import { startScheduler, stopScheduler } from '$lib/server/schedule';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { conditionalGuideReads } from '$lib/server/http/guide-caching';
+import { conditionalListReads } from '$lib/server/http/list-caching';
 import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
 import { logFailure, logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
@@ -63,7 +64,8 @@ export const handle = sequence(
 	resolveUser,
 	guardAreas,
 	// After resolveUser: only a visitor's answer is public and may be a 304.
-	conditionalGuideReads
+	conditionalGuideReads,
+	conditionalListReads
 );
 
 export const handleError: HandleServerError = ({ error, event, status, message }) => {

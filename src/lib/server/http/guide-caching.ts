@@ -82,7 +82,7 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
  * it. It is left off a public answer (shared caches do not store answers that set
  * cookies). Any other cookie makes the answer private: it may belong to one person.
  */
-function keepOutOfSharedCaches(response: Response): void {
+export function keepOutOfSharedCaches(response: Response): void {
 	const cookies = response.headers.getSetCookie();
 	if (cookies.length === 0 || response.headers.get('cache-control') !== PUBLIC_CACHING) return;
 	const others = cookies.filter((c) => !/^(__Secure-)?authjs\.callback-url=/.test(c));

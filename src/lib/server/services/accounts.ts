@@ -9,6 +9,7 @@ import { EmailToken, Guide, User, sequelize } from '$lib/server/db';
 import type { EmailTokenPurpose } from '$lib/server/db/models/EmailToken';
 import { hashPassword, verifyPassword } from '$lib/server/auth/password';
 import { runLater } from '$lib/server/background';
+import { bumpGuideLists } from '$lib/server/services/cache-generations';
 import * as mail from '$lib/server/mail';
 import * as templates from '$lib/server/mail/templates';
 import type { Role } from '$lib/domain/types';
@@ -348,6 +349,8 @@ export async function getAccount(userId: string): Promise<AccountView | null> {
 
 export async function updateProfile(userId: string, input: { name: string }): Promise<void> {
 	await User.update({ name: input.name }, { where: { id: userId } });
+	// Guide lists show authors' names (http/list-caching.ts).
+	await bumpGuideLists();
 }
 
 /**

@@ -13,23 +13,24 @@
  */
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
+import { BUMP_SQL, GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
 
-/** The computed guide view and its validators: bumped by every event listed in guide-view-cache.ts. */
-export const GUIDE_VIEW = 'guide-view';
+export { GUIDE_LIST, GUIDE_VIEW };
 
 /**
  * Moves the counter `name` on. Call after the write it announces has committed, never
  * inside it: readers that see the new value must also see the write.
  */
 export async function bump(name: string): Promise<void> {
-	await sequelize.query(
-		`INSERT INTO cache_generations (name, value, updated_at) VALUES (:name, 1, NOW())
-		 ON DUPLICATE KEY UPDATE value = value + 1, updated_at = NOW()`,
-		{ type: QueryTypes.INSERT, replacements: { name } }
-	);
+	await sequelize.query(BUMP_SQL, { type: QueryTypes.INSERT, replacements: { name } });
 }
 
 /** Bumps the guide view counter: every cached guide page and pricing answer is recomputed. */
 export function bumpGuideViews(): Promise<void> {
 	return bump(GUIDE_VIEW);
+}
+
+/** Bumps the guide list counter: every kept guide list answer is made again. */
+export function bumpGuideLists(): Promise<void> {
+	return bump(GUIDE_LIST);
 }

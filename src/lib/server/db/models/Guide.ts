@@ -4,9 +4,11 @@ import type {
 	ForeignKey,
 	InferAttributes,
 	InferCreationAttributes,
-	Sequelize
+	Sequelize,
+	Transaction
 } from 'sequelize';
 import type { GuideState } from '../../../domain/types.js';
+import { BUMP_SQL, GUIDE_LIST } from '../generation-names.js';
 import type { GuideRevision } from './GuideRevision.js';
 import type { Region } from './Region.js';
 import type { User } from './User.js';
@@ -65,6 +67,26 @@ export function initGuide(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'guides', underscored: true, indexes: [{ fields: ['state'] }] }
 	);
+	// Any write to a guide row may change what the guide lists show: the lists' validator
+	// (http/list-caching.ts) reads this counter, moved once the write has committed. Here in
+	// the model, so every process that writes guides moves it, whatever it has loaded.
+	for (const hook of [
+		'afterSave',
+		'afterDestroy',
+		'afterBulkUpdate',
+		'afterBulkDestroy'
+	] as const) {
+		Guide.addHook(hook, `guide-list-generation-${hook}`, (...args: unknown[]) => {
+			const options = (args.length > 1 ? args[1] : args[0]) as
+				{ transaction?: Transaction | null } | undefined;
+			const bump = () =>
+				sequelize
+					.query(BUMP_SQL, { type: QueryTypes.INSERT, replacements: { name: GUIDE_LIST } })
+					.then(() => undefined);
+			if (options?.transaction) options.transaction.afterCommit(bump);
+			else return bump();
+		});
+	}
 	// guide_tags mirrors guides.tags for the indexed list of tags in use (guide-browse.ts).
 	// Tags are only ever written through a row's create or save (never a bulk update), so
 	// this one hook keeps the mirror, inside the same transaction as the write.

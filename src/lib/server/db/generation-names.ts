@@ -1,0 +1,18 @@
+/**
+ * Names of the counters in cache_generations (services/cache-generations.ts). Kept apart,
+ * without app imports, so models and seeders can bump them too.
+ */
+
+/** The computed guide view and its validators: bumped by every event listed in guide-view-cache.ts. */
+export const GUIDE_VIEW = 'guide-view';
+
+/**
+ * What the guide lists show beyond prices (home, /guides, GET /api/v1/guides): a guide row
+ * written (published, featured, hidden, retitled) or an author's name changed. Prices and
+ * fit move GUIDE_VIEW, which the lists' validator reads as well.
+ */
+export const GUIDE_LIST = 'guide-list';
+
+/** The statement that moves a counter on; run it after the write it announces has committed. */
+export const BUMP_SQL = `INSERT INTO cache_generations (name, value, updated_at) VALUES (:name, 1, NOW())
+	 ON DUPLICATE KEY UPDATE value = value + 1, updated_at = NOW()`;

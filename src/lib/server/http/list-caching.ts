@@ -1,0 +1,89 @@
+/**
+ * HTTP caching of the guide lists for visitors: home, /guides and GET /api/v1/guides, the
+ * pages a crowd arriving from a link reads first.
+ *
+ * Their validator is built from two counters in cache_generations, read with one
+ * primary-key query per request: `guide-view` (prices, fit, hiding: every event that
+ * changes a guide view also changes the lists) and `guide-list` (any write to a guide row,
+ * an author's new name; models/Guide.ts and accounts.ts). Plus the UTC day, the route,
+ * document or data, and the query. A matching If-None-Match gets a 304, and a GET this
+ * process has answered under the same validator gets the same bytes again
+ * (visitor-answers.ts), so a list is made once per change, not once per visitor.
+ *
+ * Signed-in people pass straight through: their lists carry their own parts.
+ */
+import type { Handle } from '@sveltejs/kit';
+import { createHash } from 'node:crypto';
+import { QueryTypes } from 'sequelize';
+import { sequelize } from '$lib/server/db';
+import { isDatabaseUnavailable } from '$lib/server/db/availability';
+import { GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
+import { matchesIfNoneMatch } from '$lib/server/services/guide-view-cache';
+import { PUBLIC_CACHING } from './caching-policy';
+import { keepOutOfSharedCaches } from './guide-caching';
+import { keepIfPublic, keptAnswer } from './visitor-answers';
+
+export const LIST_ROUTES: ReadonlySet<string> = new Set([
+	'/(public)',
+	'/(public)/guides',
+	'/api/v1/guides'
+]);
+
+/** Both counters and the day, as one string. */
+async function readListStamp(): Promise<string> {
+	const rows = await sequelize.query<{ name: string; value: number | string }>(
+		'SELECT name, value FROM cache_generations WHERE name IN (:names)',
+		{ type: QueryTypes.SELECT, replacements: { names: [GUIDE_VIEW, GUIDE_LIST] } }
+	);
+	const value = (name: string) => String(rows.find((r) => r.name === name)?.value ?? 0);
+	return JSON.stringify([
+		value(GUIDE_VIEW),
+		value(GUIDE_LIST),
+		new Date().toISOString().slice(0, 10)
+	]);
+}
+
+export const conditionalListReads: Handle = async ({ event, resolve }) => {
+	const route = event.route.id ?? '';
+	if (event.request.method !== 'GET' || !LIST_ROUTES.has(route) || event.locals.user)
+		return resolve(event);
+	let stamp: string;
+	try {
+		stamp = await readListStamp();
+	} catch (error) {
+		// An outage: the page's own load meets it and answers the calm 503.
+		if (!isDatabaseUnavailable(error)) throw error;
+		return resolve(event);
+	}
+	const digest = createHash('sha256')
+		.update(
+			JSON.stringify([
+				stamp,
+				route,
+				event.isDataRequest ? 'data' : 'document',
+				new URL(event.request.url).search
+			])
+		)
+		.digest('base64url');
+	const etag = `W/"l${digest.slice(0, 26)}"`;
+	if (matchesIfNoneMatch(event.request.headers.get('if-none-match'), etag)) {
+		return new Response(null, {
+			status: 304,
+			headers: { etag, 'cache-control': PUBLIC_CACHING, vary: 'Cookie' }
+		});
+	}
+	const kept = keptAnswer(etag);
+	if (kept) return kept;
+	const response = await resolve(event);
+	// Only a plain 200 that set no caching of its own becomes public.
+	if (response.status !== 200 || response.headers.has('cache-control')) return response;
+	try {
+		response.headers.set('cache-control', PUBLIC_CACHING);
+		response.headers.set('etag', etag);
+		response.headers.set('vary', 'Cookie');
+	} catch {
+		return response; // immutable headers: not a page or list answer of ours
+	}
+	keepOutOfSharedCaches(response);
+	return keepIfPublic(etag, response);
+};
