@@ -65,10 +65,15 @@ test('a sign-in link signs in once and cannot be used again', async ({ page, bro
 		has: page.getByRole('heading', { name: 'With a link by e-mail' })
 	});
 	await panel.getByLabel('E-mail').fill('editor@slotwise.test');
+	const asked = new Date();
 	await panel.getByRole('button', { name: 'Send me a link' }).click();
 	await expect(page.getByRole('heading', { name: 'Check your e-mail' })).toBeVisible();
 
-	const message = await waitForMessage({ to: 'editor@slotwise.test', subject: /sign-in link/i });
+	const message = await waitForMessage({
+		to: 'editor@slotwise.test',
+		subject: /sign-in link/i,
+		after: asked
+	});
 	const link = firstLink(message, '/auth/callback/nodemailer');
 	await page.goto(link);
 	expect((await sessionOf(page))?.user).toMatchObject({
@@ -157,8 +162,9 @@ test('20 bad passwords from one address get 429, and the owner can still sign in
 		has: page.getByRole('heading', { name: 'With a link by e-mail' })
 	});
 	await panel.getByLabel('E-mail').fill(email);
+	const asked = new Date();
 	await panel.getByRole('button', { name: 'Send me a link' }).click();
-	const message = await waitForMessage({ to: email, subject: /sign-in link/i });
+	const message = await waitForMessage({ to: email, subject: /sign-in link/i, after: asked });
 	await page.goto(firstLink(message, '/auth/callback/nodemailer'));
 	expect((await sessionOf(page))?.user?.email).toBe(email);
 });

@@ -54,21 +54,28 @@ function isFor(message: MailboxMessage, to: string): boolean {
 
 /**
  * Polls until a message delivered to `to` (SMTP envelope, case-insensitive) arrives,
- * optionally with a matching subject, and returns the newest such message.
+ * optionally with a matching subject, and returns the newest such message. `after`: only a
+ * message the fake accepted at or after that moment, so one left by an earlier test (or an
+ * earlier run against the same fake) is not taken for the one a test is waiting for.
  */
 export async function waitForMessage({
 	to,
 	subject,
+	after,
 	timeoutMs = 5_000
 }: {
 	to: string;
 	subject?: RegExp;
+	after?: Date;
 	timeoutMs?: number;
 }): Promise<MailboxMessage> {
 	const deadline = Date.now() + timeoutMs;
 	for (;;) {
 		const found = (await listMessages()).find(
-			(m) => isFor(m, to) && (subject === undefined || subject.test(m.subject))
+			(m) =>
+				isFor(m, to) &&
+				(subject === undefined || subject.test(m.subject)) &&
+				(after === undefined || Date.parse(m.receivedAt) >= after.getTime() - 1_000)
 		);
 		if (found) return found;
 		if (Date.now() >= deadline) {

@@ -88,6 +88,9 @@ export async function signOut(event: RequestEvent): Promise<void> {
 	await callAuth(event, 'signout', { callbackUrl: '/' });
 }
 
+/** Auth.js's session cookie, plain or `__Secure-`, whole or in chunks (`.0`, `.1`, …). */
+const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-)?authjs\.session-token(?:\.\d+)?=/;
+
 /**
  * The session of this request, read in-process like the actions above (rather than through
  * @auth/sveltekit's `locals.auth()`, which builds its URL from Host and X-Forwarded-Proto
@@ -95,6 +98,10 @@ export async function signOut(event: RequestEvent): Promise<void> {
  * cookie gets the same flags as at sign-in. Null for visitors and ended sessions.
  */
 export async function readSession(event: RequestEvent): Promise<Session | null> {
+	// No session cookie, no session: a visitor's request skips Auth.js altogether (it was a
+	// large share of a visitor's page, and its only other output, the callback-url cookie, is
+	// set by the sign-in pages that use it).
+	if (!SESSION_COOKIE.test(event.request.headers.get('cookie') ?? '')) return null;
 	const request = new Request(`${event.url.origin}/auth/session`, {
 		headers: { cookie: event.request.headers.get('cookie') ?? '' }
 	});
