@@ -24,10 +24,10 @@
  * tests/integration/mail-queue-crash.spec.ts kills a real worker process mid-mailing and
  * counts every recipient's messages at the SMTP fake.
  */
-import { randomUUID } from 'node:crypto';
 import { createTransport, type Transporter } from 'nodemailer';
 import type SMTPTransport from 'nodemailer/lib/smtp-transport';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { claimWithLease } from '../../jobs/lease-claim.js';
 import { classifySmtpError, mayRetry, retryDelayMs } from '../../../domain/mail-delivery.js';
 import { prepareMessage } from '../index.js';
 import { mailConfigFromEnv, transportOptions, type MailConfig } from '../transport.js';
@@ -203,34 +203,27 @@ export class MailWorker {
 	/** Step 1: claim due jobs and commit `sending` + lease + attempt id before any SMTP. */
 	private async claim(): Promise<Claimed[]> {
 		if (this.stopping) return [];
-		const attemptId = randomUUID();
-		const claimedAt = Date.now();
-		const rows = await this.sequelize.transaction(async (transaction) => {
-			const ids = await this.sequelize.query<{ id: number }>(
-				`SELECT id FROM mail_jobs
-				 WHERE status = 'queued' AND next_attempt_at <= UTC_TIMESTAMP(3)
-				 ORDER BY next_attempt_at, id LIMIT :limit FOR UPDATE SKIP LOCKED`,
-				{ type: QueryTypes.SELECT, transaction, replacements: { limit: this.settings.batchSize } }
-			);
-			if (ids.length === 0) return [];
-			const idList = ids.map((r) => r.id);
-			await this.sequelize.query(
-				`UPDATE mail_jobs SET status = 'sending', attempt_id = :attemptId, attempts = attempts + 1,
-				 lease_until = UTC_TIMESTAMP(3) + INTERVAL :leaseUs MICROSECOND, updated_at = UTC_TIMESTAMP(3)
-				 WHERE id IN (:ids)`,
-				{
-					type: QueryTypes.UPDATE,
-					transaction,
-					replacements: { attemptId, leaseUs: this.settings.leaseMs * 1000, ids: idList }
-				}
-			);
-			return this.sequelize.query<JobRow>(
-				`SELECT ${JOB_COLUMNS} FROM mail_jobs WHERE id IN (:ids) ORDER BY id`,
-				{ type: QueryTypes.SELECT, transaction, replacements: { ids: idList } }
-			);
-		});
+		const { attemptId, claimedAt, rows } = await claimWithLease(
+			this.sequelize,
+			{
+				table: 'mail_jobs',
+				due: "status = 'queued' AND next_attempt_at <= UTC_TIMESTAMP(3)",
+				order: 'next_attempt_at, id',
+				limit: this.settings.batchSize,
+				leaseMs: this.settings.leaseMs,
+				set: "status = 'sending', attempts = attempts + 1"
+			},
+			(ids, transaction) => this.readJobs(ids, transaction)
+		);
 		const startBy = claimedAt + this.settings.leaseMs - this.settings.sendGuardMs;
 		return rows.map((r) => ({ ...r, id: Number(r.id), attemptId, startBy }));
+	}
+
+	private readJobs(ids: number[], transaction: Transaction): Promise<JobRow[]> {
+		return this.sequelize.query<JobRow>(
+			`SELECT ${JOB_COLUMNS} FROM mail_jobs WHERE id IN (:ids) ORDER BY id`,
+			{ type: QueryTypes.SELECT, transaction, replacements: { ids } }
+		);
 	}
 
 	/**
@@ -239,32 +232,17 @@ export class MailWorker {
 	 */
 	private async recover(touched: Set<number>): Promise<number> {
 		if (this.stopping) return 0;
-		const attemptId = randomUUID();
-		const claimedAt = Date.now();
-		const rows = await this.sequelize.transaction(async (transaction) => {
-			const ids = await this.sequelize.query<{ id: number }>(
-				`SELECT id FROM mail_jobs
-				 WHERE status = 'sending' AND lease_until < UTC_TIMESTAMP(3)
-				 ORDER BY lease_until, id LIMIT :limit FOR UPDATE SKIP LOCKED`,
-				{ type: QueryTypes.SELECT, transaction, replacements: { limit: this.settings.batchSize } }
-			);
-			if (ids.length === 0) return [];
-			const idList = ids.map((r) => r.id);
-			await this.sequelize.query(
-				`UPDATE mail_jobs SET attempt_id = :attemptId,
-				 lease_until = UTC_TIMESTAMP(3) + INTERVAL :leaseUs MICROSECOND, updated_at = UTC_TIMESTAMP(3)
-				 WHERE id IN (:ids)`,
-				{
-					type: QueryTypes.UPDATE,
-					transaction,
-					replacements: { attemptId, leaseUs: this.settings.leaseMs * 1000, ids: idList }
-				}
-			);
-			return this.sequelize.query<JobRow>(
-				`SELECT ${JOB_COLUMNS} FROM mail_jobs WHERE id IN (:ids) ORDER BY id`,
-				{ type: QueryTypes.SELECT, transaction, replacements: { ids: idList } }
-			);
-		});
+		const { attemptId, claimedAt, rows } = await claimWithLease(
+			this.sequelize,
+			{
+				table: 'mail_jobs',
+				due: "status = 'sending' AND lease_until < UTC_TIMESTAMP(3)",
+				order: 'lease_until, id',
+				limit: this.settings.batchSize,
+				leaseMs: this.settings.leaseMs
+			},
+			(ids, transaction) => this.readJobs(ids, transaction)
+		);
 		if (rows.length === 0) return 0;
 		const startBy = claimedAt + this.settings.leaseMs - this.settings.sendGuardMs;
 		const jobs: Claimed[] = rows.map((r) => ({ ...r, id: Number(r.id), attemptId, startBy }));
