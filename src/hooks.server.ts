@@ -16,6 +16,7 @@ import {
 import { settled } from '$lib/server/background';
 import { closeDb } from '$lib/server/db';
 import { startInlineWorker, stopInlineWorker } from '$lib/server/mail/queue/inline';
+import { startPhotoWorker, stopPhotoWorker } from '$lib/server/images/photo-worker-inline';
 import { inlineWorkerWanted } from '$lib/server/mail/queue/settings';
 import { startScheduler, stopScheduler } from '$lib/server/schedule';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
@@ -46,6 +47,8 @@ export const init: ServerInit = () => {
 	startInlineWorker();
 	// The periodic upkeep jobs run where the mail worker runs (server/schedule).
 	if (inlineWorkerWanted()) startScheduler();
+	// Uploaded photos are processed here, one at a time, off the request path.
+	startPhotoWorker();
 };
 
 export const handle = sequence(
@@ -90,7 +93,7 @@ process.once('sveltekit:shutdown' as never, (reason: string) => {
 		// The scheduler ends its job in hand; the worker finishes the message it is sending
 		// and releases its claims first.
 		.then(() => stopScheduler())
-		.then(() => stopInlineWorker())
+		.then(() => Promise.all([stopInlineWorker(), stopPhotoWorker()]))
 		.then(() => Promise.all([closeDb(), closeRateLimits()]))
 		.then(
 			() => logShutdown(String(reason), 'closed'),

@@ -211,7 +211,11 @@ describe('a gallery is part of the revision', () => {
 		);
 		expect(outcome).toEqual({
 			kind: 'invalid',
-			issues: { 'gallery.0.photoId': ['This photo was deleted or belongs to another guide.'] }
+			issues: {
+				'gallery.0.photoId': [
+					'This photo was deleted, is still being processed or belongs to another guide.'
+				]
+			}
 		});
 		const noAlt = draftInput.safeParse({
 			...input(),

@@ -6,22 +6,27 @@
  * runs twice: against the disk store (a temporary folder) and against the S3 store through
  * @aws-sdk/client-s3 and a local S3 fake (s3rver) on loopback.
  */
-import { mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import exifr from 'exifr';
 import sharp from 'sharp';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { createGuideInput } from '../../src/lib/schemas/guide-editor';
-import { GalleryPhoto, Guide, GuideRevision, Photo, Region, User } from '../../src/lib/server/db';
-import { diskStorage, storageFromEnv, useStorage } from '../../src/lib/server/storage';
+import {
+	GalleryPhoto,
+	Guide,
+	GuideRevision,
+	Photo,
+	Region,
+	User,
+	sequelize
+} from '../../src/lib/server/db';
+import { PhotoWorker, photoJobSettingsFromEnv } from '../../src/lib/server/images/photo-jobs';
+import { useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import { GET as mediaRoute } from '../../src/routes/media/[...key]/+server';
 import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as photos from '../../src/lib/server/services/photos';
 import { resetDatabase } from '../support/db';
-import { startS3Fake } from '../support/s3-fake';
-import type { S3Fake } from '../support/s3-fake';
+import { photoStoreDrivers } from '../support/photo-stores';
 import {
 	bombPng,
 	elfRenamedJpg,
@@ -37,43 +42,11 @@ let store: ObjectStorage;
 let author: User;
 let other: User;
 
-type Driver = { name: string; open(): Promise<ObjectStorage>; close(): Promise<void> };
-let folder = '';
-let fake: S3Fake | null = null;
-const drivers: Driver[] = [
-	{
-		name: 'disk',
-		async open() {
-			folder = await mkdtemp(join(tmpdir(), 'slotwise-photos-'));
-			return diskStorage(folder);
-		},
-		close: () => rm(folder, { recursive: true, force: true })
-	},
-	{
-		name: 'S3 (s3rver on loopback)',
-		async open() {
-			fake = await startS3Fake();
-			// Through the same configuration the app reads (STORAGE_DRIVER=s3 and the S3_* names).
-			const configured = storageFromEnv({
-				STORAGE_DRIVER: 's3',
-				S3_BUCKET: fake.bucket,
-				S3_ENDPOINT: fake.endpoint,
-				S3_REGION: 'us-east-1',
-				S3_ACCESS_KEY_ID: fake.accessKeyId,
-				S3_SECRET_ACCESS_KEY: fake.secretAccessKey
-			});
-			expect(configured.kind).toBe('s3');
-			return configured;
-		},
-		close: async () => {
-			await fake?.stop();
-		}
-	}
-];
+const drivers = photoStoreDrivers();
 
 beforeEach(async () => {
 	await resetDatabase();
-	await store.delete(await store.list('photos/'));
+	await store.delete(await store.list(''));
 	author = await User.create({ email: 'ada@example.test', name: 'Ada Writer', role: 'author' });
 	other = await User.create({ email: 'ben@example.test', name: 'Ben Other', role: 'author' });
 	await Region.create({
@@ -109,6 +82,18 @@ async function readBack(bytes: Buffer) {
 }
 const actor = () => ({ id: author.id, role: 'author' });
 
+/** A guide upload is accepted in `processing`; the background job (run here to the end) makes the files. */
+async function uploadReady(input: Buffer) {
+	const accepted = await photos.upload(actor(), guide, input);
+	if (accepted.kind !== 'accepted') throw new Error(accepted.kind);
+	expect(accepted.status.state).toBe('processing');
+	await new PhotoWorker(sequelize, () => store, photoJobSettingsFromEnv({})).drain();
+	const status = await photos.uploadStatus(actor(), guide, accepted.status.id);
+	expect(status?.state).toBe('ready');
+	if (!status?.photo) throw new Error('not ready');
+	return { kind: 'ok' as const, photo: status.photo };
+}
+
 for (const driver of drivers) {
 	describe(`with the ${driver.name} photo store`, () => {
 		beforeAll(async () => {
@@ -126,7 +111,7 @@ for (const driver of drivers) {
 				// The input really carries the coordinates (51° 30′ N = 51.5, hand-worked in support/images.ts).
 				expect((await exifr.gps(input))?.latitude).toBe(51.5);
 
-				const outcome = await photos.upload(actor(), guide, input);
+				const outcome = await uploadReady(input);
 				expect(outcome.kind).toBe('ok');
 				if (outcome.kind !== 'ok') return;
 				// Orientation 6 turns 1200 × 800 into 800 × 1200; 800 px wide → only the 480 width (no upscaling).
@@ -138,6 +123,8 @@ for (const driver of drivers) {
 
 				const keys = await store.list('photos/');
 				expect(keys).toHaveLength(3);
+				// The original (with its GPS) is gone once the variants exist.
+				expect(await store.list('originals/')).toEqual([]);
 				for (const key of keys) {
 					const file = await store.get(key);
 					const bytes = Buffer.from(file?.body ?? []);
@@ -158,8 +145,7 @@ for (const driver of drivers) {
 			});
 
 			it('/media serves every stored variant with its type, nosniff and a year of caching', async () => {
-				const outcome = await photos.upload(actor(), guide, await jpegWithGps(1200, 800));
-				if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+				const outcome = await uploadReady(await jpegWithGps(1200, 800));
 				type MediaEvent = Parameters<typeof mediaRoute>[0];
 				const serve = (key: string) => mediaRoute({ params: { key } } as unknown as MediaEvent);
 				const types = { avif: 'image/avif', webp: 'image/webp', jpeg: 'image/jpeg' };
@@ -185,8 +171,7 @@ for (const driver of drivers) {
 				})
 					.jpeg()
 					.toBuffer();
-				const outcome = await photos.upload(actor(), guide, input);
-				if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+				const outcome = await uploadReady(input);
 				expect(outcome.photo.variants.map((v) => `${v.format} ${v.width}`).sort()).toEqual([
 					'avif 1600',
 					'avif 480',
@@ -207,7 +192,7 @@ for (const driver of drivers) {
 					await jpegWithGps()
 				);
 				expect(outcome.kind).toBe('not_found');
-				expect(await store.list('photos/')).toEqual([]);
+				expect(await store.list('')).toEqual([]);
 				expect(await Photo.count()).toBe(0);
 			});
 
@@ -223,7 +208,7 @@ for (const driver of drivers) {
 				});
 				const outcome = await photos.upload(actor(), guide, await jpegWithGps());
 				expect(outcome.kind).toBe('quota');
-				expect(await store.list('photos/')).toEqual([]);
+				expect(await store.list('')).toEqual([]);
 				expect(await Photo.count()).toBe(1);
 			});
 		});
@@ -252,7 +237,8 @@ for (const driver of drivers) {
 						expect(outcome.status).toBe(status);
 						expect(outcome.message).toMatch(message);
 					}
-					expect(await store.list('photos/')).toEqual([]);
+					// Nothing anywhere in the store: no variants and no original.
+					expect(await store.list('')).toEqual([]);
 					expect(await Photo.count()).toBe(0);
 				});
 			}
@@ -272,8 +258,7 @@ for (const driver of drivers) {
 
 		describe('deleting a guide photo', () => {
 			it('removes the row and every stored variant', async () => {
-				const outcome = await photos.upload(actor(), guide, await jpegWithGps(2000, 1000));
-				if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+				const outcome = await uploadReady(await jpegWithGps(2000, 1000));
 				expect((await store.list('photos/')).length).toBeGreaterThan(0);
 				expect(await photos.remove(actor(), guide, outcome.photo.id)).toEqual({ kind: 'ok' });
 				expect(await store.list('photos/')).toEqual([]);
@@ -281,8 +266,7 @@ for (const driver of drivers) {
 			});
 
 			it('is refused while the live revision shows the photo, and keeps its files', async () => {
-				const outcome = await photos.upload(actor(), guide, await jpegWithGps());
-				if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+				const outcome = await uploadReady(await jpegWithGps());
 				const row = await Guide.findOne({ where: { slug: 'quiet-box' } });
 				const revision = await GuideRevision.findOne({ where: { guideId: row?.id } });
 				await GalleryPhoto.create({
@@ -301,8 +285,7 @@ for (const driver of drivers) {
 			});
 
 			it("answers not found for another author's photo", async () => {
-				const outcome = await photos.upload(actor(), guide, await jpegWithGps());
-				if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+				const outcome = await uploadReady(await jpegWithGps());
 				expect(
 					await photos.remove({ id: other.id, role: 'author' }, guide, outcome.photo.id)
 				).toEqual({

@@ -1,8 +1,10 @@
 /*
  * Uploads in the browser: one XMLHttpRequest per file, because only XHR reports upload
  * progress (fetch does not). Each upload goes through: uploading (bytes sent / total) →
- * processing (all bytes sent, the server is decoding and encoding) → done, or failed with
- * the server's message, or cancelled. Failed and cancelled uploads can be retried.
+ * processing (all bytes sent; the server checks the file, then, for a guide photo, answers
+ * at once and makes the sizes in the background: its status URL is polled for the files
+ * made so far) → done, or failed with the server's message, or cancelled. Cancel during
+ * processing deletes the photo on the server. Failed and cancelled uploads can be retried.
  */
 export type UploadPhase = 'waiting' | 'uploading' | 'processing' | 'done' | 'failed' | 'cancelled';
 
@@ -13,7 +15,23 @@ export interface UploadEntry {
 	/** 0–1 of the bytes sent. */
 	sent: number;
 	message: string | null;
+	/** 0–1 of the files the server has made (null until it reports any). */
+	processed: number | null;
+	/** The photo's status URL while the server holds a row for this upload. */
+	statusUrl: string | null;
 }
+
+interface UploadStatus {
+	id: number;
+	state: 'processing' | 'ready' | 'failed';
+	progress: { done: number; total: number };
+	message: string | null;
+	statusUrl: string;
+	photo: UploadedPhoto | null;
+}
+
+/** Time between two status polls while the server processes a photo. */
+const POLL_MS = 700;
 
 export interface UploadedPhoto {
 	id: number;
@@ -25,6 +43,7 @@ let nextId = 1;
 export class PhotoUploads {
 	entries = $state<UploadEntry[]>([]);
 	#requests = new Map<number, XMLHttpRequest>();
+	#polls = new Map<number, ReturnType<typeof setTimeout>>();
 	#url: string;
 	#fields: () => Record<string, string>;
 	#onDone: (photo: UploadedPhoto) => void;
@@ -43,24 +62,91 @@ export class PhotoUploads {
 
 	add(files: FileList | File[]) {
 		for (const file of Array.from(files)) {
-			this.entries.push({ id: nextId++, file, phase: 'waiting', sent: 0, message: null });
+			this.entries.push({
+				id: nextId++,
+				file,
+				phase: 'waiting',
+				sent: 0,
+				message: null,
+				processed: null,
+				statusUrl: null
+			});
 		}
 		this.#pump();
 	}
 
 	cancel(id: number) {
 		this.#requests.get(id)?.abort();
+		this.#stopPolling(id);
 		this.#set(id, { phase: 'cancelled', message: 'Cancelled.' });
+		void this.#forget(id);
 		this.#pump();
 	}
 
-	retry(id: number) {
-		this.#set(id, { phase: 'waiting', sent: 0, message: null });
+	async retry(id: number) {
+		await this.#forget(id);
+		this.#set(id, { phase: 'waiting', sent: 0, message: null, processed: null });
 		this.#pump();
 	}
 
 	dismiss(id: number) {
+		void this.#forget(id);
 		this.entries = this.entries.filter((e) => e.id !== id);
+	}
+
+	/** Deletes the server's row of a cancelled or failed upload (its files go with it). */
+	async #forget(id: number) {
+		const entry = this.entries.find((e) => e.id === id);
+		const url = entry?.statusUrl;
+		if (!entry || !url || entry.phase === 'done') return;
+		entry.statusUrl = null;
+		await fetch(url, { method: 'DELETE', headers: { accept: 'application/json' } }).catch(
+			() => undefined
+		);
+	}
+
+	#stopPolling(id: number) {
+		clearTimeout(this.#polls.get(id));
+		this.#polls.delete(id);
+	}
+
+	/** Follows a photo the server is processing until it is ready or failed. */
+	#follow(id: number, status: UploadStatus) {
+		const entry = this.entries.find((e) => e.id === id);
+		if (!entry || entry.phase !== 'processing') return;
+		const { done, total } = status.progress;
+		if (status.state === 'ready' && status.photo) {
+			this.#set(id, { phase: 'done', processed: 1, statusUrl: null, message: null });
+			this.#onDone(status.photo);
+			this.#pump();
+			return;
+		}
+		if (status.state === 'failed') {
+			this.#set(id, {
+				phase: 'failed',
+				message: status.message ?? 'The photo could not be processed.'
+			});
+			this.#pump();
+			return;
+		}
+		this.#set(id, { processed: total > 0 ? done / total : 0, statusUrl: status.statusUrl });
+		this.#polls.set(
+			id,
+			setTimeout(async () => {
+				this.#polls.delete(id);
+				try {
+					const answer = await fetch(status.statusUrl, { headers: { accept: 'application/json' } });
+					if (answer.status === 404) {
+						this.#set(id, { phase: 'failed', statusUrl: null, message: 'The photo was removed.' });
+						return;
+					}
+					if (answer.ok) return this.#follow(id, (await answer.json()) as UploadStatus);
+				} catch {
+					// A dropped poll is tried again below.
+				}
+				this.#follow(id, status);
+			}, POLL_MS)
+		);
 	}
 
 	get busy(): boolean {
@@ -73,7 +159,11 @@ export class PhotoUploads {
 	}
 
 	#pump() {
-		const active = this.entries.filter((e) => e.phase === 'uploading' || e.phase === 'processing');
+		// Only bytes on the wire count: photos the server is processing in the background
+		// wait in its queue, not here.
+		const active = this.entries.filter(
+			(e) => e.phase === 'uploading' || (e.phase === 'processing' && e.statusUrl === null)
+		);
 		const next = this.entries.filter((e) => e.phase === 'waiting');
 		for (const entry of next.slice(0, Math.max(0, this.#parallel - active.length)))
 			this.#send(entry);
@@ -95,8 +185,18 @@ export class PhotoUploads {
 		request.upload.onload = () => this.#set(id, { sent: 1, phase: 'processing' });
 		request.onload = () => {
 			this.#requests.delete(id);
-			const answer = request.response as { message?: string; id?: number } | null;
-			if (request.status === 201 && answer?.id) {
+			const answer = request.response as
+				({ message?: string; id?: number } & Partial<UploadStatus>) | null;
+			if (request.status === 201 && answer?.id && answer.state && answer.statusUrl) {
+				// A guide photo: accepted, its sizes are made in the background.
+				this.#set(id, {
+					phase: 'processing',
+					sent: 1,
+					processed: 0,
+					statusUrl: answer.statusUrl
+				});
+				this.#follow(id, answer as UploadStatus);
+			} else if (request.status === 201 && answer?.id) {
 				this.#set(id, { phase: 'done', sent: 1, message: null });
 				this.#onDone(answer as UploadedPhoto);
 			} else {
@@ -118,7 +218,7 @@ export class PhotoUploads {
 			});
 			this.#pump();
 		};
-		this.#set(id, { phase: 'uploading', sent: 0, message: null });
+		this.#set(id, { phase: 'uploading', sent: 0, message: null, processed: null, statusUrl: null });
 		request.send(body);
 	}
 }

@@ -73,3 +73,20 @@ export interface ChecklistView {
 	progress: { done: number; total: number; percent: number };
 	deferToManuals: string;
 }
+
+/**
+ * Where an upload stands (POST answers it with 201, GET on `statusUrl` reports it): the
+ * background job makes `progress.total` files; `photo` is there once the state is `ready`,
+ * `message` once it is `failed`. `variants` are the URLs the photo will have when ready.
+ */
+export interface PhotoStatusView {
+	id: number;
+	state: 'processing' | 'ready' | 'failed';
+	progress: { done: number; total: number };
+	message: string | null;
+	statusUrl: string;
+	width: number;
+	height: number;
+	variants: { format: PhotoVariantView['format']; width: number; url: string }[];
+	photo: PhotoView | null;
+}

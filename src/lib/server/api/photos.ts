@@ -4,7 +4,10 @@
  * image in the field `file` (the hook lets multipart through on these routes only and caps
  * the body at the photo limit); deletes are JSON like the rest of the API.
  *
- * Answers: 201 with the photo (id, size, placeholder, variant URLs); 400 field issues; 401
+ * Answers: 201 with, for a guide photo, its status (id, state `processing`, progress, the
+ * variant URLs it will have and `statusUrl`, also in Location; GET there reports progress
+ * until `ready` or `failed`), and for a part or build photo the processed photo (id, size,
+ * placeholder, variant URLs); 400 field issues; 401
  * for visitors; 404 for what is not the caller's; 409 for a refusal with a reason (quota, a
  * closed guide, a private build, a photo still live); 413 too large; 415 not a JPEG, PNG or
  * WebP; 422 unreadable or too many pixels; 429 with Retry-After; 503 when busy.
@@ -61,6 +64,11 @@ export async function uploadPhoto(request: Request, target: PhotoTarget): Promis
 	switch (outcome.kind) {
 		case 'ok':
 			return json(outcome.photo, { status: 201 });
+		case 'accepted':
+			return json(outcome.status, {
+				status: 201,
+				headers: { location: outcome.status.statusUrl }
+			});
 		case 'not_found':
 			return message('Not found', 404);
 		case 'conflict':
@@ -78,4 +86,16 @@ export async function deletePhoto(target: PhotoTarget, photoId: number): Promise
 	if (outcome.kind === 'not_found') return message('Photo not found', 404);
 	if (outcome.kind === 'conflict') return message(outcome.message, 409);
 	return new Response(null, { status: 204 });
+}
+
+/** GET: where one of the author's guide photos stands (processing with progress, ready, failed). */
+export async function photoStatus(
+	target: PhotoTarget & { kind: 'guide' },
+	photoId: number
+): Promise<Response> {
+	const user = requireUser();
+	const status = await photos.uploadStatus(user, target, photoId);
+	if (!status) return message('Photo not found', 404);
+	// Progress changes from one poll to the next: never from a cache.
+	return json(status, { headers: { 'cache-control': 'no-store' } });
 }

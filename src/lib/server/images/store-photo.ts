@@ -16,6 +16,20 @@ export function newKeyPrefix(): string {
 	return `photos/${randomBytes(16).toString('base64url')}`;
 }
 
+/** Where an upload's checked original waits for processing: outside `photos/`, so /media never serves it. */
+export function newOriginalKey(): string {
+	return `originals/${randomBytes(16).toString('base64url')}`;
+}
+
+/** A variant's key: fixed by the prefix, the width and the format, so a URL is known before the file exists. */
+export function variantKey(
+	keyPrefix: string,
+	format: keyof typeof EXTENSION,
+	width: number
+): string {
+	return `${keyPrefix}/${width}.${EXTENSION[format]}`;
+}
+
 export interface StoredFiles {
 	keyPrefix: string;
 	variants: StoredVariant[];
@@ -25,13 +39,13 @@ export interface StoredFiles {
 /** Puts every variant; if one fails, removes those already written and rethrows. */
 export async function storeFiles(
 	store: ObjectStorage,
-	photo: ProcessedPhoto
+	photo: ProcessedPhoto,
+	keyPrefix = newKeyPrefix()
 ): Promise<StoredFiles> {
-	const keyPrefix = newKeyPrefix();
 	const variants: StoredVariant[] = [];
 	try {
 		for (const v of photo.variants) {
-			const key = `${keyPrefix}/${v.width}.${EXTENSION[v.format]}`;
+			const key = variantKey(keyPrefix, v.format, v.width);
 			await store.put(key, v.data, TYPE[v.format]);
 			variants.push({
 				format: v.format,
@@ -53,4 +67,9 @@ export async function removeFiles(
 	variants: readonly StoredVariant[]
 ): Promise<void> {
 	await store.delete(variants.map((v) => v.key));
+}
+
+/** Every file under a photo's prefix, including any a stopped job left half-way. */
+export async function removePrefix(store: ObjectStorage, keyPrefix: string): Promise<void> {
+	await store.delete(await store.list(`${keyPrefix}/`));
 }

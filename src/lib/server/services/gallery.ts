@@ -60,31 +60,34 @@ export async function galleryItems(
 	return (await rowsOf([revisionId], transaction)).map(itemOf);
 }
 
-/** A revision's gallery with its photos (hidden photos left out). */
+/** A revision's gallery with its photos (hidden photos, and any not yet processed, left out). */
 export async function revisionGallery(revisionId: number): Promise<GalleryEntry[]> {
 	return (await rowsOf([revisionId]))
-		.filter((r) => r.photo && !r.photo.hiddenAt)
+		.filter((r) => r.photo && !r.photo.hiddenAt && r.photo.state === 'ready')
 		.map((r) => ({ ...itemOf(r), photo: photoView(r.photo as Photo, r) }));
 }
 
-/** Every photo uploaded to an author's own guide, by id, for the editor (null: not their guide). */
+/** Every processed photo of an author's own guide, by id, for the editor (null: not their guide). */
 export async function guidePhotos(
 	authorId: string,
 	slug: string
 ): Promise<Record<number, PhotoView> | null> {
 	const guide = await Guide.findOne({ where: { slug, authorId }, attributes: ['id'] });
 	if (!guide) return null;
-	const photos = await Photo.findAll({ where: { guideId: guide.id }, order: [['id', 'ASC']] });
+	const photos = await Photo.findAll({
+		where: { guideId: guide.id, state: 'ready' },
+		order: [['id', 'ASC']]
+	});
 	return Object.fromEntries(photos.map((p) => [p.id, photoView(p)]));
 }
 
-/** Photo ids the input names that are not this guide's: field issues for the draft save. */
+/** Photo ids the input names that are not this guide's ready photos: field issues for the draft save. */
 export async function checkGallery(guideId: number, items: GalleryItemInput[]): Promise<Issues> {
 	if (items.length === 0) return {};
 	const ids = new Set(
 		(
 			await Photo.findAll({
-				where: { guideId, id: items.map((i) => i.photoId) },
+				where: { guideId, id: items.map((i) => i.photoId), state: 'ready' },
 				attributes: ['id']
 			})
 		).map((p) => p.id)
@@ -92,7 +95,9 @@ export async function checkGallery(guideId: number, items: GalleryItemInput[]): 
 	const issues: Issues = {};
 	items.forEach((item, i) => {
 		if (!ids.has(item.photoId))
-			issues[`gallery.${i}.photoId`] = ['This photo was deleted or belongs to another guide.'];
+			issues[`gallery.${i}.photoId`] = [
+				'This photo was deleted, is still being processed or belongs to another guide.'
+			];
 	});
 	return issues;
 }

@@ -4,9 +4,9 @@
  */
 import { srcset } from '$lib/domain/photo-variants';
 import type { Photo, StoredVariant } from '$lib/server/db';
-import type { PhotoVariantView, PhotoView } from '$lib/views';
+import type { PhotoStatusView, PhotoVariantView, PhotoView } from '$lib/views';
 
-export type { PhotoVariantView, PhotoView };
+export type { PhotoStatusView, PhotoVariantView, PhotoView };
 
 export const mediaUrl = (key: string) => `/media/${key}`;
 
@@ -32,5 +32,30 @@ export function photoView(photo: Photo, text?: { caption: string; altText: strin
 		variants,
 		caption: text?.caption ?? photo.caption,
 		altText: text?.altText ?? photo.altText
+	};
+}
+
+/**
+ * An upload's state for its uploader. `planned` are the files the job will make (pipeline.ts
+ * plannedVariants), whose keys are fixed by the prefix, so their URLs are known at once.
+ */
+export function photoStatusView(
+	photo: Photo,
+	statusUrl: string,
+	planned: { format: PhotoVariantView['format']; width: number; key: string }[]
+): PhotoStatusView {
+	return {
+		id: photo.id,
+		state: photo.state,
+		progress: { done: photo.variantsDone, total: photo.variantsTotal },
+		message: photo.state === 'failed' ? photo.failure : null,
+		statusUrl,
+		width: photo.width,
+		height: photo.height,
+		variants:
+			photo.state === 'failed'
+				? []
+				: planned.map((v) => ({ format: v.format, width: v.width, url: mediaUrl(v.key) })),
+		photo: photo.state === 'ready' ? photoView(photo) : null
 	};
 }

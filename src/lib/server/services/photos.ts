@@ -5,9 +5,10 @@
  * (images/pipeline.ts) and counts against its owner's storage quota.
  *
  * Order of work, so bad input stores nothing: check who may upload and the quota, run the
- * pipeline in memory, write the files, then insert the row in a transaction that locks the
- * owner's user row and checks the quota again (two uploads at once cannot both take the last
- * megabytes). If the insert fails, the files just written are removed.
+ * pipeline's fast checks in memory, write the original, then insert the row in a transaction
+ * that locks the owner's user row and checks the quota again (two uploads at once cannot both
+ * take the last megabytes). If the insert fails, the original just written is removed. The
+ * variants are made by images/photo-jobs.ts, off the request path for guide photos.
  */
 import { Op } from 'sequelize';
 import type { Transaction } from 'sequelize';
@@ -22,11 +23,23 @@ import {
 	sequelize
 } from '$lib/server/db';
 import type { StoredVariant } from '$lib/server/db';
-import { PhotoRejected, processPhoto } from '$lib/server/images/pipeline';
-import { removeFiles, storeFiles } from '$lib/server/images/store-photo';
+import { checkUpload, PhotoRejected, plannedVariants } from '$lib/server/images/pipeline';
+import {
+	claimForCaller,
+	PhotoWorker,
+	photoJobSettingsFromEnv
+} from '$lib/server/images/photo-jobs';
+import { pokePhotoWorker } from '$lib/server/images/photo-worker-inline';
+import {
+	newKeyPrefix,
+	newOriginalKey,
+	removeFiles,
+	removePrefix,
+	variantKey
+} from '$lib/server/images/store-photo';
 import { storage } from '$lib/server/storage';
-import { photoView } from './photo-views';
-import type { PhotoView } from './photo-views';
+import { photoStatusView, photoView } from './photo-views';
+import type { PhotoStatusView, PhotoView } from './photo-views';
 
 /** Stored bytes per account over all its photos: common practice, no published source. */
 export const QUOTA_BYTES = 250 * 1024 * 1024;
@@ -43,6 +56,7 @@ export interface Actor {
 
 export type UploadOutcome =
 	| { kind: 'ok'; photo: PhotoView }
+	| { kind: 'accepted'; status: PhotoStatusView }
 	| { kind: 'not_found' }
 	| { kind: 'conflict'; message: string }
 	| { kind: 'rejected'; status: 413 | 415 | 422 | 503; message: string }
@@ -98,8 +112,16 @@ function quotaMessage(used: number): string {
 }
 
 /**
- * Uploads one photo. `text` is the caption and alt text of a part or build photo; a guide
- * photo gets both per revision in the gallery editor instead.
+ * Uploads one photo: the request's fast checks (pipeline.ts checkUpload: size, magic bytes,
+ * header and pixel limit, a decode at reduced size for a truncated file), then the original
+ * under a key /media never serves and the row in `processing`, counted against the quota by
+ * the original's size until the job replaces it with the variants' size.
+ *
+ * A guide photo is processed by the background job (images/photo-jobs.ts) and its status is
+ * answered at once. `wait` (part and build photos) processes it before answering, through
+ * the same job code, and answers the ready photo or the refusal, with nothing left stored.
+ * `text` is the caption and alt text of a part or build photo; a guide photo gets both per
+ * revision in the gallery editor instead.
  */
 export async function upload(
 	actor: Actor,
@@ -116,52 +138,113 @@ export async function upload(
 	const before = await usedBytes(actor.id);
 	if (before >= QUOTA_BYTES) return { kind: 'quota', message: quotaMessage(before) };
 
-	let processed;
+	let checked;
 	try {
-		processed = await processPhoto(file);
+		checked = await checkUpload(file);
 	} catch (e) {
 		if (e instanceof PhotoRejected)
 			return { kind: 'rejected', status: e.status, message: e.message };
 		throw e;
 	}
 	const store = storage();
-	const files = await storeFiles(store, processed);
+	const originalKey = newOriginalKey();
+	await store.put(originalKey, file, 'application/octet-stream');
+	const wait = target.kind !== 'guide';
+	const settings = photoJobSettingsFromEnv();
+	let created: { quota: number } | { photo: Photo; attemptId: string | null };
 	try {
-		const created = await sequelize.transaction(async (transaction) => {
+		created = await sequelize.transaction(async (transaction) => {
 			await User.findByPk(actor.id, {
 				attributes: ['id'],
 				transaction,
 				lock: transaction.LOCK.UPDATE
 			});
 			const used = await usedBytes(actor.id, transaction);
-			if (used + files.bytes > QUOTA_BYTES) return { quota: used } as const;
-			return Photo.create(
+			if (used + file.byteLength > QUOTA_BYTES) return { quota: used };
+			const photo = await Photo.create(
 				{
 					ownerId: actor.id,
 					guideId: owner.column === 'guideId' ? owner.id : null,
 					partId: owner.column === 'partId' ? owner.id : null,
 					buildId: owner.column === 'buildId' ? owner.id : null,
-					keyPrefix: files.keyPrefix,
-					width: processed.width,
-					height: processed.height,
-					bytes: files.bytes,
-					placeholder: processed.placeholder,
-					variants: files.variants,
+					keyPrefix: newKeyPrefix(),
+					width: checked.width,
+					height: checked.height,
+					bytes: file.byteLength,
+					placeholder: '',
+					variants: [],
+					state: 'processing',
+					variantsTotal: plannedVariants(checked.width).length,
+					originalKey,
 					caption: text.caption,
 					altText: text.altText
 				},
 				{ transaction }
 			);
+			const attemptId = wait
+				? await claimForCaller(sequelize, photo.id, settings, transaction)
+				: null;
+			return { photo, attemptId };
 		});
-		if ('quota' in created) {
-			await removeFiles(store, files.variants);
-			return { kind: 'quota', message: quotaMessage(created.quota) };
-		}
-		return { kind: 'ok', photo: photoView(created) };
 	} catch (e) {
-		await removeFiles(store, files.variants).catch(() => undefined);
+		await store.delete([originalKey]).catch(() => undefined);
 		throw e;
 	}
+	if ('quota' in created) {
+		await store.delete([originalKey]);
+		return { kind: 'quota', message: quotaMessage(created.quota) };
+	}
+	const { photo, attemptId } = created;
+	if (!attemptId) {
+		pokePhotoWorker();
+		return { kind: 'accepted', status: statusOf(photo, target) };
+	}
+	const worker = new PhotoWorker(sequelize, storage, settings);
+	await worker.process({
+		id: photo.id,
+		keyPrefix: photo.keyPrefix,
+		originalKey,
+		attempts: 1,
+		attemptId
+	});
+	await photo.reload();
+	if (photo.state === 'ready') return { kind: 'ok', photo: photoView(photo) };
+	// Refused while the caller waited: nothing of it stays.
+	await photo.destroy();
+	return {
+		kind: 'rejected',
+		status: 422,
+		message: photo.failure ?? 'The photo could not be processed.'
+	};
+}
+
+function statusUrlOf(target: PhotoTarget, photoId: number): string {
+	return target.kind === 'build'
+		? `/api/v1/builds/${target.id}/photos/${photoId}`
+		: `/api/v1/${target.kind}s/${target.slug}/photos/${photoId}`;
+}
+
+function statusOf(photo: Photo, target: PhotoTarget): PhotoStatusView {
+	const planned = plannedVariants(photo.width).map((v) => ({
+		...v,
+		key: variantKey(photo.keyPrefix, v.format, v.width)
+	}));
+	return photoStatusView(photo, statusUrlOf(target, photo.id), planned);
+}
+
+/** Where one of the caller's guide photos stands (its author only; anyone else: null). */
+export async function uploadStatus(
+	actor: Actor,
+	target: PhotoTarget & { kind: 'guide' },
+	photoId: number
+): Promise<PhotoStatusView | null> {
+	const guide = await Guide.findOne({
+		where: { slug: target.slug, authorId: actor.id },
+		attributes: ['id']
+	});
+	if (!guide) return null;
+	const photo = await Photo.findOne({ where: { id: photoId, guideId: guide.id } });
+	return photo ? statusOf(photo, target) : null;
 }
 
 /** Revisions of a guide whose gallery the public sees or an editor is deciding on. */
@@ -213,13 +296,24 @@ export async function remove(
 				} as const;
 			await GalleryPhoto.destroy({ where: { photoId }, transaction });
 		}
-		const variants = photo.variants as StoredVariant[];
+		const files = {
+			variants: photo.variants as StoredVariant[],
+			keyPrefix: photo.keyPrefix,
+			originalKey: photo.originalKey,
+			processing: photo.state !== 'ready'
+		};
 		await photo.destroy({ transaction });
-		return { kind: 'ok', variants } as const;
+		return { kind: 'ok', files } as const;
 	});
 	if (outcome.kind !== 'ok') return outcome;
 	// After commit: a failed file delete leaves unreachable files, never a row without files.
-	await removeFiles(storage(), outcome.variants);
+	// A photo still processing (cancelled) also loses its original and whatever the job has
+	// made so far; the job's own final write then finds no row and removes what it adds.
+	const store = storage();
+	const { files } = outcome;
+	await removeFiles(store, files.variants);
+	if (files.originalKey) await store.delete([files.originalKey]);
+	if (files.processing) await removePrefix(store, files.keyPrefix);
 	return { kind: 'ok' };
 }
 
@@ -252,7 +346,7 @@ export async function partThumbs(slugs: string[]): Promise<Record<string, PhotoV
 	const slugOf = new Map(parts.map((p) => [p.id, p.slug]));
 	const thumbs: Record<string, PhotoView> = {};
 	const rows = await Photo.findAll({
-		where: { partId: [...slugOf.keys()], hiddenAt: null },
+		where: { partId: [...slugOf.keys()], hiddenAt: null, state: 'ready' },
 		order: [['id', 'ASC']]
 	});
 	for (const row of rows) {
@@ -267,7 +361,7 @@ export async function partPhotos(slug: string): Promise<PhotoView[]> {
 	const part = await Part.findOne({ where: { slug }, attributes: ['id'] });
 	if (!part) return [];
 	const rows = await Photo.findAll({
-		where: { partId: part.id, hiddenAt: null },
+		where: { partId: part.id, hiddenAt: null, state: 'ready' },
 		order: [['id', 'ASC']]
 	});
 	return rows.map((r) => photoView(r));
@@ -279,14 +373,17 @@ export async function buildPhotos(
 	includeHidden = false
 ): Promise<(PhotoView & { hidden: boolean })[]> {
 	const rows = await Photo.findAll({
-		where: { buildId, ...(includeHidden ? {} : { hiddenAt: null }) },
+		where: { buildId, state: 'ready', ...(includeHidden ? {} : { hiddenAt: null }) },
 		order: [['id', 'ASC']]
 	});
 	return rows.map((r) => ({ ...photoView(r), hidden: r.hiddenAt !== null }));
 }
 
-/** Whether files under a key prefix may be served: its photo exists and is not hidden by an editor. */
+/** Whether files under a key prefix may be served: its photo is processed and not hidden by an editor. */
 export async function servable(keyPrefix: string): Promise<boolean> {
-	const photo = await Photo.findOne({ where: { keyPrefix }, attributes: ['id', 'hiddenAt'] });
-	return photo !== null && photo.hiddenAt === null;
+	const photo = await Photo.findOne({
+		where: { keyPrefix },
+		attributes: ['id', 'hiddenAt', 'state']
+	});
+	return photo !== null && photo.hiddenAt === null && photo.state === 'ready';
 }

@@ -83,6 +83,7 @@ import * as mUpkeepAlerts from './2026.12.12T10.01.00.create-guide-upkeep-alerts
 import * as mUsersUpkeepDigest from './2026.12.12T10.02.00.add-users-upkeep-digest.js';
 import * as mTipsNoteHiddenReason from './2026.12.13T10.00.00.add-tips-note-hidden-reason.js';
 import * as mGuideTags from './2026.12.14T10.00.00.create-guide-tags.js';
+import * as mPhotosProcessing from './2026.12.14T11.00.00.add-photos-processing.js';
 import * as mUpkeepDigests from './2026.12.14T12.00.00.create-upkeep-digests.js';
 import * as mUpkeepAlertsDigestId from './2026.12.14T12.01.00.add-guide-upkeep-alerts-digest-id.js';
 import * as mUsersUpkeepDigestSince from './2026.12.14T12.02.00.add-users-upkeep-digest-since.js';
@@ -168,6 +169,7 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.12T10.02.00.add-users-upkeep-digest': mUsersUpkeepDigest,
 	'2026.12.13T10.00.00.add-tips-note-hidden-reason': mTipsNoteHiddenReason,
 	'2026.12.14T10.00.00.create-guide-tags': mGuideTags,
+	'2026.12.14T11.00.00.add-photos-processing': mPhotosProcessing,
 	'2026.12.14T12.00.00.create-upkeep-digests': mUpkeepDigests,
 	'2026.12.14T12.01.00.add-guide-upkeep-alerts-digest-id': mUpkeepAlertsDigestId,
 	'2026.12.14T12.02.00.add-users-upkeep-digest-since': mUsersUpkeepDigestSince,

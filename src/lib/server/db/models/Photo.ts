@@ -20,6 +20,9 @@ export interface StoredVariant {
 	bytes: number;
 }
 
+export const PHOTO_STATES = ['processing', 'ready', 'failed'] as const;
+export type PhotoState = (typeof PHOTO_STATES)[number];
+
 /**
  * A processed photo (images/pipeline.ts): the files live in the photo store under
  * `keyPrefix/`; the row keeps their list, the original's size after orientation, the bytes
@@ -38,6 +41,17 @@ export class Photo extends Model<InferAttributes<Photo>, InferCreationAttributes
 	declare bytes: number;
 	declare placeholder: string;
 	declare variants: StoredVariant[];
+	/** processing: the original waits for the background job; only `ready` photos are shown. */
+	declare state: CreationOptional<PhotoState>;
+	declare variantsDone: CreationOptional<number>;
+	declare variantsTotal: CreationOptional<number>;
+	/** Why processing failed, in words for the uploader. */
+	declare failure: CreationOptional<string | null>;
+	/** The checked upload under its own random key (never served), until processing ends. */
+	declare originalKey: CreationOptional<string | null>;
+	declare attempts: CreationOptional<number>;
+	declare attemptId: CreationOptional<string | null>;
+	declare leaseUntil: CreationOptional<Date | null>;
 	declare caption: CreationOptional<string>;
 	declare altText: CreationOptional<string>;
 	declare hiddenAt: CreationOptional<Date | null>;
@@ -57,6 +71,18 @@ export function initPhoto(sequelize: Sequelize) {
 			bytes: { type: DataTypes.BIGINT.UNSIGNED, allowNull: false },
 			placeholder: { type: DataTypes.TEXT, allowNull: false },
 			variants: { type: DataTypes.JSON, allowNull: false },
+			state: {
+				type: DataTypes.ENUM(...PHOTO_STATES),
+				allowNull: false,
+				defaultValue: 'ready'
+			},
+			variantsDone: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 0 },
+			variantsTotal: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 0 },
+			failure: { type: DataTypes.STRING(300), allowNull: true },
+			originalKey: { type: DataTypes.STRING(80), allowNull: true },
+			attempts: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 0 },
+			attemptId: { type: DataTypes.CHAR(36), allowNull: true },
+			leaseUntil: { type: DataTypes.DATE(3), allowNull: true },
 			caption: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
 			altText: { type: DataTypes.STRING(300), allowNull: false, defaultValue: '' },
 			hiddenAt: { type: DataTypes.DATE, allowNull: true },
