@@ -340,6 +340,15 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	// Deletes are JSON like the rest of the API, so the form body is a 415 as well.
 	'POST /api/v1/guides/[slug=slug]/photos': everyone('ok'),
 	'DELETE /api/v1/guides/[slug=slug]/photos/[id=id]': everyone('ok'),
+	// An upload's processing status: its guide's author only (the sample id names no photo, so
+	// the demo author gets 404 too; photos.e2e.ts follows a real upload to ready).
+	'GET /api/v1/guides/[slug=slug]/photos/[id=id]': {
+		visitor: 'signin',
+		reader: 'notfound',
+		author: 'notfound',
+		editor: 'notfound',
+		admin: 'notfound'
+	},
 	'POST /api/v1/parts/[slug=slug]/photos': everyone('ok'),
 	'DELETE /api/v1/parts/[slug=slug]/photos/[id=id]': everyone('ok'),
 	'POST /api/v1/builds/[id=id]/photos': everyone('ok'),

@@ -101,9 +101,13 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 	await author.goto(`/my/guides/${slug}/edit`);
 
 	await author.getByTestId('photo-input').setInputFiles(await threePhotos());
-	// Each file gets its own row with a progress bar while it uploads or is processed.
+	// Each file gets its own row with a progress bar while it uploads, then one fed by the
+	// photo's status while the server makes its sizes in the background (one photo at a time).
 	await expect(author.getByTestId('upload')).toHaveCount(3);
 	await expect(author.locator('[data-testid=upload] progress').first()).toBeVisible();
+	await expect(author.getByTestId('processing-progress').first()).toBeVisible({
+		timeout: 60_000
+	});
 	await expect(author.getByTestId('upload-phase').filter({ hasText: 'Done' })).toHaveCount(3, {
 		timeout: 120_000
 	});
@@ -208,8 +212,31 @@ test('a JPEG with EXIF GPS: no served variant carries EXIF or GPS, and files com
 		headers: { origin: BASE_URL }
 	});
 	expect(response.status()).toBe(201);
-	const photo = (await response.json()) as { variants: { url: string; format: string }[] };
-	expect(photo.variants.length).toBeGreaterThanOrEqual(5);
+	type Status = {
+		state: string;
+		statusUrl: string;
+		progress: { done: number; total: number };
+		variants: { url: string; format: string }[];
+	};
+	// Accepted at once; the sizes are made in the background.
+	const photo = (await response.json()) as Status;
+	expect(photo.state).toBe('processing');
+	expect(response.headers()['location']).toBe(photo.statusUrl);
+	// EXIF orientation 6 turns 2000 × 1200 into 1200 × 2000: 480 and 960 in AVIF and WebP,
+	// one JPEG at 960 = 5 files (the width rule of domain/photo-variants.ts, counted by hand).
+	expect(photo.progress).toEqual({ done: 0, total: 5 });
+	expect(photo.variants).toHaveLength(5);
+	let status = photo;
+	await expect
+		.poll(
+			async () => {
+				status = (await (await author.request.get(photo.statusUrl)).json()) as Status;
+				return status.state;
+			},
+			{ timeout: 60_000 }
+		)
+		.toBe('ready');
+	expect(status.progress).toEqual({ done: 5, total: 5 });
 	for (const variant of photo.variants) {
 		const file = await author.request.get(variant.url);
 		expect(file.status()).toBe(200);
@@ -275,4 +302,61 @@ test('bad files: 413 with the limit, 415 for SVG and non-multipart, 422 for a bo
 		0
 	);
 	for (const page of [author, visitor, reader]) await page.context().close();
+});
+
+/** A large drawn noise image (20 megapixels): its sizes take the server a few seconds. */
+function slowPhoto() {
+	return sharp({
+		create: {
+			width: 5000,
+			height: 4000,
+			channels: 3,
+			background: '#6b7a86',
+			noise: { type: 'gaussian', mean: 120, sigma: 30 }
+		}
+	})
+		.jpeg({ quality: 80 })
+		.toBuffer();
+}
+
+test('cancel while the server processes removes the photo; retry uploads it again and it ends ready', async ({
+	browser
+}) => {
+	test.setTimeout(180_000);
+	await forgetCounts('photo_user');
+	const author = await signedIn(browser, AUTHOR);
+	const slug = await draftGuide(author.request, `Cancel run ${Date.now()}`);
+	await author.goto(`/my/guides/${slug}/edit`);
+	const posted = author.waitForResponse(
+		(r) => r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST'
+	);
+	await author
+		.getByTestId('photo-input')
+		.setInputFiles({ name: 'busy.jpg', mimeType: 'image/jpeg', buffer: await slowPhoto() });
+	const accepted = (await (await posted).json()) as { id: number; statusUrl: string };
+	const row = author.getByTestId('upload');
+	await expect(row.getByTestId('processing-progress')).toBeVisible();
+	await expect(row.getByTestId('upload-phase')).toHaveText('Processing');
+	// 5000 px wide: 480, 960 and 1600 in AVIF and WebP plus one JPEG = 7 sizes (counted by hand).
+	await expect(row.getByTestId('processing-count')).toHaveText(/· [0-6] of 7 sizes/);
+	await row.getByRole('button', { name: 'Cancel' }).click();
+	await expect(row.getByTestId('upload-phase')).toHaveText('Cancelled');
+	// The photo is gone from the server: its status answers 404 and the editor lists nothing.
+	await expect
+		.poll(
+			async () =>
+				(await author.request.get(accepted.statusUrl, { failOnStatusCode: false })).status(),
+			{ timeout: 10_000 }
+		)
+		.toBe(404);
+	await expect(author.getByTestId('gallery-item')).toHaveCount(0);
+
+	await row.getByRole('button', { name: 'Retry' }).click();
+	await expect(row.getByTestId('upload-phase')).toHaveText('Done', { timeout: 120_000 });
+	await expect(author.getByTestId('gallery-item')).toHaveCount(1);
+	await author.reload();
+	// After a reload (the draft was not saved) the server holds only the photo from the retry:
+	// one unplaced photo, the cancelled one gone.
+	await expect(author.getByRole('button', { name: 'Add to gallery' })).toHaveCount(1);
+	await author.context().close();
 });

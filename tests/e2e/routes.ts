@@ -30,7 +30,9 @@ export const ROUTE_PARAMS: Record<string, Record<string, string>> = {
 	'/api/v1/builds/[id=id]': { id: '999999' },
 	'/api/v1/builds/[id=id]/slots': { id: '999999' },
 	'/api/v1/builds/[id=id]/slots/[slotId=id]': { id: '999999', slotId: '999999' },
-	'/api/v1/builds/[id=id]/export.csv': { id: '999999' }
+	'/api/v1/builds/[id=id]/export.csv': { id: '999999' },
+	// The demo author's guide, and a photo id no photo has.
+	'/api/v1/guides/[slug=slug]/photos/[id=id]': { slug: 'steady-1080p-starter', id: '999999' }
 };
 
 export const SAMPLE_PARAMS: Record<string, string> = {

@@ -17,6 +17,8 @@ export interface UploadEntry {
 	message: string | null;
 	/** 0–1 of the files the server has made (null until it reports any). */
 	processed: number | null;
+	/** The same as counts, for the words beside the bar. */
+	sizes: { done: number; total: number } | null;
 	/** The photo's status URL while the server holds a row for this upload. */
 	statusUrl: string | null;
 }
@@ -69,6 +71,7 @@ export class PhotoUploads {
 				sent: 0,
 				message: null,
 				processed: null,
+				sizes: null,
 				statusUrl: null
 			});
 		}
@@ -100,9 +103,12 @@ export class PhotoUploads {
 		const url = entry?.statusUrl;
 		if (!entry || !url || entry.phase === 'done') return;
 		entry.statusUrl = null;
-		await fetch(url, { method: 'DELETE', headers: { accept: 'application/json' } }).catch(
-			() => undefined
-		);
+		// The API takes JSON bodies only, DELETE included.
+		await fetch(url, {
+			method: 'DELETE',
+			headers: { 'content-type': 'application/json', accept: 'application/json' },
+			body: '{}'
+		}).catch(() => undefined);
 	}
 
 	#stopPolling(id: number) {
@@ -129,7 +135,11 @@ export class PhotoUploads {
 			this.#pump();
 			return;
 		}
-		this.#set(id, { processed: total > 0 ? done / total : 0, statusUrl: status.statusUrl });
+		this.#set(id, {
+			processed: total > 0 ? done / total : 0,
+			sizes: { done, total },
+			statusUrl: status.statusUrl
+		});
 		this.#polls.set(
 			id,
 			setTimeout(async () => {
