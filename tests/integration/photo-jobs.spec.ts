@@ -10,7 +10,7 @@ import sharp from 'sharp';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { createGuideInput } from '../../src/lib/schemas/guide-editor';
-import { Guide, Photo, Region, User, sequelize } from '../../src/lib/server/db';
+import { Guide, Part, Photo, Region, User, sequelize } from '../../src/lib/server/db';
 import {
 	GAVE_UP_MESSAGE,
 	PhotoWorker,
@@ -223,6 +223,35 @@ for (const driver of photoStoreDrivers()) {
 			expect(failed?.state).toBe('failed');
 			expect(failed?.message).toMatch(/no longer there/);
 			expect(await store.list('')).toEqual([]);
+		});
+
+		it('a part photo is processed while the editor waits, through the same job, and answers ready', async () => {
+			await Part.create({
+				category: 'fan',
+				brand: 'Draftwell',
+				model: 'Breeze 120',
+				slug: 'draftwell-breeze-120',
+				specs: { sizeMm: 120, count: 1, maxRpm: 1500 }
+			});
+			const editor = await User.create({
+				email: 'eve@example.test',
+				name: 'Eve Editor',
+				role: 'editor'
+			});
+			const outcome = await photos.upload(
+				{ id: editor.id, role: 'editor' },
+				{ kind: 'part', slug: 'draftwell-breeze-120' },
+				await large(),
+				{ caption: '', altText: 'The fan from the front' }
+			);
+			if (outcome.kind !== 'ok') throw new Error(outcome.kind);
+			expect(outcome.photo.variants).toHaveLength(7);
+			const row = await Photo.findByPk(outcome.photo.id);
+			expect(row?.state).toBe('ready');
+			expect(row?.attempts).toBe(1);
+			expect(await store.list('originals/')).toEqual([]);
+			// Nothing left for the background worker.
+			expect(await worker().runOnce()).toBe(false);
 		});
 
 		it('cancelled while processing: the row, the original and every file made go', async () => {
