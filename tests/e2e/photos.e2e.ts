@@ -1,3 +1,5 @@
+import { readdir, rm, stat } from 'node:fs/promises';
+import { join, resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
 import type { APIRequestContext, Browser, Page } from '@playwright/test';
 import exifr from 'exifr';
@@ -358,5 +360,65 @@ test('cancel while the server processes removes the photo; retry uploads it agai
 	// After a reload (the draft was not saved) the server holds only the photo from the retry:
 	// one unplaced photo, the cancelled one gone.
 	await expect(author.getByRole('button', { name: 'Add to gallery' })).toHaveCount(1);
+	await author.context().close();
+});
+
+/** Where the app under test keeps originals waiting for processing (the disk store, per database). */
+const ORIGINALS = resolve(
+	import.meta.dirname,
+	'../../.data/uploads',
+	process.env.DB_NAME ?? 'slotwise_e2e',
+	'originals'
+);
+
+async function newestOriginal(): Promise<string> {
+	const names = await readdir(ORIGINALS);
+	const dated = await Promise.all(
+		names.map(async (n) => ({ n, t: (await stat(join(ORIGINALS, n))).mtimeMs }))
+	);
+	const newest = dated.sort((a, b) => b.t - a.t)[0];
+	if (!newest) throw new Error('no original waiting');
+	return join(ORIGINALS, newest.n);
+}
+
+test('processing that fails shows the reason and a retry, and the retry ends ready', async ({
+	browser
+}) => {
+	test.setTimeout(180_000);
+	await forgetCounts('photo_user');
+	const author = await signedIn(browser, AUTHOR);
+	const slug = await draftGuide(author.request, `Failing run ${Date.now()}`);
+	await author.goto(`/my/guides/${slug}/edit`);
+	const isPost = (r: { url(): string; request(): { method(): string } }) =>
+		r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST';
+	const big = await slowPhoto();
+	// The first photo keeps the one worker of this app process busy for a few seconds...
+	let posted = author.waitForResponse(isPost);
+	await author
+		.getByTestId('photo-input')
+		.setInputFiles({ name: 'busy.jpg', mimeType: 'image/jpeg', buffer: big });
+	expect((await posted).status()).toBe(201);
+	posted = author.waitForResponse(isPost);
+	await author
+		.getByTestId('photo-input')
+		.setInputFiles({ name: 'lost.jpg', mimeType: 'image/jpeg', buffer: big });
+	expect((await posted).status()).toBe(201);
+	// ...while the second waits its turn, the store loses its original (a real failure the
+	// request could not have seen).
+	await rm(await newestOriginal());
+	const lost = author.getByTestId('upload').filter({ hasText: 'lost.jpg' });
+	await expect(lost.getByTestId('upload-phase')).toHaveText('Failed', { timeout: 60_000 });
+	await expect(lost.getByRole('alert')).toHaveText(
+		'The uploaded file is no longer there. Upload it again.'
+	);
+	const busy = author.getByTestId('upload').filter({ hasText: 'busy.jpg' });
+	await expect(busy.getByTestId('upload-phase')).toHaveText('Done', { timeout: 60_000 });
+
+	await lost.getByRole('button', { name: 'Retry' }).click();
+	await expect(lost.getByTestId('upload-phase')).toHaveText('Done', { timeout: 120_000 });
+	await expect(author.getByTestId('gallery-item')).toHaveCount(2);
+	await author.reload();
+	// The failed photo was removed by the retry: the server holds the two ready ones only.
+	await expect(author.getByRole('button', { name: 'Add to gallery' })).toHaveCount(2);
 	await author.context().close();
 });
