@@ -1,4 +1,4 @@
-import { readdir, rm, stat } from 'node:fs/promises';
+import { readdir, rm } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
 import type { APIRequestContext, Browser, Page } from '@playwright/test';
@@ -371,14 +371,8 @@ const ORIGINALS = resolve(
 	'originals'
 );
 
-async function newestOriginal(): Promise<string> {
-	const names = await readdir(ORIGINALS);
-	const dated = await Promise.all(
-		names.map(async (n) => ({ n, t: (await stat(join(ORIGINALS, n))).mtimeMs }))
-	);
-	const newest = dated.sort((a, b) => b.t - a.t)[0];
-	if (!newest) throw new Error('no original waiting');
-	return join(ORIGINALS, newest.n);
+async function originals(): Promise<string[]> {
+	return readdir(ORIGINALS).catch(() => []);
 }
 
 test('processing that fails shows the reason and a retry, and the retry ends ready', async ({
@@ -390,15 +384,18 @@ test('processing that fails shows the reason and a retry, and the retry ends rea
 	const slug = await draftGuide(author.request, `Failing run ${Date.now()}`);
 	await author.goto(`/my/guides/${slug}/edit`);
 	const big = await slowPhoto();
-	// Three large photos sent over the API keep the one worker of this app process busy for
-	// several seconds (one photo at a time)...
-	for (let i = 0; i < 3; i++) {
+	// Six large photos sent over the API keep the one worker of this app process busy for
+	// several seconds (one photo at a time, oldest first)...
+	const busyStatus: string[] = [];
+	for (let i = 0; i < 6; i++) {
 		const busy = await author.request.post(`/api/v1/guides/${slug}/photos`, {
 			multipart: { file: { name: `busy-${i}.jpg`, mimeType: 'image/jpeg', buffer: big } },
 			headers: { origin: BASE_URL }
 		});
 		expect(busy.status()).toBe(201);
+		busyStatus.push(((await busy.json()) as { statusUrl: string }).statusUrl);
 	}
+	const before = new Set(await originals());
 	const posted = author.waitForResponse(
 		(r) => r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST'
 	);
@@ -406,9 +403,17 @@ test('processing that fails shows the reason and a retry, and the retry ends rea
 		.getByTestId('photo-input')
 		.setInputFiles({ name: 'lost.jpg', mimeType: 'image/jpeg', buffer: big });
 	const accepted = (await (await posted).json()) as { statusUrl: string };
-	// ...while this one waits its turn, the store loses its original: a real failure the
-	// request could not have seen.
-	await rm(await newestOriginal());
+	// ...while this one waits its turn, the store loses its original (the one file that
+	// appeared with this upload): a real failure the request could not have seen.
+	const added = (await originals()).filter((name) => !before.has(name));
+	expect(added).toHaveLength(1);
+	// The worker has not started the last busy photo, so it cannot have read this one yet.
+	const last = (await (await author.request.get(busyStatus.at(-1) ?? '')).json()) as {
+		state: string;
+		progress: { done: number };
+	};
+	expect([last.state, last.progress.done]).toEqual(['processing', 0]);
+	await rm(join(ORIGINALS, added[0] ?? ''));
 	const lost = author.getByTestId('upload');
 	await expect(lost.getByTestId('upload-phase')).toHaveText('Failed', { timeout: 90_000 });
 	await expect(lost.getByRole('alert')).toHaveText(
