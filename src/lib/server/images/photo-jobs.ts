@@ -18,6 +18,7 @@
  */
 import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { BackgroundLoop } from '../jobs/background-loop.js';
 import { claimWithLease } from '../jobs/lease-claim.js';
 import type { ObjectStorage } from '../storage/types.js';
 import { PhotoRejected, processPhoto } from './pipeline.js';
@@ -76,15 +77,24 @@ function log(event: string, detail: Record<string, unknown> = {}): void {
 const DUE = "state = 'processing' AND (lease_until IS NULL OR lease_until < UTC_TIMESTAMP(3))";
 
 export class PhotoWorker {
-	private stopping = false;
-	private loop: Promise<void> | null = null;
-	private wake: (() => void) | null = null;
+	private readonly background: BackgroundLoop;
 
 	constructor(
 		private readonly sequelize: Sequelize,
 		private readonly store: () => ObjectStorage,
 		private readonly settings: PhotoJobSettings
-	) {}
+	) {
+		this.background = new BackgroundLoop(
+			() => this.runOnce(),
+			settings.idleMs,
+			(error) => log('round_failed', { error: String(error) })
+		);
+	}
+
+	/** Set by stop(): claim nothing more, and give up the photo in hand at its next file. */
+	private get stopping(): boolean {
+		return this.background.stopped;
+	}
 
 	/** Claims the oldest waiting photo (or one whose lease ran out) and processes it; false when none. */
 	async runOnce(): Promise<boolean> {
@@ -207,49 +217,22 @@ export class PhotoWorker {
 
 	/** Runs rounds in the background until stop(). */
 	start(): void {
-		if (this.loop) return;
-		this.stopping = false;
-		this.loop = (async () => {
-			while (!this.stopping) {
-				let busy = false;
-				try {
-					busy = await this.runOnce();
-				} catch (error) {
-					log('round_failed', { error: String(error) });
-				}
-				if (!busy && !this.stopping) await this.sleep(this.settings.idleMs);
-			}
-		})();
+		this.background.start();
 	}
 
 	/** Ends the loop after the photo in hand stops at its next file; its lease lets another take it. */
-	async stop(): Promise<void> {
-		this.stopping = true;
-		this.wake?.();
-		await this.loop;
-		this.loop = null;
+	stop(): Promise<void> {
+		return this.background.stop();
 	}
 
 	/** Wakes a sleeping loop (the upload calls it). */
 	poke(): void {
-		this.wake?.();
+		this.background.poke();
 	}
 
 	/** Tests and the seed: rounds until no photo is waiting for a claim. */
 	async drain(): Promise<void> {
 		while (await this.runOnce());
-	}
-
-	private sleep(ms: number): Promise<void> {
-		return new Promise((resolve) => {
-			const done = () => {
-				clearTimeout(timer);
-				this.wake = null;
-				resolve();
-			};
-			const timer = setTimeout(done, ms);
-			this.wake = done;
-		});
 	}
 }
 

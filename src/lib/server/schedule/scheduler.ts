@@ -21,6 +21,7 @@ import { QueryTypes, type Sequelize } from 'sequelize';
 import { isoWeek, utcDay } from '$lib/domain/iso-week';
 import { refreshAll } from '$lib/server/services/guide-prices';
 import { queueWeeklyDigests, type DigestRun } from '$lib/server/services/upkeep-digest';
+import { BackgroundLoop } from '$lib/server/jobs/background-loop';
 
 export type SchedulerLog = (event: string, detail?: Record<string, unknown>) => void;
 
@@ -57,10 +58,8 @@ export class Scheduler {
 	private readonly tickMs: number;
 	private readonly leaseMs: number;
 	private readonly log: SchedulerLog;
-	private stopping = false;
 	private warnedNoOrigin = false;
-	private loop: Promise<void> | null = null;
-	private wake: (() => void) | null = null;
+	private readonly background: BackgroundLoop;
 
 	constructor(options: SchedulerOptions) {
 		this.sequelize = options.sequelize;
@@ -69,6 +68,15 @@ export class Scheduler {
 		this.tickMs = options.tickMs ?? 5 * 60_000;
 		this.leaseMs = options.leaseMs ?? 2 * HOUR_MS;
 		this.log = options.log ?? defaultLog;
+		// Every tick is followed by a full pause: the jobs are due by day and by week.
+		this.background = new BackgroundLoop(
+			async () => {
+				await this.runOnce();
+				return false;
+			},
+			this.tickMs,
+			(error) => this.log('tick_failed', { error: String(error) })
+		);
 	}
 
 	/** Runs whatever is due now: the day's staleness pass, then the week's digests. */
@@ -94,38 +102,12 @@ export class Scheduler {
 
 	/** Ticks in the background until stop(). */
 	start(): void {
-		if (this.loop) return;
-		this.stopping = false;
-		this.loop = (async () => {
-			while (!this.stopping) {
-				try {
-					await this.runOnce();
-				} catch (error) {
-					this.log('tick_failed', { error: String(error) });
-				}
-				if (!this.stopping) await this.sleep(this.tickMs);
-			}
-		})();
+		this.background.start();
 	}
 
 	/** Ends the loop after the job in hand. */
-	async stop(): Promise<void> {
-		this.stopping = true;
-		this.wake?.();
-		await this.loop;
-		this.loop = null;
-	}
-
-	private sleep(ms: number): Promise<void> {
-		return new Promise((resolve) => {
-			const done = () => {
-				clearTimeout(timer);
-				this.wake = null;
-				resolve();
-			};
-			const timer = setTimeout(done, ms);
-			this.wake = done;
-		});
+	stop(): Promise<void> {
+		return this.background.stop();
 	}
 
 	/** Claims (job, period), runs `work`, marks it finished; false when another has it or had it. */

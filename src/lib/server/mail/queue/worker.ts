@@ -27,6 +27,7 @@
 import { createTransport, type Transporter } from 'nodemailer';
 import type SMTPTransport from 'nodemailer/lib/smtp-transport';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { BackgroundLoop } from '../../jobs/background-loop.js';
 import { claimWithLease } from '../../jobs/lease-claim.js';
 import { classifySmtpError, mayRetry, retryDelayMs } from '../../../domain/mail-delivery.js';
 import { prepareMessage } from '../index.js';
@@ -95,9 +96,7 @@ export class MailWorker {
 	private readonly log: WorkerLog;
 	private readonly contents = new MailingContentCache();
 	private readonly jobs: JobLedger;
-	private stopping = false;
-	private loop: Promise<void> | null = null;
-	private wake: (() => void) | null = null;
+	private readonly background: BackgroundLoop;
 
 	constructor(options: MailWorkerOptions) {
 		this.sequelize = options.sequelize;
@@ -109,6 +108,19 @@ export class MailWorker {
 			options.transporter ?? createPooledTransport(this.config, options.settings.concurrency);
 		this.log = options.log ?? defaultLog;
 		this.jobs = new JobLedger(this.sequelize, this.settings.retry, this.log);
+		this.background = new BackgroundLoop(
+			async () => {
+				const round = await this.runOnce();
+				return round.claimed + round.recovered > 0;
+			},
+			this.settings.idleMs,
+			(error) => this.log('round_failed', { error: String(error) })
+		);
+	}
+
+	/** Set by stop(): claim nothing more, start no more sends. */
+	private get stopping(): boolean {
+		return this.background.stopped;
 	}
 
 	/** One round: settle expired leases, then claim and send one batch. */
@@ -124,36 +136,19 @@ export class MailWorker {
 
 	/** Runs rounds in the background until stop(). */
 	start(): void {
-		if (this.loop) return;
-		this.stopping = false;
-		this.log('started', { concurrency: this.settings.concurrency });
-		this.loop = (async () => {
-			while (!this.stopping) {
-				let busy = false;
-				try {
-					const round = await this.runOnce();
-					busy = round.claimed + round.recovered > 0;
-				} catch (error) {
-					this.log('round_failed', { error: String(error) });
-				}
-				if (!busy && !this.stopping) await this.sleep(this.settings.idleMs);
-			}
-		})();
+		if (this.background.start()) this.log('started', { concurrency: this.settings.concurrency });
 	}
 
 	/** Ends the background loop after the jobs in hand; unstarted ones go back to the queue. */
 	async stop(): Promise<void> {
-		this.stopping = true;
-		this.wake?.();
-		await this.loop;
-		this.loop = null;
+		await this.background.stop();
 		if (this.ownsTransporter) this.transporter.close();
 		this.log('stopped');
 	}
 
 	/** Wakes a sleeping loop (the app calls it after queueing mail). */
 	poke(): void {
-		this.wake?.();
+		this.background.poke();
 	}
 
 	/**
@@ -173,18 +168,6 @@ export class MailWorker {
 			if (Date.now() > until) throw new Error('mail queue did not drain in time');
 			await new Promise((r) => setTimeout(r, 25));
 		}
-	}
-
-	private sleep(ms: number): Promise<void> {
-		return new Promise((resolve) => {
-			const done = () => {
-				clearTimeout(timer);
-				this.wake = null;
-				resolve();
-			};
-			const timer = setTimeout(done, ms);
-			this.wake = done;
-		});
 	}
 
 	private async inLanes<T>(items: T[], work: (item: T) => Promise<void>): Promise<void> {
