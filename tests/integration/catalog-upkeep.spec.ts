@@ -266,6 +266,19 @@ describe('parts', () => {
 		).toEqual(['Other_Brand']);
 		expect((await catalogReads.listParts({ q: '', category: 'cpu', page: 1 })).total).toBe(0);
 		expect((await catalogReads.listParts({ q: '', category: 'gpu', page: 1 })).total).toBe(2);
+		// The start of a slug finds every part whose slug begins so, even when no word of the
+		// brand or model does (an import batch's slugs share their first word). A lone "%"
+		// above found nothing through the slug either.
+		await catalogParts.createPart(me.id, {
+			category: 'gpu',
+			brand: 'Example Graphics',
+			model: 'Lumen 70',
+			slug: 'batch7q-lumen-70',
+			specs: GPU_SPECS
+		});
+		expect(
+			(await catalogReads.listParts({ q: 'batch7q', page: 1 })).items.map((p) => p.slug)
+		).toEqual(['batch7q-lumen-70']);
 	});
 });
 

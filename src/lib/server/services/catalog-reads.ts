@@ -18,6 +18,7 @@ import type {
 import type { Paged } from './audit';
 import { pageWindow } from './list-query';
 import { partTextWhere } from './parts';
+import { prefixPattern } from './text-search';
 
 interface PartListRow {
 	id: number;
@@ -31,7 +32,8 @@ interface PartListRow {
 /**
  * Parts whose brand and model hold every word of `q` (the public parts search's rule:
  * full-text words from their start, short words as in text-search.ts, wildcards taken
- * literally), or whose slug is exactly `q` (pasted from an address); optionally one
+ * literally), or whose slug begins with `q` (pasted from an address, or the first word an
+ * import batch's slugs share: a range of the unique slug index); optionally one
  * category; A–Z. Indexed at any catalog size: no LIKE '%q%' over the whole table.
  */
 export async function listParts(options: {
@@ -44,8 +46,8 @@ export async function listParts(options: {
 	const q = options.q.trim();
 	if (q !== '') {
 		const text = await partTextWhere(q);
-		conditions.push(text ? `((${text.where}) OR p.slug = :slug)` : 'p.slug = :slug');
-		Object.assign(replacements, text?.replacements, { slug: q });
+		conditions.push(text ? `((${text.where}) OR p.slug LIKE :slug)` : 'p.slug LIKE :slug');
+		Object.assign(replacements, text?.replacements, { slug: prefixPattern(q) });
 	}
 	if (options.category) {
 		conditions.push('p.category = :category');
