@@ -506,6 +506,21 @@ describe('the full pass of stored list figures on the real MariaDB', () => {
 		});
 		expect(Number(compactDe?.fps_per_100)).toBeCloseTo(27.917867, 6);
 	});
+
+	it('moves the guide-view counter once per pass, not once per page', async () => {
+		// Every move drops each process's guide views and kept answers; a pass paged one
+		// revision at a time over the fixture's two guides must still move it only once.
+		const counter = async () => {
+			const [row] = await sequelize.query<{ value: number }>(
+				"SELECT value FROM cache_generations WHERE name = 'guide-view'",
+				{ type: QueryTypes.SELECT }
+			);
+			return Number(row?.value ?? 0);
+		};
+		const before = await counter();
+		await guidePrices.refreshAll({ batch: 1 });
+		expect(await counter()).toBe(before + 1);
+	});
 });
 
 /*

@@ -56,6 +56,8 @@ export async function refreshRevisions(revisionIds: readonly number[]): Promise<
 	const regions = await Region.findAll();
 	for (let i = 0; i < ids.length; i += BATCH)
 		await refreshBatch(ids.slice(i, i + BATCH), regions, pricedLikeGuidePage);
+	// The same events change the cached guide pages and pricing answers, in every process.
+	await bumpGuideViews();
 }
 
 /** Recomputes every published revision that uses one of these parts (pick or alternate). */
@@ -114,7 +116,7 @@ export async function refreshAll(options: { batch?: number; now?: Date } = {}): 
 			  WHERE published_revision_id > :after ORDER BY published_revision_id LIMIT :limit`,
 			{ type: QueryTypes.SELECT, replacements: { after, limit: batch } }
 		);
-		if (rows.length === 0) return;
+		if (rows.length === 0) break;
 		await refreshBatch(
 			rows.map((r) => Number(r.id)),
 			regions,
@@ -124,6 +126,10 @@ export async function refreshAll(options: { batch?: number; now?: Date } = {}): 
 		);
 		after = Number(rows[rows.length - 1]?.id);
 	}
+	// Once for the whole pass, not per page: each move drops every process's guide views and
+	// kept answers, and a pass of 10,000 guides has 40 pages. The lists read the new figures
+	// from the next request on.
+	await bumpGuideViews();
 }
 
 /*
@@ -329,6 +335,4 @@ async function refreshBatch(
 		regions,
 		{ sweep, now }
 	);
-	// The same events change the cached guide pages and pricing answers, in every process.
-	await bumpGuideViews();
 }
