@@ -23,6 +23,7 @@ import { claimWithLease } from '../jobs/lease-claim.js';
 import type { ObjectStorage } from '../storage/types.js';
 import { PhotoRejected, processPhoto } from './pipeline.js';
 import { removePrefix, storeFiles } from './store-photo.js';
+import { positiveSetting as positive } from '../jobs/env-settings.js';
 
 export interface PhotoJobSettings {
 	/** How long a claim lasts without a progress write; each file made renews it. */
@@ -31,14 +32,6 @@ export interface PhotoJobSettings {
 	idleMs: number;
 	/** Claims of one photo before it is marked failed. */
 	maxAttempts: number;
-}
-
-function positive(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
-	const raw = env[name];
-	if (raw === undefined || raw === '') return fallback;
-	const value = Number(raw);
-	if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a positive number`);
-	return value;
 }
 
 /*

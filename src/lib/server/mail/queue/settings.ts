@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import type { RetryPolicy } from '../../../domain/mail-delivery.js';
+import { positiveSetting as positive } from '../../jobs/env-settings.js';
 
 export interface QueueSettings {
 	/** Jobs claimed per round; several rounds run one after another. */
@@ -21,14 +22,6 @@ export interface QueueSettings {
 	/** Sleep when nothing is due. */
 	idleMs: number;
 	retry: RetryPolicy;
-}
-
-function positive(env: NodeJS.ProcessEnv, name: string, fallback: number): number {
-	const raw = env[name];
-	if (raw === undefined || raw === '') return fallback;
-	const value = Number(raw);
-	if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a positive number`);
-	return value;
 }
 
 export function queueSettingsFromEnv(env: NodeJS.ProcessEnv = process.env): QueueSettings {
