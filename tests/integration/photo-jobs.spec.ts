@@ -9,8 +9,7 @@
 import sharp from 'sharp';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createGuideInput } from '../../src/lib/schemas/guide-editor';
-import { Guide, Part, Photo, Region, User, sequelize } from '../../src/lib/server/db';
+import { Guide, Part, Photo, User, sequelize } from '../../src/lib/server/db';
 import {
 	GAVE_UP_MESSAGE,
 	PhotoWorker,
@@ -19,10 +18,8 @@ import {
 import { useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import * as gallery from '../../src/lib/server/services/gallery';
-import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as photos from '../../src/lib/server/services/photos';
-import { resetDatabase } from '../support/db';
-import { photoStoreDrivers } from '../support/photo-stores';
+import { photoStoreDrivers, quietBoxGuide } from '../support/photo-stores';
 
 let store: ObjectStorage;
 let author: User;
@@ -76,28 +73,7 @@ async function watchProgress(id: number, work: Promise<unknown>): Promise<number
 }
 
 beforeEach(async () => {
-	await resetDatabase();
-	await store.delete(await store.list(''));
-	author = await User.create({ email: 'ada@example.test', name: 'Ada Writer', role: 'author' });
-	other = await User.create({ email: 'ben@example.test', name: 'Ben Other', role: 'author' });
-	await Region.create({
-		code: 'us',
-		name: 'United States',
-		currency: 'USD',
-		taxMode: 'exclusive',
-		taxRateBp: 0
-	});
-	const created = await draftEdits.createGuide(
-		author.id,
-		createGuideInput.parse({
-			title: 'Quiet box',
-			summary: 'A quiet build.',
-			targetBudget: '900',
-			baseRegion: 'us',
-			disclosure: 'none'
-		})
-	);
-	expect(created.kind).toBe('created');
+	({ author, other } = await quietBoxGuide(store));
 });
 
 for (const driver of photoStoreDrivers()) {

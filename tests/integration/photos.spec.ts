@@ -9,13 +9,11 @@
 import exifr from 'exifr';
 import sharp from 'sharp';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createGuideInput } from '../../src/lib/schemas/guide-editor';
 import {
 	GalleryPhoto,
 	Guide,
 	GuideRevision,
 	Photo,
-	Region,
 	User,
 	sequelize
 } from '../../src/lib/server/db';
@@ -23,10 +21,8 @@ import { PhotoWorker, photoJobSettingsFromEnv } from '../../src/lib/server/image
 import { useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import { GET as mediaRoute } from '../../src/routes/media/[...key]/+server';
-import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import * as photos from '../../src/lib/server/services/photos';
-import { resetDatabase } from '../support/db';
-import { photoStoreDrivers } from '../support/photo-stores';
+import { photoStoreDrivers, quietBoxGuide } from '../support/photo-stores';
 import {
 	bombPng,
 	elfRenamedJpg,
@@ -45,28 +41,7 @@ let other: User;
 const drivers = photoStoreDrivers();
 
 beforeEach(async () => {
-	await resetDatabase();
-	await store.delete(await store.list(''));
-	author = await User.create({ email: 'ada@example.test', name: 'Ada Writer', role: 'author' });
-	other = await User.create({ email: 'ben@example.test', name: 'Ben Other', role: 'author' });
-	await Region.create({
-		code: 'us',
-		name: 'United States',
-		currency: 'USD',
-		taxMode: 'exclusive',
-		taxRateBp: 0
-	});
-	const created = await draftEdits.createGuide(
-		author.id,
-		createGuideInput.parse({
-			title: 'Quiet box',
-			summary: 'A quiet build.',
-			targetBudget: '900',
-			baseRegion: 'us',
-			disclosure: 'none'
-		})
-	);
-	expect(created.kind).toBe('created');
+	({ author, other } = await quietBoxGuide(store));
 });
 
 const guide = { kind: 'guide', slug: 'quiet-box' } as const;

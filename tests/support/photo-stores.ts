@@ -7,10 +7,14 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { expect } from 'vitest';
+import { createGuideInput } from '../../src/lib/schemas/guide-editor';
+import { Region, User } from '../../src/lib/server/db';
+import * as draftEdits from '../../src/lib/server/services/guide-draft-edits';
 import { diskStorage, storageFromEnv } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import { startS3Fake } from './s3-fake';
 import type { S3Fake } from './s3-fake';
+import { resetDatabase } from './db';
 
 export type PhotoStoreDriver = {
 	name: string;
@@ -50,4 +54,39 @@ export function photoStoreDrivers(): PhotoStoreDriver[] {
 			}
 		}
 	];
+}
+
+/**
+ * The world every photo integration test starts from: empty tables and an empty `store`, two
+ * authors (Ada, who owns the guide, and Ben, who does not), the United States region and
+ * Ada's draft guide "Quiet box" (slug quiet-box).
+ */
+export async function quietBoxGuide(store: ObjectStorage): Promise<{ author: User; other: User }> {
+	await resetDatabase();
+	await store.delete(await store.list(''));
+	const author = await User.create({
+		email: 'ada@example.test',
+		name: 'Ada Writer',
+		role: 'author'
+	});
+	const other = await User.create({ email: 'ben@example.test', name: 'Ben Other', role: 'author' });
+	await Region.create({
+		code: 'us',
+		name: 'United States',
+		currency: 'USD',
+		taxMode: 'exclusive',
+		taxRateBp: 0
+	});
+	const created = await draftEdits.createGuide(
+		author.id,
+		createGuideInput.parse({
+			title: 'Quiet box',
+			summary: 'A quiet build.',
+			targetBudget: '900',
+			baseRegion: 'us',
+			disclosure: 'none'
+		})
+	);
+	expect(created.kind).toBe('created');
+	return { author, other };
 }
