@@ -67,9 +67,12 @@ export function initGuide(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'guides', underscored: true, indexes: [{ fields: ['state'] }] }
 	);
-	// Any write to a guide row may change what the guide lists show: the lists' validator
+	// A write to a guide row may change what the guide lists show: the lists' validator
 	// (http/list-caching.ts) reads this counter, moved once the write has committed. Here in
-	// the model, so every process that writes guides moves it, whatever it has loaded.
+	// the model, so every process that writes guides moves it, whatever it has loaded. A
+	// draft save moves only the row's version (its details live on the revision): the lists
+	// show nothing of that, and authors save often, so it leaves the counter alone.
+	const NOT_LISTED = new Set(['version', 'updatedAt']);
 	for (const hook of [
 		'afterSave',
 		'afterDestroy',
@@ -78,7 +81,8 @@ export function initGuide(sequelize: Sequelize) {
 	] as const) {
 		Guide.addHook(hook, `guide-list-generation-${hook}`, (...args: unknown[]) => {
 			const options = (args.length > 1 ? args[1] : args[0]) as
-				{ transaction?: Transaction | null } | undefined;
+				{ transaction?: Transaction | null; fields?: string[] } | undefined;
+			if (options?.fields && options.fields.every((f) => NOT_LISTED.has(f))) return;
 			const bump = () =>
 				sequelize
 					.query(BUMP_SQL, { type: QueryTypes.INSERT, replacements: { name: GUIDE_LIST } })
