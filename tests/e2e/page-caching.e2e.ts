@@ -235,3 +235,35 @@ test('signed-in people get private answers with their own parts only, never a sh
 	expect(later.body).not.toContain('Tobias Wren');
 	expect(later.body).not.toContain('action="?/report"');
 });
+
+test('the guide lists give visitors a validator both processes honour, moved by an author’s new name', async () => {
+	const LISTS = ['/', '/guides', '/api/v1/guides'];
+	const old: Record<string, string> = {};
+	for (const path of LISTS) {
+		const first = await get(BASE_URL, path);
+		expect(first.response.status, path).toBe(200);
+		expect(first.response.headers.get('cache-control'), path).toBe(PUBLIC);
+		const etag = first.response.headers.get('etag') ?? '';
+		expect(etag, path).toMatch(/^W\/"[^"]+"$/);
+		old[path] = etag;
+		for (const origin of [BASE_URL, second.origin]) {
+			const again = await get(origin, path, { 'if-none-match': etag });
+			expect(again.response.status, `${origin}${path}`).toBe(304);
+		}
+	}
+
+	// The lists show authors' names: a rename on process A changes what B validates.
+	await forgetAddressCounts();
+	const editor = await signIn(BASE_URL, 'editor@slotwise.test');
+	const rename = (name: string) => postForm(BASE_URL, '/account?/profile', { name }, editor);
+	expect((await rename('Dario Vesely Renamed')).status).toBe(200);
+	try {
+		for (const path of LISTS) {
+			const fresh = await get(second.origin, path, { 'if-none-match': old[path] ?? '' });
+			expect(fresh.response.status, path).toBe(200);
+			expect(fresh.response.headers.get('etag'), path).not.toBe(old[path]);
+		}
+	} finally {
+		expect((await rename('Dario Vesely')).status).toBe(200);
+	}
+});

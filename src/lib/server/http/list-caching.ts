@@ -13,12 +13,11 @@
  * Signed-in people pass straight through: their lists carry their own parts.
  */
 import type { Handle } from '@sveltejs/kit';
-import { createHash } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
-import { matchesIfNoneMatch } from '$lib/server/services/guide-view-cache';
+import { matchesIfNoneMatch, weakValidator } from '$lib/server/services/guide-view-cache';
 import { PUBLIC_CACHING } from './caching-policy';
 import { keepOutOfSharedCaches } from './guide-caching';
 import { keepIfPublic, keptAnswer } from './visitor-answers';
@@ -55,17 +54,13 @@ export const conditionalListReads: Handle = async ({ event, resolve }) => {
 		if (!isDatabaseUnavailable(error)) throw error;
 		return resolve(event);
 	}
-	const digest = createHash('sha256')
-		.update(
-			JSON.stringify([
-				stamp,
-				route,
-				event.isDataRequest ? 'data' : 'document',
-				new URL(event.request.url).search
-			])
-		)
-		.digest('base64url');
-	const etag = `W/"l${digest.slice(0, 26)}"`;
+	const etag = weakValidator([
+		'guide-list',
+		stamp,
+		route,
+		event.isDataRequest ? 'data' : 'document',
+		new URL(event.request.url).search
+	]);
 	if (matchesIfNoneMatch(event.request.headers.get('if-none-match'), etag)) {
 		return new Response(null, {
 			status: 304,

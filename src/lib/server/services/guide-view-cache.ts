@@ -147,9 +147,12 @@ export async function priced(
  * nothing different (the order of serialised data, for instance).
  */
 export function validatorOf(stamp: GuideStamp, parts: readonly string[]): string {
-	const digest = createHash('sha256')
-		.update(JSON.stringify([stamp.version, ...parts]))
-		.digest('base64url');
+	return weakValidator([stamp.version, ...parts]);
+}
+
+/** A weak ETag naming everything in `parts` (guide pages here, guide lists in list-caching.ts). */
+export function weakValidator(parts: readonly string[]): string {
+	const digest = createHash('sha256').update(JSON.stringify(parts)).digest('base64url');
 	return `W/"${digest.slice(0, 27)}"`;
 }
 
