@@ -59,7 +59,8 @@ function expectSame(after: Record<string, string>, before: Record<string, string
 describe('a draft of a published guide changes nothing public until approved', () => {
 	beforeAll(async () => {
 		await resetDatabase();
-		await seedDemoCommunity(sequelize);
+		// Seeded on the same clock the review reads with: quotes are dated days before NOW.
+		await seedDemoCommunity(sequelize, NOW);
 		author = (await User.findOne({ where: { email: 'author@slotwise.test' } })) as User;
 		editor = (await User.findOne({ where: { email: 'editor@slotwise.test' } })) as User;
 		reader = (await User.findOne({ where: { email: 'reader@slotwise.test' } })) as User;
