@@ -16,6 +16,7 @@ import type { Handle } from '@sveltejs/kit';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
+import { sharedRead } from '$lib/server/db/shared-reads';
 import { GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
 import { matchesIfNoneMatch, weakValidator } from '$lib/server/services/guide-view-cache';
 import { PUBLIC_CACHING } from './caching-policy';
@@ -28,8 +29,8 @@ export const LIST_ROUTES: ReadonlySet<string> = new Set([
 	'/api/v1/guides'
 ]);
 
-/** Both counters and the day, as one string. */
-async function readListStamp(): Promise<string> {
+/** Both counters and the day, as one string; concurrent visitors share the read (db/shared-reads.ts). */
+const readListStamp = sharedRead(async () => {
 	const rows = await sequelize.query<{ name: string; value: number | string }>(
 		'SELECT name, value FROM cache_generations WHERE name IN (:names)',
 		{ type: QueryTypes.SELECT, replacements: { names: [GUIDE_VIEW, GUIDE_LIST] } }
@@ -40,7 +41,7 @@ async function readListStamp(): Promise<string> {
 		value(GUIDE_LIST),
 		new Date().toISOString().slice(0, 10)
 	]);
-}
+});
 
 export const conditionalListReads: Handle = async ({ event, resolve }) => {
 	const route = event.route.id ?? '';
@@ -48,7 +49,7 @@ export const conditionalListReads: Handle = async ({ event, resolve }) => {
 		return resolve(event);
 	let stamp: string;
 	try {
-		stamp = await readListStamp();
+		stamp = await readListStamp('lists');
 	} catch (error) {
 		// An outage: the page's own load meets it and answers the calm 503.
 		if (!isDatabaseUnavailable(error)) throw error;

@@ -22,6 +22,7 @@
 import { createHash } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
+import { sharedRead } from '$lib/server/db/shared-reads';
 import { GUIDE_VIEW } from './cache-generations';
 import { getGuidePage, mayView } from './guides';
 import type { GuidePageOutcome, GuideViewer, PricedOutcome } from './guides';
@@ -56,8 +57,8 @@ let lastGeneration: string | null = null;
 // Tests that empty the tables, and writes to regions, rates or rules in this process.
 onReferenceChange(() => views.clear());
 
-/** The stamp of the published guide `slug` (one query: guides by its unique slug, the counter by key). */
-export async function readStamp(slug: string, now = new Date()): Promise<GuideStamp | null> {
+/** The stamp's row of the published guide `slug` (one query: guides by its unique slug, the counter by key). */
+async function readStampRow(slug: string): Promise<StampRow | undefined> {
 	const [row] = await sequelize.query<StampRow>(
 		`SELECT g.id AS guideId, g.published_revision_id AS revisionId, g.author_id AS authorId,
 		        g.hidden_at AS hiddenAt, g.updated_at AS updatedAt, u.name AS authorName,
@@ -66,6 +67,22 @@ export async function readStamp(slug: string, now = new Date()): Promise<GuideSt
 		  WHERE g.slug = :slug AND g.state = 'published' AND g.published_revision_id IS NOT NULL`,
 		{ type: QueryTypes.SELECT, replacements: { slug, generation: GUIDE_VIEW } }
 	);
+	return row;
+}
+
+/** A visitor's stamp read joins the same read already under way (db/shared-reads.ts). */
+const readStampRowShared = sharedRead(readStampRow);
+
+/**
+ * The stamp of the published guide `slug`. `shared` (visitors only) lets it join an
+ * identical read already in flight.
+ */
+export async function readStamp(
+	slug: string,
+	now = new Date(),
+	options: { shared?: boolean } = {}
+): Promise<GuideStamp | null> {
+	const row = await (options.shared ? readStampRowShared : readStampRow)(slug);
 	if (!row) return null;
 	const generation = String(row.generation ?? 0);
 	if (generation !== lastGeneration) {
