@@ -89,6 +89,14 @@ import * as mUpkeepAlertsDigestId from './2026.12.14T12.01.00.add-guide-upkeep-a
 import * as mUsersUpkeepDigestSince from './2026.12.14T12.02.00.add-users-upkeep-digest-since.js';
 import * as mScheduledRuns from './2026.12.14T12.03.00.create-scheduled-runs.js';
 import * as mBuildUpdateDeclines from './2026.12.14T12.04.00.create-build-update-declines.js';
+import * as mPartRegionPrices from './2026.12.15T10.00.00.create-part-region-prices.js';
+import * as mPartRegionPriceRefresh from './2026.12.15T10.01.00.create-part-region-price-refresh.js';
+import * as mQuotesInsertPartPrice from './2026.12.15T10.02.00.add-quotes-insert-part-price-trigger.js';
+import * as mQuotesUpdatePartPrice from './2026.12.15T10.03.00.add-quotes-update-part-price-trigger.js';
+import * as mQuotesDeletePartPrice from './2026.12.15T10.04.00.add-quotes-delete-part-price-trigger.js';
+import * as mRegionsTaxPartPrice from './2026.12.15T10.05.00.add-regions-tax-part-price-trigger.js';
+import * as mPartsCategoryPartPrice from './2026.12.15T10.06.00.add-parts-category-part-price-trigger.js';
+import * as mBackfillPartRegionPrices from './2026.12.15T10.07.00.backfill-part-region-prices.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -174,5 +182,13 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.14T12.01.00.add-guide-upkeep-alerts-digest-id': mUpkeepAlertsDigestId,
 	'2026.12.14T12.02.00.add-users-upkeep-digest-since': mUsersUpkeepDigestSince,
 	'2026.12.14T12.03.00.create-scheduled-runs': mScheduledRuns,
-	'2026.12.14T12.04.00.create-build-update-declines': mBuildUpdateDeclines
+	'2026.12.14T12.04.00.create-build-update-declines': mBuildUpdateDeclines,
+	'2026.12.15T10.00.00.create-part-region-prices': mPartRegionPrices,
+	'2026.12.15T10.01.00.create-part-region-price-refresh': mPartRegionPriceRefresh,
+	'2026.12.15T10.02.00.add-quotes-insert-part-price-trigger': mQuotesInsertPartPrice,
+	'2026.12.15T10.03.00.add-quotes-update-part-price-trigger': mQuotesUpdatePartPrice,
+	'2026.12.15T10.04.00.add-quotes-delete-part-price-trigger': mQuotesDeletePartPrice,
+	'2026.12.15T10.05.00.add-regions-tax-part-price-trigger': mRegionsTaxPartPrice,
+	'2026.12.15T10.06.00.add-parts-category-part-price-trigger': mPartsCategoryPartPrice,
+	'2026.12.15T10.07.00.backfill-part-region-prices': mBackfillPartRegionPrices
 };
