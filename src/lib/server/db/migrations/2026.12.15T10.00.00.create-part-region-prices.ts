@@ -11,23 +11,29 @@ import { references } from './columns.js';
  * parts (the next migrations), so every writer of quotes (editor form, CSV import, accepted
  * sightings, approved proposals, seeds, plain SQL) keeps it right inside its own transaction.
  *
- * category is a copy of parts.category, so a category page sorted by price walks
- * (region_id, category, price_key, part_id) without touching parts first.
+ * category, brand and model are copies of the part's: a category page sorted by price walks
+ * (region_id, category, price_key, brand, model, part_id) in order and stops at LIMIT, the
+ * tie-break included (equal prices by brand and model, as the name order). Without brand
+ * and model here every priced part of the range would be joined to parts and sorted first.
  */
 export const up: Migration = async ({ context: qi }) => {
 	await qi.createTable('part_region_prices', {
 		part_id: { ...references('parts', 'CASCADE'), primaryKey: true },
 		region_id: { ...references('regions', 'CASCADE'), primaryKey: true },
 		category: { type: DataTypes.STRING(16), allowNull: false },
+		brand: { type: DataTypes.STRING(80), allowNull: false },
+		model: { type: DataTypes.STRING(120), allowNull: false },
 		// The quote the key came from (a withdrawn or deleted quote's row is recomputed).
 		quote_id: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
 		// Minor units with the four decimals MariaDB's division gives (part-price-key.ts).
 		price_key: { type: DataTypes.DECIMAL(30, 4), allowNull: false }
 	});
-	await qi.addIndex('part_region_prices', ['region_id', 'category', 'price_key', 'part_id'], {
-		name: 'part_region_prices_region_category_key'
-	});
-	await qi.addIndex('part_region_prices', ['region_id', 'price_key', 'part_id'], {
+	await qi.addIndex(
+		'part_region_prices',
+		['region_id', 'category', 'price_key', 'brand', 'model', 'part_id'],
+		{ name: 'part_region_prices_region_category_key' }
+	);
+	await qi.addIndex('part_region_prices', ['region_id', 'price_key', 'brand', 'model', 'part_id'], {
 		name: 'part_region_prices_region_key'
 	});
 };

@@ -14,8 +14,8 @@ export const up: Migration = async ({ context: qi }) => {
 		 MODIFIES SQL DATA
 		 BEGIN
 		   DELETE FROM part_region_prices WHERE part_id = in_part_id AND region_id = in_region_id;
-		   INSERT INTO part_region_prices (part_id, region_id, category, quote_id, price_key)
-		   SELECT q.part_id, q.region_id, p.category, q.id, ${priceKeySql('q', 'r.tax_mode', 'r.tax_rate_bp')}
+		   INSERT INTO part_region_prices (part_id, region_id, category, brand, model, quote_id, price_key)
+		   SELECT q.part_id, q.region_id, p.category, p.brand, p.model, q.id, ${priceKeySql('q', 'r.tax_mode', 'r.tax_rate_bp')}
 		     FROM quotes q
 		     JOIN parts p ON p.id = q.part_id
 		     JOIN regions r ON r.id = q.region_id

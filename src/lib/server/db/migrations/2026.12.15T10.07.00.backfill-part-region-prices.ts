@@ -10,9 +10,9 @@ import { priceKeySql } from './part-price-key.js';
  */
 export const up: Migration = async ({ context: qi }) => {
 	await qi.sequelize.query(
-		`INSERT INTO part_region_prices (part_id, region_id, category, quote_id, price_key)
-		 SELECT part_id, region_id, category, quote_id, price_key FROM (
-		   SELECT q.part_id, q.region_id, p.category, q.id AS quote_id,
+		`INSERT INTO part_region_prices (part_id, region_id, category, brand, model, quote_id, price_key)
+		 SELECT part_id, region_id, category, brand, model, quote_id, price_key FROM (
+		   SELECT q.part_id, q.region_id, p.category, p.brand, p.model, q.id AS quote_id,
 		          ${priceKeySql('q', 'r.tax_mode', 'r.tax_rate_bp')} AS price_key,
 		          ROW_NUMBER() OVER (PARTITION BY q.part_id, q.region_id
 		                             ORDER BY q.observed_at DESC, q.id DESC) AS n
@@ -21,7 +21,8 @@ export const up: Migration = async ({ context: qi }) => {
 		     JOIN regions r ON r.id = q.region_id
 		    WHERE q.status = 'active') latest
 		 WHERE n = 1
-		 ON DUPLICATE KEY UPDATE category = VALUES(category), quote_id = VALUES(quote_id),
+		 ON DUPLICATE KEY UPDATE category = VALUES(category), brand = VALUES(brand),
+		   model = VALUES(model), quote_id = VALUES(quote_id),
 		   price_key = VALUES(price_key)`,
 		{ type: QueryTypes.RAW }
 	);

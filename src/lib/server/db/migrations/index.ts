@@ -95,7 +95,7 @@ import * as mQuotesInsertPartPrice from './2026.12.15T10.02.00.add-quotes-insert
 import * as mQuotesUpdatePartPrice from './2026.12.15T10.03.00.add-quotes-update-part-price-trigger.js';
 import * as mQuotesDeletePartPrice from './2026.12.15T10.04.00.add-quotes-delete-part-price-trigger.js';
 import * as mRegionsTaxPartPrice from './2026.12.15T10.05.00.add-regions-tax-part-price-trigger.js';
-import * as mPartsCategoryPartPrice from './2026.12.15T10.06.00.add-parts-category-part-price-trigger.js';
+import * as mPartsCopyPartPrice from './2026.12.15T10.06.00.add-parts-copy-part-price-trigger.js';
 import * as mBackfillPartRegionPrices from './2026.12.15T10.07.00.backfill-part-region-prices.js';
 
 export const migrations: Record<string, MigrationModule> = {
@@ -189,6 +189,6 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.15T10.03.00.add-quotes-update-part-price-trigger': mQuotesUpdatePartPrice,
 	'2026.12.15T10.04.00.add-quotes-delete-part-price-trigger': mQuotesDeletePartPrice,
 	'2026.12.15T10.05.00.add-regions-tax-part-price-trigger': mRegionsTaxPartPrice,
-	'2026.12.15T10.06.00.add-parts-category-part-price-trigger': mPartsCategoryPartPrice,
+	'2026.12.15T10.06.00.add-parts-copy-part-price-trigger': mPartsCopyPartPrice,
 	'2026.12.15T10.07.00.backfill-part-region-prices': mBackfillPartRegionPrices
 };

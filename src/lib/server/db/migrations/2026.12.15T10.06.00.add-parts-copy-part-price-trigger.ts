@@ -1,13 +1,16 @@
 import { QueryTypes } from 'sequelize';
 import type { Migration } from '../umzug.js';
 
-// part_region_prices.category copies parts.category: a recategorised part moves with it.
+// part_region_prices copies a part's category, brand and model: an edited part moves with it.
 export const up: Migration = async ({ context: qi }) => {
 	await qi.sequelize.query(
 		`CREATE TRIGGER parts_part_price_after_update AFTER UPDATE ON parts FOR EACH ROW
 		 BEGIN
-		   IF NOT (NEW.category <=> OLD.category) THEN
-		     UPDATE part_region_prices SET category = NEW.category WHERE part_id = NEW.id;
+		   IF NOT (NEW.category <=> OLD.category AND NEW.brand <=> OLD.brand
+		       AND NEW.model <=> OLD.model) THEN
+		     UPDATE part_region_prices
+		        SET category = NEW.category, brand = NEW.brand, model = NEW.model
+		      WHERE part_id = NEW.id;
 		   END IF;
 		 END`,
 		{ type: QueryTypes.RAW }
