@@ -3,20 +3,11 @@
  * filters, and one part with its quotes, price history and the published guides using it.
  * Read-only; the editor upkeep pages write parts through their own service.
  */
-import { Op, QueryTypes } from 'sequelize';
+import { Op } from 'sequelize';
 import type { PartCategory } from '$lib/domain/types';
 import { PARTS_PER_PAGE, SPEC_FILTERS, SPEC_FILTER_KEYS } from '$lib/schemas/parts';
 import type { PartSort, SpecFilterDef, SpecFilters } from '$lib/schemas/parts';
-import {
-	Guide,
-	GuideSlot,
-	Part,
-	Quote,
-	Region,
-	SlotAlternate,
-	Store,
-	sequelize
-} from '$lib/server/db';
+import { Guide, GuideSlot, Part, Quote, Region, SlotAlternate, Store } from '$lib/server/db';
 import type {
 	GuideUse,
 	GuideUsingPart,
@@ -29,6 +20,8 @@ import type {
 } from '$lib/views';
 import { regionSummary } from './mappers';
 import { pageWindow } from './list-query';
+import { byName, byPrice } from './part-rows';
+import type { SearchRow } from './part-rows';
 import { priceSlotSets } from './pricing';
 import { allRegions } from './reference-cache';
 import { containsPattern, ftMinTokenSize, prefixPattern, textSearch } from './text-search';
@@ -76,49 +69,6 @@ export class UnknownRegionError extends Error {
 	constructor(readonly code: string) {
 		super(`No region has the code ${code}`);
 	}
-}
-
-interface SearchRow {
-	id: number;
-	slug: string;
-	category: PartCategory;
-	brand: string;
-	model: string;
-	specs: Record<string, unknown> | string;
-}
-
-/*
- * Orders of the catalog; the id tie-break keeps pages stable. Brand and model walk the
- * (brand, model, id) or (category, brand, model, id) index. The price sort's key is the
- * part's latest active quote in the region, the very quote the pricing service prices the
- * part with there (one index dive per part through quotes_part_region_status_observed), put
- * into the region's tax convention as the shown price is (a pre-tax quote in a tax-inclusive
- * region sorts by its amount with tax); parts without a quote there come last.
- */
-const ORDER = {
-	name: 'p.brand ASC, p.model ASC, p.id ASC',
-	price: 'price_key IS NULL, price_key ASC, p.brand ASC, p.model ASC, p.id ASC'
-} as const;
-const PRICE_KEY = `(SELECT CASE
-	    WHEN q.tax_included = :wantsTax OR :taxRateBp = 0 THEN q.amount_minor
-	    WHEN :wantsTax = 1 THEN q.amount_minor * (10000 + :taxRateBp) / 10000
-	    ELSE q.amount_minor * 10000 / (10000 + :taxRateBp) END
-	   FROM quotes q
-	  WHERE q.part_id = p.id AND q.region_id = :regionId AND q.status = 'active'
-	  ORDER BY q.observed_at DESC, q.id DESC LIMIT 1)`;
-
-/** The WHERE of a search: category, the full-text terms and the short words (text-search.ts). */
-async function searchWhere(
-	q: string,
-	category: PartCategory | undefined
-): Promise<{ where: string; replacements: Record<string, unknown> }> {
-	const text = await partTextWhere(q);
-	const conditions = text ? [text.where] : [];
-	if (category) conditions.unshift('p.category = :category');
-	return {
-		where: conditions.length > 0 ? conditions.join(' AND ') : '1 = 1',
-		replacements: { ...text?.replacements, ...(category ? { category } : {}) }
-	};
 }
 
 /**
@@ -172,30 +122,18 @@ export async function search(options: {
 		? ((await allRegions()).find((r) => r.code === options.region) ?? null)
 		: null;
 	if (options.region && !region) throw new UnknownRegionError(options.region);
-	const sort: PartSort = region && options.sort === 'price' ? 'price' : 'name';
 
-	const { where, replacements } = await searchWhere(options.q, options.category);
-	replacements.regionId = region?.id ?? 0;
-	replacements.wantsTax = region?.taxMode === 'inclusive' ? 1 : 0;
-	replacements.taxRateBp = region?.taxRateBp ?? 0;
-	const select = `SELECT p.id, p.slug, p.category, p.brand, p.model, p.specs${
-		sort === 'price' ? `, ${PRICE_KEY} AS price_key` : ''
-	} FROM parts p WHERE ${where} ORDER BY ${ORDER[sort]}`;
+	const match = { category: options.category, text: await partTextWhere(options.q) };
+	// The price sort needs a region (partSearchQuery refuses it without one).
+	const source = region && options.sort === 'price' ? byPrice(match, region.id) : byName(match);
 
 	let rows: SearchRow[];
 	let total: number;
 	let window: ReturnType<typeof pageWindow>;
 	if (filters.length === 0) {
-		const [count] = await sequelize.query<{ n: number }>(
-			`SELECT COUNT(*) AS n FROM parts p WHERE ${where}`,
-			{ type: QueryTypes.SELECT, replacements }
-		);
-		total = Number(count?.n ?? 0);
+		total = await source.count();
 		window = pageWindow(total, options.page, perPage);
-		rows = await sequelize.query<SearchRow>(`${select} LIMIT :limit OFFSET :offset`, {
-			type: QueryTypes.SELECT,
-			replacements: { ...replacements, limit: perPage, offset: window.offset }
-		});
+		rows = await source.page(window.offset, perPage);
 	} else {
 		/*
 		 * Spec filters are applied here in JS, after a query narrowed to one category (the
@@ -203,8 +141,7 @@ export async function search(options: {
 		 * column; past a few thousand parts per category, move the filtered fields to indexed
 		 * generated columns and filter in SQL.
 		 */
-		const all = await sequelize.query<SearchRow>(select, { type: QueryTypes.SELECT, replacements });
-		const matching = all.filter((row) =>
+		const matching = (await source.all()).filter((row) =>
 			filters.every(({ def, value }) => passes(specsOf(row), def, value))
 		);
 		total = matching.length;
