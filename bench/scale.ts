@@ -9,7 +9,9 @@
  * 3. The community grown to the issue's size (bench/lib/scale-data.ts: 10,000 published
  *    guides with revisions and alternates, 100,000 parts, 1,000,000 quotes, 100,000 builds;
  *    batched multi-row INSERTs), then the stored guide prices filled by the product's own
- *    batched refresh (services/guide-prices.ts refreshAll).
+ *    batched refresh (services/guide-prices.ts refreshAll). The catalog's stored price keys
+ *    (part_region_prices) fill as the quotes go in, by the database's own triggers (about
+ *    65 µs per active quote on the development machine, so generating takes longer).
  * 4. The same page benchmarks again at that size, against a fresh app process.
  * 5. The table, with the machine and date and which targets are met, into docs/benchmarks.md.
  *
