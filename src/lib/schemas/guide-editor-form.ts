@@ -22,6 +22,8 @@ import { wholeNumberFromText } from './primitives';
 export interface EditorAlternate {
 	key: string;
 	partId: string;
+	/** A part name or slug typed without JavaScript; the server looks it up (services/part-lookup.ts). */
+	partQuery: string;
 	reasonTag: string;
 	note: string;
 }
@@ -35,6 +37,8 @@ export interface EditorSlot {
 	label: string;
 	quantity: string;
 	pickPartId: string;
+	/** A part name or slug typed without JavaScript; the server looks it up (services/part-lookup.ts). */
+	pickQuery: string;
 	reason: string;
 	quoteStoreId: string;
 	quoteAmount: string;
@@ -133,6 +137,7 @@ export function emptySlot(category: PartCategory = 'cpu', key = newKey()): Edito
 		label: '',
 		quantity: '1',
 		pickPartId: '',
+		pickQuery: '',
 		reason: '',
 		quoteStoreId: '',
 		quoteAmount: '',
@@ -142,7 +147,7 @@ export function emptySlot(category: PartCategory = 'cpu', key = newKey()): Edito
 }
 
 export function emptyAlternate(key = newKey()): EditorAlternate {
-	return { key, partId: '', reasonTag: 'lower_price', note: '' };
+	return { key, partId: '', partQuery: '', reasonTag: 'lower_price', note: '' };
 }
 
 export function emptyFrame(key = newKey()): EditorFrame {
@@ -173,6 +178,7 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			label: s.label,
 			quantity: String(s.quantity),
 			pickPartId: String(s.pickPartId),
+			pickQuery: '',
 			reason: s.reason,
 			quoteStoreId: s.priceQuote ? String(s.priceQuote.storeId) : '',
 			quoteAmount: s.priceQuote?.amount ?? '',
@@ -180,6 +186,7 @@ export function fromDraft(d: DraftLike): EditorDraft {
 			alternates: s.alternates.map((a, j) => ({
 				key: `${s.slotKey}a${j}`,
 				partId: String(a.partId),
+				partQuery: '',
 				reasonTag: a.reasonTag,
 				note: a.note
 			}))
@@ -207,8 +214,9 @@ export function fromDraft(d: DraftLike): EditorDraft {
 
 /**
  * The most rows the editor sends, from draftInput's own limits, and the most fields a form
- * of that size has (a slot is 10 fields plus 4 per alternate; a frame row 7, a thermal row 6;
- * a photo 4; the rest about 30: 2,601 in all), with room to spare.
+ * of that size has (a slot is 11 fields plus 5 per alternate, the typed part names of the
+ * no-JS form included; a frame row 7, a thermal row 6; a photo 4; the rest about 30: 3,040
+ * in all), with room to spare.
  */
 export const EDITOR_FORM_LIMITS = {
 	slots: DRAFT_LIMITS.slots,
@@ -216,7 +224,7 @@ export const EDITOR_FORM_LIMITS = {
 	frames: DRAFT_LIMITS.frames,
 	thermals: DRAFT_LIMITS.thermals,
 	gallery: GALLERY_MAX_PHOTOS,
-	fields: 3000
+	fields: 3500
 } as const;
 
 const SLOT_FIELDS = [
@@ -226,12 +234,13 @@ const SLOT_FIELDS = [
 	'label',
 	'quantity',
 	'pickPartId',
+	'pickQuery',
 	'reason',
 	'quoteStoreId',
 	'quoteAmount',
 	'quoteObservedAt'
 ] as const;
-const ALTERNATE_FIELDS = ['key', 'partId', 'reasonTag', 'note'] as const;
+const ALTERNATE_FIELDS = ['key', 'partId', 'partQuery', 'reasonTag', 'note'] as const;
 const FRAME_FIELDS = [
 	'key',
 	'workload',
