@@ -296,4 +296,23 @@ describe('parts search, price column and price sort', () => {
 		const parsed = parsePartSearchStrict(new URLSearchParams('sort=cheapest&region=de'));
 		expect(parsed.ok ? null : parsed.issues.sort).toEqual(['Sort by one of: name, price.']);
 	});
+
+	it('answers each part with the id the pickers post and the draft, build and fit APIs take', async () => {
+		const answer = await partsRoute({
+			url: new URL('http://x.test/api/v1/parts?q=ridge&category=case')
+		} as Parameters<typeof partsRoute>[0]);
+		expect(answer.status).toBe(200);
+		const stored = await Part.findOne({ where: { slug: slugOf.P4 } });
+		expect(((await answer.json()) as { items: unknown[] }).items).toEqual([
+			{
+				id: stored?.id,
+				slug: 'orvel-ridge',
+				category: 'case',
+				brand: 'Orvel',
+				model: 'Ridge',
+				specs: {},
+				price: null
+			}
+		]);
+	});
 });

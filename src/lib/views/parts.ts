@@ -5,6 +5,8 @@ import type { Money, PartCategory, QuoteStatus } from '$lib/domain/types';
 import type { PriceLine, RegionSummary } from './guide';
 
 export interface PartSummary {
+	/** The id the draft, build and fit APIs take (`partId`, `pickPartId`); the pickers post it. */
+	id: number;
 	slug: string;
 	category: PartCategory;
 	brand: string;

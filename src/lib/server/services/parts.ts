@@ -60,8 +60,12 @@ function activeFilters(category: PartCategory | undefined, specFilters: SpecFilt
 	return active;
 }
 
-function toSummary(p: Part): PartSummary {
-	return { slug: p.slug, category: p.category, brand: p.brand, model: p.model, specs: p.specs };
+/** A part row (model or raw query) as pages and the API show it. */
+function toSummary(
+	p: Pick<Part, 'id' | 'slug' | 'category' | 'brand' | 'model'> & { specs: unknown }
+): PartSummary {
+	const { slug, category, brand, model } = p;
+	return { id: Number(p.id), slug, category, brand, model, specs: specsOf(p) };
 }
 
 /** The region code names no region (the routes answer it as a field error). */
@@ -150,7 +154,7 @@ export async function search(options: {
 	}
 	const prices = region ? await pricesIn(rows, region) : rows.map(() => null);
 	return {
-		items: rows.map((row, i) => ({ ...summaryOf(row), price: prices[i] ?? null })),
+		items: rows.map((row, i) => ({ ...toSummary(row), price: prices[i] ?? null })),
 		region: region ? regionSummary(region) : null,
 		total,
 		page: window.page,
@@ -158,18 +162,11 @@ export async function search(options: {
 	};
 }
 
-const specsOf = (row: SearchRow): Record<string, unknown> =>
-	typeof row.specs === 'string' ? (JSON.parse(row.specs) as Record<string, unknown>) : row.specs;
-
-function summaryOf(row: SearchRow): PartSummary {
-	return {
-		slug: row.slug,
-		category: row.category,
-		brand: row.brand,
-		model: row.model,
-		specs: specsOf(row)
-	};
-}
+/** Specs as stored; a raw query's JSON column may arrive as text. */
+const specsOf = (p: { specs: unknown }): Record<string, unknown> =>
+	typeof p.specs === 'string'
+		? (JSON.parse(p.specs) as Record<string, unknown>)
+		: (p.specs as Record<string, unknown>);
 
 /**
  * Each part's price in `region` through the pricing service, the page's parts in one set:
