@@ -232,3 +232,98 @@ test('fork, swap, re-price, track purchases, then sync a newer revision with one
 	expect(slotRows.find((r) => r.slot === 'Case')?.paid).toBe('99.00');
 	for (const page of [reader, author, editor]) await page.context().close();
 });
+
+test('an owner adds a slot and swaps its part: searched with JavaScript, typed by name or slug without it; the page carries no catalog', async ({
+	browser
+}) => {
+	test.setTimeout(90_000);
+	const reader = await signedIn(browser, READER);
+	const forked = await reader.request.post('/api/v1/guides/quiet-4k-play-and-work/fork', {
+		data: {}
+	});
+	expect(forked.status()).toBe(201);
+	const { id } = (await forked.json()) as { id: number };
+	const buildUrl = `/builds/${id}`;
+
+	// The owner's page names the build's parts, not the catalog: a CPU this build does not use
+	// (the demo's Halvard Strata 606X) is nowhere in it.
+	const html = await (await reader.request.get(buildUrl)).text();
+	expect(html).toContain('orrin-labs-meridian-765kf');
+	expect(html).not.toContain('halvard-strata-606x');
+	expect(html).not.toContain('Strata 606X');
+
+	// With JavaScript: the part is searched as you type and chosen with the keyboard.
+	await reader.goto(buildUrl);
+	await reader.locator('summary', { hasText: 'Add a slot' }).click();
+	const add = reader.locator('form[action="?/addSlot"]');
+	await add.getByLabel('Category').selectOption('storage');
+	await add.getByLabel('Label').fill('Scratch drive');
+	const part = add.getByRole('combobox', { name: 'Part' });
+	await part.fill('no such drive');
+	await expect(add.getByRole('listbox').getByText('No matching part.')).toBeVisible();
+	await part.press('Escape');
+	await expect(add.getByRole('listbox')).toHaveCount(0);
+	await part.fill('c4 1');
+	await expect(add.getByRole('option', { name: 'Cindral C4 1 TB', exact: true })).toBeVisible();
+	await part.press('ArrowDown');
+	await part.press('Enter');
+	await expect(add.getByTestId('chosen-part')).toHaveText('Cindral C4 1 TB');
+	await add.getByRole('button', { name: 'Add slot' }).click();
+	await expect(reader.getByText('Slot added.')).toBeVisible();
+	await expect(slot(reader, 'Scratch drive').getByTestId('slot-part')).toHaveText(
+		'Cindral C4 1 TB'
+	);
+	// The swap's search answers parts of the slot's category; each is a button.
+	const scratch = slot(reader, 'Scratch drive');
+	await scratch.locator('summary', { hasText: 'Other part' }).click();
+	await scratch.getByLabel('Find another part').fill('c4 2');
+	await scratch.getByRole('button', { name: 'Cindral C4 2 TB for Scratch drive' }).click();
+	await expect(reader.getByText('Swapped.')).toBeVisible();
+	await expect(slot(reader, 'Scratch drive').getByTestId('slot-part')).toHaveText(
+		'Cindral C4 2 TB'
+	);
+
+	// Without JavaScript: the part is typed; the server looks it up when the form is posted.
+	const context = await browser.newContext({ javaScriptEnabled: false });
+	const plain = await context.newPage();
+	await signInWithPassword(plain, READER);
+	await plain.goto(buildUrl);
+	await plain.locator('summary', { hasText: 'Add a slot' }).click();
+	const form = plain.locator('form[action="?/addSlot"]');
+	await form.getByLabel('Category').selectOption('storage');
+	await form.getByLabel('Label').fill('Archive drive');
+	await form.getByLabel('Part', { exact: true }).fill('cindral');
+	await form.getByRole('button', { name: 'Add slot' }).click();
+	// Four Cindral drives (demo catalog): listed by model, with their slugs; nothing typed is lost.
+	const refused = plain.locator('form[action="?/addSlot"]');
+	await expect(
+		refused.getByText(
+			'Several parts match "cindral": Cindral C3 1 TB (cindral-c3-1tb), Cindral C4 1 TB (cindral-c4-1tb), Cindral C4 2 TB (cindral-c4-2tb), Cindral C5 2 TB (cindral-c5-2tb); type more of the name.'
+		)
+	).toBeVisible();
+	await expect(refused.getByLabel('Part', { exact: true })).toHaveValue('cindral');
+	await expect(refused.getByLabel('Label')).toHaveValue('Archive drive');
+	await expect(refused.getByLabel('Category')).toHaveValue('storage');
+	await refused.getByLabel('Part', { exact: true }).fill('cindral-c5-2tb');
+	await refused.getByRole('button', { name: 'Add slot' }).click();
+	await expect(plain.getByText('Slot added.')).toBeVisible();
+	await expect(slot(plain, 'Archive drive').getByTestId('slot-part')).toHaveText('Cindral C5 2 TB');
+
+	const archive = slot(plain, 'Archive drive');
+	await archive.locator('summary', { hasText: 'Other part' }).click();
+	await archive.getByLabel('Another part').fill('halvard-strata-606');
+	await archive.getByRole('button', { name: 'Use this part' }).click();
+	const after = slot(plain, 'Archive drive');
+	await expect(
+		after.getByText('Halvard Strata 606 (halvard-strata-606) is in the category CPU, not Storage.')
+	).toBeVisible();
+	await expect(after.getByLabel('Another part')).toHaveValue('halvard-strata-606');
+	await after.getByLabel('Another part').fill('verrow s2');
+	await after.getByRole('button', { name: 'Use this part' }).click();
+	await expect(plain.getByText('Swapped.')).toBeVisible();
+	await expect(slot(plain, 'Archive drive').getByTestId('slot-part')).toHaveText(
+		'Verrow S2 2 TB SATA'
+	);
+	await context.close();
+	await reader.context().close();
+});

@@ -180,11 +180,10 @@ for (const size of WIDTHS) {
 			const form = page.locator('form[action="?/addSlot"]');
 			await form.getByLabel('Category').selectOption('storage');
 			await form.getByLabel('Label').fill(label);
-			const storage = form.locator('select[name="partId"] optgroup[label="Storage"] option');
-			await form
-				.locator('select[name="partId"]')
-				.selectOption((await storage.first().getAttribute('value')) ?? '');
-			await form.getByRole('button').click();
+			// The part is searched as you type (the page carries no catalog).
+			await form.getByRole('combobox', { name: 'Part' }).fill('c4 1');
+			await form.getByRole('option', { name: 'Cindral C4 1 TB', exact: true }).click();
+			await form.getByRole('button', { name: 'Add slot' }).click();
 			await expect(page.getByTestId('build-slot')).toHaveCount(before + 1);
 			await expect(page.getByRole('listitem', { name: label, exact: true })).toHaveCount(2);
 			await page.reload();

@@ -319,26 +319,66 @@ test('without JavaScript: slots are added and reordered by posting the form, and
 	await expect(page.getByTestId('slot')).toHaveCount(2);
 	const [first, second] = [page.getByTestId('slot').nth(0), page.getByTestId('slot').nth(1)];
 	await first.getByLabel('Label', { exact: true }).fill('First');
+	// The page holds no catalog: a part is typed by name (or slug) and looked up on the server.
+	await first.getByLabel('Pick').fill('strata 60');
 	await second.getByLabel('Category').selectOption({ label: 'Case' });
 	await second.getByLabel('Label', { exact: true }).fill('Second');
-	// The plain select lists the category's parts when the live search cannot run.
-	await second.getByLabel('Pick').selectOption({ label: 'Cairnhouse M Mesh' });
+	await second.getByLabel('Pick').fill('m mesh');
 	await page.getByRole('button', { name: 'Move slot 2 up' }).click();
-	await expect(page.getByTestId('slot').nth(0).getByLabel('Label', { exact: true })).toHaveValue(
-		'Second'
-	);
-	await expect(page.getByTestId('slot').nth(0).getByLabel('Pick')).toHaveValue(/\d+/);
+	const [moved, kept] = [page.getByTestId('slot').nth(0), page.getByTestId('slot').nth(1)];
+	await expect(moved.getByLabel('Label', { exact: true })).toHaveValue('Second');
+	// "m mesh" names one case: it is chosen, by name, and the text field is free again.
+	await expect(moved.getByTestId('chosen-part')).toHaveText('Cairnhouse M Mesh');
+	await expect(moved.getByLabel('Pick')).toHaveValue('');
+	// "strata 60" names several CPUs: the candidates are listed and the text is kept.
+	await expect(
+		kept.getByText(
+			/^Several parts match "strata 60": .*Halvard Strata 606 \(halvard-strata-606\), Halvard Strata 606X \(halvard-strata-606x\).*; type more of the name\.$/
+		)
+	).toBeVisible();
+	await expect(kept.getByLabel('Pick')).toHaveValue('strata 60');
 
-	// The first slot (now second) has no pick: the save answers with a field message, text kept.
+	// A save validates: the slot with no single part keeps its message and everything typed.
 	await page.getByRole('button', { name: 'Save draft' }).click();
 	await expect(page.getByText('Check the highlighted fields.')).toBeVisible();
-	await expect(page.getByTestId('slot').nth(1).getByLabel('Label', { exact: true })).toHaveValue(
-		'First'
-	);
+	await expect(kept.getByLabel('Label', { exact: true })).toHaveValue('First');
+	await expect(kept.getByLabel('Pick')).toHaveValue('strata 60');
+	await expect(kept.getByText(/^Several parts match "strata 60"/)).toBeVisible();
+
+	// Enter in the field looks the text up (it never presses an add, move or remove button).
+	await kept.getByLabel('Pick').fill('no such part here');
+	await kept.getByLabel('Pick').press('Enter');
+	await expect(page.getByTestId('slot')).toHaveCount(2);
+	await expect(
+		kept.getByText('No part matches "no such part here" in the category CPU.')
+	).toBeVisible();
+	await kept.getByLabel('Pick').fill('halvard-strata-606');
+	await kept.getByLabel('Pick').press('Enter');
+	await expect(kept.getByTestId('chosen-part')).toHaveText('Halvard Strata 606');
+
 	await page.getByRole('button', { name: 'Remove slot 2' }).click();
 	await expect(page.getByTestId('slot')).toHaveCount(1);
 	await page.getByTestId('slot').nth(0).getByLabel('Why this part').fill('Small and cheap.');
 	await page.getByRole('button', { name: 'Save draft' }).click();
 	await expect(page.getByText('Saved (revision 1).')).toBeVisible();
+	await expect(page.getByTestId('slot').nth(0).getByTestId('chosen-part')).toHaveText(
+		'Cairnhouse M Mesh'
+	);
 	await context.close();
+});
+
+test('the editor page names only the parts its draft uses, not the whole catalog', async ({
+	page
+}) => {
+	await signInWithPassword(page, AUTHOR);
+	const answer = await page.request.get('/my/guides/steady-1080p-starter/edit');
+	expect(answer.status()).toBe(200);
+	const html = await answer.text();
+	// The draft's CPU pick and one of its alternates are named (demo guide "steady-1080p-starter").
+	expect(html).toContain('Halvard');
+	expect(html).toContain('Strata 406');
+	expect(html).toContain('halvard-strata-408');
+	// A catalog CPU this draft does not use (the balanced 1440p guide's pick) is not in the page.
+	expect(html).not.toContain('halvard-strata-606x');
+	expect(html).not.toContain('Strata 606X');
 });

@@ -1,4 +1,5 @@
 import { getContext, setContext } from 'svelte';
+import { SvelteMap } from 'svelte/reactivity';
 import { applyOp, moveSlot } from '$lib/schemas/guide-editor-form';
 import type { EditorDraft } from '$lib/schemas/guide-editor-form';
 import type { Issues } from '$lib/schemas/issues';
@@ -12,11 +13,14 @@ export class GuideDraftState {
 	draft = $state() as EditorDraft;
 	issues = $state<Issues>({});
 	readonly catalog: EditorCatalog;
+	/** Names of the parts this page has met (id → "Brand Model"): never the whole catalog. */
+	readonly #names = new SvelteMap<string, string>();
 
 	constructor(initial: EditorDraft, catalog: EditorCatalog, issues: Issues = {}) {
 		this.draft = initial;
 		this.catalog = catalog;
 		this.issues = issues;
+		this.remember(catalog.parts);
 	}
 
 	apply(op: string) {
@@ -31,13 +35,13 @@ export class GuideDraftState {
 		return this.issues[path] ?? [];
 	}
 
-	partsOf(category: string) {
-		return this.catalog.parts.filter((p) => p.category === category);
+	/** Parts the page learnt of: picked from a search, or named by an action's answer. */
+	remember(parts: readonly { id: number; brand: string; model: string }[]) {
+		for (const p of parts) this.#names.set(String(p.id), `${p.brand} ${p.model}`);
 	}
 
 	partName(id: string | number): string {
-		const part = this.catalog.parts.find((p) => String(p.id) === String(id));
-		return part ? `${part.brand} ${part.model}` : '';
+		return this.#names.get(String(id)) ?? '';
 	}
 }
 

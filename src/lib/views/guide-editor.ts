@@ -73,7 +73,10 @@ export interface DraftView {
 export interface EditorCatalog {
 	regions: { code: string; name: string; currency: string }[];
 	stores: { id: number; name: string; regionCode: string }[];
-	/** Every catalog part by category: the no-JS pick list and the live search's id lookup. */
+	/**
+	 * The parts the page names: the draft's picks and alternates (and a suggested alternate).
+	 * Never the whole catalog; the pickers search it (GET /api/v1/parts, or a typed name).
+	 */
 	parts: DraftPartRef[];
 }
 

@@ -39,7 +39,7 @@ import {
 } from '$lib/server/db';
 import { detailsOf } from '$lib/server/db/models/GuideRevision';
 import { renderMarkdown } from '$lib/server/markdown';
-import type { DraftView, EditorCatalog } from '$lib/views';
+import type { DraftPartRef, DraftView, EditorCatalog } from '$lib/views';
 import { galleryItems } from './gallery';
 import { proposalsByPosition } from './guide-price-proposals';
 import { partRef } from './mappers';
@@ -181,21 +181,34 @@ export function previewNotes(notes: BuildNotesInput): string {
 	return renderMarkdown(joinBuildNotes(notes));
 }
 
-/** Choices for the editor's selects. */
-export async function editorCatalog(): Promise<EditorCatalog> {
+/** The regions an author or a build's owner chooses from (a short list, A–Z). */
+export async function editorRegions(): Promise<EditorCatalog['regions']> {
+	const regions = await Region.findAll({ order: [['name', 'ASC']] });
+	return regions.map((r) => ({ code: r.code, name: r.name, currency: r.currency }));
+}
+
+/**
+ * The editor's choices for `draft`: regions and stores for its selects, and the parts the
+ * draft names (picks and alternates) plus `extra` (a suggested alternate), so the page names
+ * them. Never the whole catalog: the pickers search it, so the page's size does not grow
+ * with the catalog.
+ */
+export async function editorCatalog(
+	draft: DraftView,
+	extra: DraftPartRef[] = []
+): Promise<EditorCatalog> {
 	const regions = await Region.findAll({ order: [['name', 'ASC']] });
 	const byId = new Map(regions.map((r) => [r.id, r.code]));
 	const stores = await Store.findAll({ order: [['name', 'ASC']] });
-	const parts = await Part.findAll({
-		attributes: ['id', 'slug', 'brand', 'model', 'category'],
-		order: [
-			['brand', 'ASC'],
-			['model', 'ASC']
-		]
-	});
+	const parts = new Map([...draftParts(draft), ...extra].map((p) => [p.id, p]));
 	return {
 		regions: regions.map((r) => ({ code: r.code, name: r.name, currency: r.currency })),
 		stores: stores.map((s) => ({ id: s.id, name: s.name, regionCode: byId.get(s.regionId) ?? '' })),
-		parts: parts.map(partRef)
+		parts: [...parts.values()]
 	};
+}
+
+/** The parts a stored draft names: each slot's pick and alternates. */
+export function draftParts(draft: DraftView): DraftPartRef[] {
+	return draft.slots.flatMap((slot) => [slot.pick, ...slot.alternates.map((a) => a.part)]);
 }

@@ -164,3 +164,18 @@ export async function partRefBySlug(slug: string): Promise<PartRef | null> {
 	});
 	return part ? partRef(part) : null;
 }
+
+/**
+ * The part id a build form posts (add a slot, swap): the part `typed` names in `category`
+ * when something was typed (the text field without JavaScript), else `postedId` as posted,
+ * for the operation's schema to judge. A text that names no single part is a message.
+ */
+export async function partIdFromForm(
+	postedId: unknown,
+	typed: string | undefined,
+	category: string | undefined
+): Promise<{ partId: unknown } | { message: string }> {
+	if (!typed?.trim() || !category || !isCategory(category)) return { partId: postedId };
+	const found = await findPartByText(typed, category);
+	return found.kind === 'found' ? { partId: found.part.id } : { message: found.message };
+}

@@ -42,6 +42,7 @@ import * as checklists from '$lib/server/services/build-checklist';
 import * as photos from '$lib/server/services/photos';
 import { stageTickInput } from '$lib/schemas/photos';
 import * as drafts from '$lib/server/services/guide-drafts';
+import * as partLookup from '$lib/server/services/part-lookup';
 import type { Actions, PageServerLoad } from './$types';
 
 /*
@@ -59,11 +60,12 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	);
 	if (!build) error(404, 'Build not found');
 	const sync = build.isOwner ? await buildSyncPlan.syncPlan(viewer?.id ?? '', build.id) : null;
-	// The owner's choices for adding or swapping to any catalog part, and for the region select.
+	// The owner's region choices. Parts to add or swap to are searched, never sent: the page's
+	// size does not grow with the catalog.
 	return {
 		build,
 		sync: sync && (sync.kind === 'plan' || sync.kind === 'up_to_date') ? sync : null,
-		catalog: build.isOwner ? await drafts.editorCatalog() : null,
+		regions: build.isOwner ? await drafts.editorRegions() : null,
 		checklist: await checklists.getChecklist(build.id),
 		photos: await photos.buildPhotos(build.id),
 		// "Report this build": the form posts back with the link token the reader came with.
@@ -71,6 +73,21 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		shareKey: !build.isOwner && build.visibility === 'unlisted' ? (shareKey ?? null) : null
 	};
 };
+
+/**
+ * The part a build form names (services/part-lookup.ts): its `partId`, or the name or slug
+ * typed in `partQuery` without JavaScript, looked up in `category` (the slot's, a hidden field
+ * of the swap form; the service still refuses a part of another category). Someone else's
+ * build is a 404 before anything is looked up.
+ */
+async function formPart(ownerId: string, buildId: number, form: FormReader) {
+	const typed = form.text('partQuery');
+	if (typed?.trim() && !(await buildEdits.ownsBuild(ownerId, buildId))) error(404, 'Build not found');
+	return partLookup.partIdFromForm(form.number('partId'), typed, form.text('category'));
+}
+
+/** What a part field's text field held, kept short: it comes back with the message. */
+const typedPart = (form: FormReader) => (form.text('partQuery') ?? '').slice(0, 100);
 
 /** How this page shows a failed change: one sentence (and the fields) at the top of the page. */
 function words(conflict: string) {
@@ -80,9 +97,9 @@ function words(conflict: string) {
 		conflict: () => ({ problem: true, message: conflict })
 	});
 }
-const page = words(
-	'This build was changed in another tab or window. The page now shows the stored version; make your change again.'
-);
+const STALE_BUILD =
+	'This build was changed in another tab or window. The page now shows the stored version; make your change again.';
+const page = words(STALE_BUILD);
 const sync = formAnswers({
 	notFound: 'Build not found',
 	invalid: (syncIssues: Issues) => ({
@@ -126,12 +143,12 @@ function slotChange(
 
 async function editSlot(
 	buildId: number,
-	request: Request,
+	form: FormReader | Request,
 	read: (f: FormReader) => unknown,
 	done: (patch: buildEdits.SlotPatch) => string
 ) {
 	const me = requireUser();
-	const input = slotChange(await readFormData(request), read);
+	const input = slotChange(form instanceof Request ? await readFormData(form) : form, read);
 	if (input.kind !== 'ok') return page.failure(input);
 	const { slotId, version, patch } = input.data;
 	return page.answer(await buildEdits.updateSlot(me.id, buildId, slotId, patch, version), () => ({
@@ -225,8 +242,20 @@ export const actions: Actions = {
 			}
 		}));
 	},
-	swap: ({ params, request }) =>
-		editSlot(Number(params.id), request, updateSlotForms.swap, () => 'Swapped.'),
+	/** The part chosen with JavaScript (`partId`), or typed by name or slug without it (`partQuery`). */
+	swap: async ({ params, request }) => {
+		const me = requireUser();
+		const form = await readFormData(request);
+		const part = await formPart(me.id, Number(params.id), form);
+		if ('message' in part)
+			return fail(400, {
+				problem: true,
+				message: part.message,
+				swap: { slotId: form.text('slotId') ?? '', partQuery: typedPart(form), issue: part.message }
+			});
+		const read = (f: FormReader) => ({ ...updateSlotForms.swap(f), partId: part.partId });
+		return editSlot(Number(params.id), form, read, () => 'Swapped.');
+	},
 	quantity: ({ params, request }) =>
 		editSlot(Number(params.id), request, updateSlotForms.quantity, () => 'Quantity saved.'),
 	override: ({ params, request }) =>
@@ -256,13 +285,36 @@ export const actions: Actions = {
 		);
 		return page.answer(outcome, () => ({ problem: false, message: 'Slot removed.' }));
 	},
+	/** The part chosen with JavaScript (`partId`), or typed by name or slug without it (`partQuery`). */
 	addSlot: async ({ params, request }) => {
 		const me = requireUser();
-		const input = parseForm(await readFormData(request), addSlotInput, addSlotForm);
-		if (input.kind !== 'ok') return page.failure(input);
+		const form = await readFormData(request);
+		// What the owner typed comes back with any message, so the form is never emptied.
+		const typed = {
+			category: form.text('category') ?? '',
+			label: (form.text('label') ?? '').slice(0, 80),
+			quantity: (form.text('quantity') ?? '').slice(0, 8),
+			partQuery: typedPart(form)
+		};
+		const added = formAnswers({
+			notFound: 'Build not found',
+			invalid: (issues: Issues) => ({
+				problem: true,
+				issues,
+				message: issuesSentence(issues),
+				addSlot: typed
+			}),
+			conflict: () => ({ problem: true, message: STALE_BUILD, addSlot: typed })
+		});
+		const part = await formPart(me.id, Number(params.id), form);
+		if ('message' in part)
+			return added.failure({ kind: 'invalid', issues: { partId: [part.message] } });
+		const read = (f: FormReader) => ({ ...addSlotForm(f), partId: part.partId });
+		const input = parseForm(form, addSlotInput, read);
+		if (input.kind !== 'ok') return added.failure(input);
 		const { version, ...slot } = input.data;
 		const outcome = await buildEdits.addSlot(me.id, Number(params.id), slot, version);
-		return page.answer(outcome, () => ({ problem: false, message: 'Slot added.' }));
+		return added.answer(outcome, () => ({ problem: false, message: 'Slot added.' }));
 	},
 	settings: async ({ params, request }) => {
 		const me = requireUser();

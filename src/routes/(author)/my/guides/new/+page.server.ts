@@ -13,7 +13,7 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	requireRole('author', 'editor');
-	return { regions: (await drafts.editorCatalog()).regions };
+	return { regions: await drafts.editorRegions() };
 };
 
 export const actions: Actions = {

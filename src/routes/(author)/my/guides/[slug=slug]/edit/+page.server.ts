@@ -11,9 +11,10 @@ import { formAnswers } from '$lib/server/http/answers';
 import * as fit from '$lib/server/services/fit';
 import * as draftEdits from '$lib/server/services/guide-draft-edits';
 import * as drafts from '$lib/server/services/guide-drafts';
+import * as partLookup from '$lib/server/services/part-lookup';
 import { guidePhotos } from '$lib/server/services/gallery';
 import * as reviews from '$lib/server/services/review-queue';
-import type { DraftView } from '$lib/views';
+import type { DraftPartRef, DraftView } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The guide editor: the author's own guides only (someone else's slug is a 404). */
@@ -29,13 +30,14 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		(mine.latestRevision?.status === 'request_changes' || mine.latestRevision?.status === 'draft')
 			? mine.lastDecision
 			: null;
-	const catalog = await drafts.editorCatalog();
 	// Opened from a fork-insights suggestion: that part joins the slot's alternates (unsaved).
 	const query = suggestedAlternateQuery.safeParse({
 		slot: url.searchParams.get('slot') ?? undefined,
 		alternate: url.searchParams.get('alternate') ?? undefined
 	});
-	const part = query.success ? catalog.parts.find((p) => p.slug === query.data.alternate) : null;
+	const part = query.success ? await partLookup.partRefBySlug(query.data.alternate) : null;
+	// The page names only the parts the draft uses; the pickers search the catalog.
+	const catalog = await drafts.editorCatalog(draft, part ? [part] : []);
 	return {
 		draft,
 		suggestedAlternate:
@@ -77,64 +79,94 @@ async function owned(slug: string) {
 
 /**
  * How the editor shows a failure: every answer carries the author's text back (`fields`), so
- * nothing typed is lost; a stale version brings the stored copy to compare with.
+ * nothing typed is lost, with the parts it names (`parts`: the page holds no catalog to name
+ * them from); a stale version brings the stored copy to compare with.
  */
-function editorAnswers(fields: EditorDraft, version: unknown) {
+function editorAnswers(fields: EditorDraft, version: unknown, parts: DraftPartRef[]) {
 	const sent = typeof version === 'number' ? version : undefined;
 	return formAnswers({
 		notFound: 'Guide not found',
-		invalid: (issues: Issues) => ({ fields, version: sent, issues }),
+		invalid: (issues: Issues) => ({ fields, version: sent, issues, parts }),
 		conflict: (outcome) => {
 			if (!('current' in outcome))
-				return { fields, version: sent, issues: { _form: [outcome.message] } as Issues };
+				return { fields, version: sent, issues: { _form: [outcome.message] } as Issues, parts };
 			const current = outcome.current as DraftView;
 			// The next save is meant to go over the stored version the author has now seen.
 			return {
 				fields,
 				version: current.version,
-				conflict: { stored: fromDraft(current), version: current.version }
+				conflict: { stored: fromDraft(current), version: current.version },
+				parts: [...parts, ...drafts.draftParts(current)]
 			};
 		}
 	});
 }
 
 /**
- * Reads the posted form in one pass (caps included), then parses it with saveDraftInput, the
- * schema PUT /api/v1/guides/[slug]/draft uses, and saves it.
+ * The posted working copy with its typed part names looked up (the pickers without
+ * JavaScript post a name or slug; services/part-lookup.ts), the messages of names that name
+ * no single part, and the parts the copy now names.
+ */
+async function readWithParts(data: FormData) {
+	const form = readEditorForm(data);
+	const typed = await partLookup.resolveTypedParts(applyOp(form.draft, form.op));
+	return {
+		...form,
+		draft: typed.draft,
+		issues: mergeIssues(form.issues, typed.issues),
+		parts: await partLookup.partsNamedIn(typed.draft)
+	};
+}
+
+/** `issues` without the fields `shown` already has a message for. */
+function besides(issues: Issues, shown: Issues): Issues {
+	return Object.fromEntries(Object.entries(issues).filter(([key]) => !(key in shown)));
+}
+
+/**
+ * Reads the posted form in one pass (caps included), looks up typed part names, then parses
+ * it with saveDraftInput, the schema PUT /api/v1/guides/[slug]/draft uses, and saves it.
  */
 async function save(userId: string, slug: string, data: FormData) {
-	const form = readEditorForm(data);
-	const answers = editorAnswers(form.draft, form.version);
+	const form = await readWithParts(data);
+	const answers = editorAnswers(form.draft, form.version, form.parts);
 	const parsed = parseInput(saveDraftInput, { ...toInput(form.draft), version: form.version });
-	const issues = mergeIssues(form.issues, parsed.kind === 'invalid' ? parsed.issues : {});
+	// A typed name that named no part has its message; the schema's "choose a part" would repeat it.
+	const issues = mergeIssues(
+		form.issues,
+		parsed.kind === 'invalid' ? besides(parsed.issues, form.issues) : {}
+	);
 	if (parsed.kind !== 'ok' || Object.keys(issues).length > 0)
 		return { ok: false as const, failure: answers.failure({ kind: 'invalid', issues }) };
 	const { version, ...draft } = parsed.data;
 	const outcome = await draftEdits.saveDraft(userId, slug, draft, version);
 	if (outcome.kind !== 'saved') return { ok: false as const, failure: answers.failure(outcome) };
-	return { ok: true as const, answers, draft: outcome.draft, fields: form.draft, input: draft };
+	return { ok: true as const, draft: outcome.draft, fields: form.draft, parts: form.parts, input: draft };
 }
 
 export const actions: Actions = {
 	/** No-JS add/remove/reorder: applies `op` to the posted form and shows it again, unsaved. */
 	edit: async ({ params, request }) => {
 		await owned(params.slug);
-		const form = readEditorForm(await request.formData());
+		const form = await readWithParts(await request.formData());
 		return {
-			fields: applyOp(form.draft, form.op),
+			fields: form.draft,
 			version: typeof form.version === 'number' ? form.version : undefined,
 			issues: form.issues,
+			parts: form.parts,
 			edited: true
 		};
 	},
 	preview: async ({ params, request }) => {
 		await owned(params.slug);
 		const form = readEditorForm(await request.formData());
+		const parts = await partLookup.partsNamedIn(form.draft);
 		const notes = parseInput(buildNotesInput, form.draft.buildNotes);
-		if (notes.kind !== 'ok') return editorAnswers(form.draft, form.version).failure(notes);
+		if (notes.kind !== 'ok') return editorAnswers(form.draft, form.version, parts).failure(notes);
 		return {
 			fields: form.draft,
 			version: typeof form.version === 'number' ? form.version : undefined,
+			parts,
 			preview: drafts.previewNotes(notes.data)
 		};
 	},
@@ -163,6 +195,7 @@ export const actions: Actions = {
 			return {
 				saved: true,
 				fields: result.fields,
+				parts: result.parts,
 				version: result.draft.version,
 				revisionNumber: result.draft.revisionNumber,
 				fitConflicts: conflicts
