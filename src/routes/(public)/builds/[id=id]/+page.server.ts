@@ -82,7 +82,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
  */
 async function formPart(ownerId: string, buildId: number, form: FormReader) {
 	const typed = form.text('partQuery');
-	if (typed?.trim() && !(await buildEdits.ownsBuild(ownerId, buildId))) error(404, 'Build not found');
+	if (typed?.trim() && !(await buildEdits.ownsBuild(ownerId, buildId)))
+		error(404, 'Build not found');
 	return partLookup.partIdFromForm(form.number('partId'), typed, form.text('category'));
 }
 

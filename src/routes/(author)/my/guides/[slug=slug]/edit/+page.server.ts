@@ -141,7 +141,13 @@ async function save(userId: string, slug: string, data: FormData) {
 	const { version, ...draft } = parsed.data;
 	const outcome = await draftEdits.saveDraft(userId, slug, draft, version);
 	if (outcome.kind !== 'saved') return { ok: false as const, failure: answers.failure(outcome) };
-	return { ok: true as const, draft: outcome.draft, fields: form.draft, parts: form.parts, input: draft };
+	return {
+		ok: true as const,
+		draft: outcome.draft,
+		fields: form.draft,
+		parts: form.parts,
+		input: draft
+	};
 }
 
 export const actions: Actions = {
