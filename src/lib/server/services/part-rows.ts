@@ -98,7 +98,12 @@ export function byPrice(match: SearchMatch, regionId: number): RowSource {
 		? `FROM part_region_prices pp JOIN parts p ON p.id = pp.part_id WHERE ${priced}`
 		: `FROM part_region_prices pp WHERE ${priced}`;
 	// The order is all in the index (brand and model are copies of the part's, the id is p.id).
-	const pricedSql = `SELECT ${COLUMNS} FROM part_region_prices pp JOIN parts p ON p.id = pp.part_id
+	// Without search words the walk must start at part_region_prices, in index order, and stop
+	// at LIMIT. At 100,000 parts, with nine in ten priced in the region, MariaDB otherwise chose
+	// to read all of parts and sort the join (0.3 s against 1 ms; EXPLAIN in the spec). With
+	// words, the full-text index on parts finds the few matches first, which is the better start.
+	const joinOrder = match.text ? '' : 'STRAIGHT_JOIN ';
+	const pricedSql = `SELECT ${joinOrder}${COLUMNS} FROM part_region_prices pp JOIN parts p ON p.id = pp.part_id
 		WHERE ${priced} ORDER BY pp.price_key ASC, pp.brand ASC, pp.model ASC, pp.part_id ASC`;
 	// An outer join rather than NOT EXISTS: MariaDB would materialise the region's whole key set.
 	const unpricedSql = `SELECT ${COLUMNS} FROM parts p
