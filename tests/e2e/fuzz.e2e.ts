@@ -319,6 +319,29 @@ test('hostile bodies sent to every form action are refused with a 4xx and a mess
 	expect(wrong).toEqual([]);
 });
 
+test('a form body whose only field is __proto__ is refused by every form action', async () => {
+	// The form reader drops a field named __proto__ (it would set the object's prototype), so
+	// this body reads as an empty form. An action whose schema takes an empty form as
+	// "everything off" or "no message" would save that: found by the generated bodies above
+	// on the tip settings, which it turned off and whose thank-you message it cleared.
+	const wrong: string[] = [];
+	for (const entry of ACTIONS) {
+		const response = await admin.fetch(urlOf(entry).url, {
+			method: 'POST',
+			data: '__proto__=x',
+			headers: {
+				origin: BASE_URL,
+				accept: 'application/json',
+				'content-type': 'application/x-www-form-urlencoded'
+			},
+			maxRedirects: 0
+		});
+		const outcome = await judge(response, false);
+		if (!outcome.ok) wrong.push(`${entry}: ${outcome.why}`);
+	}
+	expect(wrong).toEqual([]);
+});
+
 test('hostile bodies sent to every JSON route are refused with a 4xx and a message', async () => {
 	const wrong: string[] = [];
 	for (const entry of JSON_ROUTES) {

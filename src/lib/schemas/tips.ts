@@ -71,16 +71,19 @@ export const tipInput = z
 	});
 export type TipInput = z.output<typeof tipInput>;
 
-/** POST ?/settings on /my/earnings. */
+/**
+ * POST ?/settings on /my/earnings. The message is required although it may be empty: the
+ * form's textarea always posts it, and a body without it (empty, or only fields the form
+ * reader drops) would otherwise read as "tips off, no message" and erase both.
+ */
 export const tipSettingsInput = z.strictObject({
 	tipsEnabled: checkbox,
 	thankYouMessage: z
-		.string()
+		.string({ error: 'Send the tip settings from their form.' })
 		.transform((value) => value.replace(/\r\n?/g, '\n').trim())
 		.pipe(
 			z.string().max(THANK_YOU_MAX_CHARS, `Keep the message to ${THANK_YOU_MAX_CHARS} characters.`)
 		)
-		.default('')
 });
 export type TipSettingsInput = z.output<typeof tipSettingsInput>;
 
