@@ -42,7 +42,7 @@ import * as checklists from '$lib/server/services/build-checklist';
 import * as photos from '$lib/server/services/photos';
 import { stageTickInput } from '$lib/schemas/photos';
 import * as drafts from '$lib/server/services/guide-drafts';
-import * as partLookup from '$lib/server/services/part-lookup';
+import { formPart, typedPart } from '$lib/server/http/build-part-forms';
 import type { Actions, PageServerLoad } from './$types';
 
 /*
@@ -73,22 +73,6 @@ export const load: PageServerLoad = async ({ params, url }) => {
 		shareKey: !build.isOwner && build.visibility === 'unlisted' ? (shareKey ?? null) : null
 	};
 };
-
-/**
- * The part a build form names (services/part-lookup.ts): its `partId`, or the name or slug
- * typed in `partQuery` without JavaScript, looked up in `category` (the slot's, a hidden field
- * of the swap form; the service still refuses a part of another category). Someone else's
- * build is a 404 before anything is looked up.
- */
-async function formPart(ownerId: string, buildId: number, form: FormReader) {
-	const typed = form.text('partQuery');
-	if (typed?.trim() && !(await buildEdits.ownsBuild(ownerId, buildId)))
-		error(404, 'Build not found');
-	return partLookup.partIdFromForm(form.number('partId'), typed, form.text('category'));
-}
-
-/** What a part field's text field held, kept short: it comes back with the message. */
-const typedPart = (form: FormReader) => (form.text('partQuery') ?? '').slice(0, 100);
 
 /** How this page shows a failed change: one sentence (and the fields) at the top of the page. */
 function words(conflict: string) {
