@@ -267,3 +267,56 @@ test('the guide lists give visitors a validator both processes honour, moved by 
 		expect((await rename('Dario Vesely')).status).toBe(200);
 	}
 });
+
+test('the parts catalog gives visitors a validator both processes honour, moved by a new quote', async () => {
+	const CATALOG = ['/parts?q=flatline&region=jp', `/api/v1/parts?q=flatline&region=jp`];
+	const old: Record<string, string> = {};
+	for (const path of CATALOG) {
+		const first = await get(BASE_URL, path);
+		expect(first.response.status, path).toBe(200);
+		expect(first.response.headers.get('cache-control'), path).toBe(PUBLIC);
+		const etag = first.response.headers.get('etag') ?? '';
+		expect(etag, path).toMatch(/^W\/"[^"]+"$/);
+		old[path] = etag;
+		for (const origin of [BASE_URL, second.origin]) {
+			const again = await get(origin, path, { 'if-none-match': etag });
+			expect(again.response.status, `${origin}${path}`).toBe(304);
+		}
+	}
+	const catalogPrice = async (origin: string) => {
+		const { body } = await get(origin, CATALOG[1]!);
+		const result = JSON.parse(body) as {
+			items: { slug: string; price: { unit: { amountMinor: number } } | null }[];
+		};
+		return result.items.find((p) => p.slug === ALTERNATE)?.price?.unit.amountMinor;
+	};
+	const price = await catalogPrice(second.origin);
+	expect(price).toBeGreaterThan(0);
+
+	// A newer, lower Japanese quote for the part, entered on process A.
+	await forgetAddressCounts();
+	const editor = await signIn(BASE_URL, 'editor@slotwise.test');
+	const added = await postForm(
+		BASE_URL,
+		'/editor/quotes?/create',
+		{
+			partSlug: ALTERNATE,
+			storeId: String(await jpStoreId()),
+			amount: String(price! - 500),
+			taxIncluded: 'on',
+			observedOn: new Date().toISOString().slice(0, 10)
+		},
+		editor
+	);
+	expect(added.status).toBe(303);
+
+	for (const path of CATALOG) {
+		const fresh = await get(second.origin, path, { 'if-none-match': old[path] ?? '' });
+		expect(fresh.response.status, path).toBe(200);
+		expect(fresh.response.headers.get('etag'), path).not.toBe(old[path]);
+	}
+	// Yen have no minor unit (ISO 4217, from memory): the amount is the quote as entered.
+	expect(await catalogPrice(second.origin)).toBe(price! - 500);
+	// Process A's kept answer from before the quote is not served again.
+	expect(await catalogPrice(BASE_URL)).toBe(price! - 500);
+});

@@ -13,6 +13,13 @@ export const GUIDE_VIEW = 'guide-view';
  */
 export const GUIDE_LIST = 'guide-list';
 
+/**
+ * What the parts catalog shows (/parts, GET /api/v1/parts): a part, quote, store or photo
+ * row written (db/generation-hooks.ts in those models). Rates and regions move GUIDE_VIEW,
+ * which the catalog's validator reads as well.
+ */
+export const PART_CATALOG = 'part-catalog';
+
 /** The statement that moves a counter on; run it after the write it announces has committed. */
 export const BUMP_SQL = `INSERT INTO cache_generations (name, value, updated_at) VALUES (:name, 1, NOW())
 	 ON DUPLICATE KEY UPDATE value = value + 1, updated_at = NOW()`;

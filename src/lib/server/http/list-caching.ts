@@ -1,12 +1,13 @@
 /**
- * HTTP caching of the guide lists for visitors: home, /guides and GET /api/v1/guides, the
- * pages a crowd arriving from a link reads first.
+ * HTTP caching of the lists for visitors: home, /guides and GET /api/v1/guides, the pages a
+ * crowd arriving from a link reads first, and the parts catalog (/parts, GET /api/v1/parts).
  *
- * Their validator is built from two counters in cache_generations, read with one
- * primary-key query per request: `guide-view` (prices, fit, hiding: every event that
- * changes a guide view also changes the lists) and `guide-list` (any write to a guide row,
- * an author's new name; models/Guide.ts and accounts.ts). Plus the UTC day, the route,
- * document or data, and the query. A matching If-None-Match gets a 304, and a GET this
+ * Their validator is built from counters in cache_generations, read with one primary-key
+ * query per request: `guide-view` for both (prices, rates, regions, fit, hiding: every event
+ * that changes a guide view), then `guide-list` for the guide lists (any write to a guide
+ * row, an author's new name; models/Guide.ts and accounts.ts) or `part-catalog` for the
+ * catalog (any write to a part, quote, store or photo; db/generation-hooks.ts). Plus the UTC
+ * day, the route, document or data, and the query. A matching If-None-Match gets a 304, and a GET this
  * process has answered under the same validator gets the same bytes again
  * (visitor-answers.ts), so a list is made once per change, not once per visitor.
  *
@@ -17,39 +18,43 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { sharedRead } from '$lib/server/db/shared-reads';
-import { GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
+import { GUIDE_LIST, GUIDE_VIEW, PART_CATALOG } from '$lib/server/db/generation-names';
 import { matchesIfNoneMatch, weakValidator } from '$lib/server/services/guide-view-cache';
 import { PUBLIC_CACHING } from './caching-policy';
 import { keepOutOfSharedCaches } from './guide-caching';
 import { keepIfPublic, keptAnswer } from './visitor-answers';
 
-export const LIST_ROUTES: ReadonlySet<string> = new Set([
-	'/(public)',
-	'/(public)/guides',
-	'/api/v1/guides'
+/** Each kept list's route and the counter that, with `guide-view`, says when it changes. */
+export const LIST_ROUTES: ReadonlyMap<string, string> = new Map([
+	['/(public)', GUIDE_LIST],
+	['/(public)/guides', GUIDE_LIST],
+	['/api/v1/guides', GUIDE_LIST],
+	['/(public)/parts', PART_CATALOG],
+	['/api/v1/parts', PART_CATALOG]
 ]);
 
 /** Both counters and the day, as one string; concurrent visitors share the read (db/shared-reads.ts). */
-const readListStamp = sharedRead(async () => {
+const readListStamp = sharedRead(async (counter: string) => {
 	const rows = await sequelize.query<{ name: string; value: number | string }>(
 		'SELECT name, value FROM cache_generations WHERE name IN (:names)',
-		{ type: QueryTypes.SELECT, replacements: { names: [GUIDE_VIEW, GUIDE_LIST] } }
+		{ type: QueryTypes.SELECT, replacements: { names: [GUIDE_VIEW, counter] } }
 	);
 	const value = (name: string) => String(rows.find((r) => r.name === name)?.value ?? 0);
 	return JSON.stringify([
 		value(GUIDE_VIEW),
-		value(GUIDE_LIST),
+		counter,
+		value(counter),
 		new Date().toISOString().slice(0, 10)
 	]);
 });
 
 export const conditionalListReads: Handle = async ({ event, resolve }) => {
 	const route = event.route.id ?? '';
-	if (event.request.method !== 'GET' || !LIST_ROUTES.has(route) || event.locals.user)
-		return resolve(event);
+	const counter = LIST_ROUTES.get(route);
+	if (event.request.method !== 'GET' || !counter || event.locals.user) return resolve(event);
 	let stamp: string;
 	try {
-		stamp = await readListStamp('lists');
+		stamp = await readListStamp(counter);
 	} catch (error) {
 		// An outage: the page's own load meets it and answers the calm 503.
 		if (!isDatabaseUnavailable(error)) throw error;

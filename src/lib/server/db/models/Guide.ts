@@ -4,11 +4,11 @@ import type {
 	ForeignKey,
 	InferAttributes,
 	InferCreationAttributes,
-	Sequelize,
-	Transaction
+	Sequelize
 } from 'sequelize';
 import type { GuideState } from '../../../domain/types.js';
-import { BUMP_SQL, GUIDE_LIST } from '../generation-names.js';
+import { GUIDE_LIST } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 import type { GuideRevision } from './GuideRevision.js';
 import type { Region } from './Region.js';
 import type { User } from './User.js';
@@ -72,25 +72,7 @@ export function initGuide(sequelize: Sequelize) {
 	// the model, so every process that writes guides moves it, whatever it has loaded. A
 	// draft save moves only the row's version (its details live on the revision): the lists
 	// show nothing of that, and authors save often, so it leaves the counter alone.
-	const NOT_LISTED = new Set(['version', 'updatedAt']);
-	for (const hook of [
-		'afterSave',
-		'afterDestroy',
-		'afterBulkUpdate',
-		'afterBulkDestroy'
-	] as const) {
-		Guide.addHook(hook, `guide-list-generation-${hook}`, (...args: unknown[]) => {
-			const options = (args.length > 1 ? args[1] : args[0]) as
-				{ transaction?: Transaction | null; fields?: string[] } | undefined;
-			if (options?.fields && options.fields.every((f) => NOT_LISTED.has(f))) return;
-			const bump = () =>
-				sequelize
-					.query(BUMP_SQL, { type: QueryTypes.INSERT, replacements: { name: GUIDE_LIST } })
-					.then(() => undefined);
-			if (options?.transaction) options.transaction.afterCommit(bump);
-			else return bump();
-		});
-	}
+	bumpAfterWrites(Guide, sequelize, GUIDE_LIST, new Set(['version', 'updatedAt']));
 	// guide_tags mirrors guides.tags for the indexed list of tags in use (guide-browse.ts).
 	// Tags are only ever written through a row's create or save (never a bulk update), so
 	// this one hook keeps the mirror, inside the same transaction as the write.

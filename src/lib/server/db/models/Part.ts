@@ -6,6 +6,8 @@ import type {
 	Sequelize
 } from 'sequelize';
 import type { PartCategory } from '../../../domain/types.js';
+import { PART_CATALOG } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** A catalog item. specs is validated by the category's zod schema before every write. */
 export class Part extends Model<InferAttributes<Part>, InferCreationAttributes<Part>> {
@@ -33,4 +35,6 @@ export function initPart(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'parts', underscored: true, indexes: [{ fields: ['category'] }] }
 	);
+	// The catalog's kept answers (http/list-caching.ts) show names, specs and prices.
+	bumpAfterWrites(Part, sequelize, PART_CATALOG);
 }

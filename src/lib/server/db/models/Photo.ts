@@ -10,6 +10,8 @@ import type { Build } from './Build.js';
 import type { Guide } from './Guide.js';
 import type { Part } from './Part.js';
 import type { User } from './User.js';
+import { PART_CATALOG } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** One stored file of a photo: a width in one format, under a key in the photo store. */
 export interface StoredVariant {
@@ -92,4 +94,7 @@ export function initPhoto(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'photos', underscored: true }
 	);
+	// A part photo is the catalog's thumbnail (http/list-caching.ts); guide photos share the
+	// table, and moving the counter for them too only costs one extra catalog render.
+	bumpAfterWrites(Photo, sequelize, PART_CATALOG);
 }

@@ -10,6 +10,8 @@ import type { QuoteSource, QuoteStatus } from '../../../domain/types.js';
 import type { Part } from './Part.js';
 import type { Region } from './Region.js';
 import type { Store } from './Store.js';
+import { PART_CATALOG } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** One observed shelf price: integer minor units of `currency`, as the store showed it. */
 export class Quote extends Model<InferAttributes<Quote>, InferCreationAttributes<Quote>> {
@@ -51,4 +53,6 @@ export function initQuote(sequelize: Sequelize) {
 			indexes: [{ fields: ['part_id', 'region_id', 'observed_at'] }]
 		}
 	);
+	// A quote moves a part's price in the catalog's kept answers (http/list-caching.ts).
+	bumpAfterWrites(Quote, sequelize, PART_CATALOG);
 }

@@ -7,6 +7,8 @@ import type {
 	Sequelize
 } from 'sequelize';
 import type { Region } from './Region.js';
+import { PART_CATALOG } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 export class Store extends Model<InferAttributes<Store>, InferCreationAttributes<Store>> {
 	declare id: CreationOptional<number>;
@@ -28,4 +30,6 @@ export function initStore(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'stores', underscored: true }
 	);
+	// A store's name and link reach the catalog's prices (http/list-caching.ts).
+	bumpAfterWrites(Store, sequelize, PART_CATALOG);
 }
