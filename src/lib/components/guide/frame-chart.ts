@@ -4,6 +4,7 @@
  */
 import { scaleLinear } from 'd3-scale';
 import type { FrameResultView } from '$lib/views';
+import { fixedDecimals } from '$lib/components/ui/number-format';
 
 export const CHART_WIDTH = 640;
 const LABEL_H = 20;
@@ -32,8 +33,7 @@ export interface FrameChart {
 	summary: string;
 }
 
-const fps = (n: number) =>
-	n.toLocaleString('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+const fps = (n: number) => fixedDecimals(n, 1);
 
 export function resultLabel(r: FrameResultView): string {
 	return [r.workload, r.resolution.replace('x', '×'), r.preset].filter(Boolean).join(' · ');

@@ -4,6 +4,7 @@
  * speedMts → "MT/s". Pure functions: the pages and tests share them.
  */
 import type { PartCategory } from '$lib/domain/types';
+import { upToDecimals } from '$lib/components/ui/number-format';
 
 /** Unit suffixes of field names, longest first so "Mbs" is not read as "s". */
 const UNIT_SUFFIXES: [suffix: string, unit: string][] = [
@@ -109,7 +110,7 @@ export function specLabel(field: string): string {
 	return words.charAt(0).toUpperCase() + words.slice(1);
 }
 
-const numberText = (n: number) => n.toLocaleString('en-GB', { maximumFractionDigits: 2 });
+const numberText = (n: number) => upToDecimals(n, 2);
 
 function withUnit(field: string, n: number): string {
 	if (field === 'pcieGen') return `PCIe ${n}.0`;

@@ -23,19 +23,23 @@ interface HookOptions {
 
 /**
  * After any write to `model`'s rows, bump `counter`. A save whose changed fields are all in
- * `unlisted` (columns the cached answers never show) leaves it alone.
+ * `unlisted` (columns the cached answers never show), or that changed none of `listed` when
+ * that is given (the only columns they show), leaves it alone.
  */
 export function bumpAfterWrites(
 	model: ModelStatic<Model>,
 	sequelize: Sequelize,
 	counter: string,
-	unlisted: ReadonlySet<string> = new Set()
+	fields: { unlisted?: ReadonlySet<string>; listed?: ReadonlySet<string> } = {}
 ): void {
+	const { unlisted, listed } = fields;
 	for (const hook of WRITE_HOOKS) {
 		model.addHook(hook, `${counter}-generation-${hook}`, (...args: unknown[]) => {
 			// Instance hooks get (instance, options); bulk update and destroy get (options).
 			const options = (args.length > 1 ? args[1] : args[0]) as HookOptions | undefined;
-			if (options?.fields && options.fields.every((f) => unlisted.has(f))) return;
+			const changed = options?.fields;
+			if (changed && unlisted && changed.every((f) => unlisted.has(f))) return;
+			if (changed && listed && !changed.some((f) => listed.has(f))) return;
 			const bump = () =>
 				sequelize
 					.query(BUMP_SQL, { type: QueryTypes.INSERT, replacements: { name: counter } })

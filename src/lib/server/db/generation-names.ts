@@ -20,6 +20,14 @@ export const GUIDE_LIST = 'guide-list';
  */
 export const PART_CATALOG = 'part-catalog';
 
+/**
+ * What a guide page shows beyond its computed view (services/guide-page-extras.ts): forks
+ * and public builds of it, its gallery, part photos, tips and their notes, and the names on
+ * them. Moved by writes to builds, gallery rows, photos, parts, tips, tip settings and
+ * people's names (db/generation-hooks.ts in those models).
+ */
+export const GUIDE_EXTRAS = 'guide-extras';
+
 /** The statement that moves a counter on; run it after the write it announces has committed. */
 export const BUMP_SQL = `INSERT INTO cache_generations (name, value, updated_at) VALUES (:name, 1, NOW())
 	 ON DUPLICATE KEY UPDATE value = value + 1, updated_at = NOW()`;

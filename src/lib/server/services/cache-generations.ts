@@ -13,9 +13,9 @@
  */
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
-import { BUMP_SQL, GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
+import { BUMP_SQL, GUIDE_EXTRAS, GUIDE_LIST, GUIDE_VIEW } from '$lib/server/db/generation-names';
 
-export { GUIDE_LIST, GUIDE_VIEW };
+export { GUIDE_EXTRAS, GUIDE_LIST, GUIDE_VIEW };
 
 /**
  * Moves the counter `name` on. Call after the write it announces has committed, never

@@ -162,11 +162,12 @@ export function byStage(entries: readonly GalleryEntry[]): GalleryStageView[] {
 export async function publishedGallery(slug: string): Promise<PublishedGallery | null> {
 	const guide = await Guide.findOne({ where: { slug }, attributes: ['publishedRevisionId'] });
 	const publishedRevisionId = guide?.publishedRevisionId ?? null;
-	if (!publishedRevisionId) return null;
-	return {
-		stages: byStage(await revisionGallery(publishedRevisionId)),
-		deferToManuals: DEFER_TO_MANUALS
-	};
+	return publishedRevisionId ? galleryOfRevision(publishedRevisionId) : null;
+}
+
+/** The gallery of a published revision whose id the caller has already read (the guide page's stamp). */
+export async function galleryOfRevision(revisionId: number): Promise<PublishedGallery> {
+	return { stages: byStage(await revisionGallery(revisionId)), deferToManuals: DEFER_TO_MANUALS };
 }
 
 /** New, removed and re-described photos between two revisions (the review page, beside the text diff). */

@@ -23,7 +23,7 @@ import { createHash } from 'node:crypto';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '$lib/server/db';
 import { sharedRead } from '$lib/server/db/shared-reads';
-import { GUIDE_VIEW } from './cache-generations';
+import { GUIDE_EXTRAS, GUIDE_VIEW } from './cache-generations';
 import { getGuidePage, mayView } from './guides';
 import type { GuidePageOutcome, GuideViewer, PricedOutcome } from './guides';
 import { invalidateReferenceCaches, onReferenceChange } from './reference-cache';
@@ -39,6 +39,8 @@ export interface GuideStamp {
 	hidden: boolean;
 	/** Every input above in one string: part of each view's key and of the ETag. */
 	version: string;
+	/** The `guide-extras` counter: with `version`, names the page's extras (guide-page-extras.ts). */
+	extras: string;
 }
 
 interface StampRow {
@@ -49,6 +51,7 @@ interface StampRow {
 	updatedAt: Date | string;
 	authorName: string | null;
 	generation: number | string | null;
+	extras: number | string | null;
 }
 
 const views = new Map<string, Promise<GuidePageOutcome>>();
@@ -62,10 +65,14 @@ async function readStampRow(slug: string): Promise<StampRow | undefined> {
 	const [row] = await sequelize.query<StampRow>(
 		`SELECT g.id AS guideId, g.published_revision_id AS revisionId, g.author_id AS authorId,
 		        g.hidden_at AS hiddenAt, g.updated_at AS updatedAt, u.name AS authorName,
-		        (SELECT c.value FROM cache_generations c WHERE c.name = :generation) AS generation
+		        (SELECT c.value FROM cache_generations c WHERE c.name = :generation) AS generation,
+		        (SELECT c.value FROM cache_generations c WHERE c.name = :extras) AS extras
 		   FROM guides g LEFT JOIN users u ON u.id = g.author_id
 		  WHERE g.slug = :slug AND g.state = 'published' AND g.published_revision_id IS NOT NULL`,
-		{ type: QueryTypes.SELECT, replacements: { slug, generation: GUIDE_VIEW } }
+		{
+			type: QueryTypes.SELECT,
+			replacements: { slug, generation: GUIDE_VIEW, extras: GUIDE_EXTRAS }
+		}
 	);
 	return row;
 }
@@ -104,7 +111,8 @@ export async function readStamp(
 			row.authorName,
 			generation,
 			now.toISOString().slice(0, 10)
-		])
+		]),
+		extras: String(row.extras ?? 0)
 	};
 }
 

@@ -10,6 +10,8 @@ import type { Guide } from './Guide.js';
 import type { GuideRevision } from './GuideRevision.js';
 import type { Region } from './Region.js';
 import type { User } from './User.js';
+import { GUIDE_EXTRAS } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 export const BUILD_VISIBILITIES = ['private', 'unlisted', 'public'] as const;
 export type BuildVisibility = (typeof BUILD_VISIBILITIES)[number];
@@ -64,4 +66,6 @@ export function initBuild(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'builds', underscored: true }
 	);
+	// Forks and public builds are listed on the guide page (services/guide-page-extras.ts).
+	bumpAfterWrites(Build, sequelize, GUIDE_EXTRAS);
 }

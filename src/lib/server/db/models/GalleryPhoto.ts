@@ -8,6 +8,8 @@ import type {
 } from 'sequelize';
 import type { GuideRevision } from './GuideRevision.js';
 import type { Photo } from './Photo.js';
+import { GUIDE_EXTRAS } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** A photo in one revision's gallery: its assembly stage, place, caption and alt text. */
 export class GalleryPhoto extends Model<
@@ -38,4 +40,6 @@ export function initGalleryPhoto(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'gallery_photos', underscored: true }
 	);
+	// The published gallery on the guide page (services/guide-page-extras.ts).
+	bumpAfterWrites(GalleryPhoto, sequelize, GUIDE_EXTRAS);
 }

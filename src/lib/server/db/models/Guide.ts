@@ -72,7 +72,7 @@ export function initGuide(sequelize: Sequelize) {
 	// the model, so every process that writes guides moves it, whatever it has loaded. A
 	// draft save moves only the row's version (its details live on the revision): the lists
 	// show nothing of that, and authors save often, so it leaves the counter alone.
-	bumpAfterWrites(Guide, sequelize, GUIDE_LIST, new Set(['version', 'updatedAt']));
+	bumpAfterWrites(Guide, sequelize, GUIDE_LIST, { unlisted: new Set(['version', 'updatedAt']) });
 	// guide_tags mirrors guides.tags for the indexed list of tags in use (guide-browse.ts).
 	// Tags are only ever written through a row's create or save (never a bulk update), so
 	// this one hook keeps the mirror, inside the same transaction as the write.

@@ -6,7 +6,7 @@ import type {
 	Sequelize
 } from 'sequelize';
 import type { PartCategory } from '../../../domain/types.js';
-import { PART_CATALOG } from '../generation-names.js';
+import { GUIDE_EXTRAS, PART_CATALOG } from '../generation-names.js';
 import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** A catalog item. specs is validated by the category's zod schema before every write. */
@@ -37,4 +37,6 @@ export function initPart(sequelize: Sequelize) {
 	);
 	// The catalog's kept answers (http/list-caching.ts) show names, specs and prices.
 	bumpAfterWrites(Part, sequelize, PART_CATALOG);
+	// Part thumbnails on the guide page are found by the part's slug (services/guide-page-extras.ts).
+	bumpAfterWrites(Part, sequelize, GUIDE_EXTRAS, { listed: new Set(['slug']) });
 }

@@ -10,7 +10,7 @@ import type { Build } from './Build.js';
 import type { Guide } from './Guide.js';
 import type { Part } from './Part.js';
 import type { User } from './User.js';
-import { PART_CATALOG } from '../generation-names.js';
+import { GUIDE_EXTRAS, PART_CATALOG } from '../generation-names.js';
 import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** One stored file of a photo: a width in one format, under a key in the photo store. */
@@ -97,4 +97,6 @@ export function initPhoto(sequelize: Sequelize) {
 	// A part photo is the catalog's thumbnail (http/list-caching.ts); guide photos share the
 	// table, and moving the counter for them too only costs one extra catalog render.
 	bumpAfterWrites(Photo, sequelize, PART_CATALOG);
+	// Gallery photos and part thumbnails on the guide page (services/guide-page-extras.ts).
+	bumpAfterWrites(Photo, sequelize, GUIDE_EXTRAS);
 }

@@ -10,6 +10,8 @@ import type { TipStatus } from '../../../domain/tips.js';
 import type { Build } from './Build.js';
 import type { Guide } from './Guide.js';
 import type { User } from './User.js';
+import { GUIDE_EXTRAS } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /**
  * One row of the tip ledger: one checkout session at the payment provider, its amount in
@@ -60,4 +62,6 @@ export function initTip(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'tips', underscored: true }
 	);
+	// Tip notes on the guide page (services/guide-page-extras.ts).
+	bumpAfterWrites(Tip, sequelize, GUIDE_EXTRAS);
 }

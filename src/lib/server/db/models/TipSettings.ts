@@ -5,6 +5,8 @@ import type {
 	InferCreationAttributes,
 	Sequelize
 } from 'sequelize';
+import { GUIDE_EXTRAS } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /** An author's tip settings; an author without a row takes tips and has no message. */
 export class TipSettings extends Model<
@@ -29,4 +31,6 @@ export function initTipSettings(sequelize: Sequelize) {
 		},
 		{ sequelize, tableName: 'tip_settings', underscored: true }
 	);
+	// Whether the guide page offers tips (services/guide-page-extras.ts).
+	bumpAfterWrites(TipSettings, sequelize, GUIDE_EXTRAS);
 }

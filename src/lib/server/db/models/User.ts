@@ -8,6 +8,8 @@ import type {
 } from 'sequelize';
 import { firstFreeHandle, handleBase } from '../../../domain/handles.js';
 import type { Role } from '../../../domain/types.js';
+import { GUIDE_EXTRAS } from '../generation-names.js';
+import { bumpAfterWrites } from '../generation-hooks.js';
 
 /**
  * An account. The id is a UUID so it matches what the Auth.js adapter expects and so
@@ -73,4 +75,7 @@ export function initUser(sequelize: Sequelize) {
 		});
 		user.handle = firstFreeHandle(base, new Set(rows.map((r) => r.handle)));
 	});
+	// Builders' and supporters' names on the guide page, and whether its author can take tips
+	// (services/guide-page-extras.ts).
+	bumpAfterWrites(User, sequelize, GUIDE_EXTRAS, { listed: new Set(['name', 'disabledAt']) });
 }

@@ -1,18 +1,15 @@
 import { error } from '@sveltejs/kit';
 import { revisionCompareQuery } from '$lib/schemas/guide-page';
 import { regionQuery } from '$lib/schemas/guides';
-import * as buildLists from '$lib/server/services/build-lists';
 import * as guides from '$lib/server/services/guides';
 import * as guideViews from '$lib/server/services/guide-view-cache';
 import { cachingHeaders } from '$lib/server/http/guide-caching';
 import { reportForm, reportInput } from '$lib/schemas/content-reports';
 import type { Issues } from '$lib/schemas/issues';
-import * as tips from '$lib/server/services/tips';
 import { currentUser, requireUser } from '$lib/server/auth/guards';
 import { formAnswers, parseForm, readFormData } from '$lib/server/http/answers';
 import * as contentReports from '$lib/server/services/content-reports';
-import { publishedGallery } from '$lib/server/services/gallery';
-import { partThumbs } from '$lib/server/services/photos';
+import { pageExtras } from '$lib/server/services/guide-page-extras';
 import type { RevisionDiff } from '$lib/views';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -22,14 +19,16 @@ export const load: PageServerLoad = async ({ params, url, locals, setHeaders }) 
 	const wanted = query.success ? (query.data.region ?? null) : null;
 	// A hidden guide is shown only to its author and editors (with the reason); others get 404.
 	const viewer = currentUser();
+	// The hook has read the stamp unless MariaDB was down then; reading it here meets the outage.
+	const stamp = locals.guideStamp ?? (await guideViews.readStamp(params.slug));
 	// The computed view is cached per revision and region (guide-view-cache.ts).
-	let outcome = await guideViews.guidePage(params.slug, wanted, viewer, locals.guideStamp);
+	let outcome = await guideViews.guidePage(params.slug, wanted, viewer, stamp);
 	let regionProblem = query.success ? null : 'That is not a region code.';
 	if (outcome.kind === 'unknown_region') {
 		regionProblem = `We have no region “${wanted}”. Showing the guide's base region.`;
-		outcome = await guideViews.guidePage(params.slug, null, viewer, locals.guideStamp);
+		outcome = await guideViews.guidePage(params.slug, null, viewer, stamp);
 	}
-	if (outcome.kind !== 'ok') error(404, 'Guide not found');
+	if (outcome.kind !== 'ok' || !stamp) error(404, 'Guide not found');
 	// Public with an ETag for visitors, private for the signed in (http/guide-caching.ts).
 	setHeaders(cachingHeaders(locals));
 	const { guide, extras, hidden } = outcome.page;
@@ -67,10 +66,11 @@ export const load: PageServerLoad = async ({ params, url, locals, setHeaders }) 
 		diff,
 		compareProblem,
 		// The guide's id from the page read: the guide is not fetched by slug a second time.
-		lineage: await buildLists.lineageOf(outcome.guideId),
-		gallery: await publishedGallery(params.slug),
-		partThumbs: await partThumbs(guide.slots.map((s) => s.pick.slug)),
-		...(await tips.guideTipPanel(params.slug))
+		...(await pageExtras(
+			params.slug,
+			stamp,
+			guide.slots.map((s) => s.pick.slug)
+		))
 	};
 };
 
