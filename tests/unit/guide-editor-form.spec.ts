@@ -6,13 +6,12 @@ import {
 	emptySlot,
 	emptyThermal,
 	fromDraft,
-	fromForm,
 	moveSlot,
-	readEditorForm,
 	toInput,
 	withSuggestedAlternate
 } from '../../src/lib/schemas/guide-editor-form';
 import type { EditorDraft } from '../../src/lib/schemas/guide-editor-form';
+import { fromForm, readEditorForm } from '../../src/lib/schemas/guide-editor-post';
 
 const base: EditorDraft = {
 	title: 'Small box',

@@ -1,7 +1,8 @@
 import { error, redirect } from '@sveltejs/kit';
 import type { PartCategory } from '$lib/domain/types';
 import { buildNotesInput, saveDraftInput } from '$lib/schemas/guide-editor';
-import { applyOp, fromDraft, readEditorForm, toInput } from '$lib/schemas/guide-editor-form';
+import { applyOp, fromDraft, toInput } from '$lib/schemas/guide-editor-form';
+import { readEditorForm } from '$lib/schemas/guide-editor-post';
 import type { EditorDraft } from '$lib/schemas/guide-editor-form';
 import { mergeIssues, parseInput } from '$lib/schemas/issues';
 import type { Issues } from '$lib/schemas/issues';
