@@ -7,6 +7,13 @@ cd "$ROOT"
 step() { printf '\n==> %s\n' "$*"; }
 fail() { printf '\nFAILED at step: %s\n' "$*" >&2; exit 1; }
 
+# The app's V8 heap ceiling. Without one, V8 on a machine with plenty of RAM lets the heap grow
+# lazily: the app's resident memory reached about 600 MB under 50 connections while its live
+# heap stayed near 60 MB (bench:scale, docs/benchmarks.md). With the ceiling it stays near
+# 200 MB at the same throughput; the largest job in the app (the stored guide prices of
+# 10,000 guides) peaked at 61 MB of heap. bench/lib/harness.ts starts the app the same way.
+APP_HEAP_FLAG="--max-old-space-size=384"
+
 as_root() { if [ "$(id -u)" -eq 0 ]; then "$@"; else sudo "$@"; fi; }
 
 APT_UPDATED=0

@@ -44,4 +44,4 @@ fi
 port_free "$PORT" || fail "port $PORT is taken: choose another with PORT=…"
 
 step "Serving $ORIGIN against $DB_NAME on 127.0.0.1:$DB_PORT${DB_REPLICA_PORT:+ (reads from the replica on port $DB_REPLICA_PORT)}"
-exec node build
+exec node "$APP_HEAP_FLAG" build

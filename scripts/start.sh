@@ -38,4 +38,4 @@ MSG
 if [ -n "${MAILBOX_URL:-}" ]; then
 	echo "E-mail goes to the local SMTP fake; read it at $ORIGIN/dev/mailbox (stop it: bash scripts/smtp-fake.sh stop)"
 fi
-exec node build
+exec node "$APP_HEAP_FLAG" build

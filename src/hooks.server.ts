@@ -1,5 +1,4 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
-import { sequence } from '@sveltejs/kit/hooks';
 import { dev } from '$app/environment';
 import { authHandle } from '$lib/server/auth/config';
 import {
@@ -22,6 +21,7 @@ import { startScheduler, stopScheduler } from '$lib/server/schedule';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { conditionalGuideReads } from '$lib/server/http/guide-caching';
+import { chain } from '$lib/server/http/handle-chain';
 import { conditionalListReads } from '$lib/server/http/list-caching';
 import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
 import { logFailure, logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
@@ -51,7 +51,8 @@ export const init: ServerInit = () => {
 	startPhotoWorker();
 };
 
-export const handle = sequence(
+// In order, like `sequence` from @sveltejs/kit/hooks, without its tracing spans (handle-chain.ts).
+export const handle = chain(
 	log,
 	closeConnectionsWhenStopping,
 	securityHeaders,

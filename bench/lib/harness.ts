@@ -208,7 +208,8 @@ export async function startApp(env: Record<string, string>): Promise<{
 		throw new Error('No build/: run `npx vite build` first.');
 	const port = await freePort();
 	const origin = `http://${HOST}:${port}`;
-	const child = spawn(process.execPath, ['build'], {
+	// The heap ceiling of scripts/lib.sh (APP_HEAP_FLAG), as `npm start` and `npm run serve` run it.
+	const child = spawn(process.execPath, ['--max-old-space-size=384', 'build'], {
 		cwd: ROOT,
 		stdio: ['ignore', 'ignore', 'pipe'],
 		env: {
