@@ -1,6 +1,7 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
 import type { SessionUser } from '$lib/server/auth/session-user';
 import type { GuideStamp } from '$lib/server/services/guide-view-cache';
+import type { HeaderViewer } from '$lib/server/http/header-viewer';
 
 declare global {
 	namespace App {
@@ -22,6 +23,10 @@ declare global {
 			guideStamp?: GuideStamp | null;
 			/** The ETag of a visitor's guide page or pricing answer (http/guide-caching.ts). */
 			guideEtag?: string;
+			/** The header's viewer (http/header-viewer.ts), read once per request. */
+			headerViewer?: Promise<HeaderViewer>;
+			/** Cookies the hooks set on this request, for an answer made without resolve (http/cookie-writes.ts). */
+			cookieWrites?: [string, string, Parameters<import('@sveltejs/kit').Cookies['set']>[2]][];
 		}
 		// interface PageData {}
 		// interface PageState {}

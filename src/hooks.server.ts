@@ -22,6 +22,7 @@ import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { conditionalGuideReads } from '$lib/server/http/guide-caching';
 import { chain } from '$lib/server/http/handle-chain';
+import { recordCookieWrites } from '$lib/server/http/cookie-writes';
 import { conditionalListReads } from '$lib/server/http/list-caching';
 import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
 import { logFailure, logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
@@ -64,6 +65,8 @@ export const handle = chain(
 	formBodiesOnly,
 	// Before authHandle: the session check re-reads the account, from the primary after a write.
 	readYourWrites,
+	// Before the session check: Auth.js's renewed cookie goes on kept answers too.
+	recordCookieWrites,
 	authHandle,
 	resolveUser,
 	guardAreas,

@@ -1,11 +1,7 @@
-import { unreadCount } from '$lib/server/services/notices';
+import { headerViewer } from '$lib/server/http/header-viewer';
 import type { LayoutServerLoad } from './$types';
 
-/** Only what the header needs: who is signed in, their role, and their unread notices. */
-export const load: LayoutServerLoad = async ({ locals }) => {
-	const user = locals.user;
-	if (!user) return { viewer: null };
-	return {
-		viewer: { name: user.name ?? user.email, role: user.role, unread: await unreadCount(user.id) }
-	};
-};
+/** Only what the header needs: the viewer's role and unread notices (http/header-viewer.ts). */
+export const load: LayoutServerLoad = async ({ locals }) => ({
+	viewer: await headerViewer(locals)
+});

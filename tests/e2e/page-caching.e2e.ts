@@ -69,14 +69,58 @@ function alternatePrice(body: string) {
 	return alternate?.price ?? null;
 }
 
-async function jpStoreId(): Promise<number> {
-	const connection = await mysql.createConnection({
+/** Gives the person with `email` `count` unread notices. */
+async function addNotices(email: string, count: number): Promise<void> {
+	const connection = await connect();
+	try {
+		for (let i = 0; i < count; i++) {
+			await connection.query(
+				`INSERT INTO notices (user_id, kind, message, link_path, created_at)
+				 SELECT id, 'source_revised', 'A test notice (page caching).', '/notices', NOW() FROM users WHERE email = ?`,
+				[email]
+			);
+		}
+	} finally {
+		await connection.end();
+	}
+}
+
+/** Removes the notices addNotices made. */
+async function removeTestNotices(): Promise<void> {
+	const connection = await connect();
+	try {
+		await connection.query("DELETE FROM notices WHERE message = 'A test notice (page caching).'");
+	} finally {
+		await connection.end();
+	}
+}
+
+/** Unread notices of the person with `email`, counted in the database. */
+async function unreadOf(email: string): Promise<number> {
+	const connection = await connect();
+	try {
+		const [rows] = await connection.query(
+			'SELECT COUNT(*) AS n FROM notices n JOIN users u ON u.id = n.user_id WHERE u.email = ? AND n.read_at IS NULL',
+			[email]
+		);
+		return Number((rows as { n: number }[])[0]?.n);
+	} finally {
+		await connection.end();
+	}
+}
+
+function connect() {
+	return mysql.createConnection({
 		host: process.env.DB_HOST ?? '127.0.0.1',
 		port: Number(process.env.DB_PORT ?? 3307),
 		user: process.env.DB_USER ?? 'slotwise',
 		password: process.env.DB_PASSWORD ?? 'slotwise-dev',
 		database: process.env.DB_NAME ?? 'slotwise_e2e'
 	});
+}
+
+async function jpStoreId(): Promise<number> {
+	const connection = await connect();
 	try {
 		const [rows] = await connection.query(
 			"SELECT id FROM stores WHERE name = 'Kairo Denki' LIMIT 1"
@@ -196,44 +240,67 @@ test('signed-in people get private answers with their own parts only, never a sh
 	const visitor = await get(BASE_URL, PAGE);
 	const visitorTag = visitor.response.headers.get('etag') ?? '';
 	expect(visitorTag).not.toBe('');
-	// The visitor's page has no one's name and no report form (demo-data/users.ts names).
-	expect(visitor.body).not.toContain('Sam Okonkwo-Reyes');
-	expect(visitor.body).not.toContain('Tobias Wren');
+	// The visitor's page has no report form and no signed-in links.
 	expect(visitor.body).not.toContain('action="?/report"');
+	expect(visitor.body).not.toContain('href="/builds"');
 
 	await forgetAddressCounts();
+	// A reader and an author (demo-data/users.ts): their headers differ by role ("My guides"
+	// is for authors) and by their own count of unread notices.
 	const people = [
-		{ name: 'Sam Okonkwo-Reyes', cookie: await signIn(BASE_URL, 'reader@slotwise.test') },
-		{ name: 'Tobias Wren', cookie: await signIn(second.origin, 'tobias.wren@slotwise.test') }
+		{
+			name: 'Sam Okonkwo-Reyes',
+			email: 'reader@slotwise.test',
+			author: false,
+			cookie: await signIn(BASE_URL, 'reader@slotwise.test')
+		},
+		{
+			name: 'Tobias Wren',
+			email: 'tobias.wren@slotwise.test',
+			author: true,
+			cookie: await signIn(second.origin, 'tobias.wren@slotwise.test')
+		}
 	];
-	// Each asks both processes in turn, with the visitor's validator: the view is cached in
-	// each process by now, but the answer is their own page, never a 304.
-	for (const origin of [BASE_URL, second.origin]) {
-		for (const [i, me] of people.entries()) {
-			const other = people[1 - i]!;
-			for (const path of [PAGE, DATA, PRICING]) {
-				const mine = await get(origin, path, { cookie: me.cookie, 'if-none-match': visitorTag });
-				expect(mine.response.status, `${me.name} ${origin}${path}`).toBe(200);
-				expect(mine.response.headers.get('cache-control')).toBe('private, no-store');
-				// Never the visitor's validator (SvelteKit may add its own hash of this very body).
-				expect(mine.response.headers.get('etag')).not.toBe(visitorTag);
-				if (path !== PRICING) {
-					expect(mine.body).toContain(me.name);
-					expect(mine.body).not.toContain(other.name);
-				}
-				if (path === PAGE) {
-					// The signed-in part: the report form, absent from the visitor's page.
-					expect(mine.body).toContain('action="?/report"');
+	// The reader has two unread notices, the author none.
+	await addNotices('reader@slotwise.test', 2);
+	try {
+		// Each asks both processes twice (the second answer may be one the process kept), with
+		// the visitor's validator: never a 304, always their own page.
+		for (const origin of [BASE_URL, second.origin]) {
+			for (const me of [...people, ...people]) {
+				const unread = await unreadOf(me.email);
+				for (const path of [PAGE, DATA, PRICING]) {
+					const mine = await get(origin, path, { cookie: me.cookie, 'if-none-match': visitorTag });
+					expect(mine.response.status, `${me.name} ${origin}${path}`).toBe(200);
+					expect(mine.response.headers.get('cache-control')).toBe('private, no-store');
+					// Never the visitor's validator (SvelteKit may add its own hash of this very body).
+					expect(mine.response.headers.get('etag')).not.toBe(visitorTag);
+					// The session is renewed on every answer, kept or not (Auth.js's sliding expiry).
+					expect(mine.response.headers.getSetCookie().join(';')).toContain('session-token');
+					// Nothing about the person beyond their header: no name, no address.
+					for (const someone of people) {
+						expect(mine.body).not.toContain(someone.name);
+						expect(mine.body).not.toContain(someone.email);
+					}
+					if (path === PAGE) {
+						// The signed-in parts: the report form and the reader's own header.
+						expect(mine.body).toContain('action="?/report"');
+						expect(mine.body.includes('href="/my/guides"'), me.name).toBe(me.author);
+						const badge = /data-testid="unread-count"[^>]*>\s*(\d+)/.exec(mine.body)?.[1];
+						expect(Number(badge ?? 0), me.name).toBe(unread);
+						expect(unread, me.name).toBe(me.author ? 0 : 2);
+					}
 				}
 			}
 		}
+	} finally {
+		await removeTestNotices();
 	}
 	// And the visitor still gets the visitor's page, public, after both.
 	const later = await get(BASE_URL, PAGE);
 	expect(later.response.headers.get('cache-control')).toBe(PUBLIC);
-	expect(later.body).not.toContain('Sam Okonkwo-Reyes');
-	expect(later.body).not.toContain('Tobias Wren');
 	expect(later.body).not.toContain('action="?/report"');
+	expect(later.body).not.toContain('href="/builds"');
 });
 
 test('the guide lists give visitors a validator both processes honour, moved by an author’s new name', async () => {

@@ -216,4 +216,3 @@ export function readEditorForm(data: FormData): {
 export function fromForm(data: FormData): EditorDraft {
 	return readEditorForm(data).draft;
 }
-

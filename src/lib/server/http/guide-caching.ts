@@ -8,7 +8,8 @@
  *   handed on in locals). A GET whose ETag this process has answered before gets the same
  *   bytes again without a render (http/visitor-answers.ts).
  * - Signed-in people: `private, no-store` and no ETag. Their page carries their own parts
- *   (report form, fork panel, tip prompt), which no shared cache may keep or hand on.
+ *   (report form, fork panel, tip prompt), which no shared cache may keep or hand on. This
+ *   process keeps it for readers who would get the same bytes (http/signed-in-answers.ts).
  * - Every cacheable answer says `Vary: Cookie`, so a cache never gives a visitor's copy to
  *   someone who sends a session cookie (nor the reverse), and any answer that sets a cookie
  *   is turned private, whatever else said it was public.
@@ -21,6 +22,7 @@ import type { Handle } from '@sveltejs/kit';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { matchesIfNoneMatch, readStamp, validatorOf } from '$lib/server/services/guide-view-cache';
 import { PRIVATE_CACHING, PUBLIC_CACHING } from './caching-policy';
+import { signedInAnswer } from './signed-in-answers';
 import { keepIfPublic, keptAnswer } from './visitor-answers';
 
 export const GUIDE_PAGE_ROUTE = '/(public)/guides/[slug=slug]';
@@ -72,8 +74,13 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 		const kept = keptAnswer(etag);
 		if (kept) return kept;
 	}
+	if (event.locals.user) {
+		// The guide page only: the pricing API answers signed-in callers from the cached view.
+		return stamp && route === GUIDE_PAGE_ROUTE
+			? signedInAnswer(event, stamp, async () => resolve(event))
+			: resolve(event);
+	}
 	const response = await resolve(event);
-	if (event.locals.user) return response;
 	keepOutOfSharedCaches(response);
 	return etag && method === 'GET' ? keepIfPublic(etag, response) : response;
 };

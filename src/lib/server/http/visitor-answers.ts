@@ -9,33 +9,17 @@
  * per change, not once per visitor. Answers for signed-in people never come here.
  *
  * Only an answer that is plainly public is kept: 200, `public` caching with the ETag it was
- * asked for, no cookie set. Its headers are kept with it (the Content-Security-Policy holds
- * the hashes of the page's inline scripts, svelte.config.js `csp.mode: 'hash'`).
+ * asked for, no cookie set (http/kept-answers.ts keeps its headers with it).
  */
-import { LRUCache } from 'lru-cache';
+import { answerStore } from './kept-answers';
 import { PUBLIC_CACHING } from './caching-policy';
 
-interface KeptAnswer {
-	body: Uint8Array<ArrayBuffer>;
-	headers: [string, string][];
-}
-
 /** Bounded by bytes: about 90 KB per guide page, so several hundred pages at most. */
-const MAX_BYTES = 48 * 1024 * 1024;
-
-const answers = new LRUCache<string, KeptAnswer>({
-	maxSize: MAX_BYTES,
-	sizeCalculation: (answer) => Math.max(1, answer.body.byteLength)
-});
-
-/** Headers that belong to one exchange, not to the answer. */
-const NOT_KEPT = new Set(['set-cookie', 'date', 'content-length', 'connection']);
+const answers = answerStore(48 * 1024 * 1024);
 
 /** The answer kept for this ETag, as a fresh Response, or null. */
 export function keptAnswer(etag: string): Response | null {
-	const kept = answers.get(etag);
-	if (!kept) return null;
-	return new Response(kept.body, { status: 200, headers: kept.headers });
+	return answers.get(etag);
 }
 
 /**
@@ -44,17 +28,12 @@ export function keptAnswer(etag: string): Response | null {
  */
 export async function keepIfPublic(etag: string, response: Response): Promise<Response> {
 	if (
-		response.status !== 200 ||
 		response.headers.get('cache-control') !== PUBLIC_CACHING ||
 		response.headers.get('etag') !== etag ||
-		response.headers.getSetCookie().length > 0 ||
-		!response.body
+		response.headers.getSetCookie().length > 0
 	)
 		return response;
-	const body = new Uint8Array(await response.arrayBuffer());
-	const headers = [...response.headers].filter(([name]) => !NOT_KEPT.has(name.toLowerCase()));
-	answers.set(etag, { body, headers });
-	return new Response(body, { status: 200, headers });
+	return answers.keep(etag, response);
 }
 
 /** Forget every kept answer (tests; a process that changes what answers are made of). */
