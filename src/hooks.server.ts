@@ -27,7 +27,11 @@ import { conditionalListReads } from '$lib/server/http/list-caching';
 import { UNAVAILABLE_MESSAGE } from '$lib/server/http/unavailable';
 import { logFailure, logRequest, logShutdown, logUnexpectedError } from '$lib/server/log';
 import { closeRateLimits } from '$lib/server/rate-limit';
-import { closeConnectionsWhenStopping, watchForShutdown } from '$lib/server/shutdown';
+import {
+	closeConnectionsWhenStopping,
+	requestsFinished,
+	watchForShutdown
+} from '$lib/server/shutdown';
 
 const log: Handle = async ({ event, resolve }) => {
 	const started = performance.now();
@@ -93,7 +97,10 @@ export const handleError: HandleServerError = ({ error, event, status, message }
 // work left running after an answer (server/background.ts) finishes before the pools close.
 // With the pools closed nothing holds the event loop open, so the process exits with 0.
 process.once('sveltekit:shutdown' as never, (reason: string) => {
-	void settled()
+	// Requests whose clients left are still running here (server/shutdown.ts); then the work
+	// they left running after their answers.
+	void requestsFinished()
+		.then(() => settled())
 		// The scheduler ends its job in hand; the worker finishes the message it is sending
 		// and releases its claims first.
 		.then(() => stopScheduler())

@@ -177,3 +177,67 @@ test('SIGTERM mid-request: the request completes and is saved, the pools close, 
 		'| exit code | **0** |'
 	]);
 });
+
+test('SIGTERM while many requests are in flight and their clients have gone: the app still exits with 0', async () => {
+	// What a load balancer's health check or a deploy sees when it stops a busy process:
+	// clients that gave up mid-request. Node's server counts a connection its client closed
+	// as gone, so `sveltekit:shutdown` can come while those requests still run on the server;
+	// the pools must not close under them, and the process must still end.
+	const app = await startApp({ DB_NAME: process.env.DB_NAME ?? 'slotwise_e2e', LOG_LEVEL: 'info' });
+	const reader = await signIn(app.origin, 'reader@slotwise.test');
+	const gone = new AbortController();
+	const inFlight = [
+		// Password checks (argon2, the slowest request there is) for an account that is not
+		// rate limited by this test's own sign-in, fork writes and guide reads.
+		...Array.from({ length: 8 }, () =>
+			fetch(`${app.origin}/signin?/password`, {
+				method: 'POST',
+				signal: gone.signal,
+				headers: {
+					origin: app.origin,
+					accept: 'text/html',
+					'content-type': 'application/x-www-form-urlencoded'
+				},
+				body: new URLSearchParams({
+					email: 'tobias.wren@slotwise.test',
+					password: 'wrong-password-1'
+				})
+			})
+		),
+		...Array.from({ length: 8 }, () =>
+			fetch(`${app.origin}/api/v1/guides/steady-1080p-starter/fork`, {
+				method: 'POST',
+				signal: gone.signal,
+				headers: { cookie: reader, origin: app.origin, 'content-type': 'application/json' },
+				body: '{}'
+			})
+		),
+		...Array.from({ length: 16 }, (_, i) =>
+			fetch(`${app.origin}/guides/steady-1080p-starter?region=${['de', 'jp', 'us', 'gb'][i % 4]}`, {
+				signal: gone.signal,
+				headers: { cookie: reader }
+			})
+		)
+	].map((p) => p.catch(() => null));
+	await sleep(30);
+	gone.abort();
+	app.child.kill('SIGTERM');
+	await Promise.all(inFlight);
+
+	const exit = await Promise.race([app.exited, sleep(20_000).then(() => null)]);
+	if (exit === null) app.child.kill('SIGKILL');
+	expect(exit, `exited within 20 s of SIGTERM:\n${app.output().slice(-3_000)}`).toEqual({
+		code: 0,
+		signal: null
+	});
+	const shutdown = app
+		.output()
+		.split('\n')
+		.filter((l) => l.startsWith('{'))
+		.map((l) => JSON.parse(l) as { kind: string; pools?: string })
+		.find((l) => l.kind === 'shutdown');
+	expect(shutdown).toMatchObject({ pools: 'closed' });
+	// No request ran on after its pools had closed.
+	expect(app.output()).not.toContain('connection manager was closed');
+	expect(app.output()).not.toContain('Pool is closed');
+});
