@@ -28,7 +28,7 @@ import {
 	rssSampler,
 	startApp,
 	writeBenchSection,
-	signInAsReader,
+	signInAs,
 	DEMO_READER,
 	DEMO_PASSWORD
 } from './lib/harness';
@@ -37,6 +37,8 @@ import { startProxy } from './lib/proxy';
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 60);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 50);
 const ROUNDS = Number(process.env.BENCH_ROUNDS ?? 1);
+/** Readers who fork and edit (see signInCrowd): enough that none reaches the fork limit. */
+const CROWD = Number(process.env.BENCH_READERS ?? 600);
 const WARM_UP_SECONDS = 5;
 const DB_NAME = 'slotwise_bench_load';
 const SLUGS = [
@@ -151,7 +153,7 @@ type Context = Record<string, number | undefined>;
 type Req = { method?: string; path?: string; headers?: Record<string, string>; body?: string };
 
 /** The visit every connection repeats; statuses and latencies go into `tally`. */
-function visit(origin: string, session: string, tally: Tally) {
+function visit(origin: string, sessions: readonly string[], tally: Tally) {
 	const json = { 'content-type': 'application/json', accept: 'application/json', origin };
 	const timed = (kind: string, setup?: (req: Req, ctx: Context) => Req) => ({
 		setupRequest: (req: Req, ctx: Context) => {
@@ -179,6 +181,7 @@ function visit(origin: string, session: string, tally: Tally) {
 		}
 	};
 	const next = (ctx: Context) => (ctx.n = (ctx.n ?? 0) + 1);
+	let nextReader = 0;
 	return [
 		{
 			method: 'GET',
@@ -207,16 +210,19 @@ function visit(origin: string, session: string, tally: Tally) {
 		{
 			method: 'POST',
 			path: `/api/v1/guides/${SLUGS[0]}/fork`,
-			headers: { ...json, cookie: session },
 			body: '{}',
-			...timed('fork (signed in)')
+			// The next reader of the crowd forks; the edit that follows is theirs too.
+			...timed('fork (signed in)', (req, ctx) => {
+				ctx.reader = nextReader++ % sessions.length;
+				return { ...req, headers: { ...json, cookie: sessions[ctx.reader]! } };
+			})
 		},
 		{
 			method: 'PATCH',
 			path: '/',
-			headers: { ...json, cookie: session },
 			...timed('edit the fork (signed in)', (req, ctx) => ({
 				...req,
+				headers: { ...json, cookie: sessions[ctx.reader ?? 0]! },
 				path: `/api/v1/builds/${ctx.buildId ?? 0}`,
 				body: JSON.stringify({ version: ctx.version ?? 1, title: `Load run edit ${ctx.n ?? 0}` })
 			}))
@@ -245,9 +251,9 @@ interface CannonResult {
 
 async function run(
 	origin: string,
-	seconds: number
+	seconds: number,
+	sessions: readonly string[]
 ): Promise<{ result: CannonResult; tally: Tally }> {
-	const session = await signInAsReader(origin);
 	const tally: Tally = {
 		statuses: new Map(),
 		latencies: new Map(KINDS.map((k) => [k.name, []]))
@@ -257,7 +263,7 @@ async function run(
 		connections: CONNECTIONS,
 		duration: seconds,
 		timeout: 30,
-		requests: visit(origin, session, tally)
+		requests: visit(origin, sessions, tally)
 	})) as CannonResult;
 	return { result, tally };
 }
@@ -353,7 +359,8 @@ async function oneSide(processes: 1 | 2): Promise<SideReport> {
 	let ok = false;
 	try {
 		console.log(`warming up ${label} for ${WARM_UP_SECONDS} s`);
-		await run(origin, WARM_UP_SECONDS);
+		const sessions = await signInCrowd(origin);
+		await run(origin, WARM_UP_SECONDS, sessions);
 		await drain(`${origin}/api/health`);
 		const samplers = apps.map((a) => rssSampler(a.process.pid ?? 0));
 		const measured = [
@@ -363,7 +370,7 @@ async function oneSide(processes: 1 | 2): Promise<SideReport> {
 		];
 		const cpuBefore = measured.map((m) => cpuSeconds(m.pid));
 		console.log(`timing ${label} for ${SECONDS} s at ${CONNECTIONS} connections`);
-		const { result, tally } = await run(origin, SECONDS);
+		const { result, tally } = await run(origin, SECONDS, sessions);
 		const cpu = measured.map((m, n) => ({
 			name: m.name,
 			seconds: cpuSeconds(m.pid) - cpuBefore[n]!
@@ -389,6 +396,42 @@ function prepareDatabase(): void {
 	sh(['scripts/db.sh', 'recreate', DB_NAME]);
 	for (const step of ['migrate', 'seed'])
 		execFileSync('npx', ['tsx', `scripts/${step}.ts`, 'up'], { cwd: ROOT, env, stdio: 'pipe' });
+	// The crowd: readers with the demo reader's password (the same argon2 hash), in this
+	// scratch database only. MariaDB's sequence engine numbers them.
+	const dataDir = process.env.SLOTWISE_DATA_DIR ?? resolve(ROOT, '.data');
+	execFileSync(
+		'mariadb',
+		[
+			'--no-defaults',
+			`--socket=${resolve(dataDir, 'mariadb.sock')}`,
+			'-uroot',
+			DB_NAME,
+			'-e',
+			`INSERT INTO users (id, email, name, password_hash, role, email_verified_at, created_at,
+			                    updated_at, handle)
+			 SELECT UUID(), CONCAT('load-reader-', s.seq, '@slotwise.test'), CONCAT('Load Reader ', s.seq),
+			        u.password_hash, 'reader', NOW(), NOW(), NOW(), CONCAT('load-reader-', s.seq)
+			   FROM users u JOIN seq_1_to_${CROWD} s
+			  WHERE u.email = '${DEMO_READER}'`
+		],
+		{ stdio: 'pipe' }
+	);
+}
+
+/**
+ * The crowd's sessions, signed in through the real form a few at a time. Forks are limited
+ * to 20 per account an hour (server/rate-limit.ts), so the load forks as many readers, each
+ * a few times, as a real crowd would; the sign-ins in the load itself are the demo reader's.
+ */
+async function signInCrowd(origin: string): Promise<string[]> {
+	const sessions: string[] = [];
+	for (let first = 1; first <= CROWD; first += 8) {
+		const batch = Array.from({ length: Math.min(8, CROWD - first + 1) }, (_, i) =>
+			signInAs(origin, `load-reader-${first + i}@slotwise.test`)
+		);
+		sessions.push(...(await Promise.all(batch)));
+	}
+	return sessions;
 }
 
 function sideLines(side: SideReport): { lines: string[]; unexpected: number; flat: boolean } {
@@ -471,7 +514,8 @@ async function main(): Promise<void> {
 		`autocannon on loopback, ${CONNECTIONS} connections, ${SECONDS} s timed after a ${WARM_UP_SECONDS} s warm-up and a drain,`,
 		`${ROUNDS} round(s) per side, one process first. Every connection repeats one visit: a guide page (the four demo`,
 		'guides in turn), the guide list, a guide re-priced in a region (JSON), a fit check of a seven-part build (JSON),',
-		'a fork and an edit of that fork (signed in), and a password sign-in. A fresh seeded database of its own;',
+		`a fork and an edit of that fork (signed in, by the next of ${CROWD} readers), and a password sign-in of the`,
+		'demo reader. A fresh seeded database of its own;',
 		'MariaDB, the proxy, autocannon and the app processes share the machine.',
 		'',
 		...reports.flatMap((r) => r.lines),

@@ -217,7 +217,7 @@ export async function startApp(env: Record<string, string>): Promise<{
 			PORT: String(port),
 			HOST,
 			ORIGIN: origin,
-			LOG_LEVEL: 'silent',
+			LOG_LEVEL: process.env.APP_LOG_LEVEL ?? 'silent',
 			// The pages are measured, not the daily upkeep pass: in a fresh scratch database the
 			// scheduler's first tick would run that pass (minutes at 10,000 guides) inside the
 			// timed windows. Its cost is measured on its own (bench:scale, "stored guide prices").
@@ -236,9 +236,18 @@ export async function startApp(env: Record<string, string>): Promise<{
 		origin,
 		process: child,
 		errors: () => stderr,
+		// SIGTERM, as a service manager stops it. An app that has not exited 40 s later (its
+		// shutdown is stuck) is killed and the run fails with its log, rather than hang.
 		stop: () =>
-			new Promise((done) => {
-				child.once('exit', () => done());
+			new Promise((done, fail) => {
+				const stuck = setTimeout(() => {
+					child.kill('SIGKILL');
+					fail(new Error(`the app did not exit within 40 s of SIGTERM:\n${stderr}`));
+				}, 40_000);
+				child.once('exit', () => {
+					clearTimeout(stuck);
+					done();
+				});
 				child.kill('SIGTERM');
 			})
 	};
@@ -353,8 +362,8 @@ export function writeBenchSection(name: string, lines: string[]): string {
 export const DEMO_READER = 'reader@slotwise.test';
 export const DEMO_PASSWORD = 'slotwise-demo-password';
 
-/** Signs the demo reader in through the real form; the session cookie for later requests. */
-export async function signInAsReader(origin: string): Promise<string> {
+/** Signs a demo account in through the real form; the session cookie for later requests. */
+export async function signInAs(origin: string, email: string): Promise<string> {
 	const response = await fetch(`${origin}/signin?/password`, {
 		method: 'POST',
 		redirect: 'manual',
@@ -363,12 +372,17 @@ export async function signInAsReader(origin: string): Promise<string> {
 			accept: 'text/html',
 			'content-type': 'application/x-www-form-urlencoded'
 		},
-		body: new URLSearchParams({ email: DEMO_READER, password: DEMO_PASSWORD })
+		body: new URLSearchParams({ email, password: DEMO_PASSWORD })
 	});
-	if (response.status !== 303) throw new Error(`sign-in answered ${response.status}`);
+	if (response.status !== 303) throw new Error(`sign-in of ${email} answered ${response.status}`);
 	return response.headers
 		.getSetCookie()
 		.map((c) => c.split(';')[0])
 		.filter((c) => c?.startsWith('authjs.session-token'))
 		.join('; ');
+}
+
+/** Signs the demo reader in. */
+export function signInAsReader(origin: string): Promise<string> {
+	return signInAs(origin, DEMO_READER);
 }
