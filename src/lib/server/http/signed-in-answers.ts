@@ -15,6 +15,7 @@
  * fifty signed-in readers of one guide cost fifty renders; now they cost one per change.
  */
 import type { RequestEvent } from '@sveltejs/kit';
+import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { validatorOf } from '$lib/server/services/guide-view-cache';
 import type { GuideStamp } from '$lib/server/services/guide-view-cache';
 import { PRIVATE_CACHING } from './caching-policy';
@@ -31,7 +32,15 @@ export async function signedInAnswer(
 	render: () => Promise<Response>
 ): Promise<Response> {
 	if (stamp.hidden || event.request.method !== 'GET') return render();
-	const viewer = await headerViewer(event.locals);
+	let viewer: Awaited<ReturnType<typeof headerViewer>>;
+	try {
+		viewer = await headerViewer(event.locals);
+	} catch (error) {
+		// MariaDB went away: the layout meets the same failure inside resolve, where it
+		// becomes the calm 503 (hooks.server.ts handleError, outageAs503), not a bare 500.
+		if (!isDatabaseUnavailable(error)) throw error;
+		return render();
+	}
 	const key = validatorOf(stamp, [
 		'signed-in',
 		stamp.extras,
