@@ -28,10 +28,10 @@ import {
 	rssSampler,
 	startApp,
 	writeBenchSection,
-	signInAs,
 	DEMO_READER,
 	DEMO_PASSWORD
 } from './lib/harness';
+import { addCrowd, signInCrowd } from './lib/crowd';
 import { startProxy } from './lib/proxy';
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 60);
@@ -359,7 +359,7 @@ async function oneSide(processes: 1 | 2): Promise<SideReport> {
 	let ok = false;
 	try {
 		console.log(`warming up ${label} for ${WARM_UP_SECONDS} s`);
-		const sessions = await signInCrowd(origin);
+		const sessions = await signInCrowd(origin, CROWD);
 		await run(origin, WARM_UP_SECONDS, sessions);
 		await drain(`${origin}/api/health`);
 		const samplers = apps.map((a) => rssSampler(a.process.pid ?? 0));
@@ -396,42 +396,7 @@ function prepareDatabase(): void {
 	sh(['scripts/db.sh', 'recreate', DB_NAME]);
 	for (const step of ['migrate', 'seed'])
 		execFileSync('npx', ['tsx', `scripts/${step}.ts`, 'up'], { cwd: ROOT, env, stdio: 'pipe' });
-	// The crowd: readers with the demo reader's password (the same argon2 hash), in this
-	// scratch database only. MariaDB's sequence engine numbers them.
-	const dataDir = process.env.SLOTWISE_DATA_DIR ?? resolve(ROOT, '.data');
-	execFileSync(
-		'mariadb',
-		[
-			'--no-defaults',
-			`--socket=${resolve(dataDir, 'mariadb.sock')}`,
-			'-uroot',
-			DB_NAME,
-			'-e',
-			`INSERT INTO users (id, email, name, password_hash, role, email_verified_at, created_at,
-			                    updated_at, handle)
-			 SELECT UUID(), CONCAT('load-reader-', s.seq, '@slotwise.test'), CONCAT('Load Reader ', s.seq),
-			        u.password_hash, 'reader', NOW(), NOW(), NOW(), CONCAT('load-reader-', s.seq)
-			   FROM users u JOIN seq_1_to_${CROWD} s
-			  WHERE u.email = '${DEMO_READER}'`
-		],
-		{ stdio: 'pipe' }
-	);
-}
-
-/**
- * The crowd's sessions, signed in through the real form a few at a time. Forks are limited
- * to 20 per account an hour (server/rate-limit.ts), so the load forks as many readers, each
- * a few times, as a real crowd would; the sign-ins in the load itself are the demo reader's.
- */
-async function signInCrowd(origin: string): Promise<string[]> {
-	const sessions: string[] = [];
-	for (let first = 1; first <= CROWD; first += 8) {
-		const batch = Array.from({ length: Math.min(8, CROWD - first + 1) }, (_, i) =>
-			signInAs(origin, `load-reader-${first + i}@slotwise.test`)
-		);
-		sessions.push(...(await Promise.all(batch)));
-	}
-	return sessions;
+	addCrowd(DB_NAME, CROWD);
 }
 
 function sideLines(side: SideReport): { lines: string[]; unexpected: number; flat: boolean } {

@@ -1,22 +1,15 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { QueryTypes } from 'sequelize';
 import { Guide, User, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
 import * as accounts from '../../src/lib/server/services/accounts';
-import { resetDatabase } from '../support/db';
+import { generationCounter, resetDatabase } from '../support/db';
 
 /*
  * The guide lists' validator (src/lib/server/http/list-caching.ts) reads the `guide-list`
  * counter. Every write to a guide row, and an author's new name, must move it, and only
  * once the write is committed: a reader that sees the new counter must see the write.
  */
-async function counter(): Promise<number> {
-	const [row] = await sequelize.query<{ value: number }>(
-		"SELECT value FROM cache_generations WHERE name = 'guide-list'",
-		{ type: QueryTypes.SELECT }
-	);
-	return Number(row?.value ?? 0);
-}
+const counter = () => generationCounter('guide-list');
 
 beforeAll(async () => {
 	await resetDatabase();

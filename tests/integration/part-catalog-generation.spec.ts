@@ -1,21 +1,14 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { QueryTypes } from 'sequelize';
 import { Part, Photo, Quote, Store, sequelize } from '../../src/lib/server/db';
 import { seeder } from '../../src/lib/server/db/seeders';
-import { resetDatabase } from '../support/db';
+import { generationCounter, resetDatabase } from '../support/db';
 
 /*
  * The catalog's validator (src/lib/server/http/list-caching.ts) reads the `part-catalog`
  * counter. Every write to a part, quote, store or photo row must move it, whichever service
  * or process made it, and only once the write is committed.
  */
-async function counter(): Promise<number> {
-	const [row] = await sequelize.query<{ value: number }>(
-		"SELECT value FROM cache_generations WHERE name = 'part-catalog'",
-		{ type: QueryTypes.SELECT }
-	);
-	return Number(row?.value ?? 0);
-}
+const counter = () => generationCounter('part-catalog');
 
 beforeAll(async () => {
 	await resetDatabase();

@@ -30,3 +30,12 @@ export async function countRows(table: string): Promise<number> {
 	});
 	return Number(row?.n ?? 0);
 }
+
+/** A cache_generations counter as another connection reads it (0 before its first bump). */
+export async function generationCounter(name: string): Promise<number> {
+	const [row] = await sequelize.query<{ value: number }>(
+		'SELECT value FROM cache_generations WHERE name = :name',
+		{ type: QueryTypes.SELECT, replacements: { name } }
+	);
+	return Number(row?.value ?? 0);
+}
