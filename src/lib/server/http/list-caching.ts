@@ -7,8 +7,8 @@
  * that changes a guide view), then `guide-list` for the guide lists (any write to a guide
  * row, an author's new name; models/Guide.ts and accounts.ts) or `part-catalog` for the
  * catalog (any write to a part, quote, store or photo; db/generation-hooks.ts). Plus the UTC
- * day, the route, document or data, and the query. A matching If-None-Match gets a 304, and a GET this
- * process has answered under the same validator gets the same bytes again
+ * day, the route, document or data, and the query. A matching If-None-Match gets a 304, and
+ * a GET this process has answered under the same validator gets the same bytes again
  * (visitor-answers.ts), so a list is made once per change, not once per visitor.
  *
  * Signed-in people pass straight through: their lists carry their own parts.
@@ -33,7 +33,7 @@ export const LIST_ROUTES: ReadonlyMap<string, string> = new Map([
 	['/api/v1/parts', PART_CATALOG]
 ]);
 
-/** Both counters and the day, as one string; concurrent visitors share the read (db/shared-reads.ts). */
+/** The views' counter, the list's own and the day, as one string; concurrent visitors share the read (db/shared-reads.ts). */
 const readListStamp = sharedRead(async (counter: string) => {
 	const rows = await sequelize.query<{ name: string; value: number | string }>(
 		'SELECT name, value FROM cache_generations WHERE name IN (:names)',
