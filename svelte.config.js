@@ -11,19 +11,20 @@ const base = nodeAdapter({ out: OUT, precompress: false });
 /*
  * adapter-node serves static files (and SvelteKit answers redirects and errors thrown in
  * hooks) without passing through our hooks, and it has no option to add headers. So its
- * server entry is kept as build/server.js and build/index.js becomes a small wrapper that
- * sets the baseline security headers on every response before anything else writes one
- * (src/lib/server/http/security-headers.js; docs/security.md §1). `node build` still starts
- * the same server, with the same environment variables and graceful shutdown.
+ * server entry is kept as build/server.js and build/index.js becomes our small entry
+ * (src/lib/server/http/server-entry.js) that sets the baseline security headers on every
+ * response before anything else writes one (docs/security.md §1) and opens the app's front
+ * door for visitors' kept answers (src/lib/server/http/front-door.ts). `node build` still
+ * starts the same server, with the same environment variables and graceful shutdown.
  */
 /**
  * @param {import('@sveltejs/kit').Adapter} adapter
  * @returns {import('@sveltejs/kit').Adapter}
  */
-function withSecurityHeaders(adapter) {
+function withServerEntry(adapter) {
 	return {
 		...adapter,
-		name: `${adapter.name} + security headers`,
+		name: `${adapter.name} + our server entry`,
 		async adapt(builder) {
 			await adapter.adapt(builder);
 			renameSync(join(OUT, 'index.js'), join(OUT, 'server.js'));
@@ -36,24 +37,7 @@ function withSecurityHeaders(adapter) {
 				);
 			}
 			copyFileSync('src/lib/server/http/security-headers.js', join(OUT, 'security-headers.js'));
-			writeFileSync(
-				join(OUT, 'index.js'),
-				[
-					"// Written by svelte.config.js: adapter-node's server with the security headers on every response.",
-					"import { baselineHeaders, originIsHttps } from './security-headers.js';",
-					"import { server } from './server.js';",
-					'',
-					'const headers = Object.entries(baselineHeaders({ https: originIsHttps(process.env.ORIGIN) }));',
-					'// First listener: runs before polka hands the request to sirv or SvelteKit, whose own',
-					"// headers (a page's CSP with nonces) replace these where they set the same name.",
-					"server.server.prependListener('request', (_request, response) => {",
-					'\tfor (const [name, value] of headers) response.setHeader(name, value);',
-					'});',
-					'',
-					"export * from './server.js';",
-					''
-				].join('\n')
-			);
+			copyFileSync('src/lib/server/http/server-entry.js', join(OUT, 'index.js'));
 		}
 	};
 }
@@ -63,7 +47,7 @@ const config = {
 	extensions: ['.svelte', ...mdsvexConfig.extensions],
 	preprocess: [vitePreprocess(), mdsvex(mdsvexConfig)],
 	kit: {
-		adapter: withSecurityHeaders(base),
+		adapter: withServerEntry(base),
 		alias: {
 			$tests: 'tests'
 		},

@@ -21,6 +21,7 @@ import { startScheduler, stopScheduler } from '$lib/server/schedule';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
 import { readYourWrites } from '$lib/server/db/read-your-writes';
 import { conditionalGuideReads } from '$lib/server/http/guide-caching';
+import { openFrontDoor } from '$lib/server/http/front-door';
 import { chain } from '$lib/server/http/handle-chain';
 import { recordCookieWrites } from '$lib/server/http/cookie-writes';
 import { conditionalListReads } from '$lib/server/http/list-caching';
@@ -47,7 +48,11 @@ export const init: ServerInit = () => {
 			'AUTH_SECRET must be set to at least 32 random characters (npm start makes one for development).'
 		);
 	}
-	if (!dev) watchForShutdown();
+	if (!dev) {
+		watchForShutdown();
+		// Visitors' kept answers are sent again before SvelteKit sees the request (front-door.ts).
+		openFrontDoor();
+	}
 	// The mail queue's worker runs beside the app (MAIL_WORKER=off leaves it to `npm run worker`).
 	startInlineWorker();
 	// The periodic upkeep jobs run where the mail worker runs (server/schedule).

@@ -7,16 +7,32 @@ import type { RequestEvent } from '@sveltejs/kit';
 const quiet = process.env.LOG_LEVEL === 'silent';
 
 export function logRequest(event: RequestEvent, status: number, ms: number) {
+	logAnswer(event.request.method, event.url.pathname, event.route.id, status, ms);
+}
+
+/**
+ * One request's line; `via` names where an answer sent before SvelteKit saw the request
+ * came from (`front-door`: http/front-door.ts).
+ */
+export function logAnswer(
+	method: string,
+	path: string,
+	route: string | null,
+	status: number,
+	ms: number,
+	via?: string
+) {
 	if (quiet) return;
 	console.log(
 		JSON.stringify({
 			t: new Date().toISOString(),
 			kind: 'request',
-			method: event.request.method,
-			path: event.url.pathname,
-			route: event.route.id,
+			method,
+			path,
+			route,
 			status,
-			ms: Math.round(ms)
+			ms: Math.round(ms),
+			...(via ? { via } : {})
 		})
 	);
 }

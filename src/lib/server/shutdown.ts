@@ -47,14 +47,23 @@ export function watchForShutdown(): void {
 		});
 }
 
-export const closeConnectionsWhenStopping: Handle = async ({ event, resolve }) => {
+/** Whether the process has been told to stop. */
+export function isStopping(): boolean {
+	return stopping;
+}
+
+/** Runs `work` as a request the shutdown waits for (the hooks, and http/front-door.ts). */
+export async function asCountedRequest<T>(work: () => T | Promise<T>): Promise<T> {
 	inFlight++;
-	let response: Response;
 	try {
-		response = await resolve(event);
+		return await work();
 	} finally {
 		inFlight--;
 	}
+}
+
+export const closeConnectionsWhenStopping: Handle = async ({ event, resolve }) => {
+	const response = await asCountedRequest(() => resolve(event));
 	if (stopping) {
 		try {
 			response.headers.set('connection', 'close');

@@ -20,16 +20,40 @@
  */
 import type { Handle } from '@sveltejs/kit';
 import { isDatabaseUnavailable } from '$lib/server/db/availability';
-import { matchesIfNoneMatch, readStamp, validatorOf } from '$lib/server/services/guide-view-cache';
+import {
+	matchesIfNoneMatch,
+	readStamp,
+	validatorOf,
+	type GuideStamp
+} from '$lib/server/services/guide-view-cache';
 import { PRIVATE_CACHING, PUBLIC_CACHING } from './caching-policy';
 import { signedInAnswer } from './signed-in-answers';
-import { keepIfPublic, keptAnswer } from './visitor-answers';
+import { rememberAtFrontDoor } from './front-door';
+import { keepIfPublic, keptAnswer, keptBytes } from './visitor-answers';
 
 export const GUIDE_PAGE_ROUTE = '/(public)/guides/[slug=slug]';
 export const PRICING_ROUTE = '/api/v1/guides/[slug=slug]/pricing';
 
 /** The page's parts outside the stamp (forks, gallery, tip notes) change the ETag this often. */
 const PAGE_EXTRAS_PERIOD_MS = 60_000;
+
+/** A visitor's validator for this guide answer, from `stamp` (null: the answer has none). */
+function visitorEtag(
+	stamp: GuideStamp | null,
+	route: string,
+	kind: 'data' | 'document',
+	search: string
+): string | null {
+	if (!stamp || stamp.hidden) return null;
+	return validatorOf(stamp, [
+		route,
+		kind,
+		// The request's own query: SvelteKit takes x-sveltekit-invalidated (which loads a
+		// data request re-runs) out of event.url, and it changes what the answer holds.
+		search,
+		route === GUIDE_PAGE_ROUTE ? String(Math.floor(Date.now() / PAGE_EXTRAS_PERIOD_MS)) : ''
+	]);
+}
 
 export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 	const route = event.route.id;
@@ -39,9 +63,10 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 		(route !== GUIDE_PAGE_ROUTE && route !== PRICING_ROUTE)
 	)
 		return resolve(event);
+	const slug = event.params.slug ?? '';
 	let stamp: Awaited<ReturnType<typeof readStamp>>;
 	try {
-		stamp = await readStamp(event.params.slug ?? '', new Date(), {
+		stamp = await readStamp(slug, new Date(), {
 			shared: !event.locals.user
 		});
 	} catch (error) {
@@ -52,15 +77,12 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 		return resolve(event);
 	}
 	event.locals.guideStamp = stamp;
-	if (!event.locals.user && stamp && !stamp.hidden) {
-		const etag = validatorOf(stamp, [
-			route,
-			event.isDataRequest ? 'data' : 'document',
-			// The request's own query: SvelteKit takes x-sveltekit-invalidated (which loads a
-			// data request re-runs) out of event.url, and it changes what the answer holds.
-			new URL(event.request.url).search,
-			route === GUIDE_PAGE_ROUTE ? String(Math.floor(Date.now() / PAGE_EXTRAS_PERIOD_MS)) : ''
-		]);
+	const kind = event.isDataRequest ? 'data' : 'document';
+	const search = new URL(event.request.url).search;
+	const currentEtag = async () =>
+		visitorEtag(await readStamp(slug, new Date(), { shared: true }), route, kind, search);
+	const etag = event.locals.user ? null : visitorEtag(stamp, route, kind, search);
+	if (etag) {
 		event.locals.guideEtag = etag;
 		if (matchesIfNoneMatch(event.request.headers.get('if-none-match'), etag)) {
 			return new Response(null, {
@@ -69,10 +91,12 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 			});
 		}
 	}
-	const etag = event.locals.guideEtag;
 	if (etag && method === 'GET') {
 		const kept = keptAnswer(etag);
-		if (kept) return kept;
+		if (kept) {
+			rememberAtFrontDoor(event.request, route, currentEtag);
+			return kept;
+		}
 	}
 	if (event.locals.user) {
 		// The guide page only: the pricing API answers signed-in callers from the cached view.
@@ -82,7 +106,10 @@ export const conditionalGuideReads: Handle = async ({ event, resolve }) => {
 	}
 	const response = await resolve(event);
 	keepOutOfSharedCaches(response);
-	return etag && method === 'GET' ? keepIfPublic(etag, response) : response;
+	if (!etag || method !== 'GET') return response;
+	const sent = await keepIfPublic(etag, response);
+	if (keptBytes(etag)) rememberAtFrontDoor(event.request, route, currentEtag);
+	return sent;
 };
 
 /**

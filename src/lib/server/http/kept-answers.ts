@@ -7,7 +7,7 @@
  */
 import { LRUCache } from 'lru-cache';
 
-interface KeptAnswer {
+export interface KeptAnswer {
 	body: Uint8Array<ArrayBuffer>;
 	headers: [string, string][];
 }
@@ -18,6 +18,8 @@ const NOT_KEPT = new Set(['set-cookie', 'date', 'content-length', 'connection'])
 export interface AnswerStore {
 	/** The answer kept under `key`, as a fresh Response, or null. */
 	get(key: string): Response | null;
+	/** The kept bytes and headers themselves, for an answer written straight to Node's response. */
+	peek(key: string): KeptAnswer | null;
 	/** Keeps a 200's bytes and headers under `key`; returns the Response to send in its place. */
 	keep(key: string, response: Response): Promise<Response>;
 	clear(): void;
@@ -32,6 +34,9 @@ export function answerStore(maxBytes: number): AnswerStore {
 		get(key) {
 			const kept = answers.get(key);
 			return kept ? new Response(kept.body, { status: 200, headers: kept.headers }) : null;
+		},
+		peek(key) {
+			return answers.get(key) ?? null;
 		},
 		async keep(key, response) {
 			if (response.status !== 200 || !response.body) return response;

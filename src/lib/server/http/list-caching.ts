@@ -22,7 +22,8 @@ import { GUIDE_LIST, GUIDE_VIEW, PART_CATALOG } from '$lib/server/db/generation-
 import { matchesIfNoneMatch, weakValidator } from '$lib/server/services/guide-view-cache';
 import { PUBLIC_CACHING } from './caching-policy';
 import { keepOutOfSharedCaches } from './guide-caching';
-import { keepIfPublic, keptAnswer } from './visitor-answers';
+import { rememberAtFrontDoor } from './front-door';
+import { keepIfPublic, keptAnswer, keptBytes } from './visitor-answers';
 
 /** Each kept list's route and the counter that, with `guide-view`, says when it changes. */
 export const LIST_ROUTES: ReadonlyMap<string, string> = new Map([
@@ -48,25 +49,26 @@ const readListStamp = sharedRead(async (counter: string) => {
 	]);
 });
 
+/** The validator of a visitor's list answer, from the current stamp. */
+async function listEtag(counter: string, route: string, kind: string, search: string) {
+	return weakValidator(['guide-list', await readListStamp(counter), route, kind, search]);
+}
+
 export const conditionalListReads: Handle = async ({ event, resolve }) => {
 	const route = event.route.id ?? '';
 	const counter = LIST_ROUTES.get(route);
 	if (event.request.method !== 'GET' || !counter || event.locals.user) return resolve(event);
-	let stamp: string;
+	const kind = event.isDataRequest ? 'data' : 'document';
+	const search = new URL(event.request.url).search;
+	const currentEtag = () => listEtag(counter, route, kind, search);
+	let etag: string;
 	try {
-		stamp = await readListStamp(counter);
+		etag = await currentEtag();
 	} catch (error) {
 		// An outage: the page's own load meets it and answers the calm 503.
 		if (!isDatabaseUnavailable(error)) throw error;
 		return resolve(event);
 	}
-	const etag = weakValidator([
-		'guide-list',
-		stamp,
-		route,
-		event.isDataRequest ? 'data' : 'document',
-		new URL(event.request.url).search
-	]);
 	if (matchesIfNoneMatch(event.request.headers.get('if-none-match'), etag)) {
 		return new Response(null, {
 			status: 304,
@@ -74,7 +76,10 @@ export const conditionalListReads: Handle = async ({ event, resolve }) => {
 		});
 	}
 	const kept = keptAnswer(etag);
-	if (kept) return kept;
+	if (kept) {
+		rememberAtFrontDoor(event.request, route, currentEtag);
+		return kept;
+	}
 	const response = await resolve(event);
 	// Only a plain 200 that set no caching of its own becomes public.
 	if (response.status !== 200 || response.headers.has('cache-control')) return response;
@@ -86,5 +91,7 @@ export const conditionalListReads: Handle = async ({ event, resolve }) => {
 		return response; // immutable headers: not a page or list answer of ours
 	}
 	keepOutOfSharedCaches(response);
-	return keepIfPublic(etag, response);
+	const sent = await keepIfPublic(etag, response);
+	if (keptBytes(etag)) rememberAtFrontDoor(event.request, route, currentEtag);
+	return sent;
 };

@@ -11,7 +11,7 @@
  * Only an answer that is plainly public is kept: 200, `public` caching with the ETag it was
  * asked for, no cookie set (http/kept-answers.ts keeps its headers with it).
  */
-import { answerStore } from './kept-answers';
+import { answerStore, type KeptAnswer } from './kept-answers';
 import { PUBLIC_CACHING } from './caching-policy';
 
 /** Bounded by bytes: about 90 KB per guide page, so several hundred pages at most. */
@@ -20,6 +20,11 @@ const answers = answerStore(48 * 1024 * 1024);
 /** The answer kept for this ETag, as a fresh Response, or null. */
 export function keptAnswer(etag: string): Response | null {
 	return answers.get(etag);
+}
+
+/** The bytes and headers kept for this ETag, or null (http/front-door.ts writes them itself). */
+export function keptBytes(etag: string): KeptAnswer | null {
+	return answers.peek(etag);
 }
 
 /**
