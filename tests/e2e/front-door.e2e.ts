@@ -153,6 +153,37 @@ test('requests with any cookie, and HEAD requests, never come through the door',
 	expect(head.via).toBe('hooks');
 });
 
+test('a page the browser revalidates (a 304) keeps its own policy and runs its scripts, at the door or through the hooks', async ({
+	browser
+}) => {
+	// A 304's headers replace the stored answer's (RFC 9111 §4.3.4): a 304 carrying the
+	// baseline policy for files and JSON blocked every script and stylesheet of the page.
+	for (const cookie of [null, { name: 'theme', value: 'dark' }]) {
+		const context = await browser.newContext();
+		if (cookie) await context.addCookies([{ ...cookie, url: app.origin }]);
+		const page = await context.newPage();
+		const blocked: string[] = [];
+		page.on('console', (m) => {
+			if (m.text().includes('Content Security Policy')) blocked.push(m.text());
+		});
+		const from = app.output().length;
+		for (let visit = 0; visit < 3; visit++) await page.goto(`${app.origin}${PAGE}`);
+		const revalidated = answersSince(from).filter((a) => a.path === PAGE && a.status === 304);
+		expect(revalidated.length, 'the browser revalidated the page').toBeGreaterThan(0);
+		if (!cookie) expect(revalidated.every((a) => a.via === 'front-door')).toBe(true);
+		else expect(revalidated.some((a) => a.via === 'front-door')).toBe(false);
+		expect(blocked, 'nothing blocked by a policy').toEqual([]);
+		// Hydrated: the client router takes the next link without a full load.
+		await page.evaluate(() => ((window as unknown as { hydrated: boolean }).hydrated = true));
+		await page.getByRole('link', { name: 'Guides', exact: true }).first().click();
+		await page.waitForURL(/\/guides$/);
+		expect(await page.evaluate(() => (window as unknown as { hydrated?: boolean }).hydrated)).toBe(
+			true
+		);
+		await context.close();
+	}
+});
+
 /** Sends one raw HTTP/1.1 GET for `target` and returns the status line. */
 function rawGet(target: string): Promise<string> {
 	return new Promise<string>((done, fail) => {

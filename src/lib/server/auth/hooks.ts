@@ -266,7 +266,10 @@ export const securityHeaders: Handle = async ({ event, resolve }) => {
 	}
 	const headers = response.headers;
 	for (const [name, value] of Object.entries(baselineHeaders({ https: secureCookies() }))) {
-		if (name === 'content-security-policy' && headers.has(name)) continue;
+		// A 304's headers replace the stored page's (RFC 9111 §4.3.4): it must not bring the
+		// baseline policy, which would block the page's scripts (http/server-entry.js).
+		if (name === 'content-security-policy' && (headers.has(name) || response.status === 304))
+			continue;
 		headers.set(name, value);
 	}
 	if (event.locals.user && !headers.has('cache-control')) headers.set('cache-control', 'no-store');

@@ -12,6 +12,7 @@
  *   answer the app keeps without handing it to SvelteKit. The app publishes the door under
  *   a global symbol when it starts; without one every request goes on as before.
  */
+import { ServerResponse } from 'node:http';
 import { baselineHeaders, originIsHttps } from './security-headers.js';
 // @ts-expect-error -- adapter-node's entry, build/server.js, exists only beside the copy in build/.
 import { server } from './server.js';
@@ -28,11 +29,26 @@ if (!node.listeners('request').includes(sveltekit))
 node.removeListener('request', sveltekit);
 
 /**
+ * Node's writeHead, except that a 304 loses the baseline Content-Security-Policy. A 304's
+ * headers replace those of the answer the browser has stored (RFC 9111 §4.3.4), and the
+ * baseline policy, meant for files and JSON, then blocked every script and stylesheet of
+ * the page it revalidated (tests/e2e/front-door.e2e.ts). Without one the page keeps its own.
+ * @this {import('node:http').ServerResponse}
+ * @param {number} status
+ * @param {...any} rest
+ */
+function writeHeadKeepingStoredPolicy(status, ...rest) {
+	if (status === 304) this.removeHeader('content-security-policy');
+	return ServerResponse.prototype.writeHead.call(this, status, ...rest);
+}
+
+/**
  * @param {import('node:http').IncomingMessage} request
  * @param {import('node:http').ServerResponse} response
  */
 function answer(request, response) {
 	for (const [name, value] of headers) response.setHeader(name, value);
+	response.writeHead = writeHeadKeepingStoredPolicy;
 	const door = /** @type {any} */ (globalThis)[FRONT_DOOR];
 	/** @type {false | Promise<boolean>} */
 	let answered = false;
