@@ -120,8 +120,3 @@ async function answer(
 export function openFrontDoor(): void {
 	(globalThis as Record<symbol, unknown>)[FRONT_DOOR] = frontDoor;
 }
-
-/** Forget what the door remembers (tests). */
-export function forgetFrontDoor(): void {
-	remembered.clear();
-}
