@@ -1,7 +1,7 @@
 import { connect as connectSocket } from 'node:net';
 import { expect, test } from '@playwright/test';
-import mysql from 'mysql2/promise';
 import { type AppProcess, cleanUp, signIn, startApp } from './processes';
+import { connectToE2eDb } from './support';
 
 /*
  * The front door (src/lib/server/http/front-door.ts) against the real build: a visitor's
@@ -64,25 +64,13 @@ async function get(path: string, headers: Record<string, string> = {}, method = 
 	return { response, body, via: logged[0]!.via ?? 'hooks' };
 }
 
-function bumpGuideListCounter(): Promise<void> {
-	return withDb(async (db) => {
+async function bumpGuideListCounter(): Promise<void> {
+	const db = await connectToE2eDb();
+	try {
 		// What any write to a guide row does after commit (db/generation-hooks.ts).
 		await db.query(
 			"INSERT INTO cache_generations (name, value, updated_at) VALUES ('guide-list', 1, NOW()) ON DUPLICATE KEY UPDATE value = value + 1, updated_at = NOW()"
 		);
-	});
-}
-
-async function withDb(work: (db: mysql.Connection) => Promise<void>): Promise<void> {
-	const db = await mysql.createConnection({
-		host: process.env.DB_HOST ?? '127.0.0.1',
-		port: Number(process.env.DB_PORT ?? 3307),
-		user: process.env.DB_USER ?? 'slotwise',
-		password: process.env.DB_PASSWORD ?? 'slotwise-dev',
-		database: process.env.DB_NAME ?? 'slotwise_e2e'
-	});
-	try {
-		await work(db);
 	} finally {
 		await db.end();
 	}

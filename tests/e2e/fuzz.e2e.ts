@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import mysql from 'mysql2/promise';
 import { BASE_URL } from '../playwright.config';
 import { discoverActions, discoverRoutes, urlOf } from './routes';
-import { DEMO_PASSWORD } from './support';
+import { DEMO_PASSWORD, connectToE2eDb } from './support';
 
 /*
  * Property-based fuzzing of every form action and every JSON route that takes a body
@@ -222,13 +222,7 @@ async function check(
 }
 
 async function rowCounts(): Promise<Record<string, number>> {
-	const connection = await mysql.createConnection({
-		host: process.env.DB_HOST ?? '127.0.0.1',
-		port: Number(process.env.DB_PORT ?? 3307),
-		user: process.env.DB_USER ?? 'slotwise',
-		password: process.env.DB_PASSWORD ?? 'slotwise-dev',
-		database: process.env.DB_NAME ?? 'slotwise_e2e'
-	});
+	const connection = await connectToE2eDb();
 	try {
 		const [tables] = await connection.query<mysql.RowDataPacket[]>(
 			'SELECT table_name AS name FROM information_schema.tables WHERE table_schema = DATABASE() ORDER BY name'

@@ -1,8 +1,7 @@
 import { expect, test } from '@playwright/test';
-import mysql from 'mysql2/promise';
 import { BASE_URL } from '../playwright.config';
 import { type AppProcess, cleanUp, postForm, signIn, startApp } from './processes';
-import { forgetAddressCounts } from './support';
+import { connectToE2eDb, forgetAddressCounts } from './support';
 
 /*
  * HTTP caching of the guide page and the pricing API (src/lib/server/http/guide-caching.ts)
@@ -71,7 +70,7 @@ function alternatePrice(body: string) {
 
 /** Gives the person with `email` `count` unread notices. */
 async function addNotices(email: string, count: number): Promise<void> {
-	const connection = await connect();
+	const connection = await connectToE2eDb();
 	try {
 		for (let i = 0; i < count; i++) {
 			await connection.query(
@@ -87,7 +86,7 @@ async function addNotices(email: string, count: number): Promise<void> {
 
 /** Removes the notices addNotices made. */
 async function removeTestNotices(): Promise<void> {
-	const connection = await connect();
+	const connection = await connectToE2eDb();
 	try {
 		await connection.query("DELETE FROM notices WHERE message = 'A test notice (page caching).'");
 	} finally {
@@ -97,7 +96,7 @@ async function removeTestNotices(): Promise<void> {
 
 /** Unread notices of the person with `email`, counted in the database. */
 async function unreadOf(email: string): Promise<number> {
-	const connection = await connect();
+	const connection = await connectToE2eDb();
 	try {
 		const [rows] = await connection.query(
 			'SELECT COUNT(*) AS n FROM notices n JOIN users u ON u.id = n.user_id WHERE u.email = ? AND n.read_at IS NULL',
@@ -109,18 +108,8 @@ async function unreadOf(email: string): Promise<number> {
 	}
 }
 
-function connect() {
-	return mysql.createConnection({
-		host: process.env.DB_HOST ?? '127.0.0.1',
-		port: Number(process.env.DB_PORT ?? 3307),
-		user: process.env.DB_USER ?? 'slotwise',
-		password: process.env.DB_PASSWORD ?? 'slotwise-dev',
-		database: process.env.DB_NAME ?? 'slotwise_e2e'
-	});
-}
-
 async function jpStoreId(): Promise<number> {
-	const connection = await connect();
+	const connection = await connectToE2eDb();
 	try {
 		const [rows] = await connection.query(
 			"SELECT id FROM stores WHERE name = 'Kairo Denki' LIMIT 1"

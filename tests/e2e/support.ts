@@ -55,18 +55,23 @@ export async function forgetAddressCounts(): Promise<void> {
 	await forgetCounts('signup_addr', 'signin_addr', 'signin_acct_addr');
 }
 
-/**
- * Forgets the counts of the named limiters (rate_limits key prefixes, e.g. 'photo_user'), for
- * a test that is about something else than the limit: the fuzz suite spends whole allowances.
- */
-export async function forgetCounts(...prefixes: string[]): Promise<void> {
-	const connection = await mysql.createConnection({
+/** A connection to the database the app under test uses (scripts/test.sh sets DB_*). */
+export function connectToE2eDb(): Promise<mysql.Connection> {
+	return mysql.createConnection({
 		host: process.env.DB_HOST ?? '127.0.0.1',
 		port: Number(process.env.DB_PORT ?? 3307),
 		user: process.env.DB_USER ?? 'slotwise',
 		password: process.env.DB_PASSWORD ?? 'slotwise-dev',
 		database: process.env.DB_NAME ?? 'slotwise_e2e'
 	});
+}
+
+/**
+ * Forgets the counts of the named limiters (rate_limits key prefixes, e.g. 'photo_user'), for
+ * a test that is about something else than the limit: the fuzz suite spends whole allowances.
+ */
+export async function forgetCounts(...prefixes: string[]): Promise<void> {
+	const connection = await connectToE2eDb();
 	try {
 		const escaped = prefixes.map((p) => `${p.replace(/[\\%_]/g, (c) => `\\${c}`)}:%`);
 		await connection.query(
