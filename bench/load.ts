@@ -32,6 +32,9 @@ import {
 	DEMO_PASSWORD
 } from './lib/harness';
 import { addCrowd, signInCrowd } from './lib/crowd';
+import { cpuSeconds, mariadbPid } from './lib/cpu-time';
+import { KINDS, mean, sideLines } from './lib/load-report';
+import type { CannonResult, SideReport, Tally } from './lib/load-report';
 import { startProxy } from './lib/proxy';
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 60);
@@ -131,24 +134,6 @@ const FIT_BODY = JSON.stringify({
 	].map(([key, category, specs]) => ({ key, category, brand: 'Sample', model: key, specs }))
 });
 
-interface Kind {
-	name: string;
-	expected: number;
-}
-const KINDS: Kind[] = [
-	{ name: 'guide page', expected: 200 },
-	{ name: 'guide list', expected: 200 },
-	{ name: 're-price in a region (JSON)', expected: 200 },
-	{ name: 'fit check (JSON)', expected: 200 },
-	{ name: 'fork (signed in)', expected: 201 },
-	{ name: 'edit the fork (signed in)', expected: 200 },
-	{ name: 'password sign-in', expected: 303 }
-];
-
-interface Tally {
-	statuses: Map<string, Map<number, number>>;
-	latencies: Map<string, number[]>;
-}
 type Context = Record<string, number | undefined>;
 type Req = { method?: string; path?: string; headers?: Record<string, string>; body?: string };
 
@@ -241,14 +226,6 @@ function visit(origin: string, sessions: readonly string[], tally: Tally) {
 	];
 }
 
-interface CannonResult {
-	requests: { average: number; total: number };
-	latency: { p50: number; p99: number; max: number };
-	errors: number;
-	timeouts: number;
-	duration: number;
-}
-
 async function run(
 	origin: string,
 	seconds: number,
@@ -266,69 +243,6 @@ async function run(
 		requests: visit(origin, sessions, tally)
 	})) as CannonResult;
 	return { result, tally };
-}
-
-/** CPU seconds (user + system) a process and its children have used so far, from /proc; 0 when gone. */
-const TICKS_PER_SECOND =
-	Number(execFileSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).trim()) || 100;
-function cpuSeconds(pid: number): number {
-	return ownCpuSeconds(pid) + childrenOf(pid).reduce((sum, child) => sum + cpuSeconds(child), 0);
-}
-/** Child processes (nginx's workers do the proxying, not its master). */
-function childrenOf(pid: number): number[] {
-	try {
-		return readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8')
-			.split(' ')
-			.filter(Boolean)
-			.map(Number);
-	} catch {
-		return [];
-	}
-}
-function ownCpuSeconds(pid: number): number {
-	try {
-		// The fields after the command name (which may hold spaces): utime and stime are 14 and 15.
-		const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
-		const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-		return (Number(fields[11]) + Number(fields[12])) / TICKS_PER_SECOND;
-	} catch {
-		return 0;
-	}
-}
-
-/** mariadbd of this checkout (scripts/db.sh writes its pid), for its share of the CPU. */
-function mariadbPid(): number {
-	try {
-		return Number(readFileSync(resolve(ROOT, '.data/mariadb.pid'), 'utf8').trim());
-	} catch {
-		return 0;
-	}
-}
-
-const percentile = (xs: number[], p: number) => {
-	const sorted = [...xs].sort((a, b) => a - b);
-	return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))] ?? 0;
-};
-const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / Math.max(1, xs.length);
-
-function memoryLine(name: string, samples: number[]): { line: string; flat: boolean } {
-	const quarter = Math.max(1, Math.floor(samples.length / 4));
-	const first = mean(samples.slice(0, quarter));
-	const last = mean(samples.slice(-quarter));
-	const flat = last <= first * 1.1;
-	return {
-		flat,
-		line: `| ${name} | ${first.toFixed(0)} | ${last.toFixed(0)} | ${Math.max(...samples).toFixed(0)} | ${flat ? 'flat' : '**grew**'} |`
-	};
-}
-
-interface SideReport {
-	label: string;
-	result: CannonResult;
-	tally: Tally;
-	memory: { name: string; samples: number[] }[];
-	/** CPU seconds used during the timed window, per process. */
-	cpu: { name: string; seconds: number }[];
 }
 
 async function oneSide(processes: 1 | 2): Promise<SideReport> {
@@ -397,57 +311,6 @@ function prepareDatabase(): void {
 	for (const step of ['migrate', 'seed'])
 		execFileSync('npx', ['tsx', `scripts/${step}.ts`, 'up'], { cwd: ROOT, env, stdio: 'pipe' });
 	addCrowd(DB_NAME, CROWD);
-}
-
-function sideLines(side: SideReport): { lines: string[]; unexpected: number; flat: boolean } {
-	const r = side.result;
-	let unexpected = 0;
-	let tooMany = 0;
-	const kindRows = KINDS.map((kind) => {
-		const counts = side.tally.statuses.get(kind.name) ?? new Map<number, number>();
-		let expected = 0;
-		let limited = 0;
-		let other = 0;
-		const others: string[] = [];
-		for (const [status, n] of counts) {
-			if (status === kind.expected) expected += n;
-			else if (status === 429 && kind.name === 'password sign-in') limited += n;
-			else {
-				other += n;
-				others.push(`${n} × ${status}`);
-			}
-		}
-		unexpected += other;
-		tooMany += limited;
-		const lat = side.tally.latencies.get(kind.name) ?? [];
-		return `| ${kind.name} | ${expected + limited + other} | ${kind.expected}: ${expected} | ${limited} | ${other === 0 ? '0' : `**${others.join(', ')}**`} | ${percentile(lat, 50).toFixed(0)} | ${percentile(lat, 99).toFixed(0)} |`;
-	});
-	const memory = side.memory.map((m) => memoryLine(m.name, m.samples));
-	return {
-		unexpected,
-		flat: memory.every((m) => m.flat),
-		lines: [
-			`### ${side.label}`,
-			'',
-			`${r.requests.total} requests in ${r.duration.toFixed(0)} s: **${r.requests.average.toFixed(1)} requests/s**, latency p50 ${r.latency.p50} ms, **p99 ${r.latency.p99} ms**, max ${r.latency.max} ms; ${r.errors} connection errors, ${r.timeouts} timeouts (over 30 s); unexpected answers: **${unexpected}**; 429 from sign-in (expected): ${tooMany}.`,
-			'',
-			'| request | sent | expected status: count | 429 (expected) | unexpected | p50 (ms) | p99 (ms) |',
-			'| --- | ---: | ---: | ---: | ---: | ---: | ---: |',
-			...kindRows,
-			'',
-			`| CPU in the timed window (${r.duration.toFixed(0)} s) | CPU seconds | share of one core |`,
-			'| --- | ---: | ---: |',
-			...side.cpu.map(
-				(c) =>
-					`| ${c.name} | ${c.seconds.toFixed(1)} | ${((100 * c.seconds) / r.duration).toFixed(0)} % |`
-			),
-			'',
-			'| resident memory (MB) | first quarter mean | last quarter mean | max | over the run |',
-			'| --- | ---: | ---: | ---: | --- |',
-			...memory.map((m) => m.line),
-			''
-		]
-	};
 }
 
 async function main(): Promise<void> {
