@@ -4,6 +4,7 @@
 import { dev } from '$app/environment';
 import { error, json, redirect } from '@sveltejs/kit';
 import type { Handle, RequestEvent } from '@sveltejs/kit';
+import { withCappedBody } from '$lib/server/http/capped-body';
 import { baselineHeaders } from '$lib/server/http/security-headers.js';
 import { UNAVAILABLE_HEADERS, unavailableResponse, wantsJson } from '$lib/server/http/unavailable';
 import { secureCookies } from './cookies';
@@ -105,22 +106,30 @@ const isUploadRoute = (event: RequestEvent) =>
 
 /**
  * adapter-node's BODY_SIZE_LIMIT applies to every route, so it is raised for the catalog
- * import and every other route is held to the default here. Bodies without a
- * Content-Length are still bounded by BODY_SIZE_LIMIT.
+ * import and every other route is held to the default here: from the Content-Length when
+ * the body states one, else while reading it (http/capped-body.ts). Photo uploads and the
+ * import are bounded by BODY_SIZE_LIMIT when chunked.
  */
-export const capBodies: Handle = ({ event, resolve }) => {
+export const capBodies: Handle = async ({ event, resolve }) => {
 	const length = Number(event.request.headers.get('content-length') ?? 0);
 	if (isUploadRoute(event)) {
 		if (length > UPLOAD_BODY_LIMIT_BYTES)
 			return json({ message: TOO_LARGE_MESSAGE }, { status: 413 });
 		return resolve(event);
 	}
-	if (
-		length > DEFAULT_BODY_LIMIT_BYTES &&
-		!LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))
-	) {
-		return new Response('Payload too large', { status: 413 });
+	if (LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))) return resolve(event);
+	const tooLarge = () =>
+		new Response('Payload too large', { status: 413, headers: { connection: 'close' } });
+	if (length > DEFAULT_BODY_LIMIT_BYTES) return tooLarge();
+	let capped: Request | null;
+	try {
+		capped = await withCappedBody(event.request, DEFAULT_BODY_LIMIT_BYTES);
+	} catch {
+		// The client broke off while sending: nothing was read, so nothing is done.
+		return new Response('The request body could not be read', { status: 400 });
 	}
+	if (!capped) return tooLarge();
+	event.request = capped;
 	return resolve(event);
 };
 
