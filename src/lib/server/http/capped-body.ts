@@ -10,7 +10,7 @@
 export async function readCappedBody(
 	body: ReadableStream<Uint8Array>,
 	limit: number
-): Promise<Uint8Array | null> {
+): Promise<Uint8Array<ArrayBuffer> | null> {
 	const reader = body.getReader();
 	const chunks: Uint8Array[] = [];
 	let total = 0;
