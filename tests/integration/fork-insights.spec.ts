@@ -1,5 +1,13 @@
 import { beforeEach, describe, expect, it } from 'vitest';
-import { Build, BuildSlot, Region, User, sequelize } from '../../src/lib/server/db';
+import {
+	Build,
+	BuildSlot,
+	GuideSlot,
+	Region,
+	SlotAlternate,
+	User,
+	sequelize
+} from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import { declineUpdate } from '../../src/lib/server/services/build-declines';
 import { applySync } from '../../src/lib/server/services/build-sync';
@@ -26,7 +34,9 @@ import { upkeepGuide, type UpkeepGuide } from '../support/upkeep-fixtures';
  *   13–14     us      pick           pick
  *
  * Shares are rounded to whole percent: 7/14 = 50 %, 6/14 = 42.9 % → 43 %, 7/10 = 70 %.
- * Counts from 1 to 4 read "fewer than 5" (the issue's k-anonymity rule); 0 and ≥ 5 are shown.
+ * Counts from 1 to 4 read "fewer than 5" (the issue's k-anonymity rule); 0 and ≥ 5 are shown,
+ * unless the totals would give a small count away, and then they read "hidden". A region of
+ * fewer than 5 builds names no choices. Worked by hand per table below.
  * Suggestion rule (the issue): at least 20 % of the slot's builds and at least 5 builds.
  */
 
@@ -37,6 +47,8 @@ let revision2Id: number;
 
 const shown = (n: number) => ({ count: n, fewerThan5: false });
 const hidden = { count: null, fewerThan5: true };
+/** A count of 5 or more hidden so that a small one beside it cannot be worked out. */
+const covered = { count: null, fewerThan5: false };
 
 function choice(list: InsightChoice[], kind: string, name: string | null) {
 	return list.find((c) => c.kind === kind && c.partName === name);
@@ -90,8 +102,10 @@ beforeEach(async () => {
 describe('fork insights', () => {
 	it('counts builds per revision, updates taken and declined, and parts bought', () => {
 		expect(insights.totalBuilds).toEqual(shown(14));
+		// 12 + 2 = 14 with 14 shown: the 2 alone would be 14 − 12, so the 12 is hidden too
+		// (then 10 + 4, 11 + 3, 12 + 2 and 13 + 1 all fit).
 		expect(insights.perRevision).toEqual([
-			{ revisionNumber: 1, builds: shown(12) },
+			{ revisionNumber: 1, builds: covered },
 			{ revisionNumber: 2, builds: hidden }
 		]);
 		// Builds 1–6 took revision 2 (build 6 after first declining it).
@@ -102,6 +116,21 @@ describe('fork insights', () => {
 		expect(insights.markedBought).toEqual(shown(6));
 	});
 
+	/*
+	 * CPU, regions × choices (pick, alternate 1, Strata 408): de (0, 0, 4) = 4, us (7, 3, 0) =
+	 * 10; columns 7, 3, 4; 14 in all. De has fewer than 5 builds: its total reads so and it
+	 * names no choices. Small: us's 3, the columns 3 and 4. Then, as a reader would:
+	 * - row us, 7 + 3 = 10 gives the 3 away → us's 7 is hidden;
+	 * - the region totals, de = 14 − 10 = 4 → us's 10 is hidden.
+	 * Left open (checked by listing every table that fits): us's pick 6 or 7, us's alternate
+	 * 3 or 4, de's total 3 or 4. The pick's column, 7, stays: 50 %.
+	 *
+	 * Graphics card (pick, Cobalt, removed): de (0, 3, 1) = 4, us (7, 3, 0) = 10; columns
+	 * 7, 6, 1. Small: us's 3, the column 1, de. Here 7 + 6 + 1 = 14 gives the 1 away, so
+	 * the Cobalt's 6 is hidden (the smallest shown count beside it); then us's 7 (row us) and
+	 * us's 10 (region totals) as for the CPU. Left open: Cobalt 5 or 6, removed 1 or 2.
+	 * Hidden together: (3 + 4) / 14 = 50 % and (6 + 1) / 14 = 50 %.
+	 */
 	it('shares per slot: pick kept, alternate chosen, swapped, removed; small counts hidden', () => {
 		const [cpu, gpu] = insights.slots;
 		expect(cpu?.slotKey).toBe('cpu-main');
@@ -119,47 +148,74 @@ describe('fork insights', () => {
 			builds: hidden,
 			percent: null
 		});
+		expect(cpu?.hiddenShare).toBe(50);
 		expect(choice(gpu!.choices, 'pick', 'Tollan G8 Test')).toMatchObject({
 			builds: shown(7),
 			percent: 50
 		});
 		expect(choice(gpu!.choices, 'other', 'Solenne Cobalt C6 Duo 8 GB')).toMatchObject({
-			builds: shown(6),
-			percent: 43
+			builds: covered,
+			percent: null
 		});
 		expect(choice(gpu!.choices, 'removed', null)).toMatchObject({ builds: hidden, percent: null });
+		expect(gpu?.hiddenShare).toBe(50);
 	});
 
-	it('breaks the shares down by region, hiding a region of fewer than 5 builds', () => {
+	it('breaks the shares down by region, without a count that the totals would give away', () => {
 		const [cpu] = insights.slots;
 		const us = cpu!.byRegion.find((r) => r.regionCode === 'us');
 		const de = cpu!.byRegion.find((r) => r.regionCode === 'de');
-		expect(us?.builds).toEqual(shown(10));
+		expect(us?.builds).toEqual(covered);
 		expect(choice(us!.choices, 'pick', 'Tollan K6 Test')).toMatchObject({
-			builds: shown(7),
-			percent: 70
+			builds: covered,
+			percent: null
+		});
+		expect(choice(us!.choices, 'alternate', 'Tollan K6 Lite Test')).toMatchObject({
+			builds: hidden,
+			percent: null
 		});
 		expect(de?.builds).toEqual(hidden);
-		expect(de?.choices).toEqual([
-			expect.objectContaining({ kind: 'other', partName: 'Halvard Strata 408', builds: hidden })
-		]);
+		expect(de?.choices).toEqual([]);
 	});
 
 	it('suggests a part as an alternate at ≥ 20 % and ≥ 5 builds, not at 4 builds', () => {
 		const [cpu, gpu] = insights.slots;
 		// CPU: 4 of 14 swapped to the Strata 408 (29 %, but fewer than 5): no suggestion.
 		expect(cpu?.suggestions).toEqual([]);
-		// Graphics card: 6 of 14 (43 %) swapped to the Cobalt C6: suggested.
+		// Graphics card: 6 of 14 (43 %) swapped to the Cobalt C6: suggested, but its count is
+		// hidden in the table, so the suggestion does not name it either.
 		expect(gpu?.suggestions).toEqual([
 			{
 				partName: 'Solenne Cobalt C6 Duo 8 GB',
 				partSlug: 'solenne-cobalt-c6-8g',
-				builds: 6,
-				percent: 43,
+				builds: null,
+				percent: null,
 				editorHref:
 					'/my/guides/upkeep-test-rig/edit?slot=gpu-main&alternate=solenne-cobalt-c6-8g#slot-gpu-main'
 			}
 		]);
+	});
+
+	it('stops suggesting a part once the live revision offers it as an alternate', async () => {
+		// Builds 6–11 still count as "swapped to the Cobalt" against their own revision; the
+		// suggestion is about what the guide offers now.
+		const revision3 = await publishRevision(g.guide, {});
+		const gpu = await GuideSlot.findOne({
+			where: { revisionId: revision3.id, slotKey: 'gpu-main' }
+		});
+		await SlotAlternate.create({
+			slotId: gpu!.id,
+			partId: await partId('solenne-cobalt-c6-8g'),
+			rank: 1,
+			reasonTag: 'easier_to_find',
+			note: 'A common choice in readers’ builds.'
+		});
+		const outcome = await guideInsights(
+			{ id: g.author.id, email: g.author.email, name: g.author.name, role: 'author' },
+			g.guide.slug
+		);
+		if (outcome.kind !== 'ok') throw new Error('the author must see the insights');
+		expect(outcome.insights.slots[1]?.suggestions).toEqual([]);
 	});
 
 	it('is for the author and editors only: a reader, another author and a visitor get not_found', async () => {

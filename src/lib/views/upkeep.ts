@@ -37,15 +37,21 @@ export interface InsightSlot {
 	label: string;
 	/** Builds that carry this slot's source key or lost it (the base for shares). */
 	builds: BuildCount;
+	/** Empty when the slot has fewer than 5 builds: not even the choices are named. */
 	choices: InsightChoice[];
-	/** The same, per build region (code → choices). */
+	/** Share (whole percent) of the hidden choices together, when some are hidden. */
+	hiddenShare: number | null;
+	/** The same, per build region; a region of fewer than 5 builds names no choices. */
 	byRegion: { regionCode: string; builds: BuildCount; choices: InsightChoice[] }[];
-	/** Parts that at least 20 % of the builds (and at least 5) swapped to: worth adding as alternates. */
+	/**
+	 * Parts that at least 20 % of the builds (and at least 5) swapped to and the live revision
+	 * does not offer: worth adding as alternates. Counts are null where the table hides them.
+	 */
 	suggestions: {
 		partName: string;
 		partSlug: string;
-		builds: number;
-		percent: number;
+		builds: number | null;
+		percent: number | null;
 		editorHref: string;
 	}[];
 }

@@ -1,8 +1,17 @@
 import type { BuildCount, InsightChoice } from '$lib/views';
 
-/** "12", "0" or "fewer than 5": how a count of builds reads everywhere. */
+/**
+ * "12", "0", "fewer than 5", or "hidden" (a larger count hidden so that a small one beside
+ * it cannot be worked out from the totals): how a count of builds reads everywhere.
+ */
 export function countText(c: BuildCount): string {
-	return c.fewerThan5 ? 'fewer than 5' : String(c.count);
+	if (c.fewerThan5) return 'fewer than 5';
+	return c.count === null ? 'hidden' : String(c.count);
+}
+
+/** "12 builds", "fewer than 5 builds" or "number of builds hidden". */
+export function buildsText(c: BuildCount): string {
+	return c.count === null && !c.fewerThan5 ? 'number of builds hidden' : `${countText(c)} builds`;
 }
 
 /** What a choice was, in words. */

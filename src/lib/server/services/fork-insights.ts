@@ -20,7 +20,8 @@
  * - suggestion: a part that at least 20 % of the slot's builds, and at least 5, swapped to.
  */
 import { QueryTypes } from 'sequelize';
-import { buildCount, suggested } from '$lib/domain/insights';
+import { buildCount, shownCount, suggested } from '$lib/domain/insights';
+import { coverTable } from '$lib/domain/table-cover';
 import type { SessionUser } from '$lib/server/auth/guards';
 import { Build, BuildSlot, Guide, GuideRevision, Part, Region, sequelize } from '$lib/server/db';
 import type { NotFound } from '$lib/schemas/issues';
@@ -92,6 +93,10 @@ export async function guideInsights(
 		const from = forkedFrom.has(b.id) ? forkedFrom.get(b.id) : b.baseRevisionId;
 		if (from) perRevision.set(from, (perRevision.get(from) ?? 0) + 1);
 	}
+	const revisionRows = [...perRevision]
+		.map(([id, n]) => ({ revisionNumber: numberOf.get(id) ?? 0, n }))
+		.sort((a, b) => a.revisionNumber - b.revisionNumber);
+	const revisionCover = coverTable([revisionRows.map((r) => r.n)]);
 	const declined = buildIds.length === 0 ? 0 : await standingDeclines(guide.id);
 
 	const slots = await slotInsights(guide, builds, new Map(regions.map((r) => [r.id, r.code])));
@@ -99,10 +104,11 @@ export async function guideInsights(
 		kind: 'ok',
 		insights: {
 			guide: { slug: guide.slug, title: guide.title },
-			totalBuilds: buildCount(builds.length),
-			perRevision: [...perRevision]
-				.map(([id, n]) => ({ revisionNumber: numberOf.get(id) ?? 0, builds: buildCount(n) }))
-				.sort((a, b) => a.revisionNumber - b.revisionNumber),
+			totalBuilds: shownCount(builds.length, revisionCover.grandTotal || builds.length < 5),
+			perRevision: revisionRows.map((r, j) => ({
+				revisionNumber: r.revisionNumber,
+				builds: shownCount(r.n, revisionCover.cells[0]?.[j] ?? true)
+			})),
 			tookUpdate: buildCount(took.size),
 			declinedUpdate: buildCount(declined),
 			markedBought: buildCount(bought.length),
@@ -184,34 +190,70 @@ async function slotInsights(
 			add(tally, key);
 			byRegion.set(b.regionId, tally);
 		}
-		const describe = (tally: Tally) => choices(tally, row, alternateRank, otherParts);
+		// Regions × choices, hidden where a small count could otherwise be worked out.
+		const keys = [...overall.counts.keys()];
+		const regions = [...byRegion].sort(([a], [b]) =>
+			(regionCode.get(a) ?? '?').localeCompare(regionCode.get(b) ?? '?')
+		);
+		const cover = coverTable(regions.map(([, t]) => keys.map((k) => t.counts.get(k) ?? 0)));
+		const describe = (counts: number[], hidden: boolean[], total: number, totalHidden: boolean) =>
+			choices(
+				keys.flatMap((key, j) => {
+					const n = counts[j] ?? 0;
+					return n === 0 ? [] : [{ key, n, hidden: hidden[j] ?? true }];
+				}),
+				totalHidden ? null : total,
+				row,
+				alternateRank,
+				otherParts
+			);
+		const overallCounts = keys.map((k) => overall.counts.get(k) ?? 0);
+		const hiddenSum = overallCounts.reduce((s, n, j) => (cover.columnTotals[j] ? s + n : s), 0);
+		// Fewer than 5 builds in all: not even the choices are named.
+		const tiny = overall.total < 5;
 		return {
 			slotKey: row.slotKey,
 			label: row.label,
-			builds: buildCount(overall.total),
-			choices: describe(overall),
-			byRegion: [...byRegion]
-				.map(([id, t]) => ({
-					regionCode: regionCode.get(id) ?? '?',
-					builds: buildCount(t.total),
-					choices: describe(t)
-				}))
-				.sort((a, b) => a.regionCode.localeCompare(b.regionCode)),
-			suggestions: [...overall.counts]
-				.filter(([key, n]) => key.startsWith('other:') && suggested(n, overall.total))
-				.flatMap(([key, n]) => {
-					const part = otherParts.get(Number(key.slice('other:'.length)));
-					if (!part) return [];
-					return [
-						{
-							partName: partName(part),
-							partSlug: part.slug,
-							builds: n,
-							percent: Math.round((n * 100) / overall.total),
-							editorHref: `/my/guides/${guide.slug}/edit?slot=${encodeURIComponent(row.slotKey)}&alternate=${encodeURIComponent(part.slug)}#slot-${encodeURIComponent(row.slotKey)}`
-						}
-					];
-				})
+			builds: shownCount(overall.total, cover.grandTotal),
+			choices: tiny
+				? []
+				: describe(overallCounts, cover.columnTotals, overall.total, cover.grandTotal),
+			hiddenShare:
+				tiny || cover.grandTotal || hiddenSum === 0
+					? null
+					: Math.round((hiddenSum * 100) / overall.total),
+			byRegion: tiny
+				? []
+				: regions.map(([id, t], i) => ({
+						regionCode: regionCode.get(id) ?? '?',
+						builds: shownCount(t.total, cover.rowTotals[i] ?? true),
+						choices: cover.unlistedRows[i]
+							? []
+							: describe(
+									keys.map((k) => t.counts.get(k) ?? 0),
+									cover.cells[i] ?? [],
+									t.total,
+									cover.rowTotals[i] ?? true
+								)
+					})),
+			// A part the live revision already offers is no suggestion, whatever older builds did.
+			suggestions: keys.flatMap((key, j) => {
+				const n = overallCounts[j] ?? 0;
+				if (!key.startsWith('other:') || !suggested(n, overall.total)) return [];
+				const part = otherParts.get(Number(key.slice('other:'.length)));
+				if (!part || part.id === row.pickPartId) return [];
+				// x
+				const hidden = cover.columnTotals[j] ?? true;
+				return [
+					{
+						partName: partName(part),
+						partSlug: part.slug,
+						builds: hidden ? null : n,
+						percent: hidden ? null : Math.round((n * 100) / overall.total),
+						editorHref: `/my/guides/${guide.slug}/edit?slot=${encodeURIComponent(row.slotKey)}&alternate=${encodeURIComponent(part.slug)}#slot-${encodeURIComponent(row.slotKey)}`
+					}
+				];
+			})
 		};
 	});
 }
@@ -224,15 +266,16 @@ function add(tally: Tally, key: ChoiceKey): void {
 const KIND_ORDER = { pick: 0, alternate: 1, other: 2, removed: 3 } as const;
 
 function choices(
-	tally: Tally,
+	counts: { key: ChoiceKey; n: number; hidden: boolean }[],
+	total: number | null,
 	slot: LoadedRevisionSlot,
 	ranks: Map<string, number>,
 	parts: Map<number, Part>
 ): InsightChoice[] {
 	const out: InsightChoice[] = [];
-	for (const [key, n] of tally.counts) {
-		const builds = buildCount(n);
-		const percent = builds.count === null ? null : Math.round((n * 100) / tally.total);
+	for (const { key, n, hidden } of counts) {
+		const builds = shownCount(n, hidden);
+		const percent = hidden || total === null ? null : Math.round((n * 100) / total);
 		const [kind, id] = key.split(':') as [InsightChoice['kind'], string | undefined];
 		const part =
 			kind === 'pick' ? slot.pick : kind === 'removed' ? null : (parts.get(Number(id)) ?? null);
