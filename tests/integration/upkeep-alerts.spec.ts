@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { User, sequelize } from '../../src/lib/server/db';
+import { FxRate, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import * as catalogStores from '../../src/lib/server/services/catalog-stores';
 import * as cautions from '../../src/lib/server/services/caution-rules';
@@ -101,6 +101,27 @@ describe('upkeep alerts', () => {
 			'The total in us moved +15 % since publication: US$400.00 then, US$460.00 now.'
 		);
 		expect(open[0]?.editorHref).toBe('/my/guides/upkeep-test-rig/edit');
+	});
+
+	it('holds another region to the budget the guide page shows there, at the reference rate', async () => {
+		// The guide page converts the $450.00 budget at the reference rate (the demo's ECB rate
+		// of 2 Jan 2024, 1.0956 USD per euro, docs/sources.md 10): 450 ÷ 1.0956 = 410.7338…
+		// → €410.73. De had no prices at publication; quoted later at €100.00 + €320.00 before
+		// tax, its total with Germany's 19 % VAT (docs/sources.md 11) is 420.00 × 1.19 =
+		// €499.80: over that budget.
+		await FxRate.create({
+			currency: 'USD',
+			ratePerEur: '1.0956',
+			asOf: '2024-01-02',
+			source: 'ECB'
+		});
+		await addQuote('tollan-k6-test', 'de', '100.00');
+		await addQuote('tollan-g8-test', 'de', '320.00');
+		expect(await stored()).toEqual(['over_budget de -', 'stale_quote us gpu-main']);
+		const open = await upkeep.openAlerts(g.author.id);
+		expect(open.find((a) => a.kind === 'over_budget')?.sentence).toBe(
+			"The total in de is €499.80, above the guide's target budget of €410.73."
+		);
 	});
 
 	it('does not flag a move of exactly 10 % (more than the threshold is needed)', async () => {

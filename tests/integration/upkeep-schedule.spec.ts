@@ -76,10 +76,15 @@ describe('the daily upkeep pass', () => {
 		const g = await guideWithCardQuoted(20);
 		// At publication the card's quote is 20 days old: nothing holds ($400.00 ≤ $450.00).
 		expect(await stored(g)).toEqual([]);
-		// Ten days on it is 30 days old less the moments between: 29 whole days, not stale.
-		expect((await scheduler(10).runOnce()).staleness).toBe(at(10).toISOString().slice(0, 10));
+		// An hour short of ten days on it is 29 days and 23 hours old: not stale. (Exactly ten
+		// days on would be a boundary: MariaDB keeps whole seconds, so the stored quote can be
+		// up to a second older than the test's clock says.)
+		const almost10 = 10 - 1 / 24;
+		expect((await scheduler(almost10).runOnce()).staleness).toBe(
+			at(almost10).toISOString().slice(0, 10)
+		);
 		expect(await stored(g)).toEqual([]);
-		// Twelve days on: 31 whole days > 30, stale, without any quote, rate or review event.
+		// Twelve days on it is nearly 32 days old, over 30: stale, with no quote, rate or review event.
 		const day12 = await scheduler(12).runOnce();
 		expect(day12.staleness).toBe(at(12).toISOString().slice(0, 10));
 		expect(await stored(g)).toEqual(['stale_quote us gpu-main']);

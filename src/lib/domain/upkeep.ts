@@ -9,7 +9,7 @@
  *   practice, no published source: a month is how long shops' prices are usually taken to
  *   hold in budget guides).
  */
-import { formatMoney, money } from './money';
+import { formatMoney } from './money';
 import { severityRank, type Severity } from './build-parts';
 import type { Money } from './types';
 
@@ -174,8 +174,10 @@ function slotAlerts(
 			details: { region: region.code, slot: slot.label, part: slot.pick.name }
 		});
 	else {
-		const days = Math.floor((input.now.getTime() - latest.getTime()) / DAY_MS);
-		if (days > STALE_DAYS)
+		// Older than 30 days by the clock, not by whole days: 30 days and an hour is stale.
+		const age = input.now.getTime() - latest.getTime();
+		const days = Math.floor(age / DAY_MS);
+		if (age > STALE_DAYS * DAY_MS)
 			out.push({
 				kind: 'stale_quote',
 				...at,
@@ -261,22 +263,4 @@ export function cheaperAlternates(slots: readonly UpkeepSlot[]): string[] {
 			)
 				out.push(`${slot.slotKey}|${alt.partId}`);
 	return out;
-}
-
-/**
- * The budget in a region's prices: the base-region budget scaled by the region's total over
- * the base total, both at publication, rounded half up to a minor unit. Null without both.
- */
-export function regionBudget(
-	budgetMinor: number,
-	base: Money | null,
-	region: Money | null
-): Money | null {
-	if (budgetMinor <= 0 || !base || !region || base.amountMinor <= 0) return null;
-	if (base.currency === region.currency && base.amountMinor === region.amountMinor)
-		return money(budgetMinor, region.currency);
-	const scaled =
-		(BigInt(budgetMinor) * BigInt(region.amountMinor) * 2n + BigInt(base.amountMinor)) /
-		(2n * BigInt(base.amountMinor));
-	return money(Number(scaled), region.currency);
 }

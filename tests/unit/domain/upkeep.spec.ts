@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { regionBudget, upkeepAlerts, type UpkeepRegion } from '../../../src/lib/domain/upkeep';
+import { upkeepAlerts, type UpkeepRegion } from '../../../src/lib/domain/upkeep';
 
 /*
  * The alert conditions of domain/upkeep.ts on hand-made figures (issue 19): moved more than
@@ -69,6 +69,14 @@ describe('upkeep alert conditions', () => {
 		expect(kinds(region({ latestActiveQuote: new Map() }))).toEqual(['no_quote']);
 	});
 
+	it('a quote 30 days and one hour old is older than 30 days, so stale', () => {
+		// 31 Oct 11:00 → 1 Dec 12:00 is 31 days and 1 hour; 1 Nov 11:00 → 1 Dec 12:00 is 30
+		// days and 1 hour: no longer "newer than 30 days", though a count of whole days says 30.
+		const at = (iso: string) => region({ latestActiveQuote: new Map([[1, new Date(iso)]]) });
+		expect(kinds(at('2026-11-01T11:00:00Z'))).toEqual(['stale_quote']);
+		expect(kinds(at('2026-11-01T12:00:00Z'))).toEqual([]);
+	});
+
 	it('a cheaper alternate only when it fits as a drop-in', () => {
 		const cheaper = region();
 		cheaper.slots[0]!.alternates[0]!.unit = usd(9999);
@@ -95,16 +103,5 @@ describe('upkeep alert conditions', () => {
 			kinds(region(), { findings: [finding], findingsAtPublication: new Set(['rule|cpu']) })
 		).toEqual([]);
 		expect(kinds(region({ listed: false, latestActiveQuote: new Map() }))).toEqual([]);
-	});
-
-	it('scales the budget into a region by its total over the base total at publication', () => {
-		// $700.00 budget, base total $698.91, de total €774.20 at publication:
-		// 70000 × 77420 = 5 419 400 000; ÷ 69891 = 77540.74… → €775.41 (rounded half up).
-		expect(regionBudget(70000, usd(69891), { amountMinor: 77420, currency: 'EUR' })).toEqual({
-			amountMinor: 77541,
-			currency: 'EUR'
-		});
-		expect(regionBudget(70000, null, usd(1))).toBeNull();
-		expect(regionBudget(0, usd(1), usd(1))).toBeNull();
 	});
 });

@@ -17,9 +17,7 @@ import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import type { AlternateReason } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
-import { convertThroughEur, crossRate } from '$lib/domain/region';
-import type { RatesPerEur } from '$lib/domain/region';
-import type { Money } from '$lib/domain/types';
+import { budgetIn } from '$lib/domain/region';
 import { FrameResult, Guide, GuideRevision, Region, ThermalResult, User } from '$lib/server/db';
 import type {
 	DropInView,
@@ -38,6 +36,9 @@ import { dropInSlot, partRef, picksOf, regionSummary } from './mappers';
 import { priceRevisionsIn } from './pricing';
 import { allRegions, regionByCode } from './reference-cache';
 import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
+
+// The guide page, the lists and upkeep alerts convert a target budget the same way.
+export { budgetIn };
 
 /** The published guide in its base region, or null when there is none. */
 export async function getPublishedBySlug(slug: string): Promise<GuideDetail | null> {
@@ -344,23 +345,6 @@ async function price(
 		};
 	}
 	return { guide: pricedGuide, build, drop };
-}
-
-/** The budget in another currency at the reference rates; null when a rate is missing. */
-export function budgetIn(
-	budget: Money,
-	currency: string,
-	rates: RatesPerEur
-): { money: Money | null; asOf: string | null } {
-	if (budget.currency === currency) return { money: budget, asOf: null };
-	try {
-		return {
-			money: convertThroughEur(budget, currency, rates),
-			asOf: crossRate(budget.currency, currency, rates).asOf
-		};
-	} catch {
-		return { money: null, asOf: null };
-	}
 }
 
 function dropInView(result: DropInResult | undefined): DropInView | undefined {

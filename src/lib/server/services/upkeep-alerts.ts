@@ -20,15 +20,16 @@ import { pairingCautions, type CautionRule } from '$lib/domain/pairing-cautions'
 import type { Money, PartCategory } from '$lib/domain/types';
 import {
 	cheaperAlternates,
-	regionBudget,
 	upkeepAlerts,
 	type UpkeepSlot,
 	type UpkeepAlertDraft,
 	type UpkeepFinding,
 	type UpkeepRegion
 } from '$lib/domain/upkeep';
+import { budgetIn } from '$lib/domain/region';
 import { CautionRule as CautionRuleRow, Guide, sequelize } from '$lib/server/db';
 import type { Part, Region } from '$lib/server/db';
+import * as fx from './fx';
 import { dropInSlot, partName, picksOf } from './mappers';
 import type { PricedSet } from './pricing';
 
@@ -69,7 +70,7 @@ export async function refreshAlerts(
 	const now = options.now ?? new Date();
 	if (revisions.length === 0) return;
 	const revisionIds = revisions.map((r) => r.revisionId);
-	const [guides, baselines, quoteDates, rules] = await Promise.all([
+	const [guides, baselines, quoteDates, rules, rates] = await Promise.all([
 		Guide.findAll({
 			where: { id: revisions.map((r) => r.guideId) },
 			attributes: ['id', 'targetBudgetMinor'],
@@ -77,7 +78,8 @@ export async function refreshAlerts(
 		}),
 		loadBaselines(revisionIds),
 		loadQuoteDates(revisions),
-		loadRules()
+		loadRules(),
+		fx.ratesForPricing()
 	]);
 	const budgetOf = new Map(guides.map((g) => [g.id, Number(g.targetBudgetMinor)]));
 	const newBaselines: [number, Baseline][] = [];
@@ -124,7 +126,9 @@ export async function refreshAlerts(
 			const then = baseline?.totals[String(regionId)];
 			return then && then.totalMinor !== null ? money(then.totalMinor, then.currency) : null;
 		};
+		// The budget as the guide page shows it in each region (reference rates).
 		const budgetMinor = budgetOf.get(r.guideId) ?? 0;
+		const budget = budgetMinor > 0 ? money(budgetMinor, baseRegion.currency) : null;
 		const upkeepRegions: UpkeepRegion[] = priced.map(({ region, p, slots: regionSlots }) => {
 			const dates = quoteDates.get(region.id);
 			return {
@@ -133,7 +137,7 @@ export async function refreshAlerts(
 				listed: region.id === r.baseRegionId || slots.some((s) => dates?.quoted.has(s.pickPartId)),
 				total: p.adjustment.picksTotal,
 				totalAtPublication: at(region.id),
-				budget: regionBudget(budgetMinor, at(r.baseRegionId), at(region.id)),
+				budget: budget && budgetIn(budget, region.currency, rates).money,
 				cheaperAtPublication: new Set(baseline?.totals[String(region.id)]?.cheaper ?? []),
 				latestActiveQuote: dates?.latestActive ?? new Map(),
 				slots: regionSlots
