@@ -127,7 +127,8 @@ export class PhotoWorker {
 			if (error instanceof PhotoRejected && error.status !== 503)
 				return this.fail(job, error.message);
 			// Anything else (a busy process, a store that did not answer) is left to the lease:
-			// the photo is claimed again once it runs out, up to maxAttempts.
+			// the photo is claimed again once it runs out, up to maxAttempts. An encoder's refusal
+			// is not among them: the pipeline turns it into a PhotoRejected (422), failed above.
 			log('attempt_failed', { photo: job.id, error: String(error) });
 			return 'lost';
 		}

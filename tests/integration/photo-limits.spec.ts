@@ -1,0 +1,112 @@
+/*
+ * The limits of a photo upload that are not about bytes, on the real MariaDB, the real
+ * pipeline (sharp) and both photo stores: an image whose stored copies the encoders cannot
+ * make (too tall for its width) is refused while the uploader waits, with the limit named and
+ * nothing stored, while one just inside the limit is made in full.
+ */
+import sharp from 'sharp';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { Photo, User, sequelize } from '../../src/lib/server/db';
+import { PhotoWorker, photoJobSettingsFromEnv } from '../../src/lib/server/images/photo-jobs';
+import { useStorage } from '../../src/lib/server/storage';
+import type { ObjectStorage } from '../../src/lib/server/storage';
+import * as photos from '../../src/lib/server/services/photos';
+import { plainPng } from '../support/images';
+import { photoStoreDrivers, quietBoxGuide } from '../support/photo-stores';
+
+let store: ObjectStorage;
+let author: User;
+const guide = { kind: 'guide', slug: 'quiet-box' } as const;
+const actor = () => ({ id: author.id, role: 'author' });
+
+beforeEach(async () => {
+	({ author } = await quietBoxGuide(store));
+});
+
+/** A flat JPEG of the given size (20 megapixels at 1000 × 20000, under the 40 accepted). */
+const flatJpeg = (width: number, height: number) =>
+	sharp({ create: { width, height, channels: 3, background: '#44546a' } })
+		.jpeg({ quality: 80 })
+		.toBuffer();
+
+/** Uploads to the guide and runs the background job to the end; the photo's status after it. */
+async function uploadAndProcess(input: Buffer) {
+	const accepted = await photos.upload(actor(), guide, input);
+	if (accepted.kind !== 'accepted') throw new Error(accepted.kind);
+	await new PhotoWorker(sequelize, () => store, photoJobSettingsFromEnv({})).drain();
+	return photos.uploadStatus(actor(), guide, accepted.status.id);
+}
+
+for (const driver of photoStoreDrivers()) {
+	describe(`with the ${driver.name} photo store`, () => {
+		beforeAll(async () => {
+			store = await driver.open();
+			useStorage(store);
+		});
+		afterAll(async () => {
+			useStorage(undefined);
+			await driver.close();
+		});
+
+		describe('an image too tall for its width', () => {
+			// WebP takes at most 16383 pixels on a side (AVIF 16384), measured with sharp 0.35.6.
+			const cases: [string, () => Promise<Buffer>, RegExp][] = [
+				[
+					'a JPEG 1000 × 20000 (its 960 px copy would be 19200 tall)',
+					() => flatJpeg(1000, 20000),
+					/1000 × 20000 pixels.*960 pixels wide would be 19200 pixels tall.*at most 16383 pixels on a side.*at most 17066 pixels tall/
+				],
+				[
+					'a PNG 300 × 17000 (kept at its own width, 17000 tall)',
+					() => plainPng(300, 17000),
+					/300 × 17000 pixels.*300 pixels wide would be 17000 pixels tall.*at most 16383 pixels on a side.*at most 16383 pixels tall/
+				],
+				[
+					'a PNG 480 × 16384, one pixel over',
+					() => plainPng(480, 16384),
+					/at most 16383 pixels on a side/
+				]
+			];
+			for (const [name, make, message] of cases) {
+				it(`${name} is refused at upload with 422, the limit named and nothing stored`, async () => {
+					const outcome = await photos.upload(actor(), guide, await make());
+					expect(outcome.kind).toBe('rejected');
+					if (outcome.kind !== 'rejected') return;
+					expect(outcome.status).toBe(422);
+					expect(outcome.message).toMatch(message);
+					expect(await store.list('')).toEqual([]);
+					expect(await Photo.count()).toBe(0);
+				});
+			}
+
+			it('480 × 16383, at the limit, is accepted and every planned file is made', async () => {
+				const status = await uploadAndProcess(await plainPng(480, 16383));
+				expect(status?.state).toBe('ready');
+				expect(status?.photo?.variants.map((v) => `${v.format} ${v.width}×${v.height}`)).toEqual([
+					'avif 480×16383',
+					'webp 480×16383',
+					'jpeg 480×16383'
+				]);
+				expect(await store.list('photos/')).toHaveLength(3);
+				expect(await store.list('originals/')).toEqual([]);
+			});
+
+			it('a strip 8 × 16000 is made in full, its placeholder inside 16 × 16', async () => {
+				const status = await uploadAndProcess(await plainPng(8, 16000));
+				expect(status?.state).toBe('ready');
+				expect(status?.photo?.variants.map((v) => `${v.format} ${v.width}×${v.height}`)).toEqual([
+					'avif 8×16000',
+					'webp 8×16000',
+					'jpeg 8×16000'
+				]);
+				const placeholder = Buffer.from(
+					(status?.photo?.placeholder ?? '').replace(/^data:image\/webp;base64,/, ''),
+					'base64'
+				);
+				const meta = await sharp(placeholder).metadata();
+				// 8 × 16000 fitted inside 16 × 16: 16 tall, 8 × 16 / 16000 = 0.008 wide, so 1.
+				expect([meta.width, meta.height]).toEqual([1, 16]);
+			});
+		});
+	});
+}
