@@ -259,6 +259,40 @@ for (const driver of photoStoreDrivers()) {
 			expect(await worker().runOnce()).toBe(false);
 		});
 
+		it('a waiting part upload whose claim another worker takes over answers 503 and leaves nothing stored', async () => {
+			const editor = await fanAndEditor();
+			// The waiting upload's claim lasts a millisecond, so another app process's worker (here,
+			// the loop below) takes the photo over while it is being made: the upload loses it.
+			process.env.PHOTO_LEASE_SECONDS = '0.001';
+			let uploading = true;
+			let takenOver = false;
+			const otherWorker = (async () => {
+				while (uploading) {
+					if (await worker().runOnce()) takenOver = true;
+					await new Promise((r) => setTimeout(r, 2));
+				}
+			})();
+			let outcome;
+			try {
+				outcome = await photos.upload(
+					{ id: editor.id, role: 'editor' },
+					{ kind: 'part', slug: 'draftwell-breeze-120' },
+					await large(),
+					{ caption: '', altText: 'The fan from the front' }
+				);
+			} finally {
+				uploading = false;
+				delete process.env.PHOTO_LEASE_SECONDS;
+				await otherWorker;
+			}
+			expect(takenOver).toBe(true);
+			expect(await Photo.count()).toBe(0);
+			// Neither the original nor any file either worker made.
+			expect(await store.list('')).toEqual([]);
+			// Not the uploader's fault: try again, rather than a refusal of the file.
+			expect(outcome).toMatchObject({ kind: 'rejected', status: 503 });
+		});
+
 		it('cancelled while processing: the row, the original and every file made go', async () => {
 			const status = await accept();
 			const running = worker().runOnce();

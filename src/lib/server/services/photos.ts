@@ -26,8 +26,8 @@ import type { StoredVariant } from '$lib/server/db';
 import { checkUpload, PhotoRejected, plannedVariants } from '$lib/server/images/pipeline';
 import {
 	claimForCaller,
-	PhotoWorker,
-	photoJobSettingsFromEnv
+	photoJobSettingsFromEnv,
+	processWhileWaiting
 } from '$lib/server/images/photo-jobs';
 import { pokePhotoWorker } from '$lib/server/images/photo-worker-inline';
 import {
@@ -199,22 +199,18 @@ export async function upload(
 		pokePhotoWorker();
 		return { kind: 'accepted', status: statusOf(photo, target) };
 	}
-	const worker = new PhotoWorker(sequelize, storage, settings);
-	await worker.process({
-		id: photo.id,
-		keyPrefix: photo.keyPrefix,
-		originalKey,
-		attempts: 1,
-		attemptId
-	});
-	await photo.reload();
-	if (photo.state === 'ready') return { kind: 'ok', photo: photoView(photo) };
-	// Refused while the caller waited: nothing of it stays.
-	await photo.destroy();
+	const job = { id: photo.id, keyPrefix: photo.keyPrefix, originalKey, attempts: 1, attemptId };
+	const processed = await processWhileWaiting(sequelize, storage, settings, job);
+	if (processed.state === 'ready') {
+		await photo.reload();
+		return { kind: 'ok', photo: photoView(photo) };
+	}
+	if (processed.state === 'failed')
+		return { kind: 'rejected', status: 422, message: processed.message };
 	return {
 		kind: 'rejected',
-		status: 422,
-		message: photo.failure ?? 'The photo could not be processed.'
+		status: 503,
+		message: 'The photo could not be processed just now. Try again in a minute.'
 	};
 }
 
