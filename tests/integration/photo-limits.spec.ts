@@ -2,11 +2,12 @@
  * The limits of a photo upload that are not about bytes, on the real MariaDB, the real
  * pipeline (sharp) and both photo stores: an image whose stored copies the encoders cannot
  * make (too tall for its width) is refused while the uploader waits, with the limit named and
- * nothing stored, while one just inside the limit is made in full.
+ * nothing stored, while one just inside the limit is made in full; failed photos do not take
+ * a place among a guide's 60.
  */
 import sharp from 'sharp';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { Photo, User, sequelize } from '../../src/lib/server/db';
+import { Guide, Photo, User, sequelize } from '../../src/lib/server/db';
 import { PhotoWorker, photoJobSettingsFromEnv } from '../../src/lib/server/images/photo-jobs';
 import { useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
@@ -35,6 +36,24 @@ async function uploadAndProcess(input: Buffer) {
 	if (accepted.kind !== 'accepted') throw new Error(accepted.kind);
 	await new PhotoWorker(sequelize, () => store, photoJobSettingsFromEnv({})).drain();
 	return photos.uploadStatus(actor(), guide, accepted.status.id);
+}
+
+/** `count` photo rows of the guide in `state`, with no files (the limit counts rows). */
+async function guidePhotoRows(count: number, state: 'ready' | 'processing' | 'failed') {
+	const row = await Guide.findOne({ where: { slug: 'quiet-box' } });
+	for (let i = 0; i < count; i++)
+		await Photo.create({
+			ownerId: author.id,
+			guideId: row?.id ?? 0,
+			keyPrefix: `photos/filler-${state}-${i}`,
+			width: 800,
+			height: 600,
+			bytes: state === 'failed' ? 0 : 1000,
+			placeholder: '',
+			variants: [],
+			state,
+			failure: state === 'failed' ? 'The image could not be decoded.' : null
+		});
 }
 
 for (const driver of photoStoreDrivers()) {
@@ -106,6 +125,27 @@ for (const driver of photoStoreDrivers()) {
 				const meta = await sharp(placeholder).metadata();
 				// 8 × 16000 fitted inside 16 × 16: 16 tall, 8 × 16 / 16000 = 0.008 wide, so 1.
 				expect([meta.width, meta.height]).toEqual([1, 16]);
+			});
+		});
+
+		describe('photos per guide', () => {
+			it('failed photos do not take a place among the 60: 59 ready and 1 failed still take one more', async () => {
+				await guidePhotoRows(59, 'ready');
+				await guidePhotoRows(1, 'failed');
+				const outcome = await photos.upload(actor(), guide, await plainPng(640, 480));
+				expect(outcome.kind).toBe('accepted');
+			});
+
+			it('photos still processing do: 59 ready and 1 processing refuse the next with the limit', async () => {
+				await guidePhotoRows(59, 'ready');
+				await guidePhotoRows(1, 'processing');
+				const outcome = await photos.upload(actor(), guide, await plainPng(640, 480));
+				expect(outcome).toEqual({
+					kind: 'conflict',
+					message: 'At most 60 photos here; delete one first.'
+				});
+				expect(await store.list('')).toEqual([]);
+				expect(await Photo.count()).toBe(60);
 			});
 		});
 	});

@@ -43,7 +43,7 @@ import type { PhotoStatusView, PhotoView } from './photo-views';
 
 /** Stored bytes per account over all its photos: common practice, no published source. */
 export const QUOTA_BYTES = 250 * 1024 * 1024;
-/** Photos per guide, part and build. */
+/** Photos per guide, part and build (failed ones not counted). */
 export const MAX_PHOTOS = { guide: 60, part: 6, build: 12 } as const;
 
 export type PhotoTarget =
@@ -133,7 +133,10 @@ export async function upload(
 	if (!owner) return { kind: 'not_found' };
 	if ('refused' in owner) return { kind: 'conflict', message: owner.refused };
 	const limit = MAX_PHOTOS[target.kind];
-	if ((await Photo.count({ where: { [owner.column]: owner.id } })) >= limit)
+	// A failed photo holds no file and no editor lists it, so it takes no place: its row stays
+	// only so the uploader's status poll can still say why it failed.
+	const counted = { [owner.column]: owner.id, state: { [Op.ne]: 'failed' } };
+	if ((await Photo.count({ where: counted })) >= limit)
 		return { kind: 'conflict', message: `At most ${limit} photos here; delete one first.` };
 	const before = await usedBytes(actor.id);
 	if (before >= QUOTA_BYTES) return { kind: 'quota', message: quotaMessage(before) };
