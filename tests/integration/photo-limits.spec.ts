@@ -3,12 +3,15 @@
  * pipeline (sharp) and both photo stores: an image whose stored copies the encoders cannot
  * make (too tall for its width) is refused while the uploader waits, with the limit named and
  * nothing stored, while one just inside the limit is made in full; failed photos do not take
- * a place among a guide's 60.
+ * a place among a guide's 60; the 61st upload of an hour is refused by the real limiter
+ * (rate_limits in MariaDB) before anything is read or stored.
  */
 import sharp from 'sharp';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
+import { uploadPhotoAs } from '../../src/lib/server/api/photos';
 import { Guide, Photo, User, sequelize } from '../../src/lib/server/db';
 import { PhotoWorker, photoJobSettingsFromEnv } from '../../src/lib/server/images/photo-jobs';
+import { closeRateLimits, consume } from '../../src/lib/server/rate-limit';
 import { useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import * as photos from '../../src/lib/server/services/photos';
@@ -23,6 +26,7 @@ const actor = () => ({ id: author.id, role: 'author' });
 beforeEach(async () => {
 	({ author } = await quietBoxGuide(store));
 });
+afterAll(closeRateLimits);
 
 /** A flat JPEG of the given size (20 megapixels at 1000 × 20000, under the 40 accepted). */
 const flatJpeg = (width: number, height: number) =>
@@ -36,6 +40,20 @@ async function uploadAndProcess(input: Buffer) {
 	if (accepted.kind !== 'accepted') throw new Error(accepted.kind);
 	await new PhotoWorker(sequelize, () => store, photoJobSettingsFromEnv({})).drain();
 	return photos.uploadStatus(actor(), guide, accepted.status.id);
+}
+
+/** A multipart upload request, as the browser sends one (the field `file`). */
+async function uploadRequest(): Promise<Request> {
+	const form = new FormData();
+	form.set(
+		'file',
+		new Blob([new Uint8Array(await plainPng(640, 480))], { type: 'image/png' }),
+		'desk.png'
+	);
+	return new Request('http://app.test/api/v1/guides/quiet-box/photos', {
+		method: 'POST',
+		body: form
+	});
 }
 
 /** `count` photo rows of the guide in `state`, with no files (the limit counts rows). */
@@ -146,6 +164,37 @@ for (const driver of photoStoreDrivers()) {
 				});
 				expect(await store.list('')).toEqual([]);
 				expect(await Photo.count()).toBe(60);
+			});
+		});
+
+		describe('uploads per hour', () => {
+			it('the 61st upload in an hour is refused with 429 and Retry-After, and stores nothing', async () => {
+				// 59 uploads already counted this hour, through the real limiter under the key the
+				// upload route counts (the account), rather than 59 files sent.
+				for (let i = 0; i < 59; i++)
+					expect((await consume('photoUploadByUser', author.id)).ok).toBe(true);
+				const user = {
+					id: author.id,
+					email: author.email,
+					name: author.name,
+					role: 'author' as const
+				};
+				const sixtieth = await uploadPhotoAs(user, await uploadRequest(), guide);
+				expect(sixtieth.status).toBe(201);
+
+				const sixtyFirst = await uploadPhotoAs(user, await uploadRequest(), guide);
+				expect(sixtyFirst.status).toBe(429);
+				const wait = Number(sixtyFirst.headers.get('retry-after'));
+				// The hour's window started with the first of the 60, moments ago.
+				expect(wait).toBeGreaterThan(3500);
+				expect(wait).toBeLessThanOrEqual(3600);
+				expect(await sixtyFirst.json()).toMatchObject({
+					message: 'Too many photo uploads in the last hour. Please wait a little and try again.'
+				});
+				// Only the 60th is kept: its row and its original, waiting for the job.
+				expect(await Photo.count()).toBe(1);
+				expect(await store.list('originals/')).toHaveLength(1);
+				expect(await store.list('photos/')).toEqual([]);
 			});
 		});
 	});
