@@ -47,7 +47,7 @@ export function srcset(variants: readonly { url: string; width: number }[]): str
 
 /*
  * The most pixels on a side a stored copy may have: WebP takes at most 16383, AVIF 16384
- * (sharp's own refusals, checked in tests/unit/photo-encode-limits.spec.ts), JPEG 65535.
+ * (sharp's own refusals, checked in tests/unit/photo-encode-limits.spec.ts), JPEG 65500.
  */
 export const MAX_ENCODED_SIDE = 16_383;
 
