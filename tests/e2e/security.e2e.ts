@@ -1,8 +1,7 @@
 import { expect, request as playwrightRequest, test } from '@playwright/test';
-import { request as httpRequest } from 'node:http';
 import { BASE_URL } from '../playwright.config';
 import { discoverActions, discoverRoutes, urlOf } from './routes';
-import { DEMO_PASSWORD, forgetAddressCounts, signInWithPassword } from './support';
+import { DEMO_PASSWORD, forgetAddressCounts, postChunked, signInWithPassword } from './support';
 
 /* docs/security.md §1 (ASVS 3.4.x, 3.5.x, 14.3.2) and §2, against the production build. */
 
@@ -191,35 +190,6 @@ test('a body over 512 KB is refused with 413 outside the catalog import', async 
 	});
 	expect(response.status()).toBe(413);
 });
-
-/** Posts `body` to `path` in chunks, with no Content-Length, as a streaming client would. */
-function postChunked(path: string, body: string): Promise<{ status: number; text: string }> {
-	const url = new URL(path, BASE_URL);
-	return new Promise((resolve, reject) => {
-		const sent = httpRequest(
-			url,
-			{
-				method: 'POST',
-				headers: {
-					origin: BASE_URL,
-					accept: 'text/html',
-					'content-type': 'application/x-www-form-urlencoded',
-					'transfer-encoding': 'chunked'
-				}
-			},
-			(answer) => {
-				let text = '';
-				answer.setEncoding('utf8');
-				answer.on('data', (chunk) => (text += chunk));
-				answer.on('end', () => resolve({ status: answer.statusCode ?? 0, text }));
-			}
-		);
-		// A closed socket after the answer is fine: the server need not read the rest.
-		sent.on('error', (problem) => reject(problem));
-		for (let at = 0; at < body.length; at += 64 * 1024) sent.write(body.slice(at, at + 64 * 1024));
-		sent.end();
-	});
-}
 
 test('a chunked body with no Content-Length is held to the same 512 KB, and a small one still works', async () => {
 	// Without a Content-Length only adapter-node's BODY_SIZE_LIMIT (raised for photo uploads)

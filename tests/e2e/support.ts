@@ -1,8 +1,10 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect } from '@playwright/test';
 import type { Page } from '@playwright/test';
+import { request as httpRequest } from 'node:http';
 import { createServer } from 'node:net';
 import mysql from 'mysql2/promise';
+import { BASE_URL } from '../playwright.config';
 
 export const DEMO_PASSWORD = 'slotwise-demo-password';
 
@@ -123,5 +125,41 @@ export function freePort(attempts = 50): Promise<number> {
 			else reject(error);
 		});
 		server.listen(port, '127.0.0.1', () => server.close(() => resolve(port)));
+	});
+}
+
+/**
+ * Posts `body` to `path` in chunks, with no Content-Length, as a streaming client would: a
+ * body the app can only measure while it reads it. Sent with our Origin, asking for HTML.
+ */
+export function postChunked(
+	path: string,
+	body: string | Buffer,
+	contentType = 'application/x-www-form-urlencoded'
+): Promise<{ status: number; text: string }> {
+	const url = new URL(path, BASE_URL);
+	return new Promise((resolve, reject) => {
+		const sent = httpRequest(
+			url,
+			{
+				method: 'POST',
+				headers: {
+					origin: BASE_URL,
+					accept: 'text/html',
+					'content-type': contentType,
+					'transfer-encoding': 'chunked'
+				}
+			},
+			(answer) => {
+				let text = '';
+				answer.setEncoding('utf8');
+				answer.on('data', (chunk) => (text += chunk));
+				answer.on('end', () => resolve({ status: answer.statusCode ?? 0, text }));
+			}
+		);
+		// A closed socket after the answer is fine: the server need not read the rest.
+		sent.on('error', (problem) => reject(problem));
+		for (let at = 0; at < body.length; at += 64 * 1024) sent.write(body.slice(at, at + 64 * 1024));
+		sent.end();
 	});
 }

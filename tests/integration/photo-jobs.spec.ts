@@ -4,7 +4,7 @@
  * waits in `processing` with only its original stored and shows nowhere; the job records
  * progress file by file and ends `ready` with the URLs promised at upload; a claim whose
  * lease ran out (a worker that died) is taken again, a live one is not; failure and cancel
- * leave no file behind.
+ * leave no file behind, and a photo the encoders cannot take fails at once with the reason.
  */
 import sharp from 'sharp';
 import { QueryTypes } from 'sequelize';
@@ -19,6 +19,7 @@ import { useStorage } from '../../src/lib/server/storage';
 import type { ObjectStorage } from '../../src/lib/server/storage';
 import * as gallery from '../../src/lib/server/services/gallery';
 import * as photos from '../../src/lib/server/services/photos';
+import { plainPng } from '../support/images';
 import { photoStoreDrivers, quietBoxGuide } from '../support/photo-stores';
 
 let store: ObjectStorage;
@@ -56,6 +57,18 @@ async function leaseEnds(id: number, inSeconds: number, attempts = 1) {
 		 lease_until = UTC_TIMESTAMP(3) + INTERVAL :s SECOND WHERE id = :id`,
 		{ type: QueryTypes.UPDATE, replacements: { id, s: inSeconds, attempts } }
 	);
+}
+
+/** A fan part and an editor who may give it photos. */
+async function fanAndEditor() {
+	await Part.create({
+		category: 'fan',
+		brand: 'Draftwell',
+		model: 'Breeze 120',
+		slug: 'draftwell-breeze-120',
+		specs: { sizeMm: 120, count: 1, maxRpm: 1500 }
+	});
+	return User.create({ email: 'eve@example.test', name: 'Eve Editor', role: 'editor' });
 }
 
 /** Runs `work` while reading the row's progress every few milliseconds. */
@@ -202,18 +215,7 @@ for (const driver of photoStoreDrivers()) {
 		});
 
 		it('a part photo is processed while the editor waits, through the same job, and answers ready', async () => {
-			await Part.create({
-				category: 'fan',
-				brand: 'Draftwell',
-				model: 'Breeze 120',
-				slug: 'draftwell-breeze-120',
-				specs: { sizeMm: 120, count: 1, maxRpm: 1500 }
-			});
-			const editor = await User.create({
-				email: 'eve@example.test',
-				name: 'Eve Editor',
-				role: 'editor'
-			});
+			const editor = await fanAndEditor();
 			const outcome = await photos.upload(
 				{ id: editor.id, role: 'editor' },
 				{ kind: 'part', slug: 'draftwell-breeze-120' },
@@ -228,6 +230,67 @@ for (const driver of photoStoreDrivers()) {
 			expect(await store.list('originals/')).toEqual([]);
 			// Nothing left for the background worker.
 			expect(await worker().runOnce()).toBe(false);
+		});
+
+		it('a waiting photo the encoders cannot take fails on its first claim, with the limit named', async () => {
+			// As a photo accepted before the upload checked its shape waits: 300 × 17000 is kept at
+			// its own width, and WebP takes at most 16383 pixels on a side.
+			const original = 'originals/accepted-before-the-check';
+			await store.put(original, await plainPng(300, 17000), 'application/octet-stream');
+			const row = await Photo.create({
+				ownerId: author.id,
+				guideId: (await Guide.findOne({ where: { slug: 'quiet-box' } }))?.id ?? null,
+				keyPrefix: 'photos/accepted-before-the-check',
+				width: 300,
+				height: 17000,
+				bytes: 1000,
+				placeholder: '',
+				variants: [],
+				state: 'processing',
+				variantsTotal: 3,
+				originalKey: original
+			});
+			expect(await worker().runOnce()).toBe(true);
+			const failed = await Photo.findByPk(row.id);
+			expect(failed?.state).toBe('failed');
+			expect(failed?.attempts).toBe(1);
+			expect(failed?.failure).toMatch(/17000 pixels tall.*at most 16383 pixels on a side/);
+			expect(await store.list('')).toEqual([]);
+			expect(await worker().runOnce()).toBe(false);
+		});
+
+		it('a waiting part upload whose claim another worker takes over answers 503 and leaves nothing stored', async () => {
+			const editor = await fanAndEditor();
+			// The waiting upload's claim lasts a millisecond, so another app process's worker (here,
+			// the loop below) takes the photo over while it is being made: the upload loses it.
+			process.env.PHOTO_LEASE_SECONDS = '0.001';
+			let uploading = true;
+			let takenOver = false;
+			const otherWorker = (async () => {
+				while (uploading) {
+					if (await worker().runOnce()) takenOver = true;
+					await new Promise((r) => setTimeout(r, 2));
+				}
+			})();
+			let outcome;
+			try {
+				outcome = await photos.upload(
+					{ id: editor.id, role: 'editor' },
+					{ kind: 'part', slug: 'draftwell-breeze-120' },
+					await large(),
+					{ caption: '', altText: 'The fan from the front' }
+				);
+			} finally {
+				uploading = false;
+				delete process.env.PHOTO_LEASE_SECONDS;
+				await otherWorker;
+			}
+			expect(takenOver).toBe(true);
+			expect(await Photo.count()).toBe(0);
+			// Neither the original nor any file either worker made.
+			expect(await store.list('')).toEqual([]);
+			// Not the uploader's fault: try again, rather than a refusal of the file.
+			expect(outcome).toMatchObject({ kind: 'rejected', status: 503 });
 		});
 
 		it('cancelled while processing: the row, the original and every file made go', async () => {

@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import semver from 'semver';
+import sharp from 'sharp';
 import { describe, expect, it } from 'vitest';
 
 /*
@@ -19,10 +20,12 @@ const FLOORS: Record<string, { floor: string; why: string }> = {
 	nodemailer: {
 		floor: '10.4.1',
 		why: 'fixes land only on the latest major; GHSA-3q53-mvfw-q9v8 (10.4.1)'
-	}
+	},
+	sharp: { floor: '0.35.0', why: 'GHSA-f88m-g3jw-g9cj, libvips CVEs in the bundled binaries' }
 };
 
-// sharp ≥ 0.35.0 (GHSA-f88m-g3jw-g9cj) joins FLOORS when photo uploads install it.
+/** The advisory's fix is libvips 8.18.3, which sharp 0.35.0 bundles. */
+const LIBVIPS_FLOOR = '8.18.3';
 
 const lock = JSON.parse(
 	readFileSync(resolve(import.meta.dirname, '../../package-lock.json'), 'utf8')
@@ -45,4 +48,10 @@ describe('dependency version floors (docs/security.md §0)', () => {
 			for (const v of versions) expect(semver.gte(v, floor), `${name}@${v}`).toBe(true);
 		});
 	}
+
+	it(`the libvips sharp loads is ≥ ${LIBVIPS_FLOOR} (GHSA-f88m-g3jw-g9cj), whichever binary it found`, () => {
+		const vips = sharp.versions.vips;
+		expect(semver.valid(vips), `libvips ${vips}`).not.toBeNull();
+		expect(semver.gte(vips, LIBVIPS_FLOOR), `libvips ${vips}`).toBe(true);
+	});
 });

@@ -20,6 +20,11 @@ export function variantWidths(width: number): number[] {
 	return fitting.length > 0 ? [...fitting] : [width];
 }
 
+/** The width the pipeline decodes to before it makes the copies: the original's, at most the widest variant. */
+export function baseWidth(width: number): number {
+	return Math.min(width, Math.max(...VARIANT_WIDTHS));
+}
+
 /** The JPEG fallback's width for those widths. */
 export function fallbackWidth(widths: readonly number[]): number | null {
 	const small = widths.filter((w) => w <= JPEG_FALLBACK_MAX_WIDTH);
@@ -38,4 +43,44 @@ export function srcset(variants: readonly { url: string; width: number }[]): str
 		.sort((a, b) => a.width - b.width)
 		.map((v) => `${v.url} ${v.width}w`)
 		.join(', ');
+}
+
+/*
+ * The most pixels on a side a stored copy may have: WebP takes at most 16383, AVIF 16384
+ * (sharp's own refusals, checked in tests/unit/photo-encode-limits.spec.ts), JPEG 65500.
+ */
+export const MAX_ENCODED_SIDE = 16_383;
+
+type Size = { width: number; height: number };
+
+/**
+ * The size of each stored width, as the pipeline makes them: the original is decoded to
+ * baseWidth, and every copy is resized from that (heights rounded to the nearest pixel, as
+ * sharp rounds them).
+ */
+export function plannedSizes(original: Size): Size[] {
+	const base = { width: baseWidth(original.width), height: 0 };
+	base.height =
+		base.width === original.width ? original.height : scaledHeight(original, base.width);
+	return variantWidths(original.width).map((width) => ({
+		width,
+		height: width === base.width ? base.height : scaledHeight(base, width)
+	}));
+}
+
+/**
+ * The first stored copy the encoders could not make, or null. Copies are at most 1600 wide
+ * (or the original's own width under 480), so only a height can pass the limit: an image
+ * much taller than it is wide.
+ */
+export function oversizedCopy(original: Size): Size | null {
+	return plannedSizes(original).find((s) => s.height > MAX_ENCODED_SIDE) ?? null;
+}
+
+/** The tallest original of this width whose copies all fit (the tallest copy is the widest). */
+export function tallestAllowed(width: number): number {
+	const widest = Math.max(...variantWidths(width));
+	let height = Math.floor(((MAX_ENCODED_SIDE + 0.5) * width) / widest);
+	while (height > 1 && oversizedCopy({ width, height })) height -= 1;
+	return height;
 }

@@ -17,6 +17,7 @@ import { fieldIssues } from '$lib/schemas/issues';
 import type { Issues } from '$lib/schemas/issues';
 import { photoTextInput } from '$lib/schemas/photos';
 import { requireUser } from '$lib/server/auth/guards';
+import type { SessionUser } from '$lib/server/auth/guards';
 import { jsonFailure } from '$lib/server/http/answers';
 import { MAX_UPLOAD_BYTES, TOO_LARGE_MESSAGE } from '$lib/server/images/limits';
 import { consumeAll } from '$lib/server/rate-limit';
@@ -30,8 +31,16 @@ const invalid = (issues: Issues) =>
 	jsonFailure({ kind: 'invalid', issues }, { notFound: 'Not found' });
 
 /** POST: one photo. Part and build photos need alt text beside the file; guide photos get it in the gallery. */
-export async function uploadPhoto(request: Request, target: PhotoTarget): Promise<Response> {
-	const user = requireUser();
+export function uploadPhoto(request: Request, target: PhotoTarget): Promise<Response> {
+	return uploadPhotoAs(requireUser(), request, target);
+}
+
+/** The upload for a signed-in `user`: counted by the limiter first, then read and handed on. */
+export async function uploadPhotoAs(
+	user: SessionUser,
+	request: Request,
+	target: PhotoTarget
+): Promise<Response> {
 	if (!/^multipart\/form-data\b/i.test(request.headers.get('content-type') ?? ''))
 		return message('Send the photo as multipart/form-data in the field "file".', 415);
 	const limited = await consumeAll(photoUploadChecks(user.id));

@@ -3,6 +3,7 @@
  */
 import { dev } from '$app/environment';
 import { error, json, redirect } from '@sveltejs/kit';
+import { stringify } from 'devalue';
 import type { Handle, RequestEvent } from '@sveltejs/kit';
 import { withCappedBody } from '$lib/server/http/capped-body';
 import { baselineHeaders } from '$lib/server/http/security-headers.js';
@@ -10,6 +11,10 @@ import { UNAVAILABLE_HEADERS, unavailableResponse, wantsJson } from '$lib/server
 import { secureCookies } from './cookies';
 import { readSession } from './sign-in';
 import { TOO_LARGE_MESSAGE, UPLOAD_BODY_LIMIT_BYTES } from '$lib/server/images/limits';
+import {
+	CSV_TOO_LARGE_MESSAGE,
+	IMPORT_BODY_LIMIT_BYTES
+} from '$lib/server/services/catalog-csv-limits';
 
 /**
  * Auth.js answers every /auth/* path itself. Only what a browser needs directly stays
@@ -90,7 +95,6 @@ const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 /** Bodies above this need a route that expects them (BODY_SIZE_LIMIT is raised for uploads). */
 export const DEFAULT_BODY_LIMIT_BYTES = 512 * 1024;
-const LARGE_BODY_ROUTES = [/^\/\(editor\)\/editor\/parts\/import$/];
 
 /**
  * Photo uploads (docs/security.md §6): multipart bodies up to the photo limit. SvelteKit's
@@ -103,32 +107,55 @@ const UPLOAD_ROUTES = [
 ];
 const isUploadRoute = (event: RequestEvent) =>
 	UPLOAD_ROUTES.some((r) => r.test(event.route.id ?? ''));
+const IMPORT_ROUTE = '/(editor)/editor/parts/import';
+
+type BodyCap = { limit: number; refuse: (request: Request) => Response };
+
+const tooLarge = (): Response =>
+	new Response('Payload too large', { status: 413, headers: { connection: 'close' } });
+
+/** The import's refusal as its own form gives it: the file field's message (use:enhance reads the failure). */
+function csvTooLarge(request: Request): Response {
+	const headers = { connection: 'close' };
+	if (request.headers.has('x-sveltekit-action')) {
+		const data = stringify({ issues: { file: [CSV_TOO_LARGE_MESSAGE] } });
+		return json({ type: 'failure', status: 413, data }, { status: 413, headers });
+	}
+	return new Response(CSV_TOO_LARGE_MESSAGE, {
+		status: 413,
+		headers: { ...headers, 'content-type': 'text/plain; charset=utf-8' }
+	});
+}
+
+function bodyCapOf(event: RequestEvent): BodyCap {
+	if (isUploadRoute(event))
+		return {
+			limit: UPLOAD_BODY_LIMIT_BYTES,
+			refuse: () => json({ message: TOO_LARGE_MESSAGE }, { status: 413 })
+		};
+	if (event.route.id === IMPORT_ROUTE)
+		return { limit: IMPORT_BODY_LIMIT_BYTES, refuse: csvTooLarge };
+	return { limit: DEFAULT_BODY_LIMIT_BYTES, refuse: tooLarge };
+}
 
 /**
- * adapter-node's BODY_SIZE_LIMIT applies to every route, so it is raised for the catalog
- * import and every other route is held to the default here: from the Content-Length when
- * the body states one, else while reading it (http/capped-body.ts). Photo uploads and the
- * import are bounded by BODY_SIZE_LIMIT when chunked.
+ * adapter-node's BODY_SIZE_LIMIT applies to every route, so it is raised for photo uploads
+ * alone, and each route is held to its own cap here: photo uploads to the photo limit, the
+ * editors' CSV import to 2 MB, everything else to 512 KB. From the Content-Length when the
+ * body states one, else while reading it (http/capped-body.ts).
  */
 export const capBodies: Handle = async ({ event, resolve }) => {
+	const { limit, refuse } = bodyCapOf(event);
 	const length = Number(event.request.headers.get('content-length') ?? 0);
-	if (isUploadRoute(event)) {
-		if (length > UPLOAD_BODY_LIMIT_BYTES)
-			return json({ message: TOO_LARGE_MESSAGE }, { status: 413 });
-		return resolve(event);
-	}
-	if (LARGE_BODY_ROUTES.some((r) => r.test(event.route.id ?? ''))) return resolve(event);
-	const tooLarge = () =>
-		new Response('Payload too large', { status: 413, headers: { connection: 'close' } });
-	if (length > DEFAULT_BODY_LIMIT_BYTES) return tooLarge();
+	if (length > limit) return refuse(event.request);
 	let capped: Request | null;
 	try {
-		capped = await withCappedBody(event.request, DEFAULT_BODY_LIMIT_BYTES);
+		capped = await withCappedBody(event.request, limit);
 	} catch {
 		// The client broke off while sending: nothing was read, so nothing is done.
 		return new Response('The request body could not be read', { status: 400 });
 	}
-	if (!capped) return tooLarge();
+	if (!capped) return refuse(event.request);
 	event.request = capped;
 	return resolve(event);
 };

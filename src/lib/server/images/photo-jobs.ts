@@ -127,7 +127,8 @@ export class PhotoWorker {
 			if (error instanceof PhotoRejected && error.status !== 503)
 				return this.fail(job, error.message);
 			// Anything else (a busy process, a store that did not answer) is left to the lease:
-			// the photo is claimed again once it runs out, up to maxAttempts.
+			// the photo is claimed again once it runs out, up to maxAttempts. An encoder's refusal
+			// is not among them: the pipeline turns it into a PhotoRejected (422), failed above.
 			log('attempt_failed', { photo: job.id, error: String(error) });
 			return 'lost';
 		}
@@ -263,4 +264,46 @@ export async function claimForCaller(
 		}
 	);
 	return attemptId;
+}
+
+export type WaitedOutcome =
+	{ state: 'ready' } | { state: 'failed'; message: string } | { state: 'lost' };
+
+/**
+ * Processes a photo that claimForCaller claimed, while its uploader waits. Ready, whichever
+ * worker finished it (another takes over a claim whose lease ran out). Anything else (refused,
+ * lost to another worker, broken off by an error) leaves nothing: not the row, not the
+ * original, not a file either worker made. A failure's files the job removes itself; a lost
+ * claim keeps the original and may have left files.
+ */
+export async function processWhileWaiting(
+	sequelize: Sequelize,
+	store: () => ObjectStorage,
+	settings: PhotoJobSettings,
+	job: PhotoJob & { originalKey: string }
+): Promise<WaitedOutcome> {
+	const discard = async () => {
+		await sequelize.query('DELETE FROM photos WHERE id = :id', {
+			type: QueryTypes.DELETE,
+			replacements: { id: job.id }
+		});
+		await store().delete([job.originalKey]);
+		await removePrefix(store(), job.keyPrefix);
+	};
+	try {
+		await new PhotoWorker(sequelize, store, settings).process(job);
+	} catch (error) {
+		await discard().catch(() => undefined);
+		throw error;
+	}
+	const [row] = await sequelize.query<{ state: string; failure: string | null }>(
+		'SELECT state, failure FROM photos WHERE id = :id',
+		{ type: QueryTypes.SELECT, replacements: { id: job.id } }
+	);
+	if (row?.state === 'ready') return { state: 'ready' };
+	await discard();
+	if (row?.state === 'failed')
+		return { state: 'failed', message: row.failure ?? 'The photo could not be processed.' };
+	log('waited_lost', { photo: job.id });
+	return { state: 'lost' };
 }

@@ -8,6 +8,9 @@
  *    sharp's own reading of the header must agree, else 415 (SVG, GIF, HEIC, programs…);
  * 3. pixels: width × height from the header at most MAX_INPUT_PIXELS, else 422 before any
  *    decoding (a decompression bomb costs a header read, not 2 GB of memory);
+ * 3a. shape: every stored copy must be one the encoders can make (at most MAX_ENCODED_SIDE
+ *    pixels on a side, domain/photo-variants.ts), else 422 naming the limit: an image far
+ *    taller than it is wide would otherwise be accepted and fail minutes later in the job;
  * 3b. decode once at a fraction of the size with failOn 'warning' (checkUpload): a truncated or
  *    corrupt file is a 422 while the uploader waits. JPEG and WebP decode shrunk on load, so
  *    this reads every byte of the file for about a quarter of a full decode (125 ms against
@@ -17,6 +20,8 @@
  *    EXIF orientation, shrink to the widest variant, and keep raw pixels only: EXIF, GPS,
  *    XMP, IPTC and ICC data do not survive a trip through raw pixels;
  * 5. encode each width in AVIF and WebP, one JPEG fallback, and a tiny blurred placeholder.
+ *    An encoder that refuses a copy anyway is a refusal of the photo (422 with its reason),
+ *    which the job records as failed: the same file would fail the same way on every try.
  *
  * Only the JPEG, PNG and WebP loaders are unblocked in this process (sharp.block), so even a
  * file that slipped past step 2 could not reach another decoder.
@@ -26,7 +31,14 @@ import type { Metadata, OutputInfo } from 'sharp';
 // Relative imports: the demo seed (scripts/seed.ts, outside Vite) runs this pipeline too.
 import { isAccepted, refusalFor, sniffImage } from '../../domain/image-signature.js';
 import type { AcceptedImageKind } from '../../domain/image-signature.js';
-import { fallbackWidth, variantWidths, VARIANT_WIDTHS } from '../../domain/photo-variants.js';
+import {
+	baseWidth,
+	fallbackWidth,
+	MAX_ENCODED_SIDE,
+	oversizedCopy,
+	tallestAllowed,
+	variantWidths
+} from '../../domain/photo-variants.js';
 import type { VariantFormat } from '../../domain/photo-variants.js';
 import { MAX_INPUT_PIXELS, MAX_UPLOAD_BYTES, TOO_LARGE_MESSAGE } from './limits.js';
 
@@ -137,6 +149,12 @@ export async function inspect(
 			`The image is ${width} × ${height} pixels (${megapixels} megapixels); at most ${MAX_INPUT_PIXELS / 1_000_000} megapixels are accepted.`
 		);
 	}
+	const oversized = oversizedCopy({ width, height });
+	if (oversized)
+		throw new PhotoRejected(
+			422,
+			`The image is ${width} × ${height} pixels, too tall for its width: its copy ${oversized.width} pixels wide would be ${oversized.height} pixels tall, and a stored photo can be at most ${MAX_ENCODED_SIDE} pixels on a side. Crop it to at most ${tallestAllowed(width)} pixels tall.`
+		);
 	return { kind, width, height };
 }
 
@@ -187,13 +205,12 @@ export async function processPhoto(
 ): Promise<ProcessedPhoto> {
 	const { kind, width, height } = await inspect(input);
 	return withSlot(async () => {
-		const widest = Math.min(width, Math.max(...VARIANT_WIDTHS));
-		let base: { data: Buffer; info: OutputInfo };
+		let base: RawImage;
 		try {
 			base = await sharp(input, SHARP_INPUT)
 				.timeout({ seconds: TIMEOUT_SECONDS })
 				.autoOrient()
-				.resize({ width: widest, withoutEnlargement: true })
+				.resize({ width: baseWidth(width), withoutEnlargement: true })
 				.toColourspace('srgb')
 				.raw()
 				.toBuffer({ resolveWithObject: true });
@@ -203,52 +220,85 @@ export async function processPhoto(
 				'The image could not be decoded: the file is damaged, incomplete or not a valid image.'
 			);
 		}
-		const raw = {
-			raw: {
-				width: base.info.width,
-				height: base.info.height,
-				channels: base.info.channels as 1 | 2 | 3 | 4
-			}
-		};
-		const from = (w: number) => {
-			const pipeline = sharp(base.data, raw).timeout({ seconds: TIMEOUT_SECONDS });
-			return w === base.info.width ? pipeline : pipeline.resize({ width: w });
-		};
-		const widths = variantWidths(width);
-		const fallback = fallbackWidth(widths);
-		const total = plannedVariants(width).length;
-		const variants: EncodedVariant[] = [];
-		const add = async (format: VariantFormat, out: { data: Buffer; info: OutputInfo }) => {
-			variants.push({ format, width: out.info.width, height: out.info.height, data: out.data });
-			await onVariant(variants.length, total);
-		};
-		for (const w of widths) {
-			await add(
-				'avif',
-				await from(w).avif({ quality: 50, effort: 2 }).toBuffer({ resolveWithObject: true })
-			);
-			await add(
-				'webp',
-				await from(w).webp({ quality: 78, effort: 4 }).toBuffer({ resolveWithObject: true })
-			);
-			if (w === fallback) {
-				const jpeg = from(w)
-					.flatten({ background: '#ffffff' })
-					.jpeg({ quality: 80, mozjpeg: true });
-				await add('jpeg', await jpeg.toBuffer({ resolveWithObject: true }));
-			}
+		return { kind, width, height, ...(await makeFiles(base, width, onVariant)) };
+	});
+}
+
+type RawImage = { data: Buffer; info: OutputInfo };
+
+const FORMAT_NAMES = { avif: 'AVIF', webp: 'WebP', jpeg: 'JPEG' } as const;
+
+/** An encoder's refusal of one copy, as a refusal of the photo with sharp's reason. */
+async function encoded(
+	format: VariantFormat,
+	width: number,
+	make: () => Promise<RawImage>
+): Promise<RawImage> {
+	try {
+		return await make();
+	} catch (e) {
+		const reason = e instanceof Error ? e.message.split('\n')[0] : String(e);
+		throw new PhotoRejected(
+			422,
+			`The ${FORMAT_NAMES[format]} copy ${width} pixels wide could not be made (${reason}). Upload a smaller copy.`
+		);
+	}
+}
+
+/**
+ * Encodes every stored copy and the placeholder from the decoded pixels (`base`, already at
+ * baseWidth) of an original `width` pixels wide (after orientation).
+ */
+export async function makeFiles(
+	base: RawImage,
+	width: number,
+	onVariant: VariantProgress = () => undefined
+): Promise<{ placeholder: string; variants: EncodedVariant[] }> {
+	const raw = {
+		raw: {
+			width: base.info.width,
+			height: base.info.height,
+			channels: base.info.channels as 1 | 2 | 3 | 4
 		}
-		const tiny = await sharp(base.data, raw)
-			.resize({ width: 16 })
+	};
+	const from = (w: number) => {
+		const pipeline = sharp(base.data, raw).timeout({ seconds: TIMEOUT_SECONDS });
+		return w === base.info.width ? pipeline : pipeline.resize({ width: w });
+	};
+	const widths = variantWidths(width);
+	const fallback = fallbackWidth(widths);
+	const total = plannedVariants(width).length;
+	const variants: EncodedVariant[] = [];
+	const add = async (format: VariantFormat, w: number, make: () => Promise<RawImage>) => {
+		const out = await encoded(format, w, make);
+		variants.push({ format, width: out.info.width, height: out.info.height, data: out.data });
+		await onVariant(variants.length, total);
+	};
+	for (const w of widths) {
+		await add('avif', w, () =>
+			from(w).avif({ quality: 50, effort: 2 }).toBuffer({ resolveWithObject: true })
+		);
+		await add('webp', w, () =>
+			from(w).webp({ quality: 78, effort: 4 }).toBuffer({ resolveWithObject: true })
+		);
+		if (w === fallback)
+			await add('jpeg', w, () =>
+				from(w)
+					.flatten({ background: '#ffffff' })
+					.jpeg({ quality: 80, mozjpeg: true })
+					.toBuffer({ resolveWithObject: true })
+			);
+	}
+	// Inside 16 × 16 whatever the shape: a narrow strip widened to 16 could pass WebP's limit.
+	const tiny = await encoded('webp', 16, () =>
+		sharp(base.data, raw)
+			.resize(16, 16, { fit: 'inside' })
 			.blur(1)
 			.webp({ quality: 40 })
-			.toBuffer();
-		return {
-			kind,
-			width,
-			height,
-			placeholder: `data:image/webp;base64,${tiny.toString('base64')}`,
-			variants
-		};
-	});
+			.toBuffer({ resolveWithObject: true })
+	);
+	return {
+		placeholder: `data:image/webp;base64,${tiny.data.toString('base64')}`,
+		variants
+	};
 }

@@ -21,8 +21,8 @@ export const CSV_COLUMNS = [
 	'specs_json'
 ] as const satisfies readonly CsvColumn[];
 
-/** Largest file accepted (1 MiB). adapter-node's BODY_SIZE_LIMIT must be above it (see README). */
-export const MAX_UPLOAD_BYTES = 1_048_576;
+/** Largest file accepted (1 MiB); the request hook holds the import's bodies to 2 MB. */
+export { MAX_UPLOAD_BYTES } from './catalog-csv-limits';
 /** Most data rows in one file: one transaction stays short enough to hold. */
 export const MAX_ROWS = 5_000;
 /** How long a checked upload waits for its confirmation. */

@@ -26,8 +26,8 @@ import type { StoredVariant } from '$lib/server/db';
 import { checkUpload, PhotoRejected, plannedVariants } from '$lib/server/images/pipeline';
 import {
 	claimForCaller,
-	PhotoWorker,
-	photoJobSettingsFromEnv
+	photoJobSettingsFromEnv,
+	processWhileWaiting
 } from '$lib/server/images/photo-jobs';
 import { pokePhotoWorker } from '$lib/server/images/photo-worker-inline';
 import {
@@ -43,7 +43,7 @@ import type { PhotoStatusView, PhotoView } from './photo-views';
 
 /** Stored bytes per account over all its photos: common practice, no published source. */
 export const QUOTA_BYTES = 250 * 1024 * 1024;
-/** Photos per guide, part and build. */
+/** Photos per guide, part and build (failed ones not counted). */
 export const MAX_PHOTOS = { guide: 60, part: 6, build: 12 } as const;
 
 export type PhotoTarget =
@@ -133,7 +133,10 @@ export async function upload(
 	if (!owner) return { kind: 'not_found' };
 	if ('refused' in owner) return { kind: 'conflict', message: owner.refused };
 	const limit = MAX_PHOTOS[target.kind];
-	if ((await Photo.count({ where: { [owner.column]: owner.id } })) >= limit)
+	// A failed photo holds no file and no editor lists it, so it takes no place: its row stays
+	// only so the uploader's status poll can still say why it failed.
+	const counted = { [owner.column]: owner.id, state: { [Op.ne]: 'failed' } };
+	if ((await Photo.count({ where: counted })) >= limit)
 		return { kind: 'conflict', message: `At most ${limit} photos here; delete one first.` };
 	const before = await usedBytes(actor.id);
 	if (before >= QUOTA_BYTES) return { kind: 'quota', message: quotaMessage(before) };
@@ -199,22 +202,18 @@ export async function upload(
 		pokePhotoWorker();
 		return { kind: 'accepted', status: statusOf(photo, target) };
 	}
-	const worker = new PhotoWorker(sequelize, storage, settings);
-	await worker.process({
-		id: photo.id,
-		keyPrefix: photo.keyPrefix,
-		originalKey,
-		attempts: 1,
-		attemptId
-	});
-	await photo.reload();
-	if (photo.state === 'ready') return { kind: 'ok', photo: photoView(photo) };
-	// Refused while the caller waited: nothing of it stays.
-	await photo.destroy();
+	const job = { id: photo.id, keyPrefix: photo.keyPrefix, originalKey, attempts: 1, attemptId };
+	const processed = await processWhileWaiting(sequelize, storage, settings, job);
+	if (processed.state === 'ready') {
+		await photo.reload();
+		return { kind: 'ok', photo: photoView(photo) };
+	}
+	if (processed.state === 'failed')
+		return { kind: 'rejected', status: 422, message: processed.message };
 	return {
 		kind: 'rejected',
-		status: 422,
-		message: photo.failure ?? 'The photo could not be processed.'
+		status: 503,
+		message: 'The photo could not be processed just now. Try again in a minute.'
 	};
 }
 

@@ -3,6 +3,7 @@ import { catalogImportIdInput as importIdInput } from '$lib/schemas/catalog-upke
 import { fieldIssues } from '$lib/schemas/issues';
 import { requireRole } from '$lib/server/auth/guards';
 import * as catalogCsv from '$lib/server/services/catalog-csv';
+import { CSV_TOO_LARGE_MESSAGE } from '$lib/server/services/catalog-csv-limits';
 import type { Actions, PageServerLoad } from './$types';
 
 // Room for the multipart envelope around a file of the largest accepted size.
@@ -26,11 +27,7 @@ export const actions: Actions = {
 		const me = requireRole('editor');
 		const length = Number(request.headers.get('content-length') ?? 0);
 		if (length > MAX_REQUEST_BYTES) {
-			return fail(413, {
-				issues: {
-					file: [`Upload at most ${catalogCsv.MAX_UPLOAD_BYTES / 1024 / 1024} MB at a time.`]
-				}
-			});
+			return fail(413, { issues: { file: [CSV_TOO_LARGE_MESSAGE] } });
 		}
 		const file = (await request.formData()).get('file');
 		if (!(file instanceof File) || file.size === 0) {
