@@ -1,7 +1,13 @@
 import { expect, test } from '@playwright/test';
 import type { Locator, Page } from '@playwright/test';
 import sharp from 'sharp';
-import { severeViolations, signInWithPassword, signUpConfirmed, uniqueEmail } from './support';
+import {
+	backdropOf,
+	severeViolations,
+	signInWithPassword,
+	signUpConfirmed,
+	uniqueEmail
+} from './support';
 
 /*
  * Photos beyond the guide editor, in Chromium against the production build, at a desktop
@@ -62,6 +68,15 @@ for (const width of WIDTHS) {
 		await expect(dialog).toBeVisible();
 		await expect(dialog.getByTestId('lightbox-caption')).toContainText(`Photo 1 of ${count}`);
 		await expectLoaded(dialog.locator('img').first());
+		// The page behind is dimmed well (a dark veil, at least 70 % opaque) in both schemes,
+		// so the enlarged photo stands out even on a phone.
+		for (const colorScheme of ['light', 'dark'] as const) {
+			await page.emulateMedia({ colorScheme });
+			const backdrop = await backdropOf(dialog);
+			expect(backdrop.alpha, `${colorScheme}: ${backdrop.colour}`).toBeGreaterThanOrEqual(0.7);
+			expect(backdrop.luminance, `${colorScheme}: ${backdrop.colour}`).toBeLessThan(0.2);
+		}
+		await page.emulateMedia({ colorScheme: null });
 		// The enlarged photo fits the window at this width.
 		const box = await dialog.locator('img').first().boundingBox();
 		expect(box?.width ?? Infinity).toBeLessThanOrEqual(width);

@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect } from '@playwright/test';
-import type { Page } from '@playwright/test';
+import type { Locator, Page } from '@playwright/test';
 import { createServer } from 'node:net';
 import mysql from 'mysql2/promise';
 
@@ -123,5 +123,20 @@ export function freePort(attempts = 50): Promise<number> {
 			else reject(error);
 		});
 		server.listen(port, '127.0.0.1', () => server.close(() => resolve(port)));
+	});
+}
+
+/** The computed colour of an element's ::backdrop, drawn on a canvas: its sRGB luminance and alpha (0–1). */
+export function backdropOf(
+	dialog: Locator
+): Promise<{ colour: string; luminance: number; alpha: number }> {
+	return dialog.evaluate((el) => {
+		const colour = getComputedStyle(el, '::backdrop').backgroundColor;
+		const context = document.createElement('canvas').getContext('2d');
+		if (!context) throw new Error('no 2d canvas');
+		context.fillStyle = colour;
+		context.fillRect(0, 0, 1, 1);
+		const [r = 0, g = 0, b = 0, a = 0] = context.getImageData(0, 0, 1, 1).data;
+		return { colour, luminance: (0.2126 * r + 0.7152 * g + 0.0722 * b) / 255, alpha: a / 255 };
 	});
 }
