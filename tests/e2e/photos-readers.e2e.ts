@@ -188,9 +188,24 @@ test('390 px: a reader forks the guide, follows its assembly checklist, and show
 	await expectLoaded(cabling.locator('img').first());
 	await expect(cabling.getByText('Caution:').first()).toBeVisible();
 
-	await cabling.getByRole('button', { name: 'Mark Power supply and cabling done' }).click();
+	// Ticked from the keyboard, the stage's control keeps the focus while it saves and after.
+	await cabling.getByRole('button', { name: 'Mark Power supply and cabling done' }).focus();
+	await page.keyboard.press('Space');
 	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`1 of ${total} stages done`);
 	await expect(cabling.getByRole('heading')).toContainText('(done)');
+	await expect(
+		cabling.getByRole('button', { name: 'Mark Power supply and cabling not done' })
+	).toBeFocused();
+	await expect(checklist.locator('[aria-live="polite"]')).toHaveText(
+		'Power supply and cabling: done.'
+	);
+	await page.keyboard.press('Enter');
+	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`0 of ${total} stages done`);
+	await expect(
+		cabling.getByRole('button', { name: 'Mark Power supply and cabling done' })
+	).toBeFocused();
+	await page.keyboard.press('Space');
+	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`1 of ${total} stages done`);
 	await page.reload();
 	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`1 of ${total} stages done`);
 	await expectNoSidewaysScroll(page);
