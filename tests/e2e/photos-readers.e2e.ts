@@ -2,7 +2,9 @@ import { expect, test } from '@playwright/test';
 import type { Locator, Page } from '@playwright/test';
 import sharp from 'sharp';
 import {
+	announcements,
 	backdropOf,
+	recordAnnouncements,
 	severeViolations,
 	signInWithPassword,
 	signUpConfirmed,
@@ -134,14 +136,31 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 	const section = editor.locator('section', {
 		has: editor.getByRole('heading', { name: 'Pictures' })
 	});
+	const input = section.getByTestId('photo-input');
+
+	// Keyboard focus on the file picker shows a ring around its visible button (the input
+	// itself is a visually hidden 1 px element).
+	await section.getByLabel('Caption').focus();
+	await editor.keyboard.press('Tab');
+	await expect(input).toBeFocused();
+	const ring = await input.evaluate((el) => {
+		const style = getComputedStyle(el.closest('label') ?? el);
+		return `${style.outlineStyle} ${style.outlineWidth}`;
+	});
+	expect(ring).toBe('solid 2px');
+
+	// Each phase of an upload is said politely, not only its failure.
+	await recordAnnouncements(section.getByTestId('upload-announcer'));
 	await section.getByLabel('Alt text for the next photos (required)').fill('The card from above');
-	await section.getByTestId('photo-input').setInputFiles({
+	await input.setInputFiles({
 		name: 'card.jpg',
 		mimeType: 'image/jpeg',
 		buffer: await drawnJpeg('#3d4a5c')
 	});
 	await expect(section.getByTestId('upload-phase')).toHaveText('Done', { timeout: 60_000 });
 	await expect(section.getByRole('img', { name: 'The card from above' })).toBeVisible();
+	const said = (await announcements(editor)).join(' | ');
+	expect(said).toMatch(/card\.jpg: uploading.*card\.jpg: processing.*card\.jpg: done/i);
 
 	const visitor = await (await browser.newContext()).newPage();
 	await visitor.goto(`/parts/${slug}`);

@@ -6,7 +6,13 @@ import exifr from 'exifr';
 import sharp from 'sharp';
 import { BASE_URL } from '../playwright.config';
 import { bombPng, jpegWithGps, svgFile } from '../support/images';
-import { forgetCounts, severeViolations, signInWithPassword } from './support';
+import {
+	announcements,
+	forgetCounts,
+	recordAnnouncements,
+	severeViolations,
+	signInWithPassword
+} from './support';
 
 /*
  * Photos in Chromium against the production build: an author uploads three photos with
@@ -329,6 +335,7 @@ test('cancel while the server processes removes the photo; retry uploads it agai
 	const author = await signedIn(browser, AUTHOR);
 	const slug = await draftGuide(author.request, `Cancel run ${Date.now()}`);
 	await author.goto(`/my/guides/${slug}/edit`);
+	await recordAnnouncements(author.getByTestId('upload-announcer'));
 	const posted = author.waitForResponse(
 		(r) => r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST'
 	);
@@ -343,6 +350,10 @@ test('cancel while the server processes removes the photo; retry uploads it agai
 	await expect(row.getByTestId('processing-count')).toHaveText(/· [0-6] of 7 sizes/);
 	await row.getByRole('button', { name: 'Cancel' }).click();
 	await expect(row.getByTestId('upload-phase')).toHaveText('Cancelled');
+	// Screen readers heard each phase, the sizes made so far among them.
+	expect((await announcements(author)).join(' | ')).toMatch(
+		/busy\.jpg: uploading.*busy\.jpg: processing, [0-6] of 7 sizes.*busy\.jpg: cancelled/
+	);
 	// The photo is gone from the server: its status answers 404 and the editor lists nothing.
 	await expect
 		.poll(
@@ -395,6 +406,7 @@ test('processing that fails shows the reason and a retry, and the retry ends rea
 		expect(busy.status()).toBe(201);
 		busyStatus.push(((await busy.json()) as { statusUrl: string }).statusUrl);
 	}
+	await recordAnnouncements(author.getByTestId('upload-announcer'));
 	const before = new Set(await originals());
 	const posted = author.waitForResponse(
 		(r) => r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST'
@@ -419,6 +431,7 @@ test('processing that fails shows the reason and a retry, and the retry ends rea
 	await expect(lost.getByRole('alert')).toHaveText(
 		'The uploaded file is no longer there. Upload it again.'
 	);
+	expect((await announcements(author)).at(-1)).toBe('lost.jpg: failed');
 
 	await lost.getByRole('button', { name: 'Retry' }).click();
 	await expect(lost.getByTestId('upload-phase')).toHaveText('Done', { timeout: 120_000 });

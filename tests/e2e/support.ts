@@ -126,6 +126,25 @@ export function freePort(attempts = 50): Promise<number> {
 	});
 }
 
+/**
+ * Starts keeping every text a polite live region holds, as a screen reader would hear it
+ * change; `announcements` reads them back. The region must be on the page before the change.
+ */
+export async function recordAnnouncements(region: Locator): Promise<void> {
+	await expect(region).toHaveAttribute('aria-live', 'polite');
+	await region.evaluate((el) => {
+		const said: string[] = [];
+		(window as unknown as { said: string[] }).said = said;
+		new MutationObserver(() =>
+			said.push(el.textContent?.replace(/\s+/g, ' ').trim() ?? '')
+		).observe(el, { subtree: true, childList: true, characterData: true });
+	});
+}
+
+export function announcements(page: Page): Promise<string[]> {
+	return page.evaluate(() => (window as unknown as { said?: string[] }).said ?? []);
+}
+
 /** The computed colour of an element's ::backdrop, drawn on a canvas: its sRGB luminance and alpha (0–1). */
 export function backdropOf(
 	dialog: Locator
