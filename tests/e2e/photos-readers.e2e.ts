@@ -125,7 +125,7 @@ for (const width of WIDTHS) {
 	});
 }
 
-test('an editor adds a picture to a catalog part; the part page and the parts list show it', async ({
+test('an editor adds pictures to a catalog part, each with its own alt text, and deletes them after confirming', async ({
 	browser
 }) => {
 	test.setTimeout(120_000);
@@ -137,6 +137,7 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 		has: editor.getByRole('heading', { name: 'Pictures' })
 	});
 	const input = section.getByTestId('photo-input');
+	const alt = section.getByLabel(/^Alt text/);
 
 	// Keyboard focus on the file picker shows a ring around its visible button (the input
 	// itself is a visually hidden 1 px element).
@@ -151,7 +152,7 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 
 	// Each phase of an upload is said politely, not only its failure.
 	await recordAnnouncements(section.getByTestId('upload-announcer'));
-	await section.getByLabel('Alt text for the next photos (required)').fill('The card from above');
+	await alt.fill('The card from above');
 	await input.setInputFiles({
 		name: 'card.jpg',
 		mimeType: 'image/jpeg',
@@ -162,6 +163,25 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 	const said = (await announcements(editor)).join(' | ');
 	expect(said).toMatch(/card\.jpg: uploading.*card\.jpg: processing.*card\.jpg: done/i);
 
+	// One picture at a time, each with its own alt text: the field is empty again, and a
+	// picture picked without alt text is not sent.
+	await expect(alt).toHaveValue('');
+	await input.setInputFiles({
+		name: 'side.jpg',
+		mimeType: 'image/jpeg',
+		buffer: await drawnJpeg('#5c3d3d')
+	});
+	await expect(section.getByRole('alert')).toHaveText(/alt text/i);
+	await expect(section.getByTestId('upload')).toHaveCount(1);
+	await alt.fill('The card from the side');
+	await input.setInputFiles({
+		name: 'side.jpg',
+		mimeType: 'image/jpeg',
+		buffer: await drawnJpeg('#5c3d3d')
+	});
+	await expect(section.getByTestId('upload-phase').nth(1)).toHaveText('Done', { timeout: 60_000 });
+	await expect(section.getByRole('img', { name: 'The card from the side' })).toBeVisible();
+
 	const visitor = await (await browser.newContext()).newPage();
 	await visitor.goto(`/parts/${slug}`);
 	await expectLoaded(visitor.getByRole('img', { name: 'The card from above' }));
@@ -171,9 +191,15 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 		.filter({ has: visitor.getByRole('link', { name: 'Solenne Auric A64 Duo 12 GB' }) });
 	await expectLoaded(row.locator('img'));
 
-	// Delete it again: the part page no longer shows it (and the demo stays as it was).
-	await section.getByRole('button', { name: 'Delete photo' }).click();
+	// Delete them again (the demo stays as it was). Each delete control names its picture,
+	// and nothing goes before the confirmation.
+	await section.getByText('Delete photo 1: The card from above').click();
+	await expect(section.getByRole('img', { name: 'The card from above' })).toBeVisible();
+	await section.getByRole('button', { name: 'Yes, delete photo 1' }).click();
 	await expect(section.getByRole('img', { name: 'The card from above' })).toHaveCount(0);
+	await section.getByText('Delete photo 1: The card from the side').click();
+	await section.getByRole('button', { name: 'Yes, delete photo 1' }).click();
+	await expect(section.getByRole('img', { name: 'The card from the side' })).toHaveCount(0);
 	await visitor.goto(`/parts/${slug}`);
 	await expect(visitor.getByRole('img', { name: 'The card from above' })).toHaveCount(0);
 	for (const page of [editor, visitor]) await page.context().close();
@@ -238,9 +264,7 @@ test('390 px: a reader forks the guide, follows its assembly checklist, and show
 	const finished = page.locator('section', {
 		has: page.getByRole('heading', { name: 'The finished build' })
 	});
-	await finished
-		.getByLabel('Alt text for the next photos (required)')
-		.fill('My finished build, side panel off');
+	await finished.getByLabel(/^Alt text/).fill('My finished build, side panel off');
 	await finished.getByTestId('photo-input').setInputFiles({
 		name: 'finished.jpg',
 		mimeType: 'image/jpeg',
