@@ -193,11 +193,11 @@ test('an editor adds pictures to a catalog part, each with its own alt text, and
 
 	// Delete them again (the demo stays as it was). Each delete control names its picture,
 	// and nothing goes before the confirmation.
-	await section.getByText('Delete photo 1: The card from above').click();
+	await section.getByText('Delete photo 1: The card from above…', { exact: true }).click();
 	await expect(section.getByRole('img', { name: 'The card from above' })).toBeVisible();
 	await section.getByRole('button', { name: 'Yes, delete photo 1' }).click();
 	await expect(section.getByRole('img', { name: 'The card from above' })).toHaveCount(0);
-	await section.getByText('Delete photo 1: The card from the side').click();
+	await section.getByText('Delete photo 1: The card from the side…', { exact: true }).click();
 	await section.getByRole('button', { name: 'Yes, delete photo 1' }).click();
 	await expect(section.getByRole('img', { name: 'The card from the side' })).toHaveCount(0);
 	await visitor.goto(`/parts/${slug}`);
