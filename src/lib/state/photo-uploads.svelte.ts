@@ -62,13 +62,14 @@ export class PhotoUploads {
 	#polls = new Map<number, ReturnType<typeof setTimeout>>();
 	#url: string;
 	#fields: () => Record<string, string>;
-	#onDone: (photo: UploadedPhoto) => void;
+	#onDone: (photo: UploadedPhoto, entry: UploadEntry) => void;
 	/** At most this many uploads at once; the rest wait their turn. */
 	#parallel = 2;
 
 	constructor(
 		url: string,
-		onDone: (photo: UploadedPhoto) => void,
+		/** Told of each photo once it is ready, with its entry (ids grow in the order files were picked). */
+		onDone: (photo: UploadedPhoto, entry: UploadEntry) => void,
 		fields: () => Record<string, string> = () => ({})
 	) {
 		this.#url = url;
@@ -138,7 +139,7 @@ export class PhotoUploads {
 		const { done, total } = status.progress;
 		if (status.state === 'ready' && status.photo) {
 			this.#set(id, { phase: 'done', processed: 1, statusUrl: null, message: null });
-			this.#onDone(status.photo);
+			this.#onDone(status.photo, entry);
 			this.#pump();
 			return;
 		}
@@ -223,7 +224,7 @@ export class PhotoUploads {
 				this.#follow(id, answer as UploadStatus);
 			} else if (request.status === 201 && answer?.id) {
 				this.#set(id, { phase: 'done', sent: 1, message: null });
-				this.#onDone(answer as UploadedPhoto);
+				this.#onDone(answer as UploadedPhoto, entry);
 			} else {
 				const retry = request.getResponseHeader('retry-after');
 				this.#set(id, {
