@@ -23,7 +23,9 @@ const light = {
 	'amber-ink': '#8A5A00',
 	'amber-bg': '#FFF4DA',
 	'brick-ink': '#A4262C',
-	'brick-bg': '#FDECEC'
+	'brick-bg': '#FDECEC',
+	/** The veil behind a modal (used at 80 %): dark in both schemes, so the dialog stands out. */
+	scrim: '#1F2933'
 } as const;
 
 type Palette = Record<keyof typeof light, string>;
@@ -42,7 +44,9 @@ const dark: Palette = {
 	'amber-ink': '#F0C45C',
 	'amber-bg': '#3A2D0C',
 	'brick-ink': '#F5A3A6',
-	'brick-bg': '#3F1C1F'
+	'brick-bg': '#3F1C1F',
+	// Darker than paper: the page behind a modal recedes rather than turning grey.
+	scrim: '#07090B'
 };
 
 const cssVars = (palette: Palette) =>
@@ -70,6 +74,7 @@ export default {
 			'on-accent': v('on-accent'),
 			amber: { ink: v('amber-ink'), bg: v('amber-bg') },
 			brick: { ink: v('brick-ink'), bg: v('brick-bg') },
+			scrim: v('scrim'),
 			// Severity aliases, so fit-report code reads in the product's words.
 			ok: v('teal'),
 			caution: { ink: v('amber-ink'), bg: v('amber-bg') },

@@ -1,7 +1,15 @@
 import { expect, test } from '@playwright/test';
 import type { Locator, Page } from '@playwright/test';
 import sharp from 'sharp';
-import { severeViolations, signInWithPassword, signUpConfirmed, uniqueEmail } from './support';
+import {
+	announcements,
+	backdropOf,
+	recordAnnouncements,
+	severeViolations,
+	signInWithPassword,
+	signUpConfirmed,
+	uniqueEmail
+} from './support';
 
 /*
  * Photos beyond the guide editor, in Chromium against the production build, at a desktop
@@ -62,6 +70,15 @@ for (const width of WIDTHS) {
 		await expect(dialog).toBeVisible();
 		await expect(dialog.getByTestId('lightbox-caption')).toContainText(`Photo 1 of ${count}`);
 		await expectLoaded(dialog.locator('img').first());
+		// The page behind is dimmed well (a dark veil, at least 70 % opaque) in both schemes,
+		// so the enlarged photo stands out even on a phone.
+		for (const colorScheme of ['light', 'dark'] as const) {
+			await page.emulateMedia({ colorScheme });
+			const backdrop = await backdropOf(dialog);
+			expect(backdrop.alpha, `${colorScheme}: ${backdrop.colour}`).toBeGreaterThanOrEqual(0.7);
+			expect(backdrop.luminance, `${colorScheme}: ${backdrop.colour}`).toBeLessThan(0.2);
+		}
+		await page.emulateMedia({ colorScheme: null });
 		// The enlarged photo fits the window at this width.
 		const box = await dialog.locator('img').first().boundingBox();
 		expect(box?.width ?? Infinity).toBeLessThanOrEqual(width);
@@ -108,7 +125,7 @@ for (const width of WIDTHS) {
 	});
 }
 
-test('an editor adds a picture to a catalog part; the part page and the parts list show it', async ({
+test('an editor adds pictures to a catalog part, each with its own alt text, and deletes them after confirming', async ({
 	browser
 }) => {
 	test.setTimeout(120_000);
@@ -119,14 +136,51 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 	const section = editor.locator('section', {
 		has: editor.getByRole('heading', { name: 'Pictures' })
 	});
-	await section.getByLabel('Alt text for the next photos (required)').fill('The card from above');
-	await section.getByTestId('photo-input').setInputFiles({
+	const input = section.getByTestId('photo-input');
+	const alt = section.getByLabel(/^Alt text/);
+
+	// Keyboard focus on the file picker shows a ring around its visible button (the input
+	// itself is a visually hidden 1 px element).
+	await section.getByLabel('Caption').focus();
+	await editor.keyboard.press('Tab');
+	await expect(input).toBeFocused();
+	const ring = await input.evaluate((el) => {
+		const style = getComputedStyle(el.closest('label') ?? el);
+		return `${style.outlineStyle} ${style.outlineWidth}`;
+	});
+	expect(ring).toBe('solid 2px');
+
+	// Each phase of an upload is said politely, not only its failure.
+	await recordAnnouncements(section.getByTestId('upload-announcer'));
+	await alt.fill('The card from above');
+	await input.setInputFiles({
 		name: 'card.jpg',
 		mimeType: 'image/jpeg',
 		buffer: await drawnJpeg('#3d4a5c')
 	});
 	await expect(section.getByTestId('upload-phase')).toHaveText('Done', { timeout: 60_000 });
 	await expect(section.getByRole('img', { name: 'The card from above' })).toBeVisible();
+	const said = (await announcements(editor)).join(' | ');
+	expect(said).toMatch(/card\.jpg: uploading.*card\.jpg: processing.*card\.jpg: done/i);
+
+	// One picture at a time, each with its own alt text: the field is empty again, and a
+	// picture picked without alt text is not sent.
+	await expect(alt).toHaveValue('');
+	await input.setInputFiles({
+		name: 'side.jpg',
+		mimeType: 'image/jpeg',
+		buffer: await drawnJpeg('#5c3d3d')
+	});
+	await expect(section.getByRole('alert')).toHaveText(/alt text/i);
+	await expect(section.getByTestId('upload')).toHaveCount(1);
+	await alt.fill('The card from the side');
+	await input.setInputFiles({
+		name: 'side.jpg',
+		mimeType: 'image/jpeg',
+		buffer: await drawnJpeg('#5c3d3d')
+	});
+	await expect(section.getByTestId('upload-phase').nth(1)).toHaveText('Done', { timeout: 60_000 });
+	await expect(section.getByRole('img', { name: 'The card from the side' })).toBeVisible();
 
 	const visitor = await (await browser.newContext()).newPage();
 	await visitor.goto(`/parts/${slug}`);
@@ -137,9 +191,15 @@ test('an editor adds a picture to a catalog part; the part page and the parts li
 		.filter({ has: visitor.getByRole('link', { name: 'Solenne Auric A64 Duo 12 GB' }) });
 	await expectLoaded(row.locator('img'));
 
-	// Delete it again: the part page no longer shows it (and the demo stays as it was).
-	await section.getByRole('button', { name: 'Delete photo' }).click();
+	// Delete them again (the demo stays as it was). Each delete control names its picture,
+	// and nothing goes before the confirmation.
+	await section.getByText('Delete photo 1: The card from above…', { exact: true }).click();
+	await expect(section.getByRole('img', { name: 'The card from above' })).toBeVisible();
+	await section.getByRole('button', { name: 'Yes, delete photo 1' }).click();
 	await expect(section.getByRole('img', { name: 'The card from above' })).toHaveCount(0);
+	await section.getByText('Delete photo 1: The card from the side…', { exact: true }).click();
+	await section.getByRole('button', { name: 'Yes, delete photo 1' }).click();
+	await expect(section.getByRole('img', { name: 'The card from the side' })).toHaveCount(0);
 	await visitor.goto(`/parts/${slug}`);
 	await expect(visitor.getByRole('img', { name: 'The card from above' })).toHaveCount(0);
 	for (const page of [editor, visitor]) await page.context().close();
@@ -173,9 +233,24 @@ test('390 px: a reader forks the guide, follows its assembly checklist, and show
 	await expectLoaded(cabling.locator('img').first());
 	await expect(cabling.getByText('Caution:').first()).toBeVisible();
 
-	await cabling.getByRole('button', { name: 'Mark Power supply and cabling done' }).click();
+	// Ticked from the keyboard, the stage's control keeps the focus while it saves and after.
+	await cabling.getByRole('button', { name: 'Mark Power supply and cabling done' }).focus();
+	await page.keyboard.press('Space');
 	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`1 of ${total} stages done`);
 	await expect(cabling.getByRole('heading')).toContainText('(done)');
+	await expect(
+		cabling.getByRole('button', { name: 'Mark Power supply and cabling not done' })
+	).toBeFocused();
+	await expect(checklist.locator('[aria-live="polite"]')).toHaveText(
+		'Power supply and cabling: done.'
+	);
+	await page.keyboard.press('Enter');
+	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`0 of ${total} stages done`);
+	await expect(
+		cabling.getByRole('button', { name: 'Mark Power supply and cabling done' })
+	).toBeFocused();
+	await page.keyboard.press('Space');
+	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`1 of ${total} stages done`);
 	await page.reload();
 	await expect(checklist.getByTestId('checklist-progress')).toHaveText(`1 of ${total} stages done`);
 	await expectNoSidewaysScroll(page);
@@ -189,9 +264,7 @@ test('390 px: a reader forks the guide, follows its assembly checklist, and show
 	const finished = page.locator('section', {
 		has: page.getByRole('heading', { name: 'The finished build' })
 	});
-	await finished
-		.getByLabel('Alt text for the next photos (required)')
-		.fill('My finished build, side panel off');
+	await finished.getByLabel(/^Alt text/).fill('My finished build, side panel off');
 	await finished.getByTestId('photo-input').setInputFiles({
 		name: 'finished.jpg',
 		mimeType: 'image/jpeg',

@@ -6,12 +6,19 @@ import exifr from 'exifr';
 import sharp from 'sharp';
 import { BASE_URL } from '../playwright.config';
 import { bombPng, jpegWithGps, svgFile } from '../support/images';
-import { forgetCounts, severeViolations, signInWithPassword } from './support';
+import {
+	announcements,
+	forgetCounts,
+	recordAnnouncements,
+	severeViolations,
+	signInWithPassword
+} from './support';
 
 /*
  * Photos in Chromium against the production build: an author uploads three photos with
- * visible progress, files them under assembly stages, reorders by keyboard, writes alt text
- * and submits; an editor sees the new photos on the review page and approves; a visitor sees
+ * visible progress (they join the gallery in the order picked), files them under assembly
+ * stages (the editor groups them as the guide page will), reorders within a stage by
+ * keyboard, writes alt text and submits; an editor sees the new photos on the review page and approves; a visitor sees
  * the gallery and walks the lightbox by keyboard. Over HTTP: served files carry no EXIF or
  * GPS and the right headers, and bad files get 413, 415 and 422 with nothing stored.
  */
@@ -71,6 +78,9 @@ async function draftGuide(request: APIRequestContext, title: string): Promise<st
 	return slug;
 }
 
+/** The widths of the three photos below, in the order they are picked: each row's tell. */
+const WIDTHS = [2000, 1800, 1600];
+
 /** Three distinct drawn photos (flat colours with a block; nothing is a photograph). */
 async function threePhotos() {
 	const colours = ['#2f4858', '#b4532a', '#0e6f6a'];
@@ -78,7 +88,9 @@ async function threePhotos() {
 		colours.map(async (background, i) => ({
 			name: `stage-${i + 1}.jpg`,
 			mimeType: 'image/jpeg',
-			buffer: await sharp({ create: { width: 2000, height: 1500, channels: 3, background } })
+			buffer: await sharp({
+				create: { width: WIDTHS[i] ?? 2000, height: 1200, channels: 3, background }
+			})
 				.composite([
 					{
 						input: { create: { width: 600, height: 400, channels: 3, background: '#fbf8f3' } },
@@ -102,6 +114,13 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 	const slug = await draftGuide(author.request, title);
 	await author.goto(`/my/guides/${slug}/edit`);
 
+	// The first picked file reaches the server last, so it is processed and finishes last.
+	await author.route(`**/api/v1/guides/${slug}/photos`, async (route) => {
+		const request = route.request();
+		if (request.method() === 'POST' && request.postDataBuffer()?.includes('stage-1.jpg'))
+			await new Promise((resolve) => setTimeout(resolve, 4000));
+		await route.continue();
+	});
 	await author.getByTestId('photo-input').setInputFiles(await threePhotos());
 	// Each file gets its own row with a progress bar while it uploads, then one fed by the
 	// photo's status while the server makes its sizes in the background (one photo at a time).
@@ -114,23 +133,66 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 		timeout: 120_000
 	});
 	const items = author.getByTestId('gallery-item');
-	await expect(items).toHaveCount(3);
+	const widths = () =>
+		items.locator('img').evaluateAll((els) => els.map((e) => e.getAttribute('width')));
+	/** A photo's row in the editor, by the width of its photo. */
+	const row = (width: number) => items.filter({ has: author.locator(`img[width="${width}"]`) });
+	// In the order they were picked, not the order they finished; no stage yet.
+	await expect.poll(widths).toEqual(WIDTHS.map(String));
+	await expect(author.getByTestId('gallery-group')).toHaveText(['Not filed under a stage yet']);
 
-	const stages = ['CPU cooler', 'Power supply and cabling', 'Cable management'];
-	for (let i = 0; i < 3; i++) {
-		const item = items.nth(i);
-		await item.getByLabel('Assembly stage').selectOption({ label: stages[i] ?? '' });
-		await item.getByLabel('Alt text (required)').fill(`Photo number ${i + 1} of the build`);
-		await item.getByLabel('Caption').fill(`Caption ${i + 1}`);
+	for (const [i, width] of WIDTHS.entries()) {
+		await row(width)
+			.getByLabel('Alt text (required)')
+			.fill(`Photo number ${i + 1} of the build`);
+		await row(width)
+			.getByLabel('Caption')
+			.fill(`Caption ${i + 1}`);
 	}
-	// Keyboard: the third photo's "earlier" button, by Tab focus and Enter.
-	await items.nth(2).getByRole('button', { name: 'Move photo 3 earlier' }).focus();
+	// Filing a photo under a stage moves it to that stage's group, the focus with it.
+	const stages: [number, string][] = [
+		[2000, 'Power supply and cabling'],
+		[1800, 'CPU cooler'],
+		[1600, 'CPU cooler']
+	];
+	for (const [width, stage] of stages) {
+		const select = row(width).getByLabel('Assembly stage');
+		await select.focus();
+		await select.selectOption({ label: stage });
+		await expect(row(width).getByLabel('Assembly stage')).toBeFocused();
+	}
+	// Grouped as the guide page will show them: stages in assembly order.
+	await expect(author.getByTestId('gallery-group')).toHaveText([
+		'CPU cooler',
+		'Power supply and cabling'
+	]);
+	await expect.poll(widths).toEqual(['1800', '1600', '2000']);
+
+	// Keyboard: the third photo's "earlier" button, by Tab focus and Enter, moves it before
+	// the other cooler photo, and the focus stays on it.
+	await row(1600).getByRole('button', { name: 'Move CPU cooler photo 2 earlier' }).focus();
 	await author.keyboard.press('Enter');
-	await expect(items.nth(1).getByLabel('Caption')).toHaveValue('Caption 3');
-	// And Alt+↑ from a field of the (now) second photo moves it to the top.
-	await items.nth(1).getByLabel('Caption').focus();
+	await expect.poll(widths).toEqual(['1600', '1800', '2000']);
+	await expect(
+		row(1600).getByRole('button', { name: 'Move CPU cooler photo 1 earlier' })
+	).toBeFocused();
+	// Alt+↓ from a field moves it later within its stage, never into another stage's photos.
+	await row(1600).getByLabel('Caption').focus();
+	await author.keyboard.press('Alt+ArrowDown');
+	await expect.poll(widths).toEqual(['1800', '1600', '2000']);
+	await expect(row(1600).getByLabel('Caption')).toBeFocused();
+	await author.keyboard.press('Alt+ArrowDown');
+	await expect.poll(widths).toEqual(['1800', '1600', '2000']);
 	await author.keyboard.press('Alt+ArrowUp');
-	await expect(items.nth(0).getByLabel('Caption')).toHaveValue('Caption 3');
+	await expect.poll(widths).toEqual(['1600', '1800', '2000']);
+	const editorOrder = await items
+		.getByLabel('Alt text (required)')
+		.evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value));
+	expect(editorOrder).toEqual([
+		'Photo number 3 of the build',
+		'Photo number 2 of the build',
+		'Photo number 1 of the build'
+	]);
 	const editorViolations = await severeViolations(author);
 	expect(editorViolations, editorViolations.join('\n')).toEqual([]);
 	// At a phone width (390 px) the gallery editor still fits: no sideways scrolling, and
@@ -141,7 +203,9 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 		window.innerWidth
 	]);
 	expect(scroll, `editor ${scroll} px wide in a ${inner} px window`).toBeLessThanOrEqual(inner);
-	const earlier = items.nth(2).getByRole('button', { name: 'Move photo 3 earlier' });
+	const earlier = row(2000).getByRole('button', {
+		name: 'Move Power supply and cabling photo 1 earlier'
+	});
 	await earlier.scrollIntoViewIfNeeded();
 	const button = await earlier.boundingBox();
 	expect((button?.x ?? -1) >= 0 && (button?.x ?? 0) + (button?.width ?? 0) <= 390).toBe(true);
@@ -166,9 +230,15 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 	const visitor = await (await browser.newContext()).newPage();
 	await visitor.goto(`/guides/${slug}`);
 	const gallery = visitor.getByRole('region', { name: 'Assembly photos' });
-	await expect(gallery.getByTestId('gallery-stage')).toHaveCount(3);
-	// Stages in assembly order, whatever the upload order: cooler before PSU before cable management.
-	await expect(gallery.getByRole('heading', { level: 3 })).toHaveText(stages);
+	await expect(gallery.getByTestId('gallery-stage')).toHaveCount(2);
+	// Stages in assembly order, and the photos in the order the editor showed them.
+	await expect(gallery.getByRole('heading', { level: 3 })).toHaveText([
+		'CPU cooler',
+		'Power supply and cabling'
+	]);
+	expect(
+		await gallery.locator('img').evaluateAll((els) => els.map((e) => e.getAttribute('alt')))
+	).toEqual(editorOrder);
 	await expect(gallery.getByText('Never open a power supply', { exact: false })).toBeVisible();
 	const first = gallery.locator('picture').first();
 	await expect(first.locator('source[type="image/avif"]')).toHaveAttribute(
@@ -177,15 +247,15 @@ test('upload three photos, file and order them, submit, approve: the guide page 
 	);
 	await expect(first.locator('source[type="image/webp"]')).toHaveAttribute('sizes', /.+/);
 	await expect(first.locator('img')).toHaveAttribute('loading', 'lazy');
-	await expect(first.locator('img')).toHaveAttribute('alt', 'Photo number 1 of the build');
+	await expect(first.locator('img')).toHaveAttribute('alt', 'Photo number 3 of the build');
 	const pageViolations = await severeViolations(visitor);
 	expect(pageViolations, pageViolations.join('\n')).toEqual([]);
 
-	const opener = gallery.getByRole('link', { name: 'Enlarge: Photo number 1 of the build' });
+	const opener = gallery.getByRole('link', { name: 'Enlarge: Photo number 3 of the build' });
 	await opener.click();
 	const dialog = visitor.getByRole('dialog', { name: 'Assembly photos' });
 	await expect(dialog).toBeVisible();
-	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Caption 1');
+	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Caption 3');
 	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Photo 1 of 3');
 	await visitor.keyboard.press('ArrowRight');
 	await expect(dialog.getByTestId('lightbox-caption')).toContainText('Photo 2 of 3');
@@ -329,6 +399,7 @@ test('cancel while the server processes removes the photo; retry uploads it agai
 	const author = await signedIn(browser, AUTHOR);
 	const slug = await draftGuide(author.request, `Cancel run ${Date.now()}`);
 	await author.goto(`/my/guides/${slug}/edit`);
+	await recordAnnouncements(author.getByTestId('upload-announcer'));
 	const posted = author.waitForResponse(
 		(r) => r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST'
 	);
@@ -343,6 +414,10 @@ test('cancel while the server processes removes the photo; retry uploads it agai
 	await expect(row.getByTestId('processing-count')).toHaveText(/· [0-6] of 7 sizes/);
 	await row.getByRole('button', { name: 'Cancel' }).click();
 	await expect(row.getByTestId('upload-phase')).toHaveText('Cancelled');
+	// Screen readers heard each phase, the sizes made so far among them.
+	expect((await announcements(author)).join(' | ')).toMatch(
+		/busy\.jpg: uploading.*busy\.jpg: processing, [0-6] of 7 sizes.*busy\.jpg: cancelled/
+	);
 	// The photo is gone from the server: its status answers 404 and the editor lists nothing.
 	await expect
 		.poll(
@@ -395,6 +470,7 @@ test('processing that fails shows the reason and a retry, and the retry ends rea
 		expect(busy.status()).toBe(201);
 		busyStatus.push(((await busy.json()) as { statusUrl: string }).statusUrl);
 	}
+	await recordAnnouncements(author.getByTestId('upload-announcer'));
 	const before = new Set(await originals());
 	const posted = author.waitForResponse(
 		(r) => r.url().endsWith(`/api/v1/guides/${slug}/photos`) && r.request().method() === 'POST'
@@ -419,6 +495,7 @@ test('processing that fails shows the reason and a retry, and the retry ends rea
 	await expect(lost.getByRole('alert')).toHaveText(
 		'The uploaded file is no longer there. Upload it again.'
 	);
+	expect((await announcements(author)).at(-1)).toBe('lost.jpg: failed');
 
 	await lost.getByRole('button', { name: 'Retry' }).click();
 	await expect(lost.getByTestId('upload-phase')).toHaveText('Done', { timeout: 120_000 });

@@ -1,6 +1,6 @@
 import AxeBuilder from '@axe-core/playwright';
 import { expect } from '@playwright/test';
-import type { Page } from '@playwright/test';
+import type { Locator, Page } from '@playwright/test';
 import { request as httpRequest } from 'node:http';
 import { createServer } from 'node:net';
 import mysql from 'mysql2/promise';
@@ -161,5 +161,39 @@ export function postChunked(
 		sent.on('error', (problem) => reject(problem));
 		for (let at = 0; at < body.length; at += 64 * 1024) sent.write(body.slice(at, at + 64 * 1024));
 		sent.end();
+	});
+}
+
+/**
+ * Starts keeping every text a polite live region holds, as a screen reader would hear it
+ * change; `announcements` reads them back. The region must be on the page before the change.
+ */
+export async function recordAnnouncements(region: Locator): Promise<void> {
+	await expect(region).toHaveAttribute('aria-live', 'polite');
+	await region.evaluate((el) => {
+		const said: string[] = [];
+		(window as unknown as { said: string[] }).said = said;
+		new MutationObserver(() =>
+			said.push(el.textContent?.replace(/\s+/g, ' ').trim() ?? '')
+		).observe(el, { subtree: true, childList: true, characterData: true });
+	});
+}
+
+export function announcements(page: Page): Promise<string[]> {
+	return page.evaluate(() => (window as unknown as { said?: string[] }).said ?? []);
+}
+
+/** The computed colour of an element's ::backdrop, drawn on a canvas: its sRGB luminance and alpha (0–1). */
+export function backdropOf(
+	dialog: Locator
+): Promise<{ colour: string; luminance: number; alpha: number }> {
+	return dialog.evaluate((el) => {
+		const colour = getComputedStyle(el, '::backdrop').backgroundColor;
+		const context = document.createElement('canvas').getContext('2d');
+		if (!context) throw new Error('no 2d canvas');
+		context.fillStyle = colour;
+		context.fillRect(0, 0, 1, 1);
+		const [r = 0, g = 0, b = 0, a = 0] = context.getImageData(0, 0, 1, 1).data;
+		return { colour, luminance: (0.2126 * r + 0.7152 * g + 0.0722 * b) / 255, alpha: a / 255 };
 	});
 }

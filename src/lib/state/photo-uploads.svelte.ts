@@ -5,8 +5,20 @@
  * at once and makes the sizes in the background: its status URL is polled for the files
  * made so far) → done, or failed with the server's message, or cancelled. Cancel during
  * processing deletes the photo on the server. Failed and cancelled uploads can be retried.
+ * The form fields sent with a file (alt text, caption) are taken when it is added, so a
+ * file waiting its turn, or retried, keeps its own even after the form has moved on.
  */
 export type UploadPhase = 'waiting' | 'uploading' | 'processing' | 'done' | 'failed' | 'cancelled';
+
+/** A phase in words, as the upload row shows it. */
+export const PHASE_WORDS: Record<UploadPhase, string> = {
+	waiting: 'Waiting',
+	uploading: 'Uploading',
+	processing: 'Processing',
+	done: 'Done',
+	failed: 'Failed',
+	cancelled: 'Cancelled'
+};
 
 export interface UploadEntry {
 	id: number;
@@ -21,6 +33,8 @@ export interface UploadEntry {
 	sizes: { done: number; total: number } | null;
 	/** The photo's status URL while the server holds a row for this upload. */
 	statusUrl: string | null;
+	/** Sent with the file: the form's fields when it was added. */
+	fields: Record<string, string>;
 }
 
 interface UploadStatus {
@@ -48,13 +62,14 @@ export class PhotoUploads {
 	#polls = new Map<number, ReturnType<typeof setTimeout>>();
 	#url: string;
 	#fields: () => Record<string, string>;
-	#onDone: (photo: UploadedPhoto) => void;
+	#onDone: (photo: UploadedPhoto, entry: UploadEntry) => void;
 	/** At most this many uploads at once; the rest wait their turn. */
 	#parallel = 2;
 
 	constructor(
 		url: string,
-		onDone: (photo: UploadedPhoto) => void,
+		/** Told of each photo once it is ready, with its entry (ids grow in the order files were picked). */
+		onDone: (photo: UploadedPhoto, entry: UploadEntry) => void,
 		fields: () => Record<string, string> = () => ({})
 	) {
 		this.#url = url;
@@ -72,7 +87,8 @@ export class PhotoUploads {
 				message: null,
 				processed: null,
 				sizes: null,
-				statusUrl: null
+				statusUrl: null,
+				fields: this.#fields()
 			});
 		}
 		this.#pump();
@@ -123,7 +139,7 @@ export class PhotoUploads {
 		const { done, total } = status.progress;
 		if (status.state === 'ready' && status.photo) {
 			this.#set(id, { phase: 'done', processed: 1, statusUrl: null, message: null });
-			this.#onDone(status.photo);
+			this.#onDone(status.photo, entry);
 			this.#pump();
 			return;
 		}
@@ -185,7 +201,7 @@ export class PhotoUploads {
 		this.#requests.set(id, request);
 		const body = new FormData();
 		body.append('file', entry.file);
-		for (const [name, value] of Object.entries(this.#fields())) body.append(name, value);
+		for (const [name, value] of Object.entries(entry.fields)) body.append(name, value);
 		request.open('POST', this.#url);
 		request.responseType = 'json';
 		request.setRequestHeader('accept', 'application/json');
@@ -208,7 +224,7 @@ export class PhotoUploads {
 				this.#follow(id, answer as UploadStatus);
 			} else if (request.status === 201 && answer?.id) {
 				this.#set(id, { phase: 'done', sent: 1, message: null });
-				this.#onDone(answer as UploadedPhoto);
+				this.#onDone(answer as UploadedPhoto, entry);
 			} else {
 				const retry = request.getResponseHeader('retry-after');
 				this.#set(id, {
