@@ -150,3 +150,32 @@ test('each alert’s buttons say which alert they act on', async ({ page }) => {
 		sentence
 	);
 });
+
+test('the author chooses the move threshold: at 20 % the +12.9 % move is no alert, and a bad value is refused at the field', async ({
+	page
+}) => {
+	await signInWithPassword(page, 'author@slotwise.test');
+	await page.goto('/my/guides');
+	const moved = page.getByTestId('upkeep-alert').filter({ hasText: 'moved +12.9 %' });
+	await expect(moved).toHaveCount(1);
+	const field = page.getByLabel('Alert on a move of more than (%)');
+	await expect(field).toHaveValue('10');
+
+	await field.fill('ten');
+	await page.getByRole('button', { name: 'Save threshold' }).click();
+	await expect(page.getByText('Enter a whole percentage from 1 to 50.')).toBeVisible();
+	await expect(field).toHaveAttribute('aria-invalid', 'true');
+	await expect(moved).toHaveCount(1);
+
+	await field.fill('20');
+	await page.getByRole('button', { name: 'Save threshold' }).click();
+	await expect(
+		page.getByText('Saved: alerts come when a total moves more than 20 %')
+	).toBeVisible();
+	await expect(moved).toHaveCount(0);
+
+	// Back to the default, for the other tests on this demo.
+	await field.fill('10');
+	await page.getByRole('button', { name: 'Save threshold' }).click();
+	await expect(moved).toHaveCount(1);
+});

@@ -124,6 +124,28 @@ describe('upkeep alerts', () => {
 		);
 	});
 
+	it("follows the author's own threshold, and refuses one outside 1–50 % with a field message", async () => {
+		// Card now $360.00: total $460.00 = +15 % of $400.00 (as above). With 20 % chosen it is
+		// no move worth an alert; with 12 % it is. The budget ($450.00) is crossed either way.
+		await addQuote('tollan-g8-test', 'us', '360.00');
+		expect(await upkeep.setMoveThreshold(g.author.id, { percent: 20 })).toEqual({
+			kind: 'ok',
+			percent: 20
+		});
+		expect(await stored()).toEqual(['over_budget us -']);
+		await upkeep.setMoveThreshold(g.author.id, { percent: 12 });
+		expect(await stored()).toEqual(['over_budget us -', 'total_moved us -']);
+
+		for (const percent of [0, 51, 'ten', 12.5]) {
+			const refused = await upkeep.setMoveThreshold(g.author.id, { percent });
+			expect(refused).toEqual({
+				kind: 'invalid',
+				issues: { percent: ['Enter a whole percentage from 1 to 50.'] }
+			});
+		}
+		expect(await upkeep.moveThresholdPercent(g.author.id)).toBe(12);
+	});
+
 	it('does not flag a move of exactly 10 % (more than the threshold is needed)', async () => {
 		// Card $340.00: total $440.00 = +10 % exactly, and under the $450.00 budget.
 		await addQuote('tollan-g8-test', 'us', '340.00');

@@ -23,7 +23,7 @@ export const UPKEEP_KINDS = [
 ] as const;
 export type UpkeepKind = (typeof UPKEEP_KINDS)[number];
 
-/** Moved more than this many basis points of the published total (1000 = 10 %). */
+/** Moved more than this many basis points of the published total (1000 = 10 %), unless the author chose another. */
 export const MOVE_THRESHOLD_BP = 1000;
 /** A quote older than this many days is stale (common practice, no published source). */
 export const STALE_DAYS = 30;
@@ -83,6 +83,8 @@ export interface UpkeepInput {
 	/** Finding keys of the picks at publication; null when not recorded. */
 	findingsAtPublication: ReadonlySet<string> | null;
 	now: Date;
+	/** The author's own move threshold in basis points; MOVE_THRESHOLD_BP when not given. */
+	moveThresholdBp?: number;
 }
 
 export interface UpkeepAlertDraft {
@@ -100,7 +102,7 @@ export function upkeepAlerts(input: UpkeepInput): UpkeepAlertDraft[] {
 	const alerts: UpkeepAlertDraft[] = [];
 	for (const region of input.regions) {
 		if (!region.listed) continue;
-		alerts.push(...totalAlerts(region));
+		alerts.push(...totalAlerts(region, input.moveThresholdBp ?? MOVE_THRESHOLD_BP));
 		for (const slot of region.slots) alerts.push(...slotAlerts(region, slot, input));
 	}
 	const known = input.findingsAtPublication;
@@ -119,13 +121,13 @@ export function upkeepAlerts(input: UpkeepInput): UpkeepAlertDraft[] {
 	return sortWorstFirst(alerts);
 }
 
-function totalAlerts(region: UpkeepRegion): UpkeepAlertDraft[] {
+function totalAlerts(region: UpkeepRegion, thresholdBp: number): UpkeepAlertDraft[] {
 	const out: UpkeepAlertDraft[] = [];
 	const { total, totalAtPublication: then, budget } = region;
 	if (total && then && then.currency === total.currency && then.amountMinor > 0) {
 		const delta = total.amountMinor - then.amountMinor;
 		// Strictly more than the threshold, in integers: |Δ| × 10000 > threshold × then.
-		if (Math.abs(delta) * 10_000 > MOVE_THRESHOLD_BP * then.amountMinor)
+		if (Math.abs(delta) * 10_000 > thresholdBp * then.amountMinor)
 			out.push({
 				kind: 'total_moved',
 				regionId: region.regionId,

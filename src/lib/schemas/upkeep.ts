@@ -2,7 +2,8 @@ import { z } from 'zod';
 import { MAX_ID, slug, wholeNumber } from './primitives.js';
 
 /*
- * The author's two answers to an upkeep alert, shared by the dashboard's form actions.
+ * The author's answers to an upkeep alert and their upkeep settings, shared by the
+ * dashboard's form actions.
  * A form posts text; schemas/form-data.ts reads the alert id and days into numbers first.
  */
 
@@ -20,6 +21,12 @@ export const handleAlertInput = z.strictObject({
 export type HandleAlertInput = z.infer<typeof handleAlertInput>;
 
 export const upkeepDigestInput = z.strictObject({ enabled: z.boolean() });
+
+/** How far a guide's total may move in a region, in whole percent, before an alert. */
+export const upkeepThresholdInput = z.strictObject({
+	percent: wholeNumber('Enter a whole percentage from 1 to 50.', 1, 50)
+});
+export type UpkeepThresholdInput = z.infer<typeof upkeepThresholdInput>;
 
 /** The editor's query when opened from an insights suggestion (`?slot=<key>&alternate=<part slug>`). */
 export const suggestedAlternateQuery = z.object({

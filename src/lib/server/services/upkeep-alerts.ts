@@ -27,7 +27,7 @@ import {
 	type UpkeepRegion
 } from '$lib/domain/upkeep';
 import { budgetIn } from '$lib/domain/region';
-import { CautionRule as CautionRuleRow, Guide, sequelize } from '$lib/server/db';
+import { CautionRule as CautionRuleRow, sequelize } from '$lib/server/db';
 import type { Part, Region } from '$lib/server/db';
 import * as fx from './fx';
 import { dropInSlot, partName, picksOf } from './mappers';
@@ -71,17 +71,19 @@ export async function refreshAlerts(
 	if (revisions.length === 0) return;
 	const revisionIds = revisions.map((r) => r.revisionId);
 	const [guides, baselines, quoteDates, rules, rates] = await Promise.all([
-		Guide.findAll({
-			where: { id: revisions.map((r) => r.guideId) },
-			attributes: ['id', 'targetBudgetMinor'],
-			raw: true
-		}),
+		sequelize.query<{ id: number; targetBudgetMinor: number; thresholdBp: number }>(
+			`SELECT g.id, g.target_budget_minor AS targetBudgetMinor,
+			        u.upkeep_move_threshold_bp AS thresholdBp
+			   FROM guides g JOIN users u ON u.id = g.author_id WHERE g.id IN (:ids)`,
+			{ type: QueryTypes.SELECT, replacements: { ids: revisions.map((r) => r.guideId) } }
+		),
 		loadBaselines(revisionIds),
 		loadQuoteDates(revisions),
 		loadRules(),
 		fx.ratesForPricing()
 	]);
-	const budgetOf = new Map(guides.map((g) => [g.id, Number(g.targetBudgetMinor)]));
+	const budgetOf = new Map(guides.map((g) => [Number(g.id), Number(g.targetBudgetMinor)]));
+	const thresholdOf = new Map(guides.map((g) => [Number(g.id), Number(g.thresholdBp)]));
 	const newBaselines: [number, Baseline][] = [];
 	const drafts: { r: RevisionPriced; alert: UpkeepAlertDraft }[] = [];
 
@@ -148,7 +150,8 @@ export async function refreshAlerts(
 			dropInFits: fits,
 			findings,
 			findingsAtPublication: new Set(baseline.findingKeys),
-			now
+			now,
+			moveThresholdBp: thresholdOf.get(r.guideId)
 		});
 		for (const alert of alerts) drafts.push({ r, alert });
 	}

@@ -10,8 +10,9 @@ import type { Severity } from '$lib/domain/build-parts';
 import type { UpkeepAlertView } from '$lib/views';
 import { sortWorstFirst, upkeepSentence, type UpkeepKind } from '$lib/domain/upkeep';
 import { fieldIssues, type Outcome } from '$lib/schemas/issues';
-import { handleAlertInput, snoozeAlertInput } from '$lib/schemas/upkeep';
-import { sequelize } from '$lib/server/db';
+import { handleAlertInput, snoozeAlertInput, upkeepThresholdInput } from '$lib/schemas/upkeep';
+import { Guide, sequelize } from '$lib/server/db';
+import { refreshRevisions } from './guide-prices';
 
 export type { UpkeepAlertView };
 
@@ -126,4 +127,38 @@ export async function setDigest(userId: string, enabled: boolean, now = new Date
 		 WHERE id = :userId`,
 		{ type: QueryTypes.UPDATE, replacements: { userId, enabled, now } }
 	);
+}
+
+/**
+ * Sets how far (whole percent) a guide's total may move in a region before the author is
+ * alerted, then works the author's live guides out again so the list answers at once.
+ */
+export async function setMoveThreshold(
+	userId: string,
+	input: unknown
+): Promise<Outcome<{ percent: number }>> {
+	const parsed = upkeepThresholdInput.safeParse(input);
+	if (!parsed.success) return { kind: 'invalid', issues: fieldIssues(parsed.error) };
+	await sequelize.query(`UPDATE users SET upkeep_move_threshold_bp = :bp WHERE id = :userId`, {
+		type: QueryTypes.UPDATE,
+		replacements: { userId, bp: parsed.data.percent * 100 }
+	});
+	const live = await Guide.findAll({
+		where: { authorId: userId },
+		attributes: ['publishedRevisionId'],
+		raw: true
+	});
+	await refreshRevisions(
+		live.flatMap((g) => (g.publishedRevisionId ? [g.publishedRevisionId] : []))
+	);
+	return { kind: 'ok', percent: parsed.data.percent };
+}
+
+/** The author's move threshold in whole percent (10 unless they chose another). */
+export async function moveThresholdPercent(userId: string): Promise<number> {
+	const [row] = await sequelize.query<{ bp: number }>(
+		`SELECT upkeep_move_threshold_bp AS bp FROM users WHERE id = :userId`,
+		{ type: QueryTypes.SELECT, replacements: { userId } }
+	);
+	return Math.round(Number(row?.bp ?? 1000) / 100);
 }

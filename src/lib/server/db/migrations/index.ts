@@ -97,6 +97,7 @@ import * as mQuotesDeletePartPrice from './2026.12.15T10.04.00.add-quotes-delete
 import * as mRegionsTaxPartPrice from './2026.12.15T10.05.00.add-regions-tax-part-price-trigger.js';
 import * as mPartsCopyPartPrice from './2026.12.15T10.06.00.add-parts-copy-part-price-trigger.js';
 import * as mBackfillPartRegionPrices from './2026.12.15T10.07.00.backfill-part-region-prices.js';
+import * as mUsersUpkeepMoveThreshold from './2026.12.16T10.00.00.add-users-upkeep-move-threshold.js';
 
 export const migrations: Record<string, MigrationModule> = {
 	'2026.12.01T10.00.00.create-users': m00,
@@ -190,5 +191,6 @@ export const migrations: Record<string, MigrationModule> = {
 	'2026.12.15T10.04.00.add-quotes-delete-part-price-trigger': mQuotesDeletePartPrice,
 	'2026.12.15T10.05.00.add-regions-tax-part-price-trigger': mRegionsTaxPartPrice,
 	'2026.12.15T10.06.00.add-parts-copy-part-price-trigger': mPartsCopyPartPrice,
-	'2026.12.15T10.07.00.backfill-part-region-prices': mBackfillPartRegionPrices
+	'2026.12.15T10.07.00.backfill-part-region-prices': mBackfillPartRegionPrices,
+	'2026.12.16T10.00.00.add-users-upkeep-move-threshold': mUsersUpkeepMoveThreshold
 };

@@ -35,6 +35,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 	declare upkeepDigest: CreationOptional<boolean>;
 	/** When the digest was last turned on: the first digest lists alerts seen since then. */
 	declare upkeepDigestSince: CreationOptional<Date | null>;
+	/** Basis points of the published total a guide's total may move before an alert (1000 = 10 %). */
+	declare upkeepMoveThresholdBp: CreationOptional<number>;
 	declare createdAt: CreationOptional<Date>;
 	declare updatedAt: CreationOptional<Date>;
 }
@@ -55,6 +57,7 @@ export function initUser(sequelize: Sequelize) {
 			disabledAt: { type: DataTypes.DATE, allowNull: true },
 			upkeepDigest: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
 			upkeepDigestSince: { type: DataTypes.DATE, allowNull: true },
+			upkeepMoveThresholdBp: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1000 },
 			createdAt: DataTypes.DATE,
 			updatedAt: DataTypes.DATE
 		},

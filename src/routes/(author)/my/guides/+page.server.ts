@@ -13,9 +13,14 @@ export const load: PageServerLoad = async () => {
 	const [guides, alerts, me] = await Promise.all([
 		reviewQueue.authorDashboard(user.id),
 		upkeep.openAlerts(user.id),
-		User.findByPk(user.id, { attributes: ['upkeepDigest'] })
+		User.findByPk(user.id, { attributes: ['upkeepDigest', 'upkeepMoveThresholdBp'] })
 	]);
-	return { guides, alerts, digest: me?.upkeepDigest ?? false };
+	return {
+		guides,
+		alerts,
+		digest: me?.upkeepDigest ?? false,
+		thresholdPercent: Math.round((me?.upkeepMoveThresholdBp ?? 1000) / 100)
+	};
 };
 
 /** Upkeep answers: a bad field or someone else's alert answers in place, never a 500. */
@@ -51,6 +56,21 @@ export const actions: Actions = {
 		await upkeep.setDigest(user.id, parsed.data.enabled);
 		return {
 			upkeepMessage: parsed.data.enabled ? 'The weekly digest is on.' : 'The weekly digest is off.'
+		};
+	},
+	threshold: async ({ request }) => {
+		const user = requireRole('author', 'editor');
+		const form = await readFormData(request);
+		const outcome = await upkeep.setMoveThreshold(user.id, { percent: form.number('percent') });
+		if (outcome.kind === 'invalid')
+			return fail(400, {
+				thresholdIssues: outcome.issues,
+				percent: form.text('percent'),
+				thresholdMessage: 'The threshold was not changed.'
+			});
+		if (outcome.kind !== 'ok') return fail(409, { thresholdMessage: 'Try again.' });
+		return {
+			thresholdMessage: `Saved: alerts come when a total moves more than ${outcome.percent} % since publication.`
 		};
 	}
 };
