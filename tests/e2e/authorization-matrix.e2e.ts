@@ -180,6 +180,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(author)/my/guides?/snooze': authors,
 	'POST /(author)/my/guides?/handle': authors,
 	'POST /(author)/my/guides?/digest': authors,
+	'POST /(author)/my/guides?/threshold': authors,
 	// Fork insights (issue 19): the sample guide is the demo author's; its author and editors see
 	// them, everyone else gets the 404 of a guide that does not exist (never a sign-in page).
 	'GET /(owner)/my/guides/[slug=slug]/insights': insightsAccess,
@@ -212,6 +213,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(editor)/editor/parts/new?/create': editors,
 	'GET /(editor)/editor/parts/[slug=slug]': editors,
 	'POST /(editor)/editor/parts/[slug=slug]?/save': editors,
+	'POST /(editor)/editor/parts/[slug=slug]?/withdrawQuote': editors,
 	'GET /(editor)/editor/parts/export.csv': editors,
 	'GET /(editor)/editor/parts/import': editors,
 	'POST /(editor)/editor/parts/import?/upload': editors,
@@ -224,6 +226,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(editor)/editor/stores?/delete': editors,
 	'GET /(editor)/editor/quotes': editors,
 	'POST /(editor)/editor/quotes?/create': editors,
+	'POST /(editor)/editor/quotes?/withdrawQuote': editors,
 	'GET /(editor)/editor/regions': editors,
 	'GET /(editor)/editor/regions/[code]': editors,
 	'POST /(editor)/editor/regions/[code]?/settings': editors,

@@ -1,6 +1,6 @@
 import { QueryTypes } from 'sequelize';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { FxRate, User, sequelize } from '../../src/lib/server/db';
+import { FxRate, Quote, User, sequelize } from '../../src/lib/server/db';
 import { seedDemoCommunity } from '../../src/lib/server/db/seeders/demo-community';
 import * as catalogStores from '../../src/lib/server/services/catalog-stores';
 import * as cautions from '../../src/lib/server/services/caution-rules';
@@ -156,6 +156,34 @@ describe('upkeep alerts', () => {
 		// A quote for the CPU in de makes de a listed region; the card has none there.
 		await addQuote('tollan-k6-test', 'de', '99.00');
 		expect(await stored()).toEqual(['no_quote de gpu-main', 'stale_quote us gpu-main']);
+		const alert = (await upkeep.openAlerts(g.author.id)).find((a) => a.kind === 'no_quote');
+		expect(alert?.sentence).toBe(
+			'Tollan G8 Test (Graphics card) has never been quoted in de: readers there cannot price it.'
+		);
+	});
+
+	it('a pick whose last quote an editor withdraws is gone from the stores there', async () => {
+		const quote = (await Quote.findOne({ where: { partId: g.parts.gpu.id } }))!;
+		expect(await catalogStores.withdrawQuote(editorId, { quoteId: String(quote.id) })).toEqual({
+			kind: 'ok'
+		});
+		// No active quote for the card in us: no total there, so no move or budget alert, and
+		// its stale quote no longer counts.
+		expect(await stored()).toEqual(['no_quote us gpu-main']);
+		const alert = (await upkeep.openAlerts(g.author.id))[0];
+		expect(alert?.sentence).toBe(
+			'Tollan G8 Test (Graphics card) has no active quote in us: it may be gone from the stores there.'
+		);
+		// Again: nothing changes. Unknown or malformed ids are answered, never thrown.
+		expect(await catalogStores.withdrawQuote(editorId, { quoteId: String(quote.id) })).toEqual({
+			kind: 'ok'
+		});
+		expect(await catalogStores.withdrawQuote(editorId, { quoteId: '999999' })).toEqual({
+			kind: 'not_found'
+		});
+		expect(await catalogStores.withdrawQuote(editorId, { quoteId: 'x' })).toMatchObject({
+			kind: 'invalid'
+		});
 	});
 
 	it('flags a pairing caution added after publication, and forgets it when the rule goes', async () => {

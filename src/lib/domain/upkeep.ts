@@ -64,6 +64,8 @@ export interface UpkeepRegion {
 	slots: UpkeepSlot[];
 	/** Newest active quote of each pick part here (part id → date); absent: no active quote. */
 	latestActiveQuote: ReadonlyMap<number, Date>;
+	/** Parts that ever had a quote here, active or not (a pick with none was never sold here). */
+	everQuoted?: ReadonlySet<number>;
 }
 
 export interface UpkeepFinding {
@@ -173,7 +175,13 @@ function slotAlerts(
 			...at,
 			subject: String(slot.pick.partId),
 			severity: 'conflict',
-			details: { region: region.code, slot: slot.label, part: slot.pick.name }
+			details: {
+				region: region.code,
+				slot: slot.label,
+				part: slot.pick.name,
+				// 0: never quoted here (stored as a number with the other details)
+				everQuoted: region.everQuoted && !region.everQuoted.has(slot.pick.partId) ? 0 : 1
+			}
 		});
 	else {
 		// Older than 30 days by the clock, not by whole days: 30 days and an hour is stale.
@@ -238,7 +246,9 @@ export function upkeepSentence(kind: UpkeepKind, d: Record<string, unknown>): st
 	const s = (k: string) => String(d[k] ?? '');
 	switch (kind) {
 		case 'no_quote':
-			return `${s('part')} (${s('slot')}) has no active quote in ${s('region')}: it may be gone from the stores there.`;
+			return d.everQuoted === 0
+				? `${s('part')} (${s('slot')}) has never been quoted in ${s('region')}: readers there cannot price it.`
+				: `${s('part')} (${s('slot')}) has no active quote in ${s('region')}: it may be gone from the stores there.`;
 		case 'over_budget':
 			return `The total in ${s('region')} is ${s('now')}, above the guide's target budget of ${s('budget')}.`;
 		case 'new_finding':

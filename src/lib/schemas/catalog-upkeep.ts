@@ -268,6 +268,9 @@ export const quoteInput = z.strictObject({
 });
 export type QuoteInput = z.infer<typeof quoteInput>;
 
+/** POST ?/withdrawQuote on the editors' quote lists: the store no longer sells the part. */
+export const withdrawQuoteInput = z.strictObject({ quoteId: id('quote') });
+
 /** GET /editor/parts?q=&category=&page= */
 export const partListQuery = z.strictObject({
 	q: z.string().trim().max(100, 'Search for at most 100 characters.').default(''),

@@ -2,7 +2,7 @@
  * The editor's catalog pages: parts, stores, quotes, region choices and CSV import problems.
  * Types only.
  */
-import type { PartCategory, QuoteSource, TaxMode } from '$lib/domain/types';
+import type { PartCategory, QuoteSource, TaxMode, QuoteStatus } from '$lib/domain/types';
 
 /** A part in the editor's lists. */
 export interface EditorPartRow {
@@ -44,6 +44,8 @@ export interface EditorQuoteRow {
 	taxIncluded: boolean;
 	observedAt: string;
 	source: QuoteSource;
+	/** 'withdrawn': the store no longer sells the part at this price; kept for the history. */
+	status: QuoteStatus;
 }
 
 /** A column of the catalog CSV (services/catalog-csv-check.ts CSV_COLUMNS). */

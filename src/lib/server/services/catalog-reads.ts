@@ -175,7 +175,8 @@ export async function listRecentQuotes(
 			currency: q.currency,
 			taxIncluded: q.taxIncluded,
 			observedAt: q.observedAt.toISOString(),
-			source: q.source
+			source: q.source,
+			status: q.status
 		};
 	});
 }

@@ -7,7 +7,7 @@
 import { Op, UniqueConstraintError } from 'sequelize';
 import type { Transaction } from 'sequelize';
 import { decimalMarkOf, minorUnitDigits, parseAmount } from '$lib/domain/money';
-import { quoteInput, storeInput } from '$lib/schemas/catalog-upkeep';
+import { quoteInput, storeInput, withdrawQuoteInput } from '$lib/schemas/catalog-upkeep';
 import { fieldIssues } from '$lib/schemas/issues';
 import { Part, Quote, Region, Store, sequelize } from '$lib/server/db';
 import * as audit from './audit';
@@ -255,4 +255,37 @@ export async function addQuote(
 	// The new quote may now be the latest for its part: re-store the figures that use it.
 	if (outcome.kind === 'ok') await guidePrices.refreshForQuotes([outcome.quoteId]);
 	return outcome;
+}
+
+/**
+ * Withdraws a quote: the store no longer sells the part (at that price). The row stays for
+ * the price history, but no total, pick or upkeep check counts it any more, so a pick left
+ * with no active quote in a region raises the "gone from the stores" alert. Withdrawing a
+ * withdrawn quote again changes nothing.
+ */
+export async function withdrawQuote(actorId: string, raw: unknown): Promise<Outcome> {
+	const input = withdrawQuoteInput.safeParse(raw);
+	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
+	const outcome = await sequelize.transaction(async (transaction) => {
+		const quote = await Quote.findByPk(input.data.quoteId, { transaction, lock: true });
+		if (!quote) return { kind: 'not_found' } as const;
+		if (quote.status === 'withdrawn') return { kind: 'ok', changed: false } as const;
+		const before = quote.status;
+		await quote.update({ status: 'withdrawn' }, { transaction });
+		await audit.record(
+			{
+				actorId,
+				action: 'quote.withdrawn',
+				subjectType: 'quote',
+				subjectId: quote.id,
+				before: { status: before },
+				after: { status: 'withdrawn' }
+			},
+			transaction
+		);
+		return { kind: 'ok', changed: true } as const;
+	});
+	if (outcome.kind !== 'ok') return outcome;
+	if (outcome.changed) await guidePrices.refreshForQuotes([input.data.quoteId]);
+	return { kind: 'ok' };
 }

@@ -137,11 +137,12 @@ export async function refreshAlerts(
 				regionId: region.id,
 				code: region.code,
 				listed: region.id === r.baseRegionId || slots.some((s) => dates?.quoted.has(s.pickPartId)),
-				total: p.adjustment.picksTotal,
+				total: completeTotal(p),
 				totalAtPublication: at(region.id),
 				budget: budget && budgetIn(budget, region.currency, rates).money,
 				cheaperAtPublication: new Set(baseline?.totals[String(region.id)]?.cheaper ?? []),
 				latestActiveQuote: dates?.latestActive ?? new Map(),
+				everQuoted: dates?.quoted ?? new Set(),
 				slots: regionSlots
 			};
 		});
@@ -179,6 +180,14 @@ function upkeepSlots(
 	}));
 }
 
+/**
+ * The picks total when every pick has a price; a total missing a part compares with nothing
+ * (a pick with no price has its own alert), so it neither "moves" nor crosses the budget.
+ */
+function completeTotal(p: Pick<PricedSet, 'adjustment'>): Money | null {
+	return p.adjustment.unpricedSlots === 0 ? p.adjustment.picksTotal : null;
+}
+
 function baselineOf(
 	priced: { region: Region; p: Pick<PricedSet, 'adjustment'>; slots: UpkeepSlot[] }[],
 	findings: UpkeepFinding[]
@@ -187,7 +196,7 @@ function baselineOf(
 	for (const { region, p, slots } of priced)
 		totals[String(region.id)] = {
 			currency: region.currency,
-			totalMinor: p.adjustment.picksTotal?.amountMinor ?? null,
+			totalMinor: completeTotal(p)?.amountMinor ?? null,
 			cheaper: cheaperAlternates(slots)
 		};
 	return { totals, findingKeys: findings.map((f) => f.key) };

@@ -1,6 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { formFields } from '$lib/schemas/account';
 import { requireRole } from '$lib/server/auth/guards';
+import { withdrawQuoteAction } from '$lib/server/http/quote-actions';
 import * as catalogReads from '$lib/server/services/catalog-reads';
 import * as catalogStores from '$lib/server/services/catalog-stores';
 import type { Actions, PageServerLoad } from './$types';
@@ -25,6 +26,7 @@ export const load: PageServerLoad = async ({ url }) => {
 };
 
 export const actions: Actions = {
+	withdrawQuote: withdrawQuoteAction,
 	create: async ({ request }) => {
 		const me = requireRole('editor');
 		const fields = formFields(await request.formData());

@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { CATEGORY_LABELS } from '$lib/domain/types';
 import { specFields } from '$lib/schemas/spec-form';
 import { requireRole } from '$lib/server/auth/guards';
+import { withdrawQuoteAction } from '$lib/server/http/quote-actions';
 import * as catalogParts from '$lib/server/services/catalog-parts';
 import * as catalogReads from '$lib/server/services/catalog-reads';
 import * as photos from '$lib/server/services/photos';
@@ -24,6 +25,7 @@ export const load: PageServerLoad = async ({ params, url }) => {
 };
 
 export const actions: Actions = {
+	withdrawQuote: withdrawQuoteAction,
 	save: async ({ params, request }) => {
 		const me = requireRole('editor');
 		const part = await catalogReads.getPart(params.slug);
