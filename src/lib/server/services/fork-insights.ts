@@ -242,7 +242,7 @@ async function slotInsights(
 				if (!key.startsWith('other:') || !suggested(n, overall.total)) return [];
 				const part = otherParts.get(Number(key.slice('other:'.length)));
 				if (!part || part.id === row.pickPartId) return [];
-				// x
+				if (row.alternates.some((a) => a.partId === part.id)) return [];
 				const hidden = cover.columnTotals[j] ?? true;
 				return [
 					{
