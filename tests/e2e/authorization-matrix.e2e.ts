@@ -181,6 +181,7 @@ const EXPECTED: Record<string, Record<Role, Outcome>> = {
 	'POST /(author)/my/guides?/handle': authors,
 	'POST /(author)/my/guides?/digest': authors,
 	'POST /(author)/my/guides?/threshold': authors,
+	'POST /(author)/my/guides?/restore': authors,
 	// Fork insights (issue 19): the sample guide is the demo author's; its author and editors see
 	// them, everyone else gets the 404 of a guide that does not exist (never a sign-in page).
 	'GET /(owner)/my/guides/[slug=slug]/insights': insightsAccess,

@@ -184,3 +184,21 @@ test('the author chooses the move threshold: at 20 % the +12.9 % move is no aler
 	await page.getByRole('button', { name: 'Save threshold' }).click();
 	await expect(moved).toHaveCount(1);
 });
+
+test('a snoozed alert waits under "Snoozed or handled" and comes back at once', async ({
+	page
+}) => {
+	await signInWithPassword(page, 'author@slotwise.test');
+	await page.goto('/my/guides');
+	const moved = page.getByTestId('upkeep-alert').filter({ hasText: 'moved +12.9 %' });
+	await moved.getByRole('button', { name: 'Snooze 30 days' }).click();
+	await expect(page.getByText('Snoozed; it comes back if still true then.')).toBeVisible();
+	await expect(moved).toHaveCount(0);
+	const aside = page.getByTestId('set-aside-alerts');
+	await aside.getByText('Snoozed or handled (1)').click();
+	await expect(aside.getByText('snoozed until')).toBeVisible();
+	await aside.getByRole('button', { name: 'Bring back' }).click();
+	await expect(page.getByText('Back among the open alerts.')).toBeVisible();
+	await expect(moved).toHaveCount(1);
+	await expect(page.getByTestId('set-aside-alerts')).toHaveCount(0);
+});

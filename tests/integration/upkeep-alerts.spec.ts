@@ -234,6 +234,31 @@ describe('upkeep alerts', () => {
 		const later = new Date(Date.now() + 8 * DAY_MS);
 		expect((await upkeep.openAlerts(g.author.id, later)).map((a) => a.id)).toEqual([first!.id]);
 	});
+
+	it('lists what was set aside and brings it back, for the author only', async () => {
+		await addQuote('tollan-k6-test', 'us', '130.00');
+		const [first, second] = await upkeep.openAlerts(g.author.id);
+		// A whole second: MariaDB keeps DATETIME to the second.
+		const now = new Date(Math.floor(Date.now() / 1000) * 1000);
+		await upkeep.snoozeAlert(g.author.id, { alertId: first!.id, days: 30 }, now);
+		await upkeep.markHandled(g.author.id, { alertId: second!.id });
+		const aside = await upkeep.setAsideAlerts(g.author.id);
+		// 30 days after the snooze: 30 × 86 400 000 ms later.
+		expect(aside.map((a) => [a.id, a.handled, a.snoozedUntil])).toEqual([
+			[first!.id, false, new Date(now.getTime() + 30 * DAY_MS).toISOString()],
+			[second!.id, true, null]
+		]);
+		const other = (await User.findOne({ where: { email: 'mira.falkenberg@slotwise.test' } }))!;
+		expect(await upkeep.bringBack(other.id, { alertId: first!.id })).toEqual({
+			kind: 'not_found'
+		});
+		expect(await upkeep.bringBack(g.author.id, { alertId: 'x' })).toMatchObject({
+			kind: 'invalid'
+		});
+		expect(await upkeep.bringBack(g.author.id, { alertId: first!.id })).toEqual({ kind: 'ok' });
+		expect((await upkeep.openAlerts(g.author.id)).map((a) => a.id)).toEqual([first!.id]);
+		expect((await upkeep.setAsideAlerts(g.author.id)).map((a) => a.id)).toEqual([second!.id]);
+	});
 });
 
 describe('weekly upkeep digest', () => {

@@ -20,6 +20,13 @@ export interface UpkeepAlertView {
 }
 
 /** One choice of a slot: the pick kept, an alternate chosen, another part, or the slot removed. */
+/** An alert the author set aside: snoozed (until when) or marked handled. */
+export interface SetAsideAlertView extends UpkeepAlertView {
+	handled: boolean;
+	/** ISO time the snooze ends; null when handled. */
+	snoozedUntil: string | null;
+}
+
 export interface InsightChoice {
 	kind: 'pick' | 'alternate' | 'other' | 'removed';
 	/** The part ("Brand Model"); null for a removed slot. */

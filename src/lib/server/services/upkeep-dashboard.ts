@@ -7,14 +7,14 @@
  */
 import { QueryTypes } from 'sequelize';
 import type { Severity } from '$lib/domain/build-parts';
-import type { UpkeepAlertView } from '$lib/views';
+import type { SetAsideAlertView, UpkeepAlertView } from '$lib/views';
 import { sortWorstFirst, upkeepSentence, type UpkeepKind } from '$lib/domain/upkeep';
 import { fieldIssues, type Outcome } from '$lib/schemas/issues';
 import { handleAlertInput, snoozeAlertInput, upkeepThresholdInput } from '$lib/schemas/upkeep';
 import { Guide, sequelize } from '$lib/server/db';
 import { refreshRevisions } from './guide-prices';
 
-export type { UpkeepAlertView };
+export type { SetAsideAlertView, UpkeepAlertView };
 
 const DAY_MS = 86_400_000;
 
@@ -111,6 +111,46 @@ export async function markHandled(
 		type: QueryTypes.UPDATE,
 		replacements: { id: input.data.alertId, now }
 	});
+	return { kind: 'ok' };
+}
+
+/**
+ * The alerts the author set aside that still hold: snoozed until a later moment, or marked
+ * handled. Listed under the open ones so nothing set aside is out of reach.
+ */
+export async function setAsideAlerts(
+	authorId: string,
+	now = new Date()
+): Promise<SetAsideAlertView[]> {
+	const rows = await sequelize.query<
+		AlertRow & { snoozedUntil: Date | null; handledAt: Date | null }
+	>(
+		`${ALERT_SELECT.replace(
+			'a.first_seen_at AS firstSeenAt',
+			'a.first_seen_at AS firstSeenAt, a.snoozed_until AS snoozedUntil, a.handled_at AS handledAt'
+		)}
+		  WHERE g.author_id = :authorId
+		    AND (a.handled_at IS NOT NULL OR a.snoozed_until > :now)
+		  ORDER BY a.first_seen_at ASC, a.id ASC`,
+		{ type: QueryTypes.SELECT, replacements: { authorId, now } }
+	);
+	return rows.map((row) => ({
+		...alertView(row),
+		handled: row.handledAt !== null,
+		snoozedUntil:
+			row.handledAt === null && row.snoozedUntil ? new Date(row.snoozedUntil).toISOString() : null
+	}));
+}
+
+/** Brings a snoozed or handled alert back among the open ones now. */
+export async function bringBack(authorId: string, raw: unknown): Promise<Outcome> {
+	const input = handleAlertInput.safeParse(raw);
+	if (!input.success) return { kind: 'invalid', issues: fieldIssues(input.error) };
+	if (!(await ownAlert(authorId, input.data.alertId))) return { kind: 'not_found' };
+	await sequelize.query(
+		'UPDATE guide_upkeep_alerts SET handled_at = NULL, snoozed_until = NULL WHERE id = :id',
+		{ type: QueryTypes.UPDATE, replacements: { id: input.data.alertId } }
+	);
 	return { kind: 'ok' };
 }
 

@@ -10,14 +10,16 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async () => {
 	const user = requireRole('author', 'editor');
-	const [guides, alerts, me] = await Promise.all([
+	const [guides, alerts, setAside, me] = await Promise.all([
 		reviewQueue.authorDashboard(user.id),
 		upkeep.openAlerts(user.id),
+		upkeep.setAsideAlerts(user.id),
 		User.findByPk(user.id, { attributes: ['upkeepDigest', 'upkeepMoveThresholdBp'] })
 	]);
 	return {
 		guides,
 		alerts,
+		setAside,
 		digest: me?.upkeepDigest ?? false,
 		thresholdPercent: Math.round((me?.upkeepMoveThresholdBp ?? 1000) / 100)
 	};
@@ -39,6 +41,12 @@ export const actions: Actions = {
 			days: form.number('days')
 		});
 		return answer(outcome, () => ({ upkeepMessage: 'Snoozed; it comes back if still true then.' }));
+	},
+	restore: async ({ request }) => {
+		const user = requireRole('author', 'editor');
+		const form = await readFormData(request);
+		const outcome = await upkeep.bringBack(user.id, { alertId: form.number('alertId') });
+		return answer(outcome, () => ({ upkeepMessage: 'Back among the open alerts.' }));
 	},
 	handle: async ({ request }) => {
 		const user = requireRole('author', 'editor');
