@@ -165,6 +165,12 @@ test('the author chooses the move threshold: at 20 % the +12.9 % move is no aler
 	await expect(edit).toHaveText('Edit The steady 1080p starter for about $700');
 	const field = page.getByLabel('Alert on a move of more than (%)');
 	await expect(field).toHaveValue('10');
+	// Saving the same value keeps it in the field (a form reset would blank it).
+	await page.getByRole('button', { name: 'Save threshold' }).click();
+	await expect(
+		page.getByText('Saved: alerts come when a total moves more than 10 %')
+	).toBeVisible();
+	await expect(field).toHaveValue('10');
 
 	await field.fill('ten');
 	await page.getByRole('button', { name: 'Save threshold' }).click();
@@ -178,6 +184,8 @@ test('the author chooses the move threshold: at 20 % the +12.9 % move is no aler
 		page.getByText('Saved: alerts come when a total moves more than 20 %')
 	).toBeVisible();
 	await expect(moved).toHaveCount(0);
+	// The field keeps what was saved (the form is not reset to blank).
+	await expect(field).toHaveValue('20');
 
 	// Back to the default, for the other tests on this demo.
 	await field.fill('10');
