@@ -1,3 +1,4 @@
+import { QueryTypes } from 'sequelize';
 import { beforeEach, describe, expect, it } from 'vitest';
 import {
 	Build,
@@ -194,6 +195,23 @@ describe('fork insights', () => {
 					'/my/guides/upkeep-test-rig/edit?slot=gpu-main&alternate=solenne-cobalt-c6-8g#slot-gpu-main'
 			}
 		]);
+	});
+
+	it('a guide nobody forked reads 0 builds, not "hidden"', async () => {
+		// 0 is shown as it is (the page then says nobody has forked the guide yet).
+		const [row] = await sequelize.query<{ slug: string }>(
+			`SELECT g.slug FROM guides g WHERE g.published_revision_id IS NOT NULL
+			    AND NOT EXISTS (SELECT 1 FROM builds b WHERE b.source_guide_id = g.id) LIMIT 1`,
+			{ type: QueryTypes.SELECT }
+		);
+		const editor = (await User.findOne({ where: { email: 'editor@slotwise.test' } }))!;
+		const outcome = await guideInsights(
+			{ id: editor.id, email: editor.email, name: editor.name, role: 'editor' },
+			row!.slug
+		);
+		if (outcome.kind !== 'ok') throw new Error('an editor sees any guide’s insights');
+		expect(outcome.insights.totalBuilds).toEqual(shown(0));
+		expect(outcome.insights.perRevision).toEqual([]);
 	});
 
 	it('stops suggesting a part once the live revision offers it as an alternate', async () => {

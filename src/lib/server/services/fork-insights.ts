@@ -104,7 +104,11 @@ export async function guideInsights(
 		kind: 'ok',
 		insights: {
 			guide: { slug: guide.slug, title: guide.title },
-			totalBuilds: shownCount(builds.length, revisionCover.grandTotal || builds.length < 5),
+			// Hidden when the per-revision table hides its total, and always from 1 to 4; 0 shows.
+			totalBuilds: shownCount(
+				builds.length,
+				revisionCover.grandTotal || buildCount(builds.length).fewerThan5
+			),
 			perRevision: revisionRows.map((r, j) => ({
 				revisionNumber: r.revisionNumber,
 				builds: shownCount(r.n, revisionCover.cells[0]?.[j] ?? true)
