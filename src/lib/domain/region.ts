@@ -426,20 +426,3 @@ export function adjustToRegion({ base, target, slots, rates }: AdjustInput): Reg
 		oldestRateAsOf
 	};
 }
-
-/** The budget in another currency at the reference rates; null when a rate is missing. */
-export function budgetIn(
-	budget: Money,
-	currency: string,
-	rates: RatesPerEur
-): { money: Money | null; asOf: string | null } {
-	if (budget.currency === currency) return { money: budget, asOf: null };
-	try {
-		return {
-			money: convertThroughEur(budget, currency, rates),
-			asOf: crossRate(budget.currency, currency, rates).asOf
-		};
-	} catch {
-		return { money: null, asOf: null };
-	}
-}

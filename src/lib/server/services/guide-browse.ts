@@ -19,7 +19,7 @@ import { Guide, Region, sequelize } from '$lib/server/db';
 import type { BrowseItem, BrowseResult, GuideCard } from '$lib/views';
 import { regionSummary } from './mappers';
 import * as fx from './fx';
-import { budgetIn } from './guides';
+import { budgetIn } from '$lib/domain/budget';
 import { allRegions } from './reference-cache';
 import { containsPattern, ftMinTokenSize, prefixPattern, textSearch } from './text-search';
 

@@ -17,7 +17,7 @@ import { reproducibility } from '$lib/domain/reproducibility';
 import { revisionDiff } from '$lib/domain/revision-diff';
 import type { AlternateReason } from '$lib/domain/types';
 import { valueOf } from '$lib/domain/value';
-import { budgetIn } from '$lib/domain/region';
+import { budgetIn } from '$lib/domain/budget';
 import { FrameResult, Guide, GuideRevision, Region, ThermalResult, User } from '$lib/server/db';
 import type {
 	DropInView,
@@ -36,9 +36,6 @@ import { dropInSlot, partRef, picksOf, regionSummary } from './mappers';
 import { priceRevisionsIn } from './pricing';
 import { allRegions, regionByCode } from './reference-cache';
 import { loadRevisionSlots, snapshotOf } from './revision-snapshots';
-
-// The guide page, the lists and upkeep alerts convert a target budget the same way.
-export { budgetIn };
 
 /** The published guide in its base region, or null when there is none. */
 export async function getPublishedBySlug(slug: string): Promise<GuideDetail | null> {

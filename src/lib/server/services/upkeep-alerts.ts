@@ -26,7 +26,7 @@ import {
 	type UpkeepFinding,
 	type UpkeepRegion
 } from '$lib/domain/upkeep';
-import { budgetIn } from '$lib/domain/region';
+import { budgetIn } from '$lib/domain/budget';
 import { CautionRule as CautionRuleRow, sequelize } from '$lib/server/db';
 import type { Part, Region } from '$lib/server/db';
 import * as fx from './fx';
